@@ -1,0 +1,27 @@
+// `npm run dev`: the API on :5480 behind Vite's dev server with hot reload.
+import path from 'node:path';
+import { createServer } from 'vite';
+import { startServer } from '../index';
+import { acquireStartLock } from './lock';
+import { PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
+import { stopCluster } from './postgres';
+
+const releaseLock = acquireStartLock('http://127.0.0.1:5173 (dev)');
+const cluster = startMainCluster();
+const databaseUrl = await prepareDatabase(cluster, 'benchwright');
+const api = await startServer({
+  databaseUrl,
+  port: PORTS.app,
+  config: { sessionSecret: readOrCreateSecret('session'), publicUrl: 'http://127.0.0.1:5173' },
+});
+const vite = await createServer({ configFile: path.join(projectRoot, 'vite.config.ts') });
+await vite.listen(5173);
+say(`API at ${api.url}; open http://127.0.0.1:5173 (hot reload)`);
+
+process.on('SIGINT', async () => {
+  await vite.close();
+  await api.close();
+  stopCluster(cluster.dataDir);
+  releaseLock();
+  process.exit(0);
+});

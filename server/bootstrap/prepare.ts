@@ -1,0 +1,47 @@
+// Shared steps of the start, dev and test commands: cluster, database, migrations, demo content.
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { createDb, createPool } from '../db/client';
+import { applyMigrations } from '../db/migrate';
+import { seedDemoContent } from '../db/seed';
+import { ensureDatabase, startCluster, type Cluster } from './postgres';
+
+export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+export const dataDir = path.join(projectRoot, '.data');
+
+/** Ports: 5480 for the app, 54329 for npm start's cluster, 54339 for the test cluster. */
+export const PORTS = { app: 5480, mainDb: 54329, testDb: 54339 } as const;
+
+export const say = (line: string) => console.log(`[benchwright] ${line}`);
+
+export function readOrCreateSecret(name: string): string {
+  mkdirSync(dataDir, { recursive: true });
+  const file = path.join(dataDir, `${name}.secret`);
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  const secret = randomBytes(32).toString('base64url');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}
+
+/** Creates the database if needed, applies migrations and loads demo content; returns its URL. */
+export async function prepareDatabase(cluster: Cluster, database: string, { seed = true } = {}) {
+  await ensureDatabase(cluster.adminUrl, database);
+  const url = cluster.urlFor(database);
+  const pool = createPool(url);
+  try {
+    const db = createDb(pool);
+    say(`applying migrations to ${database}`);
+    await applyMigrations(db);
+    if (seed) await seedDemoContent(db, say);
+  } finally {
+    await pool.end();
+  }
+  return url;
+}
+
+export function startMainCluster() {
+  say(`starting PostgreSQL on 127.0.0.1:${PORTS.mainDb}`);
+  return startCluster({ name: 'main', port: PORTS.mainDb, projectRoot });
+}

@@ -1,0 +1,58 @@
+// `npm start`: private PostgreSQL, migrations, demo content, client build, one Express process.
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
+import { build } from 'vite';
+import { readDemoPeople } from '../db/seed';
+import { startServer } from '../index';
+import { acquireStartLock } from './lock';
+import { dataDir, PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
+import { stopCluster } from './postgres';
+
+const port = Number(process.env.PORT ?? PORTS.app);
+const host = '127.0.0.1';
+const url = `http://${host}:${port}`;
+
+mkdirSync(dataDir, { recursive: true });
+const releaseLock = acquireStartLock(url);
+
+const cluster = startMainCluster();
+const databaseUrl = await prepareDatabase(cluster, 'benchwright');
+
+say('building the client…');
+await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
+
+const running = await startServer({
+  databaseUrl,
+  host,
+  port,
+  config: { sessionSecret: readOrCreateSecret('session'), clientDir: path.join(projectRoot, 'dist/client') },
+}).catch((err: NodeJS.ErrnoException) => {
+  if (err.code === 'EADDRINUSE') console.error(`[benchwright] port ${port} is taken by another program; set PORT=… and try again.`);
+  releaseLock();
+  throw err;
+});
+
+console.log(`
+  Benchwright is running at ${running.url}
+  Database: PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})
+
+  Demo sign-ins (Tallow Creek Valve Works):
+${readDemoPeople()
+  .map((p) => `    ${p.roles.join(' + ').padEnd(18)} ${p.email.padEnd(28)} ${p.password}`)
+  .join('\n')}
+
+  Stop with Ctrl+C; everything stays in the database for next time.
+`);
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  say(`${signal}: finishing requests and stopping…`);
+  await running.close();
+  stopCluster(cluster.dataDir);
+  releaseLock();
+  process.exit(0);
+}
+process.on('SIGINT', () => void stop('SIGINT'));
+process.on('SIGTERM', () => void stop('SIGTERM'));

@@ -1,0 +1,22 @@
+// `npm test`: a throwaway cluster and template database (never npm start's), a client build for the
+// browser tests, then vitest over unit, API and end-to-end projects. Exits with vitest's code.
+import { spawnSync } from 'node:child_process';
+import path from 'node:path';
+import { build } from 'vite';
+import { projectRoot, say } from './prepare';
+import { stopCluster } from './postgres';
+import { prepareTestTemplate } from '../../tests/support/test-cluster';
+
+const { cluster } = await prepareTestTemplate();
+
+say('building the client for the browser tests…');
+await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
+
+const vitest = spawnSync(path.join(projectRoot, 'node_modules/.bin/vitest'), ['run', ...process.argv.slice(2)], {
+  cwd: projectRoot,
+  stdio: 'inherit',
+  env: { ...process.env, BW_TEST_PREPARED: '1' },
+});
+
+stopCluster(cluster.dataDir);
+process.exit(vitest.status ?? 1);

@@ -1,0 +1,3 @@
+export * from './people';
+export * from './sessions';
+export * from './audit';

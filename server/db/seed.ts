@@ -1,0 +1,40 @@
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { z } from 'zod';
+import { ROLES } from '../../shared/schemas/roles';
+import { hashPassword } from '../auth/passwords';
+import type { Db } from './client';
+import { people } from './schema';
+
+export const contentSeedDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../content-seed');
+
+const peopleFile = z.object({
+  people: z.array(
+    z.object({ email: z.string(), displayName: z.string(), roles: z.array(z.enum(ROLES)), password: z.string() }),
+  ),
+});
+
+export function readDemoPeople() {
+  return peopleFile.parse(JSON.parse(readFileSync(path.join(contentSeedDir, 'people.json'), 'utf8'))).people;
+}
+
+/**
+ * Loads the demo content. Idempotent: rows that already exist (by natural key) are left exactly as
+ * people changed them; only missing ones are added.
+ */
+export async function seedDemoContent(db: Db, log: (line: string) => void = () => undefined) {
+  const demo = readDemoPeople();
+  const existing = new Set((await db.select({ email: people.email }).from(people)).map((r) => r.email));
+  let added = 0;
+  for (const p of demo) {
+    if (existing.has(p.email)) continue;
+    const inserted = await db
+      .insert(people)
+      .values({ email: p.email, displayName: p.displayName, roles: p.roles, passwordHash: await hashPassword(p.password) })
+      .onConflictDoNothing({ target: people.email })
+      .returning({ id: people.id });
+    added += inserted.length;
+  }
+  log(`demo people: ${added} added, ${demo.length - added} already present`);
+}

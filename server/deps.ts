@@ -1,0 +1,34 @@
+import type pg from 'pg';
+import type { Logger } from 'pino';
+import type { Db } from './db/client';
+
+export interface AppConfig {
+  sessionSecret: string;
+  /** Express "trust proxy" setting; false when Benchwright is reached directly. */
+  trustProxy: boolean | number | string;
+  /** Built client to serve (dist/client); omitted in API-only tests and in dev. */
+  clientDir?: string;
+  /** Base URL people reach the app at, for links in invitations and mail. */
+  publicUrl: string;
+  signInLimits: { perAccount: number; perAddress: number; windowMs: number };
+  /** Idle and absolute session lifetimes. */
+  sessionIdleMs: number;
+  sessionAbsoluteMs: number;
+}
+
+/** Everything a route handler may reach; built once per app. */
+export interface AppDeps {
+  db: Db;
+  pool: pg.Pool;
+  logger: Logger;
+  config: AppConfig;
+}
+
+export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>): AppConfig => ({
+  trustProxy: false,
+  publicUrl: 'http://127.0.0.1:5480',
+  signInLimits: { perAccount: 10, perAddress: 50, windowMs: 15 * 60_000 },
+  sessionIdleMs: 8 * 3600_000,
+  sessionAbsoluteMs: 24 * 3600_000,
+  ...overrides,
+});

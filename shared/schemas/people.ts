@@ -1,0 +1,37 @@
+import { z } from 'zod';
+import { ROLES } from './roles';
+import { emailSchema } from './auth';
+
+export const roleListSchema = z
+  .array(z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }))
+  .min(1, 'give at least one role')
+  .transform((roles) => [...new Set(roles)]);
+
+export const inviteBody = z.object({
+  email: emailSchema,
+  displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters'),
+  roles: roleListSchema,
+});
+
+export const updatePersonBody = z
+  .object({
+    displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters').optional(),
+    roles: roleListSchema.optional(),
+    active: z.boolean().optional(),
+  })
+  .strict()
+  .refine((b) => Object.keys(b).length > 0, { message: 'nothing to change' });
+
+export type InviteBody = z.infer<typeof inviteBody>;
+export type UpdatePersonBody = z.infer<typeof updatePersonBody>;
+
+/** A person as the API returns them. */
+export interface PersonView {
+  id: string;
+  email: string;
+  displayName: string;
+  roles: (typeof ROLES)[number][];
+  active: boolean;
+  hasPassword: boolean;
+  createdAt: string;
+}

@@ -1,0 +1,25 @@
+import { useEffect } from 'react';
+import { Notice } from '@/components/ui/notice';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { usePeople } from '@/features/people/api/get-people';
+import { InviteForm } from '@/features/people/components/invite-form';
+import { PeopleTable } from '@/features/people/components/people-table';
+
+export default function PeoplePage() {
+  const session = useSession();
+  const isAdmin = hasRole(session.data?.user, 'admin');
+  const people = usePeople();
+  useEffect(() => {
+    document.title = 'People · Benchwright';
+  }, []);
+  if (!isAdmin) return <Notice tone="error">This page is for admins.</Notice>;
+  return (
+    <section className="flex flex-col gap-6">
+      <h1 className="text-2xl font-semibold">People</h1>
+      {people.isPending && <p>Loading…</p>}
+      {people.isError && <Notice tone="error">{people.error.message}</Notice>}
+      {people.data && <PeopleTable people={people.data.people} selfId={session.data!.user!.id} />}
+      <InviteForm />
+    </section>
+  );
+}

@@ -1,0 +1,83 @@
+import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { ROLE_LABELS } from '@shared/schemas/roles';
+import { paths } from '@/config/paths';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { useSignOut } from '@/features/auth/api/sign-out';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { Notice } from '@/components/ui/notice';
+import type { Role } from '@shared/schemas/roles';
+
+/** Navigation, once: each entry names the roles that see it. */
+const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
+  { to: paths.home.href(), label: 'Start', roles: 'all' },
+  { to: paths.people.href(), label: 'People', roles: ['admin'] },
+];
+
+/** The signed-in shell: header with the role's navigation, the page, the standing safety caution. */
+export function AppLayout() {
+  const session = useSession();
+  const location = useLocation();
+  const navigate = useNavigate();
+  const signOut = useSignOut();
+
+  if (session.isPending) return <p className="p-8 text-graphite-soft">Loading…</p>;
+  if (session.isError)
+    return (
+      <main className="mx-auto max-w-xl p-8">
+        <Notice tone="error">{session.error.message}</Notice>
+      </main>
+    );
+  const user = session.data.user;
+  if (!user) return <Navigate to={paths.signIn.href(location.pathname + location.search)} replace />;
+
+  const links = NAV.filter((n) => n.roles === 'all' || hasRole(user, ...n.roles));
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2">
+        Skip to content
+      </a>
+      <header className="no-print border-b border-rule bg-paper-deep">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <NavLink to="/" className="text-lg font-semibold tracking-tight text-accent-deep">
+            Benchwright
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-wrap gap-1">
+            {links.map((l) => (
+              <NavLink
+                key={l.to}
+                to={l.to}
+                end
+                className={({ isActive }) =>
+                  `rounded-md px-3 py-2 text-sm ${isActive ? 'bg-accent text-white' : 'hover:bg-paper'}`
+                }
+              >
+                {l.label}
+              </NavLink>
+            ))}
+          </nav>
+          <div className="ml-auto flex items-center gap-3 text-sm">
+            <span>
+              {user.displayName}{' '}
+              <span className="text-graphite-soft">({user.roles.map((r) => ROLE_LABELS[r]).join(', ')})</span>
+            </span>
+            <button
+              type="button"
+              className="rounded-md border border-rule bg-card px-3 py-2 hover:bg-paper"
+              onClick={() => signOut.mutate(undefined, { onSettled: () => navigate(paths.signIn.href()) })}
+            >
+              Sign out
+            </button>
+          </div>
+        </div>
+      </header>
+      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">
+        <Outlet />
+      </main>
+      <footer className="no-print border-t border-rule px-4 py-4">
+        <div className="mx-auto max-w-6xl">
+          <SafetyCaution />
+        </div>
+      </footer>
+    </div>
+  );
+}

@@ -1,0 +1,24 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Role } from '@shared/schemas/roles';
+import { api } from '@/lib/api-client';
+
+export interface SessionUser {
+  id: string;
+  email: string;
+  displayName: string;
+  roles: Role[];
+}
+
+export interface SessionInfo {
+  user: SessionUser | null;
+  csrfToken: string;
+}
+
+export const getSession = () => api.get<SessionInfo>('/api/auth/session');
+
+export const sessionQueryOptions = () => queryOptions({ queryKey: ['session'], queryFn: getSession, staleTime: 60_000 });
+
+export const useSession = () => useQuery(sessionQueryOptions());
+
+export const hasRole = (user: SessionUser | null | undefined, ...roles: Role[]) =>
+  !!user && roles.some((r) => user.roles.includes(r));

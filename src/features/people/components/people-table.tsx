@@ -1,0 +1,68 @@
+import type { PersonView } from '@shared/schemas/people';
+import { ROLE_LABELS, ROLES, type Role } from '@shared/schemas/roles';
+import { Notice } from '@/components/ui/notice';
+import { useUpdatePerson } from '../api/update-person';
+
+export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: string }) {
+  const update = useUpdatePerson();
+  const toggleRole = (p: PersonView, role: Role, on: boolean) => {
+    const roles = on ? [...p.roles, role] : p.roles.filter((r) => r !== role);
+    update.mutate({ id: p.id, roles });
+  };
+  return (
+    <div className="flex flex-col gap-3">
+      {update.error && <Notice tone="error">{update.error.message}</Notice>}
+      <div className="overflow-x-auto rounded-lg border border-rule bg-card">
+        <table className="w-full text-left text-sm">
+          <thead className="border-b border-rule bg-paper-deep">
+            <tr>
+              <th className="px-3 py-2">Name</th>
+              <th className="px-3 py-2">E-mail</th>
+              {ROLES.map((r) => (
+                <th key={r} className="px-3 py-2 text-center">
+                  {ROLE_LABELS[r]}
+                </th>
+              ))}
+              <th className="px-3 py-2">Status</th>
+              <th className="px-3 py-2">
+                <span className="sr-only">Actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {people.map((p) => (
+              <tr key={p.id} className={`border-b border-rule last:border-0 ${p.active ? '' : 'text-graphite-soft'}`}>
+                <td className="px-3 py-2 font-semibold">{p.displayName}</td>
+                <td className="px-3 py-2">{p.email}</td>
+                {ROLES.map((r) => (
+                  <td key={r} className="px-3 py-2 text-center">
+                    <input
+                      type="checkbox"
+                      className="size-5"
+                      aria-label={`${p.displayName}: ${ROLE_LABELS[r]}`}
+                      checked={p.roles.includes(r)}
+                      disabled={update.isPending || (p.id === selfId && r === 'admin')}
+                      onChange={(e) => toggleRole(p, r, e.target.checked)}
+                    />
+                  </td>
+                ))}
+                <td className="px-3 py-2">{!p.active ? 'Deactivated' : p.hasPassword ? 'Active' : 'Invited'}</td>
+                <td className="px-3 py-2 text-right">
+                  {p.id !== selfId && (
+                    <button
+                      type="button"
+                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                      onClick={() => update.mutate({ id: p.id, active: !p.active })}
+                    >
+                      {p.active ? 'Deactivate' : 'Reactivate'}
+                    </button>
+                  )}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}

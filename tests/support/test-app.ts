@@ -1,0 +1,71 @@
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { createDb, createPool } from '../../server/db/client';
+import { defaultConfig, type AppConfig } from '../../server/deps';
+import { createLogger } from '../../server/logger';
+import { readDemoPeople } from '../../server/db/seed';
+import { createTestDatabase } from './test-db';
+
+export const demo = Object.fromEntries(
+  readDemoPeople().map((p) => [p.email.split('@')[0]!, { email: p.email, password: p.password, roles: p.roles }]),
+) as Record<'admin' | 'hal' | 'ruth' | 'marek' | 'dee' | 'tom' | 'priya' | 'sam', { email: string; password: string; roles: string[] }>;
+
+/** The real Express app on a private, migrated and seeded database. */
+export async function createTestApp(overrides: Partial<AppConfig> = {}) {
+  const database = await createTestDatabase();
+  const pool = createPool(database.url);
+  const db = createDb(pool);
+  const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', ...overrides });
+  const app = createApp({ db, pool, logger: createLogger('silent'), config });
+
+  /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
+  function client() {
+    const agent = request.agent(app);
+    let csrf = '';
+    const withToken = <T extends request.Test>(t: T) => t.set('x-csrf-token', csrf);
+    return {
+      agent,
+      get csrf() {
+        return csrf;
+      },
+      async refreshToken() {
+        const res = await agent.get('/api/auth/session');
+        csrf = res.body.csrfToken;
+        return res;
+      },
+      async signIn(email: string, password: string) {
+        if (!csrf) await this.refreshToken();
+        const res = await withToken(agent.post('/api/auth/sign-in')).send({ email, password });
+        if (res.body.csrfToken) csrf = res.body.csrfToken;
+        return res;
+      },
+      get: (url: string) => agent.get(url),
+      post: (url: string) => withToken(agent.post(url)),
+      patch: (url: string) => withToken(agent.patch(url)),
+      put: (url: string) => withToken(agent.put(url)),
+      delete: (url: string) => withToken(agent.delete(url)),
+    };
+  }
+
+  async function as(who: keyof typeof demo) {
+    const c = client();
+    const res = await c.signIn(demo[who].email, demo[who].password);
+    if (res.status !== 200) throw new Error(`sign-in as ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
+    return c;
+  }
+
+  return {
+    app,
+    db,
+    pool,
+    client,
+    as,
+    async close() {
+      (app.locals.sessionStore as { close(): void }).close();
+      await pool.end();
+      await database.drop();
+    },
+  };
+}
+
+export type TestApp = Awaited<ReturnType<typeof createTestApp>>;
