@@ -19,7 +19,8 @@ export default defineConfig({
       '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
     },
   },
-  build: { outDir: '../dist/client', emptyOutDir: true, chunkSizeWarningLimit: 900 },
+  // No inlined data: URLs, so the strict CSP (font-src 'self') holds.
+  build: { outDir: '../dist/client', emptyOutDir: true, chunkSizeWarningLimit: 900, assetsInlineLimit: 0 },
   server: {
     host: '127.0.0.1',
     proxy: { '/api': `http://127.0.0.1:${apiPort}`, '/files': `http://127.0.0.1:${apiPort}` },

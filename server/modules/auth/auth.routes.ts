@@ -37,6 +37,14 @@ export const authRoutes = [
   }),
 
   defineRoute({
+    method: 'get',
+    path: '/auth/me',
+    access: 'signed-in',
+    summary: 'The signed-in person (401 when the session has ended)',
+    handler: ({ user }) => ({ user }),
+  }),
+
+  defineRoute({
     method: 'post',
     path: '/auth/sign-in',
     access: 'public',

@@ -1,0 +1,84 @@
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser } from '../support/browser';
+import { demo } from '../support/test-app';
+import { startTestServer } from '../support/test-server';
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const cspViolations: string[] = [];
+
+beforeAll(async () => {
+  server = await startTestServer();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+/** A page in a fresh context (no shared cookies) that reports any CSP violation. */
+async function openPage() {
+  const page = await (await browser.newContext()).newPage();
+  page.on('console', (m) => {
+    if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 160));
+  });
+  return page;
+}
+
+async function signIn(page: Page, email: string, password: string) {
+  await page.goto(server.url + '/');
+  await page.waitForURL(/\/sign-in/);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+const homeByRole = [
+  { who: 'tom', panel: 'Bench work' },
+  { who: 'hal', panel: 'Writing procedures' },
+  { who: 'marek', panel: 'Review and sign-off' },
+  { who: 'admin', panel: 'Shop administration' },
+] as const;
+
+describe('signing in as each demo role in Chromium', () => {
+  for (const { who, panel } of homeByRole) {
+    it(`${who} (${demo[who].roles.join(', ')}) sees their home page, then signs out`, async () => {
+      const page = await openPage();
+      await signIn(page, demo[who].email, demo[who].password);
+      await page.getByRole('heading', { name: panel }).waitFor();
+      // Only admins get the People link.
+      expect(await page.getByRole('link', { name: 'People', exact: true }).count()).toBe(who === 'admin' ? 1 : 0);
+      await page.getByRole('button', { name: 'Sign out' }).click();
+      await page.waitForURL(/\/sign-in/);
+      await page.context().close();
+    });
+  }
+
+  it('a wrong password shows a readable message and stays on the sign-in page', async () => {
+    const page = await openPage();
+    await signIn(page, demo.tom.email, 'definitely-wrong');
+    await page.getByRole('alert').filter({ hasText: 'do not match' }).waitFor();
+    expect(page.url()).toMatch(/\/sign-in/);
+    await page.context().close();
+  });
+
+  it('an admin invites a person and sees the one-time link; an unknown page shows the 404 page', async () => {
+    const page = await openPage();
+    await signIn(page, demo.admin.email, demo.admin.password);
+    await page.getByRole('link', { name: 'People', exact: true }).first().click();
+    await page.getByRole('heading', { name: 'People' }).waitFor();
+    await page.getByLabel('Name').fill('Ada Fenwick');
+    await page.getByLabel('E-mail').fill('ada@tallowcreek.example');
+    await page.getByRole('button', { name: 'Create invitation' }).click();
+    await page.getByText('/set-password/').waitFor();
+    await page.getByRole('cell', { name: 'ada@tallowcreek.example' }).waitFor();
+    await page.goto(server.url + '/no/such/page');
+    await page.getByRole('heading', { name: 'Nothing here' }).waitFor();
+    await page.context().close();
+  });
+
+  it('the built app runs under the strict Content-Security-Policy with no violations', () => {
+    expect(cspViolations).toEqual([]);
+  });
+});
