@@ -3,14 +3,14 @@
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { build } from 'vite';
-import { projectRoot, say } from './prepare';
+import { projectRoot, say, testClientDir } from './prepare';
 import { stopCluster } from './postgres';
 import { prepareTestTemplate } from '../../tests/support/test-cluster';
 
 const { cluster } = await prepareTestTemplate();
 
 say('building the client for the browser tests…');
-await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
+await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts'), build: { outDir: testClientDir } });
 
 const vitest = spawnSync(path.join(projectRoot, 'node_modules/.bin/vitest'), ['run', ...process.argv.slice(2)], {
   cwd: projectRoot,

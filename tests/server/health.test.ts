@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
-import { projectRoot, prepareDatabase } from '../../server/bootstrap/prepare';
+import { PORTS, projectRoot, prepareDatabase, testClusterName } from '../../server/bootstrap/prepare';
 import { startCluster, stopCluster, type Cluster } from '../../server/bootstrap/postgres';
 import { createDb, createPool } from '../../server/db/client';
 import { defaultConfig } from '../../server/deps';
@@ -11,7 +11,7 @@ import { createLogger } from '../../server/logger';
 let cluster: Cluster;
 let pool: ReturnType<typeof createPool>;
 let app: ReturnType<typeof createApp>;
-const options = { name: 'health', port: 54349, projectRoot };
+const options = { name: testClusterName('health'), port: PORTS.healthDb, projectRoot };
 
 beforeAll(async () => {
   cluster = startCluster(options);

@@ -1,5 +1,4 @@
-import path from 'node:path';
-import { projectRoot } from '../../server/bootstrap/prepare';
+import { testClientDir } from '../../server/bootstrap/prepare';
 import { startServer } from '../../server/index';
 import { createLogger } from '../../server/logger';
 import { createTestDatabase } from './test-db';
@@ -11,7 +10,7 @@ export async function startTestServer() {
     databaseUrl: database.url,
     port: 0,
     logger: createLogger('silent'),
-    config: { sessionSecret: 'e2e-secret-'.padEnd(40, 'x'), clientDir: path.join(projectRoot, 'dist/client') },
+    config: { sessionSecret: 'e2e-secret-'.padEnd(40, 'x'), clientDir: testClientDir },
   });
   return {
     url: running.url,

@@ -1,3 +1,4 @@
 export * from './people';
 export * from './sessions';
 export * from './audit';
+export * from './procedures';

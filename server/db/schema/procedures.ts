@@ -1,0 +1,83 @@
+import { sql } from 'drizzle-orm';
+import { bigint, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import type { ProcedureParams } from '../../../shared/document/params';
+import type { ProcedureDoc } from '../../../shared/document/schema';
+import type { Snapshot } from '../../../shared/document/evaluate';
+import { people } from './people';
+
+export const REVISION_STATES = ['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'] as const;
+export type RevisionState = (typeof REVISION_STATES)[number];
+
+/** A procedure's stable identity; title and equipment mirror its latest revision for listing. */
+export const procedures = pgTable(
+  'procedures',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    title: text().notNull(),
+    equipmentFamily: text().notNull(),
+    equipmentModel: text().notNull(),
+    tags: text().array().notNull().default(sql`'{}'::text[]`),
+    ownerId: uuid()
+      .notNull()
+      .references(() => people.id),
+    /** Natural key for demo content, so seeding twice never duplicates. */
+    seedKey: text().unique(),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('procedures_family_idx').on(t.equipmentFamily)],
+);
+
+/** One numbered version of a procedure. */
+export const revisions = pgTable(
+  'revisions',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    procedureId: uuid()
+      .notNull()
+      .references(() => procedures.id, { onDelete: 'cascade' }),
+    number: integer().notNull(),
+    state: text().$type<RevisionState>().notNull().default('draft'),
+    title: text().notNull(),
+    equipmentFamily: text().notNull(),
+    equipmentModel: text().notNull(),
+    tags: text().array().notNull().default(sql`'{}'::text[]`),
+    document: jsonb().$type<ProcedureDoc>().notNull(),
+    params: jsonb().$type<ProcedureParams>().notNull(),
+    /** Evaluated by the server with the shared reckoners; the client's numbers are never stored. */
+    snapshot: jsonb().$type<Snapshot>().notNull(),
+    html: text().notNull(),
+    plainText: text().notNull(),
+    authorId: uuid()
+      .notNull()
+      .references(() => people.id),
+    /** Everyone who saved this revision: none of them may approve it. */
+    editorIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
+    lockVersion: integer().notNull().default(1),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    submittedAt: timestamp({ withTimezone: true }),
+    decidedAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [
+    uniqueIndex('revisions_procedure_number_uq').on(t.procedureId, t.number),
+    // At most one revision being worked on or reviewed per procedure at a time.
+    uniqueIndex('revisions_one_open_uq').on(t.procedureId).where(sql`state in ('draft', 'in_review')`),
+    uniqueIndex('revisions_one_approved_uq').on(t.procedureId).where(sql`state = 'approved'`),
+    index('revisions_state_idx').on(t.state),
+  ],
+);
+
+/** Uploaded photos, schematics and scope captures; the bytes live under .data/uploads. */
+export const attachments = pgTable('attachments', {
+  id: uuid().primaryKey().defaultRandom(),
+  storedName: text().notNull().unique(),
+  originalName: text().notNull(),
+  mediaType: text().notNull(),
+  size: bigint({ mode: 'number' }).notNull(),
+  sha256: text().notNull(),
+  uploadedBy: uuid()
+    .notNull()
+    .references(() => people.id),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});

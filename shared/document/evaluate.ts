@@ -1,0 +1,95 @@
+/**
+ * Evaluates a procedure document: every reckoner block (in dependency order, through the shared
+ * registry) and every reading's expected band. The server stores the result as the revision's
+ * snapshot; bench runs call it again with the measured mains; the editor calls it on each change.
+ */
+import { evaluateProcedure, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
+import { formatQuantity, parseQuantity } from '../units';
+import { extractBlocks } from './extract';
+import type { ProcedureParams } from './params';
+import type { ProcedureDoc, ReadingAttrs } from './schema';
+
+export type BlockSnapshot = BlockResult & { id: string; section: string };
+
+export interface ResolvedReading {
+  id: string;
+  label: string;
+  testPoint: string;
+  meterRange: string;
+  unit: string;
+  section: string;
+  toleranceText: string;
+  /** Where the expected value came from: a literal or "block.output". */
+  expectedSource: string;
+  expected: number | null;
+  low: number | null;
+  high: number | null;
+  /** Printed band ("340 V … 360 V"), or null with error set. */
+  bandText: string | null;
+  error?: string;
+}
+
+export interface Snapshot {
+  params: ProcedureParams;
+  blocks: BlockSnapshot[];
+  readings: ResolvedReading[];
+  errors: ProcedureError[];
+}
+
+function expectedValue(reading: ReadingAttrs, blocks: Map<string, BlockResult>): number {
+  if ('literal' in reading.expected) {
+    const q = parseQuantity(reading.expected.literal, reading.unit);
+    return q.value;
+  }
+  const ref = reading.expected.ref;
+  const dot = ref.indexOf('.');
+  if (dot < 1) throw new Error(`"${ref}" is not a reference; write it as block.output`);
+  const [name, key] = [ref.slice(0, dot), ref.slice(dot + 1)];
+  const block = blocks.get(name);
+  if (!block) throw new Error(`no reckoner is named "${name}"`);
+  if (!block.ok) throw new Error(`reckoner "${name}" has errors, so "${ref}" has no value`);
+  const out = block.outputs[key];
+  if (!out) throw new Error(`reckoner "${name}" has no output "${key}" (it has: ${Object.keys(block.outputs).join(', ')})`);
+  if (typeof out.value !== 'number') throw new Error(`"${ref}" is not a number`);
+  if ((out.unit ?? '') !== reading.unit) throw new Error(`"${ref}" is in ${out.unit || 'no unit'}, but the reading is in ${reading.unit}`);
+  return out.value;
+}
+
+export function resolveReading(reading: ReadingAttrs & { section?: string }, blocks: Map<string, BlockResult>): ResolvedReading {
+  const base = {
+    id: reading.id,
+    label: reading.label,
+    testPoint: reading.testPoint,
+    meterRange: reading.meterRange,
+    unit: reading.unit,
+    section: reading.section ?? '',
+    toleranceText: reading.tolerance,
+    expectedSource: 'literal' in reading.expected ? reading.expected.literal : reading.expected.ref,
+  };
+  try {
+    const expected = expectedValue(reading, blocks);
+    if (!reading.tolerance.trim()) {
+      return { ...base, expected, low: null, high: null, bandText: null, error: 'no tolerance given' };
+    }
+    const band = toleranceBand(expected, parseTolerance(reading.tolerance, reading.unit));
+    return {
+      ...base,
+      expected,
+      ...band,
+      bandText: `${formatQuantity(band.low, reading.unit)} … ${formatQuantity(band.high, reading.unit)}`,
+    };
+  } catch (err) {
+    return { ...base, expected: null, low: null, high: null, bandText: null, error: err instanceof Error ? err.message : String(err) };
+  }
+}
+
+export function evaluateDocument(doc: ProcedureDoc, params: ProcedureParams): Snapshot {
+  const { reckoners, readings } = extractBlocks(doc);
+  const result = evaluateProcedure(
+    reckoners.map((r) => ({ name: r.name, kind: r.kind, inputs: r.inputs })),
+    params,
+  );
+  const blocks = result.blocks.map((b, i) => ({ ...b, id: reckoners[i]!.id, section: reckoners[i]!.section }));
+  const byName = new Map(result.blocks.map((b) => [b.name, b]));
+  return { params, blocks, readings: readings.map((r) => resolveReading(r, byName)), errors: result.errors };
+}
