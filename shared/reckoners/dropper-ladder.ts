@@ -1,0 +1,149 @@
+/**
+ * Dropping-resistor ladder: from a start node through a chain of RC stages. Each resistor carries
+ * the current of its own node and of every node after it.
+ */
+import { nearestESeries } from '../standards/eSeries';
+import { RESISTOR_DERATING, RESISTOR_POWER_RATINGS } from '../standards/thresholds';
+import { formatQuantity } from '../units/format';
+import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
+import { defineInputs, optionalQuantity, quantity, rows, select, text, type InputOf } from './fields';
+import { ReckonerInputError } from './errors';
+import { n, q, SRC } from './outputs';
+import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
+
+const shape = {
+  startVoltage: quantity('V', { label: 'Start node voltage', min: 1e-3, max: 3000 }),
+  stages: rows(
+    {
+      label: text({ label: 'Node' }),
+      targetVoltage: quantity('V', { label: 'Target voltage', min: 1e-3, max: 3000 }),
+      current: quantity('A', { label: 'Current drawn at this node', min: 0, max: 10 }),
+      capacitance: quantity('F', { label: 'Filter capacitor', min: 1e-12, max: 0.1 }),
+    },
+    { label: 'Stages', minRows: 1, maxRows: 12 },
+  ),
+  series: select({
+    label: 'Fit values from',
+    options: [
+      { value: 'E12', label: 'E12 (IEC 60063)' },
+      { value: 'E24', label: 'E24 (IEC 60063)' },
+    ],
+    default: 'E12',
+  }),
+  rippleFrequency: quantity('Hz', {
+    label: 'Ripple frequency',
+    default: 100,
+    min: 1,
+    max: 2000,
+    help: 'Twice the mains frequency for full-wave rectification: 100 Hz on 50 Hz mains, 120 Hz on 60 Hz.',
+  }),
+  startRipple: optionalQuantity('V', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000 }),
+};
+
+const { schema: baseSchema, fields } = defineInputs(shape);
+export type DropperLadderInput = InputOf<typeof shape>;
+
+const inputs = baseSchema.superRefine((v, ctx) => {
+  let previous = v.startVoltage;
+  v.stages.forEach((st, i) => {
+    if (st.targetVoltage >= previous) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['stages', i, 'targetVoltage'],
+        message: `must be below the node before it (${formatQuantity(previous, 'V')})`,
+      });
+    }
+    previous = st.targetVoltage;
+  });
+  // Every resistor must carry some current, or its drop cannot be set.
+  let downstream = 0;
+  for (let i = v.stages.length - 1; i >= 0; i--) {
+    downstream += v.stages[i]!.current;
+    if (downstream <= 0) {
+      ctx.addIssue({ code: 'custom', path: ['stages', i, 'current'], message: 'no current flows through this stage’s resistor; a drop needs current' });
+    }
+  }
+});
+
+/** RC stage attenuation A = X_C / √(R² + X_C²), X_C = 1 / (2π f C) [derived]. */
+export function rcAttenuation(r: number, c: number, f: number): number {
+  const xc = 1 / (2 * Math.PI * f * c);
+  return xc / Math.hypot(r, xc);
+}
+
+export function suggestedPowerRating(dissipation: number): number {
+  const need = dissipation * RESISTOR_DERATING;
+  return RESISTOR_POWER_RATINGS.find((p) => p >= need) ?? Math.ceil(need);
+}
+
+function compute(input: DropperLadderInput): ReckonerResult {
+  const outputs: ReckonerResult['outputs'] = {};
+  const through: number[] = [];
+  let acc = 0;
+  for (let i = input.stages.length - 1; i >= 0; i--) {
+    acc += input.stages[i]!.current;
+    through[i] = acc;
+  }
+  let prevTarget = input.startVoltage;
+  let prevActual = input.startVoltage;
+  let ripple = input.startRipple;
+  input.stages.forEach((st, i) => {
+    const key = `stage${i + 1}`;
+    const name = st.label ?? `Stage ${i + 1}`;
+    const I = through[i]!;
+    if (!(I > 0)) throw new ReckonerInputError(`stages.${i}.current`, 'no current flows through this stage’s resistor');
+    const exact = (prevTarget - st.targetVoltage) / I;
+    const e12 = nearestESeries(exact, 'E12');
+    const e24 = nearestESeries(exact, 'E24');
+    const chosen = input.series === 'E12' ? e12 : e24;
+    const node = prevActual - chosen * I;
+    const power = I * I * chosen;
+    const att = rcAttenuation(chosen, st.capacitance, input.rippleFrequency);
+    outputs[`${key}.resistanceExact`] = q(exact, 'Ω', `${name}: exact resistance`, 'R = ΔV ÷ I, with I the current of this node and all after it.', SRC.derived);
+    outputs[`${key}.resistanceE12`] = q(e12, 'Ω', `${name}: nearest E12`, 'Nearest on a log scale.', 'IEC 60063 E12');
+    outputs[`${key}.resistanceE24`] = q(e24, 'Ω', `${name}: nearest E24`, 'Nearest on a log scale.', 'IEC 60063 E24');
+    outputs[`${key}.current`] = q(I, 'A', `${name}: resistor current`, 'This node’s current plus every later node’s.', SRC.derived);
+    outputs[`${key}.nodeVoltage`] = q(node, 'V', `${name}: node voltage with ${input.series} values`, `Previous node less ${formatQuantity(chosen, 'Ω')} × ${formatQuantity(I, 'A')}.`, SRC.derived);
+    outputs[`${key}.dissipationExact`] = q(I * (prevTarget - st.targetVoltage), 'W', `${name}: dissipation at the exact value`, 'ΔV × I.', SRC.derived);
+    outputs[`${key}.dissipation`] = q(power, 'W', `${name}: dissipation`, 'I² × R with the fitted value.', SRC.derived);
+    outputs[`${key}.powerRating`] = q(suggestedPowerRating(power), 'W', `${name}: suggested rating`, 'Next common rating at or above twice the dissipation; check the element voltage limit on HT parts.', SRC.commonPractice);
+    outputs[`${key}.attenuation`] = n(att, `${name}: ripple attenuation`, 'X_C ÷ √(R² + X_C²) of this RC stage alone, ignoring loading by later stages.', SRC.derived, 4);
+    outputs[`${key}.attenuationDb`] = n(20 * Math.log10(att), `${name}: ripple attenuation (dB)`, '20 log₁₀ of the attenuation.', SRC.derived);
+    if (ripple !== undefined) {
+      ripple = ripple * att;
+      outputs[`${key}.ripple`] = q(ripple, 'V', `${name}: ripple (peak to peak)`, 'Previous node’s ripple × this stage’s attenuation.', SRC.derived);
+    }
+    prevTarget = st.targetVoltage;
+    prevActual = node;
+  });
+  outputs.finalVoltage = q(prevActual, 'V', 'Last node voltage', `With ${input.series} values.`, SRC.derived);
+  return { outputs };
+}
+
+function cautions(input: DropperLadderInput, result: ReckonerResult): Caution[] {
+  const negative = input.stages.some((_, i) => Number(result.outputs[`stage${i + 1}.nodeVoltage`]!.value) <= 0);
+  return compact([
+    hazardousVoltage(input.startVoltage, 'The dropper chain'),
+    negative && {
+      level: 'warning',
+      code: 'ladder-collapse',
+      message: 'With the fitted standard values a node falls to zero or below: the targets and currents do not fit; revise the chain.',
+    },
+    {
+      level: 'note',
+      code: 'resistor-voltage',
+      message: 'Check each dropping resistor’s element voltage limit as well as its power; HT drops can exceed the limit of small parts.',
+    },
+    LOCAL_CODES,
+  ]);
+}
+
+export const dropperLadder: ReckonerDefinition<DropperLadderInput> = {
+  kind: 'dropper-ladder',
+  label: 'Dropping-resistor ladder',
+  summary: 'Resistors, standard values, node voltages, dissipation and ripple attenuation along a B+ chain.',
+  inputs,
+  fields,
+  compute,
+  cautions,
+};

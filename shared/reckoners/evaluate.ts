@@ -1,0 +1,273 @@
+/**
+ * Evaluate a whole procedure's reckoner blocks in dependency order. An input may be a value, a
+ * reference to another block's output ({ ref: "block.outputKey" }) or to a procedure parameter
+ * ({ param: "mainsVoltage" }). User mistakes come back as errors; this never throws for them.
+ */
+import { runReckoner } from './validate';
+import { getReckoner } from './registry';
+import type { Caution, FieldError, Output } from './types';
+
+export interface ProcedureBlock {
+  name: string;
+  kind: string;
+  inputs: Record<string, unknown>;
+}
+
+/** Standard procedure parameters: measured mains (V), nominal mains (V), mains frequency (Hz). */
+export type ProcedureParams = Record<string, number> & {
+  mainsVoltage?: number;
+  mainsNominal?: number;
+  mainsFrequency?: number;
+};
+
+export type BlockResult =
+  | { name: string; kind: string; ok: true; outputs: Record<string, Output>; cautions: Caution[] }
+  | { name: string; kind: string; ok: false; errors: FieldError[] };
+
+export interface ProcedureError {
+  message: string;
+  blocks: string[];
+}
+
+export interface ProcedureResult {
+  /** One result per block, in the order given. */
+  blocks: BlockResult[];
+  /** Problems of the procedure as a whole: duplicate names, cycles. */
+  errors: ProcedureError[];
+  /** Evaluation order actually used. */
+  order: string[];
+}
+
+const BLOCK_NAME = /^[A-Za-z][A-Za-z0-9_-]*$/;
+
+interface Reference {
+  field: string;
+  kind: 'ref' | 'param';
+  target: string;
+  block?: string;
+  output?: string;
+}
+
+function isRef(v: unknown): v is { ref: string } {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { ref?: unknown }).ref === 'string' && Object.keys(v).length === 1;
+}
+function isParam(v: unknown): v is { param: string } {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { param?: unknown }).param === 'string' && Object.keys(v).length === 1;
+}
+
+function collectRefs(value: unknown, path: string[], out: Reference[]): void {
+  if (isRef(value)) {
+    const dot = value.ref.indexOf('.');
+    out.push({
+      field: path.join('.'),
+      kind: 'ref',
+      target: value.ref,
+      block: dot > 0 ? value.ref.slice(0, dot) : value.ref,
+      output: dot > 0 ? value.ref.slice(dot + 1) : undefined,
+    });
+  } else if (isParam(value)) {
+    out.push({ field: path.join('.'), kind: 'param', target: value.param });
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => collectRefs(v, [...path, String(i)], out));
+  } else if (typeof value === 'object' && value !== null) {
+    for (const [k, v] of Object.entries(value)) collectRefs(v, [...path, k], out);
+  }
+}
+
+/** Replace references with values. Returns the errors for references that cannot be resolved. */
+function resolve(
+  value: unknown,
+  path: string[],
+  outputsOf: (block: string) => Record<string, Output> | undefined,
+  params: Record<string, number>,
+  errors: FieldError[],
+): unknown {
+  if (isRef(value)) {
+    const dot = value.ref.indexOf('.');
+    const block = value.ref.slice(0, dot);
+    const key = value.ref.slice(dot + 1);
+    const outputs = outputsOf(block);
+    const out = outputs?.[key];
+    if (!outputs) return undefined; // reported before resolving
+    if (!out) {
+      errors.push({
+        field: path.join('.'),
+        reason: `refers to "${value.ref}", but block "${block}" has no output "${key}" (it has: ${Object.keys(outputs).join(', ')})`,
+      });
+      return undefined;
+    }
+    return out.value;
+  }
+  if (isParam(value)) {
+    const v = params[value.param];
+    if (typeof v !== 'number' || !Number.isFinite(v)) {
+      errors.push({ field: path.join('.'), reason: `refers to procedure parameter "${value.param}", which is not set` });
+      return undefined;
+    }
+    return v;
+  }
+  if (Array.isArray(value)) return value.map((v, i) => resolve(v, [...path, String(i)], outputsOf, params, errors));
+  if (typeof value === 'object' && value !== null) {
+    const o: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(value)) o[k] = resolve(v, [...path, k], outputsOf, params, errors);
+    return o;
+  }
+  return value;
+}
+
+export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<string, number> = {}): ProcedureResult {
+  const results = new Map<number, BlockResult>();
+  const errors: ProcedureError[] = [];
+  const fail = (i: number, errs: FieldError[]) => {
+    const b = blocks[i]!;
+    results.set(i, { name: String(b?.name ?? ''), kind: String(b?.kind ?? ''), ok: false, errors: errs });
+  };
+
+  // Names: valid and unique; a duplicate makes every reference to that name ambiguous.
+  const byName = new Map<string, number>();
+  const duplicates = new Set<string>();
+  blocks.forEach((b, i) => {
+    if (typeof b?.name !== 'string' || !BLOCK_NAME.test(b.name)) {
+      fail(i, [{ field: 'name', reason: 'a block name must start with a letter and use only letters, digits, "-" and "_"' }]);
+      return;
+    }
+    if (byName.has(b.name)) duplicates.add(b.name);
+    else byName.set(b.name, i);
+  });
+  for (const name of duplicates) {
+    const idx = blocks.map((b, i) => (b?.name === name ? i : -1)).filter((i) => i >= 0);
+    errors.push({ message: `more than one block is named "${name}"`, blocks: [name] });
+    idx.forEach((i) => fail(i, [{ field: 'name', reason: `another block is also named "${name}"` }]));
+    byName.delete(name);
+  }
+
+  // Dependencies.
+  const deps = new Map<number, Set<number>>();
+  blocks.forEach((b, i) => {
+    if (results.has(i)) return;
+    if (!getReckoner(b.kind)) {
+      fail(i, [{ field: 'kind', reason: `unknown reckoner "${String(b.kind)}"` }]);
+      return;
+    }
+    const refs: Reference[] = [];
+    collectRefs(b.inputs ?? {}, [], refs);
+    const errs: FieldError[] = [];
+    const set = new Set<number>();
+    for (const r of refs) {
+      if (r.kind !== 'ref') continue;
+      if (!r.output) {
+        errs.push({ field: r.field, reason: `reference "${r.target}" must name a block and an output, as "block.output"` });
+        continue;
+      }
+      const target = byName.get(r.block!);
+      if (target === undefined) {
+        errs.push({
+          field: r.field,
+          reason: duplicates.has(r.block!)
+            ? `refers to "${r.target}", but more than one block is named "${r.block}"`
+            : `refers to "${r.target}", but there is no block named "${r.block}" in this procedure`,
+        });
+      } else if (target === i) {
+        errs.push({ field: r.field, reason: `refers to "${r.target}", an output of this same block` });
+      } else set.add(target);
+    }
+    if (errs.length) fail(i, errs);
+    else deps.set(i, set);
+  });
+
+  // Kahn's algorithm over blocks still in play; keeps the author's order among ready blocks.
+  const indegree = new Map<number, number>();
+  const dependents = new Map<number, number[]>();
+  for (const [i, set] of deps) {
+    indegree.set(i, set.size);
+    for (const d of set) dependents.set(d, [...(dependents.get(d) ?? []), i]);
+  }
+  const order: number[] = [];
+  const ready = [...deps.keys()].filter((i) => indegree.get(i) === 0).sort((a, b) => a - b);
+  while (ready.length) {
+    const i = ready.shift()!;
+    order.push(i);
+    for (const j of dependents.get(i) ?? []) {
+      const n = indegree.get(j)! - 1;
+      indegree.set(j, n);
+      if (n === 0) {
+        ready.push(j);
+        ready.sort((a, b) => a - b);
+      }
+    }
+  }
+  // Whatever is left depends on a cycle (or is on one).
+  const stuck = [...deps.keys()].filter((i) => !order.includes(i));
+  if (stuck.length) {
+    for (const cycle of findCycles(stuck, deps)) {
+      const names = cycle.map((i) => blocks[i]!.name);
+      errors.push({ message: `blocks refer to each other in a cycle: ${[...names, names[0]].join(' → ')}`, blocks: names });
+    }
+    for (const i of stuck) {
+      const waitsOn = [...deps.get(i)!].filter((d) => stuck.includes(d)).map((d) => blocks[d]!.name);
+      fail(i, [{ field: 'inputs', reason: `cannot be evaluated: it depends on a reference cycle (through ${waitsOn.map((n) => `"${n}"`).join(', ')})` }]);
+    }
+  }
+
+  // Evaluate.
+  const outputsOf = (name: string) => {
+    const idx = byName.get(name);
+    const r = idx === undefined ? undefined : results.get(idx);
+    return r && r.ok ? r.outputs : undefined;
+  };
+  for (const i of order) {
+    const b = blocks[i]!;
+    const failedDeps = [...deps.get(i)!].filter((d) => !results.get(d)?.ok).map((d) => blocks[d]!.name);
+    if (failedDeps.length) {
+      fail(i, [{ field: 'inputs', reason: `depends on ${failedDeps.map((n) => `"${n}"`).join(', ')}, which could not be evaluated` }]);
+      continue;
+    }
+    const refErrors: FieldError[] = [];
+    const resolved = resolve(b.inputs ?? {}, [], outputsOf, params, refErrors);
+    if (refErrors.length) {
+      fail(i, refErrors);
+      continue;
+    }
+    let run;
+    try {
+      run = runReckoner(b.kind, resolved);
+    } catch (e) {
+      run = { ok: false as const, errors: [{ field: '', reason: `internal error: ${e instanceof Error ? e.message : String(e)}` }] };
+    }
+    results.set(i, run.ok ? { name: b.name, kind: b.kind, ...run } : { name: b.name, kind: b.kind, ok: false, errors: run.errors });
+  }
+
+  return {
+    blocks: blocks.map((_, i) => results.get(i)!),
+    errors,
+    order: order.map((i) => blocks[i]!.name),
+  };
+}
+
+/** The elementary cycles among `nodes` reachable by following dependencies (one per cycle set). */
+function findCycles(nodes: number[], deps: Map<number, Set<number>>): number[][] {
+  const inSet = new Set(nodes);
+  const seen = new Set<string>();
+  const cycles: number[][] = [];
+  const state = new Map<number, 0 | 1 | 2>();
+  const stack: number[] = [];
+  const visit = (u: number) => {
+    state.set(u, 1);
+    stack.push(u);
+    for (const v of deps.get(u) ?? []) {
+      if (!inSet.has(v)) continue;
+      if (state.get(v) === 1) {
+        const cyc = stack.slice(stack.indexOf(v)).reverse(); // dependency order: v needs …
+        const key = [...cyc].sort((a, b) => a - b).join(',');
+        if (!seen.has(key)) {
+          seen.add(key);
+          cycles.push(cyc);
+        }
+      } else if (!state.get(v)) visit(v);
+    }
+    stack.pop();
+    state.set(u, 2);
+  };
+  for (const n of nodes) if (!state.get(n)) visit(n);
+  return cycles;
+}

@@ -1,0 +1,11 @@
+export * from './types';
+export { ReckonerInputError } from './errors';
+export { validateInputs, runReckoner } from './validate';
+export type { ValidationResult, RunResult } from './validate';
+export { reckoners, getReckoner, listReckoners, isReckonerKind, RECKONER_KINDS } from './registry';
+export type { ReckonerKind } from './registry';
+export { evaluateProcedure } from './evaluate';
+export type { ProcedureBlock, ProcedureParams, BlockResult, ProcedureError, ProcedureResult } from './evaluate';
+export { checkReading, toleranceBand, parseTolerance } from './reading-tolerance';
+export type { Tolerance, ReadingCheck } from './reading-tolerance';
+export { simulateCapacitorInput, rippleApproxFullWave } from './capacitor-input';

@@ -1,0 +1,205 @@
+/**
+ * Mains fuse: transformer VA → primary current → next standard rating, fuse type, and a
+ * switch-on surge estimate checked against the IEC 60127-2 time-lag gates.
+ */
+import { formatNumber, formatQuantity } from '../units/format';
+import {
+  FUSE_SERIES,
+  nextFuseRating,
+  QUICK_ACTING_10X_MAX,
+  QUICK_ACTING_SOURCE,
+  TIME_LAG_GATES,
+  TIME_LAG_GATES_SOURCE,
+  type FuseGate,
+} from '../standards/fuses';
+import { defineInputs, num, optionalQuantity, quantity, rows, select, text, type InputOf } from './fields';
+import { ReckonerInputError } from './errors';
+import { compact, LOCAL_CODES } from './cautions';
+import { b, n, q, s, SRC } from './outputs';
+import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
+
+const shape = {
+  load: select({
+    label: 'Load given as',
+    options: [
+      { value: 'windings', label: 'Secondary windings (volts × amps)' },
+      { value: 'va', label: 'One VA figure' },
+    ],
+    default: 'windings',
+  }),
+  windings: rows(
+    {
+      label: text({ label: 'Winding' }),
+      volts: quantity('V', { label: 'Winding voltage', min: 1e-3, max: 5000 }),
+      amps: quantity('A', {
+        label: 'Winding current (AC rms)',
+        min: 1e-6,
+        max: 100,
+        help: 'The winding’s AC rms current. A rectified winding carries more than its DC load: about 1.0 × Idc for a bridge with choke input, 0.707 × Idc per half of a centre-tap; capacitor input more (see the loaded B+ reckoner).',
+      }),
+    },
+    { label: 'Secondary windings', minRows: 0, maxRows: 20 },
+  ),
+  va: optionalQuantity('VA', { label: 'Transformer load', min: 1e-3, max: 5000 }),
+  mainsVoltage: quantity('V', { label: 'Mains voltage', default: 230, min: 50, max: 300 }),
+  efficiency: quantity('%', {
+    label: 'Transformer efficiency',
+    default: 85,
+    min: 30,
+    max: 100,
+    help: '80–90 % is usual for small mains transformers (common practice).',
+  }),
+  margin: num({
+    label: 'Margin factor',
+    default: 1.25,
+    min: 1,
+    max: 3,
+    help: 'Required fuse current = primary current × this factor. 1.0–2.0 is seen in practice.',
+  }),
+  series: select({
+    label: 'Fuse series',
+    options: [
+      { value: 'iec', label: FUSE_SERIES.iec.label },
+      { value: 'north-american', label: FUSE_SERIES['north-american'].label },
+    ],
+    default: 'iec',
+  }),
+  inrushMultiple: num({
+    label: 'Switch-on surge (× running current)',
+    default: 10,
+    min: 1,
+    max: 50,
+    help: 'Rule of thumb: about ten times the running current (common practice).',
+  }),
+  inrushDuration: quantity('s', { label: 'Switch-on surge duration', default: 0.2, min: 1e-3, max: 5 }),
+};
+
+const { schema: baseSchema, fields } = defineInputs(shape);
+export type MainsFuseInput = InputOf<typeof shape>;
+
+const inputs = baseSchema.superRefine((v, ctx) => {
+  if (v.load === 'windings' && v.windings.length === 0) {
+    ctx.addIssue({ code: 'custom', path: ['windings'], message: 'needs at least one winding (or choose a VA figure)' });
+  }
+  if (v.load === 'va' && v.va === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['va'], message: 'is required when the load is given as a VA figure' });
+  }
+});
+
+/** The smallest tabulated gate at or above `multiple`: the fuse is guaranteed to hold at least its `min`. */
+export function gateFor(multiple: number, gates: readonly FuseGate[] = TIME_LAG_GATES): FuseGate | null {
+  return gates.find((g) => g.multiple >= multiple) ?? null;
+}
+
+/** I²t of a current pulse: rectangle I²t, half-sine I²t/2, triangle I²t/3, exponential decay I²τ/2 [derived]. */
+export function pulseI2t(shape: 'rectangle' | 'half-sine' | 'triangle' | 'exponential', peak: number, time: number): number {
+  const k = { rectangle: 1, 'half-sine': 0.5, triangle: 1 / 3, exponential: 0.5 }[shape];
+  return peak * peak * time * k;
+}
+
+export function totalVA(input: Pick<MainsFuseInput, 'load' | 'windings' | 'va'>): number {
+  if (input.load === 'va') return input.va!;
+  return input.windings.reduce((sum, w) => sum + w.volts * w.amps, 0);
+}
+
+function compute(input: MainsFuseInput): ReckonerResult {
+  const va = totalVA(input);
+  const eta = input.efficiency / 100;
+  const primary = va / (eta * input.mainsVoltage);
+  const required = primary * input.margin;
+  const rating = nextFuseRating(required, input.series);
+  const series = FUSE_SERIES[input.series];
+  if (rating === null) {
+    const largest = series.values[series.values.length - 1]!;
+    throw new ReckonerInputError(
+      input.load === 'va' ? 'va' : 'windings',
+      `needs ${formatQuantity(required, 'A')} of fuse, above the largest rating in the ${series.label} (${formatQuantity(largest, 'A')}); this reckoner covers miniature fuses only`,
+    );
+  }
+  const inrush = primary * input.inrushMultiple;
+  const multiple = inrush / rating;
+  const gate = gateFor(multiple);
+  const holds = gate !== null && gate.min >= input.inrushDuration;
+  const gateText = gate
+    ? `at ≤ ${formatNumber(gate.multiple)} × In a time-lag fuse must not open before ${formatQuantity(gate.min, 's')} (and must by ${formatQuantity(gate.max, 's')})`
+    : `above the highest tabulated gate (${formatNumber(TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple)} × In): the standard gives no holding time`;
+
+  const outputs: ReckonerResult['outputs'] = {
+    totalVA: q(
+      va,
+      'VA',
+      'Total secondary load',
+      input.load === 'va' ? 'As entered.' : 'Sum of volts × rms amps over the windings.',
+      SRC.derived,
+    ),
+    primaryCurrent: q(
+      primary,
+      'A',
+      'Primary current',
+      `VA ÷ (efficiency ${formatNumber(input.efficiency)} % × ${formatQuantity(input.mainsVoltage, 'V')}).`,
+      SRC.derived,
+    ),
+    requiredCurrent: q(required, 'A', 'Required fuse current', `Primary current × margin ${formatNumber(input.margin)}.`, SRC.commonPractice),
+    fuseRating: q(rating, 'A', 'Fuse rating', `Next standard rating at or above the required current, from the ${series.label}.`, series.source),
+    fuseType: s(
+      'T',
+      'Fuse type',
+      `Time-delay (T, slow-blow): switch-on draws the transformer’s magnetising surge and the reservoir charging surge, many times the running current for a few cycles. A quick-acting (F) fuse opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In and would blow on it.`,
+      `${SRC.commonPractice}; F-fuse gate: ${QUICK_ACTING_SOURCE}`,
+    ),
+    fuseDesignation: s(`T ${formatQuantity(rating, 'A', 3)}`, 'Fuse', 'Type and rating to fit.', series.source),
+    inrushCurrent: q(
+      inrush,
+      'A',
+      'Switch-on surge (estimate)',
+      `Rule of thumb: about ${formatNumber(input.inrushMultiple)} × running current for roughly ${formatQuantity(input.inrushDuration, 's')}. An estimate, not a measurement.`,
+      SRC.commonPractice,
+    ),
+    inrushMultipleOfRating: n(multiple, 'Surge ÷ fuse rating', 'How many times the fuse rating the surge estimate reaches.', SRC.derived),
+    inrushGate: s(gateText, 'Time-lag gate', 'IEC 60127-2 pre-arcing time gates for time-lag (T) low-breaking-capacity fuses.', TIME_LAG_GATES_SOURCE),
+    inrushWithinGate: b(
+      holds,
+      'Surge inside the guaranteed holding time',
+      holds
+        ? 'The gate’s minimum pre-arcing time covers the surge duration.'
+        : 'The gate alone does not guarantee the fuse holds for the whole surge; compare with the fuse’s time-current curve or melting I²t.',
+      TIME_LAG_GATES_SOURCE,
+    ),
+  };
+  return { outputs };
+}
+
+function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
+  const holds = result.outputs.inrushWithinGate?.value === true;
+  const multiple = Number(result.outputs.inrushMultipleOfRating?.value ?? 0);
+  return compact([
+    {
+      level: 'danger',
+      code: 'mains',
+      message: 'The primary circuit is at mains voltage. Fit the fuse in the live conductor, ahead of the switch where practice requires, with the unit disconnected.',
+    },
+    !holds && {
+      level: multiple > TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple ? 'warning' : 'note',
+      code: 'inrush',
+      message:
+        'The switch-on surge estimate is not covered by the time-lag gate alone. Check the chosen fuse’s melting I²t or time-current curve; a soft-start or thermistor may be needed if it opens at switch-on. Never replace it with a larger rating to stop nuisance blowing without re-checking the design.',
+      source: TIME_LAG_GATES_SOURCE,
+    },
+    input.margin < 1.1 && {
+      level: 'note',
+      code: 'margin',
+      message: 'A margin under 1.1 leaves the fuse running close to its rating; ageing fuses may open in normal use.',
+    },
+    LOCAL_CODES,
+  ]);
+}
+
+export const mainsFuse: ReckonerDefinition<MainsFuseInput> = {
+  kind: 'mains-fuse',
+  label: 'Mains fuse',
+  summary: 'Size the primary fuse from the transformer load, with its type and a switch-on surge check.',
+  inputs,
+  fields,
+  compute,
+  cautions,
+};

@@ -1,0 +1,21 @@
+import { select } from './fields';
+
+export const RECTIFIER_OPTIONS = [
+  { value: 'silicon-bridge', label: 'Silicon bridge (two diodes conduct)' },
+  { value: 'silicon-centre-tap', label: 'Silicon full-wave, centre-tapped winding (one diode conducts)' },
+  { value: 'valve', label: 'Valve rectifier, full-wave (author enters its drop)' },
+] as const;
+export type RectifierKind = (typeof RECTIFIER_OPTIONS)[number]['value'];
+
+export const rectifierField = () =>
+  select({
+    label: 'Rectifier',
+    options: RECTIFIER_OPTIONS,
+    default: 'silicon-bridge',
+    help: 'For a centre-tapped winding, enter the voltage of one half (e.g. 300 V for 300-0-300).',
+  });
+
+/** Silicon diodes in the conducting path: 2 for a bridge, 1 for a centre-tap pair. */
+export function diodesInPath(kind: RectifierKind): number {
+  return kind === 'silicon-bridge' ? 2 : kind === 'silicon-centre-tap' ? 1 : 0;
+}

@@ -1,0 +1,34 @@
+/** The one registry of reckoners, keyed by their stable kind ids. */
+import { bleeder } from './bleeder';
+import { dropperLadder } from './dropper-ladder';
+import { heaterBudget } from './heater-budget';
+import { loadedBplus } from './loaded-bplus';
+import { mainsFuse } from './mains-fuse';
+import { peakNoLoad } from './peak-no-load';
+import { readingTolerance } from './reading-tolerance';
+import type { AnyReckoner } from './types';
+
+export const reckoners = {
+  'mains-fuse': mainsFuse,
+  'peak-no-load': peakNoLoad,
+  'loaded-bplus': loadedBplus,
+  'dropper-ladder': dropperLadder,
+  bleeder,
+  'heater-budget': heaterBudget,
+  'reading-tolerance': readingTolerance,
+} as const satisfies Record<string, AnyReckoner>;
+
+export type ReckonerKind = keyof typeof reckoners;
+export const RECKONER_KINDS = Object.keys(reckoners) as ReckonerKind[];
+
+export function isReckonerKind(kind: unknown): kind is ReckonerKind {
+  return typeof kind === 'string' && Object.prototype.hasOwnProperty.call(reckoners, kind);
+}
+
+export function getReckoner(kind: string): AnyReckoner | undefined {
+  return isReckonerKind(kind) ? reckoners[kind] : undefined;
+}
+
+export function listReckoners(): AnyReckoner[] {
+  return RECKONER_KINDS.map((k) => reckoners[k]);
+}

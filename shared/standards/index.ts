@@ -1,0 +1,3 @@
+export * from './eSeries';
+export * from './fuses';
+export * from './thresholds';

@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest';
+import { evaluate } from 'mathjs';
+import { expectClose, fieldErrors, num, run } from '../helpers';
+
+describe('peak-no-load', () => {
+  it('peak = √2 × Vrms: 120 V → 169.71 V, 230 V → 325.27 V [derived, REFERENCES §2]', () => {
+    expectClose(num(run('peak-no-load', { windingVoltage: '120 V' }).outputs, 'peakVoltage'), 169.71);
+    expectClose(num(run('peak-no-load', { windingVoltage: '230 VAC' }).outputs, 'peakVoltage'), 325.27);
+  });
+
+  it('agrees with mathjs [derived; cross-check with mathjs]', () => {
+    for (const v of [6.3, 120, 230, 300]) {
+      const byMathjs = evaluate(`sqrt(2) * ${v} V`).toNumber('V');
+      expectClose(num(run('peak-no-load', { windingVoltage: v }).outputs, 'peakVoltage'), byMathjs, 1e-12);
+    }
+  });
+
+  it('no-load DC = peak − n × V_F: bridge n = 2, centre-tap n = 1 [common practice, REFERENCES §2]', () => {
+    const pk = Math.SQRT2 * 300;
+    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-bridge', diodeDrop: 1 }).outputs, 'noLoadDc'), pk - 2);
+    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-centre-tap', diodeDrop: 0.7 }).outputs, 'noLoadDc'), pk - 0.7);
+    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'valve', valveDrop: '25 V' }).outputs, 'noLoadDc'), pk - 25);
+  });
+
+  it('scales a rated winding with the mains: V × actual ÷ nominal [derived, REFERENCES §2]', () => {
+    const { outputs } = run('peak-no-load', { windingVoltage: 300, mainsNominal: 230, mainsActual: 253 });
+    expectClose(num(outputs, 'windingVoltage'), 330); // 300 × 253/230, IEC 60038 upper limit [std]
+    expectClose(num(outputs, 'peakVoltage'), Math.SQRT2 * 330);
+  });
+
+  it('does not scale a measured winding', () => {
+    const { outputs } = run('peak-no-load', { windingVoltage: 300, windingBasis: 'measured', mainsNominal: 230, mainsActual: 253 });
+    expectClose(num(outputs, 'windingVoltage'), 300);
+    expectClose(num(outputs, 'windingUnloadedHigh'), 300);
+  });
+
+  it('gives an unloaded band from rating to rating + 10 % [common practice, REFERENCES §2: 5–10 % on small transformers]', () => {
+    const { outputs } = run('peak-no-load', { windingVoltage: 6.3 });
+    expectClose(num(outputs, 'windingUnloadedLow'), 6.3);
+    expectClose(num(outputs, 'windingUnloadedHigh'), 6.93);
+    expectClose(num(outputs, 'noLoadDcHigh'), Math.SQRT2 * 6.93 - 1.8);
+  });
+
+  it('warns of the hazardous node and capacitor rating above 60 V [std: IEC 62368-1 ES1, from memory]', () => {
+    const { cautions } = run('peak-no-load', { windingVoltage: 300, filterNodes: 3 });
+    expect(cautions.map((c) => c.code)).toEqual(expect.arrayContaining(['hazardous-voltage', 'capacitor-rating', 'local-codes']));
+    expect(cautions.find((c) => c.code === 'hazardous-voltage')!.message).toMatch(/3 filter nodes/);
+    const low = run('peak-no-load', { windingVoltage: 6.3 });
+    expect(low.cautions.some((c) => c.code === 'hazardous-voltage')).toBe(false);
+  });
+
+  it('requires the drop figure for a valve rectifier', () => {
+    expect(fieldErrors('peak-no-load', { windingVoltage: 300, rectifier: 'valve' })).toEqual([
+      { field: 'valveDrop', reason: 'is required for a valve rectifier' },
+    ]);
+  });
+});
