@@ -1,3 +1,5 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
 import type { Logger } from 'pino';
 import type { Db } from './db/client';
@@ -14,6 +16,8 @@ export interface AppConfig {
   /** Idle and absolute session lifetimes. */
   sessionIdleMs: number;
   sessionAbsoluteMs: number;
+  /** Where uploaded files are kept (git-ignored .data/uploads by default). */
+  uploadDir: string;
 }
 
 /** Everything a route handler may reach; built once per app. */
@@ -30,5 +34,6 @@ export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 's
   signInLimits: { perAccount: 10, perAddress: 50, windowMs: 15 * 60_000 },
   sessionIdleMs: 8 * 3600_000,
   sessionAbsoluteMs: 24 * 3600_000,
+  uploadDir: path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../.data/uploads'),
   ...overrides,
 });

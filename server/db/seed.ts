@@ -6,6 +6,7 @@ import { ROLES } from '../../shared/schemas/roles';
 import { hashPassword } from '../auth/passwords';
 import type { Db } from './client';
 import { people } from './schema';
+import { seedDemoProcedures } from './seed-procedures';
 
 export const contentSeedDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../content-seed');
 
@@ -37,4 +38,6 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
     added += inserted.length;
   }
   log(`demo people: ${added} added, ${demo.length - added} already present`);
+  const procs = await seedDemoProcedures(db, contentSeedDir);
+  log(`demo procedures: ${procs.added} added, ${procs.present} already present`);
 }

@@ -1,3 +1,6 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { createDb, createPool } from '../../server/db/client';
@@ -15,7 +18,8 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}) {
   const database = await createTestDatabase();
   const pool = createPool(database.url);
   const db = createDb(pool);
-  const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', ...overrides });
+  const uploadDir = mkdtempSync(path.join(tmpdir(), 'bw-uploads-'));
+  const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', uploadDir, ...overrides });
   const app = createApp({ db, pool, logger: createLogger('silent'), config });
 
   /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
@@ -64,6 +68,7 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}) {
       (app.locals.sessionStore as { close(): void }).close();
       await pool.end();
       await database.drop();
+      rmSync(uploadDir, { recursive: true, force: true });
     },
   };
 }
