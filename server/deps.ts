@@ -3,6 +3,7 @@ import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
 import type { Logger } from 'pino';
 import type { Db } from './db/client';
+import type { MailSender, SmtpSettings } from './mail/sender';
 
 export interface AppConfig {
   sessionSecret: string;
@@ -18,6 +19,8 @@ export interface AppConfig {
   sessionAbsoluteMs: number;
   /** Where uploaded files are kept (git-ignored .data/uploads by default). */
   uploadDir: string;
+  /** Outgoing mail server; none in API-only tests (mail then waits in the outbox). */
+  smtp?: SmtpSettings;
 }
 
 /** Everything a route handler may reach; built once per app. */
@@ -26,6 +29,8 @@ export interface AppDeps {
   pool: pg.Pool;
   logger: Logger;
   config: AppConfig;
+  /** Delivers queued mail; call `mailer?.flush()` after committing a change that queued mail. */
+  mailer?: MailSender;
 }
 
 export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>): AppConfig => ({

@@ -4,6 +4,7 @@ import { createApp } from './app';
 import { createDb, createPool } from './db/client';
 import { defaultConfig, type AppConfig } from './deps';
 import { createLogger } from './logger';
+import { MailSender } from './mail/sender';
 
 export interface RunningServer {
   server: Server;
@@ -24,7 +25,9 @@ export async function startServer(opts: {
   const db = createDb(pool);
   const host = opts.host ?? '127.0.0.1';
   const config = defaultConfig({ publicUrl: `http://${host}:${opts.port}`, ...opts.config });
-  const app = createApp({ db, pool, logger, config });
+  const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
+  mailer?.start();
+  const app = createApp({ db, pool, logger, config, mailer });
 
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -46,6 +49,7 @@ export async function startServer(opts: {
         server.closeIdleConnections();
       });
       (app.locals.sessionStore as { close(): void }).close();
+      await mailer?.stop();
       await pool.end();
     },
   };

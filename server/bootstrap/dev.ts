@@ -5,14 +5,20 @@ import { startServer } from '../index';
 import { acquireStartLock } from './lock';
 import { PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
 import { stopCluster } from './postgres';
+import { startFakeSmtp } from '../mail/fake-smtp';
 
 const releaseLock = acquireStartLock('http://127.0.0.1:5173 (dev)');
 const cluster = startMainCluster();
 const databaseUrl = await prepareDatabase(cluster, 'benchwright');
+const mailCatcher = await startFakeSmtp(0);
 const api = await startServer({
   databaseUrl,
   port: PORTS.app,
-  config: { sessionSecret: readOrCreateSecret('session'), publicUrl: 'http://127.0.0.1:5173' },
+  config: {
+    sessionSecret: readOrCreateSecret('session'),
+    publicUrl: 'http://127.0.0.1:5173',
+    smtp: { host: '127.0.0.1', port: mailCatcher.port, from: 'Benchwright <benchwright@tallowcreek.example>' },
+  },
 });
 const vite = await createServer({ configFile: path.join(projectRoot, 'vite.config.ts') });
 await vite.listen(5173);
@@ -21,6 +27,7 @@ say(`API at ${api.url}; open http://127.0.0.1:5173 (hot reload)`);
 process.on('SIGINT', async () => {
   await vite.close();
   await api.close();
+  await mailCatcher.close();
   stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);

@@ -7,6 +7,7 @@ import { startServer } from '../index';
 import { acquireStartLock } from './lock';
 import { dataDir, PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
 import { stopCluster } from './postgres';
+import { startFakeSmtp } from '../mail/fake-smtp';
 
 const port = Number(process.env.PORT ?? PORTS.app);
 const host = '127.0.0.1';
@@ -21,11 +22,18 @@ const databaseUrl = await prepareDatabase(cluster, 'benchwright');
 say('building the client…');
 await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
 
+const mailCatcher = await startFakeSmtp(Number(process.env.SMTP_PORT ?? 2525)).catch(() => startFakeSmtp(0));
+
 const running = await startServer({
   databaseUrl,
   host,
   port,
-  config: { sessionSecret: readOrCreateSecret('session'), clientDir: path.join(projectRoot, 'dist/client') },
+  config: {
+    sessionSecret: readOrCreateSecret('session'),
+    clientDir: path.join(projectRoot, 'dist/client'),
+    publicUrl: url,
+    smtp: { host: '127.0.0.1', port: mailCatcher.port, from: 'Benchwright <benchwright@tallowcreek.example>' },
+  },
 }).catch((err: NodeJS.ErrnoException) => {
   if (err.code === 'EADDRINUSE') console.error(`[benchwright] port ${port} is taken by another program; set PORT=… and try again.`);
   releaseLock();
@@ -35,6 +43,7 @@ const running = await startServer({
 console.log(`
   Benchwright is running at ${running.url}
   Database: PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})
+  Mail:     local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}; admins read it under Outbox
 
   Demo sign-ins (Tallow Creek Valve Works):
 ${readDemoPeople()
@@ -50,6 +59,7 @@ async function stop(signal: string) {
   stopping = true;
   say(`${signal}: finishing requests and stopping…`);
   await running.close();
+  await mailCatcher.close();
   stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);

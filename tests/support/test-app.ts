@@ -6,6 +6,8 @@ import { createApp } from '../../server/app';
 import { createDb, createPool } from '../../server/db/client';
 import { defaultConfig, type AppConfig } from '../../server/deps';
 import { createLogger } from '../../server/logger';
+import { startFakeSmtp } from '../../server/mail/fake-smtp';
+import { MailSender } from '../../server/mail/sender';
 import { readDemoPeople } from '../../server/db/seed';
 import { createTestDatabase } from './test-db';
 
@@ -14,13 +16,18 @@ export const demo = Object.fromEntries(
 ) as Record<'admin' | 'hal' | 'ruth' | 'marek' | 'dee' | 'tom' | 'priya' | 'sam', { email: string; password: string; roles: string[] }>;
 
 /** The real Express app on a private, migrated and seeded database. */
-export async function createTestApp(overrides: Partial<AppConfig> = {}) {
+export async function createTestApp(overrides: Partial<AppConfig> = {}, options: { mail?: boolean } = {}) {
   const database = await createTestDatabase();
   const pool = createPool(database.url);
   const db = createDb(pool);
   const uploadDir = mkdtempSync(path.join(tmpdir(), 'bw-uploads-'));
   const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', uploadDir, ...overrides });
-  const app = createApp({ db, pool, logger: createLogger('silent'), config });
+  const logger = createLogger('silent');
+  // With mail: a real SMTP conversation with the local catcher; flush() delivers what is due.
+  const catcher = options.mail ? await startFakeSmtp(0) : undefined;
+  if (catcher) config.smtp = { host: '127.0.0.1', port: catcher.port, from: 'Benchwright <bench@tallowcreek.example>' };
+  const mailer = config.smtp ? new MailSender(db, config.smtp, logger, 60_000) : undefined;
+  const app = createApp({ db, pool, logger, config, mailer });
 
   /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
   function client() {
@@ -62,10 +69,14 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}) {
     app,
     db,
     pool,
+    mailer,
+    catcher,
     client,
     as,
     async close() {
       (app.locals.sessionStore as { close(): void }).close();
+      await mailer?.stop();
+      await catcher?.close();
       await pool.end();
       await database.drop();
       rmSync(uploadDir, { recursive: true, force: true });

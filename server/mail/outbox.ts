@@ -1,0 +1,36 @@
+import type { Db } from '../db/client';
+import { mailOutbox } from '../db/schema';
+
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export interface OutgoingMail {
+  to: string[];
+  subject: string;
+  text: string;
+  html: string;
+  reason: string;
+}
+
+/**
+ * Queues a message. Call it inside the transaction of the change it reports: the mail exists
+ * exactly when the change does. The sender delivers it (and retries) in the background.
+ */
+export async function enqueueMail(db: Db | Tx, mail: OutgoingMail) {
+  const to = [...new Set(mail.to.map((a) => a.toLowerCase()))];
+  if (!to.length) return;
+  await db.insert(mailOutbox).values({ ...mail, to });
+}
+
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** Plain text and HTML from the same lines, with one link to the page the mail is about. */
+export function composeMail(opts: { greeting: string; lines: string[]; link: { url: string; label: string } }) {
+  const text = [opts.greeting, '', ...opts.lines, '', `${opts.link.label}: ${opts.link.url}`, '', '— Benchwright'].join('\n');
+  const html = [
+    `<p>${esc(opts.greeting)}</p>`,
+    ...opts.lines.map((l) => `<p>${esc(l)}</p>`),
+    `<p><a href="${esc(opts.link.url)}">${esc(opts.link.label)}</a></p>`,
+    '<p>— Benchwright</p>',
+  ].join('\n');
+  return { text, html };
+}
