@@ -4,6 +4,7 @@ import type pg from 'pg';
 import type { Logger } from 'pino';
 import type { Db } from './db/client';
 import type { MailSender, SmtpSettings } from './mail/sender';
+import type { SearchService } from './search/search-service';
 
 export interface AppConfig {
   sessionSecret: string;
@@ -31,6 +32,8 @@ export interface AppDeps {
   config: AppConfig;
   /** Delivers queued mail; call `mailer?.flush()` after committing a change that queued mail. */
   mailer?: MailSender;
+  /** The in-process search index, kept current by NOTIFY from PostgreSQL. */
+  search?: SearchService;
 }
 
 export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>): AppConfig => ({

@@ -5,9 +5,11 @@ import { createDb, createPool } from './db/client';
 import { defaultConfig, type AppConfig } from './deps';
 import { createLogger } from './logger';
 import { MailSender } from './mail/sender';
+import { SearchService } from './search/search-service';
 
 export interface RunningServer {
   server: Server;
+  search: SearchService;
   url: string;
   close(): Promise<void>;
 }
@@ -27,7 +29,9 @@ export async function startServer(opts: {
   const config = defaultConfig({ publicUrl: `http://${host}:${opts.port}`, ...opts.config });
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   mailer?.start();
-  const app = createApp({ db, pool, logger, config, mailer });
+  const search = new SearchService(db, opts.databaseUrl, logger);
+  await search.start().catch((err: Error) => logger.warn({ msg: err.message }, 'search index not built yet; retrying in the background'));
+  const app = createApp({ db, pool, logger, config, mailer, search });
 
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -38,6 +42,7 @@ export async function startServer(opts: {
 
   return {
     server,
+    search,
     url: `http://${host}:${port}`,
     async close() {
       await new Promise<void>((resolve) => {
@@ -50,6 +55,7 @@ export async function startServer(opts: {
       });
       (app.locals.sessionStore as { close(): void }).close();
       await mailer?.stop();
+      await search.stop();
       await pool.end();
     },
   };

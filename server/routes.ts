@@ -4,6 +4,12 @@ import { authRoutes } from './modules/auth/auth.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { peopleRoutes } from './modules/people/people.routes';
 import { procedureRoutes } from './modules/procedures/procedures.routes';
+import { searchRoutes } from './modules/search/search.routes';
+import { auditRoutes } from './modules/audit/audit.routes';
+import { outboxRoutes } from './modules/mail/outbox.routes';
+import { reviewRoutes } from './modules/review/review.routes';
+import { runRoutes } from './modules/runs/runs.routes';
+import { unitRoutes } from './modules/units/units.routes';
 
 /** The one table of API routes; each declares who may call it. Mounted under /api. */
 export const routeTable: readonly RouteDef[] = [
@@ -12,4 +18,10 @@ export const routeTable: readonly RouteDef[] = [
   ...peopleRoutes,
   ...procedureRoutes,
   ...attachmentRoutes,
+  ...searchRoutes,
+  ...reviewRoutes,
+  ...auditRoutes,
+  ...outboxRoutes,
+  ...unitRoutes,
+  ...runRoutes,
 ];

@@ -8,6 +8,7 @@ import { defaultConfig, type AppConfig } from '../../server/deps';
 import { createLogger } from '../../server/logger';
 import { startFakeSmtp } from '../../server/mail/fake-smtp';
 import { MailSender } from '../../server/mail/sender';
+import { SearchService } from '../../server/search/search-service';
 import { readDemoPeople } from '../../server/db/seed';
 import { createTestDatabase } from './test-db';
 
@@ -16,7 +17,7 @@ export const demo = Object.fromEntries(
 ) as Record<'admin' | 'hal' | 'ruth' | 'marek' | 'dee' | 'tom' | 'priya' | 'sam', { email: string; password: string; roles: string[] }>;
 
 /** The real Express app on a private, migrated and seeded database. */
-export async function createTestApp(overrides: Partial<AppConfig> = {}, options: { mail?: boolean } = {}) {
+export async function createTestApp(overrides: Partial<AppConfig> = {}, options: { mail?: boolean; search?: boolean } = {}) {
   const database = await createTestDatabase();
   const pool = createPool(database.url);
   const db = createDb(pool);
@@ -27,7 +28,9 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
   const catcher = options.mail ? await startFakeSmtp(0) : undefined;
   if (catcher) config.smtp = { host: '127.0.0.1', port: catcher.port, from: 'Benchwright <bench@tallowcreek.example>' };
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger, 60_000) : undefined;
-  const app = createApp({ db, pool, logger, config, mailer });
+  const search = options.search ? new SearchService(db, database.url, logger) : undefined;
+  await search?.start();
+  const app = createApp({ db, pool, logger, config, mailer, search });
 
   /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
   function client() {
@@ -71,11 +74,14 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
     pool,
     mailer,
     catcher,
+    search,
+    databaseUrl: database.url,
     client,
     as,
     async close() {
       (app.locals.sessionStore as { close(): void }).close();
       await mailer?.stop();
+      await search?.stop();
       await catcher?.close();
       await pool.end();
       await database.drop();

@@ -1,0 +1,73 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import { eq, sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { projectRoot } from '../../server/bootstrap/prepare';
+import { revisions } from '../../server/db/schema';
+import { httpSession } from '../support/http-session';
+import { createTestApp, demo, type TestApp } from '../support/test-app';
+
+// Server A runs in this process; server B is a separate Node process on the same database.
+let a: TestApp;
+let b: ChildProcess;
+let bUrl = '';
+
+beforeAll(async () => {
+  a = await createTestApp({}, { search: true });
+  b = spawn(path.join(projectRoot, 'node_modules/.bin/tsx'), ['tests/support/server-process.ts'], {
+    cwd: projectRoot,
+    env: { ...process.env, DATABASE_URL: a.databaseUrl },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  bUrl = await new Promise<string>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error('server B did not start')), 30_000);
+    b.stdout!.on('data', (chunk: Buffer) => {
+      const m = /READY (\S+)/.exec(chunk.toString());
+      if (m) {
+        clearTimeout(timer);
+        resolve(m[1]!);
+      }
+    });
+  });
+});
+afterAll(async () => {
+  b?.kill('SIGTERM');
+  await a?.close();
+});
+
+const meta = { title: 'TC-5R dial lamp and rectifier check', equipmentFamily: 'Table radio', equipmentModel: 'TC-5R', tags: ['rectifier'] };
+
+describe('two server processes on one database', () => {
+  it('an approval made through server A is searchable on server B within a second', async () => {
+    const hal = await a.as('hal');
+    const created = await hal.post('/api/procedures').send(meta);
+    const rev = created.body.revision;
+    await hal.put(`/api/revisions/${rev.id}`).send({
+      ...meta,
+      params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+      lockVersion: 1,
+      document: { type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'text', text: 'The gribbleton dial lamp flickers with the rectifier.' }] }] },
+    });
+    const onB = httpSession(bUrl);
+    expect((await onB.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
+    expect((await onB.get('/api/search?q=gribbleton')).body.total).toBe(0);
+
+    await a.db.transaction(async (tx) => {
+      await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${rev.id}`);
+      await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${rev.id}`);
+    });
+    const approvedAt = Date.now();
+    let total = 0;
+    while (Date.now() - approvedAt < 1_000 && total === 0) {
+      total = (await onB.get('/api/search?q=gribbleton')).body.total as number;
+      if (!total) await new Promise((r) => setTimeout(r, 50));
+    }
+    const elapsed = Date.now() - approvedAt;
+    console.log(`server B found the approval after ${elapsed} ms`);
+    expect(total).toBe(1);
+    expect(elapsed).toBeLessThan(1_000);
+    // Server A's own index follows the same notification.
+    const [row] = await a.db.select().from(revisions).where(eq(revisions.id, rev.id));
+    expect(a.search!.index.has(row!.procedureId)).toBe(true);
+  });
+});

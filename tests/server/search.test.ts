@@ -1,0 +1,142 @@
+import { eq, sql } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { procedures, revisions } from '../../server/db/schema';
+import { createTestApp, type TestApp } from '../support/test-app';
+
+let t: TestApp;
+beforeAll(async () => {
+  t = await createTestApp({}, { search: true });
+});
+afterAll(() => t.close());
+
+const params = { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 };
+const meta = { title: 'TC-18 reservoir swap and hum check', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: ['recap'] };
+const para = (text: string) => ({ type: 'paragraph', content: [{ type: 'text', text }] });
+
+/** Creates a draft with the given lines, returning its ids. */
+async function draftWith(lines: string[]) {
+  const hal = await t.as('hal');
+  const created = await hal.post('/api/procedures').send(meta);
+  const rev = created.body.revision;
+  const saved = await hal.put(`/api/revisions/${rev.id}`).send({ ...meta, params, lockVersion: 1, document: { type: 'doc', content: lines.map(para) } });
+  expect(saved.status).toBe(200);
+  return { procedureId: rev.procedureId as string, revisionId: rev.id as string };
+}
+
+/**
+ * Approves directly in SQL, through the states the database allows (the signed review flow is
+ * tested in the review tests); the state-change trigger notifies search at commit.
+ */
+async function approve(revisionId: string) {
+  const procedureId = (await t.db.select().from(revisions).where(eq(revisions.id, revisionId)))[0]!.procedureId;
+  const refreshed = t.search!.nextRefreshOf(procedureId);
+  await t.db.transaction(async (tx) => {
+    await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${revisionId}`);
+    await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${revisionId}`);
+  });
+  expect(await refreshed).toBe(true);
+}
+
+let tomClient: Awaited<ReturnType<TestApp['as']>> | undefined;
+async function search(q: string, extra = '') {
+  const tom = (tomClient ??= await t.as('tom'));
+  const res = await tom.get(`/api/search?q=${encodeURIComponent(q)}${extra}`);
+  expect(res.status).toBe(200);
+  return res.body as { total: number; results: { procedureId: string; title: string; snippet: { text: string; hit: boolean }[] }[]; suggestions: string[]; facets: { families: string[] } };
+}
+
+describe('search over approved procedures', () => {
+  it('finds the seeded demo procedures and needs a session', async () => {
+    expect((await t.client().get('/api/search?q=fuse')).status).toBe(401);
+    const res = await search('TC-30H bleeder');
+    expect(res.results[0]!.title).toMatch(/bleeder/i);
+  });
+
+  it('a draft’s unique word is not found; after approval it is; after supersede the old wording is gone', async () => {
+    const { procedureId, revisionId } = await draftWith(['Listen for the zorbulating hum near the choke.']);
+    expect((await search('zorbulating')).total).toBe(0);
+    await approve(revisionId);
+    const found = await search('zorbulating');
+    expect(found.results.map((r) => r.procedureId)).toEqual([procedureId]);
+    expect(found.results[0]!.snippet.some((s) => s.hit && /zorbulating/i.test(s.text))).toBe(true);
+
+    // Revision 2 with new wording is approved; revision 1 is superseded.
+    const hal = await t.as('hal');
+    const draft = await hal.post(`/api/procedures/${procedureId}/drafts`);
+    expect(draft.status).toBe(201);
+    const rev2 = draft.body.revision;
+    await hal.put(`/api/revisions/${rev2.id}`).send({ ...meta, params, lockVersion: rev2.lockVersion, document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] } });
+    const refreshed = t.search!.nextRefreshOf(procedureId);
+    await t.db.transaction(async (tx) => {
+      await tx.update(revisions).set({ state: 'superseded' }).where(eq(revisions.id, revisionId));
+      await tx.update(revisions).set({ state: 'in_review' }).where(eq(revisions.id, rev2.id));
+      await tx.update(revisions).set({ state: 'approved' }).where(eq(revisions.id, rev2.id));
+    });
+    await refreshed;
+    await new Promise((r) => setTimeout(r, 200)); // the second notification of the same commit
+    expect((await search('zorbulating')).total).toBe(0);
+    expect((await search('quibbling')).results[0]!.procedureId).toBe(procedureId);
+  });
+
+  it('each pair of trade words finds the same procedure', async () => {
+    const { procedureId, revisionId } = await draftWith([
+      'Check the plate supply at the reservoir after the xfmr has warmed.',
+      'The filament winding gives 6.3V; the slow-blow fuse is 1.25 A.',
+      'Replace the 47uF cap and measure again.',
+    ]);
+    await approve(revisionId);
+    const pairs = [
+      ['HT', 'B+', 'plate supply'],
+      ['heater', 'filament'],
+      ['slow-blow', 'time-delay', 'T fuse'],
+      ['cap', 'capacitor'],
+      ['xfmr', 'transformer'],
+      ['6.3V', '6.3 V'],
+      ['47uF', '47 µF'],
+    ];
+    for (const group of pairs) {
+      for (const q of group) {
+        const ids = (await search(`${q} reservoir`)).results.map((r) => r.procedureId);
+        expect(ids, `"${q}"`).toContain(procedureId);
+      }
+    }
+  });
+
+  it('a typo of one letter still finds it; nothing found suggests a spelling', async () => {
+    const { procedureId, revisionId } = await draftWith(['Fit a new thermistor in series with the primary.']);
+    await approve(revisionId);
+    expect((await search('thermostor')).results.map((r) => r.procedureId)).toContain(procedureId);
+    const none = await search('qqqzzzx');
+    expect(none.total).toBe(0);
+    const weird = await search('thermistxr wibble');
+    expect(Array.isArray(weird.suggestions)).toBe(true);
+  });
+
+  it('a server that missed notifications while disconnected catches up when it reconnects', async () => {
+    const { revisionId } = await draftWith(['The wobbleflux reading drifts when the chassis warms.']);
+    // Cut the index's LISTEN connection, then approve while it is away.
+    await t.db.execute(sql`select pg_terminate_backend(pid) from pg_stat_activity where datname = current_database() and query ilike 'LISTEN%'`);
+    await t.db.transaction(async (tx) => {
+      await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${revisionId}`);
+      await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${revisionId}`);
+    });
+    let total = 0;
+    for (let i = 0; i < 50 && !total; i++) {
+      await new Promise((r) => setTimeout(r, 100));
+      total = (await search('wobbleflux')).total;
+    }
+    expect(total).toBe(1);
+  });
+
+  it('filters by equipment family and pages', async () => {
+    const all = await search('fuse');
+    expect(all.facets.families.length).toBeGreaterThan(1);
+    const radios = await search('fuse', '&family=Table%20radio');
+    expect(radios.total).toBeGreaterThan(0);
+    const [procedure] = await t.db.select().from(procedures).where(eq(procedures.seedKey, 'tc5r-rectifier-recap'));
+    expect(radios.results.map((r) => r.procedureId)).toContain(procedure!.id);
+    const paged = await search('fuse', '&pageSize=1&page=2');
+    expect(paged.results.length).toBe(1);
+    expect((await (await t.as('tom')).get('/api/search?q=fuse&page=0')).status).toBe(400);
+  });
+});
