@@ -1,6 +1,11 @@
 /**
  * Dropping-resistor ladder: from a start node through a chain of RC stages. Each resistor carries
- * the current of its own node and of every node after it.
+ * the current of its own node and of every node after it (each node draws a fixed current).
+ *
+ * A stage may name the resistor actually fitted. Its node voltage then follows from that part and
+ * the start voltage — so a bench run at the measured mains moves it with the mains — while the
+ * exact value for the target and the nearest E12/E24 values are still reported for comparison.
+ * A stage without a fitted value uses the nearest value of the chosen series, as when designing.
  */
 import { nearestESeries } from '../standards/eSeries';
 import { RESISTOR_DERATING, RESISTOR_POWER_RATINGS } from '../standards/thresholds';
@@ -19,6 +24,13 @@ const shape = {
       targetVoltage: quantity('V', { label: 'Target voltage', min: 1e-3, max: 3000 }),
       current: quantity('A', { label: 'Current drawn at this node', min: 0, max: 10 }),
       capacitance: quantity('F', { label: 'Filter capacitor', min: 1e-12, max: 0.1 }),
+      fittedResistance: optionalQuantity('Ω', {
+        label: 'Fitted resistor',
+        min: 0,
+        minExclusive: true,
+        max: 1e8,
+        help: 'The dropping resistor in the unit (e.g. "4k7"). When given, this and later node voltages are computed with it; leave empty to use the nearest standard value.',
+      }),
     },
     { label: 'Stages', minRows: 1, maxRows: 12 },
   ),
@@ -95,19 +107,43 @@ function compute(input: DropperLadderInput): ReckonerResult {
     const exact = (prevTarget - st.targetVoltage) / I;
     const e12 = nearestESeries(exact, 'E12');
     const e24 = nearestESeries(exact, 'E24');
-    const chosen = input.series === 'E12' ? e12 : e24;
-    const node = prevActual - chosen * I;
-    const power = I * I * chosen;
-    const att = rcAttenuation(chosen, st.capacitance, input.rippleFrequency);
-    outputs[`${key}.resistanceExact`] = q(exact, 'Ω', `${name}: exact resistance`, 'R = ΔV ÷ I, with I the current of this node and all after it.', SRC.derived);
-    outputs[`${key}.resistanceE12`] = q(e12, 'Ω', `${name}: nearest E12`, 'Nearest on a log scale.', 'IEC 60063 E12');
-    outputs[`${key}.resistanceE24`] = q(e24, 'Ω', `${name}: nearest E24`, 'Nearest on a log scale.', 'IEC 60063 E24');
+    const fitted = st.fittedResistance;
+    const used = fitted ?? (input.series === 'E12' ? e12 : e24);
+    const usedText = fitted !== undefined ? `the fitted ${formatQuantity(used, 'Ω')}` : `the nearest ${input.series} value, ${formatQuantity(used, 'Ω')}`;
+    const node = prevActual - used * I;
+    if (!(node > 0)) {
+      throw new ReckonerInputError(
+        fitted !== undefined ? `stages.${i}.fittedResistance` : `stages.${i}.targetVoltage`,
+        `with ${usedText} carrying ${formatQuantity(I, 'A')}, this node falls to ${formatQuantity(node, 'V')} from ${formatQuantity(prevActual, 'V')}: ` +
+          (fitted !== undefined ? 'check the fitted value and the currents' : 'the targets and currents do not fit the standard values; revise the chain'),
+      );
+    }
+    const power = I * I * used;
+    const att = rcAttenuation(used, st.capacitance, input.rippleFrequency);
+    outputs[`${key}.resistanceExact`] = q(exact, 'Ω', `${name}: exact resistance`, 'R = ΔV ÷ I from the previous target (the start voltage for the first stage) to this target, with I the current of this node and all after it. For comparison when a resistor is fitted.', SRC.derived);
+    outputs[`${key}.resistanceE12`] = q(e12, 'Ω', `${name}: nearest E12`, 'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.', 'IEC 60063 E12');
+    outputs[`${key}.resistanceE24`] = q(e24, 'Ω', `${name}: nearest E24`, 'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.', 'IEC 60063 E24');
+    outputs[`${key}.resistance`] = q(
+      used,
+      'Ω',
+      fitted !== undefined ? `${name}: fitted resistor` : `${name}: resistor used (${input.series})`,
+      fitted !== undefined
+        ? 'The resistor given as fitted; node voltage, dissipation and attenuation use it.'
+        : `No fitted value given: the nearest ${input.series} value to the exact resistance; node voltage, dissipation and attenuation use it.`,
+      fitted !== undefined ? undefined : `IEC 60063 ${input.series}`,
+    );
     outputs[`${key}.current`] = q(I, 'A', `${name}: resistor current`, 'This node’s current plus every later node’s.', SRC.derived);
-    outputs[`${key}.nodeVoltage`] = q(node, 'V', `${name}: node voltage with ${input.series} values`, `Previous node less ${formatQuantity(chosen, 'Ω')} × ${formatQuantity(I, 'A')}.`, SRC.derived);
-    outputs[`${key}.dissipationExact`] = q(I * (prevTarget - st.targetVoltage), 'W', `${name}: dissipation at the exact value`, 'ΔV × I.', SRC.derived);
-    outputs[`${key}.dissipation`] = q(power, 'W', `${name}: dissipation`, 'I² × R with the fitted value.', SRC.derived);
+    outputs[`${key}.nodeVoltage`] = q(
+      node,
+      'V',
+      fitted !== undefined ? `${name}: node voltage with the fitted resistor` : `${name}: node voltage with ${input.series} values`,
+      `Previous node’s computed voltage (${formatQuantity(prevActual, 'V')}) less ${usedText} × ${formatQuantity(I, 'A')}.`,
+      SRC.derived,
+    );
+    outputs[`${key}.dissipationExact`] = q(I * (prevTarget - st.targetVoltage), 'W', `${name}: dissipation at the exact value`, 'ΔV × I, with ΔV from the previous target to this target.', SRC.derived);
+    outputs[`${key}.dissipation`] = q(power, 'W', `${name}: dissipation`, `I² × R with ${usedText}.`, SRC.derived);
     outputs[`${key}.powerRating`] = q(suggestedPowerRating(power), 'W', `${name}: suggested rating`, 'Next common rating at or above twice the dissipation; check the element voltage limit on HT parts.', SRC.commonPractice);
-    outputs[`${key}.attenuation`] = n(att, `${name}: ripple attenuation`, 'X_C ÷ √(R² + X_C²) of this RC stage alone, ignoring loading by later stages.', SRC.derived, 4);
+    outputs[`${key}.attenuation`] = n(att, `${name}: ripple attenuation`, `X_C ÷ √(R² + X_C²) of this RC stage alone with ${usedText}, ignoring loading by later stages.`, SRC.derived, 4);
     outputs[`${key}.attenuationDb`] = n(20 * Math.log10(att), `${name}: ripple attenuation (dB)`, '20 log₁₀ of the attenuation.', SRC.derived);
     if (ripple !== undefined) {
       ripple = ripple * att;
@@ -116,19 +152,22 @@ function compute(input: DropperLadderInput): ReckonerResult {
     prevTarget = st.targetVoltage;
     prevActual = node;
   });
-  outputs.finalVoltage = q(prevActual, 'V', 'Last node voltage', `With ${input.series} values.`, SRC.derived);
+  const anyFitted = input.stages.some((st) => st.fittedResistance !== undefined);
+  const allFitted = input.stages.every((st) => st.fittedResistance !== undefined);
+  outputs.finalVoltage = q(
+    prevActual,
+    'V',
+    'Last node voltage',
+    allFitted ? 'With the fitted resistors.' : anyFitted ? `With the fitted resistors where given, ${input.series} values elsewhere.` : `With ${input.series} values.`,
+    SRC.derived,
+  );
   return { outputs };
 }
 
-function cautions(input: DropperLadderInput, result: ReckonerResult): Caution[] {
-  const negative = input.stages.some((_, i) => Number(result.outputs[`stage${i + 1}.nodeVoltage`]!.value) <= 0);
+function cautions(input: DropperLadderInput): Caution[] {
+  // A node at or below zero is an input error raised by compute, never a caution.
   return compact([
     hazardousVoltage(input.startVoltage, 'The dropper chain'),
-    negative && {
-      level: 'warning',
-      code: 'ladder-collapse',
-      message: 'With the fitted standard values a node falls to zero or below: the targets and currents do not fit; revise the chain.',
-    },
     {
       level: 'note',
       code: 'resistor-voltage',

@@ -2,8 +2,10 @@
  * The demo procedures in content-seed/procedures: each file must be a document the server would
  * accept as it stands — valid against the node schema, every reckoner evaluating, every reading
  * resolving to a band, and no warnings from the procedure check — and its mains-voltage inputs
- * must be wired to the procedure parameter, so a bench run at the measured mains moves the
- * expected values.
+ * must be wired to the procedure parameters: the measured mains (mainsVoltage) everywhere a bench
+ * run at the measured mains should move the expected values, the nominal mains (mainsNominal) for
+ * the fuse, which is chosen once and must not change rating on the bench. Every dropping-resistor
+ * ladder stage names the resistor fitted in the unit, so its node voltages follow the mains.
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -14,6 +16,7 @@ import { extractBlocks, plainText } from '../../shared/document/extract';
 import { lintProcedure } from '../../shared/document/lint';
 import { paramsSchema, type ProcedureParams } from '../../shared/document/params';
 import { validateDocument, walk, type ProcedureDoc } from '../../shared/document/schema';
+import { parseQuantity } from '../../shared/units/parse';
 
 const DIR = fileURLToPath(new URL('../../content-seed/procedures/', import.meta.url));
 const PEOPLE = fileURLToPath(new URL('../../content-seed/people.json', import.meta.url));
@@ -97,6 +100,29 @@ function mainsDependent(doc: ProcedureDoc): Set<string> {
   return dependent;
 }
 
+/** A numeric output of an evaluated block, by "block.output". */
+function outputOf(snap: Snapshot, ref: string): number {
+  const dot = ref.indexOf('.');
+  const block = snap.blocks.find((b) => b.name === ref.slice(0, dot));
+  if (!block?.ok) throw new Error(`block of "${ref}" did not evaluate`);
+  const out = block.outputs[ref.slice(dot + 1)];
+  if (!out || typeof out.value !== 'number') throw new Error(`no numeric output "${ref}"`);
+  return out.value;
+}
+
+/** The value a reckoner input takes in a snapshot: a reference, a parameter or a plain number. */
+function inputValue(snap: Snapshot, value: unknown): number {
+  if (typeof value === 'number') return value;
+  if (value && typeof value === 'object' && 'ref' in value) return outputOf(snap, String((value as { ref: string }).ref));
+  if (value && typeof value === 'object' && 'param' in value) return snap.params[(value as { param: string }).param as keyof ProcedureParams] as number;
+  throw new Error(`cannot resolve input ${JSON.stringify(value)} in this test`);
+}
+
+interface LadderStage {
+  label?: string;
+  fittedResistance?: unknown;
+}
+
 const people = (JSON.parse(readFileSync(PEOPLE, 'utf8')) as { people: { email: string; roles: string[] }[] }).people;
 const rolesOf = (email: string) => people.find((p) => p.email === email)?.roles ?? [];
 
@@ -176,7 +202,10 @@ describe('content-seed procedures', () => {
         if (node.type !== 'reckoner') return;
         const inputs = node.attrs!.inputs as Record<string, unknown>;
         for (const key of ['mainsVoltage', 'mainsActual']) {
-          if (key in inputs) expect(inputs[key], `${String(node.attrs!.name)}.${key}`).toEqual({ param: 'mainsVoltage' });
+          if (!(key in inputs)) continue;
+          // The fuse is sized at the nominal mains; everything else follows the measured mains.
+          const param = node.attrs!.kind === 'mains-fuse' ? 'mainsNominal' : 'mainsVoltage';
+          expect(inputs[key], `${String(node.attrs!.name)}.${key}`).toEqual({ param });
         }
       });
       const base = evaluateDocument(doc, seed.params);
@@ -195,6 +224,59 @@ describe('content-seed procedures', () => {
         if (h.expected !== r.expected) moved++;
       }
       expect(moved, `${seed.seedKey}: readings that moved with the mains`).toBeGreaterThan(0);
+
+      // Ladder nodes rise because the fitted resistors are fixed, not by luck of rounding: each
+      // node moves by exactly the rise of the ladder's start voltage (fixed node currents).
+      for (const ladder of extractBlocks(doc).reckoners.filter((r) => r.kind === 'dropper-ladder')) {
+        const inputs = ladder.inputs as unknown as { startVoltage: unknown; stages: LadderStage[] };
+        const startRise = inputValue(high, inputs.startVoltage) - inputValue(base, inputs.startVoltage);
+        expect(startRise, `${seed.seedKey}: ${ladder.name} start rises with the mains`).toBeGreaterThan(0);
+        inputs.stages.forEach((_, i) => {
+          const ref = `${ladder.name}.stage${i + 1}.nodeVoltage`;
+          const rise = outputOf(high, ref) - outputOf(base, ref);
+          expect(Math.abs(rise - startRise), `${seed.seedKey}: ${ref} rises ${rise} V, start ${startRise} V`).toBeLessThan(1e-9 * Math.abs(startRise) + 1e-9);
+        });
+        const ladderReadings = base.readings.filter((r) => refOf.get(r.id)?.startsWith(`${ladder.name}.`) && /\.nodeVoltage$/.test(refOf.get(r.id)!));
+        expect(ladderReadings.length, `${seed.seedKey}: readings bound to ${ladder.name} node voltages`).toBe(inputs.stages.length);
+        for (const r of ladderReadings) {
+          const h = high.readings.find((x) => x.id === r.id)!;
+          expect(h.expected! - r.expected!, `${seed.seedKey}: ${r.id}`).toBeCloseTo(startRise, 6);
+        }
+      }
+    });
+
+    it('sizes the fuse at the nominal mains: the rating does not change with the measured mains', () => {
+      const doc = validDoc(seed);
+      const fuses = extractBlocks(doc).reckoners.filter((r) => r.kind === 'mains-fuse');
+      for (const fuse of fuses) {
+        expect((fuse.inputs as Record<string, unknown>).mainsVoltage, `${seed.seedKey}: ${fuse.name}.mainsVoltage`).toEqual({ param: 'mainsNominal' });
+      }
+      const base = evaluateDocument(doc, seed.params);
+      for (const factor of [0.9, 1.1]) {
+        const other = evaluateDocument(doc, { ...seed.params, mainsVoltage: seed.params.mainsVoltage * factor });
+        for (const fuse of fuses) {
+          expect(outputOf(other, `${fuse.name}.fuseRating`), `${seed.seedKey}: ${fuse.name} at ×${factor} mains`).toBe(outputOf(base, `${fuse.name}.fuseRating`));
+        }
+      }
+    });
+
+    it('names the fitted resistor on every dropping-resistor ladder stage, as the procedure text lists it', () => {
+      const doc = validDoc(seed);
+      const text = plainText(doc);
+      const snap = evaluateDocument(doc, seed.params);
+      for (const ladder of extractBlocks(doc).reckoners.filter((r) => r.kind === 'dropper-ladder')) {
+        const stages = (ladder.inputs as unknown as { stages: LadderStage[] }).stages;
+        expect(stages.length).toBeGreaterThan(0);
+        stages.forEach((st, i) => {
+          const where = `${seed.seedKey}: ${ladder.name} stage ${i + 1} (${st.label ?? ''})`;
+          expect(typeof st.fittedResistance, `${where} fitted resistor`).toBe('string');
+          const fitted = st.fittedResistance as string;
+          // The part the unit description lists, e.g. "4k7 2 W to B+2".
+          expect(text, `${where}: "${fitted}" in the procedure text`).toMatch(new RegExp(`(^|[^0-9A-Za-z])${fitted}([^0-9A-Za-z]|$)`));
+          // The reckoner computes the node with that part.
+          expect(outputOf(snap, `${ladder.name}.stage${i + 1}.resistance`), where).toBe(parseQuantity(fitted, 'Ω').value);
+        });
+      }
     });
   });
 });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { rcAttenuation, suggestedPowerRating } from '../../../shared/reckoners/dropper-ladder';
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
@@ -74,5 +75,129 @@ describe('dropper-ladder', () => {
   it('rejects a chain where no current flows through a resistor', () => {
     const errs = fieldErrors('dropper-ladder', { startVoltage: 350, stages: [{ targetVoltage: 300, current: 0, capacitance: '47u' }] });
     expect(errs[0]!.field).toBe('stages.0.current');
+  });
+
+  describe('fitted resistors', () => {
+    // Two stages, 10 mA drawn at each node: 20 mA through R1, 10 mA through R2.
+    const chain = (start: number, fitted: [string | undefined, string | undefined]) => ({
+      startVoltage: start,
+      stages: [
+        { label: 'B+2', targetVoltage: 300, current: '10 mA', capacitance: '47u', fittedResistance: fitted[0] },
+        { label: 'B+3', targetVoltage: 250, current: '10 mA', capacitance: '22u', fittedResistance: fitted[1] },
+      ],
+    });
+
+    it('worked example: 350 V through fitted 2k2 then 5k6 → 306 V, 250 V; 0.88 W and 0.56 W [derived: R = ΔV / I, P = ΔV × I — REFERENCES §4]', () => {
+      const { outputs } = run('dropper-ladder', chain(350, ['2k2', '5k6']));
+      // Exact values for the targets, for comparison: 50 V / 20 mA = 2.5 kΩ; 50 V / 10 mA = 5 kΩ
+      expectClose(num(outputs, 'stage1.resistanceExact'), 2500);
+      expectClose(num(outputs, 'stage2.resistanceExact'), 5000);
+      // The suggestions stay: nearest E12 to 2.5 kΩ is 2.7 kΩ, to 5 kΩ is 4.7 kΩ [IEC 60063 E12] — not the parts fitted.
+      expect(num(outputs, 'stage1.resistanceE12')).toBe(2700);
+      expect(num(outputs, 'stage2.resistanceE12')).toBe(4700);
+      expect(num(outputs, 'stage1.resistance')).toBe(2200);
+      expect(num(outputs, 'stage2.resistance')).toBe(5600);
+      // ΔV1 = 2200 Ω × 20 mA = 44 V → 306 V; ΔV2 = 5600 Ω × 10 mA = 56 V → 250 V
+      expectClose(num(outputs, 'stage1.nodeVoltage'), 306);
+      expectClose(num(outputs, 'stage2.nodeVoltage'), 250);
+      expectClose(num(outputs, 'finalVoltage'), 250);
+      // P = ΔV × I: 44 V × 20 mA = 0.88 W; 56 V × 10 mA = 0.56 W
+      expectClose(num(outputs, 'stage1.dissipation'), 0.88);
+      expectClose(num(outputs, 'stage2.dissipation'), 0.56);
+      expect(outputs['stage1.nodeVoltage']!.label).toMatch(/fitted/);
+      expect(outputs['stage1.nodeVoltage']!.explanation).toMatch(/fitted 2\.2 kΩ/);
+      expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors.');
+    });
+
+    it('at +10 % start (385 V) the nodes follow the fitted parts, while the E12 suggestion moves to 3k9 [derived, REFERENCES §4; IEC 60063 E12]', () => {
+      const { outputs } = run('dropper-ladder', chain(385, ['2k2', '5k6']));
+      // Exact for the target is now 85 V / 20 mA = 4.25 kΩ, nearest E12 3.9 kΩ — reported, not used.
+      expectClose(num(outputs, 'stage1.resistanceExact'), 4250);
+      expect(num(outputs, 'stage1.resistanceE12')).toBe(3900);
+      // 385 − 44 = 341 V; 341 − 56 = 285 V (each node 35 V up, as the start)
+      expectClose(num(outputs, 'stage1.nodeVoltage'), 341);
+      expectClose(num(outputs, 'stage2.nodeVoltage'), 285);
+      expectClose(num(outputs, 'stage1.dissipation'), 0.88);
+    });
+
+    it('without fitted values keeps choosing the E-series value at the given start: 385 V → 3k9, 385 − 78 = 307 V [derived; IEC 60063 E12]', () => {
+      const { outputs } = run('dropper-ladder', chain(385, [undefined, undefined]));
+      expect(num(outputs, 'stage1.resistance')).toBe(3900);
+      expectClose(num(outputs, 'stage1.nodeVoltage'), 307);
+      // Stage 2: exact 5 kΩ → E12 4.7 kΩ, 47 V → 260 V
+      expect(num(outputs, 'stage2.resistance')).toBe(4700);
+      expectClose(num(outputs, 'stage2.nodeVoltage'), 260);
+      expectClose(num(outputs, 'stage1.dissipation'), 0.02 * 0.02 * 3900);
+      expect(outputs['stage1.nodeVoltage']!.label).toMatch(/E12 values/);
+      expect(outputs.finalVoltage!.explanation).toBe('With E12 values.');
+    });
+
+    it('mixes fitted and chosen stages: the chosen stage still works from the targets, its node from the actual voltage', () => {
+      const { outputs } = run('dropper-ladder', chain(385, ['2k2', undefined]));
+      expectClose(num(outputs, 'stage1.nodeVoltage'), 341);
+      // Stage 2 exact from the targets (300 → 250 V at 10 mA) = 5 kΩ → E12 4.7 kΩ; node 341 − 47 = 294 V
+      expectClose(num(outputs, 'stage2.resistanceExact'), 5000);
+      expect(num(outputs, 'stage2.resistance')).toBe(4700);
+      expectClose(num(outputs, 'stage2.nodeVoltage'), 294);
+      expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors where given, E12 values elsewhere.');
+    });
+
+    it('property: with fitted values, raising the start voltage by 10 % raises every node voltage (by exactly the rise of the start) [derived]', () => {
+      fc.assert(
+        fc.property(
+          fc.double({ min: 50, max: 1000, noNaN: true }),
+          fc.array(
+            fc.record({
+              frac: fc.double({ min: 0.8, max: 0.99, noNaN: true }),
+              current: fc.double({ min: 1e-4, max: 0.05, noNaN: true }),
+              misfit: fc.double({ min: 0.7, max: 1.3, noNaN: true }),
+            }),
+            { minLength: 1, maxLength: 5 },
+          ),
+          (start, rows) => {
+            // Targets step down by 1–20 % a stage; fitted parts within ±30 % of the exact value,
+            // so the whole fitted drop stays below 1.3 × 0.7 of the start and every node is positive.
+            const targets: number[] = [];
+            rows.reduce((v, r) => (targets.push(v * r.frac), v * r.frac), start);
+            const through = rows.map((_, i) => rows.slice(i).reduce((a, r) => a + r.current, 0));
+            const stages = rows.map((r, i) => ({
+              targetVoltage: targets[i]!,
+              current: r.current,
+              capacitance: 47e-6,
+              fittedResistance: (((i === 0 ? start : targets[i - 1]!) - targets[i]!) / through[i]!) * r.misfit,
+            }));
+            const base = run('dropper-ladder', { startVoltage: start, stages }).outputs;
+            const high = run('dropper-ladder', { startVoltage: start * 1.1, stages }).outputs;
+            stages.forEach((_, i) => {
+              const b = num(base, `stage${i + 1}.nodeVoltage`);
+              const h = num(high, `stage${i + 1}.nodeVoltage`);
+              expect(b).toBeGreaterThan(0);
+              expect(h).toBeGreaterThan(b);
+              expectClose(h - b, start * 0.1, 1e-6);
+              // Fixed node currents and fixed resistors: the dissipation does not change.
+              expectClose(num(high, `stage${i + 1}.dissipation`), num(base, `stage${i + 1}.dissipation`), 1e-9);
+            });
+          },
+        ),
+        { numRuns: 300 },
+      );
+    });
+
+    it('reports a node at or below zero as an error on the fitted value, never clamping', () => {
+      // 350 V − 2k2 × 20 mA = 306 V; 306 V − 33k × 10 mA = −24 V
+      const errs = fieldErrors('dropper-ladder', chain(350, ['2k2', '33k']));
+      expect(errs).toEqual([{ field: 'stages.1.fittedResistance', reason: expect.stringMatching(/fitted 33 kΩ carrying 10 mA, this node falls to -24 V from 306 V/) }]);
+    });
+
+    it('reports a chain whose standard values drive a node to zero or below as an error on the target', () => {
+      // 360 V → 1 mV at 10 mA: exact 36 kΩ, nearest E12 39 kΩ drops 390 V
+      const errs = fieldErrors('dropper-ladder', { startVoltage: 360, stages: [{ targetVoltage: '1 mV', current: '10 mA', capacitance: '1u' }] });
+      expect(errs.map((e) => e.field)).toEqual(['stages.0.targetVoltage']);
+    });
+
+    it('rejects a fitted value of zero or below, naming the row', () => {
+      const errs = fieldErrors('dropper-ladder', chain(350, ['0', undefined]));
+      expect(errs.map((e) => e.field)).toEqual(['stages.0.fittedResistance']);
+    });
   });
 });
