@@ -42,8 +42,17 @@ export interface SearchPage {
   facets: { families: string[]; tags: string[] };
 }
 
-const FIELDS = ['title', 'family', 'model', 'tagText', 'body', 'readings', 'reckoners'] as const;
-const BOOST = { title: 4, model: 3, tagText: 2.5, family: 2, reckoners: 1.5, readings: 1.5, body: 1 };
+// Few fields keep each query cheap: minisearch scores every matching document once per field.
+const FIELDS = ['heading', 'meta', 'body', 'figures'] as const;
+const BOOST = { heading: 4, meta: 2.5, figures: 1.5, body: 1 };
+type Stored = { id: string; heading: string; meta: string; body: string; figures: string };
+const toStored = (p: IndexedProcedure): Stored => ({
+  id: p.id,
+  heading: `${p.title} ${p.model}`,
+  meta: `${p.family} ${p.tags.join(' ')}`,
+  body: p.body,
+  figures: `${p.readings}\n${p.reckoners}`,
+});
 const hasDigit = (t: string) => /\d/.test(t);
 
 /**
@@ -55,7 +64,7 @@ export class SearchIndex {
   private mini = SearchIndex.create();
 
   private static create() {
-    return new MiniSearch<IndexedProcedure & { tagText: string }>({
+    return new MiniSearch<Stored>({
       fields: [...FIELDS],
       storeFields: [],
       tokenize: (text) => tokenize(text),
@@ -77,14 +86,14 @@ export class SearchIndex {
 
   replaceAll(procedures: IndexedProcedure[]) {
     const fresh = SearchIndex.create();
-    fresh.addAll(procedures.map((p) => ({ ...p, tagText: p.tags.join(' ') })));
+    fresh.addAll(procedures.map(toStored));
     this.mini = fresh;
     this.docs = new Map(procedures.map((p) => [p.id, p]));
   }
 
   upsert(p: IndexedProcedure) {
     if (this.docs.has(p.id)) this.mini.discard(p.id);
-    this.mini.add({ ...p, tagText: p.tags.join(' ') });
+    this.mini.add(toStored(p));
     this.docs.set(p.id, p);
   }
 
@@ -155,7 +164,7 @@ export function snippet(text: string, matched: Set<string>, max = 200): { text: 
   let best = lines[0] ?? '';
   let bestCount = -1;
   for (const line of lines) {
-    const count = line.split(/\s+/).filter(isHit).length;
+    const count = tokenize(line).filter((t) => matched.has(t)).length;
     if (count > bestCount) {
       best = line;
       bestCount = count;

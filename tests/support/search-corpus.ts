@@ -30,6 +30,10 @@ const TASKS = [
   'hum and ripple check',
 ];
 const TAGS = ['fuse', 'b+', 'heater', 'capacitor', 'rectifier', 'bleeder', 'ripple', 'bias', 'first power-up', 'recap', 'mains', 'ladder'];
+const READINGS = [
+  'B+ at the reservoir', 'B+2 at the screen node', 'Heater winding unloaded', 'Primary current at switch-on', 'Ripple at the first node',
+  'Bias voltage at the grid', 'Cathode voltage', 'HT winding each half', 'Bleeder discharge time', 'Dropper resistor drop',
+];
 const SENTENCES = [
   (r: () => number) => `Measure B+ at the reservoir capacitor: expect ${300 + Math.round(r() * 150)} V loaded.`,
   (r: () => number) => `The heater winding supplies 6.3 V at ${(1 + Math.round(r() * 40) / 10).toFixed(1)} A to the valve line-up.`,
@@ -61,7 +65,7 @@ export function generateCorpus(count: number, seed = 20261202): IndexedProcedure
       model,
       tags: [...new Set([pick(TAGS), pick(TAGS)])],
       body,
-      readings: `B+ at the reservoir — TP${1 + Math.floor(r() * 6)}\nHeater winding — V${1 + Math.floor(r() * 5)} socket`,
+      readings: Array.from({ length: 1 + Math.floor(r() * 3) }, () => `${pick(READINGS)} — TP${1 + Math.floor(r() * 9)}`).join('\n'),
       reckoners: `fuse: recommended fuse ${pick(['800 mA', '1 A', '1.25 A', '1.6 A'])} time-delay (T)`,
     });
   }
