@@ -37,6 +37,10 @@ describe('people administration', () => {
     const short = await newcomer.post('/api/auth/set-password').send({ token, password: 'short' });
     expect(short.status).toBe(400);
     expect(short.body.fields[0].field).toBe('body.password');
+    // A common password is refused even when long enough (ASVS 6.2.4).
+    const common = await newcomer.post('/api/auth/set-password').send({ token, password: '1qaz2wsx3edc' });
+    expect(common.status).toBe(400);
+    expect(common.body.fields[0]).toEqual({ field: 'body.password', reason: 'is one of the most common passwords' });
     const passphrase = 'copper wound chokes hum at one hundred hertz';
     expect((await newcomer.post('/api/auth/set-password').send({ token, password: passphrase })).status).toBe(200);
     // The link works once.

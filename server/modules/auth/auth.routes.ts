@@ -7,6 +7,7 @@ import { z } from 'zod';
 import { setPasswordBody, signInBody } from '../../../shared/schemas/auth';
 import { recordAudit } from '../../audit/record';
 import { csrfToken } from '../../auth/csrf';
+import { isCommonPassword } from '../../auth/common-passwords';
 import { hashPassword } from '../../auth/passwords';
 import { invitations, people } from '../../db/schema';
 import { HttpError } from '../../http/errors';
@@ -123,6 +124,11 @@ export const authRoutes = [
     summary: 'Set a password from a one-time link',
     body: setPasswordBody,
     handler: async ({ req, body, deps }) => {
+      if (isCommonPassword(body.password)) {
+        throw new HttpError(400, 'That password is on the list of most common passwords; choose another.', {
+          fields: [{ field: 'body.password', reason: 'is one of the most common passwords' }],
+        });
+      }
       const hash = await hashPassword(body.password);
       const personId = await deps.db.transaction(async (tx) => {
         const [invite] = await tx
