@@ -24,7 +24,7 @@ export interface Cluster {
 
 const isRoot = process.getuid?.() === 0;
 
-function pgBinDir(): string {
+export function pgBinDir(): string {
   const base = '/usr/lib/postgresql';
   const versions = existsSync(base)
     ? readdirSync(base).filter((v) => existsSync(path.join(base, v, 'bin', 'initdb')))

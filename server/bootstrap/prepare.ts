@@ -17,7 +17,7 @@ export const dataDir = path.join(projectRoot, '.data');
  * the restart test) and a client build of its own, so two people can run the tests in one checkout at once.
  */
 export const TEST_SLOT = Number(process.env.BW_TEST_SLOT ?? 0);
-export const PORTS = { app: 5480, mainDb: 54329, testDb: 54339 + TEST_SLOT * 20, healthDb: 54349 + TEST_SLOT * 20 } as const;
+export const PORTS = { app: 5480, mainDb: 54329, testDb: 54339 + TEST_SLOT * 20, healthDb: 54349 + TEST_SLOT * 20, restoreDb: 54350 + TEST_SLOT * 20 } as const;
 export const testClientDir = path.join(projectRoot, 'dist', `client-test-${TEST_SLOT}`);
 export const testClusterName = (base: string) => (TEST_SLOT ? `${base}-${TEST_SLOT}` : base);
 

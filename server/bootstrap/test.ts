@@ -9,8 +9,12 @@ import { prepareTestTemplate } from '../../tests/support/test-cluster';
 
 const { cluster } = await prepareTestTemplate();
 
-say('building the client for the browser tests…');
-await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts'), build: { outDir: testClientDir } });
+// The browser tests need a client build; a run limited to other projects skips it.
+const args = process.argv.slice(2);
+const projects = args.flatMap((a, i) => (a === '--project' ? [args[i + 1]] : a.startsWith('--project=') ? [a.slice(10)] : []));
+const needsBuild = projects.length === 0 || projects.includes('e2e');
+if (needsBuild) say('building the client for the browser tests…');
+if (needsBuild) await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts'), build: { outDir: testClientDir } });
 
 const vitest = spawnSync(path.join(projectRoot, 'node_modules/.bin/vitest'), ['run', ...process.argv.slice(2)], {
   cwd: projectRoot,

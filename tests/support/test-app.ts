@@ -76,6 +76,7 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
     catcher,
     search,
     databaseUrl: database.url,
+    uploadDir,
     client,
     as,
     async close() {
