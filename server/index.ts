@@ -45,9 +45,13 @@ export async function startServer(opts: {
     search,
     url: `http://${host}:${port}`,
     async close() {
+      // Stop accepting, let requests in flight finish, close each keep-alive connection as soon
+      // as it falls idle, and cut whatever is left after 8 s.
       await new Promise<void>((resolve) => {
+        const sweep = setInterval(() => server.closeIdleConnections(), 100);
         const timer = setTimeout(() => server.closeAllConnections(), 8_000);
         server.close(() => {
+          clearInterval(sweep);
           clearTimeout(timer);
           resolve();
         });

@@ -4,6 +4,7 @@
 # over to the TypeScript bootstrap for the chosen mode.
 set -euo pipefail
 mode="${1:-start}"
+shift || true
 cd "$(dirname "$0")/../.."
 
 if [ ! -d node_modules ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
@@ -22,4 +23,4 @@ if [ ${#missing[@]} -gt 0 ]; then
   DEBIAN_FRONTEND=noninteractive $sudo_cmd apt-get install -y --no-install-recommends "${missing[@]}"
 fi
 
-exec node_modules/.bin/tsx "server/bootstrap/${mode}.ts"
+exec node --import tsx "server/bootstrap/${mode}.ts" "$@"

@@ -14,7 +14,7 @@ let bUrl = '';
 
 beforeAll(async () => {
   a = await createTestApp({}, { search: true });
-  b = spawn(path.join(projectRoot, 'node_modules/.bin/tsx'), ['tests/support/server-process.ts'], {
+  b = spawn(process.execPath, ['--import', 'tsx', 'tests/support/server-process.ts'], {
     cwd: projectRoot,
     env: { ...process.env, DATABASE_URL: a.databaseUrl },
     stdio: ['ignore', 'pipe', 'inherit'],
