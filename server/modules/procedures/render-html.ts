@@ -90,5 +90,7 @@ export function sanitizeRevisionHtml(html: string): string {
     allowedSchemesByTag: { img: [] },
     allowProtocolRelative: false,
     disallowedTagsMode: 'discard',
+    // Images only ever come from our own attachment store.
+    exclusiveFilter: (frame) => frame.tag === 'img' && !/^\/api\/attachments\/[0-9a-f-]{36}$/.test(frame.attribs.src ?? ''),
   });
 }
