@@ -19,6 +19,8 @@ export function httpSession(baseUrl: string) {
     return { status: res.status, body: json };
   };
   return {
+    cookieHeader: () => cookie,
+    csrfToken: () => csrf,
     get: (path: string) => call('GET', path),
     post: (path: string, body: unknown = {}) => call('POST', path, body),
     async signIn(email: string, password: string) {
