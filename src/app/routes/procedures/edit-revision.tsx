@@ -1,0 +1,36 @@
+import { useEffect } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { useRevision } from '@/features/procedures/api/get-revision';
+import { DraftWorkspace } from '@/editor/draft-workspace';
+
+/** The only route that loads the editor (and with it TipTap): readers never download it. */
+export default function EditRevisionPage() {
+  const { revisionId = '' } = useParams();
+  const session = useSession();
+  const revision = useRevision(revisionId);
+  // Always start from the server's latest copy: a cached one could carry an old lock version.
+  const data = revision.isFetchedAfterMount ? revision.data : undefined;
+  useEffect(() => {
+    document.title = `Editing ${data?.revision.title ?? 'draft'} · Benchwright`;
+  }, [data?.revision.title]);
+
+  if (!hasRole(session.data?.user, 'author')) return <Notice tone="error">Only authors edit drafts.</Notice>;
+  if (revision.isError) return <Notice tone="error">{revision.error.message}</Notice>;
+  if (!data) return <p className="text-graphite-soft">Loading the draft…</p>;
+  const r = data.revision;
+  if (r.state !== 'draft') {
+    return (
+      <Notice tone="info">
+        Revision {r.number} is no longer a draft, so it cannot be edited.{' '}
+        <Link className="underline" to={paths.revision.href(r.id)}>
+          Read it
+        </Link>
+        .
+      </Notice>
+    );
+  }
+  return <DraftWorkspace key={r.id} revision={r} />;
+}

@@ -1,0 +1,57 @@
+import { useEffect } from 'react';
+import { useParams } from 'react-router-dom';
+import { REVISION_STATE_LABELS } from '@shared/schemas/procedures';
+import { Notice } from '@/components/ui/notice';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { useRevision } from '@/features/procedures/api/get-revision';
+import { DocumentView } from '@/features/procedures/components/reader/document-view';
+import { RevisionActions } from '@/features/procedures/components/revision-actions';
+import { StateBadge } from '@/features/procedures/components/state-badge';
+
+/** Reading one revision: header, the standing caution, the document with its stored results. */
+export default function RevisionPage() {
+  const { revisionId = '' } = useParams();
+  const session = useSession();
+  const query = useRevision(revisionId);
+  const r = query.data?.revision;
+  useEffect(() => {
+    document.title = `${r?.title ?? 'Procedure'} · Benchwright`;
+  }, [r?.title]);
+
+  if (query.isError) return <Notice tone="error">{query.error.message}</Notice>;
+  if (!r) return <p className="text-graphite-soft">Loading…</p>;
+  return (
+    <article className="reader mx-auto flex max-w-4xl flex-col gap-4">
+      <header className="flex flex-col gap-2 border-b border-rule pb-4">
+        <p className="text-sm text-graphite-soft">
+          {r.equipmentFamily} · <span className="font-semibold text-graphite">{r.equipmentModel}</span>
+        </p>
+        <h1 className="text-3xl font-semibold">{r.title}</h1>
+        <p className="flex flex-wrap items-center gap-x-3 gap-y-1 text-sm">
+          <span>
+            Revision <span className="value">{r.number}</span>
+          </span>
+          <StateBadge state={r.state} />
+          <span className="sr-only">State: {REVISION_STATE_LABELS[r.state]}</span>
+          <span>by {r.author.displayName}</span>
+          <span>
+            last changed <time dateTime={r.updatedAt}>{new Date(r.updatedAt).toLocaleString()}</time>
+          </span>
+          <span className="text-graphite-soft">
+            mains <span className="value">{r.params.mainsNominal} V</span>, <span className="value">{r.params.mainsFrequency} Hz</span>
+          </span>
+        </p>
+        {r.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {r.tags.join(', ')}</p>}
+        <RevisionActions revision={r} isAuthor={hasRole(session.data?.user, 'author')} />
+      </header>
+      {r.state !== 'approved' && (
+        <Notice tone="info">This revision is {REVISION_STATE_LABELS[r.state].toLowerCase()}, not the approved procedure: do not use it at the bench.</Notice>
+      )}
+      <div className="rounded-md border-2 border-hazard-ink bg-card p-3">
+        <SafetyCaution />
+      </div>
+      <DocumentView doc={r.document} snapshot={r.snapshot} />
+    </article>
+  );
+}

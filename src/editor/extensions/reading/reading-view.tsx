@@ -1,0 +1,95 @@
+import { useId } from 'react';
+import type { NodeViewProps } from '@tiptap/react';
+import { readingAttrs, type ReadingAttrs } from '@shared/document/schema';
+import { numericOutputs, readingResult, useEvaluation } from '../../evaluation-context';
+import { BlockFrame } from '../block-frame';
+
+const UNITS = readingAttrs.shape.unit.options;
+const control = 'min-h-9 rounded border border-rule bg-card px-2 py-1 text-sm';
+
+function TextInput({ label, value, onChange, mono, placeholder }: { label: string; value: string; onChange: (v: string) => void; mono?: boolean; placeholder?: string }) {
+  const id = useId();
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="text-xs font-semibold">
+        {label}
+      </label>
+      <input id={id} className={`${control} ${mono ? 'value' : ''}`} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} />
+    </div>
+  );
+}
+
+export function ReadingView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
+  const attrs = node.attrs as ReadingAttrs;
+  const evaluation = useEvaluation();
+  const ids = { unit: useId(), source: useId(), expected: useId() };
+  const resolved = readingResult(evaluation, attrs.id);
+  const fromBlock = 'ref' in attrs.expected;
+  const outputs = numericOutputs(evaluation, { unit: attrs.unit });
+  const set = (patch: Partial<ReadingAttrs>) => updateAttributes(patch);
+
+  return (
+    <BlockFrame blockId={attrs.id} selected={selected} onRemove={deleteNode} title="Reading">
+      <div className="grid gap-3 sm:grid-cols-3">
+        <TextInput label="What to measure" value={attrs.label} onChange={(label) => set({ label })} placeholder="B+ at the reservoir" />
+        <TextInput label="Where (test point)" value={attrs.testPoint} onChange={(testPoint) => set({ testPoint })} placeholder="TP3 to chassis" />
+        <TextInput label="Meter range" value={attrs.meterRange} onChange={(meterRange) => set({ meterRange })} mono placeholder="1000 V DC" />
+        <div className="flex flex-col gap-1">
+          <label htmlFor={ids.unit} className="text-xs font-semibold">
+            Unit
+          </label>
+          <select id={ids.unit} className={`${control} value`} value={attrs.unit} onChange={(e) => set({ unit: e.target.value as ReadingAttrs['unit'] })}>
+            {UNITS.map((u) => (
+              <option key={u} value={u}>
+                {u}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div className="flex flex-col gap-1">
+          <div className="flex items-center justify-between gap-2">
+            <label htmlFor={ids.expected} className="text-xs font-semibold">
+              Expected value
+            </label>
+            <select
+              id={ids.source}
+              aria-label="Expected value: source"
+              className="min-h-7 rounded border border-rule bg-paper px-1 text-xs"
+              value={fromBlock ? 'ref' : 'literal'}
+              onChange={(e) => set({ expected: e.target.value === 'ref' ? { ref: outputs[0]?.ref ?? '' } : { literal: '' } })}
+            >
+              <option value="literal">value</option>
+              <option value="ref">from block</option>
+            </select>
+          </div>
+          {'ref' in attrs.expected ? (
+            <select id={ids.expected} className={`${control} value`} value={attrs.expected.ref} onChange={(e) => set({ expected: { ref: e.target.value } })}>
+              {!outputs.some((o) => o.ref === (attrs.expected as { ref: string }).ref) && (
+                <option value={attrs.expected.ref}>{attrs.expected.ref || `choose an output in ${attrs.unit}`} (not available)</option>
+              )}
+              {outputs.map((o) => (
+                <option key={o.ref} value={o.ref}>
+                  {o.label} = {o.formatted}
+                </option>
+              ))}
+            </select>
+          ) : (
+            <input id={ids.expected} className={`${control} value`} value={attrs.expected.literal} placeholder={`350 ${attrs.unit}`} onChange={(e) => set({ expected: { literal: e.target.value } })} />
+          )}
+        </div>
+        <TextInput label="Tolerance" value={attrs.tolerance} onChange={(tolerance) => set({ tolerance })} mono placeholder="±5 %" />
+      </div>
+      <p className="mt-3 text-sm" data-reading-band aria-live="polite">
+        {resolved?.bandText ? (
+          <>
+            Expected band: <span className="value font-semibold">{resolved.bandText}</span>
+          </>
+        ) : (
+          <span className="text-out" role="alert">
+            No expected band: {resolved?.error ?? evaluation.failure ?? 'not evaluated yet'}.
+          </span>
+        )}
+      </p>
+    </BlockFrame>
+  );
+}

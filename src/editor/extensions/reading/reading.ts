@@ -1,0 +1,63 @@
+import { Node, mergeAttributes } from '@tiptap/core';
+import type { ReadingAttrs } from '@shared/document/schema';
+import { newBlockId } from '../../block-id';
+import { insertBlock } from '../insert-block';
+import { jsonAttribute, textAttribute } from '../json-attr';
+
+declare module '@tiptap/core' {
+  interface Commands<ReturnType> {
+    reading: {
+      /** Insert an empty reading (volts, literal expected value). */
+      insertReading: (attrs?: Partial<Omit<ReadingAttrs, 'id'>>) => ReturnType;
+    };
+  }
+}
+
+/** A measurement step: what, where, meter range, unit, expected value and tolerance. */
+export const Reading = Node.create({
+  name: 'reading',
+  group: 'block',
+  atom: true,
+  draggable: true,
+  selectable: true,
+
+  addAttributes() {
+    return {
+      id: textAttribute('id'),
+      label: textAttribute('label'),
+      testPoint: textAttribute('test-point'),
+      meterRange: textAttribute('meter-range'),
+      unit: textAttribute('unit', 'V'),
+      expected: jsonAttribute<ReadingAttrs['expected']>('expected', () => ({ literal: '' })),
+      tolerance: textAttribute('tolerance'),
+    };
+  },
+
+  parseHTML() {
+    return [{ tag: 'div[data-type="reading"]' }];
+  },
+
+  renderHTML({ HTMLAttributes }) {
+    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'reading' })];
+  },
+
+  addCommands() {
+    return {
+      insertReading:
+        (attrs = {}) =>
+        (props) => {
+          const full: ReadingAttrs = {
+            id: newBlockId(),
+            label: '',
+            testPoint: '',
+            meterRange: '',
+            unit: 'V',
+            expected: { literal: '' },
+            tolerance: '±10 %',
+            ...attrs,
+          };
+          return insertBlock(props, { type: this.name, attrs: full });
+        },
+    };
+  },
+});

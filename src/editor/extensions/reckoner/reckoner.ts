@@ -1,0 +1,89 @@
+import { Node, mergeAttributes } from '@tiptap/core';
+import type { InputValue, ReckonerAttrs } from '@shared/document/schema';
+import { getReckoner, type FieldSpec } from '@shared/reckoners';
+import { newBlockId } from '../../block-id';
+import { insertBlock } from '../insert-block';
+import { jsonAttribute, textAttribute } from '../json-attr';
+
+declare module '@tiptap/core' {
+  interface Commands<ReturnType> {
+    reckoner: {
+      /** Insert a reckoner of a registry kind with its default inputs; false for an unknown kind. */
+      insertReckoner: (kind: string) => ReturnType;
+    };
+  }
+}
+
+const PARAM_DEFAULTS: Record<string, InputValue> = {
+  mainsVoltage: { param: 'mainsNominal' },
+  mainsFrequency: { param: 'mainsFrequency' },
+};
+
+/** Starting inputs for a field list: defaults as text, one empty row in row tables, mains from the procedure. */
+export function initialInputs(fields: FieldSpec[]): Record<string, InputValue> {
+  const inputs: Record<string, InputValue> = {};
+  for (const f of fields) {
+    if (f.kind === 'rows') {
+      const row = initialInputs(f.columns ?? []);
+      inputs[f.key] = Array.from({ length: Math.max(1, f.minRows ?? 0) }, () => ({ ...row }));
+    } else if (PARAM_DEFAULTS[f.key] && (f.unit === 'V' || f.unit === 'Hz')) {
+      inputs[f.key] = PARAM_DEFAULTS[f.key]!;
+    } else if (f.default !== undefined && (typeof f.default === 'string' || typeof f.default === 'number')) {
+      inputs[f.key] = typeof f.default === 'string' ? f.default : String(f.default);
+    } else {
+      inputs[f.key] = '';
+    }
+  }
+  return inputs;
+}
+
+/** A short block name not yet used in the document ("fuse", "fuse2", …). */
+export function freshName(kind: string, taken: Set<string>): string {
+  const base = kind.split('-').map((w, i) => (i ? w[0]!.toUpperCase() + w.slice(1) : w)).join('').slice(0, 28);
+  if (!taken.has(base)) return base;
+  for (let i = 2; ; i++) if (!taken.has(`${base}${i}`)) return `${base}${i}`;
+}
+
+/** A live calculation block: kind, name, inputs; outputs are computed, never stored in the node. */
+export const Reckoner = Node.create({
+  name: 'reckoner',
+  group: 'block',
+  atom: true,
+  draggable: true,
+  selectable: true,
+
+  addAttributes() {
+    return {
+      id: textAttribute('id'),
+      name: textAttribute('name'),
+      kind: textAttribute('kind'),
+      inputs: jsonAttribute<ReckonerAttrs['inputs']>('inputs', () => ({})),
+    };
+  },
+
+  parseHTML() {
+    return [{ tag: 'div[data-type="reckoner"]' }];
+  },
+
+  renderHTML({ HTMLAttributes }) {
+    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'reckoner' })];
+  },
+
+  addCommands() {
+    return {
+      insertReckoner:
+        (kind) =>
+        (props) => {
+          const { state } = props;
+          const def = getReckoner(kind);
+          if (!def) return false;
+          const taken = new Set<string>();
+          state.doc.descendants((n) => {
+            if (n.type.name === 'reckoner') taken.add(String(n.attrs.name));
+          });
+          const attrs: ReckonerAttrs = { id: newBlockId(), name: freshName(kind, taken), kind, inputs: initialInputs(def.fields) };
+          return insertBlock(props, { type: this.name, attrs });
+        },
+    };
+  },
+});

@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { RevisionView } from '@shared/schemas/procedures';
+import { api } from '@/lib/api-client';
+
+/** Starts the next draft from the approved revision; 409 names the open revision to continue instead. */
+export const startDraft = (procedureId: string) => api.post<{ revision: RevisionView }>(`/api/procedures/${encodeURIComponent(procedureId)}/drafts`);
+
+export function useStartDraft() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: startDraft,
+    onSuccess: (data) => {
+      queryClient.setQueryData(['revisions', data.revision.id], { revision: data.revision });
+      return queryClient.invalidateQueries({ queryKey: ['procedures'] });
+    },
+  });
+}
