@@ -3,13 +3,14 @@
  * registry) and every reading's expected band. The server stores the result as the revision's
  * snapshot; bench runs call it again with the measured mains; the editor calls it on each change.
  */
-import { evaluateProcedure, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
+import { evaluateProcedure, getReckoner, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
 import { formatQuantity, parseQuantity } from '../units';
 import { extractBlocks } from './extract';
 import type { ProcedureParams } from './params';
 import type { ProcedureDoc, ReadingAttrs } from './schema';
 
-export type BlockSnapshot = BlockResult & { id: string; section: string };
+/** A block's result as stored: with its id, section and the reckoner's label (so readers need no registry). */
+export type BlockSnapshot = BlockResult & { id: string; section: string; label?: string };
 
 export interface ResolvedReading {
   id: string;
@@ -89,7 +90,7 @@ export function evaluateDocument(doc: ProcedureDoc, params: ProcedureParams): Sn
     reckoners.map((r) => ({ name: r.name, kind: r.kind, inputs: r.inputs })),
     params,
   );
-  const blocks = result.blocks.map((b, i) => ({ ...b, id: reckoners[i]!.id, section: reckoners[i]!.section }));
+  const blocks = result.blocks.map((b, i) => ({ ...b, id: reckoners[i]!.id, section: reckoners[i]!.section, label: getReckoner(b.kind)?.label ?? b.kind }));
   const byName = new Map(result.blocks.map((b) => [b.name, b]));
   return { params, blocks, readings: readings.map((r) => resolveReading(r, byName)), errors: result.errors };
 }

@@ -5,15 +5,9 @@ import { paramsSchema } from '../document/params';
 import type { ProcedureDoc } from '../document/schema';
 import type { LintWarning } from '../document/lint';
 
-export const REVISION_STATE_LABELS = {
-  draft: 'Draft',
-  in_review: 'In review',
-  approved: 'Approved',
-  returned: 'Returned',
-  superseded: 'Superseded',
-  withdrawn: 'Withdrawn',
-} as const;
-export type RevisionStateName = keyof typeof REVISION_STATE_LABELS;
+import type { RevisionStateName } from './revision-states';
+
+export { REVISION_STATE_LABELS, type RevisionStateName } from './revision-states';
 
 const tag = z
   .string()

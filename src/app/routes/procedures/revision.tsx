@@ -1,6 +1,6 @@
 import { useEffect } from 'react';
 import { useParams } from 'react-router-dom';
-import { REVISION_STATE_LABELS } from '@shared/schemas/procedures';
+import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
 import { Notice } from '@/components/ui/notice';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { hasRole, useSession } from '@/features/auth/api/get-session';

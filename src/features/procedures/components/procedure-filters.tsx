@@ -1,5 +1,6 @@
 import { useId } from 'react';
-import { REVISION_STATE_LABELS, type ProcedureListItem, type RevisionStateName } from '@shared/schemas/procedures';
+import type { ProcedureListItem } from '@shared/schemas/procedures';
+import { REVISION_STATE_LABELS, type RevisionStateName } from '@shared/schemas/revision-states';
 
 export interface Filters {
   family: string;

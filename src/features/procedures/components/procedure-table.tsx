@@ -1,7 +1,8 @@
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
-import { REVISION_STATE_LABELS, type ProcedureListItem } from '@shared/schemas/procedures';
+import type { ProcedureListItem } from '@shared/schemas/procedures';
+import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
 import { paths } from '@/config/paths';
 import { StateBadge } from './state-badge';
 

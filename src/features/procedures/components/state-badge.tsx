@@ -1,4 +1,4 @@
-import { REVISION_STATE_LABELS, type RevisionStateName } from '@shared/schemas/procedures';
+import { REVISION_STATE_LABELS, type RevisionStateName } from '@shared/schemas/revision-states';
 
 const TONE: Record<RevisionStateName, string> = {
   draft: 'border-rule bg-paper text-graphite',

@@ -1,14 +1,12 @@
 import type { BlockSnapshot } from '@shared/document/evaluate';
-import { getReckoner } from '@shared/reckoners';
 import { CautionList } from '../caution-list';
 
 /** A reckoner as the reader sees it: its computed values with units, from the stored snapshot. */
 export function ReckonerCard({ block, name }: { block: BlockSnapshot | undefined; name: string }) {
-  const def = block ? getReckoner(block.kind) : undefined;
   return (
     <section className="not-prose my-4 rounded-lg border border-rule bg-card p-4" data-reckoner={name}>
       <h3 className="text-sm font-semibold uppercase tracking-wide text-accent-deep">
-        {def?.label ?? 'Calculation'} <span className="value normal-case text-graphite-soft">· {name}</span>
+        {block?.label ?? 'Calculation'} <span className="value normal-case text-graphite-soft">· {name}</span>
       </h3>
       {!block ? (
         <p className="mt-2 text-sm text-out">This calculation is missing from the stored results.</p>
