@@ -2,27 +2,48 @@ import type { Request } from 'express';
 import type { Db } from '../db/client';
 import { auditLog } from '../db/schema';
 
-export type AuditAction =
-  | 'sign-in'
-  | 'sign-in.failed'
-  | 'sign-out'
-  | 'person.invited'
-  | 'person.password-set'
-  | 'person.roles-changed'
-  | 'person.deactivated'
-  | 'person.reactivated';
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-/** Appends one row to the audit log. Free text is cut short and stripped of control characters. */
+/** Every action the audit log records; the admin page filters by these. */
+export const AUDIT_ACTIONS = [
+  'sign-in',
+  'sign-in.failed',
+  'sign-out',
+  'person.invited',
+  'person.password-set',
+  'person.roles-changed',
+  'person.deactivated',
+  'person.reactivated',
+  'revision.submitted',
+  'revision.approved',
+  'revision.returned',
+  'revision.superseded',
+  'revision.withdrawn',
+  'sign-off.reauthenticated',
+  'sign-off.failed',
+  'review.commented',
+] as const;
+
+export type AuditAction = (typeof AUDIT_ACTIONS)[number];
+
+/**
+ * Appends one row to the audit log. Free text is cut short and stripped of control characters.
+ * Pass the transaction of the change it records, so the entry exists exactly when the change does.
+ */
 export async function recordAudit(
-  db: Db,
+  db: Db | Tx,
   entry: { action: AuditAction; actorId?: string | null; subject?: string; details?: Record<string, unknown>; req?: Request },
 ) {
   const clean = (s: string | undefined) => s?.replace(/[\u0000-\u001f\u007f]/g, ' ').slice(0, 200);
-  await db.insert(auditLog).values({
-    action: entry.action,
-    actorId: entry.actorId ?? null,
-    subject: clean(entry.subject) ?? null,
-    details: entry.details ?? {},
-    ip: entry.req?.ip ?? null,
-  });
+  const [row] = await db
+    .insert(auditLog)
+    .values({
+      action: entry.action,
+      actorId: entry.actorId ?? null,
+      subject: clean(entry.subject) ?? null,
+      details: entry.details ?? {},
+      ip: entry.req?.ip ?? null,
+    })
+    .returning({ id: auditLog.id });
+  return row!.id;
 }

@@ -6,6 +6,7 @@ import { paramsSchema } from '../../shared/document/params';
 import { procedureMetaSchema } from '../../shared/schemas/procedures';
 import { checkDocument } from '../modules/procedures/document-check';
 import { createProcedure } from '../modules/procedures/procedures.service';
+import { signRevision } from '../modules/review/signatures';
 import type { Db } from './client';
 import { people, procedures } from './schema';
 
@@ -31,7 +32,7 @@ export function readDemoProcedures(dir: string): SeedProcedure[] {
     });
 }
 
-/** Demo procedures, each as an approved revision 1; an existing seed key is left untouched. */
+/** Demo procedures, each as an approved revision 1 signed by its reviewer; an existing seed key is left untouched. */
 export async function seedDemoProcedures(db: Db, dir: string) {
   const demo = readDemoProcedures(dir);
   if (!demo.length) return { added: 0, present: 0 };
@@ -45,8 +46,19 @@ export async function seedDemoProcedures(db: Db, dir: string) {
     if (!checked.ok) throw new Error(`demo procedure ${p.seedKey} is invalid: ${checked.problems.map((x) => `${x.field}: ${x.reason}`).join('; ')}`);
     const [author] = await db.select().from(people).where(eq(people.email, p.author));
     if (!author) throw new Error(`demo procedure ${p.seedKey}: no person ${p.author}`);
+    const [reviewer] = await db.select().from(people).where(eq(people.email, p.reviewer));
+    if (!reviewer?.roles.includes('reviewer')) throw new Error(`demo procedure ${p.seedKey}: ${p.reviewer} is not a reviewer`);
+    if (reviewer.id === author.id) throw new Error(`demo procedure ${p.seedKey}: the reviewer must not be the author`);
     await db.transaction(async (tx) => {
-      await createProcedure(tx, author.id, { ...p, document: checked.doc }, 'approved');
+      const { revision } = await createProcedure(tx, author.id, { ...p, document: checked.doc }, 'approved');
+      // Demo approvals carry a real reviewer signature over the stored content, so they verify.
+      await signRevision(tx, {
+        row: revision,
+        signer: reviewer,
+        role: 'reviewer',
+        meaning: 'approved',
+        comment: 'Approved for the shop’s starting library (demo content).',
+      });
     });
     added++;
   }

@@ -20,6 +20,8 @@ let csrfToken = '';
 export const setCsrfToken = (token: string) => {
   csrfToken = token;
 };
+/** For requests that cannot go through `api` (multipart uploads). */
+export const getCsrfToken = () => csrfToken;
 
 type Json = Record<string, unknown> | unknown[];
 

@@ -1,7 +1,10 @@
 import { bigserial, index, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { people } from './people';
 
-/** Append-only record of security-relevant events (sign-in failures, role changes, deactivations…). */
+/**
+ * Append-only record of security-relevant events (state changes, sign-offs, sign-in failures, role
+ * changes, deactivations…). A database trigger refuses UPDATE, DELETE and TRUNCATE.
+ */
 export const auditLog = pgTable(
   'audit_log',
   {
@@ -13,5 +16,5 @@ export const auditLog = pgTable(
     details: jsonb().$type<Record<string, unknown>>().notNull().default({}),
     ip: text(),
   },
-  (t) => [index('audit_log_at_idx').on(t.at), index('audit_log_action_idx').on(t.action)],
+  (t) => [index('audit_log_at_idx').on(t.at), index('audit_log_action_idx').on(t.action), index('audit_log_actor_idx').on(t.actorId, t.at)],
 );

@@ -3,3 +3,5 @@ export * from './sessions';
 export * from './audit';
 export * from './procedures';
 export * from './mail';
+export * from './runs';
+export * from './review';

@@ -5,6 +5,7 @@ import { inviteBody, updatePersonBody, type PersonView } from '../../../shared/s
 import { recordAudit } from '../../audit/record';
 import { invitations, people, session } from '../../db/schema';
 import { conflict, badRequest, notFound } from '../../http/errors';
+import { composeMail, enqueueMail } from '../../mail/outbox';
 import { defineRoute } from '../../http/route';
 import { tokenHash } from '../auth/auth.routes';
 
@@ -18,6 +19,21 @@ const view = (p: typeof people.$inferSelect): PersonView => ({
   active: p.active,
   hasPassword: p.passwordHash !== null,
   createdAt: p.createdAt.toISOString(),
+});
+
+/** The invitee's mail: the one-time set-password link, as text and HTML. */
+const invitationMail = (person: { email: string; displayName: string; roles: string[] }, invitedBy: string, url: string) => ({
+  to: [person.email],
+  subject: 'Your Benchwright account',
+  reason: 'invitation',
+  ...composeMail({
+    greeting: `Hello ${person.displayName},`,
+    lines: [
+      `${invitedBy} has invited you to Benchwright as ${person.roles.join(', ')}.`,
+      `Choose your password with the link below. It works once and expires in ${INVITE_DAYS} days.`,
+    ],
+    link: { url, label: 'Set your password' },
+  }),
 });
 
 const idParams = z.object({ id: z.uuid('not a valid person id') });
@@ -42,6 +58,7 @@ export const peopleRoutes = [
     body: inviteBody,
     handler: async ({ req, res, body, user, deps }) => {
       const token = randomBytes(32).toString('base64url');
+      const inviteUrl = `${deps.config.publicUrl}/set-password/${token}`;
       const created = await deps.db.transaction(async (tx) => {
         const [person] = await tx
           .insert(people)
@@ -55,11 +72,13 @@ export const peopleRoutes = [
           createdBy: user!.id,
           expiresAt: new Date(Date.now() + INVITE_DAYS * 86_400_000),
         });
+        await enqueueMail(tx, invitationMail(person, user!.displayName, inviteUrl));
         return person;
       });
+      void deps.mailer?.flush();
       await recordAudit(deps.db, { action: 'person.invited', actorId: user!.id, subject: created.email, details: { roles: created.roles }, req });
       res.status(201);
-      return { person: view(created), inviteUrl: `${deps.config.publicUrl}/set-password/${token}`, expiresInDays: INVITE_DAYS };
+      return { person: view(created), inviteUrl, expiresInDays: INVITE_DAYS };
     },
   }),
 

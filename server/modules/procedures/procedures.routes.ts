@@ -10,6 +10,7 @@ import {
   derive,
   getRevisionRow,
   latestApproved,
+  latestInState,
   listProcedures,
   nextRevisionNumber,
   revisionView,
@@ -97,8 +98,9 @@ export const procedureRoutes = [
           .from(revisions)
           .where(and(eq(revisions.procedureId, params.id), sql`${revisions.state} in ('draft', 'in_review')`));
         if (open[0]) throw conflict(`Revision ${open[0].number} is already ${open[0].state === 'draft' ? 'a draft' : 'in review'}; continue that one.`, { revisionId: open[0].id });
-        const base = await latestApproved(tx, params.id);
-        if (!base) throw notFound('This procedure has no approved revision to start from.');
+        // From the approved revision; when none was ever approved, from the latest returned one.
+        const base = (await latestApproved(tx, params.id)) ?? (await latestInState(tx, params.id, 'returned'));
+        if (!base) throw notFound('This procedure has no approved or returned revision to start from.');
         const [created] = await tx
           .insert(revisions)
           .values({

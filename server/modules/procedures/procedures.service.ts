@@ -133,6 +133,16 @@ export async function latestApproved(db: Db | Tx, procedureId: string) {
   return row;
 }
 
+export async function latestInState(db: Db | Tx, procedureId: string, state: RevisionState) {
+  const [row] = await db
+    .select()
+    .from(revisions)
+    .where(and(eq(revisions.procedureId, procedureId), eq(revisions.state, state)))
+    .orderBy(desc(revisions.number))
+    .limit(1);
+  return row;
+}
+
 export async function nextRevisionNumber(db: Db | Tx, procedureId: string) {
   const [row] = await db
     .select({ n: sql<number>`coalesce(max(${revisions.number}), 0) + 1` })

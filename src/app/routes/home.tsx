@@ -5,21 +5,29 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 
 /** What each role comes here to do; a person with several roles sees each of their panels. */
-const PANELS: { role: Role; title: string; body: string; link?: { to: string; label: string } }[] = [
+const PANELS: { role: Role; title: string; body: string; link?: { to: string; label: string }; more?: { to: string; label: string }[] }[] = [
   {
     role: 'technician',
     title: 'Bench work',
     body: 'Run approved procedures on the units in for service, record every reading against its expected value, and sign the run sheet.',
+    link: { to: paths.procedures.href(), label: 'Approved procedures' },
+    more: [
+      { to: paths.newRun.href(), label: 'Start a bench run' },
+      { to: paths.runs.href(), label: 'Bench runs' },
+      { to: paths.units.href(), label: 'Units on the bench' },
+    ],
   },
   {
     role: 'author',
     title: 'Writing procedures',
     body: 'Draft and revise procedures with live calculations, readings, check steps and hazard notes, then submit them for review.',
+    link: { to: paths.procedures.href(), label: 'Procedures and drafts' },
   },
   {
     role: 'reviewer',
     title: 'Review and sign-off',
     body: 'Check what changed in each submitted revision and approve or return it with your signed decision. You never review your own work.',
+    link: { to: paths.reviewQueue.href(), label: 'Open the review queue' },
   },
   {
     role: 'admin',
@@ -50,6 +58,11 @@ export default function Home() {
                 {p.link.label}
               </Link>
             )}
+            {p.more?.map((l) => (
+              <Link key={l.to} to={l.to} className="ml-4 mt-4 inline-block font-semibold text-accent underline">
+                {l.label}
+              </Link>
+            ))}
           </article>
         ))}
       </div>

@@ -5,12 +5,19 @@ import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { Notice } from '@/components/ui/notice';
+import { SearchBox } from '@/features/search/components/search-box';
 import type { Role } from '@shared/schemas/roles';
 
 /** Navigation, once: each entry names the roles that see it. */
 const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
   { to: paths.home.href(), label: 'Start', roles: 'all' },
+  { to: paths.procedures.href(), label: 'Procedures', roles: ['technician', 'author', 'reviewer'] },
+  { to: paths.reviewQueue.href(), label: 'Review queue', roles: ['reviewer'] },
+  { to: paths.runs.href(), label: 'Bench runs', roles: 'all' },
+  { to: paths.units.href(), label: 'Units', roles: ['technician', 'author', 'reviewer', 'admin'] },
   { to: paths.people.href(), label: 'People', roles: ['admin'] },
+  { to: paths.audit.href(), label: 'Audit log', roles: ['admin'] },
+  { to: paths.outbox.href(), label: 'Mail outbox', roles: ['admin'] },
 ];
 
 /** The signed-in shell: header with the role's navigation, the page, the standing safety caution. */
@@ -55,6 +62,7 @@ export function AppLayout() {
               </NavLink>
             ))}
           </nav>
+          <SearchBox />
           <div className="ml-auto flex items-center gap-3 text-sm">
             <span>
               {user.displayName}{' '}

@@ -7,6 +7,7 @@ import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevision } from '@/features/procedures/api/get-revision';
 import { DocumentView } from '@/features/procedures/components/reader/document-view';
 import { RevisionActions } from '@/features/procedures/components/revision-actions';
+import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
 import { StateBadge } from '@/features/procedures/components/state-badge';
 
 /** Reading one revision: header, the standing caution, the document with its stored results. */
@@ -44,6 +45,7 @@ export default function RevisionPage() {
         </p>
         {r.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {r.tags.join(', ')}</p>}
         <RevisionActions revision={r} isAuthor={hasRole(session.data?.user, 'author')} />
+        <RevisionReviewPanel revision={r} />
       </header>
       {r.state !== 'approved' && (
         <Notice tone="info">This revision is {REVISION_STATE_LABELS[r.state].toLowerCase()}, not the approved procedure: do not use it at the bench.</Notice>

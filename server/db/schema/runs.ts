@@ -1,0 +1,199 @@
+import { sql } from 'drizzle-orm';
+import { bigserial, boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import type { ProcedureParams } from '../../../shared/document/params';
+import type { Snapshot } from '../../../shared/document/evaluate';
+import type { RunStep } from '../../../shared/schemas/runs';
+import { people } from './people';
+import { attachments, procedures, revisions } from './procedures';
+
+/** One physical item on the bench: a customer's amplifier, a radio in for service. */
+export const units = pgTable(
+  'units',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    model: text().notNull(),
+    serial: text().notNull(),
+    owner: text().notNull().default(''),
+    jobNumber: text().notNull().default(''),
+    notes: text().notNull().default(''),
+    createdBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    lockVersion: integer().notNull().default(1),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('units_model_idx').on(t.model), uniqueIndex('units_model_serial_uq').on(sql`lower(${t.model})`, sql`lower(${t.serial})`)],
+);
+
+export const unitPhotos = pgTable(
+  'unit_photos',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    unitId: uuid()
+      .notNull()
+      .references(() => units.id),
+    attachmentId: uuid()
+      .notNull()
+      .references(() => attachments.id),
+    caption: text().notNull().default(''),
+    addedBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    addedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('unit_photos_unit_idx').on(t.unitId)],
+);
+
+export const RUN_STATUSES = ['in_progress', 'signed'] as const;
+export type RunStatus = (typeof RUN_STATUSES)[number];
+
+/**
+ * One technician following one approved revision on one unit. The run keeps the revision it was
+ * started on and its own evaluated snapshot (at the bench's measured mains), whatever is approved later.
+ */
+export const runs = pgTable(
+  'runs',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    unitId: uuid()
+      .notNull()
+      .references(() => units.id),
+    procedureId: uuid()
+      .notNull()
+      .references(() => procedures.id),
+    revisionId: uuid()
+      .notNull()
+      .references(() => revisions.id),
+    revisionNumber: integer().notNull(),
+    /** SHA-256 of the canonical revision content at the start of the run. */
+    revisionHash: text().notNull(),
+    title: text().notNull(),
+    params: jsonb().$type<ProcedureParams>().notNull(),
+    snapshot: jsonb().$type<Snapshot>().notNull(),
+    steps: jsonb().$type<RunStep[]>().notNull(),
+    status: text().$type<RunStatus>().notNull().default('in_progress'),
+    outOfTolerance: boolean().notNull().default(false),
+    /** Client-generated key so a repeated start creates one run. */
+    startKey: uuid().unique(),
+    startedBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    startedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    signedAt: timestamp({ withTimezone: true }),
+    contentHash: text(),
+    /** The unit as it was when the run sheet was signed (the register itself stays editable). */
+    unitRecord: jsonb().$type<{ id: string; model: string; serial: string; owner: string; jobNumber: string }>(),
+  },
+  (t) => [index('runs_unit_idx').on(t.unitId), index('runs_revision_idx').on(t.revisionId), index('runs_status_idx').on(t.status)],
+);
+
+/** The current entry for each step of a run; every version is also kept in run_entry_history. */
+export const runEntries = pgTable(
+  'run_entries',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id),
+    stepId: text().notNull(),
+    kind: text().$type<'reading' | 'check' | 'hazard'>().notNull(),
+    /** The measurement exactly as typed ("352 V"), and its value in the base unit. */
+    raw: text(),
+    measured: doublePrecision(),
+    unit: text(),
+    expected: doublePrecision(),
+    low: doublePrecision(),
+    high: doublePrecision(),
+    /** Decided by the server with checkReading; null when the reading has no band. */
+    within: boolean(),
+    deviation: doublePrecision(),
+    deviationPercent: doublePrecision(),
+    /** Check step ticked, or hazard note acknowledged. */
+    done: boolean().notNull().default(false),
+    note: text().notNull().default(''),
+    version: integer().notNull().default(1),
+    lastKey: uuid().notNull(),
+    enteredBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    firstEnteredAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    enteredAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('run_entries_run_step_uq').on(t.runId, t.stepId)],
+);
+
+/** Append-only: every version of every entry, with who, when (database time) and why. */
+export const runEntryHistory = pgTable(
+  'run_entry_history',
+  {
+    id: bigserial({ mode: 'number' }).primaryKey(),
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id),
+    entryId: uuid()
+      .notNull()
+      .references(() => runEntries.id),
+    stepId: text().notNull(),
+    version: integer().notNull(),
+    /** The client's idempotency key: the same key twice is one entry. */
+    idempotencyKey: uuid().notNull().unique(),
+    raw: text(),
+    measured: doublePrecision(),
+    within: boolean(),
+    done: boolean().notNull(),
+    note: text().notNull(),
+    reason: text(),
+    enteredBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    enteredByName: text().notNull(),
+    enteredAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('run_entry_history_entry_idx').on(t.entryId)],
+);
+
+export const runPhotos = pgTable(
+  'run_photos',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id),
+    stepId: text(),
+    attachmentId: uuid()
+      .notNull()
+      .references(() => attachments.id),
+    addedBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    addedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('run_photos_run_idx').on(t.runId)],
+);
+
+/** The technician's signature on a run sheet (append-only; refused UPDATE/DELETE by trigger). */
+export const runSignatures = pgTable(
+  'run_signatures',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id),
+    signerId: uuid()
+      .notNull()
+      .references(() => people.id),
+    signerName: text().notNull(),
+    signerRole: text().notNull(),
+    meaning: text().$type<'performed'>().notNull(),
+    reason: text(),
+    contentHash: text().notNull(),
+    revisionId: uuid()
+      .notNull()
+      .references(() => revisions.id),
+    revisionHash: text().notNull(),
+    requestId: text(),
+    signedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('run_signatures_run_meaning_uq').on(t.runId, t.meaning)],
+);

@@ -1,0 +1,199 @@
+/**
+ * The review state machine: draft → in review → approved | returned; approved → superseded (by the
+ * next approval) | withdrawn. Each transition is one transaction that locks the procedure, then the
+ * revision, re-checks the state and updates with a conditional WHERE, so two people acting at once
+ * can never both succeed. The database trigger enforces the same machine underneath.
+ */
+import { and, eq, ne, sql } from 'drizzle-orm';
+import type { Request } from 'express';
+import type { Snapshot } from '../../../shared/document/evaluate';
+import { recordAudit } from '../../audit/record';
+import { procedures, revisions, type RevisionState } from '../../db/schema';
+import type { AppDeps } from '../../deps';
+import { conflict, HttpError, notFound } from '../../http/errors';
+import type { SessionUser } from '../../http/route';
+import { wroteOrEdited } from './four-eyes';
+import { confirmSignerPassword } from './reauth';
+import { queueDecision, queueReviewRequested } from './review-mail';
+import { signRevision } from './signatures';
+
+type Tx = Parameters<Parameters<AppDeps['db']['transaction']>[0]>[0];
+type RevisionRow = typeof revisions.$inferSelect;
+
+const STATE_WORDS: Record<RevisionState, string> = {
+  draft: 'a draft',
+  in_review: 'in review',
+  approved: 'approved',
+  returned: 'returned',
+  superseded: 'superseded',
+  withdrawn: 'withdrawn',
+};
+
+export const illegal = (row: Pick<RevisionRow, 'number' | 'state'>, wanted: string) =>
+  conflict(`Revision ${row.number} is ${STATE_WORDS[row.state]}; ${wanted}.`, { state: row.state });
+
+/** What stops a revision going to review: reckoner errors, unresolved readings, procedure errors. */
+export function submitBlockers(snapshot: Snapshot) {
+  const problems: { blockId: string | null; message: string }[] = [];
+  for (const b of snapshot.blocks) {
+    if (!b.ok) for (const e of b.errors) problems.push({ blockId: b.id, message: `Reckoner “${b.name}”: ${e.field} ${e.reason}` });
+  }
+  for (const r of snapshot.readings) {
+    if (r.error) problems.push({ blockId: r.id, message: `Reading “${r.label || 'untitled'}” is unresolved: ${r.error}` });
+  }
+  for (const e of snapshot.errors) problems.push({ blockId: null, message: e.message });
+  return problems;
+}
+
+/** Locks the procedure then the revision, in that order everywhere (no deadlocks between transitions). */
+async function lockRevision(tx: Tx, revisionId: string) {
+  const [peek] = await tx.select({ procedureId: revisions.procedureId }).from(revisions).where(eq(revisions.id, revisionId));
+  if (!peek) throw notFound('No such revision.');
+  await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${peek.procedureId} for update`);
+  const [row] = await tx.select().from(revisions).where(eq(revisions.id, revisionId)).for('update');
+  return row!;
+}
+
+export async function submitRevision(deps: AppDeps, user: SessionUser, revisionId: string, lockVersion: number | undefined, req: Request) {
+  const row = await deps.db.transaction(async (tx) => {
+    const current = await lockRevision(tx, revisionId);
+    if (!wroteOrEdited(user.id, current)) throw new HttpError(403, `Only the author or an editor of revision ${current.number} can submit it.`);
+    if (current.state !== 'draft') throw illegal(current, 'only a draft can be submitted for review');
+    if (lockVersion !== undefined && lockVersion !== current.lockVersion) {
+      throw conflict('This draft was saved again after you opened it; reload and check it before submitting.', { state: current.state, lockVersion: current.lockVersion });
+    }
+    const problems = submitBlockers(current.snapshot);
+    if (problems.length) {
+      throw conflict(`Revision ${current.number} cannot go to review yet: ${problems.slice(0, 3).map((p) => p.message).join('; ')}`, { state: current.state, problems });
+    }
+    if (!current.plainText.trim() && !current.snapshot.blocks.length) throw conflict(`Revision ${current.number} is empty; write the procedure before submitting it.`, { state: current.state, problems: [] });
+    const [updated] = await tx
+      .update(revisions)
+      .set({ state: 'in_review', submittedAt: sql`now()`, updatedAt: sql`now()` })
+      .where(and(eq(revisions.id, revisionId), eq(revisions.state, 'draft')))
+      .returning();
+    if (!updated) throw illegal(current, 'only a draft can be submitted for review');
+    await recordAudit(tx, { action: 'revision.submitted', actorId: user.id, subject: `${updated.title} r${updated.number}`, details: { revisionId, from: 'draft', to: 'in_review' }, req });
+    await queueReviewRequested(tx, deps.config.publicUrl, updated, user.displayName);
+    return updated;
+  });
+  void deps.mailer?.flush();
+  return row;
+}
+
+/** Approve or return a revision in review: reviewer only, never one's own, password re-entered. */
+export async function decideRevision(
+  deps: AppDeps,
+  user: SessionUser,
+  revisionId: string,
+  decision: 'approved' | 'returned',
+  input: { password: string; comment: string },
+  req: Request,
+) {
+  const [before] = await deps.db.select().from(revisions).where(eq(revisions.id, revisionId));
+  if (!before) throw notFound('No such revision.');
+  if (wroteOrEdited(user.id, before)) throw new HttpError(403, `You wrote or edited revision ${before.number}; another reviewer must decide on it.`);
+  await confirmSignerPassword(deps.db, user, input.password, req, `${before.title} r${before.number}`);
+
+  const result = await deps.db.transaction(async (tx) => {
+    const current = await lockRevision(tx, revisionId);
+    // Re-checked under the lock: someone may have saved as an editor in between.
+    if (wroteOrEdited(user.id, current)) throw new HttpError(403, `You wrote or edited revision ${current.number}; another reviewer must decide on it.`);
+    const verb = decision === 'approved' ? 'approved' : 'returned';
+    if (current.state !== 'in_review') throw illegal(current, `only a revision in review can be ${verb}`);
+    let superseded: RevisionRow | undefined;
+    if (decision === 'approved') {
+      // The one-approved-per-procedure index needs the old approval moved aside first.
+      [superseded] = await tx
+        .update(revisions)
+        .set({ state: 'superseded', updatedAt: sql`now()` })
+        .where(and(eq(revisions.procedureId, current.procedureId), eq(revisions.state, 'approved'), ne(revisions.id, current.id)))
+        .returning();
+    }
+    const [updated] = await tx
+      .update(revisions)
+      .set({ state: decision, decidedAt: sql`now()`, updatedAt: sql`now()` })
+      .where(and(eq(revisions.id, revisionId), eq(revisions.state, 'in_review')))
+      .returning();
+    if (!updated) throw illegal(current, `only a revision in review can be ${verb}`);
+    const subject = `${updated.title} r${updated.number}`;
+    const reauthAuditId = await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: user.id, subject, details: { revisionId, meaning: decision }, req });
+    const signature = await signRevision(tx, {
+      row: updated,
+      signer: user,
+      role: 'reviewer',
+      meaning: decision,
+      comment: input.comment,
+      reauthAuditId,
+      requestId: req.id === undefined ? undefined : String(req.id),
+    });
+    await recordAudit(tx, {
+      action: decision === 'approved' ? 'revision.approved' : 'revision.returned',
+      actorId: user.id,
+      subject,
+      details: { revisionId, from: 'in_review', to: decision, signatureId: signature.id, contentHash: signature.contentHash, comment: input.comment.slice(0, 500) },
+      req,
+    });
+    if (superseded) {
+      await recordAudit(tx, {
+        action: 'revision.superseded',
+        actorId: user.id,
+        subject: `${superseded.title} r${superseded.number}`,
+        details: { revisionId: superseded.id, from: 'approved', to: 'superseded', by: updated.id },
+        req,
+      });
+    }
+    await queueDecision(tx, deps.config.publicUrl, updated, decision, user.displayName, input.comment);
+    return { revision: updated, signature, superseded };
+  });
+  void deps.mailer?.flush();
+  return result;
+}
+
+/** Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. */
+export async function withdrawProcedure(deps: AppDeps, user: SessionUser, procedureId: string, input: { password: string; reason: string }, req: Request) {
+  const [proc] = await deps.db.select().from(procedures).where(eq(procedures.id, procedureId));
+  if (!proc) throw notFound('No such procedure.');
+  await confirmSignerPassword(deps.db, user, input.password, req, `${proc.title} (withdraw)`);
+  return deps.db.transaction(async (tx) => {
+    await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
+    const [approved] = await tx
+      .select()
+      .from(revisions)
+      .where(and(eq(revisions.procedureId, procedureId), eq(revisions.state, 'approved')))
+      .for('update');
+    if (!approved) {
+      const [latest] = await tx.select().from(revisions).where(eq(revisions.procedureId, procedureId)).orderBy(sql`${revisions.number} desc`).limit(1);
+      throw conflict(
+        latest ? `This procedure has no approved revision to withdraw; its latest, revision ${latest.number}, is ${STATE_WORDS[latest.state]}.` : 'This procedure has no revisions.',
+        { state: latest?.state ?? null },
+      );
+    }
+    const [updated] = await tx
+      .update(revisions)
+      .set({ state: 'withdrawn', updatedAt: sql`now()` })
+      .where(and(eq(revisions.id, approved.id), eq(revisions.state, 'approved')))
+      .returning();
+    if (!updated) throw illegal(approved, 'only an approved revision can be withdrawn');
+    const subject = `${updated.title} r${updated.number}`;
+    const reauthAuditId = await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: user.id, subject, details: { revisionId: updated.id, meaning: 'withdrawn' }, req });
+    const role = user.roles.includes('reviewer') ? 'reviewer' : 'admin';
+    const signature = await signRevision(tx, {
+      row: updated,
+      signer: user,
+      role,
+      meaning: 'withdrawn',
+      comment: input.reason,
+      reauthAuditId,
+      requestId: req.id === undefined ? undefined : String(req.id),
+    });
+    await recordAudit(tx, {
+      action: 'revision.withdrawn',
+      actorId: user.id,
+      subject,
+      details: { revisionId: updated.id, from: 'approved', to: 'withdrawn', signatureId: signature.id, reason: input.reason.slice(0, 500) },
+      req,
+    });
+    return { revision: updated, signature };
+  });
+}

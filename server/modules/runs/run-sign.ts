@@ -1,0 +1,128 @@
+import { and, eq, inArray, sql } from 'drizzle-orm';
+import type { Request } from 'express';
+import { formatQuantity } from '../../../shared/units/format';
+import type { AppDeps } from '../../deps';
+import { auditLog, people, procedures, revisions, runEntries, runs, runSignatures, signatures, units } from '../../db/schema';
+import { conflict, notFound } from '../../http/errors';
+import type { SessionUser } from '../../http/route';
+import { composeMail, enqueueMail } from '../../mail/outbox';
+import { confirmSignerPassword } from '../review/reauth';
+import { revisionContentHash } from '../review/signed-content';
+import { runContentHash } from './run-hash';
+import { isFinished } from './run-steps';
+import { runContent, unitRecordOf } from './run-view';
+import type { RunRow, Tx } from './runs.service';
+
+export const runSheetPath = (runId: string) => `/runs/${runId}`;
+
+/**
+ * The technician signs the run sheet: password again, meaning "performed", database time, and the
+ * SHA-256 of the canonical run content. From then on triggers refuse any change to it.
+ */
+export async function signRun(deps: AppDeps, user: SessionUser, runId: string, body: { password: string; meaning: 'performed'; reason?: string }, req: Request) {
+  const { db } = deps;
+  const [exists] = await db.select({ id: runs.id, status: runs.status }).from(runs).where(eq(runs.id, runId));
+  if (!exists) throw notFound('No such bench run.');
+  if (exists.status === 'signed') throw conflict('This run sheet is already signed.');
+  await confirmSignerPassword(db, user, body.password, req, `run ${runId}`);
+
+  const result = await db.transaction(async (tx) => {
+    const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+    if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
+    const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+    const byStep = new Map(entries.map((e) => [e.stepId, e]));
+    const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
+    if (unfinished.length) {
+      const list = unfinished.slice(0, 5).map((s) => `${s.position}. ${s.text.slice(0, 60)}`).join('; ');
+      throw conflict(`${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`, {
+        unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
+      });
+    }
+    const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
+    if ((await revisionContentHash(tx, revision!)) !== run.revisionHash) {
+      throw conflict('The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.');
+    }
+    const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
+    const unitRecord = unitRecordOf(unit!);
+    const contentHash = runContentHash(await runContent(tx, run, unitRecord));
+    const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
+    const outOfTolerance = entries.some((e) => e.within === false);
+    // The signature first: the trigger refuses rows for a run that is already signed.
+    const [signature] = await tx
+      .insert(runSignatures)
+      .values({
+        runId,
+        signerId: user.id,
+        signerName: person?.name ?? user.displayName,
+        signerRole: 'technician',
+        meaning: body.meaning,
+        reason: body.reason ?? null,
+        contentHash,
+        revisionId: run.revisionId,
+        revisionHash: run.revisionHash,
+        requestId: String(req.id ?? ''),
+      })
+      .returning();
+    await tx
+      .update(runs)
+      .set({ status: 'signed', signedAt: sql`now()`, contentHash, unitRecord, outOfTolerance })
+      .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
+    await tx.insert(auditLog).values({
+      action: 'run.signed',
+      actorId: user.id,
+      subject: `run ${runId}`,
+      details: { contentHash, revisionId: run.revisionId, meaning: body.meaning, outOfTolerance },
+      ip: req.ip ?? null,
+    });
+    if (outOfTolerance) await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, person?.name ?? user.displayName);
+    return { signature: signature!, outOfTolerance };
+  });
+  await deps.mailer?.flush();
+  return result;
+}
+
+/** Who hears about an out-of-tolerance run: the procedure's author and the revision's approvers. */
+async function recipients(tx: Tx, run: RunRow) {
+  const [revision] = await tx.select({ authorId: revisions.authorId }).from(revisions).where(eq(revisions.id, run.revisionId));
+  const [procedure] = await tx.select({ ownerId: procedures.ownerId }).from(procedures).where(eq(procedures.id, run.procedureId));
+  const approvers = await tx.select({ id: signatures.signerId }).from(signatures).where(and(eq(signatures.revisionId, run.revisionId), eq(signatures.meaning, 'approved')));
+  const ids = [revision!.authorId, procedure!.ownerId, ...approvers.map((a) => a.id)];
+  const byId = await tx.select({ email: people.email }).from(people).where(and(inArray(people.id, ids), eq(people.active, true)));
+  // No recorded approval (demo content): the shop's reviewers hear instead.
+  const reviewers = approvers.length
+    ? []
+    : await tx.select({ email: people.email }).from(people).where(and(eq(people.active, true), sql`'reviewer' = any(${people.roles})`));
+  return [...byId, ...reviewers].map((p) => p.email);
+}
+
+async function queueOutOfToleranceMail(
+  tx: Tx,
+  deps: AppDeps,
+  run: RunRow,
+  unit: { model: string; serial: string; jobNumber: string },
+  entries: (typeof runEntries.$inferSelect)[],
+  signer: string,
+) {
+  const out = entries.filter((e) => e.within === false);
+  const lines = out.map((e) => {
+    const step = run.steps.find((s) => s.id === e.stepId);
+    const band = e.low !== null && e.high !== null ? `${formatQuantity(e.low, e.unit ?? '')} … ${formatQuantity(e.high, e.unit ?? '')}` : 'no band';
+    return `• ${step?.text ?? e.stepId}: measured ${e.raw} (${formatQuantity(e.measured ?? 0, e.unit ?? '')}), expected ${band}.`;
+  });
+  const { text, html } = composeMail({
+    greeting: 'Hello,',
+    lines: [
+      `${signer} signed a bench run of “${run.title}” (revision ${run.revisionNumber}) on ${unit.model} serial ${unit.serial}${unit.jobNumber ? `, job ${unit.jobNumber}` : ''} with ${out.length} reading${out.length === 1 ? '' : 's'} out of tolerance:`,
+      ...lines,
+      'Check whether the unit or the procedure needs attention.',
+    ],
+    link: { url: new URL(runSheetPath(run.id), deps.config.publicUrl).toString(), label: 'Open the run sheet' },
+  });
+  await enqueueMail(tx, {
+    to: await recipients(tx, run),
+    subject: `Out of tolerance: ${run.title} on ${unit.model} ${unit.serial}`.slice(0, 200),
+    text,
+    html,
+    reason: 'run-out-of-tolerance',
+  });
+}

@@ -1,0 +1,188 @@
+import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import type { EntryView, RevisionRecord, RunListItem, RunView } from '../../../shared/schemas/runs';
+import type { Db } from '../../db/client';
+import { attachments, people, revisions, runEntries, runEntryHistory, runPhotos, runs, runSignatures, signatures, units } from '../../db/schema';
+import { notFound } from '../../http/errors';
+import { runContentHash, type RunContent } from './run-hash';
+import { lockedSteps, progressOf } from './run-steps';
+import type { RunRow, Tx } from './runs.service';
+
+const iso = (d: Date | null) => (d ? d.toISOString() : null);
+
+async function names(db: Db | Tx, ids: string[]) {
+  const unique = [...new Set(ids)];
+  const rows = unique.length ? await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, unique)) : [];
+  const map = new Map(rows.map((r) => [r.id, r]));
+  return (id: string) => map.get(id) ?? { id, displayName: 'unknown' };
+}
+
+/** The canonical content a technician's signature covers, from what is stored now. */
+export async function runContent(db: Db | Tx, run: RunRow, unit: RunContent['unit']): Promise<RunContent> {
+  const entries = await db.select().from(runEntries).where(eq(runEntries.runId, run.id));
+  const photos = await db
+    .select({ id: runPhotos.id, stepId: runPhotos.stepId, sha256: attachments.sha256 })
+    .from(runPhotos)
+    .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
+    .where(eq(runPhotos.runId, run.id));
+  return {
+    runId: run.id,
+    revision: { id: run.revisionId, number: run.revisionNumber, hash: run.revisionHash },
+    unit,
+    params: run.params,
+    steps: run.steps,
+    entries: entries.map((e) => ({
+      stepId: e.stepId,
+      raw: e.raw,
+      measured: e.measured,
+      unit: e.unit,
+      expected: e.expected,
+      low: e.low,
+      high: e.high,
+      within: e.within,
+      done: e.done,
+      note: e.note,
+      version: e.version,
+    })),
+    photos,
+  };
+}
+
+export const unitRecordOf = (u: typeof units.$inferSelect) => ({ id: u.id, model: u.model, serial: u.serial, owner: u.owner, jobNumber: u.jobNumber });
+
+/** The revision a run followed, with its approval record (reviewer sign-offs when recorded). */
+export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<RevisionRecord> {
+  const [rev] = await db.select().from(revisions).where(eq(revisions.id, run.revisionId));
+  const who = await names(db, [rev!.authorId]);
+  const signOffs = await db
+    .select({ name: signatures.signerName, meaning: signatures.meaning, signedAt: signatures.signedAt })
+    .from(signatures)
+    .where(eq(signatures.revisionId, run.revisionId))
+    .orderBy(asc(signatures.signedAt));
+  return {
+    id: rev!.id,
+    number: rev!.number,
+    state: rev!.state,
+    title: rev!.title,
+    approvedAt: iso(rev!.decidedAt),
+    author: who(rev!.authorId),
+    contentHash: run.revisionHash,
+    signOffs: signOffs.map((s) => ({ name: s.name, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
+  };
+}
+
+export async function loadRunView(db: Db | Tx, runId: string): Promise<RunView> {
+  const [run] = await db.select().from(runs).where(eq(runs.id, runId));
+  if (!run) throw notFound('No such bench run.');
+  const [unit] = await db.select().from(units).where(eq(units.id, run.unitId));
+  const entries = await db.select().from(runEntries).where(eq(runEntries.runId, runId));
+  const history = await db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id));
+  const photos = await db.select().from(runPhotos).where(eq(runPhotos.runId, runId)).orderBy(asc(runPhotos.addedAt));
+  const [signature] = await db.select().from(runSignatures).where(eq(runSignatures.runId, runId));
+  const who = await names(db, [run.startedBy, ...entries.map((e) => e.enteredBy), ...photos.map((p) => p.addedBy), ...(signature ? [signature.signerId] : [])]);
+
+  const entryViews: EntryView[] = entries.map((e) => ({
+    stepId: e.stepId,
+    kind: e.kind,
+    raw: e.raw,
+    measured: e.measured,
+    unit: e.unit,
+    expected: e.expected,
+    low: e.low,
+    high: e.high,
+    within: e.within,
+    deviation: e.deviation,
+    deviationPercent: e.deviationPercent,
+    done: e.done,
+    note: e.note,
+    version: e.version,
+    lastKey: e.lastKey,
+    enteredBy: who(e.enteredBy),
+    enteredAt: e.enteredAt.toISOString(),
+    history:
+      e.version > 1
+        ? history
+            .filter((h) => h.entryId === e.id)
+            .map((h) => ({
+              version: h.version,
+              raw: h.raw,
+              measured: h.measured,
+              within: h.within,
+              done: h.done,
+              note: h.note,
+              reason: h.reason,
+              enteredBy: { id: h.enteredBy, displayName: h.enteredByName },
+              enteredAt: h.enteredAt.toISOString(),
+            }))
+        : [],
+  }));
+  const state = new Map(entries.map((e) => [e.stepId, e]));
+  const unitNow = unitRecordOf(unit!);
+  let verified = false;
+  if (signature) {
+    verified = runContentHash(await runContent(db, run, run.unitRecord ?? unitNow)) === signature.contentHash && signature.contentHash === run.contentHash;
+  }
+  return {
+    id: run.id,
+    title: run.title,
+    status: run.status,
+    outOfTolerance: run.outOfTolerance,
+    unit: run.unitRecord ?? unitNow,
+    revision: await revisionRecord(db, run),
+    params: run.params,
+    snapshot: run.snapshot,
+    steps: run.steps,
+    entries: entryViews,
+    photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, url: `/api/attachments/${p.attachmentId}`, addedBy: who(p.addedBy), addedAt: p.addedAt.toISOString() })),
+    signature: signature
+      ? {
+          signer: { id: signature.signerId, displayName: signature.signerName },
+          signerRole: signature.signerRole,
+          meaning: signature.meaning,
+          reason: signature.reason,
+          signedAt: signature.signedAt.toISOString(),
+          contentHash: signature.contentHash,
+          verified,
+        }
+      : null,
+    startedBy: who(run.startedBy),
+    startedAt: run.startedAt.toISOString(),
+    signedAt: iso(run.signedAt),
+    progress: progressOf(run.steps, state),
+    locked: lockedSteps(run.steps, state).locked,
+  };
+}
+
+export async function listRuns(db: Db, filter: { status?: 'in_progress' | 'signed'; unitId?: string; startedBy?: string }): Promise<RunListItem[]> {
+  const where: SQL[] = [];
+  if (filter.status) where.push(eq(runs.status, filter.status));
+  if (filter.unitId) where.push(eq(runs.unitId, filter.unitId));
+  if (filter.startedBy) where.push(eq(runs.startedBy, filter.startedBy));
+  const rows = await db
+    .select({ run: runs, unit: { id: units.id, model: units.model, serial: units.serial }, starter: { id: people.id, displayName: people.displayName } })
+    .from(runs)
+    .innerJoin(units, eq(units.id, runs.unitId))
+    .innerJoin(people, eq(people.id, runs.startedBy))
+    .where(where.length ? and(...where) : undefined)
+    .orderBy(desc(runs.startedAt))
+    .limit(200);
+  const ids = rows.map((r) => r.run.id);
+  const entries = ids.length
+    ? await db.select({ runId: runEntries.runId, stepId: runEntries.stepId, measured: runEntries.measured, done: runEntries.done, within: runEntries.within }).from(runEntries).where(inArray(runEntries.runId, ids))
+    : [];
+  return rows.map(({ run, unit, starter }) => {
+    const state = new Map(entries.filter((e) => e.runId === run.id).map((e) => [e.stepId, e]));
+    const p = progressOf(run.steps, state);
+    return {
+      id: run.id,
+      title: run.title,
+      status: run.status,
+      outOfTolerance: run.outOfTolerance,
+      revisionNumber: run.revisionNumber,
+      unit,
+      startedBy: starter,
+      startedAt: run.startedAt.toISOString(),
+      signedAt: iso(run.signedAt),
+      progress: { done: p.done, total: p.total },
+    };
+  });
+}

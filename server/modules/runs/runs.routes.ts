@@ -1,0 +1,118 @@
+import { eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { BLOCK_ID } from '../../../shared/document/schema';
+import { entryBody, runListQuery, signRunBody, startRunBody } from '../../../shared/schemas/runs';
+import { runPhotos, runs } from '../../db/schema';
+import { badRequest, conflict, notFound } from '../../http/errors';
+import { defineRoute } from '../../http/route';
+import { renderRunSheetPdf } from './pdf';
+import { receivePhoto, storePhoto } from './photo-upload';
+import { signRun } from './run-sign';
+import { listRuns, loadRunView } from './run-view';
+import { recordEntry, startRun } from './runs.service';
+
+const runParams = z.object({ id: z.uuid('not a valid run id') }).strict();
+const entryParams = z.object({ id: z.uuid('not a valid run id'), stepId: z.string().regex(BLOCK_ID, 'not a valid step id') }).strict();
+
+export const runRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/runs',
+    access: 'signed-in',
+    summary: 'Bench runs, newest first (filter by status, unit, or mine=1)',
+    query: runListQuery,
+    handler: async ({ query, user, deps }) => ({
+      runs: await listRuns(deps.db, { status: query.status, unitId: query.unitId, startedBy: query.mine ? user!.id : undefined }),
+    }),
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs',
+    access: ['technician'],
+    summary: 'Start a bench run on an approved revision and a unit, with the measured mains (409 unless approved)',
+    body: startRunBody,
+    handler: async ({ res, body, user, deps }) => {
+      const { run, created } = await startRun(deps.db, user!, body);
+      res.status(created ? 201 : 200);
+      return { run: await loadRunView(deps.db, run.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'get',
+    path: '/runs/:id',
+    access: 'signed-in',
+    summary: 'One bench run: steps, entries with their history, photos, signature (verified on read)',
+    params: runParams,
+    handler: async ({ params, deps }) => ({ run: await loadRunView(deps.db, params.id) }),
+  }),
+
+  defineRoute({
+    method: 'put',
+    path: '/runs/:id/entries/:stepId',
+    access: ['technician'],
+    summary: 'Record a reading, tick a check step or acknowledge a hazard note (idempotent by key; the server decides within/out)',
+    params: entryParams,
+    body: entryBody,
+    handler: async ({ params, body, user, deps }) => {
+      const { replayed } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
+      const run = await loadRunView(deps.db, params.id);
+      return { replayed, entry: run.entries.find((e) => e.stepId === params.stepId) ?? null, run };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/photos',
+    access: ['technician'],
+    summary: 'Add a photo to a run, optionally to one step (PNG, JPEG, WebP judged by content; 15 MB)',
+    params: runParams,
+    before: receivePhoto,
+    handler: async ({ req, res, params, user, deps }) => {
+      const stepId = typeof req.body?.stepId === 'string' && req.body.stepId !== '' ? req.body.stepId : null;
+      const [run] = await deps.db.select({ status: runs.status, steps: runs.steps }).from(runs).where(eq(runs.id, params.id));
+      if (!run) throw notFound('No such bench run.');
+      if (run.status === 'signed') throw conflict('This run sheet is signed; nothing on it can change.');
+      if (stepId !== null && !run.steps.some((s) => s.id === stepId)) throw badRequest('body.stepId: no such step in this run', [{ field: 'body.stepId', reason: 'no such step in this run' }]);
+      const attachment = await storePhoto(deps, req.file, user!.id);
+      const [photo] = await deps.db.insert(runPhotos).values({ runId: params.id, stepId, attachmentId: attachment.id, addedBy: user!.id }).returning();
+      res.status(201);
+      return { photo: { id: photo!.id, stepId, url: `/api/attachments/${attachment.id}`, addedBy: { id: user!.id, displayName: user!.displayName }, addedAt: photo!.addedAt.toISOString() } };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/sign',
+    access: ['technician'],
+    summary: 'Sign the run sheet as performed (password again; 409 naming unfinished steps); then it is immutable',
+    params: runParams,
+    body: signRunBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await signRun(deps, user!, params.id, body, req);
+      return { run: await loadRunView(deps.db, params.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'get',
+    path: '/runs/:id/sheet.pdf',
+    access: 'signed-in',
+    summary: 'The run sheet as a PDF for the customer’s file, with the safety caution and the revision’s approval record',
+    params: runParams,
+    handler: async ({ res, params, deps }) => {
+      const run = await loadRunView(deps.db, params.id);
+      const pdf = await renderRunSheetPdf(run);
+      const name = `run-sheet-${run.unit.model}-${run.unit.serial}-${run.id.slice(0, 8)}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_');
+      res.set({
+        'Content-Type': 'application/pdf',
+        'Content-Length': String(pdf.length),
+        'Content-Disposition': `attachment; filename="${name}"`,
+        'X-Content-Type-Options': 'nosniff',
+        'Cache-Control': 'private, no-store',
+      });
+      res.end(pdf);
+    },
+  }),
+];

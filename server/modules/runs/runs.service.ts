@@ -1,0 +1,135 @@
+import { and, eq, sql } from 'drizzle-orm';
+import { evaluateDocument } from '../../../shared/document/evaluate';
+import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
+import type { Db } from '../../db/client';
+import { people, revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
+import { conflict, notFound, badRequest } from '../../http/errors';
+import type { SessionUser } from '../../http/route';
+import { revisionContentHash } from '../review/signed-content';
+import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
+import { buildSteps, lockedSteps, type EntryState } from './run-steps';
+
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type RunRow = typeof runs.$inferSelect;
+export type EntryRow = typeof runEntries.$inferSelect;
+
+const short = (s: string, n = 80) => (s.length > n ? `${s.slice(0, n - 1)}…` : s);
+
+/**
+ * Starts a bench run on an approved revision: every expected value is evaluated again with the
+ * bench's measured mains, and the run keeps that revision and its own snapshot from then on.
+ */
+export async function startRun(db: Db, user: SessionUser, body: StartRunBody) {
+  return db.transaction(async (tx) => {
+    if (body.key) {
+      const [existing] = await tx.select().from(runs).where(eq(runs.startKey, body.key));
+      if (existing) {
+        if (existing.revisionId !== body.revisionId || existing.unitId !== body.unitId) throw conflict('This start key was already used for another run.');
+        return { run: existing, created: false };
+      }
+    }
+    const [revision] = await tx.select().from(revisions).where(eq(revisions.id, body.revisionId)).for('share');
+    if (!revision) throw notFound('No such revision.');
+    if (revision.state !== 'approved') {
+      throw conflict(`Revision ${revision.number} of “${short(revision.title)}” is ${revision.state.replace('_', ' ')}; bench runs follow approved revisions only.`, { state: revision.state });
+    }
+    const [unit] = await tx.select().from(units).where(eq(units.id, body.unitId));
+    if (!unit) throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);
+    const params = { ...revision.params, mainsVoltage: body.mainsVoltage, mainsFrequency: body.mainsFrequency };
+    const snapshot = evaluateDocument(revision.document, params);
+    const [run] = await tx
+      .insert(runs)
+      .values({
+        unitId: unit.id,
+        procedureId: revision.procedureId,
+        revisionId: revision.id,
+        revisionNumber: revision.number,
+        revisionHash: await revisionContentHash(tx, revision),
+        title: revision.title,
+        params,
+        snapshot,
+        steps: buildSteps(revision.document, snapshot),
+        startKey: body.key,
+        startedBy: user.id,
+      })
+      .returning();
+    return { run: run!, created: true };
+  });
+}
+
+const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) => [e.stepId, e]));
+
+/**
+ * Records one entry for one step. The idempotency key makes a resend harmless: the same key
+ * returns what was stored. Every version goes to the append-only history with who, when and why.
+ */
+export async function recordEntry(db: Db, user: SessionUser, runId: string, stepId: string, body: EntryBody) {
+  return db.transaction(async (tx) => {
+    const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+    if (!run) throw notFound('No such bench run.');
+    const [seen] = await tx.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, body.key));
+    if (seen) {
+      if (seen.runId !== runId || seen.stepId !== stepId) {
+        throw conflict('This idempotency key was already used for another entry; send a new key.', { fields: [{ field: 'body.key', reason: 'already used' }] });
+      }
+      return { replayed: true };
+    }
+    if (run.status === 'signed') throw conflict('This run sheet is signed; nothing on it can change.');
+    const step = run.steps.find((s) => s.id === stepId);
+    if (!step) throw notFound(`This run has no step “${short(stepId, 40)}”.`);
+    const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+    const { gate, locked } = lockedSteps(run.steps, stateOf(rows));
+    if (gate && locked.includes(stepId)) {
+      throw conflict(`Acknowledge the hazard note “${short(gate.text)}” (step ${gate.position}) before the steps after it.`, { hazardNoteId: gate.id });
+    }
+    const existing = rows.find((r) => r.stepId === stepId);
+    checkEntryShape(step, body, !!existing);
+
+    let reading: DecidedReading | null = null;
+    if (step.kind === 'reading' && body.value !== undefined) reading = decideReading(step, body.value);
+    const done = step.kind === 'reading' ? false : (body.done ?? existing?.done ?? false);
+    const changesMeasurement =
+      !!existing && ((reading && existing.measured !== null && reading.measured !== existing.measured) || (existing.done && !done));
+    if (changesMeasurement && !body.reason) {
+      throw badRequest('body.reason: say why a recorded entry is being changed', [{ field: 'body.reason', reason: 'required when changing a recorded entry' }]);
+    }
+    const values = {
+      ...(reading ?? {}),
+      done,
+      note: body.note ?? existing?.note ?? '',
+      lastKey: body.key,
+      enteredBy: user.id,
+    };
+    let entry: EntryRow;
+    if (existing) {
+      [entry] = (await tx
+        .update(runEntries)
+        .set({ ...values, version: existing.version + 1, enteredAt: sql`now()` })
+        .where(and(eq(runEntries.id, existing.id)))
+        .returning()) as [EntryRow];
+    } else {
+      [entry] = (await tx.insert(runEntries).values({ ...values, runId, stepId, kind: step.kind }).returning()) as [EntryRow];
+    }
+    const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
+    await tx.insert(runEntryHistory).values({
+      runId,
+      entryId: entry.id,
+      stepId,
+      version: entry.version,
+      idempotencyKey: body.key,
+      raw: entry.raw,
+      measured: entry.measured,
+      within: entry.within,
+      done: entry.done,
+      note: entry.note,
+      reason: body.reason ?? null,
+      enteredBy: user.id,
+      enteredByName: person?.name ?? user.displayName,
+    });
+    await tx
+      .update(runs)
+      .set({ outOfTolerance: sql`exists (select 1 from ${runEntries} where ${runEntries.runId} = ${runId} and ${runEntries.within} = false)` })
+      .where(eq(runs.id, runId));
+    return { replayed: false };
+  });
+}

@@ -1,0 +1,131 @@
+/** Review and sign-off: request bodies (zod) and what the review API returns. */
+import { z } from 'zod';
+import { PASSWORD_MAX } from './limits';
+import type { RevisionStateName } from './procedures';
+
+/** The password is checked, never trimmed or length-limited below what sign-in accepts. */
+const password = z.string({ error: 'required' }).min(1, 'enter your password to sign').max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`);
+const comment = z.string().trim().max(4000, 'at most 4000 characters');
+
+export const submitBody = z.object({ lockVersion: z.number().int().min(1).optional() }).strict();
+export const approveBody = z.object({ password, comment: comment.default('') }).strict();
+export const returnBody = z.object({ password, comment: comment.min(1, 'say what needs to change') }).strict();
+export const withdrawBody = z.object({ password, reason: comment.min(3, 'give the reason for withdrawing (at least 3 characters)') }).strict();
+export const commentBody = z
+  .object({
+    body: z.string().trim().min(1, 'write a comment').max(4000, 'at most 4000 characters'),
+    blockId: z.string().min(1).max(64).nullable().optional(),
+  })
+  .strict();
+
+export type SignatureMeaningName = 'approved' | 'returned' | 'withdrawn';
+
+export interface SignatureView {
+  id: string;
+  revisionId: string;
+  revisionNumber: number;
+  meaning: SignatureMeaningName;
+  signer: { id: string; displayName: string; role: string };
+  comment: string;
+  signedAt: string;
+  contentHash: string;
+  /** Recomputed from the stored revision on this read. */
+  verified: boolean;
+}
+
+export interface ReviewCommentView {
+  id: string;
+  revisionId: string;
+  blockId: string | null;
+  /** What the block is, for showing beside the comment ("Reading “B+2 at V1 anode”"). */
+  blockLabel: string | null;
+  author: { id: string; displayName: string };
+  body: string;
+  createdAt: string;
+}
+
+export interface QueueItem {
+  revisionId: string;
+  procedureId: string;
+  title: string;
+  equipmentModel: string;
+  number: number;
+  author: { id: string; displayName: string };
+  submittedAt: string;
+  ageSeconds: number;
+  /** The caller wrote or edited it, so they may not decide on it. */
+  ownWork: boolean;
+}
+
+export interface DiffPart {
+  op: 'same' | 'add' | 'del';
+  text: string;
+}
+export interface DiffLine {
+  kind: 'same' | 'added' | 'removed' | 'changed';
+  parts: DiffPart[];
+}
+export interface ValueChange {
+  kind: 'output' | 'reading' | 'parameter';
+  subject: string;
+  label: string;
+  before: string | null;
+  after: string | null;
+}
+
+export interface BlockRef {
+  id: string;
+  label: string;
+}
+
+export interface ReviewView {
+  revision: {
+    id: string;
+    procedureId: string;
+    number: number;
+    state: RevisionStateName;
+    lockVersion: number;
+    title: string;
+    equipmentFamily: string;
+    equipmentModel: string;
+    author: { id: string; displayName: string };
+    editors: { id: string; displayName: string }[];
+    submittedAt: string | null;
+    decidedAt: string | null;
+    html: string;
+  };
+  /** The approved revision this one is compared with; null for a first revision. */
+  base: { id: string; number: number; state: RevisionStateName } | null;
+  textDiff: DiffLine[];
+  valueChanges: ValueChange[];
+  blocks: BlockRef[];
+  comments: ReviewCommentView[];
+  signatures: SignatureView[];
+  /** Whether the caller may approve or return it now, and if not, why. */
+  canDecide: boolean;
+  cannotDecideReason: string | null;
+}
+
+export interface AuditEntryView {
+  id: number;
+  at: string;
+  action: string;
+  actor: { id: string; displayName: string } | null;
+  subject: string | null;
+  details: Record<string, unknown>;
+  ip: string | null;
+}
+
+export interface OutboxItemView {
+  id: string;
+  to: string[];
+  subject: string;
+  reason: string;
+  createdAt: string;
+  status: 'sent' | 'pending';
+  sentAt: string | null;
+  attempts: number;
+  lastError: string | null;
+  nextAttemptAt: string;
+  text: string;
+}

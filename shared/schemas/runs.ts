@@ -1,0 +1,184 @@
+import { z } from 'zod';
+import type { Snapshot } from '../document/evaluate';
+import type { ProcedureParams } from '../document/params';
+import { PARAM_SPECS } from '../document/params';
+
+export type RunStepKind = 'reading' | 'check' | 'hazard';
+
+/** One step of a bench run, in document order, with everything the bench needs to show and check it. */
+export interface RunStep {
+  id: string;
+  kind: RunStepKind;
+  /** 1-based position among the run's steps. */
+  position: number;
+  section: string;
+  /** Reading label, check-step text, or the hazard note's text. */
+  text: string;
+  reading?: {
+    testPoint: string;
+    meterRange: string;
+    unit: string;
+    toleranceText: string;
+    expectedSource: string;
+    expected: number | null;
+    low: number | null;
+    high: number | null;
+    bandText: string | null;
+    error?: string;
+  };
+  hazard?: { level: 'danger' | 'warning' };
+}
+
+const spec = (key: 'mainsVoltage' | 'mainsFrequency') => PARAM_SPECS.find((p) => p.key === key)!;
+const bounded = (key: 'mainsVoltage' | 'mainsFrequency') => {
+  const p = spec(key);
+  return z
+    .number({ error: `${p.label} must be a number in ${p.unit}` })
+    .refine(Number.isFinite, 'must be a finite number')
+    .pipe(z.number().min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`).max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`));
+};
+
+export const startRunBody = z
+  .object({
+    revisionId: z.uuid('not a valid revision id'),
+    unitId: z.uuid('not a valid unit id'),
+    mainsVoltage: bounded('mainsVoltage'),
+    mainsFrequency: bounded('mainsFrequency'),
+    /** Client-generated; the same key twice starts one run. */
+    key: z.uuid('must be a UUID').optional(),
+  })
+  .strict();
+export type StartRunBody = z.infer<typeof startRunBody>;
+
+/**
+ * One entry for one step. Strict: a client cannot send "within", "expected" or any other mark;
+ * the server decides them with the shared checkReading.
+ */
+export const entryBody = z
+  .object({
+    key: z.uuid('must be a UUID (the idempotency key)'),
+    /** A reading as typed ("352", "352 V", "0.35 kV"); a finite number is read in the reading's unit. */
+    value: z.union([z.string().trim().min(1, 'empty').max(40, 'at most 40 characters'), z.number()], { error: 'must be a value such as "352 V"' }).optional(),
+    /** Check step ticked or hazard note acknowledged. */
+    done: z.boolean().optional(),
+    note: z.string().max(2000, 'at most 2000 characters').optional(),
+    /** Why a recorded measurement is being changed; required for a change. */
+    reason: z.string().trim().max(500, 'at most 500 characters').optional(),
+  })
+  .strict();
+export type EntryBody = z.infer<typeof entryBody>;
+
+export const signRunBody = z
+  .object({
+    password: z.string().min(1, 'enter your password to sign').max(256),
+    meaning: z.literal('performed').default('performed'),
+    reason: z.string().trim().max(500).optional(),
+  })
+  .strict();
+
+export const runListQuery = z
+  .object({
+    status: z.enum(['in_progress', 'signed']).optional(),
+    unitId: z.uuid().optional(),
+    mine: z.enum(['1']).optional(),
+  })
+  .strict();
+
+export interface EntryVersionView {
+  version: number;
+  raw: string | null;
+  measured: number | null;
+  within: boolean | null;
+  done: boolean;
+  note: string;
+  reason: string | null;
+  enteredBy: { id: string; displayName: string };
+  enteredAt: string;
+}
+
+export interface EntryView {
+  stepId: string;
+  kind: RunStepKind;
+  raw: string | null;
+  measured: number | null;
+  unit: string | null;
+  expected: number | null;
+  low: number | null;
+  high: number | null;
+  within: boolean | null;
+  deviation: number | null;
+  deviationPercent: number | null;
+  done: boolean;
+  note: string;
+  version: number;
+  lastKey: string;
+  enteredBy: { id: string; displayName: string };
+  enteredAt: string;
+  /** Earlier versions, oldest first (present when the entry was changed). */
+  history: EntryVersionView[];
+}
+
+export interface RunPhotoView {
+  id: string;
+  stepId: string | null;
+  url: string;
+  addedBy: { id: string; displayName: string };
+  addedAt: string;
+}
+
+export interface RunSignatureView {
+  signer: { id: string; displayName: string };
+  signerRole: string;
+  meaning: 'performed';
+  reason: string | null;
+  signedAt: string;
+  contentHash: string;
+  /** Recomputed on every read: does the stored hash still match the run's content? */
+  verified: boolean;
+}
+
+export interface RevisionRecord {
+  id: string;
+  number: number;
+  state: string;
+  title: string;
+  approvedAt: string | null;
+  author: { id: string; displayName: string };
+  contentHash: string;
+  /** Reviewer sign-offs on the revision, when the shop records them. */
+  signOffs: { name: string; meaning: string; signedAt: string }[];
+}
+
+export interface RunView {
+  id: string;
+  title: string;
+  status: 'in_progress' | 'signed';
+  outOfTolerance: boolean;
+  unit: { id: string; model: string; serial: string; owner: string; jobNumber: string };
+  revision: RevisionRecord;
+  params: ProcedureParams;
+  snapshot: Snapshot;
+  steps: RunStep[];
+  entries: EntryView[];
+  photos: RunPhotoView[];
+  signature: RunSignatureView | null;
+  startedBy: { id: string; displayName: string };
+  startedAt: string;
+  signedAt: string | null;
+  progress: { done: number; total: number; outOfTolerance: number };
+  /** Step ids that cannot be entered yet: they follow a hazard note not yet acknowledged. */
+  locked: string[];
+}
+
+export interface RunListItem {
+  id: string;
+  title: string;
+  status: 'in_progress' | 'signed';
+  outOfTolerance: boolean;
+  revisionNumber: number;
+  unit: { id: string; model: string; serial: string };
+  startedBy: { id: string; displayName: string };
+  startedAt: string;
+  signedAt: string | null;
+  progress: { done: number; total: number };
+}

@@ -1,0 +1,84 @@
+import { z } from 'zod';
+
+const text = (label: string, max: number) => z.string().trim().max(max, `${label}: at most ${max} characters`);
+
+/** A unit on the bench, as entered by the shop. */
+export const unitBody = z
+  .object({
+    model: text('model', 80).min(1, 'required'),
+    serial: text('serial', 80).min(1, 'required'),
+    owner: text('owner', 120).default(''),
+    jobNumber: text('job number', 40).default(''),
+    notes: text('notes', 4000).default(''),
+  })
+  .strict();
+export type UnitBody = z.input<typeof unitBody>;
+
+export const updateUnitBody = unitBody.extend({ lockVersion: z.number().int().min(1) }).strict();
+
+export const unitListQuery = z
+  .object({
+    q: z.string().trim().max(80).optional(),
+    model: z.string().trim().max(80).optional(),
+    state: z.enum(['open-run', 'out', 'never-run']).optional(),
+  })
+  .strict();
+
+export interface UnitPhotoView {
+  id: string;
+  attachmentId: string;
+  url: string;
+  caption: string;
+  addedAt: string;
+}
+
+export interface UnitView {
+  id: string;
+  model: string;
+  serial: string;
+  owner: string;
+  jobNumber: string;
+  notes: string;
+  lockVersion: number;
+  createdAt: string;
+  updatedAt: string;
+  createdBy: { id: string; displayName: string };
+}
+
+export interface UnitListItem extends UnitView {
+  runCount: number;
+  openRuns: number;
+  outRuns: number;
+  lastRunAt: string | null;
+}
+
+export interface UnitRunSummary {
+  id: string;
+  title: string;
+  revisionNumber: number;
+  status: 'in_progress' | 'signed';
+  outOfTolerance: boolean;
+  startedAt: string;
+  signedAt: string | null;
+  startedBy: { id: string; displayName: string };
+  params: { mainsVoltage: number; mainsFrequency: number };
+}
+
+export interface TrendPoint {
+  runId: string;
+  at: string;
+  revisionNumber: number;
+  measured: number;
+  expected: number | null;
+  low: number | null;
+  high: number | null;
+  within: boolean | null;
+  mainsVoltage: number;
+}
+
+export interface TrendView {
+  /** Readings recorded on this unit across runs, to pick one. */
+  readings: { id: string; label: string; unit: string; count: number }[];
+  reading: { id: string; label: string; unit: string } | null;
+  points: TrendPoint[];
+}

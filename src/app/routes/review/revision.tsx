@@ -1,0 +1,129 @@
+import { useEffect, useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { REVISION_STATE_LABELS } from '@shared/schemas/procedures';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { useRevisionReview } from '@/features/review/api/review-queries';
+import { useDecideRevision, type Decision } from '@/features/review/api/review-mutations';
+import { CommentForm, CommentList } from '@/features/review/components/comments';
+import { formatUtc } from '@/features/review/components/format';
+import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
+import { SignOffDialog } from '@/features/review/components/sign-off-dialog';
+import { TextDiffView } from '@/features/review/components/text-diff-view';
+import { ValueChangesTable } from '@/features/review/components/value-changes-table';
+
+/** One revision under review: what changed against the last approved revision, comments, the signed decision. */
+export default function ReviewRevisionPage() {
+  const { revisionId = '' } = useParams();
+  const user = useSession().data?.user;
+  const query = useRevisionReview(revisionId);
+  const decide = useDecideRevision(revisionId);
+  const [deciding, setDeciding] = useState<Decision | null>(null);
+  const v = query.data?.review;
+  useEffect(() => {
+    document.title = `Review: ${v?.revision.title ?? 'revision'} · Benchwright`;
+  }, [v?.revision.title]);
+
+  if (query.isError) return <Notice tone="error">{query.error.message}</Notice>;
+  if (!v) return <p className="text-graphite-soft">Loading…</p>;
+  const r = v.revision;
+  const closeDialog = () => {
+    setDeciding(null);
+    decide.reset();
+  };
+
+  return (
+    <article className="mx-auto flex max-w-5xl flex-col gap-6">
+      <header className="flex flex-col gap-2 border-b border-rule pb-4">
+        <p className="text-sm text-graphite-soft">
+          Review · {r.equipmentFamily} · <span className="font-semibold text-graphite">{r.equipmentModel}</span>
+        </p>
+        <h1 className="text-3xl font-semibold">{r.title}</h1>
+        <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
+          <span>
+            Revision <span className="value">{r.number}</span>
+          </span>
+          <span data-state={r.state} className="font-semibold">
+            {REVISION_STATE_LABELS[r.state]}
+          </span>
+          <span>by {r.author.displayName}</span>
+          {r.editors.length > 0 && <span>edited by {r.editors.map((e) => e.displayName).join(', ')}</span>}
+          {r.submittedAt && <span>submitted {formatUtc(r.submittedAt)}</span>}
+          <Link to={paths.revision.href(r.id)} className="text-accent underline">
+            Read the whole revision
+          </Link>
+        </p>
+        <p className="text-sm">
+          {v.base ? (
+            <>
+              Compared with{' '}
+              <Link to={paths.revision.href(v.base.id)} className="text-accent underline">
+                revision {v.base.number}
+              </Link>{' '}
+              ({REVISION_STATE_LABELS[v.base.state].toLowerCase()}).
+            </>
+          ) : (
+            'First revision: everything is new.'
+          )}
+        </p>
+      </header>
+
+      <RevisionReviewPanel revision={{ id: r.id, procedureId: r.procedureId, number: r.number, state: r.state, lockVersion: r.lockVersion }} />
+
+      {hasRole(user, 'reviewer') && (
+        <section aria-label="Decision" className="flex flex-col gap-2 rounded-lg border border-rule bg-paper-deep p-4">
+          <h2 className="text-lg font-semibold">Decision</h2>
+          {v.canDecide ? (
+            <>
+              <p className="text-sm">
+                Approving records that you, a qualified reviewer, checked this revision. It does not make the procedure safe; the bench cautions still apply.
+              </p>
+              <div className="flex flex-wrap gap-2">
+                <Button onClick={() => setDeciding('approve')}>Approve…</Button>
+                <Button variant="danger" onClick={() => setDeciding('return')}>
+                  Return with comments…
+                </Button>
+              </div>
+            </>
+          ) : (
+            <p className="text-sm text-graphite-soft">{v.cannotDecideReason}</p>
+          )}
+        </section>
+      )}
+
+      <section className="flex flex-col gap-2">
+        <h2 className="text-xl font-semibold">Changed values</h2>
+        <ValueChangesTable changes={v.valueChanges} />
+      </section>
+
+      <section className="flex flex-col gap-2">
+        <h2 className="text-xl font-semibold">Changed text</h2>
+        <TextDiffView lines={v.textDiff} />
+      </section>
+
+      <section className="flex flex-col gap-3">
+        <h2 className="text-xl font-semibold">Comments</h2>
+        <CommentList comments={v.comments} />
+        {hasRole(user, 'author', 'reviewer') && <CommentForm revisionId={r.id} blocks={v.blocks} />}
+      </section>
+
+      {user && (
+        <SignOffDialog
+          open={deciding !== null}
+          title={deciding === 'approve' ? `Approve revision ${r.number}` : `Return revision ${r.number} to ${r.author.displayName}`}
+          meaning={deciding === 'approve' ? 'approved for use at the bench' : 'returned for changes'}
+          signerName={user.displayName}
+          commentLabel={deciding === 'approve' ? 'Comment' : 'What needs to change'}
+          commentRequired={deciding === 'return'}
+          confirmLabel={deciding === 'approve' ? 'Sign and approve' : 'Sign and return'}
+          pending={decide.isPending}
+          error={decide.error}
+          onConfirm={({ password, comment }) => deciding && decide.mutate({ decision: deciding, password, comment }, { onSuccess: () => setDeciding(null) })}
+          onClose={closeDialog}
+        />
+      )}
+    </article>
+  );
+}

@@ -1,0 +1,34 @@
+import { useEffect } from 'react';
+import { Link } from 'react-router-dom';
+import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
+import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { useRuns } from '@/features/runs/api/get-runs';
+import { RunsTable } from '@/features/runs/components/runs-table';
+
+export default function RunsPage() {
+  const session = useSession();
+  const open = useRuns({ status: 'in_progress' });
+  const signed = useRuns({ status: 'signed' });
+  useEffect(() => {
+    document.title = 'Bench runs · Benchwright';
+  }, []);
+  const runPath = (id: string) => paths.run.href(id);
+  return (
+    <section className="flex flex-col gap-6">
+      <div className="flex flex-wrap items-center gap-4">
+        <h1 className="text-2xl font-semibold">Bench runs</h1>
+        {hasRole(session.data?.user, 'technician') && (
+          <Link to={paths.newRun.href()} className="ml-auto inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white">
+            Start a bench run
+          </Link>
+        )}
+      </div>
+      <h2 className="text-lg font-semibold">In progress</h2>
+      {open.isError && <Notice tone="error">{open.error.message}</Notice>}
+      {open.data && <RunsTable runs={open.data.runs} runPath={runPath} />}
+      <h2 className="text-lg font-semibold">Signed run sheets</h2>
+      {signed.data && <RunsTable runs={signed.data.runs} runPath={paths.runSheet.href} />}
+    </section>
+  );
+}

@@ -1,0 +1,17 @@
+import { Notice } from '@/components/ui/notice';
+import { useSignatures } from '../api/review-queries';
+import { SignatureBadge } from './signature-badge';
+
+/** All sign-offs of a revision, for the reader page (any signed-in person who can see the revision). */
+export function SignatureList({ revisionId }: { revisionId: string }) {
+  const q = useSignatures(revisionId);
+  if (q.isError) return <Notice tone="error">{q.error.message}</Notice>;
+  if (!q.data?.signatures.length) return null;
+  return (
+    <section aria-label="Sign-offs" className="flex flex-col gap-2">
+      {q.data.signatures.map((s) => (
+        <SignatureBadge key={s.id} signature={s} />
+      ))}
+    </section>
+  );
+}

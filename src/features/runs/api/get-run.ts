@@ -1,0 +1,13 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { RunView } from '@shared/schemas/runs';
+import { api } from '@/lib/api-client';
+
+export const runQueryOptions = (id: string) => queryOptions({ queryKey: ['runs', 'one', id], queryFn: () => api.get<{ run: RunView }>(`/api/runs/${id}`) });
+
+/** While a run is open, poll every 3 s so technicians on the same run see each other's entries. */
+export const useRun = (id: string) =>
+  useQuery({
+    ...runQueryOptions(id),
+    refetchInterval: (q) => (q.state.data?.run.status === 'in_progress' ? 3_000 : false),
+    refetchIntervalInBackground: false,
+  });

@@ -1,0 +1,16 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { RunListItem } from '@shared/schemas/runs';
+import { api } from '@/lib/api-client';
+
+export const runsQueryOptions = (filter: { status?: 'in_progress' | 'signed'; mine?: boolean } = {}) =>
+  queryOptions({
+    queryKey: ['runs', 'list', filter],
+    queryFn: () => {
+      const p = new URLSearchParams();
+      if (filter.status) p.set('status', filter.status);
+      if (filter.mine) p.set('mine', '1');
+      return api.get<{ runs: RunListItem[] }>(`/api/runs${p.size ? `?${p}` : ''}`);
+    },
+  });
+
+export const useRuns = (filter: { status?: 'in_progress' | 'signed'; mine?: boolean } = {}) => useQuery(runsQueryOptions(filter));

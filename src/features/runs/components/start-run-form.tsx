@@ -1,0 +1,115 @@
+import { useState, type FormEvent } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { parseQuantity, QuantityParseError } from '@shared/units';
+import { Notice } from '@/components/ui/notice';
+import { useRevisionParams, useRunnableProcedures } from '../api/get-runnable-procedures';
+import { useStartRun } from '../api/start-run';
+
+interface UnitOption {
+  id: string;
+  model: string;
+  serial: string;
+  owner: string;
+  jobNumber: string;
+}
+
+const select = 'min-h-12 rounded-md border border-rule bg-card px-3 text-base';
+
+function readMains(text: string, unit: 'V' | 'Hz'): { value?: number; error?: string } {
+  if (!text.trim()) return { error: 'required' };
+  try {
+    return { value: parseQuantity(text, unit).value };
+  } catch (err) {
+    return { error: err instanceof QuantityParseError ? err.reason : 'cannot read this value' };
+  }
+}
+
+/** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
+export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOption[]; initialUnitId?: string; runPath: (id: string) => string }) {
+  const navigate = useNavigate();
+  const procedures = useRunnableProcedures();
+  const start = useStartRun();
+  const [procedureId, setProcedureId] = useState('');
+  const [unitId, setUnitId] = useState(initialUnitId ?? '');
+  const [mains, setMains] = useState('');
+  const [frequency, setFrequency] = useState('');
+  const [key] = useState(() => crypto.randomUUID());
+  const procedure = procedures.data?.find((p) => p.id === procedureId);
+  const params = useRevisionParams(procedure?.approved?.id);
+  const mainsRead = readMains(mains, 'V');
+  const freqRead = readMains(frequency || (params.data ? String(params.data.mainsFrequency) : ''), 'Hz');
+  const serverError = (name: string) => start.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
+  const [touched, setTouched] = useState(false);
+
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    setTouched(true);
+    if (!procedure?.approved || !unitId || mainsRead.value === undefined || freqRead.value === undefined) return;
+    start.mutate(
+      { revisionId: procedure.approved.id, unitId, mainsVoltage: mainsRead.value, mainsFrequency: freqRead.value, key },
+      { onSuccess: (data) => navigate(runPath(data.run.id)) },
+    );
+  };
+
+  return (
+    <form onSubmit={submit} className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5" noValidate>
+      {start.error && <Notice tone="error">{start.error.message}</Notice>}
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Approved procedure
+        <select aria-label="Approved procedure" className={select} value={procedureId} onChange={(e) => setProcedureId(e.target.value)}>
+          <option value="">Choose…</option>
+          {procedures.data?.map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.title} ({p.equipmentModel}, revision {p.approved!.number})
+            </option>
+          ))}
+        </select>
+        {touched && !procedure && <span className="text-out">choose a procedure</span>}
+      </label>
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Unit on the bench
+        <select aria-label="Unit on the bench" className={select} value={unitId} onChange={(e) => setUnitId(e.target.value)}>
+          <option value="">Choose…</option>
+          {units.map((u) => (
+            <option key={u.id} value={u.id}>
+              {u.model} · {u.serial}
+              {u.jobNumber ? ` · job ${u.jobNumber}` : ''}
+              {u.owner ? ` · ${u.owner}` : ''}
+            </option>
+          ))}
+        </select>
+        {touched && !unitId && <span className="text-out">choose a unit</span>}
+      </label>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Measured mains (V)
+          <input
+            className="value min-h-12 rounded-md border border-rule bg-paper px-3 text-xl"
+            aria-label="Measured mains (V)"
+            value={mains}
+            onChange={(e) => setMains(e.target.value)}
+            placeholder={params.data ? `nominal ${params.data.mainsNominal} V` : 'e.g. 236 V'}
+            autoComplete="off"
+          />
+          <span className="font-normal text-graphite-soft">Measure it at the bench outlet: every expected value is worked out again at this mains.</span>
+          {(touched || mains) && (mainsRead.error || serverError('mainsVoltage')) && <span className="text-out">{serverError('mainsVoltage') ?? mainsRead.error}</span>}
+        </label>
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Mains frequency (Hz)
+          <input
+            className="value min-h-12 rounded-md border border-rule bg-paper px-3 text-xl"
+            aria-label="Mains frequency (Hz)"
+            value={frequency}
+            onChange={(e) => setFrequency(e.target.value)}
+            placeholder={params.data ? String(params.data.mainsFrequency) : '50'}
+            autoComplete="off"
+          />
+          {(touched || frequency) && (freqRead.error || serverError('mainsFrequency')) && <span className="text-out">{serverError('mainsFrequency') ?? freqRead.error}</span>}
+        </label>
+      </div>
+      <button type="submit" disabled={start.isPending} className="min-h-12 self-start rounded-md border border-accent-deep bg-accent px-5 text-base font-semibold text-white disabled:opacity-50">
+        {start.isPending ? 'Starting…' : 'Start the bench run'}
+      </button>
+    </form>
+  );
+}

@@ -1,0 +1,243 @@
+import { useState, type FormEvent } from 'react';
+import type { EntryView, RunPhotoView, RunStep } from '@shared/schemas/runs';
+import { formatNumber, formatQuantity } from '@shared/units';
+import { dismissRefused, queueEntry, type PendingEntry } from '../lib/entry-queue';
+import { liveCheck } from '../lib/live-check';
+import { Mark } from './mark';
+import { StepPhoto } from './step-photo';
+
+interface Props {
+  runId: string;
+  step: RunStep;
+  entry: EntryView | undefined;
+  pending: PendingEntry[];
+  locked: boolean;
+  photos: RunPhotoView[];
+}
+
+const big = 'min-h-12 rounded-md border px-4 text-base font-semibold';
+
+function Status({ entry, pending }: { entry: EntryView | undefined; pending: PendingEntry[] }) {
+  const waiting = pending.filter((p) => !p.refused);
+  const refused = pending.filter((p) => p.refused);
+  return (
+    <div className="flex flex-col gap-1 text-sm">
+      {waiting.length > 0 && (
+        <p data-pending="true" className="rounded border border-hazard bg-hazard/20 px-2 py-1">
+          Pending: saved on this tablet, sent when the server is reachable.
+        </p>
+      )}
+      {refused.map((p) => (
+        <p key={p.body.key} role="alert" className="flex flex-wrap items-center gap-2 text-out">
+          Not recorded: {p.refused}
+          <button type="button" className="min-h-10 rounded border border-out px-2" onClick={() => dismissRefused(p.body.key)}>
+            Dismiss
+          </button>
+        </p>
+      ))}
+      {entry && (
+        <p data-saved="true" className="text-graphite-soft">
+          Saved by {entry.enteredBy.displayName} at {new Date(entry.enteredAt).toLocaleTimeString()}
+          {entry.version > 1 && ` (changed ${entry.version - 1}×; the original is kept)`}
+        </p>
+      )}
+    </div>
+  );
+}
+
+function ReadingStep({ runId, step, entry, pending }: Props) {
+  const r = step.reading!;
+  const [text, setText] = useState('');
+  const [note, setNote] = useState('');
+  const [reason, setReason] = useState('');
+  const live = liveCheck(step, text);
+  const last = [...pending].reverse().find((p) => !p.refused && p.body.value !== undefined);
+  const recorded = entry?.measured ?? null;
+  const changing = recorded !== null && (live.state === 'checked' || live.state === 'no-band') && live.measured !== recorded;
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    if (live.state === 'empty' || live.state === 'error') return;
+    if (changing && !reason.trim()) return;
+    queueEntry(runId, step.id, { value: text.trim(), ...(note.trim() ? { note: note.trim() } : {}), ...(changing ? { reason: reason.trim() } : {}) });
+    setText('');
+    setNote('');
+    setReason('');
+  };
+  return (
+    <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
+      <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-3">
+        <div>
+          <dt className="text-graphite-soft">Test point</dt>
+          <dd>{r.testPoint || '—'}</dd>
+        </div>
+        <div>
+          <dt className="text-graphite-soft">Meter range</dt>
+          <dd>{r.meterRange || '—'}</dd>
+        </div>
+        <div>
+          <dt className="text-graphite-soft">Expected</dt>
+          <dd data-band={r.low !== null ? `${r.low}:${r.high}` : ''}>
+            {r.expected !== null ? (
+              <>
+                <span className="value font-semibold">{formatQuantity(r.expected, r.unit, 4)}</span> <span className="value text-graphite-soft">({r.bandText}, {r.toleranceText})</span>
+              </>
+            ) : (
+              <span className="text-out">{r.error ?? 'no expected value'}</span>
+            )}
+          </dd>
+        </div>
+      </dl>
+      {(recorded !== null || last) && (
+        <p className="flex flex-wrap items-center gap-2">
+          <span className="text-sm text-graphite-soft">Recorded:</span>
+          {last ? (
+            <>
+              <span className="value text-lg">{String(last.body.value)}</span>
+              <Mark within={(() => {
+                const c = liveCheck(step, String(last.body.value));
+                return c.state === 'checked' ? c.within : null;
+              })()} pending />
+            </>
+          ) : (
+            <>
+              <span className="value text-lg">{formatQuantity(recorded!, r.unit, 4)}</span>
+              <Mark within={entry!.within} />
+              {entry!.deviation !== null && (
+                <span className="value text-sm text-graphite-soft">
+                  {entry!.deviation >= 0 ? '+' : ''}
+                  {formatQuantity(entry!.deviation, r.unit, 3)}
+                  {entry!.deviationPercent !== null && ` (${entry!.deviationPercent >= 0 ? '+' : ''}${formatNumber(entry!.deviationPercent, 2)} %)`}
+                </span>
+              )}
+            </>
+          )}
+        </p>
+      )}
+      <div className="flex flex-wrap items-end gap-3">
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          {recorded !== null ? 'Correct the reading' : 'Measured'} ({r.unit})
+          <input
+            name="measured"
+            aria-label={`Measured: ${step.text}`}
+            autoComplete="off"
+            spellCheck={false}
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            placeholder={r.expected !== null ? formatQuantity(r.expected, r.unit, 3) : `value in ${r.unit}`}
+            className={`value min-h-12 w-48 rounded-md border bg-card px-3 text-xl ${live.state === 'error' ? 'border-out' : 'border-rule'}`}
+          />
+        </label>
+        <div aria-live="polite" className="min-h-12 py-2">
+          {live.state === 'checked' && (
+            <span className="flex flex-wrap items-center gap-2">
+              <Mark within={live.within} />
+              <span className="value text-sm">
+                {live.deviation >= 0 ? '+' : ''}
+                {formatQuantity(live.deviation, r.unit, 3)}
+                {live.deviationPercent !== null && ` (${live.deviationPercent >= 0 ? '+' : ''}${formatNumber(live.deviationPercent, 2)} %)`}
+              </span>
+            </span>
+          )}
+          {live.state === 'no-band' && <Mark within={null} />}
+          {live.state === 'error' && <span className="text-sm text-out">{live.message}</span>}
+        </div>
+      </div>
+      {changing && (
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Why is the recorded reading being changed? (kept with the original)
+          <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+        </label>
+      )}
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Note (optional)
+        <input value={note} onChange={(e) => setNote(e.target.value)} placeholder={entry?.note || ''} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+      </label>
+      <button type="submit" disabled={live.state === 'empty' || live.state === 'error' || (changing && !reason.trim())} className={`${big} self-start border-accent-deep bg-accent text-white disabled:opacity-50`}>
+        {recorded !== null ? 'Record correction' : 'Record reading'}
+      </button>
+    </form>
+  );
+}
+
+function TickStep({ runId, step, entry, pending }: Props) {
+  const last = [...pending].reverse().find((p) => !p.refused && p.body.done !== undefined);
+  const done = last ? !!last.body.done : !!entry?.done;
+  const [note, setNote] = useState('');
+  const [reason, setReason] = useState('');
+  const [unticking, setUnticking] = useState(false);
+  const hazard = step.kind === 'hazard';
+  const toggle = () => {
+    if (hazard && done) return;
+    if (done && !unticking) return setUnticking(true);
+    if (done && !reason.trim()) return;
+    setUnticking(false);
+    queueEntry(runId, step.id, { done: !done, ...(note.trim() ? { note: note.trim() } : {}), ...(done ? { reason: reason.trim() } : {}) });
+    setNote('');
+    setReason('');
+  };
+  return (
+    <div className="flex flex-col gap-3">
+      <p className={hazard ? 'whitespace-pre-line text-base font-semibold text-hazard-ink' : 'text-base'}>{step.text}</p>
+      {!hazard && (
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Note (optional)
+          <input value={note} onChange={(e) => setNote(e.target.value)} placeholder={entry?.note || ''} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+        </label>
+      )}
+      {done && !hazard && unticking && (
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Reason, if you are un-ticking it
+          <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+        </label>
+      )}
+      <button
+        type="button"
+        aria-pressed={done}
+        onClick={toggle}
+        disabled={(hazard && done) || (!hazard && done && unticking && !reason.trim())}
+        className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-hazard-ink bg-hazard text-hazard-ink' : 'border-accent-deep bg-card text-accent-deep'} disabled:opacity-90`}
+      >
+        {hazard ? (done ? '✓ Hazard note acknowledged' : 'I have read this hazard note') : done ? (unticking ? 'Un-tick with this reason' : '✓ Done (tap to un-tick)') : 'Mark as done'}
+      </button>
+    </div>
+  );
+}
+
+/** One step of the bench checklist: a reading, a check step or a hazard note. */
+export function StepCard(props: Props) {
+  const { step, locked, entry, pending, runId, photos } = props;
+  const hazard = step.kind === 'hazard';
+  const kindLabel = hazard ? (step.hazard?.level === 'danger' ? 'Hazard note: danger' : 'Hazard note: warning') : step.kind === 'reading' ? 'Reading' : 'Check step';
+  return (
+    <article
+      data-step-id={step.id}
+      data-step-kind={step.kind}
+      aria-labelledby={`step-${step.id}-title`}
+      className={`flex flex-col gap-3 rounded-lg border-2 p-4 ${hazard ? 'border-hazard-ink bg-hazard/25 [border-style:dashed]' : 'border-rule bg-card'} ${locked ? 'opacity-60' : ''}`}
+    >
+      <header className="flex flex-wrap items-baseline gap-x-3">
+        <span className="value text-sm text-graphite-soft">Step {step.position}</span>
+        <span className="text-xs font-semibold uppercase tracking-wide text-graphite-soft">{kindLabel}</span>
+        {step.section && <span className="text-xs text-graphite-soft">· {step.section}</span>}
+      </header>
+      {step.kind === 'reading' && (
+        <h3 id={`step-${step.id}-title`} className="text-lg font-semibold">
+          {step.text}
+        </h3>
+      )}
+      {step.kind !== 'reading' && <h3 id={`step-${step.id}-title`} className="sr-only">{kindLabel}</h3>}
+      {locked ? (
+        <>
+          {step.kind !== 'reading' && <p>{step.text}</p>}
+          <p className="text-sm font-semibold">Acknowledge the hazard note above before this step.</p>
+        </>
+      ) : step.kind === 'reading' ? (
+        <ReadingStep {...props} />
+      ) : (
+        <TickStep {...props} />
+      )}
+      <Status entry={entry} pending={pending} />
+      {!hazard && !locked && <StepPhoto runId={runId} stepId={step.id} photos={photos} />}
+    </article>
+  );
+}

@@ -1,0 +1,13 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { UnitPhotoView, UnitRunSummary, UnitView } from '@shared/schemas/units';
+import { api } from '@/lib/api-client';
+
+export interface UnitPage {
+  unit: UnitView;
+  photos: UnitPhotoView[];
+  runs: UnitRunSummary[];
+}
+
+export const unitQueryOptions = (id: string) => queryOptions({ queryKey: ['units', 'one', id], queryFn: () => api.get<UnitPage>(`/api/units/${id}`) });
+
+export const useUnit = (id: string) => useQuery(unitQueryOptions(id));

@@ -1,0 +1,113 @@
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser } from '../support/browser';
+import { demo } from '../support/test-app';
+import { startTestServer } from '../support/test-server';
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const cspViolations: string[] = [];
+
+beforeAll(async () => {
+  server = await startTestServer();
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function openPage() {
+  const page = await (await browser.newContext()).newPage();
+  page.on('console', (m) => {
+    if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 160));
+  });
+  return page;
+}
+
+async function signIn(page: Page, who: keyof typeof demo) {
+  await page.goto(server.url + '/');
+  await page.waitForURL(/\/sign-in/);
+  await page.getByLabel('E-mail').fill(demo[who].email);
+  await page.getByLabel('Password').fill(demo[who].password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('button', { name: 'Sign out' }).waitFor();
+}
+
+/**
+ * As the signed-in author, in the page: start revision 2 of the seeded TC-18 procedure and widen
+ * one reading's tolerance, through the same API the editor uses. Returns the new revision's id.
+ */
+function startEditedDraft(page: Page) {
+  return page.evaluate(async () => {
+    const session = await (await fetch('/api/auth/session')).json();
+    const headers = { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken as string };
+    const list = await (await fetch('/api/procedures')).json();
+    const proc = list.procedures.find((p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved);
+    const draft = await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json();
+    const r = draft.revision;
+    const walk = (n: { type: string; attrs?: Record<string, unknown>; content?: unknown[] }): boolean => {
+      if (n.type === 'reading' && n.attrs?.id === 'tc18-rd-mains') {
+        n.attrs.tolerance = '±12 %';
+        return true;
+      }
+      return (n.content ?? []).some((c) => walk(c as never));
+    };
+    walk(r.document);
+    const saved = await fetch(`/api/revisions/${r.id}`, {
+      method: 'PUT',
+      headers,
+      body: JSON.stringify({ title: r.title, equipmentFamily: r.equipmentFamily, equipmentModel: r.equipmentModel, tags: r.tags, params: r.params, lockVersion: r.lockVersion, document: r.document }),
+    });
+    if (!saved.ok) throw new Error(`save failed: ${saved.status} ${await saved.text()}`);
+    return r.id as string;
+  });
+}
+
+describe('review and sign-off in Chromium', () => {
+  it('an author submits a draft; a reviewer finds it in the queue, sees the changed values, approves with a password', async () => {
+    const author = await openPage();
+    await signIn(author, 'hal');
+    const revisionId = await startEditedDraft(author);
+    await author.goto(`${server.url}/review/revisions/${revisionId}`);
+    await author.getByRole('button', { name: 'Submit for review' }).click();
+    await author.getByText('Submitted. The reviewers have been told').waitFor();
+    await author.context().close();
+
+    const reviewer = await openPage();
+    await signIn(reviewer, 'marek');
+    await reviewer.getByRole('link', { name: 'Review queue', exact: true }).click();
+    const queue = reviewer.getByRole('table', { name: 'Review queue' });
+    await queue.waitFor();
+    const row = queue.getByRole('row').filter({ hasText: 'Hal Brennan' }).filter({ hasText: 'TC-18' });
+    await row.getByRole('link').click();
+    await reviewer.waitForURL(new RegExp(`/review/revisions/${revisionId}$`));
+
+    // The diff table names the reading and shows the tolerance before and after.
+    const changes = reviewer.getByRole('table', { name: 'Value changes' });
+    const tolerance = changes.getByRole('row').filter({ hasText: 'Mains at the bench' }).filter({ hasText: 'tolerance' });
+    await tolerance.waitFor();
+    expect(await tolerance.innerText()).toMatch(/±10 %[\s\S]*±12 %/);
+
+    // A wrong password is refused and nothing is signed.
+    await reviewer.getByRole('button', { name: 'Approve…' }).click();
+    const dialog = reviewer.getByRole('dialog');
+    await dialog.getByLabel('Comment').fill('Wider mains tolerance matches the bench supply.');
+    await dialog.getByLabel('Your password').fill('not-my-password');
+    await dialog.getByRole('button', { name: 'Sign and approve' }).click();
+    await dialog.getByRole('alert').filter({ hasText: 'password is not right' }).waitFor();
+
+    await dialog.getByLabel('Your password').fill(demo.marek.password);
+    await dialog.getByRole('button', { name: 'Sign and approve' }).click();
+    const signed = reviewer.locator('[data-signature="approved"]');
+    await signed.getByText('Approved by Marek Vos').waitFor();
+    await signed.getByText('content verified').waitFor();
+    expect(await signed.innerText()).toMatch(/\d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC/);
+    await reviewer.locator('[data-state="approved"]').waitFor();
+    await reviewer.context().close();
+  });
+
+  it('the review pages run under the strict Content-Security-Policy with no violations', () => {
+    expect(cspViolations).toEqual([]);
+  });
+});
