@@ -60,7 +60,7 @@ export function SearchBox() {
   };
 
   return (
-    <div className="relative w-full max-w-sm" role="search">
+    <div className="relative w-full max-w-64 min-w-48 flex-1" role="search">
       <label htmlFor={`${listId}-input`} className="sr-only">
         Search approved procedures
       </label>
