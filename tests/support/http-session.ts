@@ -21,6 +21,7 @@ export function httpSession(baseUrl: string) {
   return {
     cookieHeader: () => cookie,
     csrfToken: () => csrf,
+    call,
     get: (path: string) => call('GET', path),
     post: (path: string, body: unknown = {}) => call('POST', path, body),
     async signIn(email: string, password: string) {
