@@ -22,7 +22,10 @@ const databaseUrl = await prepareDatabase(cluster, 'benchwright');
 say('building the client…');
 await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
 
-const mailCatcher = await startFakeSmtp(Number(process.env.SMTP_PORT ?? 2525)).catch(() => startFakeSmtp(0));
+// Mail: the shop's relay when SMTP_HOST is set, otherwise a local catcher that keeps every message.
+const relay = process.env.SMTP_HOST ? { host: process.env.SMTP_HOST, port: Number(process.env.SMTP_PORT ?? 25) } : null;
+const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
+const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
 
 const running = await startServer({
   databaseUrl,
@@ -32,7 +35,7 @@ const running = await startServer({
     sessionSecret: readOrCreateSecret('session'),
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
-    smtp: { host: '127.0.0.1', port: mailCatcher.port, from: 'Benchwright <benchwright@tallowcreek.example>' },
+    smtp: { ...smtp, from: process.env.SMTP_FROM ?? 'Benchwright <benchwright@tallowcreek.example>' },
   },
 }).catch((err: NodeJS.ErrnoException) => {
   if (err.code === 'EADDRINUSE') console.error(`[benchwright] port ${port} is taken by another program; set PORT=… and try again.`);
@@ -43,7 +46,7 @@ const running = await startServer({
 console.log(`
   Benchwright is running at ${running.url}
   Database: PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})
-  Mail:     local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}; admins read it under Outbox
+  Mail:     ${mailCatcher ? `local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}` : `relay ${smtp.host}:${smtp.port}`}; admins see the outbox under Mail outbox
 
   Demo sign-ins (Tallow Creek Valve Works):
 ${readDemoPeople()
@@ -59,7 +62,7 @@ async function stop(signal: string) {
   stopping = true;
   say(`${signal}: finishing requests and stopping…`);
   await running.close();
-  await mailCatcher.close();
+  await mailCatcher?.close();
   stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);
