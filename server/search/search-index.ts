@@ -1,4 +1,5 @@
 import SearchableMap from 'minisearch/SearchableMap';
+import type { SearchHit, SearchPage } from '../../shared/schemas/search';
 import { tokenize } from './vocabulary';
 
 /** What the index knows of one procedure: its current approved revision. */
@@ -17,30 +18,7 @@ export interface IndexedProcedure {
   reckoners: string;
 }
 
-export interface SearchHit {
-  procedureId: string;
-  revisionId: string;
-  revisionNumber: number;
-  title: string;
-  family: string;
-  model: string;
-  tags: string[];
-  score: number;
-  /** A short extract with the matched words marked; rendered as text, never as HTML. */
-  snippet: { text: string; hit: boolean }[];
-}
-
-export interface SearchPage {
-  query: string;
-  total: number;
-  page: number;
-  pageSize: number;
-  results: SearchHit[];
-  /** Spellings to try when nothing was found. */
-  suggestions: string[];
-  /** Equipment families and tags present among all matches, for filters. */
-  facets: { families: string[]; tags: string[] };
-}
+export type { SearchHit, SearchPage } from '../../shared/schemas/search';
 
 /** Field weights: a word in the title counts four times one in the body. */
 const FIELDS: { boost: number; text: (p: IndexedProcedure) => string }[] = [

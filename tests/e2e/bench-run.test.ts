@@ -1,24 +1,13 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from '../support/e2e';
 import { demo } from '../support/test-app';
-import { startTestServer } from '../support/test-server';
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-const cspViolations: string[] = [];
-
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const app = useBrowserApp();
+const { cspViolations } = app;
 
 async function signIn(page: Page, email: string, password: string) {
-  await page.goto(server.url + '/');
+  await page.goto(app.url + '/');
   await page.waitForURL(/\/sign-in/);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
@@ -30,7 +19,7 @@ const progressText = (page: Page) => page.locator('[data-progress]').innerText()
 
 describe('a bench run in Chromium', () => {
   it('registers a unit, runs the TC-18 procedure with a hazard note, an out-of-tolerance reading and an offline entry, signs, and exports the PDF', async () => {
-    const context = await browser.newContext({ viewport: { width: 1024, height: 1366 } });
+    const context = await app.browser.newContext({ viewport: { width: 1024, height: 1366 } });
     const page = await context.newPage();
     page.on('console', (m) => {
       if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 160));
@@ -141,7 +130,7 @@ describe('a bench run in Chromium', () => {
     // 6. The PDF for the customer's file.
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
     expect(download.suggestedFilename()).toMatch(/^run-sheet-TC-18-TC18-0457-.*\.pdf$/);
-    const pdf = await page.request.get(`${server.url}/api/runs/${runId}/sheet.pdf`);
+    const pdf = await page.request.get(`${app.url}/api/runs/${runId}/sheet.pdf`);
     expect(pdf.status()).toBe(200);
     expect(pdf.headers()['content-type']).toBe('application/pdf');
     expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');

@@ -1,36 +1,13 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from '../support/e2e';
 import { demo } from '../support/test-app';
-import { startTestServer } from '../support/test-server';
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-const cspViolations: string[] = [];
-
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
-async function openPage() {
-  const page = await (await browser.newContext()).newPage();
-  page.on('console', (m) => {
-    if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 160));
-  });
-  return page;
-}
+const app = useBrowserApp();
+const { cspViolations, openPage } = app;
 
 async function signIn(page: Page, who: keyof typeof demo) {
-  await page.goto(server.url + '/');
-  await page.waitForURL(/\/sign-in/);
-  await page.getByLabel('E-mail').fill(demo[who].email);
-  await page.getByLabel('Password').fill(demo[who].password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await app.signIn(page, who);
   await page.getByRole('button', { name: 'Sign out' }).waitFor();
 }
 
@@ -69,7 +46,7 @@ describe('review and sign-off in Chromium', () => {
     const author = await openPage();
     await signIn(author, 'hal');
     const revisionId = await startEditedDraft(author);
-    await author.goto(`${server.url}/review/revisions/${revisionId}`);
+    await author.goto(`${app.url}/review/revisions/${revisionId}`);
     await author.getByRole('button', { name: 'Submit for review' }).click();
     await author.getByText('Submitted. The reviewers have been told').waitFor();
     await author.context().close();

@@ -1,26 +1,12 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser';
-import { demo } from '../support/test-app';
-import { startTestServer } from '../support/test-server';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from '../support/e2e';
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const app = useBrowserApp();
 
 describe('search in Chromium', () => {
   it('"/" focuses the header search, results appear as you type, Enter opens the full results page', async () => {
-    const page = await (await browser.newContext()).newPage();
-    await page.goto(server.url + '/sign-in');
-    await page.getByLabel('E-mail').fill(demo.tom.email);
-    await page.getByLabel('Password').fill(demo.tom.password);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    const page = await app.openPage();
+    await app.signIn(page, 'tom');
     await page.getByRole('heading', { name: 'Bench work' }).waitFor();
 
     await page.keyboard.press('/');
@@ -39,6 +25,7 @@ describe('search in Chromium', () => {
     await page.getByLabel('Search words').fill('zzqqxx');
     await page.getByRole('button', { name: 'Search' }).click();
     await page.getByText('No approved procedure matches.').waitFor();
+    expect(app.cspViolations).toEqual([]);
     await page.context().close();
   });
 });

@@ -1,33 +1,14 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser';
+import { describe, expect, it } from 'vitest';
+import { useBrowserApp } from '../support/e2e';
 import { demo } from '../support/test-app';
-import { startTestServer } from '../support/test-server';
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-const cspViolations: string[] = [];
+const app = useBrowserApp();
+const { openPage, cspViolations } = app;
 
-beforeAll(async () => {
-  server = await startTestServer();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
-/** A page in a fresh context (no shared cookies) that reports any CSP violation. */
-async function openPage() {
-  const page = await (await browser.newContext()).newPage();
-  page.on('console', (m) => {
-    if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 160));
-  });
-  return page;
-}
-
+/** Signs in from the start page, which must send an anonymous visitor to the sign-in form. */
 async function signIn(page: Page, email: string, password: string) {
-  await page.goto(server.url + '/');
+  await page.goto(app.url + '/');
   await page.waitForURL(/\/sign-in/);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
@@ -73,7 +54,7 @@ describe('signing in as each demo role in Chromium', () => {
     await page.getByRole('button', { name: 'Create invitation' }).click();
     await page.getByText('/set-password/').waitFor();
     await page.getByRole('cell', { name: 'ada@tallowcreek.example' }).waitFor();
-    await page.goto(server.url + '/no/such/page');
+    await page.goto(app.url + '/no/such/page');
     await page.getByRole('heading', { name: 'Nothing here' }).waitFor();
     await page.context().close();
   });

@@ -4,25 +4,21 @@
 // entries, each rewritten to call a tripwire instead of alert so a run is detectable even without a
 // dialog; plus the same strings untouched.
 import { createRequire } from 'node:module';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser } from '../support/browser';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { useBrowserApp } from '../support/e2e';
 import { httpSession } from '../support/http-session';
 import { tinyPng } from '../support/png';
 import { demo } from '../support/test-app';
-import { startTestServer } from '../support/test-server';
 
 const blns = createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[];
 const hostile = blns.filter((s) => /<|javascript:|on\w+=/i.test(s));
 const tripwired = hostile.map((s) => s.replace(/alert\s*\(\s*[^)]*\)/gi, 'window.__bwTripped=1'));
 
-let server: Awaited<ReturnType<typeof startTestServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const app = useBrowserApp();
 const pages: string[] = [];
 
 beforeAll(async () => {
-  server = await startTestServer();
-  browser = await launchBrowser();
-  const hal = httpSession(server.url);
+  const hal = httpSession(app.url);
   expect((await hal.signIn(demo.hal.email, demo.hal.password)).status).toBe(200);
   const meta = { title: `Hostile ${tripwired[0]!.slice(0, 120)}`, equipmentFamily: `<img src=x onerror=window.__bwTripped=1>`, equipmentModel: 'TC-18', tags: ['<svg onload=window.__bwTripped=1>'] };
   const created = await hal.post('/api/procedures', meta);
@@ -37,7 +33,7 @@ beforeAll(async () => {
   const comment = await hal.post(`/api/revisions/${rev.id}/comments`, { body: tripwired.slice(0, 20).join('\n').slice(0, 1900) });
   expect(comment.status).toBe(201);
 
-  const tom = httpSession(server.url);
+  const tom = httpSession(app.url);
   expect((await tom.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
   const unit = await tom.post('/api/units', { model: '<script>window.__bwTripped=1</script>', serial: '"><img src=x onerror=window.__bwTripped=1>', owner: tripwired[1]!.slice(0, 100), notes: tripwired.slice(0, 10).join('\n') });
   expect(unit.status).toBe(201);
@@ -47,19 +43,15 @@ beforeAll(async () => {
   const form = new FormData();
   form.append('file', new Blob([tinyPng()], { type: 'image/png' }), '<img src=x onerror=window.__bwTripped=1>.png');
   form.append('caption', '<svg/onload=window.__bwTripped=1>');
-  const photo = await fetch(`${server.url}/api/units/${unitId}/photos`, { method: 'POST', headers: { cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() }, body: form });
+  const photo = await fetch(`${app.url}/api/units/${unitId}/photos`, { method: 'POST', headers: { cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() }, body: form });
   expect(photo.status).toBe(201);
 
   pages.push(`/revisions/${rev.id}`, `/review/revisions/${rev.id}`, '/procedures', `/units/${unitId}`, '/units');
 });
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
 
 describe('stored hostile strings rendered in Chromium', () => {
   it('no script runs on the reader, review, list and unit pages', async () => {
-    const context = await browser.newContext();
+    const context = await app.browser.newContext();
     const page = await context.newPage();
     const dialogs: string[] = [];
     // The CSP would stop an injected handler from running; a violation report means one got into the DOM.
@@ -71,13 +63,13 @@ describe('stored hostile strings rendered in Chromium', () => {
       dialogs.push(d.message());
       void d.dismiss();
     });
-    await page.goto(server.url + '/sign-in');
+    await page.goto(app.url + '/sign-in');
     await page.getByLabel('E-mail').fill(demo.hal.email);
     await page.getByLabel('Password').fill(demo.hal.password);
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     for (const path of pages) {
-      await page.goto(server.url + path);
+      await page.goto(app.url + path);
       await page.waitForLoadState('networkidle');
       await page.waitForTimeout(300);
       const tripped = await page.evaluate(() => (window as unknown as { __bwTripped?: number }).__bwTripped ?? 0);

@@ -1,5 +1,4 @@
 // Shared by the bench-run and unit API tests: a small approved procedure of the TC-18 kind.
-import { deflateSync } from 'node:zlib';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { people } from '../../server/db/schema';
@@ -76,30 +75,4 @@ export async function startRun(c: Client, revisionId: string, unitId: string, ma
 export const entry = (c: Client, runId: string, stepId: string, body: Record<string, unknown>) =>
   c.put(`/api/runs/${runId}/entries/${stepId}`).send({ key: randomUUID(), ...body });
 
-/** A real 1×1 PNG built from the format's own chunks (PNG spec, ISO/IEC 15948). */
-export function tinyPng() {
-  const crcTable = Array.from({ length: 256 }, (_, n) => {
-    let c = n;
-    for (let k = 0; k < 8; k++) c = c & 1 ? 0xedb88320 ^ (c >>> 1) : c >>> 1;
-    return c >>> 0;
-  });
-  const crc = (buf: Buffer) => {
-    let c = 0xffffffff;
-    for (const b of buf) c = crcTable[(c ^ b) & 0xff]! ^ (c >>> 8);
-    return (c ^ 0xffffffff) >>> 0;
-  };
-  const chunk = (type: string, data: Buffer) => {
-    const len = Buffer.alloc(4);
-    len.writeUInt32BE(data.length);
-    const td = Buffer.concat([Buffer.from(type, 'ascii'), data]);
-    const c = Buffer.alloc(4);
-    c.writeUInt32BE(crc(td));
-    return Buffer.concat([len, td, c]);
-  };
-  return Buffer.concat([
-    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
-    chunk('IHDR', Buffer.from([0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0])),
-    chunk('IDAT', deflateSync(Buffer.from([0, 255, 200, 0]))),
-    chunk('IEND', Buffer.alloc(0)),
-  ]);
-}
+export { tinyPng } from '../support/png';

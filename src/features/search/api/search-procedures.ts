@@ -1,27 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { SearchPage } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
 
-export interface SearchHit {
-  procedureId: string;
-  revisionId: string;
-  revisionNumber: number;
-  title: string;
-  family: string;
-  model: string;
-  tags: string[];
-  score: number;
-  snippet: { text: string; hit: boolean }[];
-}
-
-export interface SearchPage {
-  query: string;
-  total: number;
-  page: number;
-  pageSize: number;
-  results: SearchHit[];
-  suggestions: string[];
-  facets: { families: string[]; tags: string[] };
-}
+export type { SearchHit, SearchPage } from '@shared/schemas/search';
 
 export interface SearchParams {
   q: string;
