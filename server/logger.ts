@@ -1,8 +1,8 @@
 import pino from 'pino';
 
-/** Structured logs; credentials, cookies and tokens are never written. */
-export function createLogger(level = process.env.LOG_LEVEL ?? 'info') {
-  return pino({
+/** Structured logs; credentials, cookies and tokens are never written. `destination` defaults to stdout. */
+export function createLogger(level = process.env.LOG_LEVEL ?? 'info', destination?: pino.DestinationStream) {
+  const options: pino.LoggerOptions = {
     level,
     redact: {
       paths: [
@@ -17,5 +17,6 @@ export function createLogger(level = process.env.LOG_LEVEL ?? 'info') {
       ],
       censor: '[redacted]',
     },
-  });
+  };
+  return destination ? pino(options, destination) : pino(options);
 }

@@ -27,7 +27,19 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
     proxy: config.trustProxy !== false,
     cookie: { httpOnly: true, sameSite: 'lax', secure, path: '/', maxAge: config.sessionIdleMs },
   });
-  return { middleware, store };
+  // express-session reports a failed save or touch (database away) through next(err) after the
+  // response is already written; that second error would reach Express's final handler, which
+  // destroys the socket mid-response. Log it instead: the response itself stands.
+  const guarded: RequestHandler = (req, res, next) =>
+    middleware(req, res, (err?: unknown) => {
+      if (err && res.headersSent) {
+        const e = err as { code?: string; message?: string };
+        req.log?.warn({ code: e.code, msg: e.message }, 'session not saved after the response');
+        return;
+      }
+      next(err);
+    });
+  return { middleware: guarded, store };
 }
 
 /** Ends sessions older than the absolute limit, whatever their activity. */

@@ -39,7 +39,9 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   if (!err || typeof err !== 'object') return false;
   const e = err as { code?: string; message?: string; cause?: unknown };
   if (e.code && DB_DOWN_CODES.has(e.code)) return true;
-  if (/Connection terminated|timeout exceeded when trying to connect|connect ECONNREFUSED/i.test(e.message ?? '')) return true;
+  // "Cannot use a pool after calling end": pg-pool's answer once the pool has been ended (shutting down).
+  // "not queryable": pg's answer when a transaction's ROLLBACK runs on a connection the restart already cut.
+  if (/Connection terminated|timeout exceeded when trying to connect|connect ECONNREFUSED|Cannot use a pool after calling end|not queryable/i.test(e.message ?? '')) return true;
   return e.cause ? isDatabaseUnavailable(e.cause) : false;
 }
 

@@ -7,11 +7,13 @@ export const roleListSchema = z
   .min(1, 'give at least one role')
   .transform((roles) => [...new Set(roles)]);
 
-export const inviteBody = z.object({
-  email: emailSchema,
-  displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters'),
-  roles: roleListSchema,
-});
+export const inviteBody = z
+  .object({
+    email: emailSchema,
+    displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters'),
+    roles: roleListSchema,
+  })
+  .strict();
 
 export const updatePersonBody = z
   .object({

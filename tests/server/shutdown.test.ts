@@ -47,7 +47,8 @@ describe('SIGTERM under load', () => {
         (err: Error) => ({ status: 0, err: err.message }),
       ),
     );
-    await new Promise((r) => setTimeout(r, 50));
+    // Let every request reach the server (argon2 then keeps them in flight for a while).
+    await new Promise((r) => setTimeout(r, 300));
     const signalAt = Date.now();
     child.kill('SIGTERM');
     const results = await Promise.all(inFlight);

@@ -1,4 +1,5 @@
 import { useEffect, useState } from 'react';
+import { DataTable } from '@/components/ui/data-table';
 import { Link, useParams } from 'react-router-dom';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
@@ -73,40 +74,27 @@ export default function UnitPage() {
       <section>
         <h2 className="mb-2 text-lg font-semibold">Bench runs on this unit</h2>
         {runs.length ? (
-          <div className="overflow-x-auto rounded-lg border border-rule bg-card">
-            <table className="w-full text-left text-sm">
-              <thead className="border-b border-rule bg-paper-deep">
-                <tr>
-                  <th className="px-3 py-2">Started</th>
-                  <th className="px-3 py-2">Procedure</th>
-                  <th className="px-3 py-2">Mains</th>
-                  <th className="px-3 py-2">Technician</th>
-                  <th className="px-3 py-2">Status</th>
-                </tr>
-              </thead>
-              <tbody>
-                {runs.map((r) => (
-                  <tr key={r.id} className="border-b border-rule last:border-0">
-                    <td className="px-3 py-2">{new Date(r.startedAt).toLocaleString()}</td>
-                    <td className="px-3 py-2">
-                      <Link to={r.status === 'signed' ? paths.runSheet.href(r.id) : paths.run.href(r.id)} className="font-semibold text-accent-deep underline">
-                        {r.title}
-                      </Link>{' '}
-                      <span className="text-graphite-soft">rev. {r.revisionNumber}</span>
-                    </td>
-                    <td className="value px-3 py-2">
-                      {r.params.mainsVoltage} V / {r.params.mainsFrequency} Hz
-                    </td>
-                    <td className="px-3 py-2">{r.startedBy.displayName}</td>
-                    <td className="px-3 py-2">
-                      {r.status === 'signed' ? 'Signed' : 'In progress'}
-                      {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable columns={['Started', 'Procedure', 'Mains', 'Technician', 'Status']}>
+            {runs.map((r) => (
+              <tr key={r.id} className="border-b border-rule last:border-0">
+                <td className="px-3 py-2">{new Date(r.startedAt).toLocaleString()}</td>
+                <td className="px-3 py-2">
+                  <Link to={r.status === 'signed' ? paths.runSheet.href(r.id) : paths.run.href(r.id)} className="font-semibold text-accent-deep underline">
+                    {r.title}
+                  </Link>{' '}
+                  <span className="text-graphite-soft">rev. {r.revisionNumber}</span>
+                </td>
+                <td className="value px-3 py-2">
+                  {r.params.mainsVoltage} V / {r.params.mainsFrequency} Hz
+                </td>
+                <td className="px-3 py-2">{r.startedBy.displayName}</td>
+                <td className="px-3 py-2">
+                  {r.status === 'signed' ? 'Signed' : 'In progress'}
+                  {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
+                </td>
+              </tr>
+            ))}
+          </DataTable>
         ) : (
           <p className="text-sm text-graphite-soft">No bench runs on this unit yet.</p>
         )}

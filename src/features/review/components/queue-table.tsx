@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom';
+import { DataTable } from '@/components/ui/data-table';
 import type { QueueItem } from '@shared/schemas/review';
 import { paths } from '@/config/paths';
 import { formatAge, formatUtc } from './format';
@@ -7,41 +8,28 @@ import { formatAge, formatUtc } from './format';
 export function QueueTable({ items }: { items: QueueItem[] }) {
   if (!items.length) return <p className="text-graphite-soft">Nothing is waiting for review.</p>;
   return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-card">
-      <table aria-label="Review queue" className="w-full text-left text-sm">
-        <thead className="border-b border-rule bg-paper-deep">
-          <tr>
-            <th className="px-3 py-2">Procedure</th>
-            <th className="px-3 py-2">Revision</th>
-            <th className="px-3 py-2">Author</th>
-            <th className="px-3 py-2">Submitted</th>
-            <th className="px-3 py-2">Waiting</th>
-          </tr>
-        </thead>
-        <tbody>
-          {items.map((i) => (
-            <tr key={i.revisionId} className="border-b border-rule last:border-0">
-              <td className="px-3 py-2">
-                <Link to={paths.reviewRevision.href(i.revisionId)} className="font-semibold text-accent-deep underline">
-                  {i.title}
-                </Link>{' '}
-                <span className="text-graphite-soft">{i.equipmentModel}</span>
-                {i.ownWork && <span className="ml-2 rounded border border-rule px-1 text-xs">your work — another reviewer decides</span>}
-              </td>
-              <td className="px-3 py-2">
-                <span className="value">{i.number}</span>
-              </td>
-              <td className="px-3 py-2">{i.author.displayName}</td>
-              <td className="px-3 py-2">
-                <time dateTime={i.submittedAt}>{formatUtc(i.submittedAt)}</time>
-              </td>
-              <td className="px-3 py-2">
-                <span className="value">{formatAge(i.ageSeconds)}</span>
-              </td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <DataTable columns={['Procedure', 'Revision', 'Author', 'Submitted', 'Waiting']} label="Review queue">
+      {items.map((i) => (
+        <tr key={i.revisionId} className="border-b border-rule last:border-0">
+          <td className="px-3 py-2">
+            <Link to={paths.reviewRevision.href(i.revisionId)} className="font-semibold text-accent-deep underline">
+              {i.title}
+            </Link>{' '}
+            <span className="text-graphite-soft">{i.equipmentModel}</span>
+            {i.ownWork && <span className="ml-2 rounded border border-rule px-1 text-xs">your work — another reviewer decides</span>}
+          </td>
+          <td className="px-3 py-2">
+            <span className="value">{i.number}</span>
+          </td>
+          <td className="px-3 py-2">{i.author.displayName}</td>
+          <td className="px-3 py-2">
+            <time dateTime={i.submittedAt}>{formatUtc(i.submittedAt)}</time>
+          </td>
+          <td className="px-3 py-2">
+            <span className="value">{formatAge(i.ageSeconds)}</span>
+          </td>
+        </tr>
+      ))}
+    </DataTable>
   );
 }
