@@ -6,7 +6,10 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
 import { PORTS, projectRoot, testClusterName } from '../../server/bootstrap/prepare';
-import { startCluster, stopCluster, type Cluster } from '../../server/bootstrap/postgres';
+import { dropDatabase, startCluster, stopCluster, type Cluster } from '../../server/bootstrap/postgres';
+import { createDb, createPool } from '../../server/db/client';
+import { signatures } from '../../server/db/schema';
+import { verifySignature } from '../../server/modules/review/signatures';
 import { tinyPng } from '../support/png';
 import { createTestApp, type TestApp } from '../support/test-app';
 
@@ -17,6 +20,7 @@ const work = mkdtempSync(path.join(tmpdir(), 'bw-backup-test-'));
 beforeAll(async () => {
   t = await createTestApp();
   fresh = startCluster({ name: testClusterName('restore'), port: PORTS.restoreDb, projectRoot });
+  await dropDatabase(fresh.adminUrl, 'benchwright_restored'); // left from an earlier run
 });
 afterAll(async () => {
   await t.close();
@@ -42,7 +46,7 @@ async function fingerprint(url: string) {
 }
 
 describe('backup and restore', () => {
-  it('restores into a fresh cluster with the same rows in every table and every upload intact', async () => {
+  it('restores into a fresh cluster with the same rows in every table, every signature verifying and every upload intact', async () => {
     const hal = await t.as('hal');
     const up = await hal.post('/api/attachments').attach('file', tinyPng(), { filename: 'reservoir.png', contentType: 'image/png' });
     expect(up.status).toBe(201);
@@ -67,6 +71,17 @@ describe('backup and restore', () => {
     for (const r of rows) {
       const bytes = readFileSync(path.join(restoredUploads, r.stored_name));
       expect(createHash('sha256').update(bytes).digest('hex')).toBe(r.sha256);
+    }
+
+    // Every reviewer signature recomputes to its content hash in the restored database.
+    const restoredPool = createPool(restoredUrl);
+    try {
+      const restoredDb = createDb(restoredPool);
+      const sigs = await restoredDb.select().from(signatures);
+      expect(sigs.length).toBeGreaterThan(0);
+      for (const sig of sigs) expect((await verifySignature(restoredDb, sig)).verified, `signature ${sig.id}`).toBe(true);
+    } finally {
+      await restoredPool.end();
     }
 
     // Restoring over an existing database is refused.
