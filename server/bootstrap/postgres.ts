@@ -38,7 +38,8 @@ export function pgBinDir(): string {
 function runPg(tool: string, args: string[]) {
   const bin = path.join(pgBinDir(), tool);
   const [cmd, argv] = isRoot ? ['runuser', ['-u', 'postgres', '--', bin, ...args]] : [bin, args];
-  return spawnSync(cmd, argv, { encoding: 'utf8' });
+  // cwd '/': the postgres user may not be allowed into the folder we were started from.
+  return spawnSync(cmd, argv, { encoding: 'utf8', cwd: '/' });
 }
 
 function postgresCanReach(dir: string): boolean {
@@ -56,7 +57,9 @@ function resolveDataDir(opts: ClusterOptions): string {
   mkdirSync(local, { recursive: true });
   if (postgresCanReach(local)) return path.join(local, `pg-${opts.name}`);
   const key = createHash('sha1').update(opts.projectRoot).digest('hex').slice(0, 10);
-  const fallback = `/var/lib/postgresql/benchwright-${key}/pg-${opts.name}`;
+  const base = `/var/lib/postgresql/benchwright-${key}`;
+  ensureOwnedDir(base);
+  const fallback = `${base}/pg-${opts.name}`;
   console.log(`[benchwright] the postgres user cannot enter ${local}; cluster kept at ${fallback}`);
   return fallback;
 }
@@ -77,7 +80,8 @@ function readOrCreatePassword(opts: ClusterOptions): string {
 
 function initCluster(dataDir: string, password: string, port: number) {
   ensureOwnedDir(dataDir);
-  const pwFile = path.join(dataDir, '..', `.pw-${process.pid}`);
+  // The password file must be readable by the postgres user; /tmp always is reachable.
+  const pwFile = path.join('/tmp', `bw-pw-${process.pid}-${randomBytes(6).toString('hex')}`);
   writeFileSync(pwFile, password + '\n', { mode: 0o600 });
   if (isRoot) execFileSync('chown', ['postgres:postgres', pwFile]);
   try {
@@ -100,7 +104,7 @@ function initCluster(dataDir: string, password: string, port: number) {
   const confPath = path.join(dataDir, 'postgresql.conf');
   // Append as the owning user so file ownership stays with postgres.
   const append = isRoot
-    ? spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${confPath}'`], { input: conf })
+    ? spawnSync('runuser', ['-u', 'postgres', '--', 'sh', '-c', `cat >> '${confPath}'`], { input: conf, cwd: '/' })
     : spawnSync('sh', ['-c', `cat >> '${confPath}'`], { input: conf });
   if (append.status !== 0) throw new Error(`could not write ${confPath}`);
 }
