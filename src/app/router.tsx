@@ -2,6 +2,12 @@ import { createBrowserRouter, RouterProvider } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { AppLayout } from '@/components/layouts/app-layout';
 import { RouteError } from './routes/route-error';
+import { queryClient } from '@/lib/query-client';
+import { sessionQueryOptions } from '@/features/auth/api/get-session';
+import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
+
+// Who is signed in is needed by every page: ask at once, while the first route's code loads.
+void queryClient.prefetchQuery(sessionQueryOptions());
 
 const router = createBrowserRouter([
   {
@@ -22,7 +28,15 @@ const router = createBrowserRouter([
       { path: paths.procedures.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/list')).default }) },
       { path: paths.newProcedure.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/new')).default }) },
       { path: paths.procedure.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/procedure')).default }) },
-      { path: paths.revision.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/revision')).default }) },
+      {
+        path: paths.revision.pattern,
+        // Fetch the revision alongside the page's code, not after it.
+        loader: ({ params }) => {
+          void queryClient.prefetchQuery(revisionQueryOptions(params.revisionId!));
+          return null;
+        },
+        lazy: async () => ({ Component: (await import('./routes/procedures/revision')).default }),
+      },
       // The editor chunk: the only importer of @tiptap/*.
       { path: paths.editRevision.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/edit-revision')).default }) },
       { path: paths.search.pattern, lazy: async () => ({ Component: (await import('./routes/search')).default }) },

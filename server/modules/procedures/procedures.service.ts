@@ -91,8 +91,22 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
 
 export async function listProcedures(db: Db, user: SessionUser): Promise<ProcedureListItem[]> {
   const visible = seesDrafts(user) ? undefined : inArray(revisions.state, PUBLISHED);
+  // Only the listing columns: documents and snapshots stay in the database.
   const rows = await db
-    .select({ p: procedures, r: revisions, owner: { id: people.id, displayName: people.displayName } })
+    .select({
+      p: { id: procedures.id },
+      r: {
+        id: revisions.id,
+        number: revisions.number,
+        state: revisions.state,
+        title: revisions.title,
+        equipmentFamily: revisions.equipmentFamily,
+        equipmentModel: revisions.equipmentModel,
+        tags: revisions.tags,
+        updatedAt: revisions.updatedAt,
+      },
+      owner: { id: people.id, displayName: people.displayName },
+    })
     .from(procedures)
     .innerJoin(revisions, eq(revisions.procedureId, procedures.id))
     .innerJoin(people, eq(people.id, procedures.ownerId))
