@@ -7,6 +7,7 @@ import { hashPassword } from '../auth/passwords';
 import type { Db } from './client';
 import { people } from './schema';
 import { seedDemoProcedures } from './seed-procedures';
+import { seedDemoBench } from './seed-runs';
 
 export const contentSeedDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../content-seed');
 
@@ -40,4 +41,6 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
   log(`demo people: ${added} added, ${demo.length - added} already present`);
   const procs = await seedDemoProcedures(db, contentSeedDir);
   log(`demo procedures: ${procs.added} added, ${procs.present} already present`);
+  const bench = await seedDemoBench(db, contentSeedDir, log);
+  log(`demo units: ${bench.units.added} added, ${bench.units.present} already present; demo bench runs: ${bench.runs.added} added, ${bench.runs.present} already present, ${bench.runs.skipped} skipped`);
 }

@@ -1,0 +1,242 @@
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { and, eq, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { entryBody, startRunBody } from '../../shared/schemas/runs';
+import type { SessionUser } from '../http/route';
+import { revisionContentHash } from '../modules/review/signed-content';
+import { runContentHash } from '../modules/runs/run-hash';
+import { isFinished } from '../modules/runs/run-steps';
+import { runContent, unitRecordOf } from '../modules/runs/run-view';
+import { recordEntry, startRun, type Tx } from '../modules/runs/runs.service';
+import type { Db } from './client';
+import { auditLog, people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
+
+const email = z.email();
+const instant = z.iso.datetime({ offset: true });
+
+const unitsFile = z.object({
+  units: z.array(
+    z
+      .object({
+        model: z.string().trim().min(1).max(80),
+        serial: z.string().trim().min(1).max(80),
+        owner: z.string().max(200).default(''),
+        jobNumber: z.string().max(80).default(''),
+        notes: z.string().max(4000).default(''),
+        registeredBy: email,
+        registeredAt: instant.optional(),
+      })
+      .strict(),
+  ),
+});
+
+const runsFile = z.object({
+  runs: z.array(
+    z
+      .object({
+        key: z.string().regex(/^[a-z0-9-]+$/),
+        procedure: z.string(),
+        unit: z.object({ model: z.string(), serial: z.string() }).strict(),
+        technician: email,
+        mains: z.object({ voltage: z.number(), frequency: z.number() }).strict(),
+        startedAt: instant,
+        /** A signed run sheet: every step finished, signed at this time. */
+        signedAt: instant.optional(),
+        /** An open run: every step up to and including this one is finished. */
+        through: z.string().optional(),
+        readings: z.record(z.string(), z.string()),
+        notes: z.record(z.string(), z.string()).default({}),
+      })
+      .strict()
+      .refine((r) => !!r.signedAt !== !!r.through, 'give either signedAt (a signed run) or through (an open run)'),
+  ),
+});
+
+export type SeedUnit = z.infer<typeof unitsFile>['units'][number];
+export type SeedRun = z.infer<typeof runsFile>['runs'][number];
+
+function readJson<T extends z.ZodType>(dir: string, file: string, schema: T): z.infer<T> | null {
+  const full = path.join(dir, file);
+  if (!existsSync(full)) return null;
+  const parsed = schema.safeParse(JSON.parse(readFileSync(full, 'utf8')));
+  if (!parsed.success) throw new Error(`content-seed/${file}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  return parsed.data;
+}
+
+export const readDemoUnits = (dir: string): SeedUnit[] => readJson(dir, 'units.json', unitsFile)?.units ?? [];
+export const readDemoRuns = (dir: string): SeedRun[] => readJson(dir, 'runs.json', runsFile)?.runs ?? [];
+
+/** A stable UUID (RFC 9562 version 8, name-based on SHA-256) for a demo row, so a second seeding finds the first. */
+export function demoUuid(name: string): string {
+  const h = createHash('sha256').update(`benchwright demo content: ${name}`, 'utf8').digest('hex');
+  const variant = ((parseInt(h[16]!, 16) & 0x3) | 0x8).toString(16);
+  const hex = `${h.slice(0, 12)}8${h.slice(13, 16)}${variant}${h.slice(17, 32)}`;
+  return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-${hex.slice(12, 16)}-${hex.slice(16, 20)}-${hex.slice(20, 32)}`;
+}
+
+async function personByEmail(db: Db | Tx, address: string): Promise<SessionUser | undefined> {
+  const [p] = await db.select().from(people).where(eq(people.email, address));
+  return p ? { id: p.id, email: p.email, displayName: p.displayName, roles: p.roles } : undefined;
+}
+
+const findUnit = async (db: Db | Tx, model: string, serial: string) =>
+  (await db.select().from(units).where(and(sql`lower(${units.model}) = lower(${model})`, sql`lower(${units.serial}) = lower(${serial})`)))[0];
+
+/** Demo units by model + serial; one already registered (whatever people changed on it) is left alone. */
+export async function seedDemoUnits(db: Db, dir: string) {
+  let added = 0;
+  let present = 0;
+  for (const u of readDemoUnits(dir)) {
+    if (await findUnit(db, u.model, u.serial)) {
+      present++;
+      continue;
+    }
+    const by = await personByEmail(db, u.registeredBy);
+    if (!by) throw new Error(`demo unit ${u.model} ${u.serial}: no person ${u.registeredBy}`);
+    const at = u.registeredAt ? new Date(u.registeredAt) : undefined;
+    const inserted = await db
+      .insert(units)
+      .values({ model: u.model, serial: u.serial, owner: u.owner, jobNumber: u.jobNumber, notes: u.notes, createdBy: by.id, ...(at ? { createdAt: at, updatedAt: at } : {}) })
+      .onConflictDoNothing()
+      .returning({ id: units.id });
+    if (inserted.length) added++;
+    else present++;
+  }
+  return { added, present };
+}
+
+class SkipRun extends Error {}
+
+/**
+ * Writes a technician's signature on a run sheet exactly as signRun does (same checks, same
+ * canonical content hash, same rows and audit entry), without the password re-entry a seeder
+ * cannot give and without the out-of-tolerance mail. The time is the given one, so demo history
+ * can be dated in the past; the database does not force now() on run signatures.
+ */
+export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, signedAt: Date) {
+  const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+  if (!run || run.status === 'signed') throw new Error(`run ${runId} is already signed`);
+  const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+  const byStep = new Map(entries.map((e) => [e.stepId, e]));
+  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
+  if (unfinished.length) throw new Error(`run ${runId}: ${unfinished.length} steps are not finished (${unfinished.map((s) => s.id).join(', ')})`);
+  const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
+  if ((await revisionContentHash(tx, revision!)) !== run.revisionHash) throw new Error(`run ${runId}: its revision changed since the run started`);
+  const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
+  const unitRecord = unitRecordOf(unit!);
+  const contentHash = runContentHash(await runContent(tx, run, unitRecord));
+  const outOfTolerance = entries.some((e) => e.within === false);
+  const meaning = 'performed' as const;
+  const [signature] = await tx
+    .insert(runSignatures)
+    .values({
+      runId,
+      signerId: signer.id,
+      signerName: signer.displayName,
+      signerRole: 'technician',
+      meaning,
+      reason: null,
+      contentHash,
+      revisionId: run.revisionId,
+      revisionHash: run.revisionHash,
+      requestId: 'demo-content',
+      signedAt,
+    })
+    .returning();
+  await tx
+    .update(runs)
+    .set({ status: 'signed', signedAt, contentHash, unitRecord, outOfTolerance })
+    .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
+  await tx.insert(auditLog).values({
+    action: 'run.signed',
+    actorId: signer.id,
+    subject: `run ${runId}`,
+    details: { contentHash, revisionId: run.revisionId, meaning, outOfTolerance },
+    ip: null,
+    at: signedAt,
+  });
+  return { signature: signature!, outOfTolerance };
+}
+
+/**
+ * One demo run, in one transaction: started on the procedure's approved revision at the bench's
+ * mains, every entry through the same recordEntry the API uses (the server decides each reading),
+ * then dated and, for a signed run, signed.
+ */
+async function seedOneRun(db: Db, r: SeedRun) {
+  const [procedure] = await db.select().from(procedures).where(eq(procedures.seedKey, r.procedure));
+  if (!procedure) throw new SkipRun(`no procedure ${r.procedure}`);
+  const [revision] = await db.select().from(revisions).where(and(eq(revisions.procedureId, procedure.id), eq(revisions.state, 'approved')));
+  if (!revision) throw new SkipRun(`${r.procedure} has no approved revision`);
+  const unit = await findUnit(db, r.unit.model, r.unit.serial);
+  if (!unit) throw new SkipRun(`no unit ${r.unit.model} ${r.unit.serial}`);
+  const tech = await personByEmail(db, r.technician);
+  if (!tech?.roles.includes('technician')) throw new SkipRun(`${r.technician} is not a technician`);
+  const startedAt = new Date(r.startedAt);
+  const [sameVisit] = await db.select({ id: runs.id }).from(runs).where(and(eq(runs.unitId, unit.id), eq(runs.startedAt, startedAt)));
+  if (sameVisit) return false;
+
+  const body = startRunBody.parse({ revisionId: revision.id, unitId: unit.id, mainsVoltage: r.mains.voltage, mainsFrequency: r.mains.frequency, key: demoUuid(`run ${r.key}`) });
+  await db.transaction(async (tx) => {
+    const asDb = tx as unknown as Db;
+    const { run, created } = await startRun(asDb, tech, body);
+    if (!created) throw new SkipRun('already started');
+    const last = r.through ? run.steps.findIndex((s) => s.id === r.through) : run.steps.length - 1;
+    if (last < 0) throw new SkipRun(`revision ${revision.number} of ${r.procedure} has no step ${r.through}`);
+    const todo = run.steps.slice(0, last + 1);
+    const unknown = [...Object.keys(r.readings), ...Object.keys(r.notes)].filter((id) => !todo.some((s) => s.id === id));
+    const missing = todo.filter((s) => s.kind === 'reading' && r.readings[s.id] === undefined).map((s) => s.id);
+    if (unknown.length || missing.length) {
+      throw new SkipRun(`revision ${revision.number} of ${r.procedure} does not match: ${[...unknown.map((id) => `no step ${id}`), ...missing.map((id) => `no reading for ${id}`)].join(', ')}`);
+    }
+    // Entries spread evenly between the start and the signature (two minutes apart on an open run).
+    const end = r.signedAt ? new Date(r.signedAt).getTime() : startedAt.getTime() + (todo.length + 1) * 120_000;
+    const gap = (end - startedAt.getTime()) / (todo.length + 1);
+    for (const [i, step] of todo.entries()) {
+      const note = r.notes[step.id];
+      const entry = entryBody.parse({
+        key: demoUuid(`run ${r.key} step ${step.id}`),
+        ...(step.kind === 'reading' ? { value: r.readings[step.id] } : { done: true }),
+        ...(note ? { note } : {}),
+      });
+      await recordEntry(asDb, tech, run.id, step.id, entry);
+      const at = new Date(startedAt.getTime() + Math.round((i + 1) * gap));
+      await tx.update(runEntries).set({ firstEnteredAt: at, enteredAt: at }).where(and(eq(runEntries.runId, run.id), eq(runEntries.stepId, step.id)));
+    }
+    await tx.update(runs).set({ startedAt }).where(eq(runs.id, run.id));
+    if (r.signedAt) await signDemoRun(tx, run.id, tech, new Date(r.signedAt));
+  });
+  return true;
+}
+
+/** Demo runs by seed key (and by unit + start time); one already there, open or signed, is never touched. */
+export async function seedDemoRuns(db: Db, dir: string, log: (line: string) => void = () => undefined) {
+  let added = 0;
+  let present = 0;
+  let skipped = 0;
+  for (const r of readDemoRuns(dir)) {
+    const [seen] = await db.select({ id: runs.id }).from(runs).where(eq(runs.startKey, demoUuid(`run ${r.key}`)));
+    if (seen) {
+      present++;
+      continue;
+    }
+    try {
+      if (await seedOneRun(db, r)) added++;
+      else present++;
+    } catch (err) {
+      if (!(err instanceof SkipRun)) throw err;
+      skipped++;
+      log(`demo run ${r.key} skipped: ${err.message}`);
+    }
+  }
+  return { added, present, skipped };
+}
+
+/** Demo units, then the demo bench runs on them. */
+export async function seedDemoBench(db: Db, dir: string, log: (line: string) => void = () => undefined) {
+  const u = await seedDemoUnits(db, dir);
+  const r = await seedDemoRuns(db, dir, log);
+  return { units: u, runs: r };
+}
