@@ -16,6 +16,7 @@ const PgStore = connectPgSimple(session);
 /** Sessions in PostgreSQL; httpOnly, SameSite=Lax, Secure (and the __Host- prefix) behind TLS. */
 export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
   const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
+  throttleTouches(store, Math.min(60_000, config.sessionIdleMs / 10));
   const secure = config.publicUrl.startsWith('https:');
   const middleware = session({
     name: secure ? '__Host-bw.sid' : 'bw.sid',
@@ -40,6 +41,26 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
       next(err);
     });
   return { middleware: guarded, store };
+}
+
+/**
+ * A rolling session would otherwise write its new expiry to PostgreSQL on every request. Writing
+ * it at most once per interval keeps reads read-only; the idle limit then ends a session up to one
+ * interval early, never late.
+ */
+function throttleTouches(store: session.Store, intervalMs: number) {
+  const touch = store.touch?.bind(store);
+  if (!touch) return;
+  const lastTouched = new Map<string, number>();
+  store.touch = (sid, sess, callback) => {
+    const now = Date.now();
+    if (now - (lastTouched.get(sid) ?? 0) < intervalMs) return callback?.();
+    if (lastTouched.size > 10_000) {
+      for (const [key, at] of lastTouched) if (now - at >= intervalMs) lastTouched.delete(key);
+    }
+    lastTouched.set(sid, now);
+    touch(sid, sess, callback);
+  };
 }
 
 /** Ends sessions older than the absolute limit, whatever their activity. */
