@@ -12,12 +12,12 @@ export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.u
 export const dataDir = path.join(projectRoot, '.data');
 
 /**
- * Ports: 5480 for the app, 54329 for npm start's cluster, 54339 for the test cluster.
+ * Ports: 5480 for the app (PORT), 54329 for npm start's cluster (BW_DB_PORT), 54339 for the test cluster.
  * BW_TEST_SLOT=n gives a parallel test run clusters of its own (54339+20n, and 54349+20n for
  * the restart test) and a client build of its own, so two people can run the tests in one checkout at once.
  */
 export const TEST_SLOT = Number(process.env.BW_TEST_SLOT ?? 0);
-export const PORTS = { app: 5480, mainDb: 54329, testDb: 54339 + TEST_SLOT * 20, healthDb: 54349 + TEST_SLOT * 20, restoreDb: 54350 + TEST_SLOT * 20 } as const;
+export const PORTS = { app: 5480, mainDb: Number(process.env.BW_DB_PORT ?? 54329), testDb: 54339 + TEST_SLOT * 20, healthDb: 54349 + TEST_SLOT * 20, restoreDb: 54350 + TEST_SLOT * 20 } as const;
 export const testClientDir = path.join(projectRoot, 'dist', `client-test-${TEST_SLOT}`);
 export const testClusterName = (base: string) => (TEST_SLOT ? `${base}-${TEST_SLOT}` : base);
 
