@@ -6,7 +6,8 @@ export function TrendPlot({ points, unit, label }: { points: TrendPoint[]; unit:
   if (!points.length) return <p className="text-sm text-graphite-soft">No measurements of this reading yet.</p>;
   const W = 640;
   const H = 260;
-  const pad = { l: 70, r: 20, t: 16, b: 44 };
+  // Right padding leaves room for the last visit's centred date label.
+  const pad = { l: 70, r: 56, t: 16, b: 44 };
   const values = points.flatMap((p) => [p.measured, p.low, p.high, p.expected].filter((v): v is number => v !== null));
   let lo = Math.min(...values);
   let hi = Math.max(...values);
