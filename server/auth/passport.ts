@@ -39,15 +39,26 @@ export function createPassport(db: Db) {
     }),
   );
 
+  // The person behind a session is re-read at most every PERSON_TTL_MS. Deactivation still takes
+  // effect at once (it deletes the person's session rows); a role change made here is forgotten at
+  // once through forgetPerson, one made by another server process within PERSON_TTL_MS.
+  const recent = new Map<string, { user: SessionUser | false; at: number }>();
   instance.serializeUser<string>((user, done) => done(null, (user as SessionUser).id));
   instance.deserializeUser<string>(async (id, done) => {
+    const hit = recent.get(id);
+    if (hit && Date.now() - hit.at < PERSON_TTL_MS) return done(null, hit.user);
     try {
       const [person] = await db.select().from(people).where(eq(people.id, id));
-      done(null, person && person.active ? toSessionUser(person) : false);
+      const user = person && person.active ? toSessionUser(person) : false;
+      if (recent.size > 5_000) recent.clear();
+      recent.set(id, { user, at: Date.now() });
+      done(null, user);
     } catch (err) {
       done(err);
     }
   });
 
-  return instance;
+  return Object.assign(instance, { forgetPerson: (id: string) => recent.delete(id) });
 }
+
+const PERSON_TTL_MS = 2_000;

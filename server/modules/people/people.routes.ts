@@ -114,6 +114,7 @@ export const peopleRoutes = [
         return { before, after: after! };
       });
       const { before, after } = updated;
+      (req.app.locals.passport as { forgetPerson(id: string): void }).forgetPerson(after.id);
       if (body.roles && before.roles.join() !== after.roles.join()) {
         await recordAudit(deps.db, { action: 'person.roles-changed', actorId: user!.id, subject: after.email, details: { from: before.roles, to: after.roles }, req });
       }
