@@ -1,5 +1,6 @@
-import { Node, mergeAttributes } from '@tiptap/core';
+import { Node } from '@tiptap/core';
 import { newBlockId } from '../../block-id';
+import { atomBlock } from '../atom-block';
 import { insertBlock } from '../insert-block';
 import { textAttribute } from '../json-attr';
 
@@ -14,22 +15,12 @@ declare module '@tiptap/core' {
 
 export const CheckStep = Node.create({
   name: 'checkStep',
-  group: 'block',
-  atom: true,
-  draggable: true,
-  selectable: true,
+  ...atomBlock('check-step'),
 
   addAttributes() {
     return { id: textAttribute('id'), text: textAttribute('text') };
   },
 
-  parseHTML() {
-    return [{ tag: 'div[data-type="check-step"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'check-step' })];
-  },
 
   addCommands() {
     return {

@@ -1,6 +1,7 @@
-import { Node, mergeAttributes } from '@tiptap/core';
+import { Node } from '@tiptap/core';
 import type { FileAttrs } from '@shared/document/schema';
 import { newBlockId } from '../../block-id';
+import { atomBlock } from '../atom-block';
 import { insertBlock } from '../insert-block';
 import { textAttribute } from '../json-attr';
 
@@ -15,10 +16,7 @@ declare module '@tiptap/core' {
 
 export const FileNode = Node.create({
   name: 'file',
-  group: 'block',
-  atom: true,
-  draggable: true,
-  selectable: true,
+  ...atomBlock('file'),
 
   addAttributes() {
     return {
@@ -29,13 +27,6 @@ export const FileNode = Node.create({
     };
   },
 
-  parseHTML() {
-    return [{ tag: 'div[data-type="file"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'file' })];
-  },
 
   addCommands() {
     return {

@@ -1,6 +1,7 @@
-import { Node, mergeAttributes } from '@tiptap/core';
+import { Node } from '@tiptap/core';
 import type { ImageAttrs } from '@shared/document/schema';
 import { newBlockId } from '../../block-id';
+import { atomBlock } from '../atom-block';
 import { insertBlock } from '../insert-block';
 import { textAttribute } from '../json-attr';
 
@@ -16,10 +17,7 @@ declare module '@tiptap/core' {
 /** An uploaded photo or drawing; the document keeps the attachment id, never the bytes or a URL. */
 export const ImageNode = Node.create({
   name: 'image',
-  group: 'block',
-  atom: true,
-  draggable: true,
-  selectable: true,
+  ...atomBlock('image', 'figure'),
 
   addAttributes() {
     return {
@@ -30,13 +28,6 @@ export const ImageNode = Node.create({
     };
   },
 
-  parseHTML() {
-    return [{ tag: 'figure[data-type="image"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['figure', mergeAttributes(HTMLAttributes, { 'data-type': 'image' })];
-  },
 
   addCommands() {
     return {

@@ -1,6 +1,7 @@
-import { Node, mergeAttributes } from '@tiptap/core';
+import { Node } from '@tiptap/core';
 import type { ReadingAttrs } from '@shared/document/schema';
 import { newBlockId } from '../../block-id';
+import { atomBlock } from '../atom-block';
 import { insertBlock } from '../insert-block';
 import { jsonAttribute, textAttribute } from '../json-attr';
 
@@ -16,10 +17,7 @@ declare module '@tiptap/core' {
 /** A measurement step: what, where, meter range, unit, expected value and tolerance. */
 export const Reading = Node.create({
   name: 'reading',
-  group: 'block',
-  atom: true,
-  draggable: true,
-  selectable: true,
+  ...atomBlock('reading'),
 
   addAttributes() {
     return {
@@ -33,13 +31,6 @@ export const Reading = Node.create({
     };
   },
 
-  parseHTML() {
-    return [{ tag: 'div[data-type="reading"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'reading' })];
-  },
 
   addCommands() {
     return {

@@ -1,7 +1,8 @@
-import { Node, mergeAttributes } from '@tiptap/core';
+import { Node } from '@tiptap/core';
 import type { InputValue, ReckonerAttrs } from '@shared/document/schema';
 import { getReckoner, type FieldSpec } from '@shared/reckoners';
 import { newBlockId } from '../../block-id';
+import { atomBlock } from '../atom-block';
 import { insertBlock } from '../insert-block';
 import { jsonAttribute, textAttribute } from '../json-attr';
 
@@ -47,10 +48,7 @@ export function freshName(kind: string, taken: Set<string>): string {
 /** A live calculation block: kind, name, inputs; outputs are computed, never stored in the node. */
 export const Reckoner = Node.create({
   name: 'reckoner',
-  group: 'block',
-  atom: true,
-  draggable: true,
-  selectable: true,
+  ...atomBlock('reckoner'),
 
   addAttributes() {
     return {
@@ -61,13 +59,6 @@ export const Reckoner = Node.create({
     };
   },
 
-  parseHTML() {
-    return [{ tag: 'div[data-type="reckoner"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'reckoner' })];
-  },
 
   addCommands() {
     return {
