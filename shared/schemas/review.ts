@@ -67,7 +67,9 @@ export interface DiffLine {
 }
 export interface ValueChange {
   kind: 'output' | 'reading' | 'parameter';
+  /** Block name, reading label, or "Parameters". */
   subject: string;
+  /** Output label, "expected", "tolerance", "band", or the parameter's label. */
   label: string;
   before: string | null;
   after: string | null;

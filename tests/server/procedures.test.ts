@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { fuseBlock, params } from '../support/documents';
 import { createTestApp, type TestApp } from '../support/test-app';
 
 let t: TestApp;
@@ -8,23 +9,7 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const meta = { title: 'TC-18 mains fuse check', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: ['Fuse', 'first power-up'] };
-const params = { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 };
 
-const fuseBlock = (amps: string) => ({
-  type: 'reckoner',
-  attrs: {
-    id: 'fuse-block-1',
-    name: 'fuse',
-    kind: 'mains-fuse',
-    inputs: {
-      windings: [
-        { label: 'HT', volts: '300 V', amps: amps },
-        { label: 'Heaters', volts: '6.3 V', amps: '2.5 A' },
-      ],
-      mainsVoltage: { param: 'mainsVoltage' },
-    },
-  },
-});
 const docWith = (...blocks: unknown[]) => ({ type: 'doc', content: [{ type: 'heading', attrs: { level: 2 }, content: [{ type: 'text', text: 'Fuse' }] }, ...blocks] });
 
 async function newDraft(author = 'hal' as const) {

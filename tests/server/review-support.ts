@@ -1,27 +1,12 @@
 import { expect } from 'vitest';
+import { fuseBlock, params } from '../support/documents';
 import type { TestApp } from '../support/test-app';
 import { demo } from '../support/test-app';
 
 type Who = keyof typeof demo;
 export type Client = Awaited<ReturnType<TestApp['as']>>;
 
-export const params = { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 };
-
-export const fuseBlock = (htAmps: string) => ({
-  type: 'reckoner',
-  attrs: {
-    id: 'fuse-block-1',
-    name: 'fuse',
-    kind: 'mains-fuse',
-    inputs: {
-      windings: [
-        { label: 'HT', volts: '300 V', amps: htAmps },
-        { label: 'Heaters', volts: '6.3 V', amps: '2.5 A' },
-      ],
-      mainsVoltage: { param: 'mainsVoltage' },
-    },
-  },
-});
+export { fuseBlock, params };
 
 export const reading = (tolerance: string, expected = '350 V') => ({
   type: 'reading',

@@ -4,17 +4,10 @@
  */
 import type { Snapshot } from '../../../../shared/document/evaluate';
 import { PARAM_SPECS } from '../../../../shared/document/params';
+import type { ValueChange } from '../../../../shared/schemas/review';
 import { formatQuantity } from '../../../../shared/units/format';
 
-export interface ValueChange {
-  kind: 'output' | 'reading' | 'parameter';
-  /** Block name, reading label, or "Parameters". */
-  subject: string;
-  /** Output label, "expected", "tolerance", "band", or the parameter's label. */
-  label: string;
-  before: string | null;
-  after: string | null;
-}
+export type { ValueChange };
 
 type Values = Map<string, { kind: ValueChange['kind']; subject: string; label: string; value: string }>;
 
