@@ -58,9 +58,20 @@ export async function startServer(opts: {
         server.closeIdleConnections();
       });
       (app.locals.sessionStore as { close(): void }).close();
-      await mailer?.stop();
-      await search.stop();
-      await pool.end();
+      // Each step is bounded: a connection left broken by a database restart must not hold up exit.
+      await settleWithin(3_000, mailer?.stop(), 'mail sender', logger);
+      await settleWithin(3_000, search.stop(), 'search listener', logger);
+      await settleWithin(3_000, pool.end(), 'database pool', logger);
     },
   };
+}
+
+/** Waits for a shutdown step, but no longer than `ms`; a step that overruns is logged and left. */
+async function settleWithin(ms: number, step: Promise<unknown> | undefined, what: string, logger: Logger) {
+  if (!step) return;
+  let timer: NodeJS.Timeout | undefined;
+  const overrun = new Promise<'overrun'>((resolve) => (timer = setTimeout(() => resolve('overrun'), ms)));
+  const outcome = await Promise.race([step.then(() => 'done' as const, () => 'done' as const), overrun]);
+  clearTimeout(timer);
+  if (outcome === 'overrun') logger.warn({ step: what, ms }, 'shutdown step did not finish in time; going on');
 }
