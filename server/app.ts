@@ -2,12 +2,12 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express from 'express';
 import helmet from 'helmet';
-import { pinoHttp } from 'pino-http';
 import { csrfProtection } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError } from './http/errors';
+import { requestLog } from './http/request-log';
 import { mountRoutes } from './http/route';
 import { routeTable } from './routes';
 
@@ -39,18 +39,13 @@ export function createApp(deps: AppDeps) {
       crossOriginEmbedderPolicy: false,
     }),
   );
-  app.use(
-    pinoHttp({
-      logger,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
-    }),
-  );
+  app.use(requestLog(logger, { skip: (url) => url === '/api/health' }));
 
   const passport = createPassport(db);
   const sessions = createSessionMiddleware(pool, config);
   app.locals.passport = passport;
   app.locals.sessionStore = sessions.store;
+  app.locals.forgetSessionsOf = sessions.forgetSessionsOf;
   app.locals.sessionCookieName = config.publicUrl.startsWith('https:') ? '__Host-bw.sid' : 'bw.sid';
 
   const api = express.Router();

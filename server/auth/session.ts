@@ -8,15 +8,26 @@ import { HttpError } from '../http/errors';
 declare module 'express-session' {
   interface SessionData {
     startedAt?: number;
+    /** When the idle limit was last pushed back (ms since the epoch). */
+    renewedAt?: number;
   }
 }
 
+/** How long a session read from PostgreSQL is served from memory. */
+const SESSION_READ_CACHE_MS = 2_000;
+
 const PgStore = connectPgSimple(session);
 
-/** Sessions in PostgreSQL; httpOnly, SameSite=Lax, Secure (and the __Host- prefix) behind TLS. */
+/**
+ * Sessions in PostgreSQL; httpOnly, SameSite=Lax, Secure (and the __Host- prefix) behind TLS.
+ * The idle limit is pushed back at most once per renewal interval (see renewIdleLimit), and reads
+ * are served from memory briefly (see cacheReads), so a plain read costs no database round trip.
+ */
 export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
   const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
-  throttleTouches(store, Math.min(60_000, config.sessionIdleMs / 10));
+  const cache = cacheReads(store, SESSION_READ_CACHE_MS);
+  // Renewal re-saves the session with its new expiry; a separate touch would only repeat that.
+  store.touch = (_sid, _sess, callback) => callback?.();
   const secure = config.publicUrl.startsWith('https:');
   const middleware = session({
     name: secure ? '__Host-bw.sid' : 'bw.sid',
@@ -24,7 +35,7 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
     store,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     proxy: config.trustProxy !== false,
     cookie: { httpOnly: true, sameSite: 'lax', secure, path: '/', maxAge: config.sessionIdleMs },
   });
@@ -40,26 +51,75 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
       }
       next(err);
     });
-  return { middleware: guarded, store };
+  const renew = renewIdleLimit(Math.min(60_000, config.sessionIdleMs / 10));
+  const withRenewal: RequestHandler = (req, res, next) => guarded(req, res, (err?: unknown) => (err ? next(err) : renew(req, res, next)));
+  return { middleware: withRenewal, store, forgetSessionsOf: cache.forgetSessionsOf };
 }
 
 /**
- * A rolling session would otherwise write its new expiry to PostgreSQL on every request. Writing
- * it at most once per interval keeps reads read-only; the idle limit then ends a session up to one
- * interval early, never late.
+ * Pushes a signed-in session's idle limit back when the last push is older than the interval: the
+ * change makes express-session save the session with its new expiry and send the cookie again
+ * with the new Expires. Other requests write nothing, to the database or to the response; the
+ * idle limit then ends a session up to one interval early, never late.
  */
-function throttleTouches(store: session.Store, intervalMs: number) {
-  const touch = store.touch?.bind(store);
-  if (!touch) return;
-  const lastTouched = new Map<string, number>();
-  store.touch = (sid, sess, callback) => {
-    const now = Date.now();
-    if (now - (lastTouched.get(sid) ?? 0) < intervalMs) return callback?.();
-    if (lastTouched.size > 10_000) {
-      for (const [key, at] of lastTouched) if (now - at >= intervalMs) lastTouched.delete(key);
+function renewIdleLimit(intervalMs: number): RequestHandler {
+  return (req, _res, next) => {
+    const s = req.session;
+    if (s && s.startedAt && Date.now() - (s.renewedAt ?? 0) >= intervalMs) s.renewedAt = Date.now();
+    next();
+  };
+}
+
+/**
+ * Serves a session read from memory for up to ttlMs after PostgreSQL gave it, and never past its
+ * expiry; every write and destroy made here goes to PostgreSQL first and then to memory. A sign-out
+ * or deactivation made by another server process reaches this one within ttlMs (deactivation also
+ * drops the person from the person cache, which refuses the session at once here).
+ */
+function cacheReads(store: session.Store, ttlMs: number) {
+  type Entry = { json: string; userId: string | undefined; readAt: number; expires: number };
+  const entries = new Map<string, Entry>();
+  const entryOf = (sess: session.SessionData): Entry => ({
+    json: JSON.stringify(sess),
+    userId: (sess as { passport?: { user?: string } }).passport?.user,
+    readAt: Date.now(),
+    expires: sess.cookie?.expires ? new Date(sess.cookie.expires).getTime() : Infinity,
+  });
+  const remember = (sid: string, sess: session.SessionData) => {
+    if (entries.size >= 10_000) {
+      const now = Date.now();
+      for (const [key, e] of entries) if (now - e.readAt >= ttlMs) entries.delete(key);
     }
-    lastTouched.set(sid, now);
-    touch(sid, sess, callback);
+    entries.set(sid, entryOf(sess));
+  };
+  const get = store.get.bind(store);
+  const set = store.set.bind(store);
+  const destroy = store.destroy.bind(store);
+  store.get = (sid, callback) => {
+    const hit = entries.get(sid);
+    const now = Date.now();
+    if (hit && now - hit.readAt < ttlMs && now < hit.expires) return callback(null, JSON.parse(hit.json) as session.SessionData);
+    entries.delete(sid);
+    get(sid, (err, sess) => {
+      if (!err && sess) remember(sid, sess);
+      callback(err, sess);
+    });
+  };
+  store.set = (sid, sess, callback) => {
+    entries.delete(sid);
+    set(sid, sess, (err?: unknown) => {
+      if (!err) remember(sid, sess);
+      callback?.(err);
+    });
+  };
+  store.destroy = (sid, callback) => {
+    entries.delete(sid);
+    destroy(sid, callback);
+  };
+  return {
+    forgetSessionsOf(userId: string) {
+      for (const [sid, e] of entries) if (e.userId === userId) entries.delete(sid);
+    },
   };
 }
 

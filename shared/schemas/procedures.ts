@@ -38,6 +38,40 @@ export const saveRevisionBody = procedureMetaSchema
 export type CreateProcedureBody = z.infer<typeof createProcedureBody>;
 export type SaveRevisionBody = z.input<typeof saveRevisionBody>;
 
+/** Columns the procedure list sorts by, on the server. */
+export const PROCEDURE_SORTS = ['title', 'equipment', 'state', 'updatedAt'] as const;
+export type ProcedureSort = (typeof PROCEDURE_SORTS)[number];
+export const PROCEDURE_PAGE_SIZES = [25, 50, 100, 200] as const;
+
+/** GET /api/procedures: filters, sort and one page; every field optional with a shop-sensible default. */
+export const procedureListQuery = z.object({
+  family: z.string().max(80, 'at most 80 characters').optional(),
+  tag: z.string().max(40, 'at most 40 characters').optional(),
+  state: z.enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state').optional(),
+  /** Only procedures with an approved revision: what a bench run may follow. */
+  runnable: z.enum(['true', 'false'], 'true or false').optional().transform((v) => v === 'true'),
+  sort: z.enum(PROCEDURE_SORTS, `one of ${PROCEDURE_SORTS.join(', ')}`).default('updatedAt'),
+  dir: z.enum(['asc', 'desc'], 'asc or desc').optional(),
+  offset: z.coerce.number('a whole number').int('a whole number').min(0, 'at least 0').max(1_000_000, 'at most 1,000,000').default(0),
+  limit: z.coerce.number('a whole number').int('a whole number').min(1, 'at least 1').max(200, 'at most 200').default(50),
+});
+export type ProcedureListQuery = z.input<typeof procedureListQuery>;
+
+export interface ProcedurePage {
+  procedures: ProcedureListItem[];
+  /** How many procedures match the filters, over all pages. */
+  total: number;
+  offset: number;
+  limit: number;
+}
+
+/** The values the list's filters offer: what occurs among the procedures the caller may see. */
+export interface ProcedureFacets {
+  families: string[];
+  tags: string[];
+  states: RevisionStateName[];
+}
+
 export interface RevisionView {
   id: string;
   procedureId: string;

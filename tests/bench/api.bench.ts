@@ -1,27 +1,30 @@
 /**
- * API load benchmark on loopback: the built app with the demo data plus 2,000 generated approved
- * procedures, 50 connections, a read mix (procedure page, list, search) and — when the bench-run
- * API is present — a write mix of bench-run entries; and, in the same run, a bare Express endpoint
- * returning fixed JSON as the ceiling. Prints figures; it is not a timed test.
+ * API load benchmark on loopback. The app runs in its own process (as `npm start` runs it) on the
+ * demo data plus 2,000 generated approved procedures; autocannon drives it from this process with
+ * 50 connections: a read mix (procedure reader page, a page of the procedure list, search) and a
+ * write mix of bench-run entries. In the same run a bare Express endpoint returning fixed JSON, also
+ * in its own process, gives the ceiling. First, each request alone (median of serial calls) shows
+ * what each costs without queueing. Prints figures and the CPU each process used; not a timed test.
  * Goals: zero errors; read throughput at least half the bare endpoint's; read p99 under 50 ms;
  * write p99 under 500 ms, and every 2xx entry stored once.
  */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { randomUUID } from 'node:crypto';
+import os from 'node:os';
 import autocannon from 'autocannon';
-import express from 'express';
+import { eq } from 'drizzle-orm';
 import { projectRoot, prepareDatabase } from '../../server/bootstrap/prepare';
 import { recreateDatabase, startCluster, stopCluster } from '../../server/bootstrap/postgres';
 import { createDb, createPool } from '../../server/db/client';
 import { people, revisions } from '../../server/db/schema';
-import { startServer } from '../../server/index';
-import { createLogger } from '../../server/logger';
 import { createProcedure } from '../../server/modules/procedures/procedures.service';
 import { generateCorpus } from '../support/search-corpus';
 import { httpSession } from '../support/http-session';
-import { eq } from 'drizzle-orm';
-import { randomUUID } from 'node:crypto';
+import { clusterPids, cpuMeter } from './process-cpu';
 
 const CONNECTIONS = 50;
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
+const SERIAL_CALLS = 60;
 
 const cluster = startCluster({ name: 'bench-api', port: 54498, projectRoot });
 await recreateDatabase(cluster.adminUrl, 'benchwright_bench_api');
@@ -45,106 +48,157 @@ let demoRevisionIds: string[] = [];
       document: { type: 'doc', content: p.body.split('\n').map((line) => ({ type: 'paragraph', content: [{ type: 'text', text: line }] })) },
     }, 'approved');
   }
+  await pool.query('ANALYZE');
   console.log(`library: 2,000 generated procedures added in ${((Date.now() - started) / 1000).toFixed(1)} s`);
   await pool.end();
 }
 
-const server = await startServer({ databaseUrl: url, port: 0, logger: createLogger('warn'), config: { sessionSecret: 'bench-api'.padEnd(40, 'x') } });
-const tech = httpSession(server.url);
+/** Starts a script in its own Node process and waits for its "READY <url>" line. */
+function startProcess(script: string, env: Record<string, string> = {}, nodeArgs: string[] = []) {
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'inherit'] });
+  return new Promise<{ child: ChildProcess; url: string }>((resolve, reject) => {
+    let out = '';
+    child.stdout!.on('data', (chunk: Buffer) => {
+      out += chunk.toString();
+      const m = /READY (\S+)/.exec(out);
+      if (m) resolve({ child, url: m[1]! });
+    });
+    child.once('exit', (code) => reject(new Error(`${script} exited with ${code} before it was ready`)));
+  });
+}
+const stopProcess = (child: ChildProcess) =>
+  new Promise<void>((resolve) => {
+    child.once('exit', () => resolve());
+    child.kill('SIGTERM');
+  });
+
+// BENCH_PROFILE=<dir> writes a V8 CPU profile of the app process there, for finding what to fix.
+const profile = process.env.BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
+// The app logs each request at info, as in production; the lines are read and dropped here.
+const app = await startProcess('tests/support/server-process.ts', { DATABASE_URL: url, LOG_LEVEL: 'info' }, profile);
+const bare = await startProcess('tests/bench/bare-server.ts');
+const tech = httpSession(app.url);
 await tech.signIn('tom@tallowcreek.example', 'tallow-bench-demo');
 const cookie = tech.cookieHeader();
-const list = (await tech.get('/api/procedures')).body as { procedures: { id: string }[] };
-const ids = list.procedures.slice(0, 200).map((p) => p.id);
+const list = (await tech.get('/api/procedures?limit=200')).body as { procedures: { approved: { id: string } | null }[] };
+const readerIds = list.procedures.flatMap((p) => (p.approved ? [p.approved.id] : []));
+const pick = <T>(xs: T[]) => xs[Math.floor(Math.random() * xs.length)]!;
+const QUERIES = ['B+ reservoir', 'slow-blow fuse', 'heater 6.3 V', 'bleeder', 'xfmr'];
 
-type Result = autocannon.Result;
-const run = (title: string, opts: Partial<autocannon.Options>) =>
-  new Promise<Result>((resolve, reject) =>
-    autocannon({ connections: CONNECTIONS, duration: DURATION_S, title, ...opts } as autocannon.Options, (err, res) => (err ? reject(err) : resolve(res))),
-  );
-
-const reads = await run('reads', {
-  url: server.url,
-  headers: { cookie },
-  requests: [
-    { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/procedures/${ids[Math.floor(Math.random() * ids.length)]}` }) },
-    { method: 'GET', path: '/api/procedures' },
-    { method: 'GET', setupRequest: (req) => ({ ...req, path: `/api/search?q=${encodeURIComponent(['B+ reservoir', 'slow-blow fuse', 'heater 6.3 V', 'bleeder', 'xfmr'][Math.floor(Math.random() * 5)]!)}` }) },
-  ],
-});
+// What the client asks for on each screen of the read mix.
+const readPaths = {
+  'procedure reader page': () => `/api/revisions/${pick(readerIds)}`,
+  'procedure list page': () => `/api/procedures?limit=50&offset=${50 * Math.floor(Math.random() * 40)}`,
+  search: () => `/api/search?q=${encodeURIComponent(pick(QUERIES))}`,
+};
 
 // The write mix: bench-run entries, each with a fresh idempotency key, spread over several runs
 // started (and their hazard notes acknowledged) before the load. Each run takes a row lock per
 // entry, so more runs means less queueing behind one run.
 const WRITE_RUNS = 25;
 type Step = { id: string; kind: string; reading?: { expected: number | null } };
+const headers = { 'content-type': 'application/json', cookie, 'x-csrf-token': tech.csrfToken() };
 const approvedWithReadings: { revisionId: string; readings: Step[]; hazards: Step[] }[] = [];
-for (const revisionId of demoRevisionIds) {
+async function startRunOn(revisionId: string) {
   const unit = await tech.post('/api/units', { model: 'TC-30H', serial: `BENCH-${randomUUID().slice(0, 8)}`, owner: 'Bench', jobNumber: 'J-0' });
   const started = await tech.post('/api/runs', { revisionId, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
-  const steps = (started.body.run as { steps?: Step[] } | undefined)?.steps ?? [];
+  if (started.status !== 201) throw new Error(`bench run did not start: ${started.status}`);
+  return started.body.run as { id: string; steps: Step[] };
+}
+for (const revisionId of demoRevisionIds) {
+  const steps = (await startRunOn(revisionId)).steps;
   if (steps.some((s) => s.kind === 'reading')) approvedWithReadings.push({ revisionId, readings: steps.filter((s) => s.kind === 'reading'), hazards: steps.filter((s) => s.kind === 'hazard') });
 }
 const writeTargets: { runId: string; step: Step }[] = [];
-const headers = { 'content-type': 'application/json', cookie, 'x-csrf-token': tech.csrfToken() };
 for (let i = 0; i < WRITE_RUNS && approvedWithReadings.length; i++) {
   const proc = approvedWithReadings[i % approvedWithReadings.length]!;
-  const unit = await tech.post('/api/units', { model: 'TC-30H', serial: `BENCH-${randomUUID().slice(0, 8)}`, owner: 'Bench', jobNumber: 'J-0' });
-  const started = await tech.post('/api/runs', { revisionId: proc.revisionId, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
-  if (started.status !== 201) throw new Error(`bench run did not start: ${started.status}`);
-  const runId = (started.body.run as { id: string }).id;
+  const run = await startRunOn(proc.revisionId);
   for (const h of proc.hazards) {
-    const ack = await fetch(`${server.url}/api/runs/${runId}/entries/${h.id}`, { method: 'PUT', headers, body: JSON.stringify({ key: randomUUID(), done: true }) });
+    const ack = await fetch(`${app.url}/api/runs/${run.id}/entries/${h.id}`, { method: 'PUT', headers, body: JSON.stringify({ key: randomUUID(), done: true }) });
     if (ack.status !== 200) throw new Error(`hazard note not acknowledged: ${ack.status}`);
   }
-  for (const step of proc.readings) writeTargets.push({ runId, step });
+  for (const step of proc.readings) writeTargets.push({ runId: run.id, step });
 }
 let writeN = 0;
-const writes = writeTargets.length
-  ? await run('writes', {
-      url: server.url,
-      headers,
-      requests: [
-        {
-          method: 'PUT',
-          setupRequest: (req) => {
-            const t = writeTargets[writeN++ % writeTargets.length]!;
-            const value = (t.step.reading?.expected ?? 10) * (1 + (writeN % 13) / 1000);
-            return { ...req, path: `/api/runs/${t.runId}/entries/${t.step.id}`, body: JSON.stringify({ key: randomUUID(), value, reason: 'bench: reading taken again' }) };
-          },
-        },
-      ],
-    })
-  : undefined;
+const nextWrite = () => {
+  const t = writeTargets[writeN++ % writeTargets.length]!;
+  const value = (t.step.reading?.expected ?? 10) * (1 + (writeN % 13) / 1000);
+  return { path: `/api/runs/${t.runId}/entries/${t.step.id}`, body: JSON.stringify({ key: randomUUID(), value, reason: 'bench: reading taken again' }) };
+};
 
-// The ceiling: a bare Express endpoint with fixed JSON, same machine, same connections.
-const bare = express();
-bare.get('/fixed', (_req, res) => res.json({ ok: true, procedures: 2004 }));
-const bareServer = bare.listen(0, '127.0.0.1');
-await new Promise((r) => bareServer.once('listening', r));
-const bareAddr = bareServer.address() as { port: number };
-const ceiling = await run('bare', { url: `http://127.0.0.1:${bareAddr.port}/fixed` });
-bareServer.close();
+// Each request alone: the median of serial calls, after a few to warm up.
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)]!;
+async function serial(label: string, call: () => Promise<Response>) {
+  const times: number[] = [];
+  let bytes = 0;
+  for (let i = 0; i < SERIAL_CALLS + 5; i++) {
+    const t0 = performance.now();
+    const res = await call();
+    const body = await res.arrayBuffer();
+    if (!res.ok) throw new Error(`${label}: ${res.status}`);
+    if (i >= 5) times.push(performance.now() - t0);
+    bytes = body.byteLength;
+  }
+  console.log(`  ${label.padEnd(28)} ${median(times).toFixed(2).padStart(6)} ms   ${(bytes / 1024).toFixed(1).padStart(6)} kB`);
+}
+console.log(`\nEach request alone — median of ${SERIAL_CALLS} serial calls, response size`);
+for (const [label, path] of Object.entries(readPaths)) await serial(label, () => fetch(app.url + path(), { headers: { cookie } }));
+await serial('list filters (facets)', () => fetch(`${app.url}/api/procedures/facets`, { headers: { cookie } }));
+if (writeTargets.length) await serial('bench-run entry write', () => {
+  const w = nextWrite();
+  return fetch(app.url + w.path, { method: 'PUT', headers, body: w.body });
+});
+// The floor of every signed-in request: security headers, request log, session, person, CSRF.
+await serial('signed-in floor (session)', () => fetch(`${app.url}/api/auth/session`, { headers: { cookie } }));
+await serial('bare Express fixed JSON', () => fetch(`${bare.url}/fixed`));
 
-const line = (label: string, r: Result) =>
-  console.log(
-    `  ${label.padEnd(26)} ${r.requests.average.toFixed(0).padStart(7)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   errors ${r.errors + r.timeouts}   non-2xx ${r.non2xx}`,
+type Result = autocannon.Result;
+const pgPids = () => clusterPids(cluster.dataDir);
+async function load(title: string, target: string, opts: Partial<autocannon.Options>) {
+  const meter = cpuMeter({ server: () => [target === bare.url ? bare.child.pid! : app.child.pid!], postgres: pgPids, generator: () => [process.pid] });
+  const result = await new Promise<Result>((resolve, reject) =>
+    autocannon({ url: target, connections: CONNECTIONS, duration: DURATION_S, title, ...opts } as autocannon.Options, (err, res) => (err ? reject(err) : resolve(res))),
   );
-console.log(`\nAPI benchmark — ${CONNECTIONS} connections, ${DURATION_S} s each, Node ${process.version}, ${cluster.port ? 'PostgreSQL on loopback' : ''}`);
-line('read mix (page/list/search)', reads);
+  return { result, cpu: meter.stop() };
+}
+
+const reads = await load('reads', app.url, {
+  headers: { cookie },
+  requests: Object.values(readPaths).map((path) => ({ method: 'GET' as const, setupRequest: (req: autocannon.Request) => ({ ...req, path: path() }) })),
+});
+// BENCH_EACH=1 also loads each read alone, to see which one holds the mix back.
+const each: [string, Awaited<ReturnType<typeof load>>][] = [];
+for (const [label, path] of process.env.BENCH_EACH ? [...Object.entries(readPaths), ['signed-in floor (session)', () => '/api/auth/session'] as const] : []) {
+  each.push([label, await load(label, app.url, { headers: { cookie }, requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }] })]);
+}
+const writes = writeTargets.length
+  ? await load('writes', app.url, { headers, requests: [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...nextWrite() }) }] })
+  : undefined;
+const ceiling = await load('bare', bare.url, { url: `${bare.url}/fixed` });
+
+const line = (label: string, { result: r, cpu }: { result: Result; cpu: Record<string, number> }) =>
+  console.log(
+    `  ${label.padEnd(30)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   errors ${r.errors + r.timeouts}   non-2xx ${r.non2xx}   CPU server ${cpu.server!.toFixed(0)} %, PostgreSQL ${cpu.postgres!.toFixed(0)} %, generator ${cpu.generator!.toFixed(0)} %`,
+  );
+console.log(`\nUnder load — ${CONNECTIONS} connections, ${DURATION_S} s each; Node ${process.version}, ${os.cpus().length} cores, PostgreSQL on loopback (CPU: % of one core)`);
+line('read mix (reader/list/search)', reads);
+for (const [label, r] of each) line(`  ${label} alone`, r);
 if (writes) line(`write mix (entries, ${WRITE_RUNS} runs)`, writes);
 else console.log('  write mix: no seeded approved procedure with readings; skipped');
 line('bare Express fixed JSON', ceiling);
-console.log(`  read throughput / bare: ${(reads.requests.average / ceiling.requests.average).toFixed(2)} (goal ≥ 0.5)`);
-console.log(`  read p99 ${reads.latency.p99} ms (goal < 50 ms); errors ${reads.errors + reads.non2xx} (goal 0)`);
+const ratio = reads.result.requests.average / ceiling.result.requests.average;
+console.log(`  read throughput / bare: ${ratio.toFixed(2)} (goal ≥ 0.5) — ${ratio >= 0.5 ? 'met' : 'NOT met'}`);
+console.log(`  read p99 ${reads.result.latency.p99} ms (goal < 50 ms) — ${reads.result.latency.p99 < 50 ? 'met' : 'NOT met'}; errors ${reads.result.errors + reads.result.non2xx} (goal 0)`);
 if (writes) {
   const pool = createPool(url);
   const stored = await pool.query<{ n: number }>(`SELECT count(*)::int AS n FROM run_entry_history WHERE reason = 'bench: reading taken again'`);
   await pool.end();
-  console.log(`  write p99 ${writes.latency.p99} ms (goal < 500 ms); errors ${writes.errors + writes.timeouts + writes.non2xx} (goal 0)`);
-  // Answers still on the wire when the timer ends are not counted, though their entries commit.
-  const surplus = stored.rows[0]!.n - writes['2xx'];
-  console.log(`  entries stored ${stored.rows[0]!.n} for ${writes['2xx']} counted 2xx (${surplus >= 0 && surplus <= CONNECTIONS ? 'consistent' : 'INCONSISTENT'}: surplus ${surplus} ≤ ${CONNECTIONS} cut off at the end)`);
+  const w = writes.result;
+  console.log(`  write p99 ${w.latency.p99} ms (goal < 500 ms) — ${w.latency.p99 < 500 ? 'met' : 'NOT met'}; errors ${w.errors + w.timeouts + w.non2xx} (goal 0)`);
+  // Stored = serial probe writes + load 2xx + answers still on the wire when the timer ended.
+  const surplus = stored.rows[0]!.n - SERIAL_CALLS - 5 - w['2xx'];
+  console.log(`  entries stored ${stored.rows[0]!.n} for ${w['2xx']} counted 2xx + ${SERIAL_CALLS + 5} serial (${surplus >= 0 && surplus <= CONNECTIONS ? 'consistent' : 'INCONSISTENT'}: surplus ${surplus} ≤ ${CONNECTIONS} cut off at the end)`);
 }
 
-await server.close();
+await Promise.all([stopProcess(app.child), stopProcess(bare.child)]);
 stopCluster(cluster.dataDir);

@@ -70,6 +70,7 @@ export const MATRIX: readonly MatrixRow[] = [
 
   // Procedures and drafts: everyone reads what they may see; only authors write.
   { method: 'get', path: '/procedures', probe: {}, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
+  { method: 'get', path: '/procedures/facets', probe: {}, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
   { method: 'post', path: '/procedures', probe: { body: {} }, expect: { anonymous: 401, technician: 403, author: 400, reviewer: 403, admin: 403 } },
   { method: 'get', path: '/procedures/:id', probe: { params: { id: 'approvedProcedure' } }, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
   { method: 'post', path: '/procedures/:id/drafts', probe: { params: { id: 'randomId' } }, expect: { anonymous: 401, technician: 403, author: 404, reviewer: 403, admin: 403 } },

@@ -107,8 +107,11 @@ describe('what reaches the log', () => {
     });
     expect(parsed.filter((p) => p.msg === 'forged')).toEqual([]);
     expect(parsed.some((p) => p.msg === 'sign-in refused')).toBe(true);
-    expect(parsed.some((p) => p.req?.url === '/api/people/invitations' && p.req.headers?.['x-csrf-token'] === '[redacted]')).toBe(true);
-    expect(parsed.some((p) => p.req?.headers?.cookie === '[redacted]')).toBe(true);
+    // Each request is logged by id, method, path and status; headers (cookie, CSRF token) never are.
+    expect(parsed.some((p) => p.req?.url === '/api/people/invitations')).toBe(true);
+    expect(parsed.filter((p) => p.req && 'headers' in p.req)).toEqual([]);
+    // A one-time link's token in a path is replaced before the line is written.
+    expect(parsed.some((p) => p.req?.url?.startsWith('/api/auth/invitations/[redacted]'))).toBe(true);
 
     for (const secret of new Set(secrets.filter((s) => s.length >= 8))) {
       expect(output.includes(secret), `the log contains a secret (${secret.slice(0, 6)}…)`).toBe(false);

@@ -6,7 +6,7 @@ import { createLogger } from '../../server/logger';
 const running = await startServer({
   databaseUrl: process.env.DATABASE_URL!,
   port: 0,
-  logger: createLogger('silent'),
+  logger: createLogger(process.env.LOG_LEVEL ?? 'silent'),
   config: { sessionSecret: 'second-process-secret'.padEnd(40, 'x') },
 });
 console.log(`READY ${running.url}`);

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { bigint, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { bigint, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { ProcedureDoc } from '../../../shared/document/schema';
 import type { Snapshot } from '../../../shared/document/evaluate';
@@ -65,6 +65,40 @@ export const revisions = pgTable(
     uniqueIndex('revisions_one_open_uq').on(t.procedureId).where(sql`state in ('draft', 'in_review')`),
     uniqueIndex('revisions_one_approved_uq').on(t.procedureId).where(sql`state = 'approved'`),
     index('revisions_state_idx').on(t.state),
+  ],
+);
+
+/** Who a listing row is for: staff see every state; technicians only what has been approved. */
+export type ListingAudience = 'staff' | 'published';
+
+/**
+ * The procedure list's read model: per procedure and audience, the newest revision that audience
+ * may see, and the approved one. Written only by the trigger on revisions (drizzle/0010), so it
+ * changes in the same transaction as the revision and the list is one indexed query.
+ */
+export const procedureListing = pgTable(
+  'procedure_listing',
+  {
+    procedureId: uuid()
+      .notNull()
+      .references(() => procedures.id, { onDelete: 'cascade' }),
+    audience: text().$type<ListingAudience>().notNull(),
+    revisionId: uuid().notNull(),
+    number: integer().notNull(),
+    state: text().$type<RevisionState>().notNull(),
+    title: text().notNull(),
+    equipmentFamily: text().notNull(),
+    equipmentModel: text().notNull(),
+    tags: text().array().notNull(),
+    updatedAt: timestamp({ withTimezone: true }).notNull(),
+    approvedId: uuid(),
+    approvedNumber: integer(),
+    ownerId: uuid().notNull(),
+  },
+  (t) => [
+    primaryKey({ columns: [t.procedureId, t.audience] }),
+    index('procedure_listing_updated_idx').on(t.audience, t.updatedAt, t.procedureId),
+    index('procedure_listing_title_idx').on(t.audience, sql`lower(${t.title})`, t.procedureId),
   ],
 );
 

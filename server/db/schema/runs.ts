@@ -150,7 +150,7 @@ export const runEntryHistory = pgTable(
     enteredByName: text().notNull(),
     enteredAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('run_entry_history_entry_idx').on(t.entryId)],
+  (t) => [index('run_entry_history_entry_idx').on(t.entryId), index('run_entry_history_run_idx').on(t.runId)],
 );
 
 export const runPhotos = pgTable(

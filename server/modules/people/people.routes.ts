@@ -115,6 +115,7 @@ export const peopleRoutes = [
       });
       const { before, after } = updated;
       (req.app.locals.passport as { forgetPerson(id: string): void }).forgetPerson(after.id);
+      if (body.active === false) (req.app.locals.forgetSessionsOf as (id: string) => void)(after.id);
       if (body.roles && before.roles.join() !== after.roles.join()) {
         await recordAudit(deps.db, { action: 'person.roles-changed', actorId: user!.id, subject: after.email, details: { from: before.roles, to: after.roles }, req });
       }

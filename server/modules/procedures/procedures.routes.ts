@@ -1,6 +1,6 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { createProcedureBody, saveRevisionBody } from '../../../shared/schemas/procedures';
+import { createProcedureBody, procedureListQuery, saveRevisionBody } from '../../../shared/schemas/procedures';
 import { people, procedures, revisions } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
 import { defineRoute } from '../../http/route';
@@ -11,7 +11,9 @@ import {
   getRevisionRow,
   latestApproved,
   latestInState,
+  listingFacets,
   listProcedures,
+  loadRevisionView,
   nextRevisionNumber,
   revisionView,
   seesDrafts,
@@ -19,12 +21,6 @@ import {
 
 const procedureParams = z.object({ id: z.uuid('not a valid procedure id') });
 const revisionParams = z.object({ id: z.uuid('not a valid revision id') });
-const listQuery = z.object({
-  family: z.string().max(80).optional(),
-  tag: z.string().max(40).optional(),
-  state: z.enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn']).optional(),
-});
-
 const PUBLISHED = new Set(['approved', 'superseded']);
 
 export const procedureRoutes = [
@@ -32,19 +28,17 @@ export const procedureRoutes = [
     method: 'get',
     path: '/procedures',
     access: 'signed-in',
-    summary: 'Procedures the caller may see, with their latest revision (technicians: approved only)',
-    query: listQuery,
-    handler: async ({ query, user, deps }) => {
-      const all = await listProcedures(deps.db, user!);
-      return {
-        procedures: all.filter(
-          (p) =>
-            (!query.family || p.equipmentFamily === query.family) &&
-            (!query.tag || p.tags.includes(query.tag.toLowerCase())) &&
-            (!query.state || p.latest.state === query.state),
-        ),
-      };
-    },
+    summary: 'One page of the procedures the caller may see, filtered and sorted (technicians: approved only)',
+    query: procedureListQuery,
+    handler: ({ query, user, deps }) => listProcedures(deps.db, user!, query),
+  }),
+
+  defineRoute({
+    method: 'get',
+    path: '/procedures/facets',
+    access: 'signed-in',
+    summary: 'The families, tags and states the procedure list can be filtered by',
+    handler: async ({ user, deps }) => ({ facets: await listingFacets(deps.db, user!) }),
   }),
 
   defineRoute({
@@ -132,9 +126,9 @@ export const procedureRoutes = [
     summary: 'One revision: document, evaluated snapshot, procedure check',
     params: revisionParams,
     handler: async ({ params, user, deps }) => {
-      const row = await getRevisionRow(deps.db, params.id);
-      if (!row || (!seesDrafts(user!) && !PUBLISHED.has(row.state))) throw notFound('No such revision.');
-      return { revision: await revisionView(deps.db, row) };
+      const revision = await loadRevisionView(deps.db, params.id);
+      if (!revision || (!seesDrafts(user!) && !PUBLISHED.has(revision.state))) throw notFound('No such revision.');
+      return { revision };
     },
   }),
 

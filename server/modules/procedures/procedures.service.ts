@@ -1,20 +1,18 @@
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, isNotNull, sql, type SQL } from 'drizzle-orm';
+import type { z } from 'zod';
 import { evaluateDocument } from '../../../shared/document/evaluate';
 import { lintProcedure } from '../../../shared/document/lint';
 import { defaultParams, type ProcedureParams } from '../../../shared/document/params';
 import { emptyDoc, type ProcedureDoc } from '../../../shared/document/schema';
 import { plainText } from '../../../shared/document/extract';
-import type { ProcedureListItem, RevisionView } from '../../../shared/schemas/procedures';
+import type { ProcedureFacets, ProcedurePage, ProcedureSort, procedureListQuery, RevisionView } from '../../../shared/schemas/procedures';
 import type { Db } from '../../db/client';
-import { people, procedures, revisions, type RevisionState } from '../../db/schema';
+import { people, procedureListing, procedures, revisions, type ListingAudience, type RevisionState } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
 import { renderRevisionHtml } from './render-html';
 
 type RevisionRow = typeof revisions.$inferSelect;
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-
-/** States a technician-only person may read: what has been approved, now or before. */
-const PUBLISHED: RevisionState[] = ['approved', 'superseded'];
 
 /** Only technicians are limited to published revisions; authors, reviewers and admins see all. */
 export const seesDrafts = (user: SessionUser) => user.roles.some((r) => r !== 'technician');
@@ -25,8 +23,14 @@ export function derive(doc: ProcedureDoc, params: ProcedureParams) {
   return { snapshot, html: renderRevisionHtml(doc, snapshot), plainText: plainText(doc) };
 }
 
+type Author = { id: string; displayName: string };
+
 export async function revisionView(db: Db | Tx, row: RevisionRow): Promise<RevisionView> {
   const [author] = await db.select({ id: people.id, displayName: people.displayName }).from(people).where(eq(people.id, row.authorId));
+  return toRevisionView(row, author);
+}
+
+function toRevisionView(row: RevisionRow, author: Author | undefined): RevisionView {
   return {
     id: row.id,
     procedureId: row.procedureId,
@@ -48,6 +52,24 @@ export async function revisionView(db: Db | Tx, row: RevisionRow): Promise<Revis
     decidedAt: row.decidedAt?.toISOString() ?? null,
     lint: lintProcedure(row.document, row.snapshot),
   };
+}
+
+// The reader's query, prepared once per database handle: the page most often opened.
+const revisionWithAuthor = new WeakMap<Db, ReturnType<typeof prepareRevisionWithAuthor>>();
+const prepareRevisionWithAuthor = (db: Db) =>
+  db
+    .select({ row: revisions, author: { id: people.id, displayName: people.displayName } })
+    .from(revisions)
+    .leftJoin(people, eq(people.id, revisions.authorId))
+    .where(eq(revisions.id, sql.placeholder('id')))
+    .prepare('revision_with_author');
+
+/** One revision with its author's name, in one round trip; undefined when there is none. */
+export async function loadRevisionView(db: Db, id: string): Promise<RevisionView | undefined> {
+  let prepared = revisionWithAuthor.get(db);
+  if (!prepared) revisionWithAuthor.set(db, (prepared = prepareRevisionWithAuthor(db)));
+  const [found] = await prepared.execute({ id });
+  return found && toRevisionView(found.row, found.author ?? undefined);
 }
 
 export interface NewProcedure {
@@ -89,49 +111,92 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
   return { procedure: procedure!, revision: revision! };
 }
 
-export async function listProcedures(db: Db, user: SessionUser): Promise<ProcedureListItem[]> {
-  const visible = seesDrafts(user) ? undefined : inArray(revisions.state, PUBLISHED);
-  // Only the listing columns: documents and snapshots stay in the database.
-  const rows = await db
-    .select({
-      p: { id: procedures.id },
-      r: {
-        id: revisions.id,
-        number: revisions.number,
-        state: revisions.state,
-        title: revisions.title,
-        equipmentFamily: revisions.equipmentFamily,
-        equipmentModel: revisions.equipmentModel,
-        tags: revisions.tags,
-        updatedAt: revisions.updatedAt,
-      },
-      owner: { id: people.id, displayName: people.displayName },
-    })
-    .from(procedures)
-    .innerJoin(revisions, eq(revisions.procedureId, procedures.id))
-    .innerJoin(people, eq(people.id, procedures.ownerId))
-    .where(visible)
-    .orderBy(desc(revisions.number));
-  const byProcedure = new Map<string, ProcedureListItem>();
-  for (const { p, r, owner } of rows) {
-    let item = byProcedure.get(p.id);
-    if (!item) {
-      item = {
-        id: p.id,
-        title: r.title,
-        equipmentFamily: r.equipmentFamily,
-        equipmentModel: r.equipmentModel,
-        tags: r.tags,
-        owner,
-        latest: { id: r.id, number: r.number, state: r.state, updatedAt: r.updatedAt.toISOString() },
-        approved: null,
-        updatedAt: r.updatedAt.toISOString(),
-      };
-      byProcedure.set(p.id, item);
-    }
-    if (r.state === 'approved') item.approved = { id: r.id, number: r.number };
-  }
-  return [...byProcedure.values()].sort((a, b) => a.title.localeCompare(b.title));
+/** Which listing rows a person reads: technicians only what has been approved. */
+const audienceOf = (user: SessionUser): ListingAudience => (seesDrafts(user) ? 'staff' : 'published');
+
+const SORT_COLUMNS: Record<ProcedureSort, (dir: 'asc' | 'desc') => SQL[]> = {
+  title: (d) => [d === 'asc' ? asc(sql`lower(${procedureListing.title})`) : desc(sql`lower(${procedureListing.title})`)],
+  equipment: (d) => (d === 'asc' ? [asc(procedureListing.equipmentFamily), asc(procedureListing.equipmentModel)] : [desc(procedureListing.equipmentFamily), desc(procedureListing.equipmentModel)]),
+  state: (d) => [d === 'asc' ? asc(procedureListing.state) : desc(procedureListing.state)],
+  updatedAt: (d) => [d === 'asc' ? asc(procedureListing.updatedAt) : desc(procedureListing.updatedAt)],
+};
+
+type ListQuery = z.output<typeof procedureListQuery>;
+const FILTERS = ['family', 'tag', 'state', 'runnable'] as const;
+
+/**
+ * The list query for one sort and one set of filters in use, with the values as placeholders.
+ * The page and the count of all matches come back in one round trip (the count as an
+ * uncorrelated subquery); the procedure id breaks ties, so paging never skips or repeats a row.
+ */
+function buildListQuery(db: Db, sort: ProcedureSort, dir: 'asc' | 'desc', used: Set<(typeof FILTERS)[number]>, name: string) {
+  const p = (key: string) => sql.placeholder(key);
+  const where = and(
+    eq(procedureListing.audience, p('audience')),
+    used.has('family') ? eq(procedureListing.equipmentFamily, p('family')) : undefined,
+    used.has('tag') ? sql`${p('tag')} = any(${procedureListing.tags})` : undefined,
+    used.has('state') ? eq(procedureListing.state, p('state')) : undefined,
+    used.has('runnable') ? isNotNull(procedureListing.approvedId) : undefined,
+  );
+  const order = [...SORT_COLUMNS[sort](dir), dir === 'asc' ? asc(procedureListing.procedureId) : desc(procedureListing.procedureId)];
+  return db
+    .select({ l: procedureListing, owner: { id: people.id, displayName: people.displayName }, total: sql<number>`(select count(*)::int from ${procedureListing} where ${where})` })
+    .from(procedureListing)
+    .innerJoin(people, eq(people.id, procedureListing.ownerId))
+    .where(where)
+    .orderBy(...order)
+    .limit(p('limit'))
+    .offset(p('offset'))
+    .prepare(name);
+}
+
+// Prepared once per database handle and shape: the list is read far more often than it changes,
+// and planning this query costs PostgreSQL more than running it.
+const preparedLists = new WeakMap<Db, Map<string, ReturnType<typeof buildListQuery>>>();
+
+/**
+ * One page of the procedures the caller may see, filtered and sorted in the database from the
+ * listing read model (one row per procedure and audience, kept by a trigger on revisions).
+ */
+export async function listProcedures(db: Db, user: SessionUser, q: ListQuery): Promise<ProcedurePage> {
+  const dir = q.dir ?? (q.sort === 'updatedAt' ? 'desc' : 'asc');
+  const used = new Set(FILTERS.filter((f) => q[f]));
+  const name = `procedure_list_${q.sort}_${dir}_${[...used].join('_') || 'all'}`;
+  let byName = preparedLists.get(db);
+  if (!byName) preparedLists.set(db, (byName = new Map()));
+  let prepared = byName.get(name);
+  if (!prepared) byName.set(name, (prepared = buildListQuery(db, q.sort, dir, used, name)));
+  const values = { audience: audienceOf(user), family: q.family, tag: q.tag?.toLowerCase(), state: q.state, limit: q.limit, offset: q.offset };
+  const rows = await prepared.execute(values);
+  // Past the last page there is no row to carry the count: ask for the first row's.
+  const counted = rows[0]?.total ?? (q.offset > 0 ? ((await prepared.execute({ ...values, offset: 0, limit: 1 }))[0]?.total ?? 0) : 0);
+  return {
+    procedures: rows.map(({ l, owner }) => ({
+      id: l.procedureId,
+      title: l.title,
+      equipmentFamily: l.equipmentFamily,
+      equipmentModel: l.equipmentModel,
+      tags: l.tags,
+      owner,
+      latest: { id: l.revisionId, number: l.number, state: l.state, updatedAt: l.updatedAt.toISOString() },
+      approved: l.approvedId ? { id: l.approvedId, number: l.approvedNumber! } : null,
+      updatedAt: l.updatedAt.toISOString(),
+    })),
+    total: counted,
+    offset: q.offset,
+    limit: q.limit,
+  };
+}
+
+/** The families, tags and states that occur among the procedures the caller may see. */
+export async function listingFacets(db: Db, user: SessionUser): Promise<ProcedureFacets> {
+  const audience = audienceOf(user);
+  const { rows } = await db.execute<{ families: string[]; tags: string[]; states: RevisionState[] }>(sql`
+    select
+      array(select distinct equipment_family from procedure_listing where audience = ${audience} order by 1) as families,
+      array(select distinct t from procedure_listing, unnest(tags) t where audience = ${audience} order by 1) as tags,
+      array(select distinct state from procedure_listing where audience = ${audience} order by 1) as states`);
+  return rows[0] ?? { families: [], tags: [], states: [] };
 }
 
 export async function getRevisionRow(db: Db | Tx, id: string) {

@@ -1,5 +1,6 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { Pager } from '@/components/ui/pager';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { useSearch } from '@/features/search/api/search-procedures';
@@ -108,19 +109,7 @@ export default function SearchPage() {
           </li>
         ))}
       </ol>
-      {pages > 1 && (
-        <nav aria-label="Result pages" className="flex items-center gap-3 text-sm">
-          <button type="button" disabled={page <= 1} className="min-h-11 rounded-md border border-rule px-3 disabled:opacity-50" onClick={() => update({ page: String(page - 1) })}>
-            Previous
-          </button>
-          <span>
-            Page {page} of {pages}
-          </span>
-          <button type="button" disabled={page >= pages} className="min-h-11 rounded-md border border-rule px-3 disabled:opacity-50" onClick={() => update({ page: String(page + 1) })}>
-            Next
-          </button>
-        </nav>
-      )}
+      <Pager page={page} pages={pages} label="Result pages" onPage={(p) => update({ page: String(p) })} />
     </section>
   );
 }

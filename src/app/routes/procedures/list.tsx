@@ -1,22 +1,49 @@
-import { useEffect, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { useEffect } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import type { SortingState } from '@tanstack/react-table';
+import { PROCEDURE_PAGE_SIZES, PROCEDURE_SORTS, type ProcedureSort } from '@shared/schemas/procedures';
+import type { RevisionStateName } from '@shared/schemas/revision-states';
 import { Notice } from '@/components/ui/notice';
+import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
-import { useProcedures } from '@/features/procedures/api/get-procedures';
-import { applyFilters, ProcedureFilters, type Filters } from '@/features/procedures/components/procedure-filters';
+import { useProcedureFacets, useProcedures } from '@/features/procedures/api/get-procedures';
+import { ProcedureFilters, type Filters } from '@/features/procedures/components/procedure-filters';
 import { ProcedureTable } from '@/features/procedures/components/procedure-table';
+
+const oneOf = <T extends string>(allowed: readonly T[], v: string | null, fallback: T): T => (v && (allowed as readonly string[]).includes(v) ? (v as T) : fallback);
+
+/** The list's state lives in the address, so a reload, the back button or a shared link keeps it. */
+function useListState() {
+  const [params, setParams] = useSearchParams();
+  const sort = oneOf<ProcedureSort>(PROCEDURE_SORTS, params.get('sort'), 'updatedAt');
+  const dir = oneOf(['asc', 'desc'] as const, params.get('dir'), sort === 'updatedAt' ? 'desc' : 'asc');
+  const size = Number(oneOf(PROCEDURE_PAGE_SIZES.map(String), params.get('size'), '50'));
+  const page = Math.max(1, Math.floor(Number(params.get('page'))) || 1);
+  const filters: Filters = { family: params.get('family') ?? '', tag: params.get('tag') ?? '', state: (params.get('state') ?? '') as RevisionStateName | '' };
+  const update = (next: Record<string, string>) => {
+    const merged = new URLSearchParams(params);
+    for (const [k, v] of Object.entries(next)) {
+      if (v) merged.set(k, v);
+      else merged.delete(k);
+    }
+    setParams(merged, { replace: true });
+  };
+  return { sort, dir, size, page, filters, update };
+}
 
 export default function ProceduresPage() {
   const session = useSession();
-  const query = useProcedures();
-  const [filters, setFilters] = useState<Filters>({ family: '', tag: '', state: '' });
+  const { sort, dir, size, page, filters, update } = useListState();
+  const query = useProcedures({ family: filters.family || undefined, tag: filters.tag || undefined, state: filters.state || undefined, sort, dir, limit: size, offset: (page - 1) * size });
+  const facets = useProcedureFacets();
   const isAuthor = hasRole(session.data?.user, 'author');
   useEffect(() => {
     document.title = 'Procedures · Benchwright';
   }, []);
-  const all = query.data?.procedures ?? [];
-  const shown = applyFilters(all, filters);
+  const data = query.data;
+  const pages = data ? Math.max(1, Math.ceil(data.total / size)) : 1;
+  const sorting: SortingState = [{ id: sort, desc: dir === 'desc' }];
   return (
     <section className="flex flex-col gap-4">
       <div className="flex flex-wrap items-center gap-3">
@@ -28,15 +55,34 @@ export default function ProceduresPage() {
         )}
       </div>
       {!isAuthor && hasRole(session.data?.user, 'technician') && <p className="text-sm text-graphite-soft">Procedures with an approved revision.</p>}
+      <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
       {query.isPending && <p className="text-graphite-soft">Loading…</p>}
       {query.isError && <Notice tone="error">{query.error.message}</Notice>}
-      {query.data && (
+      {data && (
         <>
-          <ProcedureFilters procedures={all} value={filters} onChange={setFilters} />
-          <p className="text-sm text-graphite-soft" aria-live="polite">
-            Showing {shown.length} of {all.length}.
-          </p>
-          {shown.length ? <ProcedureTable procedures={shown} /> : <Notice>No procedure matches these filters.</Notice>}
+          <div className="flex flex-wrap items-center gap-3 text-sm text-graphite-soft">
+            <p aria-live="polite">
+              {data.total === 0 ? 'No procedures.' : `Showing ${(data.offset + 1).toLocaleString()}–${(data.offset + data.procedures.length).toLocaleString()} of ${data.total.toLocaleString()}.`}
+            </p>
+            <label className="ml-auto flex items-center gap-2">
+              Per page
+              <select className="min-h-10 rounded border border-rule bg-card px-2" value={size} onChange={(e) => update({ size: e.target.value, page: '' })}>
+                {PROCEDURE_PAGE_SIZES.map((n) => (
+                  <option key={n} value={n}>
+                    {n}
+                  </option>
+                ))}
+              </select>
+            </label>
+          </div>
+          {data.procedures.length ? (
+            <div className={query.isPlaceholderData ? 'opacity-70' : undefined}>
+              <ProcedureTable procedures={data.procedures} sorting={sorting} onSortingChange={(s) => update({ sort: s[0]?.id ?? '', dir: s[0] ? (s[0].desc ? 'desc' : 'asc') : '', page: '' })} />
+            </div>
+          ) : (
+            <Notice>{data.total ? 'This page is past the end of the list.' : 'No procedure matches these filters.'}</Notice>
+          )}
+          <Pager page={page} pages={pages} label="Procedure list pages" onPage={(p) => update({ page: p > 1 ? String(p) : '' })} />
         </>
       )}
     </section>

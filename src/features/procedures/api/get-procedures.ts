@@ -1,10 +1,20 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ProcedureListItem } from '@shared/schemas/procedures';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ProcedureFacets, ProcedureListQuery, ProcedurePage } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
 
-export const getProcedures = () => api.get<{ procedures: ProcedureListItem[] }>('/api/procedures');
+const queryString = (q: ProcedureListQuery) => {
+  const qs = new URLSearchParams();
+  for (const [k, v] of Object.entries(q)) if (v !== undefined && v !== '') qs.set(k, String(v));
+  return qs.size ? `?${qs}` : '';
+};
 
-/** The whole visible list; filtering by family, tag and state happens on the client. */
-export const proceduresQueryOptions = () => queryOptions({ queryKey: ['procedures'], queryFn: getProcedures });
+export const getProcedures = (q: ProcedureListQuery = {}) => api.get<ProcedurePage>(`/api/procedures${queryString(q)}`);
 
-export const useProcedures = () => useQuery(proceduresQueryOptions());
+/** One page of the list; filtering, sorting and paging happen on the server. */
+export const proceduresQueryOptions = (q: ProcedureListQuery) => queryOptions({ queryKey: ['procedures', 'list', q], queryFn: () => getProcedures(q) });
+
+/** Keeps the current page on screen while the next one loads. */
+export const useProcedures = (q: ProcedureListQuery) => useQuery({ ...proceduresQueryOptions(q), placeholderData: keepPreviousData });
+
+export const useProcedureFacets = () =>
+  useQuery({ queryKey: ['procedures', 'facets'], queryFn: async () => (await api.get<{ facets: ProcedureFacets }>('/api/procedures/facets')).facets, staleTime: 60_000 });

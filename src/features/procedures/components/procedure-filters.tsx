@@ -1,5 +1,5 @@
 import { useId } from 'react';
-import type { ProcedureListItem } from '@shared/schemas/procedures';
+import type { ProcedureFacets } from '@shared/schemas/procedures';
 import { REVISION_STATE_LABELS, type RevisionStateName } from '@shared/schemas/revision-states';
 
 export interface Filters {
@@ -7,9 +7,6 @@ export interface Filters {
   tag: string;
   state: RevisionStateName | '';
 }
-
-export const applyFilters = (list: ProcedureListItem[], f: Filters) =>
-  list.filter((p) => (!f.family || p.equipmentFamily === f.family) && (!f.tag || p.tags.includes(f.tag)) && (!f.state || p.latest.state === f.state));
 
 function Choice({ label, value, options, onChange }: { label: string; value: string; options: { value: string; label: string }[]; onChange: (v: string) => void }) {
   const id = useId();
@@ -30,15 +27,22 @@ function Choice({ label, value, options, onChange }: { label: string; value: str
   );
 }
 
-/** Filters by equipment family, tag and state, offering only values present in the list. */
-export function ProcedureFilters({ procedures, value, onChange }: { procedures: ProcedureListItem[]; value: Filters; onChange: (f: Filters) => void }) {
-  const uniq = (xs: string[]) => [...new Set(xs)].sort().map((x) => ({ value: x, label: x }));
-  const states = [...new Set(procedures.map((p) => p.latest.state))].map((s) => ({ value: s, label: REVISION_STATE_LABELS[s] }));
+/** Filters by equipment family, tag and state, offering the values that occur in the library. */
+export function ProcedureFilters({ facets, value, onChange }: { facets: ProcedureFacets | undefined; value: Filters; onChange: (f: Filters) => void }) {
+  const plain = (xs: string[] = []) => xs.map((x) => ({ value: x, label: x }));
+  // A value chosen before the facets arrive (a shared link) stays selectable.
+  const keep = (options: { value: string; label: string }[], v: string, label = v) => (v && !options.some((o) => o.value === v) ? [...options, { value: v, label }] : options);
+  const states = (facets?.states ?? []).map((s) => ({ value: s, label: REVISION_STATE_LABELS[s] }));
   return (
     <div className="flex flex-wrap gap-3" role="search" aria-label="Filter procedures">
-      <Choice label="Equipment family" value={value.family} options={uniq(procedures.map((p) => p.equipmentFamily))} onChange={(family) => onChange({ ...value, family })} />
-      <Choice label="Tag" value={value.tag} options={uniq(procedures.flatMap((p) => p.tags))} onChange={(tag) => onChange({ ...value, tag })} />
-      <Choice label="State" value={value.state} options={states} onChange={(state) => onChange({ ...value, state: state as Filters['state'] })} />
+      <Choice label="Equipment family" value={value.family} options={keep(plain(facets?.families), value.family)} onChange={(family) => onChange({ ...value, family })} />
+      <Choice label="Tag" value={value.tag} options={keep(plain(facets?.tags), value.tag)} onChange={(tag) => onChange({ ...value, tag })} />
+      <Choice
+        label="State"
+        value={value.state}
+        options={keep(states, value.state, value.state ? REVISION_STATE_LABELS[value.state] : '')}
+        onChange={(state) => onChange({ ...value, state: state as Filters['state'] })}
+      />
     </div>
   );
 }

@@ -1,6 +1,5 @@
-import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
 import type { ProcedureListItem } from '@shared/schemas/procedures';
 import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
 import { paths } from '@/config/paths';
@@ -26,7 +25,7 @@ const columns = [
       </>
     ),
   }),
-  col.accessor((p) => p.tags.join(', '), { id: 'tags', header: 'Tags', cell: (c) => <span className="text-graphite-soft">{c.getValue()}</span> }),
+  col.accessor((p) => p.tags.join(', '), { id: 'tags', header: 'Tags', enableSorting: false, cell: (c) => <span className="text-graphite-soft">{c.getValue()}</span> }),
   col.accessor((p) => REVISION_STATE_LABELS[p.latest.state], {
     id: 'state',
     header: 'Latest revision',
@@ -43,11 +42,20 @@ const columns = [
   }),
 ];
 
-/** The procedure list: sortable by every column. Rows are already filtered by the caller. */
-export function ProcedureTable({ procedures }: { procedures: ProcedureListItem[] }) {
-  const [sorting, setSorting] = useState<SortingState>([{ id: 'updatedAt', desc: true }]);
-  const data = useMemo(() => procedures, [procedures]);
-  const table = useReactTable({ data, columns, state: { sorting }, onSortingChange: setSorting, getCoreRowModel: getCoreRowModel(), getSortedRowModel: getSortedRowModel() });
+/**
+ * One page of the procedure list. Sorting happens on the server: the table shows the sort it is
+ * given and reports header clicks; column ids are the API's sort names.
+ */
+export function ProcedureTable({ procedures, sorting, onSortingChange }: { procedures: ProcedureListItem[]; sorting: SortingState; onSortingChange: (s: SortingState) => void }) {
+  const table = useReactTable({
+    data: procedures,
+    columns,
+    state: { sorting },
+    manualSorting: true,
+    enableSortingRemoval: false,
+    onSortingChange: (updater) => onSortingChange(typeof updater === 'function' ? updater(sorting) : updater),
+    getCoreRowModel: getCoreRowModel(),
+  });
   return (
     <div className="overflow-x-auto rounded-lg border border-rule bg-card">
       <table className="w-full text-left text-sm" aria-label="Procedures">
@@ -57,13 +65,17 @@ export function ProcedureTable({ procedures }: { procedures: ProcedureListItem[]
               {hg.headers.map((h) => {
                 const sorted = h.column.getIsSorted();
                 return (
-                  <th key={h.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'} className="px-3 py-1">
-                    <button type="button" className="flex min-h-10 items-center gap-1 font-semibold" onClick={h.column.getToggleSortingHandler()}>
-                      {flexRender(h.column.columnDef.header, h.getContext())}
-                      <span aria-hidden className="text-xs text-graphite-soft">
-                        {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
-                      </span>
-                    </button>
+                  <th key={h.id} scope="col" aria-sort={h.column.getCanSort() ? (sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none') : undefined} className="px-3 py-1">
+                    {h.column.getCanSort() ? (
+                      <button type="button" className="flex min-h-10 items-center gap-1 font-semibold" onClick={h.column.getToggleSortingHandler()}>
+                        {flexRender(h.column.columnDef.header, h.getContext())}
+                        <span aria-hidden className="text-xs text-graphite-soft">
+                          {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
+                        </span>
+                      </button>
+                    ) : (
+                      <span className="flex min-h-10 items-center font-semibold">{flexRender(h.column.columnDef.header, h.getContext())}</span>
+                    )}
                   </th>
                 );
               })}

@@ -1,12 +1,16 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ProcedureListItem, RevisionView } from '@shared/schemas/procedures';
+import type { RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
+import { getProcedures } from '@/features/procedures/api/get-procedures';
 
-/** Procedures with an approved revision: the only ones a bench run may follow. */
+/** The largest page the list API serves. */
+export const RUNNABLE_LIMIT = 200;
+
+/** Procedures with an approved revision (the only ones a bench run may follow), by title. */
 export const runnableProceduresQueryOptions = () =>
   queryOptions({
     queryKey: ['procedures', 'runnable'],
-    queryFn: async () => (await api.get<{ procedures: ProcedureListItem[] }>('/api/procedures')).procedures.filter((p) => p.approved),
+    queryFn: () => getProcedures({ runnable: 'true', sort: 'title', dir: 'asc', limit: RUNNABLE_LIMIT }),
   });
 export const useRunnableProcedures = () => useQuery(runnableProceduresQueryOptions());
 

@@ -34,7 +34,7 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
   const [mains, setMains] = useState('');
   const [frequency, setFrequency] = useState('');
   const [key] = useState(() => crypto.randomUUID());
-  const procedure = procedures.data?.find((p) => p.id === procedureId);
+  const procedure = procedures.data?.procedures.find((p) => p.id === procedureId);
   const params = useRevisionParams(procedure?.approved?.id);
   const mainsRead = readMains(mains, 'V');
   const freqRead = readMains(frequency || (params.data ? String(params.data.mainsFrequency) : ''), 'Hz');
@@ -58,12 +58,17 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
         Approved procedure
         <select aria-label="Approved procedure" className={select} value={procedureId} onChange={(e) => setProcedureId(e.target.value)}>
           <option value="">Choose…</option>
-          {procedures.data?.map((p) => (
+          {procedures.data?.procedures.map((p) => (
             <option key={p.id} value={p.id}>
               {p.title} ({p.equipmentModel}, revision {p.approved!.number})
             </option>
           ))}
         </select>
+        {procedures.data && procedures.data.total > procedures.data.procedures.length && (
+          <span className="font-normal text-graphite-soft">
+            Showing the first {procedures.data.procedures.length} of {procedures.data.total} approved procedures, by title.
+          </span>
+        )}
         {touched && !procedure && <span className="text-out">choose a procedure</span>}
       </label>
       <label className="flex flex-col gap-1 text-sm font-semibold">
