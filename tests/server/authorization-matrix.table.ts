@@ -102,6 +102,7 @@ export const MATRIX: readonly MatrixRow[] = [
   { method: 'get', path: '/signatures/:id/verify', probe: { params: { id: 'approvalSignature' } }, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
 
   // Records the admin keeps.
+  { method: 'get', path: '/audit/chain', probe: {}, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 } },
   { method: 'get', path: '/audit', probe: {}, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 } },
   { method: 'get', path: '/mail/outbox', probe: {}, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 } },
 

@@ -10,6 +10,7 @@ import { dropDatabase, startCluster, stopCluster, type Cluster } from '../../ser
 import { createDb, createPool } from '../../server/db/client';
 import { signatures } from '../../server/db/schema';
 import { verifySignature } from '../../server/modules/review/signatures';
+import { verifyAuditChain } from '../../server/audit/chain';
 import { tinyPng } from '../support/png';
 import { createTestApp, type TestApp } from '../support/test-app';
 
@@ -80,6 +81,10 @@ describe('backup and restore', () => {
       const sigs = await restoredDb.select().from(signatures);
       expect(sigs.length).toBeGreaterThan(0);
       for (const sig of sigs) expect((await verifySignature(restoredDb, sig)).verified, `signature ${sig.id}`).toBe(true);
+      // And the audit log's hash chain holds end to end.
+      const chain = await verifyAuditChain(restoredDb);
+      expect(chain.firstBroken).toBeNull();
+      expect(chain.checked).toBeGreaterThan(0);
     } finally {
       await restoredPool.end();
     }

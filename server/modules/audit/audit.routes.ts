@@ -1,6 +1,7 @@
 import { and, count, desc, eq, gte, lt, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import type { AuditEntryView } from '../../../shared/schemas/review';
+import { verifyAuditChain } from '../../audit/chain';
 import { AUDIT_ACTIONS } from '../../audit/record';
 import { auditLog, people } from '../../db/schema';
 import { defineRoute } from '../../http/route';
@@ -27,6 +28,14 @@ export const auditQuery = z
 const endOf = (to: string) => (/^\d{4}-\d{2}-\d{2}$/.test(to) ? new Date(Date.parse(to) + 86_400_000) : new Date(Date.parse(to) + 1));
 
 export const auditRoutes = [
+  defineRoute({
+    method: 'get',
+    path: '/audit/chain',
+    access: ['admin'],
+    summary: 'Check the audit log hash chain: every entry recomputed, the first broken link named',
+    handler: async ({ deps }) => ({ chain: await verifyAuditChain(deps.db) }),
+  }),
+
   defineRoute({
     method: 'get',
     path: '/audit',

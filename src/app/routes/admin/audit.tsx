@@ -3,6 +3,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { useAuditLog, type AuditFilters } from '@/features/audit/api/get-audit';
 import { AuditTable } from '@/features/audit/components/audit-table';
+import { ChainCheck } from '@/features/audit/components/chain-check';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { usePeople } from '@/features/people/api/get-people';
 
@@ -21,7 +22,8 @@ export default function AuditPage() {
   return (
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">Audit log</h1>
-      <p className="text-sm text-graphite-soft">Every state change, sign-off, sign-in failure, role change and deactivation. Entries can be added, never changed.</p>
+      <p className="text-sm text-graphite-soft">Every state change, sign-off, sign-in failure, role change and deactivation. Entries can be added, never changed; each is chained to the one before by its SHA-256, so a change made around the database's guards shows up in the check.</p>
+      <ChainCheck />
       <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Action

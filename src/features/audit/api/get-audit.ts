@@ -23,3 +23,11 @@ export function useAuditLog(filters: AuditFilters) {
   for (const [k, v] of Object.entries(filters)) if (v !== undefined && v !== '') qs.set(k, String(v));
   return useQuery({ queryKey: ['audit', qs.toString()], queryFn: () => api.get<AuditPage>(`/api/audit?${qs}`), placeholderData: keepPreviousData });
 }
+
+export interface ChainReport {
+  checked: number;
+  firstBroken: { seq: number; id: number; at: string; action: string; reason: string } | null;
+}
+
+/** Runs the hash-chain check on demand (it reads the whole log). */
+export const useAuditChainCheck = () => useQuery({ queryKey: ['audit', 'chain'], queryFn: async () => (await api.get<{ chain: ChainReport }>('/api/audit/chain')).chain, enabled: false });
