@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { createDb, createPool } from '../db/client';
 import { applyMigrations } from '../db/migrate';
 import { seedDemoContent } from '../db/seed';
-import { ensureDatabase, startCluster, type Cluster } from './postgres';
+import { ensureAppRole, ensureDatabase, startCluster, type Cluster } from './postgres';
 
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const dataDir = path.join(projectRoot, '.data');
@@ -32,8 +32,12 @@ export function readOrCreateSecret(name: string): string {
   return secret;
 }
 
-/** Creates the database if needed, applies migrations and loads demo content; returns its URL. */
-export async function prepareDatabase(cluster: Cluster, database: string, { seed = true } = {}) {
+/**
+ * Creates the database if needed, applies migrations and loads demo content as the owner; returns
+ * the URL the app connects with, as the application role.
+ */
+export async function prepareDatabase(cluster: Pick<Cluster, 'adminUrl' | 'urlFor' | 'appUrlFor' | 'appPassword'>, database: string, { seed = true } = {}) {
+  await ensureAppRole(cluster.adminUrl, cluster.appPassword);
   await ensureDatabase(cluster.adminUrl, database);
   const url = cluster.urlFor(database);
   const pool = createPool(url);
@@ -45,7 +49,7 @@ export async function prepareDatabase(cluster: Cluster, database: string, { seed
   } finally {
     await pool.end();
   }
-  return url;
+  return cluster.appUrlFor(database);
 }
 
 export function startMainCluster() {

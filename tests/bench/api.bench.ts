@@ -34,7 +34,8 @@ const url = await prepareDatabase(cluster, 'benchwright_bench_api');
 // The demo procedures' approved revisions (with readings) are noted first, for the write mix.
 let demoRevisionIds: string[] = [];
 {
-  const pool = createPool(url);
+  // Set-up as the owner (ANALYZE needs it); the app itself connects as the application role.
+  const pool = createPool(cluster.urlFor('benchwright_bench_api'));
   const db = createDb(pool);
   demoRevisionIds = (await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.state, 'approved'))).map((r) => r.id);
   const [author] = await db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));

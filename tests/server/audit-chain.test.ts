@@ -15,9 +15,9 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-/** What a superuser can do: switch the append-only trigger off around a statement. */
+/** What only the owner (a superuser) can do: switch the append-only trigger off around a statement. */
 async function aroundTheTriggers(statement: ReturnType<typeof sql>) {
-  await t.db.transaction(async (tx) => {
+  await t.ownerDb.transaction(async (tx) => {
     await tx.execute(sql`alter table audit_log disable trigger audit_log_append_only`);
     await tx.execute(statement);
     await tx.execute(sql`alter table audit_log enable trigger audit_log_append_only`);

@@ -52,14 +52,14 @@ describe('backup and restore', () => {
     const up = await hal.post('/api/attachments').attach('file', tinyPng(), { filename: 'reservoir.png', contentType: 'image/png' });
     expect(up.status).toBe(201);
 
-    const file = createBackup({ databaseUrl: t.databaseUrl, uploadDir: t.uploadDir, outDir: work });
+    const file = createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
     expect(path.basename(file)).toMatch(/^benchwright-\d{4}-\d{2}-\d{2}T.*\.tar$/);
 
     const restoredUploads = path.join(work, 'restored-uploads');
     const restoredUrl = fresh.urlFor('benchwright_restored');
     await restoreBackup({ file, adminUrl: fresh.adminUrl, databaseUrl: restoredUrl, uploadDir: restoredUploads });
 
-    const [before, after] = [await fingerprint(t.databaseUrl), await fingerprint(restoredUrl)];
+    const [before, after] = [await fingerprint(t.ownerUrl), await fingerprint(restoredUrl)];
     expect(Object.keys(after).length).toBeGreaterThan(5);
     expect(after).toEqual(before);
 

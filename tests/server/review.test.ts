@@ -13,8 +13,8 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 /** The database's own message for a refused statement (drizzle wraps it in "Failed query: …"). */
-async function refusal(statement: ReturnType<typeof sql>) {
-  const err = await t.db.execute(statement).then(
+async function refusal(statement: ReturnType<typeof sql>, as: 'app' | 'owner' = 'owner') {
+  const err = await (as === 'app' ? t.db : t.ownerDb).execute(statement).then(
     () => null,
     (e: Error & { cause?: Error }) => e,
   );
@@ -143,7 +143,7 @@ describe('sign-off', () => {
     expect(good.body.currentHash).toBe(good.body.storedHash);
 
     // A one-character edit with the triggers switched off (only a superuser can do this).
-    await t.db.transaction(async (tx) => {
+    await t.ownerDb.transaction(async (tx) => {
       await tx.execute(sql`set local session_replication_role = replica`);
       await tx.execute(sql`update revisions set plain_text = plain_text || '.' where id = ${revision.id}`);
     });
@@ -184,6 +184,23 @@ describe('the database guards reviewed records', () => {
     expect(await refusal(sql`truncate signatures`)).toMatch(/append-only/);
     expect(await refusal(sql`update audit_log set action = 'nothing'`)).toMatch(/append-only/);
     expect(await refusal(sql`delete from audit_log`)).toMatch(/append-only/);
+    // The application role is refused before any trigger runs: it holds no UPDATE, DELETE or
+    // TRUNCATE on the append-only records (SECURITY.md §2 check 2), and cannot switch triggers off.
+    for (const statement of [
+      sql`update signatures set comment = 'forged' where revision_id = ${revision.id}`,
+      sql`delete from signatures where revision_id = ${revision.id}`,
+      sql`truncate signatures`,
+      sql`update audit_log set action = 'nothing'`,
+      sql`delete from audit_log`,
+      sql`update run_signatures set signer_name = 'x'`,
+      sql`delete from run_entry_history`,
+      sql`delete from review_comments`,
+    ]) {
+      expect(await refusal(statement, 'app')).toMatch(/permission denied/);
+    }
+    expect(await refusal(sql`alter table signatures disable trigger signatures_append_only`, 'app')).toMatch(/must be owner/);
+    expect(await refusal(sql`update revisions set title = 'renamed' where id = ${revision.id}`, 'app')).toMatch(/content cannot change/);
+    expect(await refusal(sql`select pg_read_file('/etc/passwd')`, 'app')).toMatch(/permission denied/);
     const [row] = await t.db.select().from(revisions).where(eq(revisions.id, revision.id));
     expect(row!.title).not.toBe('renamed');
     expect(await signaturesOf(revision.id)).toHaveLength(1);

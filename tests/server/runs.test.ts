@@ -222,8 +222,9 @@ describe('signing the run sheet', () => {
     const edit = await entry(tom, run.id, 'rd-heater', { value: '6.3 V', reason: 'late change' });
     expect(edit.status).toBe(409);
     expect((await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'late.png' })).status).toBe(409);
+    // As the owner: the triggers refuse whoever connects, even past the application role's grants.
     const refused = async (statement: ReturnType<typeof sql>) => {
-      const err = await t.db.execute(statement).then(
+      const err = await t.ownerDb.execute(statement).then(
         () => null,
         (e: Error & { cause?: Error }) => e,
       );
@@ -239,7 +240,7 @@ describe('signing the run sheet', () => {
     const [row] = await t.db.select().from(runEntries).where(sql`${runEntries.runId} = ${run.id} and ${runEntries.stepId} = 'rd-heater'`);
     expect(row!.measured).toBe(6.4);
     // A superuser-style edit that slips past (here: the trigger disabled) is caught by the hash on read.
-    await t.db.transaction(async (tx) => {
+    await t.ownerDb.transaction(async (tx) => {
       await tx.execute(sql`alter table run_entries disable trigger run_entries_signed_guard`);
       await tx.execute(sql`update run_entries set note = 'edited' where run_id = ${run.id} and step_id = 'rd-heater'`);
       await tx.execute(sql`alter table run_entries enable trigger run_entries_signed_guard`);

@@ -35,6 +35,9 @@ async function approve(revisionId: string) {
     await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${revisionId}`);
   });
   expect(await refreshed).toBe(true);
+  // The draft's own notification (at its INSERT) may be the one that arrived: wait for the approval's.
+  for (let i = 0; i < 10 && !t.search!.index.has(procedureId); i++) await t.search!.nextRefreshOf(procedureId, 500);
+  expect(t.search!.index.has(procedureId)).toBe(true);
 }
 
 let tomClient: Awaited<ReturnType<TestApp['as']>> | undefined;

@@ -70,12 +70,12 @@ describe('response headers (CSP, nosniff, Referrer-Policy, HSTS, no X-Powered-By
   it('on a 500 from a failing query: a generic message, no stack, same headers', async () => {
     const tom = await t.as('tom');
     // A schema fault the app cannot explain away as "database down": the table vanishes for a moment.
-    await t.db.execute(sql`alter table units rename to units_away`);
+    await t.ownerDb.execute(sql`alter table units rename to units_away`);
     let res: Res;
     try {
       res = await tom.get('/api/units');
     } finally {
-      await t.db.execute(sql`alter table units_away rename to units`);
+      await t.ownerDb.execute(sql`alter table units_away rename to units`);
     }
     expect(res.status).toBe(500);
     expectHardenedHeaders(res, '500');

@@ -9,8 +9,8 @@ import { readDemoPeople } from '../../server/db/seed';
 
 // Runs the very preparation `npm start` runs (migrations + demo content) twice on a fresh database.
 const name = `bw_seed_${process.pid}`;
-const { adminUrl, urlPrefix } = inject('testDb');
-const cluster = { adminUrl, urlFor: (db: string) => urlPrefix + db } as Parameters<typeof prepareDatabase>[0];
+const { adminUrl, urlPrefix, appUrlPrefix, appPassword } = inject('testDb');
+const cluster = { adminUrl, urlFor: (db: string) => urlPrefix + db, appUrlFor: (db: string) => appUrlPrefix + db, appPassword };
 afterAll(() => dropDatabase(adminUrl, name));
 
 describe('start-up preparation', () => {

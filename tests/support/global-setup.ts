@@ -3,7 +3,7 @@ import { prepareTestTemplate, startTestCluster, TEMPLATE_DB } from './test-clust
 
 declare module 'vitest' {
   export interface ProvidedContext {
-    testDb: { adminUrl: string; template: string; urlPrefix: string; dataDir: string; port: number };
+    testDb: { adminUrl: string; template: string; urlPrefix: string; appUrlPrefix: string; appPassword: string; dataDir: string; port: number };
   }
 }
 
@@ -14,6 +14,8 @@ export default async function setup(project: TestProject) {
     adminUrl: cluster.adminUrl,
     template: TEMPLATE_DB,
     urlPrefix: cluster.urlFor(''),
+    appUrlPrefix: cluster.appUrlFor(''),
+    appPassword: cluster.appPassword,
     dataDir: cluster.dataDir,
     port: cluster.port,
   });

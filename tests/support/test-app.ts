@@ -21,6 +21,9 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
   const database = await createTestDatabase();
   const pool = createPool(database.url);
   const db = createDb(pool);
+  // The owner's connection, for tests that act as a superuser would (around the triggers).
+  const ownerPool = createPool(database.ownerUrl);
+  const ownerDb = createDb(ownerPool);
   const uploadDir = mkdtempSync(path.join(tmpdir(), 'bw-uploads-'));
   const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', uploadDir, ...overrides });
   const logger = createLogger('silent');
@@ -75,7 +78,9 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
     mailer,
     catcher,
     search,
+    ownerDb,
     databaseUrl: database.url,
+    ownerUrl: database.ownerUrl,
     uploadDir,
     client,
     as,
@@ -85,6 +90,7 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
       await search?.stop();
       await catcher?.close();
       await pool.end();
+      await ownerPool.end();
       await database.drop();
       rmSync(uploadDir, { recursive: true, force: true });
     },

@@ -2,9 +2,12 @@ import { randomBytes } from 'node:crypto';
 import { inject } from 'vitest';
 import { dropDatabase, withAdminClient } from '../../server/bootstrap/postgres';
 
-/** A private copy of the migrated, seeded template database for one test file. */
+/**
+ * A private copy of the migrated, seeded template database for one test file: `url` connects as
+ * the application role, as the app does; `ownerUrl` as the owner, for what only an owner may do.
+ */
 export async function createTestDatabase() {
-  const { adminUrl, template, urlPrefix } = inject('testDb');
+  const { adminUrl, template, urlPrefix, appUrlPrefix } = inject('testDb');
   const name = `bw_t_${randomBytes(5).toString('hex')}`;
   for (let attempt = 0; ; attempt++) {
     try {
@@ -16,5 +19,5 @@ export async function createTestDatabase() {
       await new Promise((r) => setTimeout(r, 150 + Math.random() * 300));
     }
   }
-  return { name, url: urlPrefix + name, drop: () => dropDatabase(adminUrl, name) };
+  return { name, url: appUrlPrefix + name, ownerUrl: urlPrefix + name, drop: () => dropDatabase(adminUrl, name) };
 }
