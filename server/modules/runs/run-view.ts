@@ -51,33 +51,44 @@ export const unitRecordOf = (u: typeof units.$inferSelect) => ({ id: u.id, model
 
 /** The revision a run followed, with its approval record (reviewer sign-offs when recorded). */
 export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<RevisionRecord> {
-  const [rev] = await db.select().from(revisions).where(eq(revisions.id, run.revisionId));
-  const who = await names(db, [rev!.authorId]);
-  const signOffs = await db
-    .select({ name: signatures.signerName, meaning: signatures.meaning, signedAt: signatures.signedAt })
-    .from(signatures)
-    .where(eq(signatures.revisionId, run.revisionId))
-    .orderBy(asc(signatures.signedAt));
+  // Only the record's columns: the revision's document, snapshot and HTML stay in the database.
+  const [[rev], signOffs] = await Promise.all([
+    db
+      .select({ id: revisions.id, number: revisions.number, state: revisions.state, title: revisions.title, decidedAt: revisions.decidedAt, author: { id: people.id, displayName: people.displayName } })
+      .from(revisions)
+      .innerJoin(people, eq(people.id, revisions.authorId))
+      .where(eq(revisions.id, run.revisionId)),
+    db
+      .select({ name: signatures.signerName, meaning: signatures.meaning, signedAt: signatures.signedAt })
+      .from(signatures)
+      .where(eq(signatures.revisionId, run.revisionId))
+      .orderBy(asc(signatures.signedAt)),
+  ]);
   return {
     id: rev!.id,
     number: rev!.number,
     state: rev!.state,
     title: rev!.title,
     approvedAt: iso(rev!.decidedAt),
-    author: who(rev!.authorId),
+    author: rev!.author,
     contentHash: run.revisionHash,
     signOffs: signOffs.map((s) => ({ name: s.name, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
   };
 }
 
-export async function loadRunView(db: Db | Tx, runId: string): Promise<RunView> {
-  const [run] = await db.select().from(runs).where(eq(runs.id, runId));
+/** A run as the client shows it; pass the run row when it was just read (under its lock) to save reading it again. */
+export async function loadRunView(db: Db | Tx, runId: string, known?: RunRow): Promise<RunView> {
+  let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
-  const [unit] = await db.select().from(units).where(eq(units.id, run.unitId));
-  const entries = await db.select().from(runEntries).where(eq(runEntries.runId, runId));
-  const history = await db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id));
-  const photos = await db.select().from(runPhotos).where(eq(runPhotos.runId, runId)).orderBy(asc(runPhotos.addedAt));
-  const [signature] = await db.select().from(runSignatures).where(eq(runSignatures.runId, runId));
+  // Independent reads, side by side (inside a transaction they queue on its one connection).
+  const [[unit], entries, history, photos, [signature], revision] = await Promise.all([
+    db.select().from(units).where(eq(units.id, run.unitId)),
+    db.select().from(runEntries).where(eq(runEntries.runId, runId)),
+    db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id)),
+    db.select().from(runPhotos).where(eq(runPhotos.runId, runId)).orderBy(asc(runPhotos.addedAt)),
+    db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
+    revisionRecord(db, run),
+  ]);
   const who = await names(db, [run.startedBy, ...entries.map((e) => e.enteredBy), ...photos.map((p) => p.addedBy), ...(signature ? [signature.signerId] : [])]);
 
   const entryViews: EntryView[] = entries.map((e) => ({
@@ -118,6 +129,8 @@ export async function loadRunView(db: Db | Tx, runId: string): Promise<RunView> 
   const state = new Map(entries.map((e) => [e.stepId, e]));
   const unitNow = unitRecordOf(unit!);
   let verified = false;
+  // Signed since the given row was read: read the run again, as signed.
+  if (signature && run.status !== 'signed') [run] = (await db.select().from(runs).where(eq(runs.id, runId))) as [RunRow];
   if (signature) {
     verified = runContentHash(await runContent(db, run, run.unitRecord ?? unitNow)) === signature.contentHash && signature.contentHash === run.contentHash;
   }
@@ -127,7 +140,7 @@ export async function loadRunView(db: Db | Tx, runId: string): Promise<RunView> 
     status: run.status,
     outOfTolerance: run.outOfTolerance,
     unit: run.unitRecord ?? unitNow,
-    revision: await revisionRecord(db, run),
+    revision,
     params: run.params,
     snapshot: run.snapshot,
     steps: run.steps,

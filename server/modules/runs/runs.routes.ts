@@ -56,8 +56,8 @@ export const runRoutes = [
     params: entryParams,
     body: entryBody,
     handler: async ({ params, body, user, deps }) => {
-      const { replayed } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
-      const run = await loadRunView(deps.db, params.id);
+      const { replayed, run: row } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
+      const run = await loadRunView(deps.db, params.id, row);
       return { replayed, entry: run.entries.find((e) => e.stepId === params.stepId) ?? null, run };
     },
   }),

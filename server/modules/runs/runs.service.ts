@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { evaluateDocument } from '../../../shared/document/evaluate';
 import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
 import type { Db } from '../../db/client';
-import { people, revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
+import { revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
 import { conflict, notFound, badRequest } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { revisionContentHash } from '../review/signed-content';
@@ -72,7 +72,7 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
       if (seen.runId !== runId || seen.stepId !== stepId) {
         throw conflict('This idempotency key was already used for another entry; send a new key.', { fields: [{ field: 'body.key', reason: 'already used' }] });
       }
-      return { replayed: true };
+      return { replayed: true, run };
     }
     if (run.status === 'signed') throw conflict('This run sheet is signed; nothing on it can change.');
     const step = run.steps.find((s) => s.id === stepId);
@@ -110,7 +110,6 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
     } else {
       [entry] = (await tx.insert(runEntries).values({ ...values, runId, stepId, kind: step.kind }).returning()) as [EntryRow];
     }
-    const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
     await tx.insert(runEntryHistory).values({
       runId,
       entryId: entry.id,
@@ -124,12 +123,11 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
       note: entry.note,
       reason: body.reason ?? null,
       enteredBy: user.id,
-      enteredByName: person?.name ?? user.displayName,
+      enteredByName: user.displayName,
     });
-    await tx
-      .update(runs)
-      .set({ outOfTolerance: sql`exists (select 1 from ${runEntries} where ${runEntries.runId} = ${runId} and ${runEntries.within} = false)` })
-      .where(eq(runs.id, runId));
-    return { replayed: false };
+    // The run row is locked, so its entries are exactly `rows` with this one put in.
+    const outOfTolerance = [...rows.filter((r) => r.id !== entry.id), entry].some((r) => r.within === false);
+    if (outOfTolerance !== run.outOfTolerance) await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
+    return { replayed: false, run: { ...run, outOfTolerance } };
   });
 }
