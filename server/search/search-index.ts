@@ -52,6 +52,16 @@ export class SearchIndex {
   private docs: (IndexedProcedure | undefined)[] = [];
   private docTerms: (string[] | undefined)[] = [];
   private lineCache: ({ line: string; tokens: Set<string> }[] | undefined)[] = [];
+  /** Tokens of each word a snippet shows, remembered: the library's words are few, snippets many. */
+  private wordTokens = new Map<string, string[]>();
+  private tokensOfWord = (word: string) => {
+    let tokens = this.wordTokens.get(word);
+    if (!tokens) {
+      if (this.wordTokens.size >= 100_000) this.wordTokens.clear();
+      this.wordTokens.set(word, (tokens = tokenize(word)));
+    }
+    return tokens;
+  };
   private slotOf = new Map<string, number>();
   private fieldLengthSum = FIELDS.map(() => 0);
   // Families and tags as small integers per slot, so counting facets over thousands of matches is cheap.
@@ -317,7 +327,7 @@ export class SearchIndex {
       model: d.model,
       tags: d.tags,
       score: Math.round(score * 1000) / 1000,
-      snippet: snippetFrom(lines, words),
+      snippet: snippetFrom(lines, words, 200, this.tokensOfWord),
     };
   }
 }
@@ -349,7 +359,7 @@ export function snippet(text: string, matched: Set<string>, max = 200) {
   return snippetFrom(lines, matched, max);
 }
 
-function snippetFrom(lines: { line: string; tokens: Set<string> }[], matched: Set<string>, max = 200): { text: string; hit: boolean }[] {
+function snippetFrom(lines: { line: string; tokens: Set<string> }[], matched: Set<string>, max = 200, tokensOf = tokenize): { text: string; hit: boolean }[] {
   let best = lines[0]?.line ?? '';
   let bestCount = 0;
   for (const { line, tokens } of lines) {
@@ -363,7 +373,7 @@ function snippetFrom(lines: { line: string; tokens: Set<string> }[], matched: Se
   if (best.length > max) best = best.slice(0, max).replace(/\s+\S*$/, '') + ' …';
   const parts: { text: string; hit: boolean }[] = [];
   for (const piece of best.split(/(\s+)/)) {
-    const hit = piece.trim() !== '' && tokenize(piece).some((t) => matched.has(t));
+    const hit = piece.trim() !== '' && tokensOf(piece).some((t) => matched.has(t));
     const last = parts[parts.length - 1];
     if (last && last.hit === hit) last.text += piece;
     else parts.push({ text: piece, hit });

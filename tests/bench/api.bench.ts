@@ -59,11 +59,16 @@ function startProcess(script: string, env: Record<string, string> = {}, nodeArgs
   const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'inherit'] });
   return new Promise<{ child: ChildProcess; url: string }>((resolve, reject) => {
     let out = '';
-    child.stdout!.on('data', (chunk: Buffer) => {
+    const onData = (chunk: Buffer) => {
       out += chunk.toString();
       const m = /READY (\S+)/.exec(out);
-      if (m) resolve({ child, url: m[1]! });
-    });
+      if (!m) return;
+      // From here on the output (the app's request log) is read and dropped.
+      child.stdout!.off('data', onData);
+      child.stdout!.resume();
+      resolve({ child, url: m[1]! });
+    };
+    child.stdout!.on('data', onData);
     child.once('exit', (code) => reject(new Error(`${script} exited with ${code} before it was ready`)));
   });
 }
