@@ -45,6 +45,8 @@ export const PROCEDURE_PAGE_SIZES = [25, 50, 100, 200] as const;
 
 /** GET /api/procedures: filters, sort and one page; every field optional with a shop-sensible default. */
 export const procedureListQuery = z.object({
+  /** Words the title contains, in any case. */
+  q: z.string().trim().max(160, 'at most 160 characters').optional(),
   family: z.string().max(80, 'at most 80 characters').optional(),
   tag: z.string().max(40, 'at most 40 characters').optional(),
   state: z.enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state').optional(),

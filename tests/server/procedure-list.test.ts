@@ -72,6 +72,14 @@ describe('the procedure list, paged on the server', () => {
     expect(radio.total).toBe([...Array(GENERATED).keys()].filter((i) => i % 3 === 2 && i % 2 === 0).length);
   });
 
+  it('finds titles containing the words typed, in any case, with % and _ taken literally', async () => {
+    const found = await walk('tom', `q=${encodeURIComponent('LISTING CHECK 1')}`, 50);
+    expect(found.items.map((p) => p.title).sort()).toEqual([...Array(10).keys()].map((i) => `Listing check 1${i}`));
+    expect((await walk('tom', `q=${encodeURIComponent('listing%check')}`, 50)).total).toBe(0);
+    expect((await walk('tom', `q=${encodeURIComponent('check _5')}`, 50)).total).toBe(0);
+    expect((await walk('tom', `q=${encodeURIComponent('check 05')}&family=Radio`, 50)).items.map((p) => p.title)).toEqual(['Listing check 05']);
+  });
+
   it('a technician sees approved work only; staff see drafts as the latest revision, and the approved one beside it', async () => {
     const { c, revision } = await newDraft(t, 'hal');
     const renamed = await c.put(`/api/revisions/${revision.id}`).send({ title: 'Listing draft only', equipmentFamily: 'Organ', equipmentModel: 'LD-1', tags: ['draft'], params, lockVersion: revision.lockVersion, document: goodDoc() });

@@ -26,6 +26,10 @@ export function useBrowserApp() {
     get url() {
       return server!.url;
     },
+    /** The test server's database, as the application role. */
+    get databaseUrl() {
+      return server!.databaseUrl;
+    },
     get browser() {
       return browser!;
     },

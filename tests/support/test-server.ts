@@ -18,6 +18,7 @@ export async function startTestServer() {
   });
   return {
     url: running.url,
+    databaseUrl: database.url,
     async close() {
       await running.close();
       await database.drop();

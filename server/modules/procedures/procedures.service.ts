@@ -122,7 +122,10 @@ const SORT_COLUMNS: Record<ProcedureSort, (dir: 'asc' | 'desc') => SQL[]> = {
 };
 
 type ListQuery = z.output<typeof procedureListQuery>;
-const FILTERS = ['family', 'tag', 'state', 'runnable'] as const;
+const FILTERS = ['q', 'family', 'tag', 'state', 'runnable'] as const;
+
+/** A LIKE pattern matching the text anywhere, with LIKE's own wildcards taken literally. */
+const containing = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 /**
  * The list query for one sort and one set of filters in use, with the values as placeholders.
@@ -133,6 +136,7 @@ function buildListQuery(db: Db, sort: ProcedureSort, dir: 'asc' | 'desc', used: 
   const p = (key: string) => sql.placeholder(key);
   const where = and(
     eq(procedureListing.audience, p('audience')),
+    used.has('q') ? sql`lower(${procedureListing.title}) like ${p('q')}` : undefined,
     used.has('family') ? eq(procedureListing.equipmentFamily, p('family')) : undefined,
     used.has('tag') ? sql`${p('tag')} = any(${procedureListing.tags})` : undefined,
     used.has('state') ? eq(procedureListing.state, p('state')) : undefined,
@@ -166,7 +170,7 @@ export async function listProcedures(db: Db, user: SessionUser, q: ListQuery): P
   if (!byName) preparedLists.set(db, (byName = new Map()));
   let prepared = byName.get(name);
   if (!prepared) byName.set(name, (prepared = buildListQuery(db, q.sort, dir, used, name)));
-  const values = { audience: audienceOf(user), family: q.family, tag: q.tag?.toLowerCase(), state: q.state, limit: q.limit, offset: q.offset };
+  const values = { audience: audienceOf(user), q: q.q ? containing(q.q) : undefined, family: q.family, tag: q.tag?.toLowerCase(), state: q.state, limit: q.limit, offset: q.offset };
   const rows = await prepared.execute(values);
   // Past the last page there is no row to carry the count: ask for the first row's.
   const counted = rows[0]?.total ?? (q.offset > 0 ? ((await prepared.execute({ ...values, offset: 0, limit: 1 }))[0]?.total ?? 0) : 0);

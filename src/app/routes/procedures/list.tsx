@@ -1,4 +1,4 @@
-import { useEffect } from 'react';
+import { useEffect, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { SortingState } from '@tanstack/react-table';
 import { PROCEDURE_PAGE_SIZES, PROCEDURE_SORTS, type ProcedureSort } from '@shared/schemas/procedures';
@@ -6,6 +6,7 @@ import type { RevisionStateName } from '@shared/schemas/revision-states';
 import { Notice } from '@/components/ui/notice';
 import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
+import { useDebounced } from '@/hooks/use-debounced';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useProcedureFacets, useProcedures } from '@/features/procedures/api/get-procedures';
 import { ProcedureFilters, type Filters } from '@/features/procedures/components/procedure-filters';
@@ -21,6 +22,7 @@ function useListState() {
   const size = Number(oneOf(PROCEDURE_PAGE_SIZES.map(String), params.get('size'), '50'));
   const page = Math.max(1, Math.floor(Number(params.get('page'))) || 1);
   const filters: Filters = { family: params.get('family') ?? '', tag: params.get('tag') ?? '', state: (params.get('state') ?? '') as RevisionStateName | '' };
+  const q = params.get('q') ?? '';
   const update = (next: Record<string, string>) => {
     const merged = new URLSearchParams(params);
     for (const [k, v] of Object.entries(next)) {
@@ -29,13 +31,23 @@ function useListState() {
     }
     setParams(merged, { replace: true });
   };
-  return { sort, dir, size, page, filters, update };
+  return { sort, dir, size, page, filters, q, update };
 }
 
 export default function ProceduresPage() {
   const session = useSession();
-  const { sort, dir, size, page, filters, update } = useListState();
-  const query = useProcedures({ family: filters.family || undefined, tag: filters.tag || undefined, state: filters.state || undefined, sort, dir, limit: size, offset: (page - 1) * size });
+  const { sort, dir, size, page, filters, q, update } = useListState();
+  // The title box updates the address once typing pauses.
+  const [title, setTitle] = useState(q);
+  const settled = useDebounced(title.trim(), 250);
+  useEffect(() => {
+    if (settled !== q) update({ q: settled, page: '' });
+  }, [settled]); // only a settled change of the box moves the address
+  // …and the address moving on its own (back, a link) refills the box.
+  useEffect(() => {
+    if (q !== settled) setTitle(q);
+  }, [q]);
+  const query = useProcedures({ q: q || undefined, family: filters.family || undefined, tag: filters.tag || undefined, state: filters.state || undefined, sort, dir, limit: size, offset: (page - 1) * size });
   const facets = useProcedureFacets();
   const isAuthor = hasRole(session.data?.user, 'author');
   useEffect(() => {
@@ -55,7 +67,13 @@ export default function ProceduresPage() {
         )}
       </div>
       {!isAuthor && hasRole(session.data?.user, 'technician') && <p className="text-sm text-graphite-soft">Procedures with an approved revision.</p>}
-      <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
+      <div className="flex flex-wrap items-end gap-3">
+        <label className="flex flex-col gap-1 text-xs font-semibold">
+          Title contains
+          <input type="search" className="min-h-10 w-64 rounded border border-rule bg-card px-2 text-sm font-normal" value={title} onChange={(e) => setTitle(e.target.value)} maxLength={160} />
+        </label>
+        <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
+      </div>
       {query.isPending && <p className="text-graphite-soft">Loading…</p>}
       {query.isError && <Notice tone="error">{query.error.message}</Notice>}
       {data && (
@@ -80,7 +98,7 @@ export default function ProceduresPage() {
               <ProcedureTable procedures={data.procedures} sorting={sorting} onSortingChange={(s) => update({ sort: s[0]?.id ?? '', dir: s[0] ? (s[0].desc ? 'desc' : 'asc') : '', page: '' })} />
             </div>
           ) : (
-            <Notice>{data.total ? 'This page is past the end of the list.' : 'No procedure matches these filters.'}</Notice>
+            <Notice>{data.total ? 'This page is past the end of the list.' : q ? `No procedure title contains “${q}” with these filters.` : 'No procedure matches these filters.'}</Notice>
           )}
           <Pager page={page} pages={pages} label="Procedure list pages" onPage={(p) => update({ page: p > 1 ? String(p) : '' })} />
         </>

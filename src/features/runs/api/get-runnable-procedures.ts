@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
 import { getProcedures } from '@/features/procedures/api/get-procedures';
@@ -6,13 +6,13 @@ import { getProcedures } from '@/features/procedures/api/get-procedures';
 /** The largest page the list API serves. */
 export const RUNNABLE_LIMIT = 200;
 
-/** Procedures with an approved revision (the only ones a bench run may follow), by title. */
-export const runnableProceduresQueryOptions = () =>
+/** Procedures with an approved revision (the only ones a bench run may follow), by title, optionally those whose title contains `q`. */
+export const runnableProceduresQueryOptions = (q = '') =>
   queryOptions({
-    queryKey: ['procedures', 'runnable'],
-    queryFn: () => getProcedures({ runnable: 'true', sort: 'title', dir: 'asc', limit: RUNNABLE_LIMIT }),
+    queryKey: ['procedures', 'runnable', q],
+    queryFn: () => getProcedures({ runnable: 'true', q: q || undefined, sort: 'title', dir: 'asc', limit: RUNNABLE_LIMIT }),
   });
-export const useRunnableProcedures = () => useQuery(runnableProceduresQueryOptions());
+export const useRunnableProcedures = (q = '') => useQuery({ ...runnableProceduresQueryOptions(q), placeholderData: keepPreviousData });
 
 export const useRevisionParams = (revisionId: string | undefined) =>
   useQuery({

@@ -1,7 +1,9 @@
 import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { parseQuantity, QuantityParseError } from '@shared/units';
+import type { ProcedureListItem } from '@shared/schemas/procedures';
 import { Notice } from '@/components/ui/notice';
+import { useDebounced } from '@/hooks/use-debounced';
 import { useRevisionParams, useRunnableProcedures } from '../api/get-runnable-procedures';
 import { useStartRun } from '../api/start-run';
 
@@ -27,14 +29,21 @@ function readMains(text: string, unit: 'V' | 'Hz'): { value?: number; error?: st
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
 export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOption[]; initialUnitId?: string; runPath: (id: string) => string }) {
   const navigate = useNavigate();
-  const procedures = useRunnableProcedures();
+  const [find, setFind] = useState('');
+  const q = useDebounced(find.trim(), 250);
+  const procedures = useRunnableProcedures(q);
   const start = useStartRun();
   const [procedureId, setProcedureId] = useState('');
+  // The chosen procedure stays chosen when a new title search no longer lists it.
+  const [chosen, setChosen] = useState<ProcedureListItem | undefined>();
   const [unitId, setUnitId] = useState(initialUnitId ?? '');
   const [mains, setMains] = useState('');
   const [frequency, setFrequency] = useState('');
   const [key] = useState(() => crypto.randomUUID());
-  const procedure = procedures.data?.procedures.find((p) => p.id === procedureId);
+  const procedure = chosen?.id === procedureId ? chosen : undefined;
+  const listed = procedures.data?.procedures ?? [];
+  const options = procedure && !listed.some((p) => p.id === procedure.id) ? [procedure, ...listed] : listed;
+  const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
   const mainsRead = readMains(mains, 'V');
   const freqRead = readMains(frequency || (params.data ? String(params.data.mainsFrequency) : ''), 'Hz');
@@ -54,11 +63,25 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
   return (
     <form onSubmit={submit} className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5" noValidate>
       {start.error && <Notice tone="error">{start.error.message}</Notice>}
+      {many && (
+        <label className="flex flex-col gap-1 text-sm font-semibold">
+          Find an approved procedure by title
+          <input type="search" placeholder="Words in the title…" className={`${select} font-normal`} value={find} onChange={(e) => setFind(e.target.value)} maxLength={160} />
+        </label>
+      )}
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Approved procedure
-        <select aria-label="Approved procedure" className={select} value={procedureId} onChange={(e) => setProcedureId(e.target.value)}>
+        <select
+          aria-label="Approved procedure"
+          className={select}
+          value={procedureId}
+          onChange={(e) => {
+            setProcedureId(e.target.value);
+            setChosen(options.find((p) => p.id === e.target.value));
+          }}
+        >
           <option value="">Choose…</option>
-          {procedures.data?.procedures.map((p) => (
+          {options.map((p) => (
             <option key={p.id} value={p.id}>
               {p.title} ({p.equipmentModel}, revision {p.approved!.number})
             </option>
@@ -66,9 +89,10 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
         </select>
         {procedures.data && procedures.data.total > procedures.data.procedures.length && (
           <span className="font-normal text-graphite-soft">
-            Showing the first {procedures.data.procedures.length} of {procedures.data.total} approved procedures, by title.
+            Showing the first {procedures.data.procedures.length} of {procedures.data.total} approved procedures{q ? ` whose title contains “${q}”` : ''}, by title; type more of the title to narrow.
           </span>
         )}
+        {q && procedures.data?.total === 0 && <span className="font-normal text-graphite-soft">No approved procedure’s title contains “{q}”.</span>}
         {touched && !procedure && <span className="text-out">choose a procedure</span>}
       </label>
       <label className="flex flex-col gap-1 text-sm font-semibold">

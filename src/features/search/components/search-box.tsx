@@ -3,7 +3,7 @@ import { useNavigate } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { useSearch } from '../api/search-procedures';
 import { Snippet } from './snippet';
-import { useDebounced } from './use-debounced';
+import { useDebounced } from '@/hooks/use-debounced';
 
 const isTyping = (el: EventTarget | null) =>
   el instanceof HTMLElement && (el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName));

@@ -1,5 +1,6 @@
 import { useEffect, useState } from 'react';
 
+/** The value once it has stopped changing for `ms` milliseconds (typing, say). */
 export function useDebounced<T>(value: T, ms: number): T {
   const [settled, setSettled] = useState(value);
   useEffect(() => {

@@ -1,0 +1,56 @@
+import { eq } from 'drizzle-orm';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { createDb, createPool } from '../../server/db/client';
+import { people } from '../../server/db/schema';
+import { createProcedure } from '../../server/modules/procedures/procedures.service';
+import { useBrowserApp } from '../support/e2e';
+
+const app = useBrowserApp();
+const ADDED = 60;
+
+beforeAll(async () => {
+  const pool = createPool(app.databaseUrl);
+  const db = createDb(pool);
+  const [hal] = await db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
+  for (let i = 0; i < ADDED; i++) {
+    await createProcedure(db, hal!.id, { title: `Pager check ${String(i).padStart(2, '0')}`, equipmentFamily: 'Organ', equipmentModel: `PG-${i}`, tags: ['pager'] }, 'approved');
+  }
+  await pool.end();
+});
+
+describe('the procedure list in Chromium', () => {
+  it('pages, finds by title and sorts on the server; the address keeps the list as it was left', async () => {
+    const page = await app.openPage();
+    await app.signIn(page, 'tom');
+    await page.goto(app.url + '/procedures');
+    const total = ADDED + 4; // the demo library's four approved procedures
+    await page.getByText(`Showing 1–50 of ${total}.`).waitFor();
+    expect(await page.getByRole('table', { name: 'Procedures' }).locator('tbody tr').count()).toBe(50);
+
+    await page.getByRole('navigation', { name: 'Procedure list pages' }).getByRole('button', { name: 'Next' }).click();
+    await page.getByText(`Showing 51–${total} of ${total}.`).waitFor();
+    expect(new URL(page.url()).searchParams.get('page')).toBe('2');
+
+    await page.getByLabel('Title contains').fill('PAGER CHECK 1');
+    await page.waitForURL((u) => u.searchParams.get('q') === 'PAGER CHECK 1');
+    await page.getByText('Showing 1–10 of 10.').waitFor();
+
+    await page.getByRole('button', { name: /^Title/ }).click();
+    await page.waitForURL((u) => u.searchParams.get('sort') === 'title');
+    const titleHeader = page.getByRole('columnheader', { name: /Title/ });
+    await expect.poll(() => titleHeader.getAttribute('aria-sort')).toBe('ascending');
+    await expect.poll(() => page.getByRole('table', { name: 'Procedures' }).locator('tbody tr td:first-child').allTextContents()).toEqual(
+      [...Array(10).keys()].map((i) => `Pager check 1${i}`),
+    );
+
+    await page.reload();
+    await page.getByText('Showing 1–10 of 10.').waitFor();
+    expect(await page.getByLabel('Title contains').inputValue()).toBe('PAGER CHECK 1');
+    expect(await titleHeader.getAttribute('aria-sort')).toBe('ascending');
+
+    await page.getByLabel('Title contains').fill('no such title anywhere');
+    await page.getByText('No procedure title contains “no such title anywhere” with these filters.').waitFor();
+    expect(app.cspViolations).toEqual([]);
+    await page.context().close();
+  });
+});
