@@ -1,18 +1,20 @@
 // Hostile strings stored through the API in procedure bodies, titles, review comments, unit names
 // and upload file names, then rendered in Chromium: no script may run.
-// Corpus: big-list-of-naughty-strings (Max Woolf and contributors, MIT licence), its script-injection
+// Corpora: big-list-of-naughty-strings (Max Woolf and contributors, MIT licence), its script-injection
 // entries, each rewritten to call a tripwire instead of alert so a run is detectable even without a
-// dialog; plus the same strings untouched.
+// dialog, plus the same strings untouched; and filter-evasion vectors after the OWASP XSS Filter
+// Evasion Cheat Sheet (tests/support/xss-evasion.ts, written from memory; they trip the wire too).
 import { createRequire } from 'node:module';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { useBrowserApp } from '../support/e2e';
 import { httpSession } from '../support/http-session';
 import { tinyPng } from '../support/png';
 import { demo } from '../support/test-app';
+import { EVASION_VECTORS } from '../support/xss-evasion';
 
 const blns = createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[];
 const hostile = blns.filter((s) => /<|javascript:|on\w+=/i.test(s));
-const tripwired = hostile.map((s) => s.replace(/alert\s*\(\s*[^)]*\)/gi, 'window.__bwTripped=1'));
+const tripwired = [...hostile.map((s) => s.replace(/alert\s*\(\s*[^)]*\)/gi, 'window.__bwTripped=1')), ...EVASION_VECTORS];
 
 const app = useBrowserApp();
 const pages: string[] = [];

@@ -1,13 +1,16 @@
 // Hostile strings stored through every text field of a procedure and rendered by the server.
-// Corpus: big-list-of-naughty-strings by Max Woolf and contributors, MIT licence (npm package
-// big-list-of-naughty-strings, blns.json) — 461 strings, 211 of them script-injection attempts.
+// Corpora: big-list-of-naughty-strings by Max Woolf and contributors, MIT licence (npm package
+// big-list-of-naughty-strings, blns.json) — 461 strings, 211 of them script-injection attempts; and
+// filter-evasion vectors after the OWASP XSS Filter Evasion Cheat Sheet (tests/support/xss-evasion.ts,
+// written from memory, see its header).
 import fc from 'fast-check';
 import { createRequire } from 'node:module';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sanitizeRevisionHtml } from '../../server/modules/procedures/render-html';
 import { createTestApp, type TestApp } from '../support/test-app';
+import { EVASION_VECTORS } from '../support/xss-evasion';
 
-const blns = createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[];
+const blns = [...(createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[]), ...EVASION_VECTORS];
 
 let t: TestApp;
 beforeAll(async () => {
@@ -66,6 +69,15 @@ describe('hostile text in procedures', () => {
       }
     }
     expect(statuses.get(200)).toBeGreaterThan(0);
+  });
+
+  it('every filter-evasion vector given to the sanitizer as HTML comes out inert, and stays so when sanitized again', () => {
+    for (const vector of EVASION_VECTORS) {
+      const once = sanitizeRevisionHtml(vector);
+      assertInert(once, vector.slice(0, 60));
+      expect(once, vector.slice(0, 60)).not.toMatch(/<(script|iframe|object|embed|meta|base|link|style|xmp|noscript|svg|math|form|input|textarea|title)\b/i);
+      expect(sanitizeRevisionHtml(once)).toBe(once);
+    }
   });
 
   it('the sanitizer leaves only allowlisted markup and is idempotent, for generated strings mixed with the corpus', () => {
