@@ -15,7 +15,7 @@ export const toSessionUser = (p: typeof people.$inferSelect): SessionUser => ({
 
 /**
  * A passport instance per app (not the global singleton), so tests can build several apps.
- * The person is re-read on every request: a deactivated person or a role change takes effect at once.
+ * The person behind a session is re-read at most every PERSON_TTL_MS (see deserializeUser).
  */
 export function createPassport(db: Db) {
   const instance = new passport.Passport();

@@ -77,6 +77,8 @@ describe('what reaches the log', () => {
     const invite = await admin.post('/api/people/invitations', { email: 'log.check@tallowcreek.example', displayName: 'Log Check', roles: ['technician'] });
     expect(invite.status).toBe(201);
     const inviteToken = String(invite.body.inviteUrl).split('/set-password/')[1]!;
+    // The invitee opens the link itself: the app shell is served for it, and its token must not be logged.
+    await request(app).get(`/set-password/${inviteToken}`);
     const newPassword = 'valve heaters glow amber at dusk';
     const invitee = session();
     await invitee.get('/api/auth/session');
@@ -112,6 +114,7 @@ describe('what reaches the log', () => {
     expect(parsed.filter((p) => p.req && 'headers' in p.req)).toEqual([]);
     // A one-time link's token in a path is replaced before the line is written.
     expect(parsed.some((p) => p.req?.url?.startsWith('/api/auth/invitations/[redacted]'))).toBe(true);
+    expect(parsed.some((p) => p.req?.url === '/set-password/[redacted]')).toBe(true);
 
     for (const secret of new Set(secrets.filter((s) => s.length >= 8))) {
       expect(output.includes(secret), `the log contains a secret (${secret.slice(0, 6)}…)`).toBe(false);
