@@ -25,7 +25,7 @@ const PgStore = connectPgSimple(session);
  */
 export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
   const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
-  const cache = cacheReads(store, SESSION_READ_CACHE_MS);
+  const cache = cacheReads(store, pool, SESSION_READ_CACHE_MS);
   // Renewal re-saves the session with its new expiry; a separate touch would only repeat that.
   store.touch = (_sid, _sess, callback) => callback?.();
   const secure = config.publicUrl.startsWith('https:');
@@ -75,45 +75,67 @@ function renewIdleLimit(intervalMs: number): RequestHandler {
  * expiry; every write and destroy made here goes to PostgreSQL first and then to memory. A sign-out
  * or deactivation made by another server process reaches this one within ttlMs (deactivation also
  * drops the person from the person cache, which refuses the session at once here).
+ *
+ * A session that was read from the store is saved back with an UPDATE only, never the store's
+ * upsert: a request still in flight when the session is signed out (here or in another process)
+ * must not bring the deleted row back. Only a session made in this request (a new visitor, or the
+ * new id given at sign-in) is inserted.
  */
-function cacheReads(store: session.Store, ttlMs: number) {
+function cacheReads(store: session.Store, pool: pg.Pool, ttlMs: number) {
   type Entry = { json: string; userId: string | undefined; readAt: number; expires: number };
   const entries = new Map<string, Entry>();
+  // When each session id was last destroyed here, so a read that began before it is not cached.
+  const destroyedAt = new Map<string, number>();
+  const loaded = new WeakSet<object>();
   const entryOf = (sess: session.SessionData): Entry => ({
     json: JSON.stringify(sess),
     userId: (sess as { passport?: { user?: string } }).passport?.user,
     readAt: Date.now(),
     expires: sess.cookie?.expires ? new Date(sess.cookie.expires).getTime() : Infinity,
   });
+  const prune = (map: Map<string, { readAt: number } | number>, olderThan: number) => {
+    for (const [key, v] of map) if ((typeof v === 'number' ? v : v.readAt) < olderThan) map.delete(key);
+  };
   const remember = (sid: string, sess: session.SessionData) => {
-    if (entries.size >= 10_000) {
-      const now = Date.now();
-      for (const [key, e] of entries) if (now - e.readAt >= ttlMs) entries.delete(key);
-    }
+    if (entries.size >= 10_000) prune(entries, Date.now() - ttlMs);
     entries.set(sid, entryOf(sess));
   };
   const get = store.get.bind(store);
   const set = store.set.bind(store);
   const destroy = store.destroy.bind(store);
+  const createSession = store.createSession.bind(store);
+  store.createSession = (req, data) => {
+    const made = createSession(req, data);
+    loaded.add(made);
+    return made;
+  };
   store.get = (sid, callback) => {
     const hit = entries.get(sid);
-    const now = Date.now();
-    if (hit && now - hit.readAt < ttlMs && now < hit.expires) return callback(null, JSON.parse(hit.json) as session.SessionData);
+    const started = Date.now();
+    if (hit && started - hit.readAt < ttlMs && started < hit.expires) return callback(null, JSON.parse(hit.json) as session.SessionData);
     entries.delete(sid);
     get(sid, (err, sess) => {
-      if (!err && sess) remember(sid, sess);
+      if (!err && sess && !((destroyedAt.get(sid) ?? -1) >= started)) remember(sid, sess);
       callback(err, sess);
     });
   };
   store.set = (sid, sess, callback) => {
     entries.delete(sid);
-    set(sid, sess, (err?: unknown) => {
+    const done = (err?: unknown) => {
       if (!err) remember(sid, sess);
       callback?.(err);
-    });
+    };
+    if (!loaded.has(sess)) return set(sid, sess, done);
+    const expire = sess.cookie?.expires ? new Date(sess.cookie.expires) : new Date(Date.now() + 86_400_000);
+    pool.query('UPDATE "session" SET sess = $1, expire = $2 WHERE sid = $3', [sess, expire, sid]).then(
+      (r) => (r.rowCount ? done() : callback?.()), // gone meanwhile: stays gone, and is not cached
+      (err: unknown) => callback?.(err),
+    );
   };
   store.destroy = (sid, callback) => {
     entries.delete(sid);
+    if (destroyedAt.size >= 10_000) prune(destroyedAt, Date.now() - 60_000);
+    destroyedAt.set(sid, Date.now());
     destroy(sid, callback);
   };
   return {

@@ -12,7 +12,8 @@ declare module 'express-serve-static-core' {
 }
 
 /** Path segments that are secrets themselves (a one-time set-password link) are not logged. */
-const SECRET_PATHS = [/^(\/api\/auth\/invitations\/)[^/?]+/, /^(\/set-password\/)[^/?]+/];
+// Express matches paths in any case, so these do too.
+const SECRET_PATHS = [/^(\/api\/auth\/invitations\/)[^/?]+/i, /^(\/set-password\/)[^/?]+/i];
 const loggedUrl = (url: string) => SECRET_PATHS.reduce((u, re) => u.replace(re, '$1[redacted]'), url);
 
 /**

@@ -79,6 +79,7 @@ describe('what reaches the log', () => {
     const inviteToken = String(invite.body.inviteUrl).split('/set-password/')[1]!;
     // The invitee opens the link itself: the app shell is served for it, and its token must not be logged.
     await request(app).get(`/set-password/${inviteToken}`);
+    await request(app).get(`/API/Auth/Invitations/${inviteToken}`); // Express routes paths in any case
     const newPassword = 'valve heaters glow amber at dusk';
     const invitee = session();
     await invitee.get('/api/auth/session');

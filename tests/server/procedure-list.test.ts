@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { people, procedureListing, revisions } from '../../server/db/schema';
 import { createProcedure } from '../../server/modules/procedures/procedures.service';
@@ -125,6 +126,30 @@ describe('the procedure list, paged on the server', () => {
       expect(staff?.approvedId ?? null).toBe(mine.find((r) => r.state === 'approved')?.id ?? null);
     }
     expect(listing.length).toBe(procedureIds.length + new Set(all.filter((r) => r.state === 'approved' || r.state === 'superseded').map((r) => r.procedureId)).size);
+  });
+
+  it('two transactions changing one procedure at once leave the listing as the database ends up', async () => {
+    const [hal] = await t.db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
+    const { procedure, revision: first } = await createProcedure(t.db, hal!.id, { title: 'Listing race', equipmentFamily: 'Organ', equipmentModel: 'LR-1', tags: [] }, 'approved');
+    const c = await t.as('hal');
+    const next = (await c.post(`/api/procedures/${procedure.id}/drafts`).send({})).body.revision as { id: string };
+    const withdrawer = new pg.Client({ connectionString: t.databaseUrl });
+    const saver = new pg.Client({ connectionString: t.databaseUrl });
+    await Promise.all([withdrawer.connect(), saver.connect()]);
+    try {
+      await withdrawer.query('begin');
+      await withdrawer.query(`update revisions set state = 'withdrawn' where id = $1`, [first.id]);
+      // A draft save lands while the withdrawal is still open; it must wait for it, then see it.
+      const save = saver.query(`update revisions set title = 'Listing race, renamed', updated_at = now() where id = $1`, [next.id]);
+      await new Promise((r) => setTimeout(r, 300));
+      await withdrawer.query('commit');
+      await save;
+    } finally {
+      await Promise.all([withdrawer.end(), saver.end()]);
+    }
+    const rows = await t.db.select().from(procedureListing).where(eq(procedureListing.procedureId, procedure.id));
+    const staff = rows.find((r) => r.audience === 'staff');
+    expect(staff).toMatchObject({ revisionId: next.id, title: 'Listing race, renamed', approvedId: null });
   });
 
   it('facets offer the families, tags and states that occur for the caller', async () => {

@@ -1,5 +1,6 @@
 // Session lifetime (ASVS 5.0 7.3.1 idle and 7.3.2 absolute timeouts; 7.4.1 logout ends the session
 // server-side): with the limits shortened to seconds so the test can wait them out.
+import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { session as sessionTable } from '../../server/db/schema';
 import { createTestApp, type TestApp } from '../support/test-app';
@@ -60,6 +61,22 @@ describe('session limits', () => {
     await sleep(1_500);
     expect((await c.get('/api/procedures')).status).toBe(401);
   }, 15_000);
+
+  it('a save still in flight when the session is signed out does not bring it back', async () => {
+    const c = await t.as('tom');
+    const sid = decodeURIComponent(c.agent.jar.getCookie('bw.sid', { path: '/', domain: '127.0.0.1', secure: false, script: false })!.value).slice(2).split('.')[0]!;
+    const store = t.app.locals.sessionStore as import('express-session').Store;
+    // A request loaded the session (as express-session does, through load → createSession)…
+    const loaded = await new Promise<import('express-session').Session & Record<string, unknown>>((resolve, reject) => store.load(sid, (err, s) => (err || !s ? reject(err ?? new Error('no session')) : resolve(s as never))));
+    // …the person signs out meanwhile…
+    await new Promise<void>((resolve) => store.destroy(sid, () => resolve()));
+    // …and that request then saves its copy (an idle-limit renewal, say).
+    loaded.renewedAt = Date.now();
+    await new Promise<void>((resolve, reject) => store.set(sid, loaded as never, (err) => (err ? reject(err) : resolve())));
+    const rows = await t.ownerDb.select().from(sessionTable).where(eq(sessionTable.sid, sid));
+    expect(rows).toEqual([]);
+    expect((await c.get('/api/procedures')).status).toBe(401);
+  });
 
   it('sign-out ends the session at once; a session removed by another process ends within the read cache time', async () => {
     const c = await t.as('tom');

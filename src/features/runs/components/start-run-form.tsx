@@ -40,8 +40,9 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
   const [mains, setMains] = useState('');
   const [frequency, setFrequency] = useState('');
   const [key] = useState(() => crypto.randomUUID());
-  const procedure = chosen?.id === procedureId ? chosen : undefined;
   const listed = procedures.data?.procedures ?? [];
+  // The freshest copy when listed (a re-approval moves its revision), else the one chosen.
+  const procedure = listed.find((p) => p.id === procedureId) ?? (chosen?.id === procedureId ? chosen : undefined);
   const options = procedure && !listed.some((p) => p.id === procedure.id) ? [procedure, ...listed] : listed;
   const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
