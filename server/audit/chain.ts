@@ -22,6 +22,12 @@ export interface ChainRow {
 
 export interface ChainReport {
   checked: number;
+  /**
+   * The last entry and its hash when every link holds. Written down elsewhere now and then, it is
+   * the anchor that shows a later deletion from the end, or a chain recomputed by someone with
+   * owner rights, which the chain alone cannot.
+   */
+  head: { seq: number; rowHash: string } | null;
   /** The first row that breaks the chain, or null when every link holds. */
   firstBroken: { seq: number; id: number; at: string; action: string; reason: string } | null;
 }
@@ -52,7 +58,7 @@ export async function verifyAuditChain(db: Db): Promise<ChainReport> {
       select seq, id, to_char(at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"') as at, actor_id, action, subject,
              details::text as details, ip, prev_hash, row_hash
       from audit_log where seq > ${before?.seq ?? 0} order by seq limit ${BATCH}`);
-    if (!rows.length) return { checked, firstBroken: null };
+    if (!rows.length) return { checked, head: before ? { seq: before.seq, rowHash: before.rowHash } : null, firstBroken: null };
     for (const raw of rows) {
       const row: ChainRow = {
         seq: Number(raw.seq),
@@ -68,7 +74,7 @@ export async function verifyAuditChain(db: Db): Promise<ChainReport> {
       };
       checked++;
       const reason = brokenLink(row, before);
-      if (reason) return { checked, firstBroken: { seq: row.seq, id: row.id, at: row.at, action: row.action, reason } };
+      if (reason) return { checked, head: null, firstBroken: { seq: row.seq, id: row.id, at: row.at, action: row.action, reason } };
       before = row;
     }
   }

@@ -37,7 +37,7 @@ describe('the audit hash chain', () => {
       expect(r.rowHash).toMatch(/^[0-9a-f]{64}$/);
     });
     const report = await verifyAuditChain(t.db);
-    expect(report).toEqual({ checked: rows.length, firstBroken: null });
+    expect(report).toEqual({ checked: rows.length, head: { seq: rows.length, rowHash: rows.at(-1)!.rowHash }, firstBroken: null });
   });
 
   it('the row hash is SHA-256 of the documented text (FIPS 180-4 via node:crypto)', () => {

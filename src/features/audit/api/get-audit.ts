@@ -26,6 +26,7 @@ export function useAuditLog(filters: AuditFilters) {
 
 export interface ChainReport {
   checked: number;
+  head: { seq: number; rowHash: string } | null;
   firstBroken: { seq: number; id: number; at: string; action: string; reason: string } | null;
 }
 
