@@ -17,7 +17,15 @@ export const paths = {
   units: { pattern: '/units', href: () => '/units' },
   unit: { pattern: '/units/:unitId', href: (id: string) => `/units/${id}` },
   runs: { pattern: '/runs', href: () => '/runs' },
-  newRun: { pattern: '/runs/new', href: (unitId?: string) => (unitId ? `/runs/new?unit=${unitId}` : '/runs/new') },
+  newRun: {
+    pattern: '/runs/new',
+    href: (unitId?: string, revisionId?: string) => {
+      const q = new URLSearchParams();
+      if (unitId) q.set('unit', unitId);
+      if (revisionId) q.set('revision', revisionId);
+      return q.size ? `/runs/new?${q}` : '/runs/new';
+    },
+  },
   run: { pattern: '/runs/:runId', href: (id: string) => `/runs/${id}` },
   runSheet: { pattern: '/runs/:runId/sheet', href: (id: string) => `/runs/${id}/sheet` },
 } as const;

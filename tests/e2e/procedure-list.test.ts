@@ -50,6 +50,15 @@ describe('the procedure list in Chromium', () => {
 
     await page.getByLabel('Title contains').fill('no such title anywhere');
     await page.getByText('No procedure title contains “no such title anywhere” with these filters.').waitFor();
+
+    // From a procedure to the bench: the reader's button opens the start form with it chosen.
+    await page.getByLabel('Title contains').fill('pager check 42');
+    await page.getByRole('link', { name: 'Pager check 42' }).click();
+    await page.getByRole('heading', { name: 'Pager check 42' }).waitFor();
+    await page.getByRole('link', { name: 'Start a bench run on this revision' }).click();
+    await page.waitForURL((u) => u.pathname === '/runs/new' && u.searchParams.has('revision'));
+    const chosen = page.getByLabel('Approved procedure');
+    await expect.poll(async () => (await chosen.locator('option:checked').textContent()) ?? '').toContain('Pager check 42');
     expect(app.cspViolations).toEqual([]);
     await page.context().close();
   });

@@ -1,8 +1,9 @@
 import { useEffect } from 'react';
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
 import { Notice } from '@/components/ui/notice';
 import { SafetyCaution } from '@/components/ui/safety-caution';
+import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevision } from '@/features/procedures/api/get-revision';
 import { DocumentView } from '@/features/procedures/components/reader/document-view';
@@ -45,6 +46,13 @@ export default function RevisionPage() {
         </p>
         {r.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {r.tags.join(', ')}</p>}
         <RevisionActions revision={r} isAuthor={hasRole(session.data?.user, 'author')} />
+        {r.state === 'approved' && hasRole(session.data?.user, 'technician') && (
+          <p>
+            <Link to={paths.newRun.href(undefined, r.id)} className="inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white hover:bg-accent-deep">
+              Start a bench run on this revision
+            </Link>
+          </p>
+        )}
         <RevisionReviewPanel revision={r} />
       </header>
       {r.state !== 'approved' && (

@@ -24,7 +24,7 @@ export default function NewRunPage() {
         </Link>
         .
       </p>
-      {units.data && <StartRunForm units={units.data.units} initialUnitId={search.get('unit') ?? undefined} runPath={paths.run.href} />}
+      {units.data && <StartRunForm units={units.data.units} initialUnitId={search.get('unit') ?? undefined} initialRevisionId={search.get('revision') ?? undefined} runPath={paths.run.href} />}
     </section>
   );
 }

@@ -1,9 +1,11 @@
-import { useState, type FormEvent } from 'react';
+import { useEffect, useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
 import { parseQuantity, QuantityParseError } from '@shared/units';
 import type { ProcedureListItem } from '@shared/schemas/procedures';
 import { Notice } from '@/components/ui/notice';
 import { useDebounced } from '@/hooks/use-debounced';
+import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { useRevisionParams, useRunnableProcedures } from '../api/get-runnable-procedures';
 import { useStartRun } from '../api/start-run';
 
@@ -27,7 +29,18 @@ function readMains(text: string, unit: 'V' | 'Hz'): { value?: number; error?: st
 }
 
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
-export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOption[]; initialUnitId?: string; runPath: (id: string) => string }) {
+export function StartRunForm({
+  units,
+  initialUnitId,
+  initialRevisionId,
+  runPath,
+}: {
+  units: UnitOption[];
+  initialUnitId?: string;
+  /** Opened from a procedure's approved revision: that procedure comes chosen. */
+  initialRevisionId?: string;
+  runPath: (id: string) => string;
+}) {
   const navigate = useNavigate();
   const [find, setFind] = useState('');
   const q = useDebounced(find.trim(), 250);
@@ -36,6 +49,23 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
   const [procedureId, setProcedureId] = useState('');
   // The chosen procedure stays chosen when a new title search no longer lists it.
   const [chosen, setChosen] = useState<ProcedureListItem | undefined>();
+  const opened = useQuery({ ...revisionQueryOptions(initialRevisionId ?? ''), enabled: !!initialRevisionId });
+  useEffect(() => {
+    const r = opened.data?.revision;
+    if (!r || r.state !== 'approved' || procedureId) return;
+    setProcedureId(r.procedureId);
+    setChosen({
+      id: r.procedureId,
+      title: r.title,
+      equipmentFamily: r.equipmentFamily,
+      equipmentModel: r.equipmentModel,
+      tags: r.tags,
+      owner: r.author,
+      latest: { id: r.id, number: r.number, state: r.state, updatedAt: r.updatedAt },
+      approved: { id: r.id, number: r.number },
+      updatedAt: r.updatedAt,
+    });
+  }, [opened.data]);
   const [unitId, setUnitId] = useState(initialUnitId ?? '');
   const [mains, setMains] = useState('');
   const [frequency, setFrequency] = useState('');
@@ -64,6 +94,11 @@ export function StartRunForm({ units, initialUnitId, runPath }: { units: UnitOpt
   return (
     <form onSubmit={submit} className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5" noValidate>
       {start.error && <Notice tone="error">{start.error.message}</Notice>}
+      {opened.data && opened.data.revision.state !== 'approved' && (
+        <Notice>
+          Revision {opened.data.revision.number} of “{opened.data.revision.title}” is {opened.data.revision.state.replace('_', ' ')}, not approved: choose the approved procedure below.
+        </Notice>
+      )}
       {many && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Find an approved procedure by title
