@@ -18,8 +18,9 @@ const loggedUrl = (url: string) => SECRET_PATHS.reduce((u, re) => u.replace(re, 
 
 /**
  * One line per finished request: id, method, path, status and time taken; 4xx at warn, 5xx at
- * error. Headers and bodies are never logged, so no cookie, token or password can reach the log;
- * the per-request child logger is made only when a handler logs something.
+ * error, and a warning for one whose answer was cut off. Headers and bodies are never logged, so
+ * no cookie, token or password can reach the log; the per-request child logger is made only when
+ * a handler logs something.
  */
 export function requestLog(logger: Logger, opts: { skip?: (url: string) => boolean } = {}): RequestHandler {
   return (req, res, next) => {
@@ -27,13 +28,14 @@ export function requestLog(logger: Logger, opts: { skip?: (url: string) => boole
     req.id = randomUUID();
     let child: Logger | undefined;
     Object.defineProperty(req, 'log', { configurable: true, get: () => (child ??= logger.child({ reqId: req.id })) });
-    res.on('finish', () => {
-      const level = res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info';
+    const line = (level: 'info' | 'warn' | 'error', msg: string) => {
       if (!logger.isLevelEnabled(level) || opts.skip?.(req.originalUrl)) return;
-      logger[level](
-        { req: { id: req.id, method: req.method, url: loggedUrl(req.originalUrl) }, res: { statusCode: res.statusCode }, responseTime: Math.round(performance.now() - started) },
-        'request completed',
-      );
+      logger[level]({ req: { id: req.id, method: req.method, url: loggedUrl(req.originalUrl) }, res: { statusCode: res.statusCode }, responseTime: Math.round(performance.now() - started) }, msg);
+    };
+    res.on('finish', () => line(res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info', 'request completed'));
+    // The client went away (or the socket broke) before the whole answer was sent.
+    res.on('close', () => {
+      if (!res.writableFinished) line('warn', 'request closed before its answer was complete');
     });
     next();
   };
