@@ -68,7 +68,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (e.code === 'EBADCSRFTOKEN') {
     req.log?.warn({ path: req.path }, 'refused: missing or wrong CSRF token');
-    res.status(403).json({ error: 'This form has expired or did not come from Benchwright; reload the page and try again.' });
+    res.status(403).json({ error: 'This form has expired or did not come from Benchwright; reload the page and try again.', code: 'csrf' });
     return;
   }
   if (isDatabaseUnavailable(err)) {

@@ -25,7 +25,7 @@ export const getCsrfToken = () => csrfToken;
 
 type Json = Record<string, unknown> | unknown[];
 
-async function request<T>(method: string, url: string, body?: Json): Promise<T> {
+async function request<T>(method: string, url: string, body?: Json, retried = false): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
   if (method !== 'GET') headers['X-CSRF-Token'] = csrfToken;
@@ -37,6 +37,12 @@ async function request<T>(method: string, url: string, body?: Json): Promise<T> 
   }
   const text = await res.text();
   const data = text ? (JSON.parse(text) as Record<string, unknown>) : {};
+  // The token went stale (a sign-in in another tab, or an answer to an older request arriving
+  // last): fetch the session's current one and send the write once more.
+  if (res.status === 403 && data.code === 'csrf' && method !== 'GET' && !retried) {
+    await request('GET', '/api/auth/session');
+    return request<T>(method, url, body, true);
+  }
   if (!res.ok) {
     const message = typeof data.error === 'string' ? data.error : `The server answered ${res.status}.`;
     throw new ApiError(res.status, message, (data.fields as FieldProblem[]) ?? [], data);

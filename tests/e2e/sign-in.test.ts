@@ -59,6 +59,29 @@ describe('signing in as each demo role in Chromium', () => {
     await page.context().close();
   });
 
+  it('a write still goes through after the same person signed out and in again in another tab (the token moved on)', async () => {
+    const first = await openPage();
+    await signIn(first, demo.priya.email, demo.priya.password);
+    await first.getByRole('link', { name: 'Units', exact: true }).click();
+    await first.getByRole('heading', { name: 'Units' }).waitFor();
+    // A second tab of the same browser signs out and in again: a new session id and a new CSRF token.
+    const second = await first.context().newPage();
+    await second.goto(app.url + '/');
+    await second.getByRole('button', { name: 'Sign out' }).click();
+    await second.waitForURL(/\/sign-in/);
+    await second.getByLabel('E-mail').fill(demo.priya.email);
+    await second.getByLabel('Password').fill(demo.priya.password);
+    await second.getByRole('button', { name: 'Sign in' }).click();
+    await second.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+    // The first tab still holds the old token; its write is refused once, then sent again with the new one.
+    const form = first.getByRole('form', { name: 'Register a unit' });
+    await form.getByLabel('Model').fill('TC-30H');
+    await form.getByLabel('Serial').fill('TAB-0001');
+    await form.getByRole('button', { name: 'Register unit' }).click();
+    await first.getByRole('link', { name: 'TAB-0001' }).waitFor();
+    await first.context().close();
+  });
+
   it('the built app runs under the strict Content-Security-Policy with no violations', () => {
     expect(cspViolations).toEqual([]);
   });
