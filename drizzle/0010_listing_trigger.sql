@@ -3,6 +3,11 @@
 -- see (approved or superseded), with the approved revision when there is one.
 CREATE OR REPLACE FUNCTION benchwright_refresh_listing(pid uuid) RETURNS void AS $$
 BEGIN
+  -- One refresh per procedure at a time. Under READ COMMITTED each statement below then starts
+  -- after the other transaction's commit and sees its change; without the lock, an upsert that
+  -- waited on the other's row lock would write what it read before (a withdrawn revision shown
+  -- as approved, say).
+  PERFORM pg_advisory_xact_lock(hashtext('benchwright_listing'), hashtext(pid::text));
   INSERT INTO procedure_listing AS l
     (procedure_id, audience, revision_id, number, state, title, equipment_family, equipment_model, tags, updated_at, approved_id, approved_number, owner_id)
   SELECT p.id, aud.audience, r.id, r.number, r.state, r.title, r.equipment_family, r.equipment_model, r.tags, r.updated_at, a.id, a.number, p.owner_id

@@ -16,14 +16,24 @@ async function names(db: Db | Tx, ids: string[]) {
   return (id: string) => map.get(id) ?? { id, displayName: 'unknown' };
 }
 
+type EntryRow = typeof runEntries.$inferSelect;
+type PhotoHash = RunContent['photos'][number];
+
 /** The canonical content a technician's signature covers, from what is stored now. */
 export async function runContent(db: Db | Tx, run: RunRow, unit: RunContent['unit']): Promise<RunContent> {
-  const entries = await db.select().from(runEntries).where(eq(runEntries.runId, run.id));
-  const photos = await db
-    .select({ id: runPhotos.id, stepId: runPhotos.stepId, sha256: attachments.sha256 })
-    .from(runPhotos)
-    .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
-    .where(eq(runPhotos.runId, run.id));
+  const [entries, photos] = await Promise.all([
+    db.select().from(runEntries).where(eq(runEntries.runId, run.id)),
+    db
+      .select({ id: runPhotos.id, stepId: runPhotos.stepId, sha256: attachments.sha256 })
+      .from(runPhotos)
+      .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
+      .where(eq(runPhotos.runId, run.id)),
+  ]);
+  return contentOf(run, unit, entries, photos);
+}
+
+/** The same, from entries and photos already read. */
+function contentOf(run: RunRow, unit: RunContent['unit'], entries: EntryRow[], photos: PhotoHash[]): RunContent {
   return {
     runId: run.id,
     revision: { id: run.revisionId, number: run.revisionNumber, hash: run.revisionHash },
@@ -43,7 +53,7 @@ export async function runContent(db: Db | Tx, run: RunRow, unit: RunContent['uni
       note: e.note,
       version: e.version,
     })),
-    photos,
+    photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, sha256: p.sha256 })),
   };
 }
 
@@ -85,7 +95,12 @@ export async function loadRunView(db: Db | Tx, runId: string, known?: RunRow): P
     db.select().from(units).where(eq(units.id, run.unitId)),
     db.select().from(runEntries).where(eq(runEntries.runId, runId)),
     db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id)),
-    db.select().from(runPhotos).where(eq(runPhotos.runId, runId)).orderBy(asc(runPhotos.addedAt)),
+    db
+      .select({ id: runPhotos.id, stepId: runPhotos.stepId, attachmentId: runPhotos.attachmentId, addedBy: runPhotos.addedBy, addedAt: runPhotos.addedAt, sha256: attachments.sha256 })
+      .from(runPhotos)
+      .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
+      .where(eq(runPhotos.runId, runId))
+      .orderBy(asc(runPhotos.addedAt)),
     db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
     revisionRecord(db, run),
   ]);
@@ -132,7 +147,8 @@ export async function loadRunView(db: Db | Tx, runId: string, known?: RunRow): P
   // Signed since the given row was read: read the run again, as signed.
   if (signature && run.status !== 'signed') [run] = (await db.select().from(runs).where(eq(runs.id, runId))) as [RunRow];
   if (signature) {
-    verified = runContentHash(await runContent(db, run, run.unitRecord ?? unitNow)) === signature.contentHash && signature.contentHash === run.contentHash;
+    // A signed run's entries and photos cannot change (triggers), so the ones read above are what was signed.
+    verified = runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photos)) === signature.contentHash && signature.contentHash === run.contentHash;
   }
   return {
     id: run.id,

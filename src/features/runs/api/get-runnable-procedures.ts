@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 import { getProcedures } from '@/features/procedures/api/get-procedures';
 
 /** The largest page the list API serves. */
-export const RUNNABLE_LIMIT = 200;
+const RUNNABLE_LIMIT = 200;
 
 /** Procedures with an approved revision (the only ones a bench run may follow), by title, optionally those whose title contains `q`. */
 export const runnableProceduresQueryOptions = (q = '') =>
