@@ -80,8 +80,24 @@ export function renderRevisionHtml(doc: ProcedureDoc, snapshot: Snapshot): strin
   return sanitizeRevisionHtml(children(doc));
 }
 
-/** The allowlist: the tags the renderer emits, http(s)/mailto links only, no styles, no scripts. */
+/**
+ * The allowlist: the tags the renderer emits, http(s)/mailto links only, no styles, no scripts.
+ * sanitize-html's parser does not close elements the way a browser does in every context, so one
+ * pass over hostile markup can leave nesting (a table inside a paragraph, say) that a browser, and
+ * the next pass, rebuild differently. Passes repeat until the output stops changing (every pass is
+ * itself allowlisted), so what is stored is what a browser will see and sanitizing it again is a no-op.
+ */
 export function sanitizeRevisionHtml(html: string): string {
+  let out = sanitizeOnce(html);
+  for (let pass = 0; pass < 4; pass++) {
+    const again = sanitizeOnce(out);
+    if (again === out) break;
+    out = again;
+  }
+  return out;
+}
+
+function sanitizeOnce(html: string): string {
   return sanitizeHtml(html, {
     allowedTags: ['p', 'br', 'strong', 'em', 'u', 's', 'code', 'pre', 'a', 'h1', 'h2', 'h3', 'h4', 'ul', 'ol', 'li', 'blockquote', 'hr', 'aside', 'table', 'caption', 'tbody', 'tr', 'th', 'td', 'figure', 'img', 'figcaption'],
     allowedAttributes: { a: ['href', 'rel'], img: ['src', 'alt'], aside: ['class'], p: ['class'], table: ['class'] },
