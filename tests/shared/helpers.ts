@@ -2,7 +2,7 @@ import { expect } from 'vitest';
 import { runReckoner } from '../../shared/reckoners/validate';
 import type { Caution, Output } from '../../shared/reckoners/types';
 
-/** Relative comparison; REFERENCES.md asks for 0.1 % unless a check states otherwise. */
+/** Relative comparison; 0.1 % unless a check states otherwise (docs/references.md, introduction). */
 export function expectClose(actual: number, expected: number, rel = 1e-3, what = ''): void {
   const tol = Math.abs(expected) * rel;
   expect(Number.isFinite(actual), `${what} finite`).toBe(true);

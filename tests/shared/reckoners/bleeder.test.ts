@@ -3,14 +3,14 @@ import { evaluate } from 'mathjs';
 import { expectClose, num, run } from '../helpers';
 
 describe('bleeder', () => {
-  it('100 µF at 450 V stores 10.13 J [derived, REFERENCES §5; cross-check with mathjs]', () => {
+  it('100 µF at 450 V stores 10.13 J [derived, docs/references.md §5; cross-check with mathjs]', () => {
     const { outputs } = run('bleeder', { capacitance: '100u', chargedVoltage: '450 V' });
     expectClose(num(outputs, 'storedEnergy'), 10.13, 1e-3);
     expectClose(num(outputs, 'storedEnergy'), evaluate('0.5 * 100 uF * (450 V)^2').toNumber('J'), 1e-12);
     expectClose(num(outputs, 'storedCharge'), evaluate('100 uF * 450 V').toNumber('C'), 1e-12);
   });
 
-  it('450 V → 60 V in 5 s with 100 µF needs R ≤ 24.82 kΩ [derived, REFERENCES §5; threshold std: IEC 60204-1 6.2.4]', () => {
+  it('450 V → 60 V in 5 s with 100 µF needs R ≤ 24.82 kΩ [derived, docs/references.md §5; threshold std: IEC 60204-1 6.2.4]', () => {
     const { outputs } = run('bleeder', { capacitance: '100u', chargedVoltage: 450 });
     expectClose(num(outputs, 'maxBleeder'), 24820, 1e-3);
     expectClose(num(outputs, 'maxBleeder'), evaluate('5 s / (100 uF * log(450 / 60))').toNumber('ohm'), 1e-9);

@@ -4,7 +4,7 @@ import { rcAttenuation, suggestedPowerRating } from '../../../shared/reckoners/d
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
 describe('dropper-ladder', () => {
-  it('350 V → 300 V at 20 mA: 2.5 kΩ, 1.0 W; E12 2.7 kΩ drops 54 V at 1.08 W [derived, REFERENCES §4]', () => {
+  it('350 V → 300 V at 20 mA: 2.5 kΩ, 1.0 W; E12 2.7 kΩ drops 54 V at 1.08 W [derived, docs/references.md §4]', () => {
     const { outputs } = run('dropper-ladder', {
       startVoltage: '350 V',
       stages: [{ targetVoltage: '300V', current: '20 mA', capacitance: '47u' }],
@@ -42,7 +42,7 @@ describe('dropper-ladder', () => {
     expectClose(num(outputs, 'stage3.nodeVoltage'), 400 - r1 * 0.02 - r2 * 0.01 - r3 * 0.005, 1e-9);
   });
 
-  it('RC attenuation: 1 kΩ, 47 µF at 100 Hz → 0.03384 (−29.41 dB) [derived, REFERENCES §3]', () => {
+  it('RC attenuation: 1 kΩ, 47 µF at 100 Hz → 0.03384 (−29.41 dB) [derived, docs/references.md §3]', () => {
     expectClose(rcAttenuation(1000, 47e-6, 100), 0.03384);
     // 350 → 330 V at 20 mA is exactly 1 kΩ, an E12 value, so the reckoner uses 1 kΩ.
     const { outputs } = run('dropper-ladder', {
@@ -87,7 +87,7 @@ describe('dropper-ladder', () => {
       ],
     });
 
-    it('worked example: 350 V through fitted 2k2 then 5k6 → 306 V, 250 V; 0.88 W and 0.56 W [derived: R = ΔV / I, P = ΔV × I — REFERENCES §4]', () => {
+    it('worked example: 350 V through fitted 2k2 then 5k6 → 306 V, 250 V; 0.88 W and 0.56 W [derived: R = ΔV / I, P = ΔV × I — docs/references.md §4]', () => {
       const { outputs } = run('dropper-ladder', chain(350, ['2k2', '5k6']));
       // Exact values for the targets, for comparison: 50 V / 20 mA = 2.5 kΩ; 50 V / 10 mA = 5 kΩ
       expectClose(num(outputs, 'stage1.resistanceExact'), 2500);
@@ -109,7 +109,7 @@ describe('dropper-ladder', () => {
       expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors.');
     });
 
-    it('at +10 % start (385 V) the nodes follow the fitted parts, while the E12 suggestion moves to 3k9 [derived, REFERENCES §4; IEC 60063 E12]', () => {
+    it('at +10 % start (385 V) the nodes follow the fitted parts, while the E12 suggestion moves to 3k9 [derived, docs/references.md §4; IEC 60063 E12]', () => {
       const { outputs } = run('dropper-ladder', chain(385, ['2k2', '5k6']));
       // Exact for the target is now 85 V / 20 mA = 4.25 kΩ, nearest E12 3.9 kΩ — reported, not used.
       expectClose(num(outputs, 'stage1.resistanceExact'), 4250);

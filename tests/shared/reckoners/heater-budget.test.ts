@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { expectClose, num, run } from '../helpers';
 
 describe('heater-budget', () => {
-  it('parallel heaters: I = Σ I_h × count, VA = V × I [derived, REFERENCES §6]', () => {
+  it('parallel heaters: I = Σ I_h × count, VA = V × I [derived, docs/references.md §6]', () => {
     const { outputs, cautions } = run('heater-budget', {
       windingVoltage: '6.3 V',
       windingCurrent: '3 A',
@@ -25,7 +25,7 @@ describe('heater-budget', () => {
     expect(near.cautions.find((c) => c.code === 'heater-near-limit')?.level).toBe('note');
   });
 
-  it('series string: V = Σ V_h at one current, dropper R = (V_s − ΣV_h) / I [derived, REFERENCES §6]', () => {
+  it('series string: V = Σ V_h at one current, dropper R = (V_s − ΣV_h) / I [derived, docs/references.md §6]', () => {
     const { outputs } = run('heater-budget', {
       arrangement: 'series',
       windingVoltage: 100,

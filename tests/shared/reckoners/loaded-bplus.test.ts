@@ -4,7 +4,7 @@ import { rippleApproxFullWave, simulateCapacitorInput } from '../../../shared/re
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
 describe('loaded-bplus', () => {
-  it('ripple approximation I/(2fC): 100 mA, 50 Hz, 47 µF → 21.28 V [derived, REFERENCES §3; cross-check with mathjs]', () => {
+  it('ripple approximation I/(2fC): 100 mA, 50 Hz, 47 µF → 21.28 V [derived, docs/references.md §3; cross-check with mathjs]', () => {
     const byMathjs = evaluate('100 mA / (2 * 50 Hz * 47 uF)').toNumber('V');
     expectClose(byMathjs, 21.28);
     expectClose(rippleApproxFullWave(0.1, 50, 47e-6), byMathjs, 1e-12);
@@ -26,7 +26,7 @@ describe('loaded-bplus', () => {
     expect(ripple).toBeLessThanOrEqual(approx);
     expectClose(ripple, approx, 0.1, 'within 10 % of I/(2fC)');
     expectClose(ripple, approx * (1 - conduction), 0.01, 'sawtooth with conduction time removed');
-    // rms of a sawtooth ≈ ΔV_pp / (2√3) [derived, REFERENCES §3]
+    // rms of a sawtooth ≈ ΔV_pp / (2√3) [derived, docs/references.md §3]
     expectClose(num(outputs, 'rippleRms'), ripple / (2 * Math.sqrt(3)), 0.05);
   });
 

@@ -10,12 +10,12 @@ const windings = [
 ];
 
 describe('mains-fuse', () => {
-  it('sums secondary VA: 250 V × 0.1 A + 6.3 V × 3 A + 5 V × 2 A = 53.9 VA [derived, REFERENCES §1]', () => {
+  it('sums secondary VA: 250 V × 0.1 A + 6.3 V × 3 A + 5 V × 2 A = 53.9 VA [derived, docs/references.md §1]', () => {
     const { outputs } = run('mains-fuse', { windings, mainsVoltage: 120, efficiency: 85 });
     expectClose(num(outputs, 'totalVA'), 53.9);
   });
 
-  it('primary current at η 0.85: 120 V → 0.5284 A, 230 V → 0.2757 A [derived, REFERENCES §1]', () => {
+  it('primary current at η 0.85: 120 V → 0.5284 A, 230 V → 0.2757 A [derived, docs/references.md §1]', () => {
     expectClose(num(run('mains-fuse', { windings, mainsVoltage: '120 V', efficiency: '85 %' }).outputs, 'primaryCurrent'), 0.5284);
     expectClose(num(run('mains-fuse', { windings, mainsVoltage: '230 V', efficiency: 85 }).outputs, 'primaryCurrent'), 0.2757);
   });
@@ -64,7 +64,7 @@ describe('mains-fuse', () => {
     expect(gateFor(10.5)).toBeNull();
   });
 
-  it('computes pulse I²t for the shapes in REFERENCES §1 [derived]', () => {
+  it('computes pulse I²t for the shapes in docs/references.md §1 [derived]', () => {
     expectClose(pulseI2t('rectangle', 10, 0.01), 1.0);
     expectClose(pulseI2t('half-sine', 30, 0.01), 4.5);
     expectClose(pulseI2t('triangle', 30, 0.01), 3.0);

@@ -3,7 +3,7 @@ import { evaluate } from 'mathjs';
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
 describe('peak-no-load', () => {
-  it('peak = √2 × Vrms: 120 V → 169.71 V, 230 V → 325.27 V [derived, REFERENCES §2]', () => {
+  it('peak = √2 × Vrms: 120 V → 169.71 V, 230 V → 325.27 V [derived, docs/references.md §2]', () => {
     expectClose(num(run('peak-no-load', { windingVoltage: '120 V' }).outputs, 'peakVoltage'), 169.71);
     expectClose(num(run('peak-no-load', { windingVoltage: '230 VAC' }).outputs, 'peakVoltage'), 325.27);
   });
@@ -15,14 +15,14 @@ describe('peak-no-load', () => {
     }
   });
 
-  it('no-load DC = peak − n × V_F: bridge n = 2, centre-tap n = 1 [common practice, REFERENCES §2]', () => {
+  it('no-load DC = peak − n × V_F: bridge n = 2, centre-tap n = 1 [common practice, docs/references.md §2]', () => {
     const pk = Math.SQRT2 * 300;
     expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-bridge', diodeDrop: 1 }).outputs, 'noLoadDc'), pk - 2);
     expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-centre-tap', diodeDrop: 0.7 }).outputs, 'noLoadDc'), pk - 0.7);
     expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'valve', valveDrop: '25 V' }).outputs, 'noLoadDc'), pk - 25);
   });
 
-  it('scales a rated winding with the mains: V × actual ÷ nominal [derived, REFERENCES §2]', () => {
+  it('scales a rated winding with the mains: V × actual ÷ nominal [derived, docs/references.md §2]', () => {
     const { outputs } = run('peak-no-load', { windingVoltage: 300, mainsNominal: 230, mainsActual: 253 });
     expectClose(num(outputs, 'windingVoltage'), 330); // 300 × 253/230, IEC 60038 upper limit [std]
     expectClose(num(outputs, 'peakVoltage'), Math.SQRT2 * 330);
@@ -34,7 +34,7 @@ describe('peak-no-load', () => {
     expectClose(num(outputs, 'windingUnloadedHigh'), 300);
   });
 
-  it('gives an unloaded band from rating to rating + 10 % [common practice, REFERENCES §2: 5–10 % on small transformers]', () => {
+  it('gives an unloaded band from rating to rating + 10 % [common practice, docs/references.md §2: 5–10 % on small transformers]', () => {
     const { outputs } = run('peak-no-load', { windingVoltage: 6.3 });
     expectClose(num(outputs, 'windingUnloadedLow'), 6.3);
     expectClose(num(outputs, 'windingUnloadedHigh'), 6.93);

@@ -21,7 +21,7 @@ describe('toleranceBand / checkReading', () => {
     expect(checkReading({ expected: 230, tolerance: tol, measured: 206.99 }).within).toBe(false);
   });
 
-  it('deviation: 6.9 V on a 6.3 V winding is +9.52 % [derived, REFERENCES §6 regulation example]', () => {
+  it('deviation: 6.9 V on a 6.3 V winding is +9.52 % [derived, docs/references.md §6 regulation example]', () => {
     const r = checkReading({ expected: 6.3, tolerance: { kind: 'percent', percent: 10 }, measured: 6.9 });
     expectClose(r.deviation, 0.6);
     expectClose(r.deviationPercent!, 9.52);
