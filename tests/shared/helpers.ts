@@ -27,3 +27,13 @@ export function fieldErrors(kind: string, inputs: unknown): { field: string; rea
   if (r.ok) throw new Error(`${kind} accepted bad input ${JSON.stringify(inputs)}`);
   return r.errors;
 }
+
+/** The value `fn` throws, for assertions made outside any catch; fails the test when nothing is thrown. */
+export function thrownBy(fn: () => unknown): unknown {
+  try {
+    fn();
+  } catch (e) {
+    return e;
+  }
+  throw new Error('expected a throw, but nothing was thrown');
+}
