@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { divide, multiply, unit } from 'mathjs';
+import { divide, multiply, unit, type Unit } from 'mathjs';
 import { rippleApproxFullWave } from '../../../shared/reckoners/capacitor-input';
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
@@ -117,7 +117,7 @@ describe('loaded-bplus against an independent RK4 solution of the circuit [deriv
 describe('loaded-bplus', () => {
   it('ripple approximation I/(2fC): 100 mA, 50 Hz, 47 µF → 21.28 V [derived, docs/references.md §3; units by mathjs]', () => {
     // mathjs does the unit arithmetic: mA ÷ (Hz × µF) comes out in volts.
-    const byUnits = divide(unit('100 mA'), multiply(2, multiply(unit('50 Hz'), unit('47 uF')))) as ReturnType<typeof unit>;
+    const byUnits = divide(unit('100 mA'), multiply(2, multiply(unit('50 Hz'), unit('47 uF')))) as Unit;
     expectClose(byUnits.toNumber('V'), 21.28);
     expectClose(rippleApproxFullWave(0.1, 50, 47e-6), 21.28);
   });

@@ -12,7 +12,7 @@ describe('peak-no-load', () => {
     // Uniform samples over whole periods: mean(sin²) is exactly ½ in exact arithmetic, so this is an
     // independent route to √2 — no √2 is written here.
     const samples = range(0, 3600).map((k: number) => Math.sin((2 * Math.PI * k) / 3600));
-    const rmsOfUnitSine = sqrt(mean(dotPow(samples, 2) as Matrix)) as number;
+    const rmsOfUnitSine = sqrt(mean(dotPow(samples, 2) as Matrix) as number) as number;
     for (const v of [6.3, 120, 230, 300]) {
       const peak = divide(unit(v, 'V'), rmsOfUnitSine) as Unit;
       expectClose(num(run('peak-no-load', { windingVoltage: v }).outputs, 'peakVoltage'), peak.toNumber('V'), 1e-9);
