@@ -26,7 +26,7 @@ function likelySlip(value: number, range: { min: number; max: number }): number 
 
 /** Read a raw (typed) value in the field's unit, or undefined when it does not read. */
 function readRaw(spec: FieldSpec, value: unknown): number | undefined {
-  if (typeof value === 'number') return value;
+  if (typeof value === 'number') return Number.isFinite(value) ? value : undefined;
   if (typeof value !== 'string' || spec.unit === undefined) return undefined;
   try {
     return parseQuantity(value, spec.unit).value;
@@ -53,7 +53,7 @@ export function implausibleInputs(fields: readonly FieldSpec[], input: Record<st
   const out: Caution[] = [];
   eachField(fields, input, (spec, path, value) => {
     const range = spec.plausible;
-    if (!range || typeof value !== 'number' || (value >= range.min && value <= range.max)) return;
+    if (!range || typeof value !== 'number' || !Number.isFinite(value) || (value >= range.min && value <= range.max)) return;
     const slip = likelySlip(value, range);
     out.push({
       level: 'warning',

@@ -49,9 +49,10 @@ describe('registry', () => {
       expect(r.ok, `${kind}: ${f.key} = { wrong: true }`).toBe(false);
       if (!r.ok) expect(r.errors.map((e) => e.field.split('.')[0]), `${kind}: ${f.key}`).toContain(f.key);
     }
-    // A key no field declares is ignored, never needed.
+    // A key no field declares is refused by name (a misspelt input is never dropped silently).
     const extra = validateInputs(kind, { ...WORKED_EXAMPLES[kind]!.inputs, notAField: 1 });
-    expect(extra).toEqual(example);
+    expect(extra.ok).toBe(false);
+    if (!extra.ok) expect(extra.errors.map((e) => e.field)).toEqual(['notAField']);
   });
 
   it('every reckoner defers to local codes and licensed practice, and never calls anything safe [docs/references.md §8]', () => {
