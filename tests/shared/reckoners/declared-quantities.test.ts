@@ -266,6 +266,15 @@ describe('parameters and references', () => {
     expect(b.sources.mainsActual).toEqual({ kind: 'param', param: 'mainsVoltage', followed: true });
   });
 
+  it('a measured-mains field typed by hand stays put on the bench, and the block says so', () => {
+    const inputs = { ...TYPICAL_INPUTS['peak-no-load'], mainsNominal: '', mainsActual: '230 V' };
+    const r = evaluateProcedure([{ name: 'pk', kind: 'peak-no-load', inputs }], { mainsNominal: 230, mainsVoltage: 236, mainsFrequency: 50 });
+    const b = r.blocks[0]!;
+    if (!b.ok) throw new Error(JSON.stringify(b.errors));
+    expect(b.outputs.windingVoltage!.value).toBeCloseTo(280, 9);
+    expect(b.cautions).toContainEqual(expect.objectContaining({ code: 'parameter-typed', field: 'mainsActual', level: 'warning' }));
+  });
+
   it('every field that declares a parameter names one that exists, with the same unit and measure', () => {
     for (const def of listReckoners()) {
       eachField(def.fields, {}, (spec) => {
