@@ -1,7 +1,7 @@
 import type { ValueChange } from '@shared/schemas/review';
 import { DataTable } from '@/components/ui/data-table';
 
-const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', output: 'Reckoner', reading: 'Reading' };
+const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', input: 'Input', output: 'Result', block: 'Reckoner', reading: 'Reading' };
 
 /** Every number that moved: reckoner outputs, reading expectations, tolerances and bands, parameters. */
 export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
