@@ -3,6 +3,7 @@
  * extensions, the server's validation and the reader all follow this one list.
  */
 import { z } from 'zod';
+import { READING_MEASURES, READING_UNITS, takesMeasure } from '../reckoners/reading-units';
 
 export const BLOCK_ID = /^[A-Za-z0-9_-]{6,40}$/;
 export const BLOCK_NAME = /^[A-Za-z_][A-Za-z0-9_-]{0,31}$/;
@@ -87,12 +88,24 @@ export const readingAttrs = z
     label: shortText(200),
     testPoint: shortText(120),
     meterRange: shortText(60),
-    unit: z.enum(['V', 'A', 'Ω', 'W', 'Hz', 'F', 's', '%']),
+    unit: z.enum(READING_UNITS),
+    /** For volts and amps: what the meter is set to read. Documents saved before it existed are upgraded on load. */
+    measure: z.enum(READING_MEASURES).nullable().optional(),
     /** A literal as typed ("350 V") or a reckoner output ("bplus.averageDc"). */
     expected: z.union([z.object({ literal: shortText(40) }).strict(), z.object({ ref: shortText(80) }).strict()]),
+    /**
+     * For a typed expected value: true scales it with measured ÷ nominal mains (a winding, a rail fed
+     * from one); false states it does not (a regulated rail, the mains itself); absent is unstated.
+     */
+    followsMains: z.boolean().nullable().optional(),
     tolerance: toleranceText,
   })
-  .strict();
+  .strict()
+  .superRefine((r, ctx) => {
+    if (r.measure != null && !takesMeasure(r.unit)) {
+      ctx.addIssue({ code: 'custom', path: ['measure'], message: `a reading in ${r.unit} takes no measure (rms, peak, DC are for volts and amps)` });
+    }
+  });
 
 export const checkStepAttrs = z.object({ id: blockId, text: shortText(500) }).strict();
 
