@@ -7,22 +7,18 @@
  * Stored snapshots keep outputs in jsonb, which does not keep key order, and older snapshots carry
  * no validated input or sources: both are worked out again here from the document's own inputs.
  */
-import { getReckoner, validateInputs, type AnyReckoner, type Caution, type FieldSpec, type Output } from '../reckoners';
+import { withFollowedParams } from '../reckoners/field-paths';
+import { MEASURE_WORDS } from '../reckoners/measures';
+import { getReckoner, validateInputs, type AnyReckoner, type Caution, type FieldSpec, type InputSource, type Measure, type Output } from '../reckoners';
 import { formatNumber, formatQuantity, parseQuantity } from '../units';
 import type { BlockSnapshot, Snapshot } from './evaluate';
 import { extractBlocks } from './extract';
 import { PARAM_SPECS } from './params';
 import type { ProcedureDoc, ReckonerAttrs } from './schema';
 
-// Until the shared measure and parameter-following declarations land in the registry types,
-// read them where present without depending on them.
-export type Measure = 'rms' | 'peak' | 'peak-to-peak' | 'dc' | 'scalar';
-type StoredSource = { kind: 'typed' } | { kind: 'param'; param: string; followed: boolean } | { kind: 'ref'; ref: string };
-const measureOfSpec = (s: FieldSpec) => (s as FieldSpec & { measure?: Measure }).measure;
-const followsOf = (s: FieldSpec) => (s as FieldSpec & { follows?: string }).follows;
-const measureOfOutput = (o: Output) => (o as Output & { measure?: Measure }).measure;
-
-export const MEASURE_WORDS: Record<Measure, string> = { rms: 'rms', peak: 'peak', 'peak-to-peak': 'peak-to-peak', dc: 'DC', scalar: '' };
+export type { Measure };
+type AcMeasure = Exclude<Measure, 'scalar'>;
+const named = (m: Measure | undefined): AcMeasure | null => (m && m !== 'scalar' ? m : null);
 
 /** Where an input's value came from. */
 export type InputOrigin =
@@ -128,34 +124,29 @@ interface Context {
 
 /**
  * The document's raw inputs with references and parameters replaced by values, and where each
- * came from — for snapshots stored before blocks carried their input and sources.
+ * came from: the same reading evaluateProcedure makes, for snapshots stored before blocks kept it.
  */
-function resolveRaw(fields: readonly FieldSpec[], raw: Record<string, unknown>, ctx: Context, prefix: string, sources: Record<string, StoredSource>) {
-  const out: Record<string, unknown> = {};
-  for (const f of fields) {
-    const path = prefix ? `${prefix}.${f.key}` : f.key;
-    let v = raw[f.key];
-    if (f.kind === 'rows') {
-      out[f.key] = Array.isArray(v) ? v.map((row, i) => (isObj(row) ? resolveRaw(f.columns ?? [], row, ctx, `${path}.${i}`, sources) : row)) : v;
-      continue;
-    }
-    const follows = followsOf(f);
-    const followed = isEmpty(v) && follows !== undefined;
-    if (followed) v = { param: follows };
+function resolveRaw(fields: readonly FieldSpec[], raw: Record<string, unknown>, ctx: Context) {
+  const { inputs, followed } = withFollowedParams(raw, fields);
+  const sources: Record<string, InputSource> = {};
+  const walk = (v: unknown, path: string): unknown => {
     if (isRef(v)) {
-      const [block = '', key = ''] = [v.ref.slice(0, v.ref.indexOf('.')), v.ref.slice(v.ref.indexOf('.') + 1)];
-      const target = ctx.byName.get(block);
+      const dot = v.ref.indexOf('.');
+      const target = ctx.byName.get(v.ref.slice(0, dot));
       sources[path] = { kind: 'ref', ref: v.ref };
-      out[f.key] = target?.ok ? target.outputs[key]?.value : undefined;
-    } else if (isParam(v)) {
-      sources[path] = { kind: 'param', param: v.param, followed };
-      out[f.key] = ctx.params[v.param];
-    } else {
-      if (!isEmpty(v)) sources[path] = { kind: 'typed' };
-      out[f.key] = v;
+      return target?.ok ? target.outputs[v.ref.slice(dot + 1)]?.value : undefined;
     }
-  }
-  return out;
+    if (isParam(v)) {
+      const param = PARAM_SPECS.find((p) => p.key === v.param);
+      if (param) sources[path] = { kind: 'param', param: param.key, followed: followed.has(path) };
+      return ctx.params[v.param];
+    }
+    if (Array.isArray(v)) return v.map((x, i) => walk(x, `${path}.${i}`));
+    if (isObj(v)) return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, walk(x, path ? `${path}.${k}` : k)]));
+    if (path && !isEmpty(v)) sources[path] = { kind: 'typed' };
+    return v;
+  };
+  return { resolved: walk(inputs, '') as Record<string, unknown>, sources };
 }
 
 /** One raw value read on its own, for a block whose inputs do not validate as a whole. */
@@ -168,7 +159,7 @@ function readAlone(spec: FieldSpec, v: unknown): unknown {
   }
 }
 
-function originOf(stored: StoredSource | undefined, spec: FieldSpec, value: unknown, ctx: Context): InputOrigin {
+function originOf(stored: InputSource | undefined, spec: FieldSpec, value: unknown, ctx: Context): InputOrigin {
   if (!stored) return isEmpty(value) ? { kind: 'empty' } : spec.default !== undefined ? { kind: 'default' } : { kind: 'typed' };
   if (stored.kind === 'param') {
     const label = PARAM_SPECS.find((p) => p.key === stored.param)?.label ?? stored.param;
@@ -202,15 +193,17 @@ export function sourceText(o: InputOrigin): string {
   }
 }
 
-function formatInput(spec: FieldSpec, value: unknown): string {
+/** Typed figures keep four significant figures; a linked output is shown as that output is (three). */
+function formatInput(spec: FieldSpec, value: unknown, source: InputOrigin): string {
   if (value === undefined || value === null || value === '') return '—';
-  if (typeof value === 'number') return spec.unit ? formatQuantity(value, spec.unit, 4) : formatNumber(value, 4);
+  const sig = source.kind === 'ref' ? 3 : 4;
+  if (typeof value === 'number') return spec.unit ? formatQuantity(value, spec.unit, sig) : formatNumber(value, sig);
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (spec.kind === 'select') return spec.options?.find((o) => o.value === value)?.label ?? String(value);
   return String(value);
 }
 
-function inputRows(def: AnyReckoner, input: Record<string, unknown>, sources: Record<string, StoredSource>, ctx: Context): InputRow[] {
+function inputRows(def: AnyReckoner, input: Record<string, unknown>, sources: Record<string, InputSource>, ctx: Context): InputRow[] {
   const rows: InputRow[] = [];
   const visit = (fields: readonly FieldSpec[], obj: Record<string, unknown>, prefix: string, inRow: boolean) => {
     for (const f of fields) {
@@ -223,16 +216,15 @@ function inputRows(def: AnyReckoner, input: Record<string, unknown>, sources: Re
       // A row's own name is in the row's label, not a figure of its own.
       if (inRow && f.kind === 'text') continue;
       const source = originOf(sources[path], f, value, ctx);
-      const measure = measureOfSpec(f);
       rows.push({
         path,
         label: fieldLabel(def.fields, path, input),
         value: value === undefined ? null : (value as InputRow['value']),
-        formatted: formatInput(f, value),
+        formatted: formatInput(f, value, source),
         unit: f.unit ?? '',
-        measure: measure && measure !== 'scalar' ? measure : null,
+        measure: named(f.measure),
         source,
-        sourceText: sourceText(source),
+        sourceText: f.kind === 'select' && source.kind === 'typed' ? 'chosen' : sourceText(source),
       });
     }
   };
@@ -240,26 +232,35 @@ function inputRows(def: AnyReckoner, input: Record<string, unknown>, sources: Re
   return rows;
 }
 
+/** Declared output order by reckoner and output set: the same set always comes out in the same order. */
+const orderCache = new Map<string, string[]>();
+
 /** Output keys in the reckoner's declaration order: computed again, since jsonb keeps no key order. */
 function declaredOrder(def: AnyReckoner, input: unknown, stored: string[]): string[] {
+  const cacheKey = `${def.kind}\n${[...stored].sort().join('\n')}`;
+  const cached = orderCache.get(cacheKey);
+  if (cached) return cached;
   let declared: string[] = [];
   try {
     declared = Object.keys(def.compute(input).outputs);
   } catch {
     // The stored outputs are what was signed; without a fresh run they keep their stored order.
+    return stored;
   }
-  return [...declared.filter((k) => stored.includes(k)), ...stored.filter((k) => !declared.includes(k))];
+  const order = [...declared.filter((k) => stored.includes(k)), ...stored.filter((k) => !declared.includes(k))];
+  if (orderCache.size > 1000) orderCache.clear();
+  orderCache.set(cacheKey, order);
+  return order;
 }
 
 function outputRow(key: string, o: Output): OutputRow {
-  const m = measureOfOutput(o);
   return {
     key,
     label: o.label,
     value: o.value,
     formatted: o.formatted,
     unit: o.unit ?? '',
-    measure: m && m !== 'scalar' ? m : null,
+    measure: named(o.measure),
     explanation: o.explanation,
     ...(o.source && { source: o.source }),
   };
@@ -272,15 +273,15 @@ export function describeBlock(node: ReckonerAttrs & { section?: string }, stored
   if (!def) {
     return { ...base, ok: false, inputs: [], outputs: [], errors: [{ field: 'Reckoner', reason: `unknown reckoner “${node.kind}”` }], cautions: [] };
   }
-  const given = stored?.ok ? (stored as { input?: Record<string, unknown>; sources?: Record<string, StoredSource> }) : {};
+  const given = stored?.ok ? (stored as { input?: Record<string, unknown>; sources?: Record<string, InputSource> }) : {};
   let input: Record<string, unknown>;
-  let sources: Record<string, StoredSource>;
+  let sources: Record<string, InputSource>;
   let valid: boolean;
   if (given.input && given.sources) {
     [input, sources, valid] = [given.input, given.sources, true];
   } else {
-    sources = {};
-    const resolved = resolveRaw(def.fields, node.inputs ?? {}, ctx, '', sources);
+    let resolved: Record<string, unknown>;
+    ({ resolved, sources } = resolveRaw(def.fields, node.inputs ?? {}, ctx));
     const checked = validateInputs(node.kind, resolved);
     valid = checked.ok;
     input = checked.ok ? (checked.input as Record<string, unknown>) : readEach(def.fields, resolved);
@@ -317,8 +318,7 @@ export function describeParams(snapshot: Snapshot): ParamRow[] {
   return PARAM_SPECS.flatMap((p) => {
     const v = snapshot.params?.[p.key];
     if (typeof v !== 'number') return [];
-    const measure = (p as { measure?: Measure }).measure;
-    return [{ key: p.key, label: p.label, value: v, formatted: formatQuantity(v, p.unit, 4), measure: measure && measure !== 'scalar' ? measure : null }];
+    return [{ key: p.key, label: p.label, value: v, formatted: formatQuantity(v, p.unit, 4), measure: named(p.measure) }];
   });
 }
 

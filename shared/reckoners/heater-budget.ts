@@ -119,4 +119,5 @@ export const heaterBudget: ReckonerDefinition<HeaterBudgetInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['totalCurrent', 'percentOfRating', 'dropperResistance'],
 };

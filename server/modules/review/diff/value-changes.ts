@@ -59,7 +59,7 @@ function paired<T>(before: T[], after: T[], key: (t: T) => string): [T | undefin
  * and any the procedure uses (in a reading or another block). All, if the reckoner marks none.
  */
 export function keyOutputs(block: BlockView, used: Set<string>): OutputRow[] {
-  const marked = (getReckoner(block.kind) as { keyOutputs?: readonly string[] } | undefined)?.keyOutputs;
+  const marked = getReckoner(block.kind)?.keyOutputs;
   if (!marked?.length) return block.outputs;
   return block.outputs.filter((o) => used.has(`${block.name}.${o.key}`) || marked.some((k) => o.key === k || o.key.endsWith(`.${k}`)));
 }
