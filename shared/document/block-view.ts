@@ -286,6 +286,12 @@ export function describeBlock(node: ReckonerAttrs & { section?: string }, stored
     valid = checked.ok;
     input = checked.ok ? (checked.input as Record<string, unknown>) : readEach(def.fields, resolved);
   }
+  // The document says which fields were left empty: the evaluator may have been handed a
+  // document already upgraded to name the parameter, which hides that.
+  for (const path of withFollowedParams(node.inputs ?? {}, def.fields).followed) {
+    const s = sources[path];
+    if (s?.kind === 'param') sources = { ...sources, [path]: { ...s, followed: true } };
+  }
   const keys = Object.keys(storedOutputs);
   const order = valid && stored?.ok ? declaredOrder(def, input, keys) : keys;
   return {
