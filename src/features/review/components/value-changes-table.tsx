@@ -4,7 +4,11 @@ import { DataTable } from '@/components/ui/data-table';
 const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', input: 'Input', output: 'Result', block: 'Reckoner', reading: 'Reading' };
 const BLOCK_ROWS: Record<string, string> = { name: 'Name', added: 'Added', removed: 'Removed', problems: 'Input problems' };
 
-function Subject({ c }: { c: ValueChange }) {
+/** The block is named once for its run of rows: a calm table, not a column of repeats. */
+const continues = (rows: ValueChange[], i: number) => i > 0 && rows[i - 1]!.subject === rows[i]!.subject && rows[i - 1]!.blockId === rows[i]!.blockId;
+
+function Subject({ c, repeat }: { c: ValueChange; repeat: boolean }) {
+  if (repeat) return <span className="sr-only">{c.subject}</span>;
   return (
     <>
       <span className="font-semibold">{c.subject}</span>
@@ -38,7 +42,7 @@ export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
         <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
           <td className="px-3 py-2 text-graphite-soft">{KIND_LABELS[c.kind]}</td>
           <td className="px-3 py-2">
-            <Subject c={c} />
+            <Subject c={c} repeat={continues(changes, i)} />
           </td>
           <td className="px-3 py-2">
             <What c={c} />
@@ -63,7 +67,7 @@ export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
       {rows.map((c, i) => (
         <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
           <td className="px-3 py-2">
-            <Subject c={c} />
+            <Subject c={c} repeat={continues(rows, i)} />
           </td>
           <td className="px-3 py-2">
             <What c={c} />

@@ -5,7 +5,7 @@ import { MEASURE_WORDS } from '@shared/reckoners/measures';
 export function Figure({ formatted, measure, strong }: { formatted: string; measure: Measure | null; strong?: boolean }) {
   const word = measure ? MEASURE_WORDS[measure] : '';
   return (
-    <span>
+    <span className="whitespace-nowrap">
       <span className={`value ${strong ? 'font-semibold' : ''}`}>{formatted}</span>
       {word && formatted !== '—' && <span className="text-xs text-graphite-soft"> {word}</span>}
     </span>
