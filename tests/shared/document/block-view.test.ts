@@ -2,7 +2,7 @@ import { unit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { describeBlocks, type BlockView, type InputRow } from '../../../shared/document/block-view';
 import { expectClose } from '../helpers';
-import { bleedBlock, doc, fuseBlock, htBlock, params, stored, withoutInputs } from './figures';
+import { bleedBlock, doc, fuseBlock, htBlock, params, reckoner, stored, withoutInputs } from './figures';
 
 const input = (b: BlockView, label: string): InputRow => {
   const row = b.inputs.find((i) => i.label === label);
@@ -96,5 +96,19 @@ describe('what a block assumes', () => {
   it('shows people no internal keys or dotted paths', () => {
     const words = [ht, bleed, fuse].flatMap((b) => [...b!.inputs.flatMap((i) => [i.label, i.sourceText]), ...b!.outputs.map((o) => o.label)]);
     for (const w of words) expect(w).not.toMatch(/\b[a-z]+[A-Z]\w*\b|\w\.\d+\.\w|\w\.\w+Dc\b/);
+  });
+
+  it('does not fail on old or odd stored data: a block missing from the results, an unknown kind, a reference to nothing', () => {
+    const odd = doc(htBlock(), reckoner('blk-x', 'x', 'no-such-kind', { a: 1 }), bleedBlock('gone'));
+    const snap = stored(doc(htBlock()));
+    const views = describeBlocks(odd, snap);
+    expect(views.map((v) => [v.name, v.ok])).toEqual([
+      ['ht', true],
+      ['x', false],
+      ['bleed', false],
+    ]);
+    expect(views[1]!.errors[0]!.reason).toMatch(/unknown reckoner/);
+    expect(views[2]!.errors).toEqual([{ field: 'Block', reason: 'missing from the stored results' }]);
+    expect(input(views[2]!, 'Charged voltage')).toMatchObject({ formatted: '—', source: { kind: 'ref', block: 'gone', blockId: null } });
   });
 });
