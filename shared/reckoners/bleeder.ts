@@ -131,4 +131,5 @@ export const bleeder: ReckonerDefinition<BleederInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['timeToThreshold', 'bleederDissipation', 'suggestedBleeder', 'suggestedBleederRating'],
 };

@@ -194,4 +194,5 @@ export const dropperLadder: ReckonerDefinition<DropperLadderInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['resistance', 'nodeVoltage', 'powerRating', 'finalVoltage'],
 };

@@ -120,4 +120,5 @@ export const heaterBudget: ReckonerDefinition<HeaterBudgetInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['totalCurrent', 'percentOfRating', 'dropperResistance'],
 };

@@ -159,4 +159,5 @@ export const loadedBplus: ReckonerDefinition<LoadedBplusInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['averageDc', 'ripplePeakToPeak', 'noLoadDc', 'peakRectifierCurrent'],
 };

@@ -236,4 +236,5 @@ export const mainsFuse: ReckonerDefinition<MainsFuseInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['totalVA', 'primaryCurrent', 'fuseDesignation', 'inrushWithinGate'],
 };
