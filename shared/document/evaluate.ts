@@ -4,10 +4,14 @@
  * snapshot; bench runs call it again with the measured mains; the editor calls it on each change.
  */
 import { evaluateProcedure, getReckoner, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
-import { formatQuantity, parseQuantity } from '../units';
+import { measureMismatch, unitWithMeasure } from '../reckoners/measures';
+import { readingUnitSpec } from '../reckoners/reading-units';
+import type { Measure } from '../reckoners/types';
+import { formatNumber, formatQuantity, parseQuantity } from '../units';
 import { extractBlocks } from './extract';
 import type { ProcedureParams } from './params';
 import type { ProcedureDoc, ReadingAttrs } from './schema';
+import { effectiveMeasure, upgradeDocument } from './upgrade';
 
 /** A block's result as stored: with its id, section and the reckoner's label (so readers need no registry). */
 export type BlockSnapshot = BlockResult & { id: string; section: string; label?: string };
@@ -18,8 +22,14 @@ export interface ResolvedReading {
   testPoint: string;
   meterRange: string;
   unit: string;
+  /** rms, peak, peak-to-peak or dc for volts and amps; 'scalar' otherwise. */
+  measure: Measure;
   section: string;
   toleranceText: string;
+  /** A typed expected value: scaled with the mains (true), stated fixed (false), or not said. */
+  followsMains?: boolean;
+  /** Measured ÷ nominal mains applied to a typed expected value that follows the mains. */
+  mainsRatio?: number;
   /** Where the expected value came from: a literal or "block.output". */
   expectedSource: string;
   expected: number | null;
@@ -37,10 +47,14 @@ export interface Snapshot {
   errors: ProcedureError[];
 }
 
-function expectedValue(reading: ReadingAttrs, blocks: Map<string, BlockResult>): number {
+function expectedValue(reading: ReadingAttrs, measure: Measure, blocks: Map<string, BlockResult>, ratio: number): number {
   if ('literal' in reading.expected) {
     const q = parseQuantity(reading.expected.literal, reading.unit);
-    return q.value;
+    const wrong = measureMismatch(reading.expected.literal, q, measure);
+    if (wrong) throw new Error(wrong.replace('this field', 'this reading'));
+    const max = readingUnitSpec(reading.unit)?.max ?? Infinity;
+    if (Math.abs(q.value) > max) throw new Error(`the expected value ${reading.expected.literal.trim()} is beyond what a bench meter reads (at most ${formatQuantity(max, reading.unit)})`);
+    return reading.followsMains ? q.value * ratio : q.value;
   }
   const ref = reading.expected.ref;
   const dot = ref.indexOf('.');
@@ -52,23 +66,35 @@ function expectedValue(reading: ReadingAttrs, blocks: Map<string, BlockResult>):
   const out = block.outputs[key];
   if (!out) throw new Error(`reckoner "${name}" has no output "${key}" (it has: ${Object.keys(block.outputs).join(', ')})`);
   if (typeof out.value !== 'number') throw new Error(`"${ref}" is not a number`);
-  if ((out.unit ?? '') !== reading.unit) throw new Error(`"${ref}" is in ${out.unit || 'no unit'}, but the reading is in ${reading.unit}`);
+  if (out.unit !== reading.unit || out.measure !== measure) {
+    throw new Error(`"${ref}" is in ${unitWithMeasure(out.unit || 'no unit', out.measure)}, but the reading is in ${unitWithMeasure(reading.unit, measure)}`);
+  }
   return out.value;
 }
 
-export function resolveReading(reading: ReadingAttrs & { section?: string }, blocks: Map<string, BlockResult>): ResolvedReading {
+export function resolveReading(
+  reading: ReadingAttrs & { section?: string },
+  blocks: Map<string, BlockResult>,
+  params?: Partial<ProcedureParams>,
+): ResolvedReading {
+  const measure = effectiveMeasure(reading);
+  const literal = 'literal' in reading.expected;
+  const ratio = params?.mainsVoltage && params?.mainsNominal ? params.mainsVoltage / params.mainsNominal : 1;
   const base = {
     id: reading.id,
     label: reading.label,
     testPoint: reading.testPoint,
     meterRange: reading.meterRange,
     unit: reading.unit,
+    measure,
     section: reading.section ?? '',
     toleranceText: reading.tolerance,
     expectedSource: 'literal' in reading.expected ? reading.expected.literal : reading.expected.ref,
+    ...(literal && reading.followsMains != null && { followsMains: reading.followsMains }),
+    ...(literal && reading.followsMains && { mainsRatio: Number(formatNumber(ratio, 6)) }),
   };
   try {
-    const expected = expectedValue(reading, blocks);
+    const expected = expectedValue(reading, measure, blocks, ratio);
     if (!reading.tolerance.trim()) {
       return { ...base, expected, low: null, high: null, bandText: null, error: 'no tolerance given' };
     }
@@ -85,12 +111,12 @@ export function resolveReading(reading: ReadingAttrs & { section?: string }, blo
 }
 
 export function evaluateDocument(doc: ProcedureDoc, params: ProcedureParams): Snapshot {
-  const { reckoners, readings } = extractBlocks(doc);
+  const { reckoners, readings } = extractBlocks(upgradeDocument(doc));
   const result = evaluateProcedure(
     reckoners.map((r) => ({ name: r.name, kind: r.kind, inputs: r.inputs })),
     params,
   );
   const blocks = result.blocks.map((b, i) => ({ ...b, id: reckoners[i]!.id, section: reckoners[i]!.section, label: getReckoner(b.kind)?.label ?? b.kind }));
   const byName = new Map(result.blocks.map((b) => [b.name, b]));
-  return { params, blocks, readings: readings.map((r) => resolveReading(r, byName)), errors: result.errors };
+  return { params, blocks, readings: readings.map((r) => resolveReading(r, byName, params)), errors: result.errors };
 }

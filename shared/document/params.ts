@@ -1,27 +1,18 @@
 import { z } from 'zod';
+import { PARAM_SPECS, type ParamSpec } from '../reckoners/params';
+import type { ParamKey } from '../reckoners/types';
 
-/**
- * Procedure parameters: the design values stored with a revision. A bench run replaces
- * mainsVoltage (and may replace mainsFrequency) with what the technician measured.
- */
-export const PARAM_SPECS = [
-  { key: 'mainsNominal', label: 'Nominal mains', unit: 'V', min: 90, max: 260, default: 230 },
-  { key: 'mainsVoltage', label: 'Measured mains', unit: 'V', min: 80, max: 280, default: 230 },
-  { key: 'mainsFrequency', label: 'Mains frequency', unit: 'Hz', min: 45, max: 65, default: 50 },
-] as const;
-
-export type ParamKey = (typeof PARAM_SPECS)[number]['key'];
+export { PARAM_SPECS, paramSpec } from '../reckoners/params';
+export type { ParamKey, ParamSpec };
 export type ProcedureParams = Record<ParamKey, number>;
 
-const bounded = (label: string, unit: string, min: number, max: number) =>
-  z.number({ error: `${label} must be a number in ${unit}` }).refine(Number.isFinite, 'must be finite').pipe(
-    z.number().min(min, `${label} must be at least ${min} ${unit}`).max(max, `${label} must be at most ${max} ${unit}`),
+const bounded = (p: ParamSpec) =>
+  z.number({ error: `${p.label} must be a number in ${p.unit}` }).refine(Number.isFinite, 'must be finite').pipe(
+    z.number().min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`).max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
   );
 
 export const paramsSchema = z
-  .object(
-    Object.fromEntries(PARAM_SPECS.map((p) => [p.key, bounded(p.label, p.unit, p.min, p.max)])) as unknown as Record<ParamKey, z.ZodType<number>>,
-  )
+  .object(Object.fromEntries(PARAM_SPECS.map((p) => [p.key, bounded(p)])) as unknown as Record<ParamKey, z.ZodType<number>>)
   .strict();
 
 export const defaultParams = (): ProcedureParams =>

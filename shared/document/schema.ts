@@ -3,6 +3,7 @@
  * extensions, the server's validation and the reader all follow this one list.
  */
 import { z } from 'zod';
+import { READING_MEASURES, READING_UNITS, takesMeasure } from '../reckoners/reading-units';
 import { parseQuantity, QuantityParseError } from '../units/parse';
 
 export const BLOCK_ID = /^[A-Za-z0-9_-]{6,40}$/;
@@ -99,14 +100,26 @@ export const readingAttrs = z
     label: shortText(200),
     testPoint: shortText(120),
     meterRange: shortText(60),
-    unit: z.enum(['V', 'A', 'Ω', 'W', 'Hz', 'F', 's', '%']),
+    unit: z.enum(READING_UNITS),
+    /** For volts and amps: what the meter is set to read. Documents saved before it existed are upgraded on load. */
+    measure: z.enum(READING_MEASURES).nullable().optional(),
     /** A literal as typed ("350 V") or a reckoner output ("bplus.averageDc"). */
     expected: z.union([z.object({ literal: shortText(40) }).strict(), z.object({ ref: shortText(80) }).strict()]),
+    /**
+     * For a typed expected value: true scales it with measured ÷ nominal mains (a winding, a rail fed
+     * from one); false states it does not (a regulated rail, the mains itself); absent is unstated.
+     */
+    followsMains: z.boolean().nullable().optional(),
     tolerance: toleranceText,
     /** Taken on a powered unit. Absent: live when the unit is V, A, W or Hz (see isLiveReading). */
     live,
   })
-  .strict();
+  .strict()
+  .superRefine((r, ctx) => {
+    if (r.measure != null && !takesMeasure(r.unit)) {
+      ctx.addIssue({ code: 'custom', path: ['measure'], message: `a reading in ${r.unit} takes no measure (rms, peak, DC are for volts and amps)` });
+    }
+  });
 
 /** The highest threshold a discharge-verified step may name; above it the value is a slip, not a choice. */
 const MAX_DISCHARGE_THRESHOLD = 1000;

@@ -17,19 +17,21 @@ import { q, s, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  capacitance: quantity('F', { label: 'Capacitance', min: 1e-12, max: 1 }),
-  chargedVoltage: quantity('V', { label: 'Charged voltage', min: 1e-3, max: 5000 }),
+  capacitance: quantity('F', { label: 'Capacitance', min: 1e-12, max: 1, plausible: { min: 1e-7, max: 0.05 } }),
+  chargedVoltage: quantity('V dc', { label: 'Charged voltage', min: 1e-3, max: 5000, plausible: { min: 5, max: 2000 } }),
   bleederResistance: optionalQuantity('Ω', {
     label: 'Bleeder resistance',
     min: 1e-3,
     max: 1e9,
+    plausible: { min: 1e3, max: 1e8 },
     help: 'Leave empty to get only the suggestion for the target time.',
   }),
-  threshold: quantity('V', {
+  threshold: quantity('V dc', {
     label: 'Hazard threshold',
     default: HAZARD_DC_VOLTS,
     min: 1e-3,
     max: 1000,
+    plausible: { min: 10, max: 120 },
     help: `Default 60 V DC: ${HAZARD_DC_SOURCE}. Some rules use 50 V (NFPA 70E, OSHA 29 CFR 1910.333).`,
   }),
   targetTime: quantity('s', {
@@ -37,6 +39,7 @@ const shape = {
     default: DISCHARGE_TIME_S,
     min: 1e-3,
     max: 3600,
+    plausible: { min: 0.1, max: 600 },
     help: `Default 5 s: ${DISCHARGE_TIME_SOURCE}.`,
   }),
 };
@@ -72,7 +75,7 @@ function compute(input: BleederInput): ReckonerResult {
       SRC.derived,
     );
     outputs.bleederDissipation = q((V0 * V0) / R, 'W', 'Bleeder dissipation', 'V² ÷ R at the charged voltage, continuous while powered.', SRC.derived);
-    outputs.bleederCurrent = q(V0 / R, 'A', 'Bleeder current', 'V ÷ R; this adds to the supply’s load.', SRC.derived);
+    outputs.bleederCurrent = q(V0 / R, 'A dc', 'Bleeder current', 'V ÷ R; this adds to the supply’s load.', SRC.derived);
   }
   if (above) {
     const rMax = maxBleederFor(targetTime, C, V0, Vt);

@@ -17,18 +17,26 @@ import { n, q, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  startVoltage: quantity('V', { label: 'Start node voltage', min: 1e-3, max: 3000 }),
+  startVoltage: quantity('V dc', { label: 'Start node voltage', min: 1e-3, max: 3000, plausible: { min: 5, max: 1500 } }),
   stages: rows(
     {
       label: text({ label: 'Node' }),
-      targetVoltage: quantity('V', { label: 'Target voltage', min: 1e-3, max: 3000 }),
-      current: quantity('A', { label: 'Current drawn at this node', min: 0, max: 10 }),
-      capacitance: quantity('F', { label: 'Filter capacitor', min: 1e-12, max: 0.1 }),
+      targetVoltage: quantity('V dc', { label: 'Target voltage', min: 1e-3, max: 3000, plausible: { min: 1, max: 1500 } }),
+      current: quantity('A dc', { label: 'Current drawn at this node', min: 0, max: 10, plausible: { min: 0, max: 0.5 } }),
+      capacitance: quantity('F', { label: 'Filter capacitor', min: 1e-12, max: 0.1, plausible: { min: 1e-7, max: 5e-3 } }),
+      capacitorRating: optionalQuantity('V dc', {
+        label: 'Capacitor voltage rating',
+        min: 1,
+        max: 5000,
+        plausible: { min: 6, max: 1000 },
+        rating: 'capacitor-voltage',
+        help: 'The filter capacitor’s marked working voltage; checked against the no-load peak at high mains.',
+      }),
       fittedResistance: optionalQuantity('Ω', {
         label: 'Fitted resistor',
-        min: 0,
-        minExclusive: true,
+        min: 0.1,
         max: 1e8,
+        plausible: { min: 10, max: 1e6 },
         help: 'The dropping resistor in the unit (e.g. "4k7"). When given, this and later node voltages are computed with it; leave empty to use the nearest standard value.',
       }),
     },
@@ -49,7 +57,7 @@ const shape = {
     max: 2000,
     help: 'Twice the mains frequency for full-wave rectification: 100 Hz on 50 Hz mains, 120 Hz on 60 Hz.',
   }),
-  startRipple: optionalQuantity('V', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000 }),
+  startRipple: optionalQuantity('V peak-to-peak', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000 }),
 };
 
 const { schema: baseSchema, fields } = defineInputs(shape);
@@ -132,10 +140,10 @@ function compute(input: DropperLadderInput): ReckonerResult {
         : `No fitted value given: the nearest ${input.series} value to the exact resistance; node voltage, dissipation and attenuation use it.`,
       fitted !== undefined ? undefined : `IEC 60063 ${input.series}`,
     );
-    outputs[`${key}.current`] = q(I, 'A', `${name}: resistor current`, 'This node’s current plus every later node’s.', SRC.derived);
+    outputs[`${key}.current`] = q(I, 'A dc', `${name}: resistor current`, 'This node’s current plus every later node’s.', SRC.derived);
     outputs[`${key}.nodeVoltage`] = q(
       node,
-      'V',
+      'V dc',
       fitted !== undefined ? `${name}: node voltage with the fitted resistor` : `${name}: node voltage with ${input.series} values`,
       `Previous node’s computed voltage (${formatQuantity(prevActual, 'V')}) less ${usedText} × ${formatQuantity(I, 'A')}.`,
       SRC.derived,
@@ -147,7 +155,7 @@ function compute(input: DropperLadderInput): ReckonerResult {
     outputs[`${key}.attenuationDb`] = n(20 * Math.log10(att), `${name}: ripple attenuation (dB)`, '20 log₁₀ of the attenuation.', SRC.derived);
     if (ripple !== undefined) {
       ripple = ripple * att;
-      outputs[`${key}.ripple`] = q(ripple, 'V', `${name}: ripple (peak to peak)`, 'Previous node’s ripple × this stage’s attenuation.', SRC.derived);
+      outputs[`${key}.ripple`] = q(ripple, 'V peak-to-peak', `${name}: ripple (peak to peak)`, 'Previous node’s ripple × this stage’s attenuation.', SRC.derived);
     }
     prevTarget = st.targetVoltage;
     prevActual = node;
@@ -156,7 +164,7 @@ function compute(input: DropperLadderInput): ReckonerResult {
   const allFitted = input.stages.every((st) => st.fittedResistance !== undefined);
   outputs.finalVoltage = q(
     prevActual,
-    'V',
+    'V dc',
     'Last node voltage',
     allFitted ? 'With the fitted resistors.' : anyFitted ? `With the fitted resistors where given, ${input.series} values elsewhere.` : `With ${input.series} values.`,
     SRC.derived,

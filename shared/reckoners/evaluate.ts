@@ -5,7 +5,10 @@
  */
 import { runReckoner } from './validate';
 import { getReckoner } from './registry';
-import type { Caution, FieldError, Output } from './types';
+import { specAt, withFollowedParams } from './field-paths';
+import { unitWithMeasure } from './measures';
+import { paramSpec } from './params';
+import type { Caution, FieldError, FieldSpec, Measure, Output, ParamKey } from './types';
 
 export interface ProcedureBlock {
   name: string;
@@ -13,15 +16,21 @@ export interface ProcedureBlock {
   inputs: Record<string, unknown>;
 }
 
-/** Standard procedure parameters: measured mains (V), nominal mains (V), mains frequency (Hz). */
-export type ProcedureParams = Record<string, number> & {
-  mainsVoltage?: number;
-  mainsNominal?: number;
-  mainsFrequency?: number;
-};
+/** Where an input's value came from. `followed`: the field was left empty and follows the parameter. */
+export type InputSource = { kind: 'typed' } | { kind: 'param'; param: ParamKey; followed: boolean } | { kind: 'ref'; ref: string };
 
 export type BlockResult =
-  | { name: string; kind: string; ok: true; outputs: Record<string, Output>; cautions: Caution[] }
+  | {
+      name: string;
+      kind: string;
+      ok: true;
+      outputs: Record<string, Output>;
+      cautions: Caution[];
+      /** The validated input, references resolved, in SI base units. */
+      input: Record<string, unknown>;
+      /** Where each input value came from, by dotted field path ("windings.0.volts"). */
+      sources: Record<string, InputSource>;
+    }
   | { name: string; kind: string; ok: false; errors: FieldError[] };
 
 export interface ProcedureError {
@@ -74,44 +83,75 @@ function collectRefs(value: unknown, path: string[], out: Reference[]): void {
   }
 }
 
-/** Replace references with values. Returns the errors for references that cannot be resolved. */
-function resolve(
-  value: unknown,
-  path: string[],
-  outputsOf: (block: string) => Record<string, Output> | undefined,
-  params: Record<string, number>,
-  errors: FieldError[],
-): unknown {
+/** Why a value of `unit`/`measure` cannot go into `spec`, or null when it fits. */
+function quantityMismatch(spec: FieldSpec | undefined, unit: string, measure: Measure): string | null {
+  if (!spec || spec.unit === undefined) return null; // a field whose unit is set by another input
+  const want = unitWithMeasure(spec.unit || 'a plain number', spec.measure);
+  const have = unitWithMeasure(unit || 'a plain number', measure);
+  if (spec.unit !== unit) return `gives ${have}, but this field takes ${want}`;
+  if (spec.measure && measure !== spec.measure) return `gives ${have}, but this field takes ${want}`;
+  return null;
+}
+
+interface ResolveContext {
+  fields: FieldSpec[];
+  outputsOf: (block: string) => Record<string, Output> | undefined;
+  params: Record<string, number>;
+  followed: Set<string>;
+  errors: FieldError[];
+  sources: Record<string, InputSource>;
+}
+
+/** Replace references with values, checking each against the field's unit and measure. */
+function resolve(value: unknown, path: string[], ctx: ResolveContext): unknown {
+  const field = path.join('.');
+  const spec = specAt(ctx.fields, path);
   if (isRef(value)) {
     const dot = value.ref.indexOf('.');
     const block = value.ref.slice(0, dot);
     const key = value.ref.slice(dot + 1);
-    const outputs = outputsOf(block);
+    const outputs = ctx.outputsOf(block);
     const out = outputs?.[key];
     if (!outputs) return undefined; // reported before resolving
     if (!out) {
-      errors.push({
-        field: path.join('.'),
+      ctx.errors.push({
+        field,
         reason: `refers to "${value.ref}", but block "${block}" has no output "${key}" (it has: ${Object.keys(outputs).join(', ')})`,
       });
       return undefined;
     }
+    const wrong = typeof out.value === 'number' ? quantityMismatch(spec, out.unit, out.measure) : spec?.kind === 'select' || spec?.kind === 'text' ? null : 'is not a number';
+    if (wrong) {
+      ctx.errors.push({ field, reason: `refers to "${value.ref}" (${out.label}), which ${wrong}` });
+      return undefined;
+    }
+    ctx.sources[field] = { kind: 'ref', ref: value.ref };
     return out.value;
   }
   if (isParam(value)) {
-    const v = params[value.param];
-    if (typeof v !== 'number' || !Number.isFinite(v)) {
-      errors.push({ field: path.join('.'), reason: `refers to procedure parameter "${value.param}", which is not set` });
+    const v = ctx.params[value.param];
+    const p = paramSpec(value.param);
+    // A field left empty follows its parameter only when one is given; otherwise its own default applies.
+    if (ctx.followed.has(field) && (typeof v !== 'number' || !Number.isFinite(v))) return undefined;
+    if (!p || typeof v !== 'number' || !Number.isFinite(v)) {
+      ctx.errors.push({ field, reason: `refers to procedure parameter "${value.param}", which is not set` });
       return undefined;
     }
+    const wrong = quantityMismatch(spec, p.unit, p.measure);
+    if (wrong) {
+      ctx.errors.push({ field, reason: `refers to the procedure’s ${p.label.toLowerCase()}, which ${wrong}` });
+      return undefined;
+    }
+    ctx.sources[field] = { kind: 'param', param: p.key, followed: ctx.followed.has(field) };
     return v;
   }
-  if (Array.isArray(value)) return value.map((v, i) => resolve(v, [...path, String(i)], outputsOf, params, errors));
+  if (Array.isArray(value)) return value.map((v, i) => resolve(v, [...path, String(i)], ctx));
   if (typeof value === 'object' && value !== null) {
     const o: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(value)) o[k] = resolve(v, [...path, k], outputsOf, params, errors);
+    for (const [k, v] of Object.entries(value)) o[k] = resolve(v, [...path, k], ctx);
     return o;
   }
+  if (path.length && value !== undefined && value !== null && value !== '') ctx.sources[field] = { kind: 'typed' };
   return value;
 }
 
@@ -222,10 +262,12 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
       fail(i, [{ field: 'inputs', reason: `depends on ${failedDeps.map((n) => `"${n}"`).join(', ')}, which could not be evaluated` }]);
       continue;
     }
-    const refErrors: FieldError[] = [];
-    const resolved = resolve(b.inputs ?? {}, [], outputsOf, params, refErrors);
-    if (refErrors.length) {
-      fail(i, refErrors);
+    const fields = getReckoner(b.kind)!.fields;
+    const { inputs, followed } = withFollowedParams(b.inputs ?? {}, fields);
+    const ctx: ResolveContext = { fields, outputsOf, params, followed, errors: [], sources: {} };
+    const resolved = resolve(inputs, [], ctx);
+    if (ctx.errors.length) {
+      fail(i, ctx.errors);
       continue;
     }
     let run;
@@ -234,7 +276,12 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     } catch (e) {
       run = { ok: false as const, errors: [{ field: '', reason: `internal error: ${e instanceof Error ? e.message : String(e)}` }] };
     }
-    results.set(i, run.ok ? { name: b.name, kind: b.kind, ...run } : { name: b.name, kind: b.kind, ok: false, errors: run.errors });
+    results.set(
+      i,
+      run.ok
+        ? { name: b.name, kind: b.kind, ...run, sources: ctx.sources }
+        : { name: b.name, kind: b.kind, ok: false, errors: run.errors },
+    );
   }
 
   return {

@@ -6,7 +6,10 @@
 import { z } from 'zod';
 import { parseQuantity, QuantityParseError } from '../units/parse';
 import { formatQuantity } from '../units/format';
-import type { FieldSpec } from './types';
+import { measureMismatch } from './measures';
+import { splitUnit, type OutputUnit } from './outputs';
+import { closestName } from './names';
+import type { FieldSpec, Measure, ParamKey } from './types';
 
 export interface FieldDef<T> {
   spec: Omit<FieldSpec, 'key'>;
@@ -16,9 +19,18 @@ export interface FieldDef<T> {
 interface NumericOpts {
   label: string;
   help?: string;
+  /** Hard limits: a value outside them is refused. */
   min?: number;
   minExclusive?: boolean;
   max?: number;
+  /** The range met in shop work: outside it (inside min/max) the block raises a named caution. */
+  plausible?: { min: number; max: number };
+  /** The procedure parameter an empty field takes. */
+  follows?: ParamKey;
+  /** The physical part or figure this is, for the same-part check across blocks. */
+  part?: string;
+  /** A capacitor's voltage rating, checked against the no-load peak at high mains. */
+  rating?: FieldSpec['rating'];
 }
 
 function isMissing(v: unknown): boolean {
@@ -29,7 +41,12 @@ function describe(value: number, unit: string): string {
   return unit ? formatQuantity(value, unit, 4) : String(value);
 }
 
-function numericSchema(unit: string, opts: NumericOpts & { integer?: boolean }, dflt: number | undefined, optional: boolean) {
+function numericSchema(
+  unit: string,
+  opts: NumericOpts & { integer?: boolean; measure?: Measure },
+  dflt: number | undefined,
+  optional: boolean,
+) {
   return z.unknown().optional().transform((raw, ctx): number | undefined => {
     const fail = (message: string) => {
       ctx.addIssue({ code: 'custom', message, input: raw });
@@ -46,7 +63,10 @@ function numericSchema(unit: string, opts: NumericOpts & { integer?: boolean }, 
       value = raw;
     } else if (typeof raw === 'string') {
       try {
-        value = parseQuantity(raw, unit).value;
+        const parsed = parseQuantity(raw, unit);
+        const wrong = measureMismatch(raw, parsed, opts.measure);
+        if (wrong) return fail(wrong);
+        value = parsed.value;
       } catch (e) {
         if (e instanceof QuantityParseError) return fail(e.reason === 'not a number' ? `"${raw}" is not a number` : e.message);
         throw e;
@@ -64,18 +84,25 @@ function numericSchema(unit: string, opts: NumericOpts & { integer?: boolean }, 
   });
 }
 
-/** A quantity in `unit`, required unless a default is given. */
-export function quantity(unit: string, opts: NumericOpts & { default?: number }): FieldDef<number> {
+/**
+ * A quantity, required unless a default is given. Volts and amps name their measure ('V rms',
+ * 'A dc'), so a value typed in another measure is refused with the conversion where one exists.
+ */
+export function quantity(unitAndMeasure: OutputUnit, opts: NumericOpts & { default?: number }): FieldDef<number> {
+  const { unit, measure } = splitUnit(unitAndMeasure);
+  const m = measure === 'scalar' ? undefined : measure;
   return {
-    spec: { kind: 'quantity', unit, ...opts },
-    schema: numericSchema(unit, opts, opts.default, false) as z.ZodType<number>,
+    spec: { kind: 'quantity', unit, ...(m && { measure: m }), ...opts },
+    schema: numericSchema(unit, { ...opts, measure: m }, opts.default, false) as z.ZodType<number>,
   };
 }
 
-export function optionalQuantity(unit: string, opts: NumericOpts): FieldDef<number | undefined> {
+export function optionalQuantity(unitAndMeasure: OutputUnit, opts: NumericOpts): FieldDef<number | undefined> {
+  const { unit, measure } = splitUnit(unitAndMeasure);
+  const m = measure === 'scalar' ? undefined : measure;
   return {
-    spec: { kind: 'quantity', unit, optional: true, ...opts },
-    schema: numericSchema(unit, opts, undefined, true),
+    spec: { kind: 'quantity', unit, ...(m && { measure: m }), optional: true, ...opts },
+    schema: numericSchema(unit, { ...opts, measure: m }, undefined, true),
   };
 }
 
@@ -139,10 +166,30 @@ export function text(opts: { label: string; help?: string }): FieldDef<string | 
 type Shape = Record<string, FieldDef<unknown>>;
 export type InputOf<S extends Shape> = { [K in keyof S]: S[K] extends FieldDef<infer T> ? T : never };
 
+/** Named inputs; an unknown name is refused (a misspelt key must never be dropped silently). */
 function objectSchema<S extends Shape>(shape: S) {
   const zshape: Record<string, z.ZodType> = {};
   for (const [k, def] of Object.entries(shape)) zshape[k] = def.schema;
-  return z.object(zshape, { error: () => 'must be a set of named inputs' }) as unknown as z.ZodType<InputOf<S>>;
+  const known = Object.keys(shape);
+  return z
+    .object(zshape, { error: () => 'must be a set of named inputs' })
+    .catchall(z.unknown())
+    .superRefine((value, ctx) => {
+      for (const key of Object.keys(value)) {
+        if (known.includes(key)) continue;
+        const near = closestName(key, known);
+        ctx.addIssue({
+          code: 'custom',
+          path: [key],
+          message: `is not an input of this block${near ? ` — did you mean "${near}"?` : ''} (inputs: ${known.join(', ')})`,
+        });
+      }
+    })
+    .transform((value) => {
+      const out: Record<string, unknown> = {};
+      for (const key of known) out[key] = (value as Record<string, unknown>)[key];
+      return out;
+    }) as unknown as z.ZodType<InputOf<S>>;
 }
 
 function specs<S extends Shape>(shape: S): FieldSpec[] {

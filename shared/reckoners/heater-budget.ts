@@ -6,8 +6,8 @@ import { q, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  windingVoltage: quantity('V', { label: 'Heater winding voltage', default: 6.3, min: 1e-3, max: 500 }),
-  windingCurrent: quantity('A', { label: 'Heater winding rating', min: 1e-6, max: 100 }),
+  windingVoltage: quantity('V rms', { label: 'Heater winding voltage', default: 6.3, min: 1e-3, max: 500, plausible: { min: 1, max: 150 } }),
+  windingCurrent: quantity('A rms', { label: 'Heater winding rating', min: 1e-6, max: 100, plausible: { min: 0.05, max: 20 } }),
   arrangement: select({
     label: 'Heaters wired',
     options: [
@@ -19,8 +19,8 @@ const shape = {
   heaters: rows(
     {
       label: text({ label: 'Valve' }),
-      volts: quantity('V', { label: 'Heater voltage', min: 1e-3, max: 200 }),
-      amps: quantity('A', { label: 'Heater current', min: 1e-6, max: 20 }),
+      volts: quantity('V rms', { label: 'Heater voltage', min: 1e-3, max: 200, plausible: { min: 1, max: 120 } }),
+      amps: quantity('A rms', { label: 'Heater current', min: 1e-6, max: 20, plausible: { min: 0.01, max: 5 } }),
       count: integer({ label: 'How many', default: 1, min: 1, max: 50 }),
     },
     { label: 'Heaters', minRows: 1, maxRows: 30 },
@@ -48,13 +48,13 @@ function compute(input: HeaterBudgetInput): ReckonerResult {
   const current = series ? Math.max(...input.heaters.map((h) => h.amps)) : input.heaters.reduce((sum, h) => sum + h.amps * h.count, 0);
   const percent = (current / input.windingCurrent) * 100;
   const outputs: ReckonerResult['outputs'] = {
-    totalCurrent: q(current, 'A', 'Heater current', series ? 'One series string: the string current.' : 'Sum of heater currents × counts.', SRC.derived),
+    totalCurrent: q(current, 'A rms', 'Heater current', series ? 'One series string: the string current.' : 'Sum of heater currents × counts.', SRC.derived),
     windingVA: q(current * input.windingVoltage, 'VA', 'Winding load', 'Winding voltage × heater current.', SRC.derived),
     heaterPower: q(heaterPower, 'W', 'Heater power', 'Σ heater volts × amps × count.', SRC.derived),
     percentOfRating: q(percent, '%', 'Share of the winding rating', 'Heater current ÷ winding rating × 100.', SRC.derived),
   };
   if (series) {
-    outputs.stringVoltage = q(stringVolts, 'V', 'String voltage', 'Σ heater volts × count.', SRC.derived);
+    outputs.stringVoltage = q(stringVolts, 'V rms', 'String voltage', 'Σ heater volts × count.', SRC.derived);
     if (input.windingVoltage > stringVolts) {
       const r = (input.windingVoltage - stringVolts) / current;
       outputs.dropperResistance = q(r, 'Ω', 'Series dropper', '(supply − string voltage) ÷ string current.', SRC.derived);

@@ -5,7 +5,7 @@ export type { ValidationResult, RunResult } from './validate';
 export { reckoners, getReckoner, listReckoners, isReckonerKind, RECKONER_KINDS } from './registry';
 export type { ReckonerKind } from './registry';
 export { evaluateProcedure } from './evaluate';
-export type { ProcedureBlock, ProcedureParams, BlockResult, ProcedureError, ProcedureResult } from './evaluate';
+export type { ProcedureBlock, BlockResult, InputSource, ProcedureError, ProcedureResult } from './evaluate';
 export { checkReading, toleranceBand, parseTolerance } from './reading-tolerance';
 export type { Tolerance, ReadingCheck } from './reading-tolerance';
 export { simulateCapacitorInput, rippleApproxFullWave } from './capacitor-input';

@@ -6,34 +6,66 @@ import { formatQuantity } from '../units/format';
 import { compact, hazardousVoltage, LOCAL_CODES, storedEnergy } from './cautions';
 import { simulateCapacitorInput, CapInputOverload } from './capacitor-input';
 import { ReckonerInputError } from './errors';
-import { defineInputs, quantity, type InputOf } from './fields';
+import { defineInputs, optionalQuantity, quantity, type InputOf } from './fields';
 import { n, q, SRC } from './outputs';
 import { diodesInPath, rectifierField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  windingVoltage: quantity('V', {
+  windingVoltage: quantity('V rms', {
     label: 'Winding voltage (rms, unloaded)',
     min: 1e-3,
     max: 3000,
+    plausible: { min: 2, max: 1500 },
     help: 'The open-circuit figure; the winding’s resistance goes in source resistance. Half of a centre-tapped winding.',
   }),
   sourceResistance: quantity('Ω', {
     label: 'Source resistance',
     min: 1e-3,
     max: 1e5,
+    plausible: { min: 0.05, max: 5e3 },
     help: 'Secondary resistance plus the primary’s reflected by the turns ratio squared, plus the rectifier’s resistance.',
   }),
-  reservoir: quantity('F', { label: 'Reservoir capacitance', min: 1e-12, max: 0.1 }),
-  mainsFrequency: quantity('Hz', { label: 'Mains frequency', default: 50, min: 16, max: 440 }),
-  loadCurrent: quantity('A', { label: 'Load current (DC)', min: 0, max: 10 }),
+  reservoir: quantity('F', {
+    label: 'Reservoir capacitance',
+    min: 1e-12,
+    max: 0.1,
+    plausible: { min: 1e-6, max: 0.05 },
+    part: 'reservoir-capacitance',
+  }),
+  reservoirRating: optionalQuantity('V dc', {
+    label: 'Reservoir voltage rating',
+    min: 1,
+    max: 5000,
+    plausible: { min: 6, max: 1000 },
+    rating: 'capacitor-voltage',
+    help: 'The capacitor’s marked working voltage; the procedure check compares it with the no-load peak at high mains.',
+  }),
+  mainsFrequency: quantity('Hz', {
+    label: 'Mains frequency',
+    default: 50,
+    min: 16,
+    max: 440,
+    plausible: { min: 45, max: 65 },
+    follows: 'mainsFrequency',
+  }),
+  loadCurrent: quantity('A dc', { label: 'Load current (DC)', min: 0, max: 10, plausible: { min: 1e-4, max: 3 } }),
   rectifier: rectifierField(),
-  diodeDrop: quantity('V', { label: 'Silicon diode forward drop', default: 0.9, min: 0, max: 3 }),
-  valveDrop: quantity('V', {
+  diodeDrop: quantity('V dc', {
+    label: 'Silicon diode forward drop',
+    default: 0.9,
+    min: 0,
+    max: 3,
+    plausible: { min: 0.3, max: 1.5 },
+    part: 'silicon-diode-drop',
+  }),
+  valveDrop: quantity('V dc', {
     label: 'Valve rectifier fixed drop',
     default: 0,
     min: 0,
     max: 200,
+    plausible: { min: 0, max: 100 },
+    part: 'valve-rectifier-drop',
     help: 'A valve’s drop grows with current: model it mainly as resistance in source resistance; put only a fixed part here.',
   }),
 };
@@ -65,24 +97,24 @@ function compute(input: LoadedBplusInput): ReckonerResult {
   const diodeRms = r.rectifierRmsHalfCycle / Math.SQRT2;
   const model = 'Time-step solution of the full-wave rectifier charging the reservoir, at steady state.';
   const outputs: ReckonerResult['outputs'] = {
-    averageDc: q(r.averageDc, 'V', 'Loaded B+ (average DC)', `${model} Constant-current load.`, SRC.derived),
-    ripplePeakToPeak: q(r.ripplePeakToPeak, 'V', 'Ripple, peak to peak', `${model} At ${formatQuantity(2 * input.mainsFrequency, 'Hz')}.`, SRC.derived),
-    rippleRms: q(r.rippleRms, 'V', 'Ripple, rms', model, SRC.derived),
-    maximumDc: q(r.maximum, 'V', 'Reservoir voltage, crest', model, SRC.derived),
-    minimumDc: q(r.minimum, 'V', 'Reservoir voltage, trough', model, SRC.derived),
-    peakRectifierCurrent: q(r.peakRectifierCurrent, 'A', 'Peak repetitive rectifier current', model, SRC.derived),
-    rectifierRmsCurrent: q(diodeRms, 'A', 'Rectifier rms current (each)', model, SRC.derived),
+    averageDc: q(r.averageDc, 'V dc', 'Loaded B+ (average DC)', `${model} Constant-current load.`, SRC.derived),
+    ripplePeakToPeak: q(r.ripplePeakToPeak, 'V peak-to-peak', 'Ripple, peak to peak', `${model} At ${formatQuantity(2 * input.mainsFrequency, 'Hz')}.`, SRC.derived),
+    rippleRms: q(r.rippleRms, 'V rms', 'Ripple, rms', model, SRC.derived),
+    maximumDc: q(r.maximum, 'V peak', 'Reservoir voltage, crest', model, SRC.derived),
+    minimumDc: q(r.minimum, 'V dc', 'Reservoir voltage, trough', model, SRC.derived),
+    peakRectifierCurrent: q(r.peakRectifierCurrent, 'A peak', 'Peak repetitive rectifier current', model, SRC.derived),
+    rectifierRmsCurrent: q(diodeRms, 'A rms', 'Rectifier rms current (each)', model, SRC.derived),
     windingRmsCurrent: q(
       windingRms,
-      'A',
+      'A rms',
       'Winding rms current',
       `${model} Use this as the winding’s current in the mains-fuse reckoner${input.rectifier === 'silicon-bridge' ? '' : ' (per half of the winding)'}.`,
       SRC.derived,
     ),
-    capacitorRippleCurrent: q(r.capacitorRmsCurrent, 'A', 'Reservoir ripple current (rms)', model, SRC.derived),
+    capacitorRippleCurrent: q(r.capacitorRmsCurrent, 'A rms', 'Reservoir ripple current (rms)', model, SRC.derived),
     conduction: q(r.conductionFraction * 100, '%', 'Conduction per half-cycle', model, SRC.derived),
-    peakVoltage: q(vPeak, 'V', 'Winding peak', '√2 × rms winding voltage.', SRC.derived),
-    noLoadDc: q(vPeak - drop, 'V', 'No-load DC', 'Peak less the rectifier drop: the reservoir reaches this before the valves draw current.', SRC.commonPractice),
+    peakVoltage: q(vPeak, 'V peak', 'Winding peak', '√2 × rms winding voltage.', SRC.derived),
+    noLoadDc: q(vPeak - drop, 'V dc', 'No-load DC', 'Peak less the rectifier drop: the reservoir reaches this before the valves draw current.', SRC.commonPractice),
     regulation: n(
       ((vPeak - drop - r.averageDc) / r.averageDc) * 100,
       'Regulation, no-load to this load (%)',

@@ -30,23 +30,35 @@ const shape = {
   windings: rows(
     {
       label: text({ label: 'Winding' }),
-      volts: quantity('V', { label: 'Winding voltage', min: 1e-3, max: 5000 }),
-      amps: quantity('A', {
+      volts: quantity('V rms', { label: 'Winding voltage', min: 1e-3, max: 5000, plausible: { min: 1, max: 1500 } }),
+      amps: quantity('A rms', {
         label: 'Winding current (AC rms)',
         min: 1e-6,
         max: 100,
+        plausible: { min: 1e-3, max: 20 },
         help: 'The winding’s AC rms current. A rectified winding carries more than its DC load: about 1.0 × Idc for a bridge with choke input, 0.707 × Idc per half of a centre-tap; capacitor input more (see the loaded B+ reckoner).',
       }),
     },
     { label: 'Secondary windings', minRows: 0, maxRows: 20 },
   ),
-  va: optionalQuantity('VA', { label: 'Transformer load', min: 1e-3, max: 5000 }),
-  mainsVoltage: quantity('V', { label: 'Mains voltage', default: 230, min: 50, max: 300 }),
+  va: optionalQuantity('VA', { label: 'Transformer load', min: 1e-3, max: 5000, plausible: { min: 1, max: 2000 } }),
+  mainsVoltage: quantity('V rms', {
+    label: 'Mains voltage',
+    default: 230,
+    min: 50,
+    max: 300,
+    plausible: { min: 90, max: 260 },
+    follows: 'mainsNominal',
+    part: 'mains-nominal',
+    help: 'The fuse is sized at the nominal mains the transformer is rated for.',
+  }),
   efficiency: quantity('%', {
     label: 'Transformer efficiency',
     default: 85,
     min: 30,
     max: 100,
+    plausible: { min: 60, max: 98 },
+    part: 'transformer-efficiency',
     help: '80–90 % is usual for small mains transformers (common practice).',
   }),
   margin: num({
@@ -64,6 +76,15 @@ const shape = {
     ],
     default: 'iec',
   }),
+  fuseType: select({
+    label: 'Fuse type',
+    options: [
+      { value: 'T', label: 'Time-delay (T, slow-blow)' },
+      { value: 'F', label: 'Quick-acting (F)' },
+    ],
+    default: 'T',
+    help: 'A transformer input draws a switch-on surge many times its running current: a time-delay fuse rides through it.',
+  }),
   inrushMultiple: num({
     label: 'Switch-on surge (× running current)',
     default: 10,
@@ -71,7 +92,7 @@ const shape = {
     max: 50,
     help: 'Rule of thumb: about ten times the running current (common practice).',
   }),
-  inrushDuration: quantity('s', { label: 'Switch-on surge duration', default: 0.2, min: 1e-3, max: 5 }),
+  inrushDuration: quantity('s', { label: 'Switch-on surge duration', default: 0.2, min: 1e-3, max: 5, plausible: { min: 5e-3, max: 2 } }),
 };
 
 const { schema: baseSchema, fields } = defineInputs(shape);
@@ -118,11 +139,15 @@ function compute(input: MainsFuseInput): ReckonerResult {
   }
   const inrush = primary * input.inrushMultiple;
   const multiple = inrush / rating;
-  const gate = gateFor(multiple);
+  // Only time-lag fuses have a guaranteed holding time under a surge in the gates held here.
+  const gate = input.fuseType === 'T' ? gateFor(multiple) : null;
   const holds = gate !== null && gate.min >= input.inrushDuration;
-  const gateText = gate
-    ? `at ≤ ${formatNumber(gate.multiple)} × In a time-lag fuse must not open before ${formatQuantity(gate.min, 's')} (and must by ${formatQuantity(gate.max, 's')})`
-    : `above the highest tabulated gate (${formatNumber(TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple)} × In): the standard gives no holding time`;
+  const gateText =
+    input.fuseType === 'F'
+      ? `a quick-acting fuse is guaranteed no holding time under a surge; it opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In`
+      : gate
+        ? `at ≤ ${formatNumber(gate.multiple)} × In a time-lag fuse must not open before ${formatQuantity(gate.min, 's')} (and must by ${formatQuantity(gate.max, 's')})`
+        : `above the highest tabulated gate (${formatNumber(TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple)} × In): the standard gives no holding time`;
 
   const outputs: ReckonerResult['outputs'] = {
     totalVA: q(
@@ -134,23 +159,25 @@ function compute(input: MainsFuseInput): ReckonerResult {
     ),
     primaryCurrent: q(
       primary,
-      'A',
+      'A rms',
       'Primary current',
       `VA ÷ (efficiency ${formatNumber(input.efficiency)} % × ${formatQuantity(input.mainsVoltage, 'V')}).`,
       SRC.derived,
     ),
-    requiredCurrent: q(required, 'A', 'Required fuse current', `Primary current × margin ${formatNumber(input.margin)}.`, SRC.commonPractice),
-    fuseRating: q(rating, 'A', 'Fuse rating', `Next standard rating at or above the required current, from the ${series.label}.`, series.source),
+    requiredCurrent: q(required, 'A rms', 'Required fuse current', `Primary current × margin ${formatNumber(input.margin)}.`, SRC.commonPractice),
+    fuseRating: q(rating, 'A rms', 'Fuse rating', `Next standard rating at or above the required current, from the ${series.label}.`, series.source),
     fuseType: s(
-      'T',
+      input.fuseType,
       'Fuse type',
-      `Time-delay (T, slow-blow): switch-on draws the transformer’s magnetising surge and the reservoir charging surge, many times the running current for a few cycles. A quick-acting (F) fuse opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In and would blow on it.`,
+      input.fuseType === 'T'
+        ? `Time-delay (T, slow-blow): switch-on draws the transformer’s magnetising surge and the reservoir charging surge, many times the running current for a few cycles. A quick-acting (F) fuse opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In and would blow on it.`
+        : `Quick-acting (F), as chosen: it opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In, so the switch-on surge may blow it.`,
       `${SRC.commonPractice}; F-fuse gate: ${QUICK_ACTING_SOURCE}`,
     ),
-    fuseDesignation: s(`T ${formatQuantity(rating, 'A', 3)}`, 'Fuse', 'Type and rating to fit.', series.source),
+    fuseDesignation: s(`${input.fuseType} ${formatQuantity(rating, 'A', 3)}`, 'Fuse', 'Type and rating to fit.', series.source),
     inrushCurrent: q(
       inrush,
-      'A',
+      'A rms',
       'Switch-on surge (estimate)',
       `Rule of thumb: about ${formatNumber(input.inrushMultiple)} × running current for roughly ${formatQuantity(input.inrushDuration, 's')}. An estimate, not a measurement.`,
       SRC.commonPractice,
@@ -184,6 +211,13 @@ function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
       message:
         'The switch-on surge estimate is not covered by the time-lag gate alone. Check the chosen fuse’s melting I²t or time-current curve; a soft-start or thermistor may be needed if it opens at switch-on. Never replace it with a larger rating to stop nuisance blowing without re-checking the design.',
       source: TIME_LAG_GATES_SOURCE,
+    },
+    input.fuseType === 'F' && {
+      level: 'warning',
+      code: 'quick-acting-fuse',
+      field: 'fuseType',
+      message: `A quick-acting (F) fuse on a transformer input opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × its rating, and the switch-on surge reaches about ${formatNumber(multiple)} × the rating chosen here: expect it to blow at switch-on. Use a time-delay (T) fuse.`,
+      source: QUICK_ACTING_SOURCE,
     },
     input.margin < 1.1 && {
       level: 'note',

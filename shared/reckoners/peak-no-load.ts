@@ -5,15 +5,17 @@
 import { formatNumber, formatQuantity } from '../units/format';
 import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
 import { defineInputs, optionalInteger, optionalQuantity, quantity, select, type InputOf } from './fields';
+import { ReckonerInputError } from './errors';
 import { b, n, q, SRC } from './outputs';
 import { diodesInPath, rectifierField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  windingVoltage: quantity('V', {
+  windingVoltage: quantity('V rms', {
     label: 'Winding voltage (rms)',
     min: 1e-3,
     max: 3000,
+    plausible: { min: 2, max: 1500 },
     help: 'The rated (nominal) figure, or one measured unloaded at the bench.',
   }),
   windingBasis: select({
@@ -24,25 +26,39 @@ const shape = {
     ],
     default: 'nominal',
   }),
-  mainsNominal: quantity('V', { label: 'Nominal mains', default: 230, min: 50, max: 300 }),
-  mainsActual: optionalQuantity('V', {
+  mainsNominal: quantity('V rms', {
+    label: 'Nominal mains',
+    default: 230,
+    min: 50,
+    max: 300,
+    plausible: { min: 90, max: 260 },
+    follows: 'mainsNominal',
+    part: 'mains-nominal',
+  }),
+  mainsActual: optionalQuantity('V rms', {
     label: 'Actual mains',
     min: 50,
     max: 300,
-    help: 'Leave empty to use the nominal figure. A winding scales with the mains.',
+    plausible: { min: 80, max: 280 },
+    follows: 'mainsVoltage',
+    help: 'Follows the measured mains of the procedure (and of each bench run). A winding scales with the mains.',
   }),
   rectifier: rectifierField(),
-  diodeDrop: quantity('V', {
+  diodeDrop: quantity('V dc', {
     label: 'Silicon diode forward drop',
     default: 0.9,
     min: 0,
     max: 3,
+    plausible: { min: 0.3, max: 1.5 },
+    part: 'silicon-diode-drop',
     help: '0.7–1.1 V per diode is usual (common practice).',
   }),
-  valveDrop: optionalQuantity('V', {
+  valveDrop: optionalQuantity('V dc', {
     label: 'Valve rectifier drop',
     min: 0,
     max: 200,
+    plausible: { min: 2, max: 100 },
+    part: 'valve-rectifier-drop',
     help: 'The author’s figure for the valve rectifier’s drop; required for a valve rectifier.',
   }),
   unloadedRise: quantity('%', {
@@ -50,6 +66,7 @@ const shape = {
     default: 10,
     min: 0,
     max: 50,
+    plausible: { min: 0, max: 25 },
     help: 'Small transformers read 5–10 % above rating unloaded (common practice).',
   }),
   filterNodes: optionalInteger({ label: 'DC filter nodes', min: 1, max: 10 }),
@@ -81,11 +98,18 @@ function compute(input: PeakNoLoadInput): ReckonerResult {
   const vWinding = measured ? input.windingVoltage : scaleWithMains(input.windingVoltage, actual, input.mainsNominal);
   const vPeak = SQRT2 * vWinding;
   const drop = rectifierDrop(input);
-  const noLoadDc = Math.max(0, vPeak - drop);
+  // No silent zero: a peak at or below the rectifier drop is a slipped unit or a wrong rectifier.
+  if (vPeak <= drop) {
+    throw new ReckonerInputError(
+      'windingVoltage',
+      `gives a peak of ${formatQuantity(vPeak, 'V')}, no more than the rectifier drop of ${formatQuantity(drop, 'V')}: the supply would give no DC — check the value and its unit`,
+    );
+  }
+  const noLoadDc = vPeak - drop;
   // A rated winding reads high when unloaded; the top of the band gives the capacitor-rating figure.
   const bandLow = vWinding;
   const bandHigh = measured ? vWinding : vWinding * (1 + input.unloadedRise / 100);
-  const noLoadHigh = Math.max(0, SQRT2 * bandHigh - drop);
+  const noLoadHigh = SQRT2 * bandHigh - drop;
 
   const dropText =
     input.rectifier === 'valve'
@@ -95,26 +119,26 @@ function compute(input: PeakNoLoadInput): ReckonerResult {
   const outputs: ReckonerResult['outputs'] = {
     windingVoltage: q(
       vWinding,
-      'V',
+      'V rms',
       'Winding voltage at this mains',
       measured
         ? 'As measured.'
         : `Rated figure × ${formatQuantity(actual, 'V')} ÷ ${formatQuantity(input.mainsNominal, 'V')}.`,
       SRC.derived,
     ),
-    peakVoltage: q(vPeak, 'V', 'Peak voltage', '√2 × rms winding voltage.', 'derived; any circuit-theory text'),
-    noLoadDc: q(noLoadDc, 'V', 'No-load DC at the reservoir', `Capacitor-input: the peak ${dropText}.`, SRC.commonPractice),
-    windingUnloadedLow: q(bandLow, 'V', 'Unloaded winding check, low', 'Lowest expected unloaded reading.', SRC.commonPractice),
+    peakVoltage: q(vPeak, 'V peak', 'Peak voltage', '√2 × rms winding voltage.', 'derived; any circuit-theory text'),
+    noLoadDc: q(noLoadDc, 'V dc', 'No-load DC at the reservoir', `Capacitor-input: the peak ${dropText}.`, SRC.commonPractice),
+    windingUnloadedLow: q(bandLow, 'V rms', 'Unloaded winding check, low', 'Lowest expected unloaded reading.', SRC.commonPractice),
     windingUnloadedHigh: q(
       bandHigh,
-      'V',
+      'V rms',
       'Unloaded winding check, high',
       measured ? 'As measured.' : `Rated figure at this mains plus ${formatNumber(input.unloadedRise)} % unloaded rise.`,
       SRC.commonPractice,
     ),
     noLoadDcHigh: q(
       noLoadHigh,
-      'V',
+      'V dc',
       'No-load DC, high end',
       'Peak of the high unloaded winding figure less the rectifier drop: rate every filter capacitor for at least this.',
       SRC.commonPractice,

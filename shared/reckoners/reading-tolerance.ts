@@ -5,11 +5,20 @@
 import { z } from 'zod';
 import { parseQuantity, QuantityParseError } from '../units/parse';
 import { formatNumber, formatQuantity } from '../units/format';
-import { UNITS } from '../units/units';
+import { measureMismatch, MEASURE_WORDS } from './measures';
+import { closestName } from './names';
+import { READING_MEASURES, READING_UNITS, readingUnitSpec, type ReadingUnit } from './reading-units';
 import { LOCAL_CODES } from './cautions';
 import { ReckonerInputError } from './errors';
-import { b, q, s, SRC } from './outputs';
-import type { Caution, FieldSpec, ReckonerDefinition, ReckonerResult } from './types';
+import { b, q, s, SRC, type OutputUnit } from './outputs';
+import type { Caution, FieldSpec, Measure, ReckonerDefinition, ReckonerResult } from './types';
+
+export type { ReadingUnit };
+
+/** The output unit of a reading's value: the unit, with its measure for volts and amps. */
+export function outputUnit(unit: string, measure: Measure): OutputUnit {
+  return (measure === 'scalar' ? unit : `${unit} ${measure}`) as OutputUnit;
+}
 
 export type Tolerance =
   | { kind: 'percent'; percent: number }
@@ -72,7 +81,14 @@ export function toleranceBand(expected: number, tolerance: Tolerance): { low: nu
   }
   const usesPercent = tolerance.kind === 'percent' || (tolerance.kind === 'asymmetric' && tolerance.basis === 'percent');
   if (usesPercent && e === 0) throw new ReckonerInputError('tolerance', 'a percentage tolerance needs a non-zero expected value; use an absolute one');
-  return { low: tidy(e - below), high: tidy(e + above) };
+  const low = tidy(e - below);
+  const high = tidy(e + above);
+  if (!Number.isFinite(low) || !Number.isFinite(high)) throw new ReckonerInputError('expected', 'is too large to give a tolerance band');
+  // A band reaching past zero would accept a reading of the wrong polarity (or none at all).
+  if ((e > 0 && low < 0) || (e < 0 && high > 0)) {
+    throw new ReckonerInputError('tolerance', 'reaches past zero: the tolerance below the expected value must be no larger than the value itself (at most 100 %)');
+  }
+  return { low, high };
 }
 
 export function checkReading(args: { expected: number; tolerance: Tolerance; measured: number }): ReadingCheck {
@@ -100,11 +116,11 @@ export function parseTolerance(text: string, unit: string): Tolerance {
     throw new QuantityParseError(text, reason);
   };
   if (t === '') fail('empty');
-  const part = (p: string, forced?: '%'): { value: number; percent: boolean } => {
+  const part = (p: string, forced?: '%'): { value: number; percent: boolean; bare: boolean } => {
     const qn = parseQuantity(p, forced);
-    if (qn.unit === '%') return { value: qn.value, percent: true };
+    if (qn.unit === '%') return { value: qn.value, percent: true, bare: false };
     if (qn.unit !== '' && qn.unit !== unit) fail(`expected % or ${unit}, got ${qn.unit}`);
-    return { value: qn.value, percent: false };
+    return { value: qn.value, percent: false, bare: qn.unit === '' };
   };
   if (t.includes('/') && !/^\+\s*\/\s*-/.test(t)) {
     const pieces = t.split('/').map((x) => x.trim());
@@ -114,8 +130,10 @@ export function parseTolerance(text: string, unit: string): Tolerance {
     const parsed = pieces.map((p) => {
       const sign = p[0];
       if (sign !== '+' && sign !== '-') fail('each side of an asymmetric tolerance needs a + or − sign');
-      return { sign, ...part(p.slice(1).trim()), unitless: !/[a-zA-Z%Ωµ]/.test(p.slice(1)) };
+      const r = part(p.slice(1).trim());
+      return { sign, ...r, unitless: r.bare };
     });
+    if (parsed.every((p) => p.unitless)) fail(`add % or ${unit}: a bare number could mean either`);
     // "+10/-5 %": a unit written once applies to both sides.
     const anyPercent = parsed.some((p) => p.percent);
     const anyAbsoluteWithUnit = parsed.some((p) => !p.percent && !p.unitless);
@@ -129,29 +147,34 @@ export function parseTolerance(text: string, unit: string): Tolerance {
   }
   const body = t.replace(/^(±|\+\/-|\+-)\s*/, '');
   const p = part(body);
+  if (p.bare) fail(`add % or ${unit}: a bare number could mean ±${body} % or ±${body} ${unit}`);
   if (p.value < 0) fail('must not be negative');
   return p.percent ? { kind: 'percent', percent: p.value } : { kind: 'absolute', amount: p.value };
 }
 
-const READING_UNITS = UNITS.filter((u) => u !== '%');
-export type ReadingUnit = (typeof READING_UNITS)[number];
-
 export interface ReadingToleranceInput {
-  unit: string;
+  unit: ReadingUnit;
+  /** For volts and amps; 'scalar' otherwise. */
+  measure: Measure;
   expected: number;
   tolerance: Tolerance;
   measured?: number;
 }
 
-const rawSchema = z.object(
-  {
-    unit: z.unknown().optional(),
-    expected: z.unknown().optional(),
-    tolerance: z.unknown().optional(),
-    measured: z.unknown().optional(),
-  },
-  { error: () => 'must be a set of named inputs' },
-);
+const INPUT_KEYS = ['unit', 'measure', 'expected', 'tolerance', 'measured'] as const;
+
+const rawSchema = z
+  .object(Object.fromEntries(INPUT_KEYS.map((k) => [k, z.unknown().optional()])) as Record<(typeof INPUT_KEYS)[number], z.ZodOptional<z.ZodUnknown>>, {
+    error: () => 'must be a set of named inputs',
+  })
+  .catchall(z.unknown())
+  .superRefine((value, ctx) => {
+    for (const key of Object.keys(value)) {
+      if ((INPUT_KEYS as readonly string[]).includes(key)) continue;
+      const near = closestName(key, INPUT_KEYS);
+      ctx.addIssue({ code: 'custom', path: [key], message: `is not an input of this block${near ? ` — did you mean "${near}"?` : ''}` });
+    }
+  });
 
 const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
   let failed = false;
@@ -159,9 +182,23 @@ const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
     failed = true;
     ctx.addIssue({ code: 'custom', path, message });
   };
-  const unit = raw.unit === undefined || raw.unit === '' ? 'V' : raw.unit;
-  if (typeof unit !== 'string' || !(READING_UNITS as readonly string[]).includes(unit)) {
+  const rawUnit = raw.unit === undefined || raw.unit === '' ? 'V' : raw.unit;
+  const spec = typeof rawUnit === 'string' ? readingUnitSpec(rawUnit) : undefined;
+  if (!spec) {
     issue(['unit'], `must be one of: ${READING_UNITS.join(', ')}`);
+    return z.NEVER;
+  }
+  const unit = rawUnit as ReadingUnit;
+  let measure: Measure = 'scalar';
+  if (spec.measures.length) {
+    const m = raw.measure === undefined || raw.measure === '' ? 'dc' : raw.measure;
+    if (typeof m !== 'string' || !(spec.measures as readonly string[]).includes(m)) {
+      issue(['measure'], `must be one of: ${spec.measures.join(', ')}`);
+      return z.NEVER;
+    }
+    measure = m as Measure;
+  } else if (raw.measure !== undefined && raw.measure !== '' && raw.measure !== 'scalar') {
+    issue(['measure'], `a value in ${unit} takes no measure`);
     return z.NEVER;
   }
   const quantityOf = (key: 'expected' | 'measured', v: unknown, required: boolean): number | undefined => {
@@ -170,8 +207,9 @@ const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
       return undefined;
     }
     if (typeof v === 'number') {
-      if (Number.isFinite(v)) return v;
-      issue([key], 'must be a finite number');
+      if (!Number.isFinite(v)) issue([key], 'must be a finite number');
+      else if (Math.abs(v) > spec.max) issue([key], `is beyond what a bench meter reads (at most ${formatQuantity(spec.max, unit)})`);
+      else return v;
       return undefined;
     }
     if (typeof v !== 'string') {
@@ -179,7 +217,17 @@ const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
       return undefined;
     }
     try {
-      return parseQuantity(v, unit).value;
+      const parsed = parseQuantity(v, unit);
+      const wrong = measureMismatch(v, parsed, measure);
+      if (wrong) {
+        issue([key], wrong);
+        return undefined;
+      }
+      if (Math.abs(parsed.value) > spec.max) {
+        issue([key], `is beyond what a bench meter reads (at most ${formatQuantity(spec.max, unit)})`);
+        return undefined;
+      }
+      return parsed.value;
     } catch (e) {
       if (e instanceof QuantityParseError) issue([key], e.message);
       else throw e;
@@ -209,7 +257,7 @@ const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
     else throw e;
     return z.NEVER;
   }
-  return { unit, expected, tolerance, measured };
+  return { unit, measure, expected, tolerance, measured };
 });
 
 function readToleranceObject(
@@ -274,6 +322,14 @@ const fields: FieldSpec[] = [
     default: 'V',
     options: READING_UNITS.map((u) => ({ value: u, label: u })),
   },
+  {
+    key: 'measure',
+    label: 'Measure (volts and amps)',
+    kind: 'select',
+    default: 'dc',
+    optional: true,
+    options: READING_MEASURES.map((m) => ({ value: m, label: MEASURE_WORDS[m] })),
+  },
   { key: 'expected', label: 'Expected', kind: 'quantity', help: 'A number, or a reckoner output by reference.' },
   {
     key: 'tolerance',
@@ -300,15 +356,16 @@ function toleranceText(t: Tolerance, unit: string): string {
 function compute(input: ReadingToleranceInput): ReckonerResult {
   const { low, high } = toleranceBand(input.expected, input.tolerance);
   const tolText = toleranceText(input.tolerance, input.unit);
+  const u = outputUnit(input.unit, input.measure);
   const outputs: ReckonerResult['outputs'] = {
-    expected: q(input.expected, input.unit, 'Expected', `Tolerance ${tolText}.`, undefined, 4),
-    low: q(low, input.unit, 'Lowest accepted', `Expected ${tolText}.`, SRC.derived, 4),
-    high: q(high, input.unit, 'Highest accepted', `Expected ${tolText}.`, SRC.derived, 4),
+    expected: q(input.expected, u, 'Expected', `Tolerance ${tolText}.`, undefined, 4),
+    low: q(low, u, 'Lowest accepted', `Expected ${tolText}.`, SRC.derived, 4),
+    high: q(high, u, 'Highest accepted', `Expected ${tolText}.`, SRC.derived, 4),
   };
   if (input.measured !== undefined) {
     const r = checkReading({ expected: input.expected, tolerance: input.tolerance, measured: input.measured });
     outputs.within = b(r.within, 'Within tolerance', `Accepted from ${formatQuantity(low, input.unit)} to ${formatQuantity(high, input.unit)}, limits included.`, undefined, ['within', 'out of tolerance']);
-    outputs.deviation = q(r.deviation, input.unit, 'Deviation', 'Measured − expected.', SRC.derived, 4);
+    outputs.deviation = q(r.deviation, u, 'Deviation', 'Measured − expected.', SRC.derived, 4);
     if (r.deviationPercent !== null) {
       outputs.deviationPercent = q(r.deviationPercent, '%', 'Deviation (%)', '(measured − expected) ÷ |expected| × 100.', SRC.derived);
     }

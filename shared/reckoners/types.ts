@@ -2,6 +2,15 @@ import type { z } from 'zod';
 
 export type FieldKind = 'quantity' | 'number' | 'integer' | 'select' | 'text' | 'rows' | 'tolerance';
 
+/**
+ * How an alternating or pulsating voltage or current is stated. Volts and amps always carry one;
+ * every other quantity is 'scalar'. Conversions between rms, peak and peak-to-peak hold for a sine.
+ */
+export type Measure = 'rms' | 'peak' | 'peak-to-peak' | 'dc' | 'scalar';
+
+/** The procedure parameters a field can follow (see shared/reckoners/params.ts). */
+export type ParamKey = 'mainsNominal' | 'mainsVoltage' | 'mainsFrequency';
+
 /** One input, described for form generation. Built by the same helper that builds its schema. */
 export interface FieldSpec {
   key: string;
@@ -9,6 +18,22 @@ export interface FieldSpec {
   kind: FieldKind;
   /** SI base unit of the value ('V', 'F', …); '' for plain numbers. */
   unit?: string;
+  /** For volts and amps: rms, peak, peak-to-peak or dc. A value written in another measure is refused. */
+  measure?: Measure;
+  /**
+   * The range met in shop work. A value outside it (but inside min/max) raises a named
+   * 'implausible-input' caution: usually a slipped prefix or unit.
+   */
+  plausible?: { min: number; max: number };
+  /** The procedure parameter this field follows unless the author types a value or links a block. */
+  follows?: ParamKey;
+  /**
+   * The physical part or figure this field describes ('valve-rectifier-drop', 'reservoir-capacitance', …).
+   * Two blocks giving the same part different typed values are flagged by the procedure check.
+   */
+  part?: string;
+  /** A capacitor's voltage rating: the procedure check compares it with the no-load peak at high mains. */
+  rating?: 'capacitor-voltage';
   default?: unknown;
   /** Inclusive limits unless minExclusive is set. */
   min?: number;
@@ -25,8 +50,10 @@ export interface FieldSpec {
 
 export interface Output {
   value: number | string | boolean;
-  /** SI base unit when value is a number with a unit. */
-  unit?: string;
+  /** SI base unit when value is a number with a unit; '' for a plain number, text or yes/no. */
+  unit: string;
+  /** rms, peak, peak-to-peak or dc for volts and amps; 'scalar' for everything else. */
+  measure: Measure;
   label: string;
   explanation: string;
   /** Provenance: a standard and clause, a handbook, "derived", "common practice, no source", "from memory". */
@@ -45,6 +72,8 @@ export interface Caution {
   code: string;
   message: string;
   source?: string;
+  /** The input the caution is about (dotted path), when it is about one. */
+  field?: string;
 }
 
 export interface ReckonerDefinition<I> {

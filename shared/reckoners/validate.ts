@@ -1,4 +1,6 @@
 import { ReckonerInputError, issuesToFieldErrors } from './errors';
+import { OutputOverflow } from './outputs';
+import { implausibleInputs, implausibleResults } from './plausibility';
 import { getReckoner } from './registry';
 import type { Caution, FieldError, Output } from './types';
 
@@ -13,7 +15,7 @@ export function validateInputs(kind: string, raw: unknown): ValidationResult {
 }
 
 export type RunResult =
-  | { ok: true; outputs: Record<string, Output>; cautions: Caution[] }
+  | { ok: true; outputs: Record<string, Output>; cautions: Caution[]; input: Record<string, unknown> }
   | { ok: false; errors: FieldError[] };
 
 /** Validate, compute and collect cautions. Input errors found during computing come back as field errors. */
@@ -21,11 +23,18 @@ export function runReckoner(kind: string, raw: unknown): RunResult {
   const v = validateInputs(kind, raw);
   if (!v.ok) return v;
   const def = getReckoner(kind)!;
+  const input = v.input as Record<string, unknown>;
   try {
-    const result = def.compute(v.input);
-    return { ok: true, outputs: result.outputs, cautions: def.cautions(v.input, result) };
+    const result = def.compute(input);
+    const cautions = [...implausibleInputs(def.fields, input), ...def.cautions(input, result), ...implausibleResults(result.outputs)];
+    return { ok: true, outputs: result.outputs, cautions, input };
   } catch (e) {
     if (e instanceof ReckonerInputError) return { ok: false, errors: [{ field: e.field, reason: e.reason }] };
+    // An overflow is the inputs' doing, never an internal fault: say which result it hit.
+    if (e instanceof OutputOverflow) return { ok: false, errors: [{ field: '', reason: e.message }] };
+    if (e instanceof RangeError && /not finite/.test(e.message)) {
+      return { ok: false, errors: [{ field: '', reason: 'these inputs give a result too large to compute; check the values and their units' }] };
+    }
     throw e;
   }
 }

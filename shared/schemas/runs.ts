@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Snapshot } from '../document/evaluate';
 import type { ProcedureParams } from '../document/params';
 import { PARAM_SPECS } from '../document/params';
+import type { Measure } from '../reckoners/types';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
 
@@ -18,6 +19,8 @@ export interface RunStep {
     testPoint: string;
     meterRange: string;
     unit: string;
+    /** rms, peak, peak-to-peak or dc, for volts and amps (absent on runs started before it was recorded). */
+    measure?: Measure;
     toleranceText: string;
     expectedSource: string;
     expected: number | null;

@@ -16,11 +16,20 @@ export class QuantityParseError extends Error {
   }
 }
 
+/** How a written voltage or current was qualified: "VAC"/"V rms" → rms, "V pk" → peak, "Vpp" → peak-to-peak, "VDC" → dc. */
+export type WrittenMeasure = 'rms' | 'peak' | 'peak-to-peak' | 'dc';
+
 export interface Quantity {
   value: number;
   /** Canonical unit symbol ('V', 'Ω', …) or '' when none was written and none was expected. */
   unit: string;
+  /** The measure written after volts or amps, if any; whether it fits is for the caller to decide. */
+  measure?: WrittenMeasure;
 }
+
+const MEASURE_WORDS: Record<string, WrittenMeasure> = {
+  ac: 'rms', rms: 'rms', pk: 'peak', peak: 'peak', pp: 'peak-to-peak', 'p-p': 'peak-to-peak', dc: 'dc',
+};
 
 const PREFIX_MULTIPLIERS: Record<string, number> = {
   p: 1e-12,
@@ -55,7 +64,7 @@ const UNIT_ALIASES: Record<string, string> = {
   '%': '%',
 };
 
-/** Qualifiers people add after volts and amps; they do not change the value here. */
+/** Qualifiers people add after volts and amps: the measure, reported beside the value. */
 const QUALIFIER = /^(.*?)\s*(ac|dc|rms|pk|peak|pp|p-p)$/i;
 
 function normalise(text: string): string {
@@ -70,6 +79,7 @@ function normalise(text: string): string {
 interface Suffix {
   multiplier: number;
   unit: string | null;
+  measure?: WrittenMeasure;
 }
 
 function unitOf(s: string): string | null {
@@ -85,7 +95,7 @@ function readSuffix(raw: string): Suffix | null {
   const q = QUALIFIER.exec(s);
   if (q && q[1]) {
     const inner = readPrefixedUnit(q[1]);
-    if (inner && (inner.unit === 'V' || inner.unit === 'A')) return inner;
+    if (inner && (inner.unit === 'V' || inner.unit === 'A')) return { ...inner, measure: MEASURE_WORDS[q[2]!.toLowerCase()] };
   }
   return null;
 }
@@ -162,6 +172,7 @@ export function parseQuantity(text: string, expectedUnit?: string): Quantity {
 
   let value: number;
   let unit: string;
+  let measure: WrittenMeasure | undefined;
   const rkm = RKM.exec(s);
   const rkmUsable =
     rkm !== null &&
@@ -184,11 +195,12 @@ export function parseQuantity(text: string, expectedUnit?: string): Quantity {
     if (suffix.unit === '%' && suffix.multiplier !== 1) throw new QuantityParseError(text, 'a percentage takes no prefix');
     value = Number(m[1]) * suffix.multiplier;
     unit = settleUnit(text, suffix.unit, null, '', expectedUnit);
+    measure = suffix.measure;
   }
   if (!Number.isFinite(value)) throw new QuantityParseError(text, 'too large to hold');
   // Tidy binary noise from the multiply ("4.7 * 1e-6") to 15 significant figures.
   value = Number(value.toPrecision(15));
-  return { value, unit };
+  return measure ? { value, unit, measure } : { value, unit };
 }
 
 /** Like parseQuantity, but also accepts numbers (already in base units). */

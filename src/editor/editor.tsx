@@ -1,6 +1,7 @@
 import { useImperativeHandle, useMemo, useRef, useState, type Ref } from 'react';
 import { EditorContent, useEditor } from '@tiptap/react';
 import type { ProcedureDoc } from '@shared/document/schema';
+import { upgradeDocument } from '@shared/document/upgrade';
 import type { AttachmentView } from '@shared/schemas/procedures';
 import { uploadAttachment } from '@/features/procedures/api/upload-attachment';
 import { blockCatalog, type CatalogEntry } from './block-catalog';
@@ -37,7 +38,8 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
 
   const editor = useEditor({
     extensions: procedureExtensions(() => openMenuRef.current()),
-    content: initialDoc,
+    // Documents saved before fields declared what they follow open upgraded (shared/document/upgrade.ts).
+    content: upgradeDocument(initialDoc),
     injectCSS: false,
     shouldRerenderOnTransaction: false,
     editorProps: {

@@ -1,6 +1,7 @@
 import { createContext, useContext } from 'react';
 import type { BlockSnapshot, ResolvedReading, Snapshot } from '@shared/document/evaluate';
 import type { ProcedureParams } from '@shared/document/params';
+import type { Measure } from '@shared/reckoners/types';
 
 export interface Evaluation {
   snapshot: Snapshot | null;
@@ -22,13 +23,15 @@ export const blockResult = (e: Evaluation, id: string): BlockSnapshot | undefine
 export const readingResult = (e: Evaluation, id: string): ResolvedReading | undefined => e.snapshot?.readings.find((r) => r.id === id);
 
 /** Numeric outputs of other reckoners, for "from block" pickers; `unit` narrows to matching units. */
-export function numericOutputs(e: Evaluation, opts: { exceptId?: string; unit?: string } = {}) {
+/** Numeric outputs other blocks can refer to; with `unit` (and `measure`) only those of that quantity. */
+export function numericOutputs(e: Evaluation, opts: { exceptId?: string; unit?: string; measure?: Measure } = {}) {
   const list: { ref: string; label: string; formatted: string; unit: string }[] = [];
   for (const b of e.snapshot?.blocks ?? []) {
     if (b.id === opts.exceptId || !b.ok) continue;
     for (const [key, out] of Object.entries(b.outputs)) {
       if (typeof out.value !== 'number') continue;
       if (opts.unit !== undefined && (out.unit ?? '') !== opts.unit) continue;
+      if (opts.measure !== undefined && (out.measure ?? 'scalar') !== opts.measure) continue;
       list.push({ ref: `${b.name}.${key}`, label: `${b.name} · ${out.label}`, formatted: out.formatted, unit: out.unit ?? '' });
     }
   }

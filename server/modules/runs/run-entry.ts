@@ -1,11 +1,11 @@
+import { measureMismatch } from '../../../shared/reckoners/measures';
+import { readingUnitSpec } from '../../../shared/reckoners/reading-units';
 import { checkReading, parseTolerance } from '../../../shared/reckoners/reading-tolerance';
 import { parseQuantity, QuantityParseError } from '../../../shared/units';
 import { formatQuantity } from '../../../shared/units/format';
 import type { EntryBody, RunStep } from '../../../shared/schemas/runs';
 import { badRequest } from '../../http/errors';
 
-/** Largest magnitude a bench meter can sensibly show, per unit; beyond it the entry is a typo. */
-const PLAUSIBLE_MAX: Record<string, number> = { V: 1e5, A: 1e3, Ω: 1e12, W: 1e5, Hz: 1e9, F: 10, s: 1e6, '%': 1e4 };
 
 export interface DecidedReading {
   raw: string;
@@ -36,14 +36,18 @@ export function readMeasurement(step: RunStep, value: string | number): { raw: s
   } else {
     raw = value;
     try {
-      measured = parseQuantity(value, unit).value;
+      const parsed = parseQuantity(value, unit);
+      // "350 VAC" typed against a DC reading is a different measurement, not a number to accept.
+      const wrong = measureMismatch(value, parsed, step.reading!.measure);
+      if (wrong) throw fail(wrong.replace('this field', 'this reading'));
+      measured = parsed.value;
     } catch (err) {
       if (err instanceof QuantityParseError) throw fail(err.reason === 'not a number' ? `"${value}" is not a number` : `"${value}": ${err.reason}`);
       throw err;
     }
   }
   if (!Number.isFinite(measured)) throw fail('must be a finite number');
-  const max = PLAUSIBLE_MAX[unit] ?? 1e12;
+  const max = readingUnitSpec(unit)?.max ?? 1e12;
   if (Math.abs(measured) > max) throw fail(`${formatQuantity(measured, unit)} is beyond what a bench meter reads (at most ${formatQuantity(max, unit)})`);
   return { raw, measured };
 }
@@ -54,7 +58,13 @@ export function decideReading(step: RunStep, value: string | number): DecidedRea
   const { raw, measured } = readMeasurement(step, value);
   const base = { raw, measured, unit: r.unit, expected: r.expected, low: r.low, high: r.high, within: null, deviation: null, deviationPercent: null };
   if (r.expected === null || r.error) return base;
-  const check = checkReading({ expected: r.expected, tolerance: parseTolerance(r.toleranceText, r.unit), measured });
+  // The band fixed when the run started is what the technician measures against; a run started
+  // before a tolerance rule tightened keeps it (its stored low/high), rather than failing the entry.
+  const tolerance =
+    r.low !== null && r.high !== null
+      ? { kind: 'asymmetric' as const, basis: 'absolute' as const, below: r.expected - r.low, above: r.high - r.expected }
+      : parseTolerance(r.toleranceText, r.unit);
+  const check = checkReading({ expected: r.expected, tolerance, measured });
   return { ...base, low: check.low, high: check.high, within: check.within, deviation: check.deviation, deviationPercent: check.deviationPercent };
 }
 

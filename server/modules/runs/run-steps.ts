@@ -28,6 +28,7 @@ export function buildSteps(doc: ProcedureDoc, snapshot: Snapshot): RunStep[] {
             testPoint: r.testPoint,
             meterRange: r.meterRange,
             unit: r.unit,
+            ...(r.measure && r.measure !== 'scalar' ? { measure: r.measure } : {}),
             toleranceText: r.toleranceText,
             expectedSource: r.expectedSource,
             expected: r.expected,

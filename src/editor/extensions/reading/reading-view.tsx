@@ -1,10 +1,18 @@
 import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
-import { readingAttrs, type ReadingAttrs } from '@shared/document/schema';
+import type { ReadingAttrs } from '@shared/document/schema';
+import { readingMeasure } from '@shared/document/upgrade';
+import { MEASURE_WORDS } from '@shared/reckoners/measures';
+import { READING_MEASURES, READING_UNITS, takesMeasure } from '@shared/reckoners/reading-units';
 import { numericOutputs, readingResult, useEvaluation } from '../../evaluation-context';
 import { BlockFrame } from '../block-frame';
 
-const UNITS = readingAttrs.shape.unit.options;
+const UNITS = READING_UNITS;
+const MAINS_CHOICES = [
+  { value: 'unset', label: 'not stated' },
+  { value: 'scales', label: 'scales with the mains' },
+  { value: 'fixed', label: 'fixed (does not follow the mains)' },
+] as const;
 const control = 'min-h-9 rounded border border-rule bg-card px-2 py-1 text-sm';
 
 function TextInput({ label, value, onChange, mono, placeholder }: { label: string; value: string; onChange: (v: string) => void; mono?: boolean; placeholder?: string }) {
@@ -22,10 +30,12 @@ function TextInput({ label, value, onChange, mono, placeholder }: { label: strin
 export function ReadingView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
   const attrs = node.attrs as ReadingAttrs;
   const evaluation = useEvaluation();
-  const ids = { unit: useId(), source: useId(), expected: useId() };
+  const ids = { unit: useId(), measure: useId(), source: useId(), expected: useId(), mains: useId() };
   const resolved = readingResult(evaluation, attrs.id);
   const fromBlock = 'ref' in attrs.expected;
-  const outputs = numericOutputs(evaluation, { unit: attrs.unit });
+  const measure = readingMeasure(attrs);
+  const outputs = numericOutputs(evaluation, { unit: attrs.unit, measure: measure ?? 'scalar' });
+  const mainsChoice = attrs.followsMains == null ? 'unset' : attrs.followsMains ? 'scales' : 'fixed';
   const set = (patch: Partial<ReadingAttrs>) => updateAttributes(patch);
 
   return (
@@ -38,13 +48,38 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
           <label htmlFor={ids.unit} className="text-xs font-semibold">
             Unit
           </label>
-          <select id={ids.unit} className={`${control} value`} value={attrs.unit} onChange={(e) => set({ unit: e.target.value as ReadingAttrs['unit'] })}>
-            {UNITS.map((u) => (
-              <option key={u} value={u}>
-                {u}
-              </option>
-            ))}
-          </select>
+          <div className="flex gap-1">
+            <select
+              id={ids.unit}
+              className={`${control} value`}
+              value={attrs.unit}
+              onChange={(e) => {
+                const unit = e.target.value as ReadingAttrs['unit'];
+                set({ unit, measure: takesMeasure(unit) ? (attrs.measure ?? 'dc') : null });
+              }}
+            >
+              {UNITS.map((u) => (
+                <option key={u} value={u}>
+                  {u}
+                </option>
+              ))}
+            </select>
+            {measure && (
+              <select
+                id={ids.measure}
+                aria-label="Measure"
+                className={control}
+                value={measure}
+                onChange={(e) => set({ measure: e.target.value as NonNullable<ReadingAttrs['measure']> })}
+              >
+                {READING_MEASURES.map((m) => (
+                  <option key={m} value={m}>
+                    {MEASURE_WORDS[m]}
+                  </option>
+                ))}
+              </select>
+            )}
+          </div>
         </div>
         <div className="flex flex-col gap-1">
           <div className="flex items-center justify-between gap-2">
@@ -77,7 +112,26 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
             <input id={ids.expected} className={`${control} value`} value={attrs.expected.literal} placeholder={`350 ${attrs.unit}`} onChange={(e) => set({ expected: { literal: e.target.value } })} />
           )}
         </div>
-        <TextInput label="Tolerance" value={attrs.tolerance} onChange={(tolerance) => set({ tolerance })} mono placeholder="±5 %" />
+        <TextInput label="Tolerance (% or a unit)" value={attrs.tolerance} onChange={(tolerance) => set({ tolerance })} mono placeholder="±5 %" />
+        {!fromBlock && attrs.unit === 'V' && (
+          <div className="flex flex-col gap-1">
+            <label htmlFor={ids.mains} className="text-xs font-semibold">
+              Typed value at other mains
+            </label>
+            <select
+              id={ids.mains}
+              className={control}
+              value={mainsChoice}
+              onChange={(e) => set({ followsMains: e.target.value === 'unset' ? null : e.target.value === 'scales' })}
+            >
+              {MAINS_CHOICES.map((c) => (
+                <option key={c.value} value={c.value}>
+                  {c.label}
+                </option>
+              ))}
+            </select>
+          </div>
+        )}
       </div>
       <p className="mt-3 text-sm" data-reading-band aria-live="polite">
         {resolved?.bandText ? (

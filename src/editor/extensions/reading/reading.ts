@@ -26,7 +26,9 @@ export const Reading = Node.create({
       testPoint: textAttribute('test-point'),
       meterRange: textAttribute('meter-range'),
       unit: textAttribute('unit', 'V'),
+      measure: jsonAttribute<ReadingAttrs['measure']>('measure', () => null),
       expected: jsonAttribute<ReadingAttrs['expected']>('expected', () => ({ literal: '' })),
+      followsMains: jsonAttribute<ReadingAttrs['followsMains']>('follows-mains', () => null),
       tolerance: textAttribute('tolerance'),
     };
   },
@@ -43,6 +45,7 @@ export const Reading = Node.create({
             testPoint: '',
             meterRange: '',
             unit: 'V',
+            measure: 'dc',
             expected: { literal: '' },
             tolerance: '±10 %',
             ...attrs,

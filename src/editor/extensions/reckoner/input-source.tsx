@@ -2,6 +2,7 @@ import { useId } from 'react';
 import type { InputValue } from '@shared/document/schema';
 import { PARAM_SPECS } from '@shared/document/params';
 import type { FieldSpec } from '@shared/reckoners';
+import { unitWithMeasure } from '@shared/reckoners/measures';
 import { formatQuantity } from '@shared/units';
 import { numericOutputs, useEvaluation } from '../../evaluation-context';
 
@@ -36,14 +37,16 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   const mode = modeOf(value);
   const label = spec.label + labelSuffix;
   const unit = spec.unit ?? '';
-  const params = PARAM_SPECS.filter((p) => p.unit === unit);
-  const outputs = numericOutputs(evaluation, { exceptId: blockId, unit });
+  const measure = spec.measure ?? 'scalar';
+  // Only quantities that fit the field are offered: same unit, and for volts and amps the same measure.
+  const params = PARAM_SPECS.filter((p) => p.unit === unit && p.measure === measure);
+  const outputs = numericOutputs(evaluation, { exceptId: blockId, unit, measure });
   const invalid = errors.length > 0;
   const control = `min-h-9 rounded border bg-card px-2 py-1 text-sm ${invalid ? 'border-out' : 'border-rule'}`;
 
   const switchMode = (next: Mode) => {
     if (next === 'value') onChange('');
-    else if (next === 'param') onChange({ param: params[0]?.key ?? 'mainsNominal' });
+    else if (next === 'param') onChange({ param: spec.follows ?? params[0]?.key ?? 'mainsNominal' });
     else onChange({ ref: outputs[0]?.ref ?? '' });
   };
 
@@ -103,7 +106,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
       {!compact && (
         <label htmlFor={id} className="text-xs font-semibold">
           {spec.label}
-          {spec.unit ? <span className="value font-normal text-graphite-soft"> ({spec.unit})</span> : null}
+          {spec.unit ? <span className="value font-normal text-graphite-soft"> ({unitWithMeasure(spec.unit, spec.measure)})</span> : null}
         </label>
       )}
       <div className="flex items-center gap-1">

@@ -15,20 +15,15 @@ declare module '@tiptap/core' {
   }
 }
 
-const PARAM_DEFAULTS: Record<string, InputValue> = {
-  mainsVoltage: { param: 'mainsNominal' },
-  mainsFrequency: { param: 'mainsFrequency' },
-};
-
-/** Starting inputs for a field list: defaults as text, one empty row in row tables, mains from the procedure. */
+/** Starting inputs for a field list: defaults as text, one empty row in row tables, declared parameters followed. */
 export function initialInputs(fields: FieldSpec[]): Record<string, InputValue> {
   const inputs: Record<string, InputValue> = {};
   for (const f of fields) {
     if (f.kind === 'rows') {
       const row = initialInputs(f.columns ?? []);
       inputs[f.key] = Array.from({ length: Math.max(1, f.minRows ?? 0) }, () => ({ ...row }));
-    } else if (PARAM_DEFAULTS[f.key] && (f.unit === 'V' || f.unit === 'Hz')) {
-      inputs[f.key] = PARAM_DEFAULTS[f.key]!;
+    } else if (f.follows) {
+      inputs[f.key] = { param: f.follows };
     } else if (f.default !== undefined && (typeof f.default === 'string' || typeof f.default === 'number')) {
       inputs[f.key] = typeof f.default === 'string' ? f.default : String(f.default);
     } else {
