@@ -76,7 +76,7 @@ const toleranceText = shortText(40);
  * An attribute added after documents were first stored: absent in old documents, and null from the
  * editor when unset (TipTap writes every declared attribute). Both mean "not stated".
  */
-const added = <T extends z.ZodTypeAny>(schema: T) => schema.nullish().transform((v) => v ?? undefined);
+const added = <T extends z.ZodTypeAny>(schema: T) => schema.nullish().transform((v) => v ?? undefined).optional();
 
 /** Live work: done or measured on a powered unit. Absent on a reading: see isLiveReading. */
 const live = added(z.boolean({ error: 'must be yes (true) or no (false)' }));
