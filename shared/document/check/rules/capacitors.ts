@@ -48,7 +48,7 @@ export const capacitorRatingLow: Rule = {
       if (r.rating >= high.volts) continue;
       out.push({
         blockId: r.block.id,
-        message: `${reckonerName(r.block)}: ${fieldLabel(r.block.kind, r.path)} is ${volts(r.rating)}, below the ${volts(high.volts)} no-load DC of ${reckonerName(high.block)} at high mains (${volts(mains)}, nominal +${ctx.options.highMainsPercent} %).`,
+        message: `${reckonerName(r.block)}: ${fieldLabel(r.block.kind, r.path, r.block.input)} is ${volts(r.rating)}, below the ${volts(high.volts)} no-load DC of ${reckonerName(high.block)} at high mains (${volts(mains)}, nominal +${ctx.options.highMainsPercent} %).`,
       });
     }
     return out;

@@ -5,12 +5,12 @@ import { fieldLabel, reckonerName } from '../words';
 export const reckonerInputErrors: Rule = {
   code: 'reckoner-input-error',
   level: 'warning',
-  run: ({ snapshot }) =>
+  run: ({ snapshot, blocks }) =>
     snapshot.blocks.flatMap((block) =>
       block.ok
         ? []
         : block.errors.map((e) => {
-            const label = fieldLabel(block.kind, e.field);
+            const label = fieldLabel(block.kind, e.field, blocks.reckoners.find((r) => r.id === block.id)?.inputs);
             return { blockId: block.id, message: `${reckonerName(block)}: ${label ? `${label} ` : ''}${e.reason}.` };
           }),
     ),
