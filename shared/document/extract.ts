@@ -6,7 +6,7 @@ export function checkStepHeading(a: CheckStepAttrs): string {
   const kind = checkKindOf(a);
   const head =
     kind === 'discharge-verified'
-      ? `Discharge verified below ${a.threshold}`
+      ? `Discharge verified below ${a.threshold ?? 'its threshold'}`
       : kind === 'wait'
         ? `Wait ${a.seconds} s${a.drain === 'probe' ? ' per node on the discharge probe' : a.drain === 'none' ? '' : ' for the bleeder'}`
         : 'Check';

@@ -82,7 +82,8 @@ export const waitShorterThanBleeder: Rule = {
     });
     const out: Finding[] = [];
     for (const c of ctx.blocks.checkSteps) {
-      if (checkKindOf(c) !== 'wait' || (c.drain ?? 'bleeder') !== 'bleeder' || c.seconds === undefined) continue;
+      // Null is the editor's "not stated"; the document validation refuses a wait without seconds.
+      if (checkKindOf(c) !== 'wait' || (c.drain ?? 'bleeder') !== 'bleeder' || c.seconds == null) continue;
       for (const b of bleeders) {
         if (c.seconds >= b.seconds) continue;
         out.push({
