@@ -49,13 +49,21 @@ export const RULES: readonly Rule[] = [
 export function lintProcedure(doc: ProcedureDoc, snapshot: Snapshot, options: number | Partial<CheckOptions> = {}): LintWarning[] {
   const opts: CheckOptions = { ...DEFAULT_CHECK_OPTIONS, ...(typeof options === 'number' ? { safeVoltage: options } : options) };
   const ctx = buildContext(doc, snapshot, opts);
-  return RULES.flatMap((rule) =>
-    rule.run(ctx).map((f) => ({
+  return RULES.flatMap((rule): LintWarning[] => {
+    let findings;
+    try {
+      findings = rule.run(ctx);
+    } catch (e) {
+      // The editor runs the check on every keystroke: one rule tripping over a half-typed value must
+      // not take the editor down, nor pass silently.
+      return [{ code: 'procedure-error', level: 'warning', blockId: null, message: `The check for ${rule.code} could not run: ${e instanceof Error ? e.message : String(e)}` }];
+    }
+    return findings.map((f) => ({
       code: rule.code,
       level: f.level ?? rule.level,
       blockId: f.blockId,
       message: f.message,
       ...(f.caution ? { caution: f.caution } : {}),
-    })),
-  );
+    }));
+  });
 }

@@ -480,3 +480,18 @@ describe('the new attributes are validated with a field message', () => {
     expect(fromEditor.ok && fromEditor.doc.content[0]!.attrs).toEqual({ id: 'ck-null-1', text: 'x' });
   });
 });
+
+describe('the check runs on the editor’s unsaved document', () => {
+  it('does not throw on a threshold that is not a voltage yet, or on the editor’s nulls', async () => {
+    const { lintProcedure } = await import('../../../shared/document/lint');
+    const { evaluateDocument } = await import('../../../shared/document/evaluate');
+    const d = doc(
+      ...soundNodes(BASE),
+      check('x', { kind: 'discharge-verified', threshold: 'sixty', seconds: null, drain: null, live: null }),
+      check('y', { kind: 'wait', seconds: null, threshold: null, drain: null, live: null }),
+      note('n', null as never),
+    );
+    const warnings = lintProcedure(d, evaluateDocument(d, mains230));
+    expect(findingsOf(warnings)).toEqual([]);
+  });
+});

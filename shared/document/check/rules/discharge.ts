@@ -1,4 +1,4 @@
-import { parseQuantity } from '../../../units/parse';
+import { parseQuantity, QuantityParseError } from '../../../units/parse';
 import { formatQuantity } from '../../../units/format';
 import { checkKindOf, isLiveCheck, isLiveReading } from '../../schema';
 import type { CheckContext, Finding, Rule } from '../types';
@@ -6,7 +6,15 @@ import { capitalise, checkStepName, readingName, reckonerName, volts } from '../
 import { voltagesIn } from './hazard';
 
 const dischargeSteps = (ctx: CheckContext) => ctx.blocks.checkSteps.filter((c) => checkKindOf(c) === 'discharge-verified');
-const thresholdOf = (threshold: string | undefined) => (threshold ? parseQuantity(threshold, 'V').value : NaN);
+/** The threshold in volts; NaN while the editor holds one that is not a voltage yet (the validation names it). */
+function thresholdOf(threshold: string | null | undefined): number {
+  try {
+    return threshold ? parseQuantity(threshold, 'V').value : NaN;
+  } catch (e) {
+    if (e instanceof QuantityParseError) return NaN;
+    throw e;
+  }
+}
 
 /** Whether anything in the procedure is above the safe voltage: a block's output, a reading, a figure in a check step. */
 function anyHazardousVoltage(ctx: CheckContext): boolean {
