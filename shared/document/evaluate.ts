@@ -111,7 +111,7 @@ export function resolveReading(
 }
 
 export function evaluateDocument(doc: ProcedureDoc, params: ProcedureParams): Snapshot {
-  const { reckoners, readings } = extractBlocks(upgradeDocument(doc));
+  const { reckoners, readings } = extractBlocks(upgradeDocument(doc, { reckoners: false }));
   const result = evaluateProcedure(
     reckoners.map((r) => ({ name: r.name, kind: r.kind, inputs: r.inputs })),
     params,

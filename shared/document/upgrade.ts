@@ -29,13 +29,13 @@ export function effectiveMeasure(r: Pick<ReadingAttrs, 'unit' | 'measure' | 'met
   return readingMeasure(r) ?? 'scalar';
 }
 
-function upgradeNode(node: DocNode): DocNode {
+function upgradeNode(node: DocNode, reckoners: boolean): DocNode {
   let next = node;
   if (node.type === 'reading' && node.attrs) {
     const a = node.attrs as ReadingAttrs;
     const measure = readingMeasure(a);
     if (measure && a.measure !== measure) next = { ...node, attrs: { ...a, measure } };
-  } else if (node.type === 'reckoner' && node.attrs) {
+  } else if (reckoners && node.type === 'reckoner' && node.attrs) {
     const def = getReckoner(String(node.attrs.kind));
     const inputs = node.attrs.inputs as Record<string, unknown> | undefined;
     if (def && inputs && typeof inputs === 'object') {
@@ -43,10 +43,14 @@ function upgradeNode(node: DocNode): DocNode {
       if (up.followed.size) next = { ...node, attrs: { ...node.attrs, inputs: up.inputs } };
     }
   }
-  if (next.content) next = { ...next, content: next.content.map(upgradeNode) };
+  if (next.content) next = { ...next, content: next.content.map((c) => upgradeNode(c, reckoners)) };
   return next;
 }
 
-export function upgradeDocument<T extends ProcedureDoc>(doc: T): T {
-  return upgradeNode(doc) as T;
+/**
+ * `reckoners: false` leaves block inputs as stored: evaluation follows empty fields itself and
+ * records them as followed, which an explicit link would hide.
+ */
+export function upgradeDocument<T extends ProcedureDoc>(doc: T, opts: { reckoners?: boolean } = {}): T {
+  return upgradeNode(doc, opts.reckoners ?? true) as T;
 }

@@ -17,7 +17,7 @@ import { q, s, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  capacitance: quantity('F', { label: 'Capacitance', min: 1e-12, max: 1, plausible: { min: 1e-7, max: 0.05 } }),
+  capacitance: quantity('F', { label: 'Capacitance', min: 1e-12, max: 1, plausible: { min: 1e-6, max: 0.05 } }),
   chargedVoltage: quantity('V dc', { label: 'Charged voltage', min: 1e-3, max: 5000, plausible: { min: 5, max: 2000 } }),
   bleederResistance: optionalQuantity('Ω', {
     label: 'Bleeder resistance',
@@ -131,4 +131,5 @@ export const bleeder: ReckonerDefinition<BleederInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['timeToThreshold', 'bleederDissipation', 'suggestedBleeder', 'suggestedBleederRating'],
 };

@@ -55,9 +55,10 @@ const shape = {
     default: 100,
     min: 1,
     max: 2000,
+    plausible: { min: 45, max: 130 },
     help: 'Twice the mains frequency for full-wave rectification: 100 Hz on 50 Hz mains, 120 Hz on 60 Hz.',
   }),
-  startRipple: optionalQuantity('V peak-to-peak', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000 }),
+  startRipple: optionalQuantity('V peak-to-peak', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000, plausible: { min: 0, max: 100 } }),
 };
 
 const { schema: baseSchema, fields } = defineInputs(shape);
@@ -193,4 +194,5 @@ export const dropperLadder: ReckonerDefinition<DropperLadderInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['resistance', 'nodeVoltage', 'powerRating', 'finalVoltage'],
 };

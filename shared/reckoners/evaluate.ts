@@ -279,7 +279,7 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     results.set(
       i,
       run.ok
-        ? { name: b.name, kind: b.kind, ...run, sources: ctx.sources }
+        ? { name: b.name, kind: b.kind, ...run, cautions: [...typedFollowers(fields, ctx.sources), ...run.cautions], sources: ctx.sources }
         : { name: b.name, kind: b.kind, ok: false, errors: run.errors },
     );
   }
@@ -289,6 +289,28 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     errors,
     order: order.map((i) => blocks[i]!.name),
   };
+}
+
+/**
+ * A field declared to follow a parameter but typed instead: on the bench it stays as typed. For the
+ * measured mains that makes a run's expected values ignore the mains the technician measured.
+ */
+function typedFollowers(fields: FieldSpec[], sources: Record<string, InputSource>): Caution[] {
+  const out: Caution[] = [];
+  for (const f of fields) {
+    if (!f.follows || sources[f.key]?.kind !== 'typed') continue;
+    const p = paramSpec(f.follows)!;
+    out.push({
+      level: f.follows === 'mainsVoltage' ? 'warning' : 'note',
+      code: 'parameter-typed',
+      field: f.key,
+      message:
+        f.follows === 'mainsVoltage'
+          ? `${f.label} is typed, so bench runs will not work this block out again at the mains the technician measures. Leave it empty (or set it to the procedure’s ${p.label.toLowerCase()}) unless the figure must stay fixed.`
+          : `${f.label} is typed instead of following the procedure’s ${p.label.toLowerCase()}; a change to the procedure’s figure will not reach this block.`,
+    });
+  }
+  return out;
 }
 
 /** The elementary cycles among `nodes` reachable by following dependencies (one per cycle set). */

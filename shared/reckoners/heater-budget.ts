@@ -30,6 +30,7 @@ const shape = {
     default: 90,
     min: 50,
     max: 100,
+    plausible: { min: 70, max: 100 },
     help: 'Percent of the winding rating at which the budget is flagged as close.',
   }),
 };
@@ -119,4 +120,5 @@ export const heaterBudget: ReckonerDefinition<HeaterBudgetInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['totalCurrent', 'percentOfRating', 'dropperResistance'],
 };

@@ -23,14 +23,14 @@ const shape = {
     label: 'Source resistance',
     min: 1e-3,
     max: 1e5,
-    plausible: { min: 0.05, max: 5e3 },
+    plausible: { min: 1, max: 5e3 },
     help: 'Secondary resistance plus the primary’s reflected by the turns ratio squared, plus the rectifier’s resistance.',
   }),
   reservoir: quantity('F', {
     label: 'Reservoir capacitance',
     min: 1e-12,
     max: 0.1,
-    plausible: { min: 1e-6, max: 0.05 },
+    plausible: { min: 1e-6, max: 0.02 },
     part: 'reservoir-capacitance',
   }),
   reservoirRating: optionalQuantity('V dc', {
@@ -159,4 +159,5 @@ export const loadedBplus: ReckonerDefinition<LoadedBplusInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['averageDc', 'ripplePeakToPeak', 'noLoadDc', 'peakRectifierCurrent'],
 };

@@ -35,7 +35,7 @@ const shape = {
         label: 'Winding current (AC rms)',
         min: 1e-6,
         max: 100,
-        plausible: { min: 1e-3, max: 20 },
+        plausible: { min: 5e-3, max: 20 },
         help: 'The winding’s AC rms current. A rectified winding carries more than its DC load: about 1.0 × Idc for a bridge with choke input, 0.707 × Idc per half of a centre-tap; capacitor input more (see the loaded B+ reckoner).',
       }),
     },
@@ -236,4 +236,5 @@ export const mainsFuse: ReckonerDefinition<MainsFuseInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['totalVA', 'primaryCurrent', 'fuseDesignation', 'inrushWithinGate'],
 };

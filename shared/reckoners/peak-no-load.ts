@@ -179,4 +179,5 @@ export const peakNoLoad: ReckonerDefinition<PeakNoLoadInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['windingVoltage', 'peakVoltage', 'noLoadDc', 'noLoadDcHigh'],
 };

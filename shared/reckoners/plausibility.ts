@@ -4,6 +4,7 @@
  * raises a named caution that says what was read and what was probably meant.
  */
 import { formatQuantity } from '../units/format';
+import { parseQuantity } from '../units/parse';
 import { eachField } from './field-paths';
 import { unitWithMeasure } from './measures';
 import type { Caution, FieldSpec, Output } from './types';
@@ -23,11 +24,36 @@ function likelySlip(value: number, range: { min: number; max: number }): number 
   return null;
 }
 
+/** Read a raw (typed) value in the field's unit, or undefined when it does not read. */
+function readRaw(spec: FieldSpec, value: unknown): number | undefined {
+  if (typeof value === 'number') return Number.isFinite(value) ? value : undefined;
+  if (typeof value !== 'string' || spec.unit === undefined) return undefined;
+  try {
+    return parseQuantity(value, spec.unit).value;
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * The same check on raw inputs, for a block that was refused: the slip that caused the refusal is
+ * usually elsewhere than the field the refusal names (a 47 nF reservoir makes the load "too high").
+ */
+export function implausibleRawInputs(fields: readonly FieldSpec[], raw: unknown): Caution[] {
+  if (!raw || typeof raw !== 'object') return [];
+  const out: Caution[] = [];
+  eachField(fields, raw as Record<string, unknown>, (spec, path, value) => {
+    const v = spec.kind === 'quantity' ? readRaw(spec, value) : undefined;
+    if (v !== undefined) out.push(...implausibleInputs([{ ...spec, key: 'x' }], { x: v }).map((c) => ({ ...c, field: path })));
+  });
+  return out;
+}
+
 export function implausibleInputs(fields: readonly FieldSpec[], input: Record<string, unknown>): Caution[] {
   const out: Caution[] = [];
   eachField(fields, input, (spec, path, value) => {
     const range = spec.plausible;
-    if (!range || typeof value !== 'number' || (value >= range.min && value <= range.max)) return;
+    if (!range || typeof value !== 'number' || !Number.isFinite(value) || (value >= range.min && value <= range.max)) return;
     const slip = likelySlip(value, range);
     out.push({
       level: 'warning',

@@ -386,4 +386,5 @@ export const readingTolerance: ReckonerDefinition<ReadingToleranceInput> = {
   fields,
   compute,
   cautions,
+  keyOutputs: ['expected', 'low', 'high'],
 };

@@ -85,6 +85,11 @@ export interface ReckonerDefinition<I> {
   fields: FieldSpec[];
   compute(input: I): ReckonerResult;
   cautions(input: I, result: ReckonerResult): Caution[];
+  /**
+   * The outputs a reviewer checks first: a first revision's review lists these beside every input.
+   * An output of a row ("stage1.resistance") matches by its last part ("resistance").
+   */
+  keyOutputs?: readonly string[];
 }
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any

@@ -1,6 +1,6 @@
 import { ReckonerInputError, issuesToFieldErrors } from './errors';
 import { OutputOverflow } from './outputs';
-import { implausibleInputs, implausibleResults } from './plausibility';
+import { implausibleInputs, implausibleRawInputs, implausibleResults } from './plausibility';
 import { getReckoner } from './registry';
 import type { Caution, FieldError, Output } from './types';
 
@@ -20,6 +20,16 @@ export type RunResult =
 
 /** Validate, compute and collect cautions. Input errors found during computing come back as field errors. */
 export function runReckoner(kind: string, raw: unknown): RunResult {
+  const result = computeReckoner(kind, raw);
+  if (result.ok) return result;
+  // A refused block also names any input outside the shop range: that is usually the slip behind it.
+  const def = getReckoner(kind);
+  const named = new Set(result.errors.map((e) => e.field));
+  const hints = def ? implausibleRawInputs(def.fields, raw).filter((c) => !named.has(c.field!)) : [];
+  return { ok: false, errors: [...result.errors, ...hints.map((c) => ({ field: c.field!, reason: c.message }))] };
+}
+
+function computeReckoner(kind: string, raw: unknown): RunResult {
   const v = validateInputs(kind, raw);
   if (!v.ok) return v;
   const def = getReckoner(kind)!;
@@ -31,9 +41,9 @@ export function runReckoner(kind: string, raw: unknown): RunResult {
   } catch (e) {
     if (e instanceof ReckonerInputError) return { ok: false, errors: [{ field: e.field, reason: e.reason }] };
     // An overflow is the inputs' doing, never an internal fault: say which result it hit.
-    if (e instanceof OutputOverflow) return { ok: false, errors: [{ field: '', reason: e.message }] };
+    if (e instanceof OutputOverflow) return { ok: false, errors: [{ field: 'inputs', reason: e.message }] };
     if (e instanceof RangeError && /not finite/.test(e.message)) {
-      return { ok: false, errors: [{ field: '', reason: 'these inputs give a result too large to compute; check the values and their units' }] };
+      return { ok: false, errors: [{ field: 'inputs', reason: 'these inputs give a result too large to compute; check the values and their units' }] };
     }
     throw e;
   }

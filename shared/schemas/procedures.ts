@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { BlockView } from '../document/block-view';
 import type { Snapshot } from '../document/evaluate';
 import type { ProcedureParams } from '../document/params';
 import { paramsSchema } from '../document/params';
@@ -86,6 +87,8 @@ export interface RevisionView {
   document: ProcedureDoc;
   params: ProcedureParams;
   snapshot: Snapshot;
+  /** Every reckoner block as the reader shows it: inputs with their sources beside the outputs, in the author's order. */
+  reckoners: BlockView[];
   html: string;
   author: { id: string; displayName: string };
   lockVersion: number;

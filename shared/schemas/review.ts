@@ -1,6 +1,7 @@
 /** Review and sign-off: request bodies (zod) and what the review API returns. */
 import { z } from 'zod';
 import { PASSWORD_MAX } from './limits';
+import type { BlockView } from '../document/block-view';
 import type { RevisionStateName } from './procedures';
 
 /** The password is checked, never trimmed or length-limited below what sign-in accepts. */
@@ -66,13 +67,23 @@ export interface DiffLine {
   parts: DiffPart[];
 }
 export interface ValueChange {
-  kind: 'output' | 'reading' | 'parameter';
-  /** Block name, reading label, or "Parameters". */
+  /** 'block': the block itself was renamed, added or removed (label says which). */
+  kind: 'input' | 'output' | 'reading' | 'parameter' | 'block';
+  /** Block name (its current one), reading label, or "Parameters". */
   subject: string;
-  /** Output label, "expected", "tolerance", "band", or the parameter's label. */
+  /** In the registry's words: the input's or output's label, "expected", "tolerance", "band", a parameter's label, or for a block "name". */
   label: string;
   before: string | null;
   after: string | null;
+  /** The reckoner block's stable id, followed across renames. */
+  blockId?: string;
+  /** The reckoner's label ("Mains fuse"). */
+  blockLabel?: string;
+  /** On the one 'block' row of a renamed block: its name in the compared revision. */
+  renamedFrom?: string;
+  /** Where an input's value came from, in plain words, before and after. */
+  sourceBefore?: string | null;
+  sourceAfter?: string | null;
 }
 
 export interface BlockRef {
@@ -99,7 +110,10 @@ export interface ReviewView {
   /** The approved revision this one is compared with; null for a first revision. */
   base: { id: string; number: number; state: RevisionStateName } | null;
   textDiff: DiffLine[];
+  /** Against `base`; for a first revision, what it assumes and what follows, every row new. */
   valueChanges: ValueChange[];
+  /** Every reckoner block of this revision: inputs with their sources beside the outputs. */
+  reckoners: BlockView[];
   blocks: BlockRef[];
   comments: ReviewCommentView[];
   signatures: SignatureView[];

@@ -33,7 +33,7 @@ describe('procedures and drafts', () => {
     expect(res.body.revision.lockVersion).toBe(2);
     const block = res.body.revision.snapshot.blocks[0];
     expect(block.ok).toBe(true);
-    // 300 V × 0.1 A + 6.3 V × 2.5 A = 45.75 VA [derived: Σ V·I, REFERENCES.md §1]
+    // 300 V × 0.1 A + 6.3 V × 2.5 A = 45.75 VA [derived: Σ V·I, docs/references.md §1]
     expect(block.outputs.totalVA.value).toBeCloseTo(45.75, 6);
     const reloaded = await c.get(`/api/revisions/${revision.id}`);
     expect(reloaded.body.revision.document).toEqual(docWith(fuseBlock('0.1 A')));

@@ -56,7 +56,9 @@ describe('submitting a draft', () => {
     const blockIds = res.body.problems.map((p: { blockId: string }) => p.blockId);
     expect(blockIds).toContain('fuse-block-1');
     expect(blockIds).toContain('reading-bplus2');
-    expect(res.body.error).toMatch(/Reckoner “fuse”/);
+    // The field is named in the registry's words, not by its internal path.
+    expect(res.body.error).toMatch(/Mains fuse “fuse”: Secondary windings, row 1: Winding current \(AC rms\): "lots of amps" is not a number/);
+    expect(res.body.error).not.toMatch(/windings\.0\.amps/);
     const noTolerance = await newDraft(t, 'hal', doc(paragraph('x'), fuseBlock('0.1 A'), reading('')));
     const res2 = await noTolerance.c.post(`/api/revisions/${noTolerance.revision.id}/submit`).send({});
     expect(res2.status).toBe(409);

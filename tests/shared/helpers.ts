@@ -2,7 +2,7 @@ import { expect } from 'vitest';
 import { runReckoner } from '../../shared/reckoners/validate';
 import type { Caution, Output } from '../../shared/reckoners/types';
 
-/** Relative comparison; REFERENCES.md asks for 0.1 % unless a check states otherwise. */
+/** Relative comparison; 0.1 % unless a check states otherwise (docs/references.md, introduction). */
 export function expectClose(actual: number, expected: number, rel = 1e-3, what = ''): void {
   const tol = Math.abs(expected) * rel;
   expect(Number.isFinite(actual), `${what} finite`).toBe(true);
@@ -26,4 +26,14 @@ export function fieldErrors(kind: string, inputs: unknown): { field: string; rea
   const r = runReckoner(kind, inputs);
   if (r.ok) throw new Error(`${kind} accepted bad input ${JSON.stringify(inputs)}`);
   return r.errors;
+}
+
+/** The value `fn` throws, for assertions made outside any catch; fails the test when nothing is thrown. */
+export function thrownBy(fn: () => unknown): unknown {
+  try {
+    fn();
+  } catch (e) {
+    return e;
+  }
+  throw new Error('expected a throw, but nothing was thrown');
 }

@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, isNotNull, sql, type SQL } from 'drizzle-orm';
 import type { z } from 'zod';
+import { describeBlocks } from '../../../shared/document/block-view';
 import { evaluateDocument } from '../../../shared/document/evaluate';
 import { lintProcedure } from '../../../shared/document/lint';
 import { defaultParams, type ProcedureParams } from '../../../shared/document/params';
@@ -43,6 +44,7 @@ function toRevisionView(row: RevisionRow, author: Author | undefined): RevisionV
     document: row.document,
     params: row.params,
     snapshot: row.snapshot,
+    reckoners: describeBlocks(row.document, row.snapshot),
     html: row.html,
     author: author ?? { id: row.authorId, displayName: 'unknown' },
     lockVersion: row.lockVersion,

@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, lt } from 'drizzle-orm';
+import { describeRevision } from '../../../shared/document/block-view';
 import { extractBlocks } from '../../../shared/document/extract';
 import type { ProcedureDoc } from '../../../shared/document/schema';
 import type { BlockRef, QueueItem, ReviewCommentView, ReviewView } from '../../../shared/schemas/review';
@@ -60,6 +61,7 @@ export async function buildReviewView(db: Db, user: SessionUser, row: RevisionRo
   const ids = [...new Set([row.authorId, ...row.editorIds])];
   const names = new Map((await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, ids))).map((p) => [p.id, p]));
   const base = await baseRevision(db, row);
+  const figures = describeRevision(row.document, row.snapshot);
   const own = wroteOrEdited(user.id, row);
   const isReviewer = user.roles.includes('reviewer');
   const cannotDecideReason = !isReviewer
@@ -87,7 +89,8 @@ export async function buildReviewView(db: Db, user: SessionUser, row: RevisionRo
     },
     base: base ? { id: base.id, number: base.number, state: base.state } : null,
     textDiff: diffText(base?.plainText ?? '', row.plainText),
-    valueChanges: valueChanges(base?.snapshot ?? null, row.snapshot),
+    valueChanges: valueChanges(base ? describeRevision(base.document, base.snapshot) : null, figures),
+    reckoners: figures.blocks,
     blocks: blockRefs(row.document),
     comments: await commentsOf(db, row),
     signatures: await verifiedSignatures(db, row.id),

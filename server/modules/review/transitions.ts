@@ -4,6 +4,8 @@
  * revision, re-checks the state and updates with a conditional WHERE, so two people acting at once
  * can never both succeed. The database trigger enforces the same machine underneath.
  */
+import { fieldLabel } from '../../../shared/document/block-view';
+import { getReckoner } from '../../../shared/reckoners';
 import { and, eq, ne, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import type { Snapshot } from '../../../shared/document/evaluate';
@@ -36,7 +38,10 @@ export const illegal = (row: Pick<RevisionRow, 'number' | 'state'>, wanted: stri
 export function submitBlockers(snapshot: Snapshot) {
   const problems: { blockId: string | null; message: string }[] = [];
   for (const b of snapshot.blocks) {
-    if (!b.ok) for (const e of b.errors) problems.push({ blockId: b.id, message: `Reckoner “${b.name}”: ${e.field} ${e.reason}` });
+    if (!b.ok) {
+      const fields = getReckoner(b.kind)?.fields ?? [];
+      for (const e of b.errors) problems.push({ blockId: b.id, message: `${b.label ?? 'Reckoner'} “${b.name}”: ${fieldLabel(fields, e.field)}: ${e.reason}` });
+    }
   }
   for (const r of snapshot.readings) {
     if (r.error) problems.push({ blockId: r.id, message: `Reading “${r.label || 'untitled'}” is unresolved: ${r.error}` });

@@ -3,8 +3,18 @@ import fc from 'fast-check';
 import { rcAttenuation, suggestedPowerRating } from '../../../shared/reckoners/dropper-ladder';
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
+/** IEC 60063 E24, typed literally from the standard's table [std; docs/references.md §4]. */
+const E24_TABLE = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
+
+/** Nearest E24 value on a logarithmic scale (the series is geometric) [derived]. */
+function nearestE24(r: number): number {
+  const decade = Math.floor(Math.log10(r));
+  const candidates = [decade - 1, decade, decade + 1].flatMap((d) => E24_TABLE.map((m) => Math.round(m * 10 ** d * 1e6) / 1e6));
+  return candidates.reduce((best, c) => (Math.abs(Math.log(c / r)) < Math.abs(Math.log(best / r)) ? c : best));
+}
+
 describe('dropper-ladder', () => {
-  it('350 V → 300 V at 20 mA: 2.5 kΩ, 1.0 W; E12 2.7 kΩ drops 54 V at 1.08 W [derived, REFERENCES §4]', () => {
+  it('350 V → 300 V at 20 mA: 2.5 kΩ, 1.0 W; E12 2.7 kΩ drops 54 V at 1.08 W [derived, docs/references.md §4]', () => {
     const { outputs } = run('dropper-ladder', {
       startVoltage: '350 V',
       stages: [{ targetVoltage: '300V', current: '20 mA', capacitance: '47u' }],
@@ -19,7 +29,7 @@ describe('dropper-ladder', () => {
     expect(num(outputs, 'stage1.powerRating')).toBe(3);
   });
 
-  it('each resistor carries its node’s current and every later node’s [derived]', () => {
+  it('each resistor carries its node’s current and every later node’s; E24 node voltages from the IEC 60063 table [derived: R = ΔV / I; std: IEC 60063 E24; docs/references.md §4]', () => {
     const { outputs } = run('dropper-ladder', {
       startVoltage: 400,
       series: 'E24',
@@ -29,20 +39,26 @@ describe('dropper-ladder', () => {
         { targetVoltage: 250, current: '5 mA', capacitance: '22u' },
       ],
     });
-    expectClose(num(outputs, 'stage1.current'), 0.02);
-    expectClose(num(outputs, 'stage2.current'), 0.01);
-    expectClose(num(outputs, 'stage3.current'), 0.005);
-    expectClose(num(outputs, 'stage1.resistanceExact'), 2500);
-    expectClose(num(outputs, 'stage2.resistanceExact'), 5000);
-    expectClose(num(outputs, 'stage3.resistanceExact'), 10000);
-    // Node voltages recomputed with the E24 values, cumulatively [derived]
-    const r1 = num(outputs, 'stage1.resistanceE24');
-    const r2 = num(outputs, 'stage2.resistanceE24');
-    const r3 = num(outputs, 'stage3.resistanceE24');
-    expectClose(num(outputs, 'stage3.nodeVoltage'), 400 - r1 * 0.02 - r2 * 0.01 - r3 * 0.005, 1e-9);
+    // Currents through each resistor: 10 + 5 + 5, 5 + 5, 5 mA; exact R = 50 V ÷ I.
+    const through = [0.02, 0.01, 0.005];
+    through.forEach((I, i) => {
+      expectClose(num(outputs, `stage${i + 1}.current`), I);
+      expectClose(num(outputs, `stage${i + 1}.resistanceExact`), 50 / I);
+    });
+    // Nearest E24 values, from the table typed here, on a log scale: 2.5 kΩ → 2.4 kΩ, 5 kΩ → 5.1 kΩ,
+    // 10 kΩ → 10 kΩ; nodes 400 − 48 = 352 V, 352 − 51 = 301 V, 301 − 50 = 251 V.
+    const fitted = through.map((I) => nearestE24(50 / I));
+    expect(fitted).toEqual([2400, 5100, 10000]);
+    let node = 400;
+    fitted.forEach((R, i) => {
+      node -= R * through[i]!;
+      expect(num(outputs, `stage${i + 1}.resistanceE24`)).toBe(R);
+      expectClose(num(outputs, `stage${i + 1}.nodeVoltage`), node, 1e-9);
+    });
+    expectClose(num(outputs, 'stage3.nodeVoltage'), 251);
   });
 
-  it('RC attenuation: 1 kΩ, 47 µF at 100 Hz → 0.03384 (−29.41 dB) [derived, REFERENCES §3]', () => {
+  it('RC attenuation: 1 kΩ, 47 µF at 100 Hz → 0.03384 (−29.41 dB) [derived, docs/references.md §3]', () => {
     expectClose(rcAttenuation(1000, 47e-6, 100), 0.03384);
     // 350 → 330 V at 20 mA is exactly 1 kΩ, an E12 value, so the reckoner uses 1 kΩ.
     const { outputs } = run('dropper-ladder', {
@@ -87,7 +103,7 @@ describe('dropper-ladder', () => {
       ],
     });
 
-    it('worked example: 350 V through fitted 2k2 then 5k6 → 306 V, 250 V; 0.88 W and 0.56 W [derived: R = ΔV / I, P = ΔV × I — REFERENCES §4]', () => {
+    it('worked example: 350 V through fitted 2k2 then 5k6 → 306 V, 250 V; 0.88 W and 0.56 W [derived: R = ΔV / I, P = ΔV × I — docs/references.md §4]', () => {
       const { outputs } = run('dropper-ladder', chain(350, ['2k2', '5k6']));
       // Exact values for the targets, for comparison: 50 V / 20 mA = 2.5 kΩ; 50 V / 10 mA = 5 kΩ
       expectClose(num(outputs, 'stage1.resistanceExact'), 2500);
@@ -109,7 +125,7 @@ describe('dropper-ladder', () => {
       expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors.');
     });
 
-    it('at +10 % start (385 V) the nodes follow the fitted parts, while the E12 suggestion moves to 3k9 [derived, REFERENCES §4; IEC 60063 E12]', () => {
+    it('at +10 % start (385 V) the nodes follow the fitted parts, while the E12 suggestion moves to 3k9 [derived, docs/references.md §4; IEC 60063 E12]', () => {
       const { outputs } = run('dropper-ladder', chain(385, ['2k2', '5k6']));
       // Exact for the target is now 85 V / 20 mA = 4.25 kΩ, nearest E12 3.9 kΩ — reported, not used.
       expectClose(num(outputs, 'stage1.resistanceExact'), 4250);
@@ -120,7 +136,7 @@ describe('dropper-ladder', () => {
       expectClose(num(outputs, 'stage1.dissipation'), 0.88);
     });
 
-    it('without fitted values keeps choosing the E-series value at the given start: 385 V → 3k9, 385 − 78 = 307 V [derived; IEC 60063 E12]', () => {
+    it('without fitted values keeps choosing the E-series value at the given start: 385 V → 3k9, 385 − 78 = 307 V [derived; IEC 60063 E12; docs/references.md §4]', () => {
       const { outputs } = run('dropper-ladder', chain(385, [undefined, undefined]));
       expect(num(outputs, 'stage1.resistance')).toBe(3900);
       expectClose(num(outputs, 'stage1.nodeVoltage'), 307);
@@ -132,7 +148,7 @@ describe('dropper-ladder', () => {
       expect(outputs.finalVoltage!.explanation).toBe('With E12 values.');
     });
 
-    it('mixes fitted and chosen stages: the chosen stage still works from the targets, its node from the actual voltage', () => {
+    it('mixes fitted and chosen stages: the chosen stage still works from the targets, its node from the actual voltage [derived: R = ΔV / I; IEC 60063 E12; docs/references.md §4]', () => {
       const { outputs } = run('dropper-ladder', chain(385, ['2k2', undefined]));
       expectClose(num(outputs, 'stage1.nodeVoltage'), 341);
       // Stage 2 exact from the targets (300 → 250 V at 10 mA) = 5 kΩ → E12 4.7 kΩ; node 341 − 47 = 294 V
@@ -142,7 +158,7 @@ describe('dropper-ladder', () => {
       expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors where given, E12 values elsewhere.');
     });
 
-    it('property: with fitted values, raising the start voltage by 10 % raises every node voltage (by exactly the rise of the start) [derived]', () => {
+    it('property: with fitted values, raising the start voltage by 10 % raises every node voltage (by exactly the rise of the start) [derived: R = ΔV / I, P = I² R; docs/references.md §4]', () => {
       fc.assert(
         fc.property(
           fc.double({ min: 50, max: 1000, noNaN: true }),
@@ -174,8 +190,10 @@ describe('dropper-ladder', () => {
               expect(b).toBeGreaterThan(0);
               expect(h).toBeGreaterThan(b);
               expectClose(h - b, start * 0.1, 1e-6);
-              // Fixed node currents and fixed resistors: the dissipation does not change.
-              expectClose(num(high, `stage${i + 1}.dissipation`), num(base, `stage${i + 1}.dissipation`), 1e-9);
+              // Fixed node currents and fixed resistors: the dissipation stays I² R at either start voltage.
+              const expected = through[i]! ** 2 * stages[i]!.fittedResistance;
+              expectClose(num(base, `stage${i + 1}.dissipation`), expected, 1e-9);
+              expectClose(num(high, `stage${i + 1}.dissipation`), expected, 1e-9);
             });
           },
         ),

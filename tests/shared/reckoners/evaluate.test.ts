@@ -39,10 +39,10 @@ describe('evaluateProcedure', () => {
     for (const b of r.blocks) expect(b.ok, JSON.stringify(b)).toBe(true);
     const [screen, bplus, ht] = r.blocks;
     if (!screen?.ok || !bplus?.ok || !ht?.ok) throw new Error('unreachable');
-    // The measured mains scales the winding: 275 × 240 / 230 [derived]
+    // The measured mains scales the winding: 275 × 240 / 230 [derived, docs/references.md §2]
     expectClose(ht.outputs.windingVoltage!.value as number, (275 * 240) / 230, 1e-9);
     expectClose(bplus.outputs.peakVoltage!.value as number, Math.SQRT2 * ((275 * 240) / 230), 1e-9);
-    // The ladder starts from the loaded B+ average [derived: R = (V_start − 330) / 12 mA]
+    // The ladder starts from the loaded B+ average [derived: R = (V_start − 330) / 12 mA, docs/references.md §4]
     const start = bplus.outputs.averageDc!.value as number;
     expectClose(screen.outputs['stage1.resistanceExact']!.value as number, (start - 330) / 0.012, 1e-9);
   });

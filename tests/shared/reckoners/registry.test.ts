@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { getReckoner, listReckoners, RECKONER_KINDS, reckoners } from '../../../shared/reckoners/registry';
 import { validateInputs } from '../../../shared/reckoners/validate';
+import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
   it('holds the seven reckoners under their stable kind ids', () => {
@@ -29,29 +30,34 @@ describe('registry', () => {
     }
   });
 
-  it('field keys are exactly the keys the schema reads (an unknown key is not silently needed)', () => {
-    // A field missing from `fields` would be invisible in forms: check that supplying only the
-    // declared fields with their defaults gives errors only for fields with no default.
-    for (const def of listReckoners()) {
-      const r = validateInputs(def.kind, {});
-      if (r.ok) continue;
-      const declared = new Set(def.fields.map((f) => f.key));
-      for (const e of r.errors) expect(declared.has(e.field.split('.')[0]!), `${def.kind}: ${e.field}`).toBe(true);
+  it.each(RECKONER_KINDS)('%s: field keys are exactly the keys the schema reads', (kind) => {
+    const def = getReckoner(kind)!;
+    const declared = new Set(def.fields.map((f) => f.key));
+    // Whatever an empty input lacks is a declared field (nothing needed is invisible in forms).
+    const empty = validateInputs(kind, {});
+    if (!empty.ok) for (const e of empty.errors) expect(declared.has(e.field.split('.')[0]!), `${kind}: ${e.field}`).toBe(true);
+    // The worked example parses to declared keys only, and every field that is neither optional nor
+    // defaulted is present.
+    const example = validateInputs(kind, WORKED_EXAMPLES[kind]!.inputs);
+    if (!example.ok) throw new Error(`${kind}: ${JSON.stringify(example.errors)}`);
+    const parsed = Object.keys(example.input as object);
+    for (const k of parsed) expect(declared.has(k), `${kind}: parsed key ${k}`).toBe(true);
+    for (const f of def.fields) if (!f.optional) expect(parsed, `${kind}: ${f.key}`).toContain(f.key);
+    // Every declared field is read: a value of the wrong type there is refused, naming that field.
+    for (const f of def.fields) {
+      const r = validateInputs(kind, { ...WORKED_EXAMPLES[kind]!.inputs, [f.key]: { wrong: true } });
+      expect(r.ok, `${kind}: ${f.key} = { wrong: true }`).toBe(false);
+      if (!r.ok) expect(r.errors.map((e) => e.field.split('.')[0]), `${kind}: ${f.key}`).toContain(f.key);
     }
+    // A key no field declares is refused by name (a misspelt input is never dropped silently).
+    const extra = validateInputs(kind, { ...WORKED_EXAMPLES[kind]!.inputs, notAField: 1 });
+    expect(extra.ok).toBe(false);
+    if (!extra.ok) expect(extra.errors.map((e) => e.field)).toEqual(['notAField']);
   });
 
-  it('every reckoner defers to local codes and licensed practice', () => {
-    const samples: Record<string, unknown> = {
-      'mains-fuse': { load: 'va', va: 50 },
-      'peak-no-load': { windingVoltage: 300 },
-      'loaded-bplus': { windingVoltage: 300, sourceResistance: 80, reservoir: 47e-6, loadCurrent: 0.08 },
-      'dropper-ladder': { startVoltage: 350, stages: [{ targetVoltage: 300, current: 0.02, capacitance: 47e-6 }] },
-      bleeder: { capacitance: 1e-4, chargedVoltage: 450 },
-      'heater-budget': { windingCurrent: 3, heaters: [{ volts: 6.3, amps: 0.3 }] },
-      'reading-tolerance': { expected: 300, tolerance: '±5 %' },
-    };
+  it('every reckoner defers to local codes and licensed practice, and never calls anything safe [docs/references.md §8]', () => {
     for (const def of listReckoners()) {
-      const v = validateInputs(def.kind, samples[def.kind]);
+      const v = validateInputs(def.kind, WORKED_EXAMPLES[def.kind]?.inputs);
       if (!v.ok) throw new Error(`${def.kind}: ${JSON.stringify(v.errors)}`);
       const result = def.compute(v.input);
       const cautions = def.cautions(v.input, result);

@@ -30,7 +30,7 @@ describe('IEC 60063 E-series', () => {
   });
 
   it('nearest value on a log scale, across decades [derived]', () => {
-    expect(nearestESeries(2500, 'E12')).toBe(2700); // REFERENCES §4: 2.5 kΩ → E12 2.7 kΩ
+    expect(nearestESeries(2500, 'E12')).toBe(2700); // docs/references.md §4: 2.5 kΩ → E12 2.7 kΩ
     expect(nearestESeries(2500, 'E24')).toBe(2400);
     expect(nearestESeries(9.9, 'E12')).toBe(10);
     expect(nearestESeries(0.0475, 'E12')).toBe(0.047);

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { parseQuantity, QuantityParseError } from '../../../shared/units/parse';
-import { expectClose } from '../helpers';
+import { expectClose, thrownBy } from '../helpers';
 
 const cases: [string, string | undefined, number, string, string][] = [
   // [input, expected unit, value in SI base, unit, provenance]
-  ['47u', 'F', 47e-6, 'F', 'SI prefixes (SI Brochure)'],
+  ['47u', 'F', 47e-6, 'F', 'SI prefixes (SI Brochure, docs/references.md §4)'],
   ['47 µF', undefined, 47e-6, 'F', 'SI prefixes'],
   ['47 μF', undefined, 47e-6, 'F', 'Greek mu accepted as micro'],
   ['0.47uF', undefined, 0.47e-6, 'F', 'SI prefixes'],
@@ -65,12 +65,9 @@ describe('parseQuantity', () => {
   });
 
   it('names the input and the reason in the message', () => {
-    try {
-      parseQuantity('5 V', 'F');
-      expect.unreachable();
-    } catch (e) {
-      expect((e as Error).message).toMatch(/"5 V"/);
-      expect((e as Error).message).toMatch(/expected a value in F/);
-    }
+    const e = thrownBy(() => parseQuantity('5 V', 'F'));
+    expect(e).toBeInstanceOf(QuantityParseError);
+    expect((e as Error).message).toMatch(/"5 V"/);
+    expect((e as Error).message).toMatch(/expected a value in F/);
   });
 });

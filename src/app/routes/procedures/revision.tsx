@@ -61,7 +61,7 @@ export default function RevisionPage() {
       <div className="rounded-md border-2 border-hazard-ink bg-card p-3">
         <SafetyCaution />
       </div>
-      <DocumentView doc={r.document} snapshot={r.snapshot} />
+      <DocumentView doc={r.document} snapshot={r.snapshot} reckoners={r.reckoners} />
     </article>
   );
 }

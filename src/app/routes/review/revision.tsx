@@ -12,7 +12,8 @@ import { formatUtc } from '@/features/review/components/format';
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
 import { SignOffDialog } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
-import { ValueChangesTable } from '@/features/review/components/value-changes-table';
+import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
+import { ReckonerCard } from '@/features/procedures/components/reader/reckoner-card';
 
 /** One revision under review: what changed against the last approved revision, comments, the signed decision. */
 export default function ReviewRevisionPage() {
@@ -65,7 +66,7 @@ export default function ReviewRevisionPage() {
               ({REVISION_STATE_LABELS[v.base.state].toLowerCase()}).
             </>
           ) : (
-            'First revision: everything is new.'
+            'First revision: nothing to compare with. Below is what it assumes and what follows from it.'
           )}
         </p>
       </header>
@@ -93,10 +94,28 @@ export default function ReviewRevisionPage() {
         </section>
       )}
 
-      <section className="flex flex-col gap-2">
-        <h2 className="text-xl font-semibold">Changed values</h2>
-        <ValueChangesTable changes={v.valueChanges} />
-      </section>
+      {v.base ? (
+        <section className="flex flex-col gap-2">
+          <h2 className="text-xl font-semibold">Changed values</h2>
+          <ValueChangesTable changes={v.valueChanges} />
+        </section>
+      ) : (
+        <section className="flex flex-col gap-2">
+          <h2 className="text-xl font-semibold">What this revision assumes</h2>
+          <p className="text-sm text-graphite-soft">Every input given and where it came from, then each calculation’s key results, in the author’s order.</p>
+          <FirstRevisionTable rows={v.valueChanges} />
+        </section>
+      )}
+
+      {v.reckoners.length > 0 && (
+        <section className="flex flex-col gap-2" aria-label="Calculations">
+          <h2 className="text-xl font-semibold">Calculations</h2>
+          <p className="text-sm text-graphite-soft">Each reckoner of this revision: what it assumes beside what it gives.</p>
+          {v.reckoners.map((b) => (
+            <ReckonerCard key={b.id} name={b.name} view={b} />
+          ))}
+        </section>
+      )}
 
       <section className="flex flex-col gap-2">
         <h2 className="text-xl font-semibold">Changed text</h2>

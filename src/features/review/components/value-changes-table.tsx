@@ -1,22 +1,81 @@
 import type { ValueChange } from '@shared/schemas/review';
 import { DataTable } from '@/components/ui/data-table';
 
-const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', output: 'Reckoner', reading: 'Reading' };
+const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', input: 'Input', output: 'Result', block: 'Reckoner', reading: 'Reading' };
+const BLOCK_ROWS: Record<string, string> = { name: 'Name', added: 'Added', removed: 'Removed', problems: 'Input problems' };
 
-/** Every number that moved: reckoner outputs, reading expectations, tolerances and bands, parameters. */
-export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
-  if (!changes.length) return <p className="text-sm text-graphite-soft">No calculated value, reading or parameter changed.</p>;
+/** The block is named once for its run of rows: a calm table, not a column of repeats. */
+const continues = (rows: ValueChange[], i: number) => i > 0 && rows[i - 1]!.subject === rows[i]!.subject && rows[i - 1]!.blockId === rows[i]!.blockId;
+
+function Subject({ c, repeat }: { c: ValueChange; repeat: boolean }) {
+  if (repeat) return <span className="sr-only">{c.subject}</span>;
   return (
-    <DataTable columns={['Kind', 'Block', 'Value', 'Before', 'After']} label="Value changes">
+    <>
+      <span className="font-semibold">{c.subject}</span>
+      {c.blockLabel && <span className="block text-xs text-graphite-soft">{c.blockLabel}</span>}
+    </>
+  );
+}
+
+function What({ c }: { c: ValueChange }) {
+  if (c.kind !== 'block') return <>{c.label}</>;
+  if (c.renamedFrom) return <em>renamed from “{c.renamedFrom}”</em>;
+  return <em>{BLOCK_ROWS[c.label] ?? c.label}</em>;
+}
+
+function Value({ value, source, empty, strong }: { value: string | null; source?: string | null; empty: string; strong?: boolean }) {
+  if (value === null) return <em className="text-graphite-soft">{empty}</em>;
+  return (
+    <>
+      <span className={`value ${strong ? 'font-semibold' : ''}`}>{value}</span>
+      {source && <span className="block text-xs text-graphite-soft">{source}</span>}
+    </>
+  );
+}
+
+/** Every figure that moved since the compared revision: parameters, each block's inputs (with their sources) and results, readings. */
+export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
+  if (!changes.length) return <p className="text-sm text-graphite-soft">No input, calculated value, reading or parameter changed.</p>;
+  return (
+    <DataTable columns={['Kind', 'Block', 'Figure', 'Before', 'After']} label="Value changes">
       {changes.map((c, i) => (
-        <tr key={i} className="border-b border-rule last:border-0">
+        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
           <td className="px-3 py-2 text-graphite-soft">{KIND_LABELS[c.kind]}</td>
-          <td className="px-3 py-2 font-semibold">{c.subject}</td>
-          <td className="px-3 py-2">{c.label}</td>
-          <td className="px-3 py-2">{c.before === null ? <em className="text-graphite-soft">new</em> : <span className="value">{c.before}</span>}</td>
           <td className="px-3 py-2">
-            {c.after === null ? <em className="text-graphite-soft">removed</em> : <span className="value font-semibold">{c.after}</span>}
+            <Subject c={c} repeat={continues(changes, i)} />
           </td>
+          <td className="px-3 py-2">
+            <What c={c} />
+          </td>
+          <td className="px-3 py-2">
+            <Value value={c.before} source={c.sourceBefore} empty="new" />
+          </td>
+          <td className="px-3 py-2">
+            <Value value={c.after} source={c.sourceAfter} empty="removed" strong />
+          </td>
+        </tr>
+      ))}
+    </DataTable>
+  );
+}
+
+/** A first revision: what it assumes (every input given, with where it came from) and what follows (key results). */
+export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
+  if (!rows.length) return <p className="text-sm text-graphite-soft">This revision has no parameters, calculations or readings.</p>;
+  return (
+    <DataTable columns={['Block', 'Figure', 'Value', 'From']} label="What this revision assumes">
+      {rows.map((c, i) => (
+        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
+          <td className="px-3 py-2">
+            <Subject c={c} repeat={continues(rows, i)} />
+          </td>
+          <td className="px-3 py-2">
+            <What c={c} />
+          </td>
+          <td className="px-3 py-2">
+            <Value value={c.after} empty="—" strong={c.kind === 'output'} />
+          </td>
+          <td className="px-3 py-2 text-graphite-soft">{c.kind === 'input' ? c.sourceAfter : c.kind === 'output' ? 'calculated' : c.kind === 'parameter' ? 'procedure parameter' : ''}</td>
         </tr>
       ))}
     </DataTable>

@@ -1,7 +1,7 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { parseQuantity, QuantityParseError } from '@shared/units';
+import { readMeasured } from '@shared/reckoners/measurement';
 import type { ProcedureListItem } from '@shared/schemas/procedures';
 import { Notice } from '@/components/ui/notice';
 import { useDebounced } from '@/hooks/use-debounced';
@@ -19,13 +19,11 @@ interface UnitOption {
 
 const select = 'min-h-12 rounded-md border border-rule bg-card px-3 text-base';
 
+/** Mains as measured: volts rms ("236", "236 VAC"; a peak or DC figure is refused), or hertz. */
 function readMains(text: string, unit: 'V' | 'Hz'): { value?: number; error?: string } {
   if (!text.trim()) return { error: 'required' };
-  try {
-    return { value: parseQuantity(text, unit).value };
-  } catch (err) {
-    return { error: err instanceof QuantityParseError ? err.reason : 'cannot read this value' };
-  }
+  const r = readMeasured(text, unit, unit === 'V' ? 'rms' : undefined);
+  return r.ok ? { value: r.measured } : { error: r.reason };
 }
 
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */

@@ -1,4 +1,5 @@
 import type { ReactNode } from 'react';
+import type { BlockView } from '@shared/document/block-view';
 import type { Snapshot } from '@shared/document/evaluate';
 import { checkStepHeading } from '@shared/document/extract';
 import {
@@ -21,8 +22,15 @@ import { ReadingsTable } from './readings-table';
 import { ReckonerCard } from './reckoner-card';
 import { renderText } from './render-marks';
 
+interface Stored {
+  snapshot: Snapshot;
+  /** Reckoner blocks by id, as described by the server. */
+  reckoners: Map<string, BlockView>;
+}
+
 /** Runs of readings become one table and runs of check steps one checklist. */
-function renderChildren(nodes: DocNode[] | undefined, snapshot: Snapshot): ReactNode[] {
+function renderChildren(nodes: DocNode[] | undefined, stored: Stored): ReactNode[] {
+  const { snapshot } = stored;
   const out: ReactNode[] = [];
   const list = nodes ?? [];
   for (let i = 0; i < list.length; i++) {
@@ -45,7 +53,7 @@ function renderChildren(nodes: DocNode[] | undefined, snapshot: Snapshot): React
       i = j;
       continue;
     }
-    out.push(renderNode(node, i, snapshot));
+    out.push(renderNode(node, i, stored));
   }
   return out;
 }
@@ -68,8 +76,8 @@ function Checklist({ steps }: { steps: CheckStepAttrs[] }) {
   );
 }
 
-function renderNode(node: DocNode, key: number, snapshot: Snapshot): ReactNode {
-  const kids = () => renderChildren(node.content, snapshot);
+function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
+  const kids = () => renderChildren(node.content, stored);
   const a = (node.attrs ?? {}) as Record<string, unknown>;
   switch (node.type) {
     case 'text':
@@ -105,7 +113,7 @@ function renderNode(node: DocNode, key: number, snapshot: Snapshot): ReactNode {
       return <br key={key} />;
     case 'reckoner': {
       const r = a as unknown as ReckonerAttrs;
-      return <ReckonerCard key={key} name={r.name} block={snapshot.blocks.find((b) => b.id === r.id)} />;
+      return <ReckonerCard key={key} name={r.name} view={stored.reckoners.get(r.id)} />;
     }
     case 'hazardNote':
       return (
@@ -140,6 +148,7 @@ function renderNode(node: DocNode, key: number, snapshot: Snapshot): ReactNode {
 }
 
 /** A stored revision's document as plain React: no editor code is loaded to read a procedure. */
-export function DocumentView({ doc, snapshot }: { doc: ProcedureDoc; snapshot: Snapshot }) {
-  return <div className="procedure-text prose prose-stone max-w-none font-serif">{renderChildren(doc.content, snapshot)}</div>;
+export function DocumentView({ doc, snapshot, reckoners }: { doc: ProcedureDoc; snapshot: Snapshot; reckoners: BlockView[] }) {
+  const stored = { snapshot, reckoners: new Map(reckoners.map((b) => [b.id, b])) };
+  return <div className="procedure-text prose prose-stone max-w-none font-serif">{renderChildren(doc.content, stored)}</div>;
 }

@@ -1,40 +1,59 @@
-import type { BlockSnapshot } from '@shared/document/evaluate';
+import type { BlockView } from '@shared/document/block-view';
 import { CautionList } from '../caution-list';
+import { BlockInputs } from './block-inputs';
+import { Figure } from './figure';
 
-/** A reckoner as the reader sees it: its computed values with units, from the stored snapshot. */
-export function ReckonerCard({ block, name }: { block: BlockSnapshot | undefined; name: string }) {
+const heading = 'text-xs font-semibold uppercase tracking-wide text-graphite-soft';
+
+/** A reckoner as the reader and reviewer see it: what it assumes beside what it gives, in the author's order. */
+export function ReckonerCard({ view, name }: { view: BlockView | undefined; name: string }) {
   return (
     <section className="not-prose my-4 rounded-lg border border-rule bg-card p-4" data-reckoner={name}>
       <h3 className="text-sm font-semibold uppercase tracking-wide text-accent-deep">
-        {block?.label ?? 'Calculation'} <span className="value normal-case text-graphite-soft">· {name}</span>
+        {view?.label ?? 'Calculation'} <span className="value normal-case text-graphite-soft">· {name}</span>
       </h3>
-      {!block ? (
+      {!view ? (
         <p className="mt-2 text-sm text-out">This calculation is missing from the stored results.</p>
-      ) : !block.ok ? (
-        <div className="mt-2 text-sm text-out">
-          <p className="font-semibold">No results: the inputs have problems.</p>
-          <ul className="list-disc pl-5">
-            {block.errors.map((e) => (
-              <li key={e.field + e.reason}>
-                {e.field && <span className="value">{e.field}</span>} {e.reason}
-              </li>
-            ))}
-          </ul>
-        </div>
       ) : (
-        <>
-          <dl className="mt-2 grid gap-x-6 gap-y-2 sm:grid-cols-2">
-            {Object.entries(block.outputs).map(([key, out]) => (
-              <div key={key} data-output={key}>
-                <dt className="text-xs text-graphite-soft">{out.label}</dt>
-                <dd className="value text-base font-semibold">{out.formatted}</dd>
+        <div className="mt-2 grid gap-4 lg:grid-cols-2">
+          {view.inputs.length > 0 && (
+            <div>
+              <h4 className={heading}>Assumed</h4>
+              <BlockInputs inputs={view.inputs} name={name} />
+            </div>
+          )}
+          <div>
+            <h4 className={heading}>Results</h4>
+            {view.ok ? (
+              <>
+                <dl className="mt-1 grid gap-x-6 gap-y-2 sm:grid-cols-2">
+                  {view.outputs.map((out) => (
+                    <div key={out.key} data-output={out.key}>
+                      <dt className="text-xs text-graphite-soft">{out.label}</dt>
+                      <dd className="text-base">
+                        <Figure formatted={out.formatted} measure={out.measure} strong />
+                      </dd>
+                    </div>
+                  ))}
+                </dl>
+                <div className="mt-3">
+                  <CautionList cautions={view.cautions} />
+                </div>
+              </>
+            ) : (
+              <div className="mt-1 text-sm text-out">
+                <p className="font-semibold">No results: the inputs have problems.</p>
+                <ul className="list-disc pl-5">
+                  {view.errors.map((e) => (
+                    <li key={e.field + e.reason}>
+                      {e.field}: {e.reason}
+                    </li>
+                  ))}
+                </ul>
               </div>
-            ))}
-          </dl>
-          <div className="mt-3">
-            <CautionList cautions={block.cautions} />
+            )}
           </div>
-        </>
+        </div>
       )}
     </section>
   );

@@ -1,0 +1,28 @@
+import type { InputRow } from '@shared/document/block-view';
+import { Figure } from './figure';
+
+/** What a block assumes: each input in the registry's words, its value and where the value came from. */
+export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string }) {
+  return (
+    <table aria-label={`Inputs of ${name}`} className="w-full text-left text-sm">
+      <thead className="border-b border-rule text-xs text-graphite-soft">
+        <tr>
+          <th scope="col" className="py-1 pr-3 font-normal">Input</th>
+          <th scope="col" className="py-1 pr-3 font-normal">Value</th>
+          <th scope="col" className="py-1 font-normal">From</th>
+        </tr>
+      </thead>
+      <tbody>
+        {inputs.map((i) => (
+          <tr key={i.path} data-input={i.path} className="border-b border-rule align-top last:border-0">
+            <td className="py-1 pr-3">{i.label}</td>
+            <td className="py-1 pr-3">
+              <Figure formatted={i.formatted} measure={i.measure} />
+            </td>
+            <td className="py-1 text-graphite-soft">{i.sourceText}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,13 @@
+import type { Measure } from '@shared/reckoners';
+import { MEASURE_WORDS } from '@shared/reckoners/measures';
+
+/** A number with its unit in the monospace value face, and its measure (rms, peak, DC) beside it. */
+export function Figure({ formatted, measure, strong }: { formatted: string; measure: Measure | null; strong?: boolean }) {
+  const word = measure ? MEASURE_WORDS[measure] : '';
+  return (
+    <span className="whitespace-nowrap">
+      <span className={`value ${strong ? 'font-semibold' : ''}`}>{formatted}</span>
+      {word && formatted !== '—' && <span className="text-xs text-graphite-soft"> {word}</span>}
+    </span>
+  );
+}

@@ -1,0 +1,55 @@
+/**
+ * One valid worked example per reckoner kind, with values from docs/references.md, and one output
+ * each that the example fixes by hand. Every registered reckoner must have an entry here.
+ */
+export interface WorkedExample {
+  inputs: Record<string, unknown>;
+  /** An output key and its value worked by hand, with the source. */
+  check: { key: string; value: number; source: string };
+}
+
+export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
+  'mains-fuse': {
+    inputs: {
+      windings: [
+        { label: 'HT', volts: '250 V', amps: '100 mA' },
+        { label: 'heaters', volts: '6.3 V', amps: '3 A' },
+        { label: 'rectifier heater', volts: '5 V', amps: '2 A' },
+      ],
+      mainsVoltage: '120 V',
+      efficiency: '85 %',
+    },
+    check: { key: 'primaryCurrent', value: 0.5284, source: '53.9 VA ÷ (0.85 × 120 V), docs/references.md §1' },
+  },
+  'peak-no-load': {
+    inputs: { windingVoltage: '120 V', mainsNominal: '120 V', rectifier: 'silicon-bridge', diodeDrop: '1 V' },
+    check: { key: 'peakVoltage', value: 169.71, source: '√2 × 120 V, docs/references.md §2' },
+  },
+  'loaded-bplus': {
+    inputs: { windingVoltage: '300 V', sourceResistance: '50 Ω', reservoir: '47 µF', mainsFrequency: '50 Hz', loadCurrent: '100 mA' },
+    check: { key: 'noLoadDc', value: Math.SQRT2 * 300 - 1.8, source: '√2 × 300 V less two 0.9 V diode drops, docs/references.md §2' },
+  },
+  'dropper-ladder': {
+    inputs: { startVoltage: '350 V', stages: [{ label: 'B+2', targetVoltage: '300 V', current: '20 mA', capacitance: '47 µF' }] },
+    check: { key: 'stage1.resistanceExact', value: 2500, source: '50 V ÷ 20 mA, docs/references.md §4' },
+  },
+  bleeder: {
+    inputs: { capacitance: '100 µF', chargedVoltage: '450 V', bleederResistance: '22k' },
+    check: { key: 'storedEnergy', value: 10.125, source: '½ × 100 µF × (450 V)², docs/references.md §5' },
+  },
+  'heater-budget': {
+    inputs: {
+      windingVoltage: '6.3 V',
+      windingCurrent: '3 A',
+      heaters: [
+        { label: 'small-signal', volts: '6.3 V', amps: '300 mA', count: 4 },
+        { label: 'output', volts: '6.3 V', amps: '900 mA' },
+      ],
+    },
+    check: { key: 'totalCurrent', value: 2.1, source: '4 × 0.3 A + 0.9 A, docs/references.md §6' },
+  },
+  'reading-tolerance': {
+    inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
+    check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
+  },
+};
