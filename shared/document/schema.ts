@@ -198,7 +198,7 @@ export type HazardFlag = (typeof HAZARD_FLAGS)[number];
 export const HAZARD_FLAG_LABELS: Record<HazardFlag, string> = {
   oneHand: 'Work one hand only',
   isolation: 'Isolation transformer',
-  currentLimited: 'Current-limited first power-up (series lamp, limiter or variable supply)',
+  currentLimited: 'Current-limited first power-up',
   discharge: 'Discharge and verify before touching',
 };
 const flag = added(z.boolean({ error: 'must be yes (true) or no (false)' }));

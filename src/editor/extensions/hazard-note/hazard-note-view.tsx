@@ -32,7 +32,8 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
         <fieldset className="flex flex-wrap gap-x-4 gap-y-1 text-sm" contentEditable={false} aria-describedby={`${groupId}-help`}>
           <legend className="sr-only">Live-work cautions this note states</legend>
           <span id={`${groupId}-help`} className="w-full text-xs font-semibold">
-            This note states (the procedure check relies on these, not on the wording):
+            This note states (the procedure check relies on these, not on the wording; current-limited
+            covers a series lamp, a limiter or a variable supply):
           </span>
           {HAZARD_FLAGS.map((f) => (
             <label key={f} className="flex min-h-9 items-center gap-2">
