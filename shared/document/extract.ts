@@ -1,12 +1,35 @@
 import type { CheckStepAttrs, DocNode, FileAttrs, HazardNoteAttrs, ImageAttrs, ProcedureDoc, ReadingAttrs, ReckonerAttrs } from './schema';
-import { walk } from './schema';
+import { checkKindOf, HAZARD_FLAG_LABELS, HAZARD_FLAGS, walk } from './schema';
+
+/** "Check", "Wait 10 s (bleeder)", "Discharge verified below 60 V", with "live" where marked: one wording for text, reader and run. */
+export function checkStepHeading(a: CheckStepAttrs): string {
+  const kind = checkKindOf(a);
+  const head =
+    kind === 'discharge-verified'
+      ? `Discharge verified below ${a.threshold ?? 'its threshold'}`
+      : kind === 'wait'
+        ? `Wait ${a.seconds} s${a.drain === 'probe' ? ' per node on the discharge probe' : a.drain === 'none' ? '' : ' for the bleeder'}`
+        : 'Check';
+  return a.live ? `${head} (live)` : head;
+}
+
+/** The flags a hazard note carries, in words ("Work one hand only; Isolation transformer"), '' for none. */
+export function hazardFlagWords(a: HazardNoteAttrs): string {
+  return HAZARD_FLAGS.filter((f) => a.flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f]).join('; ');
+}
+
+/** Where a block sits: the heading it is under ('' before the first) and its place in document order. */
+export interface Placed {
+  section: string;
+  order: number;
+}
 
 /** The structured blocks of a document, in document order, each with the heading it sits under. */
 export interface DocBlocks {
-  reckoners: (ReckonerAttrs & { section: string })[];
-  readings: (ReadingAttrs & { section: string })[];
-  checkSteps: (CheckStepAttrs & { section: string })[];
-  hazardNotes: (HazardNoteAttrs & { section: string; text: string })[];
+  reckoners: (ReckonerAttrs & Placed)[];
+  readings: (ReadingAttrs & Placed)[];
+  checkSteps: (CheckStepAttrs & Placed)[];
+  hazardNotes: (HazardNoteAttrs & Placed & { text: string })[];
   images: ImageAttrs[];
   files: FileAttrs[];
 }
@@ -20,23 +43,25 @@ export function textOf(node: DocNode): string {
 export function extractBlocks(doc: ProcedureDoc): DocBlocks {
   const out: DocBlocks = { reckoners: [], readings: [], checkSteps: [], hazardNotes: [], images: [], files: [] };
   let section = '';
+  let order = 0;
   // Only top-level headings start sections; nested walking still finds blocks inside lists.
   for (const top of doc.content) {
     if (top.type === 'heading') section = textOf(top);
     walk(top, (node) => {
       const a = node.attrs as never;
+      const at = { section, order: order++ };
       switch (node.type) {
         case 'reckoner':
-          out.reckoners.push({ ...(a as ReckonerAttrs), section });
+          out.reckoners.push({ ...(a as ReckonerAttrs), ...at });
           break;
         case 'reading':
-          out.readings.push({ ...(a as ReadingAttrs), section });
+          out.readings.push({ ...(a as ReadingAttrs), ...at });
           break;
         case 'checkStep':
-          out.checkSteps.push({ ...(a as CheckStepAttrs), section });
+          out.checkSteps.push({ ...(a as CheckStepAttrs), ...at });
           break;
         case 'hazardNote':
-          out.hazardNotes.push({ ...(a as HazardNoteAttrs), section, text: textOf(node) });
+          out.hazardNotes.push({ ...(a as HazardNoteAttrs), ...at, text: textOf(node) });
           break;
         case 'image':
           out.images.push(a as ImageAttrs);
@@ -62,11 +87,18 @@ export function plainText(doc: ProcedureDoc): string {
         lines.push(textOf(node));
         return;
       case 'reading':
-        lines.push(`Reading: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`);
+        lines.push(`Reading${a.live === true ? ' (live)' : ''}: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`);
         return;
       case 'checkStep':
-        lines.push(`Check: ${a.text}`);
+        lines.push(`${checkStepHeading(a as CheckStepAttrs)}: ${a.text}`);
         return;
+      case 'hazardNote': {
+        // Only a note with flags gains a line, so text stored before flags existed reads the same.
+        const flags = hazardFlagWords(a as HazardNoteAttrs);
+        if (flags) lines.push(`Hazard note states: ${flags}`);
+        node.content?.forEach(visit);
+        return;
+      }
       case 'image':
         lines.push(`Image: ${a.caption || a.alt}`);
         return;

@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { READING_MEASURES, READING_UNITS, takesMeasure } from '../reckoners/reading-units';
+import { parseQuantity, QuantityParseError } from '../units/parse';
 
 export const BLOCK_ID = /^[A-Za-z0-9_-]{6,40}$/;
 export const BLOCK_NAME = /^[A-Za-z_][A-Za-z0-9_-]{0,31}$/;
@@ -71,6 +72,17 @@ export const inputValueSchema: z.ZodType<InputValue> = z.lazy(() =>
 /** Tolerance as people write it: "±5 %", "±10 V", "-5 %/+10 %". Parsed by the reading-tolerance reckoner. */
 const toleranceText = shortText(40);
 
+/**
+ * An attribute added after documents were first stored: absent in old documents, and null from the
+ * editor when unset (TipTap writes every declared attribute). Both mean "not stated".
+ */
+const added = <T extends z.ZodTypeAny>(schema: T) => schema.nullish().transform((v) => v ?? undefined).optional();
+
+/** Live work: done or measured on a powered unit. Absent on a reading: see isLiveReading. */
+const live = added(z.boolean({ error: 'must be yes (true) or no (false)' }));
+
+/** Readings in these units are taken on a powered unit unless marked `live: false`. */
+export const LIVE_READING_UNITS: readonly string[] = ['V', 'A', 'W', 'Hz'];
 // ── custom block nodes ───────────────────────────────────────────────────────
 export const reckonerAttrs = z
   .object({
@@ -99,6 +111,8 @@ export const readingAttrs = z
      */
     followsMains: z.boolean().nullable().optional(),
     tolerance: toleranceText,
+    /** Taken on a powered unit. Absent: live when the unit is V, A, W or Hz (see isLiveReading). */
+    live,
   })
   .strict()
   .superRefine((r, ctx) => {
@@ -107,9 +121,102 @@ export const readingAttrs = z
     }
   });
 
-export const checkStepAttrs = z.object({ id: blockId, text: shortText(500) }).strict();
+/** The highest threshold a discharge-verified step may name; above it the value is a slip, not a choice. */
+const MAX_DISCHARGE_THRESHOLD = 1000;
 
-export const hazardNoteAttrs = z.object({ id: blockId, level: z.enum(['danger', 'warning']) }).strict();
+/** A threshold voltage as typed ("60 V", "50 VDC"): a positive DC voltage. */
+const thresholdText = z
+  .string()
+  .max(40, 'at most 40 characters')
+  .superRefine((text, ctx) => {
+    let q;
+    try {
+      q = parseQuantity(text, 'V');
+    } catch (e) {
+      if (!(e instanceof QuantityParseError)) throw e;
+      ctx.addIssue({ code: 'custom', message: `"${text.slice(0, 40)}" is not a voltage; write it as "60 V"` });
+      return;
+    }
+    if (!(q.value > 0) || q.value > MAX_DISCHARGE_THRESHOLD) {
+      ctx.addIssue({ code: 'custom', message: `must be a voltage above 0 V and at most ${MAX_DISCHARGE_THRESHOLD} V` });
+    } else if (q.measure && q.measure !== 'dc') {
+      ctx.addIssue({ code: 'custom', message: 'is a DC voltage on the discharged capacitors; write it without rms or peak' });
+    }
+  });
+
+/**
+ * What a check step asks for. Absent means 'confirm' (every step stored before the kinds existed):
+ * - confirm: the technician confirms something by ticking it;
+ * - discharge-verified: the filter capacitors are measured below `threshold` before anyone touches;
+ * - wait: the technician waits `seconds` before going on. `drain` says what empties the capacitors
+ *   meanwhile: the unit's own bleeder (the default), a discharge probe held on each node, or nothing
+ *   (a wait for warming up or settling, not for discharge).
+ */
+export const CHECK_KINDS = ['confirm', 'discharge-verified', 'wait'] as const;
+export type CheckKind = (typeof CHECK_KINDS)[number];
+export const WAIT_DRAINS = ['bleeder', 'probe', 'none'] as const;
+export type WaitDrain = (typeof WAIT_DRAINS)[number];
+
+export const checkStepAttrs = z
+  .object({
+    id: blockId,
+    text: shortText(500),
+    kind: added(z.enum(CHECK_KINDS, { error: `must be one of: ${CHECK_KINDS.join(', ')}` })),
+    threshold: added(thresholdText),
+    seconds: added(
+      z
+        .number({ error: 'must be a number of seconds' })
+        .refine(Number.isFinite, 'must be a finite number of seconds')
+        .pipe(z.number().gt(0, 'must be more than 0 s').max(86_400, 'must be at most 86 400 s (a day)')),
+    ),
+    drain: added(z.enum(WAIT_DRAINS, { error: `must be one of: ${WAIT_DRAINS.join(', ')}` })),
+    live,
+  })
+  .strict()
+  .superRefine((a, ctx) => {
+    const kind = a.kind ?? 'confirm';
+    const only = (key: 'threshold' | 'seconds' | 'drain', owner: CheckKind) => {
+      if (a[key] !== undefined && kind !== owner) ctx.addIssue({ code: 'custom', path: [key], message: `only a ${owner} step takes ${key === 'seconds' ? 'a duration' : `a ${key}`}` });
+    };
+    only('threshold', 'discharge-verified');
+    only('seconds', 'wait');
+    only('drain', 'wait');
+    if (kind === 'discharge-verified' && a.threshold === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'a discharge-verified step needs the voltage it verifies below, e.g. "60 V"' });
+    }
+    if (kind === 'wait' && a.seconds === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['seconds'], message: 'a wait step needs its duration in seconds' });
+    }
+  });
+
+/**
+ * The live-work cautions a hazard note states, as flags the procedure check can rely on (the text
+ * says them in words). Each absent flag means "not stated".
+ */
+export const HAZARD_FLAGS = ['oneHand', 'isolation', 'currentLimited', 'discharge'] as const;
+export type HazardFlag = (typeof HAZARD_FLAGS)[number];
+export const HAZARD_FLAG_LABELS: Record<HazardFlag, string> = {
+  oneHand: 'Work one hand only',
+  isolation: 'Isolation transformer',
+  currentLimited: 'Current-limited first power-up',
+  discharge: 'Discharge and verify before touching',
+};
+const flag = added(z.boolean({ error: 'must be yes (true) or no (false)' }));
+
+export const hazardNoteAttrs = z
+  .object({
+    id: blockId,
+    level: z.enum(['danger', 'warning']),
+    flags: added(
+      z
+        .object(Object.fromEntries(HAZARD_FLAGS.map((f) => [f, flag])) as Record<HazardFlag, typeof flag>, {
+          error: (iss) =>
+            iss.code === 'unrecognized_keys' ? `unknown flag ${iss.keys.map((k) => `"${k}"`).join(', ')} (flags: ${HAZARD_FLAGS.join(', ')})` : 'must be a set of yes/no flags',
+        })
+        .strict(),
+    ),
+  })
+  .strict();
 
 export const imageAttrs = z
   .object({
@@ -134,6 +241,15 @@ export type ReadingAttrs = z.infer<typeof readingAttrs>;
 export type CheckStepAttrs = z.infer<typeof checkStepAttrs>;
 export type HazardNoteAttrs = z.infer<typeof hazardNoteAttrs>;
 export type ImageAttrs = z.infer<typeof imageAttrs>;
+
+/**
+ * Whether a reading is live work. Volts, amps, watts and hertz are read on a powered unit, so a
+ * reading in them is live unless the author marks it otherwise (a residual voltage on a switched-off
+ * unit); resistance, capacitance, time and percentages are read cold unless marked live.
+ */
+export const isLiveReading = (r: Pick<ReadingAttrs, 'unit' | 'live'>): boolean => r.live ?? LIVE_READING_UNITS.includes(r.unit);
+export const isLiveCheck = (c: Pick<CheckStepAttrs, 'live'>): boolean => c.live === true;
+export const checkKindOf = (c: Pick<CheckStepAttrs, 'kind'>): CheckKind => c.kind ?? 'confirm';
 export type FileAttrs = z.infer<typeof fileAttrs>;
 
 // ── the node list ────────────────────────────────────────────────────────────

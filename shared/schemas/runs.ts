@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { Snapshot } from '../document/evaluate';
 import type { ProcedureParams } from '../document/params';
 import { PARAM_SPECS } from '../document/params';
+import type { CheckKind } from '../document/schema';
 import type { Measure } from '../reckoners/types';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
@@ -29,7 +30,15 @@ export interface RunStep {
     bandText: string | null;
     error?: string;
   };
-  hazard?: { level: 'danger' | 'warning' };
+  hazard?: {
+    level: 'danger' | 'warning';
+    /** The live-work cautions the note states, in words (absent on runs started before notes carried them). */
+    flags?: string[];
+  };
+  /** A check step that is more than a confirmation, or done live: its heading ("Wait 10 s for the bleeder"). */
+  check?: { kind: CheckKind; heading: string; threshold?: string; seconds?: number };
+  /** Done or measured on a powered unit. */
+  live?: boolean;
 }
 
 const spec = (key: 'mainsVoltage' | 'mainsFrequency') => PARAM_SPECS.find((p) => p.key === key)!;

@@ -1,5 +1,6 @@
 import type { Editor } from '@tiptap/core';
 import { listReckoners } from '@shared/reckoners';
+import { DEFAULT_DISCHARGE_THRESHOLD } from './extensions/check-step/check-step';
 
 export interface CatalogEntry {
   key: string;
@@ -21,6 +22,26 @@ export function blockCatalog(): CatalogEntry[] {
     })),
     { key: 'reading', label: 'Reading', hint: 'A measurement with its expected value and tolerance', insert: (e) => e.chain().focus().insertReading().run() },
     { key: 'check', label: 'Check step', hint: 'Something the technician confirms by ticking', insert: (e) => e.chain().focus().insertCheckStep().run() },
+    {
+      key: 'check:discharge',
+      label: 'Discharge verified',
+      hint: 'A check step: capacitors measured below the safe voltage before touching',
+      insert: (e) =>
+        e
+          .chain()
+          .focus()
+          .insertCheckStep('Capacitors discharged below 60 V, verified with a meter at every filter node before touching anything inside.', {
+            kind: 'discharge-verified',
+            threshold: DEFAULT_DISCHARGE_THRESHOLD,
+          })
+          .run(),
+    },
+    {
+      key: 'check:wait',
+      label: 'Wait step',
+      hint: 'A check step: wait a stated time, for the bleeder or the discharge probe',
+      insert: (e) => e.chain().focus().insertCheckStep('Switched off: wait for the bleeder before touching.', { kind: 'wait', seconds: 60 }).run(),
+    },
     { key: 'hazard', label: 'Hazard note', hint: 'A caution in safety colours (danger or warning)', insert: (e) => e.chain().focus().insertHazardNote('danger').run() },
     { key: 'image', label: 'Image…', hint: 'Upload a photo or drawing (PNG, JPEG, WebP)', upload: 'image' },
     { key: 'file', label: 'File…', hint: 'Upload a PDF or image to link to', upload: 'file' },

@@ -129,6 +129,58 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     expect(focused).toContain('Loaded B+');
   });
 
+  it('check steps and hazard notes carry their structure, and the procedure check follows it', async () => {
+    const check = (code: string) => page.locator(`[data-procedure-check] [data-check-code="${code}"]`);
+    const toEnd = async () => {
+      await page.getByRole('textbox', { name: 'Procedure text' }).focus();
+      await page.keyboard.press('Control+End');
+    };
+    // The reading in volts is live work with nothing after it to verify the discharge.
+    await expect.poll(() => check('discharge-check-missing').count()).toBe(1);
+    await toEnd();
+    await insertBlock('discharge verified');
+    const verified = block('Check step').last();
+    expect(await verified.getByLabel('Kind of step').inputValue()).toBe('discharge-verified');
+    await expect.poll(() => check('discharge-check-missing').count()).toBe(0);
+    // A threshold that is not a voltage is named at the input; one above the safe voltage by the check.
+    await verified.getByLabel('Verified below').fill('sixty');
+    await verified.getByRole('alert').filter({ hasText: '"sixty" is not a voltage' }).waitFor();
+    await verified.getByLabel('Verified below').fill('100 V');
+    await expect.poll(() => check('discharge-threshold-high').count()).toBe(1);
+    await verified.getByLabel('Verified below').fill('60 V');
+    await expect.poll(() => check('discharge-threshold-high').count()).toBe(0);
+
+    // A note flagged one hand and isolation covers a live step after it; its words alone would not.
+    await toEnd();
+    await insertBlock('hazard note');
+    const note = page.locator('.hazard-note').last();
+    await note.locator('.hazard-note-text').click();
+    await page.keyboard.type('Live from here: one hand, isolation transformer.');
+    await note.getByLabel('Work one hand only').check();
+    await note.getByLabel('Isolation transformer').check();
+    await toEnd();
+    await insertBlock('check step');
+    const live = block('Check step').last();
+    await live.getByLabel('The technician confirms').fill('Series lamp dims within 30 s.');
+    await live.getByLabel('Live work (unit powered)').check();
+    // Now a live step follows the only discharge verification; the reading before the note stays unguarded.
+    await expect.poll(() => check('discharge-check-missing').count()).toBe(1);
+    await expect.poll(() => check('live-step-unguarded').count()).toBe(1);
+    await note.getByLabel('Isolation transformer').uncheck();
+    await expect.poll(() => check('live-step-unguarded').count()).toBe(2);
+    await note.getByLabel('Isolation transformer').check();
+    await expect.poll(() => check('live-step-unguarded').count()).toBe(1);
+
+    await page.keyboard.press('Control+s');
+    await page.locator('[data-save-state="saved"]').waitFor();
+    await page.reload();
+    await page.getByRole('textbox', { name: 'Procedure text' }).waitFor();
+    expect(await block('Check step').first().getByLabel('Verified below').inputValue()).toBe('60 V');
+    expect(await block('Check step').last().getByLabel('Live work (unit powered)').isChecked()).toBe(true);
+    expect(await page.locator('.hazard-note').last().getByLabel('Work one hand only').isChecked()).toBe(true);
+    expect(await page.locator('.hazard-note').last().getByLabel('Current-limited', { exact: false }).isChecked()).toBe(false);
+  });
+
   it('the reader shows the stored results without downloading the editor', async () => {
     const revisionUrl = editUrl.replace(/\/edit$/, '');
     const reader = await (await browser.newContext()).newPage();

@@ -1,6 +1,7 @@
 import sanitizeHtml from 'sanitize-html';
 import type { Snapshot } from '../../../shared/document/evaluate';
-import type { DocNode, ProcedureDoc } from '../../../shared/document/schema';
+import { checkStepHeading, hazardFlagWords } from '../../../shared/document/extract';
+import { checkKindOf, isLiveReading, type CheckStepAttrs, type DocNode, type HazardNoteAttrs, type ProcedureDoc, type ReadingAttrs } from '../../../shared/document/schema';
 
 const esc = (s: unknown) =>
   String(s ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
@@ -49,14 +50,21 @@ export function renderRevisionHtml(doc: ProcedureDoc, snapshot: Snapshot): strin
         return `<pre><code>${children(n)}</code></pre>`;
       case 'horizontalRule':
         return '<hr>';
-      case 'hazardNote':
-        return `<aside class="hazard-note hazard-${esc(a.level)}"><p><strong>${a.level === 'danger' ? 'DANGER' : 'WARNING'}</strong></p>${children(n)}</aside>`;
-      case 'checkStep':
-        return `<p class="check-step">☐ ${esc(a.text)}</p>`;
+      case 'hazardNote': {
+        const flags = hazardFlagWords(a as HazardNoteAttrs);
+        return `<aside class="hazard-note hazard-${esc(a.level)}"><p><strong>${a.level === 'danger' ? 'DANGER' : 'WARNING'}</strong></p>${flags ? `<p><em>${esc(flags)}</em></p>` : ''}${children(n)}</aside>`;
+      }
+      case 'checkStep': {
+        const c = a as CheckStepAttrs;
+        // A plain confirmation prints as it always has; a structured step leads with what it asks for.
+        const head = checkKindOf(c) === 'confirm' && !c.live ? '' : `<strong>${esc(checkStepHeading(c))}:</strong> `;
+        return `<p class="check-step">☐ ${head}${esc(a.text)}</p>`;
+      }
       case 'reading': {
         const r = readings.get(String(a.id));
         const band = r?.bandText ?? `not resolved: ${r?.error ?? 'unknown'}`;
-        return `<table class="reading"><tbody><tr><th>Measure</th><td>${esc(a.label)}</td></tr><tr><th>At</th><td>${esc(a.testPoint)}</td></tr><tr><th>Meter range</th><td>${esc(a.meterRange)}</td></tr><tr><th>Expected</th><td>${esc(band)} (${esc(a.tolerance)})</td></tr></tbody></table>`;
+        const live = isLiveReading(a as ReadingAttrs) ? '<tr><th>Live work</th><td>yes</td></tr>' : '';
+        return `<table class="reading"><tbody><tr><th>Measure</th><td>${esc(a.label)}</td></tr><tr><th>At</th><td>${esc(a.testPoint)}</td></tr><tr><th>Meter range</th><td>${esc(a.meterRange)}</td></tr><tr><th>Expected</th><td>${esc(band)} (${esc(a.tolerance)})</td></tr>${live}</tbody></table>`;
       }
       case 'reckoner': {
         const b = blocks.get(String(a.id));

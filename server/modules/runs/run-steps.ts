@@ -1,6 +1,17 @@
 import type { Snapshot } from '../../../shared/document/evaluate';
-import { textOf } from '../../../shared/document/extract';
-import { walk, type CheckStepAttrs, type HazardNoteAttrs, type ProcedureDoc } from '../../../shared/document/schema';
+import { checkStepHeading, textOf } from '../../../shared/document/extract';
+import {
+  checkKindOf,
+  HAZARD_FLAG_LABELS,
+  HAZARD_FLAGS,
+  isLiveCheck,
+  isLiveReading,
+  walk,
+  type CheckStepAttrs,
+  type HazardNoteAttrs,
+  type ProcedureDoc,
+  type ReadingAttrs,
+} from '../../../shared/document/schema';
 import type { RunStep } from '../../../shared/schemas/runs';
 
 /**
@@ -37,15 +48,22 @@ export function buildSteps(doc: ProcedureDoc, snapshot: Snapshot): RunStep[] {
             bandText: r.bandText,
             ...(r.error ? { error: r.error } : {}),
           },
+          ...(isLiveReading(node.attrs as ReadingAttrs) ? { live: true } : {}),
         });
       } else if (node.type === 'checkStep') {
         const a = node.attrs as CheckStepAttrs;
-        steps.push({ id: a.id, kind: 'check', position, section, text: a.text });
+        const kind = checkKindOf(a);
+        const check =
+          kind === 'confirm' && !a.live
+            ? {}
+            : { check: { kind, heading: checkStepHeading(a), ...(a.threshold ? { threshold: a.threshold } : {}), ...(a.seconds ? { seconds: a.seconds } : {}) } };
+        steps.push({ id: a.id, kind: 'check', position, section, text: a.text, ...check, ...(isLiveCheck(a) ? { live: true } : {}) });
       } else if (node.type === 'hazardNote') {
         const a = node.attrs as HazardNoteAttrs;
         // One line per paragraph, so the note reads as written.
         const text = (node.content ?? []).map(textOf).join('\n').trim();
-        steps.push({ id: a.id, kind: 'hazard', position, section, text, hazard: { level: a.level } });
+        const flags = HAZARD_FLAGS.filter((f) => a.flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f]);
+        steps.push({ id: a.id, kind: 'hazard', position, section, text, hazard: { level: a.level, ...(flags.length ? { flags } : {}) } });
       }
     });
   }

@@ -1,9 +1,16 @@
 import { NodeViewContent, NodeViewWrapper, type NodeViewProps } from '@tiptap/react';
-import type { HazardNoteAttrs } from '@shared/document/schema';
+import { useId } from 'react';
+import { HAZARD_FLAG_LABELS, HAZARD_FLAGS, type HazardFlag, type HazardNoteAttrs } from '@shared/document/schema';
 import { HazardTriangle } from '@/features/procedures/components/hazard-triangle';
 
 export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewProps) {
   const attrs = node.attrs as HazardNoteAttrs;
+  const groupId = useId();
+  // Only ticked flags are kept; none ticked is stored as "not stated".
+  const setFlag = (flag: HazardFlag, on: boolean) => {
+    const next = HAZARD_FLAGS.filter((f) => (f === flag ? on : attrs.flags?.[f]));
+    updateAttributes({ flags: next.length ? Object.fromEntries(next.map((f) => [f, true])) : null });
+  };
   return (
     <NodeViewWrapper data-block-id={attrs.id} className="hazard-note not-prose my-4 flex gap-3 rounded-md border-4 border-hazard-ink bg-hazard p-3 text-hazard-ink">
       <HazardTriangle className="size-10 shrink-0" />
@@ -22,6 +29,19 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
             Remove block
           </button>
         </div>
+        <fieldset className="flex flex-wrap gap-x-4 gap-y-1 text-sm" contentEditable={false} aria-describedby={`${groupId}-help`}>
+          <legend className="sr-only">Live-work cautions this note states</legend>
+          <span id={`${groupId}-help`} className="w-full text-xs font-semibold">
+            This note states (the procedure check relies on these, not on the wording; current-limited
+            covers a series lamp, a limiter or a variable supply):
+          </span>
+          {HAZARD_FLAGS.map((f) => (
+            <label key={f} className="flex min-h-9 items-center gap-2">
+              <input type="checkbox" className="size-5 accent-hazard-ink" checked={attrs.flags?.[f] === true} onChange={(e) => setFlag(f, e.target.checked)} />
+              {HAZARD_FLAG_LABELS[f]}
+            </label>
+          ))}
+        </fieldset>
         <NodeViewContent className="hazard-note-text font-semibold" />
       </div>
     </NodeViewWrapper>

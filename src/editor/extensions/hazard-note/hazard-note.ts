@@ -2,13 +2,13 @@ import { Node, mergeAttributes } from '@tiptap/core';
 import type { HazardNoteAttrs } from '@shared/document/schema';
 import { newBlockId } from '../../block-id';
 import { insertBlock } from '../insert-block';
-import { textAttribute } from '../json-attr';
+import { jsonAttribute, textAttribute } from '../json-attr';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     hazardNote: {
-      /** Insert a hazard note (danger or warning) holding one paragraph of text. */
-      insertHazardNote: (level?: HazardNoteAttrs['level'], text?: string) => ReturnType;
+      /** Insert a hazard note (danger or warning) holding one paragraph of text, with the live-work cautions it states. */
+      insertHazardNote: (level?: HazardNoteAttrs['level'], text?: string, flags?: HazardNoteAttrs['flags']) => ReturnType;
     };
   }
 }
@@ -22,7 +22,12 @@ export const HazardNote = Node.create({
   draggable: true,
 
   addAttributes() {
-    return { id: textAttribute('id'), level: textAttribute('level', 'danger') };
+    return {
+      id: textAttribute('id'),
+      level: textAttribute('level', 'danger'),
+      // The live-work cautions the note states; null until the author ticks one.
+      flags: jsonAttribute<HazardNoteAttrs['flags'] | null>('flags', () => null),
+    };
   },
 
   parseHTML() {
@@ -36,11 +41,11 @@ export const HazardNote = Node.create({
   addCommands() {
     return {
       insertHazardNote:
-        (level = 'danger', text = '') =>
+        (level = 'danger', text = '', flags) =>
         (props) =>
           insertBlock(props, {
             type: this.name,
-            attrs: { id: newBlockId(), level },
+            attrs: { id: newBlockId(), level, flags: flags ?? null },
             content: [text ? { type: 'paragraph', content: [{ type: 'text', text }] } : { type: 'paragraph' }],
           }),
     };

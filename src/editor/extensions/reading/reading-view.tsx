@@ -1,6 +1,6 @@
 import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
-import type { ReadingAttrs } from '@shared/document/schema';
+import { LIVE_READING_UNITS, type ReadingAttrs } from '@shared/document/schema';
 import { readingMeasure } from '@shared/document/upgrade';
 import { MEASURE_WORDS } from '@shared/reckoners/measures';
 import { READING_MEASURES, READING_UNITS, takesMeasure } from '@shared/reckoners/reading-units';
@@ -12,6 +12,12 @@ const MAINS_CHOICES = [
   { value: 'unset', label: 'not stated' },
   { value: 'scales', label: 'scales with the mains' },
   { value: 'fixed', label: 'fixed (does not follow the mains)' },
+] as const;
+/** Whether the reading is taken on a powered unit; unset follows the unit (see isLiveReading). */
+const LIVE_CHOICES = [
+  { value: 'unset', label: `by its unit (live for ${LIVE_READING_UNITS.join(', ')})` },
+  { value: 'live', label: 'live: on a powered unit' },
+  { value: 'cold', label: 'not live: unit switched off' },
 ] as const;
 const control = 'min-h-9 rounded border border-rule bg-card px-2 py-1 text-sm';
 
@@ -30,12 +36,13 @@ function TextInput({ label, value, onChange, mono, placeholder }: { label: strin
 export function ReadingView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
   const attrs = node.attrs as ReadingAttrs;
   const evaluation = useEvaluation();
-  const ids = { unit: useId(), measure: useId(), source: useId(), expected: useId(), mains: useId() };
+  const ids = { unit: useId(), measure: useId(), source: useId(), expected: useId(), mains: useId(), live: useId() };
   const resolved = readingResult(evaluation, attrs.id);
   const fromBlock = 'ref' in attrs.expected;
   const measure = readingMeasure(attrs);
   const outputs = numericOutputs(evaluation, { unit: attrs.unit, measure: measure ?? 'scalar' });
   const mainsChoice = attrs.followsMains == null ? 'unset' : attrs.followsMains ? 'scales' : 'fixed';
+  const liveChoice = attrs.live == null ? 'unset' : attrs.live ? 'live' : 'cold';
   const set = (patch: Partial<ReadingAttrs>) => updateAttributes(patch);
 
   return (
@@ -132,6 +139,23 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
             </select>
           </div>
         )}
+        <div className="flex flex-col gap-1">
+          <label htmlFor={ids.live} className="text-xs font-semibold">
+            Live work
+          </label>
+          <select
+            id={ids.live}
+            className={control}
+            value={liveChoice}
+            onChange={(e) => updateAttributes({ live: e.target.value === 'unset' ? null : e.target.value === 'live' })}
+          >
+            {LIVE_CHOICES.map((c) => (
+              <option key={c.value} value={c.value}>
+                {c.label}
+              </option>
+            ))}
+          </select>
+        </div>
       </div>
       <p className="mt-3 text-sm" data-reading-band aria-live="polite">
         {resolved?.bandText ? (

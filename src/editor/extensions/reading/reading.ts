@@ -30,6 +30,8 @@ export const Reading = Node.create({
       expected: jsonAttribute<ReadingAttrs['expected']>('expected', () => ({ literal: '' })),
       followsMains: jsonAttribute<ReadingAttrs['followsMains']>('follows-mains', () => null),
       tolerance: textAttribute('tolerance'),
+      // Null: live by its unit (V, A, W, Hz); true or false as the author marks it.
+      live: jsonAttribute<ReadingAttrs['live'] | null>('live', () => null),
     };
   },
 

@@ -1,6 +1,7 @@
 import type { Caution } from '@shared/reckoners';
 
-const LEVEL: Record<Caution['level'], { word: string; style: string }> = {
+/** The signal word and colours of each level: one definition for cautions and the procedure check. */
+export const LEVEL: Record<Caution['level'], { word: string; style: string }> = {
   danger: { word: 'Danger', style: 'border-hazard-ink bg-hazard text-hazard-ink' },
   warning: { word: 'Warning', style: 'border-out bg-out-wash text-graphite' },
   note: { word: 'Note', style: 'border-rule bg-paper text-graphite' },

@@ -1,35 +1,65 @@
 import type { LintWarning } from '@shared/document/lint';
+import { LEVEL } from './caution-list';
 
-/** The procedure check beside the editor: each warning jumps to its block. Warnings never stop a save. */
+const ORDER = { danger: 0, warning: 1, note: 2 } as const;
+
+function WarningList({ warnings, onSelect, label }: { warnings: LintWarning[]; onSelect: (blockId: string) => void; label: string }) {
+  const sorted = [...warnings].sort((a, b) => ORDER[a.level] - ORDER[b.level]);
+  return (
+    <ul className="mt-2 flex flex-col gap-2" data-procedure-check aria-label={label}>
+      {sorted.map((w, i) => {
+        const body = (
+          <>
+            <strong className={`mr-1 rounded border px-1 text-xs uppercase ${LEVEL[w.level].style}`}>{LEVEL[w.level].word}</strong> {w.message}
+          </>
+        );
+        return (
+          <li key={`${w.code}-${w.blockId}-${i}`} data-check-code={w.code} data-check-level={w.level}>
+            {w.blockId ? (
+              <button
+                type="button"
+                className="w-full rounded border border-rule bg-paper px-2 py-2 text-left text-sm hover:border-accent hover:bg-accent-wash"
+                onClick={() => onSelect(w.blockId!)}
+              >
+                {body} <span className="text-xs text-accent-deep underline">Go to block</span>
+              </button>
+            ) : (
+              <p className="rounded border border-rule bg-paper px-2 py-2 text-sm">{body}</p>
+            )}
+          </li>
+        );
+      })}
+    </ul>
+  );
+}
+
+/**
+ * The procedure check beside the editor: its own findings first, then the reckoners' cautions it
+ * passes on; each jumps to its block. Warnings never stop a save, and none does not mean safe.
+ */
 export function ProcedureCheckPanel({ warnings, onSelect }: { warnings: LintWarning[]; onSelect: (blockId: string) => void }) {
+  const findings = warnings.filter((w) => w.code !== 'reckoner-caution');
+  const cautions = warnings.filter((w) => w.code === 'reckoner-caution');
   return (
     <section aria-labelledby="check-title" className="rounded-lg border border-rule bg-card p-3">
       <h2 id="check-title" className="text-sm font-semibold">
         Procedure check{' '}
         <span className="value font-normal text-graphite-soft">
-          ({warnings.length} {warnings.length === 1 ? 'warning' : 'warnings'})
+          ({findings.length} {findings.length === 1 ? 'warning' : 'warnings'})
         </span>
       </h2>
-      {warnings.length === 0 ? (
+      {findings.length === 0 ? (
         <p className="mt-2 text-sm text-graphite-soft">No warnings. A reviewer still checks every value.</p>
       ) : (
-        <ul className="mt-2 flex flex-col gap-2" data-procedure-check>
-          {warnings.map((w, i) => (
-            <li key={`${w.code}-${w.blockId}-${i}`}>
-              {w.blockId ? (
-                <button
-                  type="button"
-                  className="w-full rounded border border-rule bg-paper px-2 py-2 text-left text-sm hover:border-accent hover:bg-accent-wash"
-                  onClick={() => onSelect(w.blockId!)}
-                >
-                  {w.message} <span className="text-xs text-accent-deep underline">Go to block</span>
-                </button>
-              ) : (
-                <p className="rounded border border-rule bg-paper px-2 py-2 text-sm">{w.message}</p>
-              )}
-            </li>
-          ))}
-        </ul>
+        <WarningList warnings={findings} onSelect={onSelect} label="Procedure check warnings" />
+      )}
+      {cautions.length > 0 && (
+        <details className="mt-3" open>
+          <summary className="cursor-pointer text-sm font-semibold">
+            Reckoner cautions <span className="value font-normal text-graphite-soft">({cautions.length})</span>
+          </summary>
+          <WarningList warnings={cautions} onSelect={onSelect} label="Reckoner cautions" />
+        </details>
       )}
     </section>
   );

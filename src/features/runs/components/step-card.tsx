@@ -207,7 +207,15 @@ function TickStep({ runId, step, entry, pending }: Props) {
 export function StepCard(props: Props) {
   const { step, locked, entry, pending, runId, photos } = props;
   const hazard = step.kind === 'hazard';
-  const kindLabel = hazard ? (step.hazard?.level === 'danger' ? 'Hazard note: danger' : 'Hazard note: warning') : step.kind === 'reading' ? 'Reading' : 'Check step';
+  const kindLabel = hazard
+    ? step.hazard?.level === 'danger'
+      ? 'Hazard note: danger'
+      : 'Hazard note: warning'
+    : step.kind === 'reading'
+      ? step.live
+        ? 'Reading (live)'
+        : 'Reading'
+      : (step.check?.heading ?? 'Check step');
   return (
     <article
       data-step-id={step.id}
@@ -220,6 +228,15 @@ export function StepCard(props: Props) {
         <span className="text-xs font-semibold uppercase tracking-wide text-graphite-soft">{kindLabel}</span>
         {step.section && <span className="text-xs text-graphite-soft">· {step.section}</span>}
       </header>
+      {hazard && !!step.hazard?.flags?.length && (
+        <ul className="flex flex-wrap gap-1 text-sm font-semibold" aria-label="Live-work cautions">
+          {step.hazard.flags.map((f) => (
+            <li key={f} className="rounded border-2 border-hazard-ink px-2 py-0.5">
+              {f}
+            </li>
+          ))}
+        </ul>
+      )}
       {step.kind === 'reading' && (
         <h3 id={`step-${step.id}-title`} className="text-lg font-semibold">
           {step.text}

@@ -1,7 +1,21 @@
 import type { ReactNode } from 'react';
 import type { BlockView } from '@shared/document/block-view';
 import type { Snapshot } from '@shared/document/evaluate';
-import type { CheckStepAttrs, DocNode, FileAttrs, ImageAttrs, ProcedureDoc, ReckonerAttrs } from '@shared/document/schema';
+import { checkStepHeading } from '@shared/document/extract';
+import {
+  checkKindOf,
+  HAZARD_FLAG_LABELS,
+  HAZARD_FLAGS,
+  isLiveReading,
+  type CheckStepAttrs,
+  type DocNode,
+  type FileAttrs,
+  type HazardNoteAttrs,
+  type ImageAttrs,
+  type ProcedureDoc,
+  type ReadingAttrs,
+  type ReckonerAttrs,
+} from '@shared/document/schema';
 import { attachmentUrl } from '../../api/upload-attachment';
 import { HazardBox } from './hazard-box';
 import { ReadingsTable } from './readings-table';
@@ -25,7 +39,17 @@ function renderChildren(nodes: DocNode[] | undefined, stored: Stored): ReactNode
       let j = i;
       while (j + 1 < list.length && list[j + 1]!.type === node.type) j++;
       const run = list.slice(i, j + 1);
-      out.push(node.type === 'reading' ? <ReadingsTable key={i} readings={run.map((n) => snapshot.readings.find((r) => r.id === n.attrs?.id)).filter((r) => !!r)} /> : <Checklist key={i} steps={run.map((n) => n.attrs as CheckStepAttrs)} />);
+      out.push(
+        node.type === 'reading' ? (
+          <ReadingsTable
+            key={i}
+            readings={run.map((n) => snapshot.readings.find((r) => r.id === n.attrs?.id)).filter((r) => !!r)}
+            live={new Set(run.filter((n) => isLiveReading(n.attrs as ReadingAttrs)).map((n) => String(n.attrs?.id)))}
+          />
+        ) : (
+          <Checklist key={i} steps={run.map((n) => n.attrs as CheckStepAttrs)} />
+        ),
+      );
       i = j;
       continue;
     }
@@ -41,7 +65,10 @@ function Checklist({ steps }: { steps: CheckStepAttrs[] }) {
         <li key={s.id}>
           <label className="flex min-h-11 items-start gap-3 rounded border border-rule bg-card px-3 py-2">
             <input type="checkbox" className="mt-1 size-5 shrink-0" />
-            <span>{s.text}</span>
+            <span>
+              {(checkKindOf(s) !== 'confirm' || s.live) && <strong className="block text-sm">{checkStepHeading(s)}</strong>}
+              {s.text}
+            </span>
           </label>
         </li>
       ))}
@@ -90,7 +117,11 @@ function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
     }
     case 'hazardNote':
       return (
-        <HazardBox key={key} level={a.level === 'warning' ? 'warning' : 'danger'}>
+        <HazardBox
+          key={key}
+          level={a.level === 'warning' ? 'warning' : 'danger'}
+          flags={HAZARD_FLAGS.filter((f) => (a as HazardNoteAttrs).flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f])}
+        >
           {kids()}
         </HazardBox>
       );

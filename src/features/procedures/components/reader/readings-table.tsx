@@ -1,7 +1,7 @@
 import type { ResolvedReading } from '@shared/document/evaluate';
 
-/** Consecutive readings as one table: what, where, meter range, expected band. */
-export function ReadingsTable({ readings }: { readings: ResolvedReading[] }) {
+/** Consecutive readings as one table: what, where, meter range, expected band; live ones say so. */
+export function ReadingsTable({ readings, live = new Set() }: { readings: ResolvedReading[]; live?: ReadonlySet<string> }) {
   return (
     <div className="not-prose my-4 overflow-x-auto rounded-lg border border-rule bg-card">
       <table className="readings-table w-full text-left text-sm">
@@ -18,7 +18,10 @@ export function ReadingsTable({ readings }: { readings: ResolvedReading[] }) {
         <tbody>
           {readings.map((r) => (
             <tr key={r.id} data-reading={r.id} className="border-b border-rule align-top last:border-0">
-              <td className="px-3 py-2 font-semibold">{r.label || 'Untitled reading'}</td>
+              <td className="px-3 py-2 font-semibold">
+                {r.label || 'Untitled reading'}
+                {live.has(r.id) && <span className="block text-xs font-normal text-graphite-soft">Live work: unit powered</span>}
+              </td>
               <td className="px-3 py-2">{r.testPoint}</td>
               <td className="value px-3 py-2">{r.meterRange}</td>
               <td className="px-3 py-2">
