@@ -160,4 +160,5 @@ export const loadedBplus: ReckonerDefinition<LoadedBplusInput> = {
   compute,
   cautions,
   keyOutputs: ['averageDc', 'ripplePeakToPeak', 'noLoadDc', 'peakRectifierCurrent'],
+  noLoadOutputs: ['noLoadDc'],
 };

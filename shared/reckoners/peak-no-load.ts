@@ -180,4 +180,5 @@ export const peakNoLoad: ReckonerDefinition<PeakNoLoadInput> = {
   compute,
   cautions,
   keyOutputs: ['windingVoltage', 'peakVoltage', 'noLoadDc', 'noLoadDcHigh'],
+  noLoadOutputs: ['noLoadDc', 'noLoadDcHigh'],
 };

@@ -90,6 +90,11 @@ export interface ReckonerDefinition<I> {
    * An output of a row ("stage1.resistance") matches by its last part ("resistance").
    */
   keyOutputs?: readonly string[];
+  /**
+   * Outputs giving the DC the filter reaches with no load: with nothing drawing current every filter
+   * node sits near it, so the procedure check rates every capacitor against the highest of them.
+   */
+  noLoadOutputs?: readonly string[];
 }
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any

@@ -1,22 +1,17 @@
+import { getReckoner } from '../../../reckoners/registry';
 import type { BlockSnapshot, Snapshot } from '../../evaluate';
 import type { Finding, Rule } from '../types';
 import { fieldLabel, fieldsOf, reckonerName, volts } from '../words';
 
 /**
- * Outputs that give the DC the filter reaches with no load. With nothing drawing current every
- * filter node, down the whole dropping ladder, sits near this figure, so every capacitor must be
- * rated for the highest of them.
+ * The highest no-load DC of the procedure (each reckoner's declared noLoadOutputs). With nothing
+ * drawing current every filter node, down the whole dropping ladder, sits near it.
  */
-const NO_LOAD_OUTPUTS: Record<string, readonly string[]> = {
-  'peak-no-load': ['noLoadDc', 'noLoadDcHigh'],
-  'loaded-bplus': ['noLoadDc'],
-};
-
 function highestNoLoad(snapshot: Snapshot): { volts: number; block: BlockSnapshot } | null {
   let best: { volts: number; block: BlockSnapshot } | null = null;
   for (const block of snapshot.blocks) {
     if (!block.ok) continue;
-    for (const key of NO_LOAD_OUTPUTS[block.kind] ?? []) {
+    for (const key of getReckoner(block.kind)?.noLoadOutputs ?? []) {
       const v = block.outputs[key]?.value;
       if (typeof v === 'number' && (!best || v > best.volts)) best = { volts: v, block };
     }
