@@ -46,7 +46,13 @@ describe('quantities in the editor', () => {
     await page.getByLabel('Model').fill('TC-5R');
     await page.getByLabel('Tags').fill('power supply');
     await page.getByRole('button', { name: 'Create and start writing' }).click();
-    await page.waitForURL(/\/revisions\/[0-9a-f-]+\/edit$/);
+    try {
+      await page.waitForURL(/\/revisions\/[0-9a-f-]+\/edit$/);
+    } catch {
+      // Say what the page showed instead, so a failure explains itself.
+      const said = await page.getByRole('alert').allTextContents();
+      throw new Error(`the editor did not open (${page.url()}); the page says: ${said.join(' | ') || 'nothing'}`);
+    }
     await page.getByRole('textbox', { name: 'Procedure text' }).click();
 
     await insertBlock('peak');
