@@ -53,6 +53,11 @@ export const revisions = pgTable(
       .references(() => people.id),
     /** Everyone who saved this revision: none of them may approve it. */
     editorIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
+    /**
+     * Authors and editors of every revision this one was started from (and of theirs): they count
+     * as its authors for four eyes, so nobody approves their own words by way of a returned revision.
+     */
+    provenanceIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
     lockVersion: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),

@@ -110,6 +110,8 @@ export const procedureRoutes = [
             ...derive(base.document, base.params),
             authorId: user!.id,
             editorIds: [user!.id],
+            // Whoever wrote the revision this starts from still counts as its author for four eyes.
+            provenanceIds: [...new Set([base.authorId, ...base.editorIds, ...base.provenanceIds])].filter((id) => id !== user!.id),
           })
           .returning();
         return created!;

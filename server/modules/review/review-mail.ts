@@ -2,6 +2,7 @@ import { and, arrayContains, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { people, type revisions } from '../../db/schema';
 import { composeMail, enqueueMail } from '../../mail/outbox';
+import { authorsOf } from './four-eyes';
 import { reviewPagePath } from './links';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -15,7 +16,7 @@ export async function queueReviewRequested(tx: Tx, publicUrl: string, row: Revis
     .select({ id: people.id, email: people.email, displayName: people.displayName })
     .from(people)
     .where(and(eq(people.active, true), arrayContains(people.roles, ['reviewer'])));
-  const excluded = new Set([row.authorId, ...row.editorIds]);
+  const excluded = new Set(authorsOf(row));
   const to = reviewers.filter((p) => !excluded.has(p.id));
   for (const reviewer of to) {
     await enqueueMail(tx, {

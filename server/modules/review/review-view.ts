@@ -7,7 +7,7 @@ import type { Db } from '../../db/client';
 import { people, procedures, reviewComments, revisions } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
 import { diffText } from './diff/text-diff';
-import { wroteOrEdited } from './four-eyes';
+import { countsAsAuthor } from './four-eyes';
 import { valueChanges } from './diff/value-changes';
 import { verifiedSignatures } from './signatures';
 
@@ -62,7 +62,7 @@ export async function buildReviewView(db: Db, user: SessionUser, row: RevisionRo
   const names = new Map((await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, ids))).map((p) => [p.id, p]));
   const base = await baseRevision(db, row);
   const figures = describeRevision(row.document, row.snapshot);
-  const own = wroteOrEdited(user.id, row);
+  const own = countsAsAuthor(user.id, row);
   const isReviewer = user.roles.includes('reviewer');
   const cannotDecideReason = !isReviewer
     ? 'Only reviewers approve or return revisions.'
@@ -120,7 +120,7 @@ export async function reviewQueue(db: Db, user: SessionUser): Promise<QueueItem[
       author,
       submittedAt: submitted.toISOString(),
       ageSeconds: Math.max(0, Math.round((now - submitted.getTime()) / 1000)),
-      ownWork: wroteOrEdited(user.id, r),
+      ownWork: countsAsAuthor(user.id, r),
     };
   });
 }

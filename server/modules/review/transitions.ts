@@ -14,7 +14,7 @@ import { procedures, revisions, type RevisionState } from '../../db/schema';
 import type { AppDeps } from '../../deps';
 import { conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
-import { wroteOrEdited } from './four-eyes';
+import { countsAsAuthor, wroteOrEdited } from './four-eyes';
 import { confirmSignerPassword } from './reauth';
 import { queueDecision, queueReviewRequested } from './review-mail';
 import { signRevision } from './signatures';
@@ -49,6 +49,11 @@ export function submitBlockers(snapshot: Snapshot) {
   for (const e of snapshot.errors) problems.push({ blockId: null, message: e.message });
   return problems;
 }
+
+const fourEyesRefusal = (userId: string, row: RevisionRow) =>
+  wroteOrEdited(userId, row)
+    ? `You wrote or edited revision ${row.number}; another reviewer must decide on it.`
+    : `Revision ${row.number} was started from a revision you wrote or edited; another reviewer must decide on it.`;
 
 /** Locks the procedure then the revision, in that order everywhere (no deadlocks between transitions). */
 async function lockRevision(tx: Tx, revisionId: string) {
@@ -97,13 +102,13 @@ export async function decideRevision(
 ) {
   const [before] = await deps.db.select().from(revisions).where(eq(revisions.id, revisionId));
   if (!before) throw notFound('No such revision.');
-  if (wroteOrEdited(user.id, before)) throw new HttpError(403, `You wrote or edited revision ${before.number}; another reviewer must decide on it.`);
+  if (countsAsAuthor(user.id, before)) throw new HttpError(403, fourEyesRefusal(user.id, before));
   await confirmSignerPassword(deps.db, user, input.password, req, `${before.title} r${before.number}`);
 
   const result = await deps.db.transaction(async (tx) => {
     const current = await lockRevision(tx, revisionId);
     // Re-checked under the lock: someone may have saved as an editor in between.
-    if (wroteOrEdited(user.id, current)) throw new HttpError(403, `You wrote or edited revision ${current.number}; another reviewer must decide on it.`);
+    if (countsAsAuthor(user.id, current)) throw new HttpError(403, fourEyesRefusal(user.id, current));
     const verb = decision === 'approved' ? 'approved' : 'returned';
     if (current.state !== 'in_review') throw illegal(current, `only a revision in review can be ${verb}`);
     let superseded: RevisionRow | undefined;
