@@ -102,8 +102,8 @@ describe('entries', () => {
     const parallel = await Promise.all([0, 1, 2].map(() => tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key: key2, value: '250' })));
     expect(parallel.every((p) => p.status === 200)).toBe(true);
     expect(await t.db.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, key2))).toHaveLength(1);
-    // A key reused for another step is refused.
-    expect((await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '250' })).status).toBe(409);
+    // A key reused for another step is refused (the key stands for one request).
+    expect((await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '250' })).status).toBe(422);
   });
 
   it('marks an out-of-tolerance reading out whatever the client claims; client marks are refused', async () => {

@@ -138,6 +138,8 @@ export const runEntryHistory = pgTable(
     version: integer().notNull(),
     /** The client's idempotency key: the same key twice is one entry. */
     idempotencyKey: uuid().notNull().unique(),
+    /** SHA-256 of the request the key came with: the same key with another body is refused. */
+    requestHash: text(),
     raw: text(),
     measured: doublePrecision(),
     within: boolean(),

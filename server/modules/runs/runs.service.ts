@@ -3,7 +3,8 @@ import { evaluateDocument } from '../../../shared/document/evaluate';
 import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
 import type { Db } from '../../db/client';
 import { revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
-import { conflict, notFound, badRequest } from '../../http/errors';
+import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
+import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
 import { revisionContentHash } from '../review/signed-content';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
@@ -24,7 +25,16 @@ export async function startRun(db: Db, user: SessionUser, body: StartRunBody) {
     if (body.key) {
       const [existing] = await tx.select().from(runs).where(eq(runs.startKey, body.key));
       if (existing) {
-        if (existing.revisionId !== body.revisionId || existing.unitId !== body.unitId) throw conflict('This start key was already used for another run.');
+        const same =
+          existing.revisionId === body.revisionId &&
+          existing.unitId === body.unitId &&
+          existing.params.mainsVoltage === body.mainsVoltage &&
+          existing.params.mainsFrequency === body.mainsFrequency;
+        if (!same) {
+          throw new HttpError(422, 'This start key was already used for a different run; nothing was started. Start again with a new key.', {
+            fields: [{ field: 'body.key', reason: 'already used with a different request' }],
+          });
+        }
         return { run: existing, created: false };
       }
     }
@@ -57,6 +67,10 @@ export async function startRun(db: Db, user: SessionUser, body: StartRunBody) {
   });
 }
 
+/** What an idempotency key stands for: the step and everything the body asks for. */
+const entryRequestHash = (runId: string, stepId: string, body: EntryBody) =>
+  sha256Hex(canonicalJson({ runId, stepId, value: body.value, done: body.done, note: body.note, reason: body.reason }));
+
 const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) => [e.stepId, e]));
 
 /**
@@ -68,9 +82,13 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
     const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
     if (!run) throw notFound('No such bench run.');
     const [seen] = await tx.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, body.key));
+    const requestHash = entryRequestHash(runId, stepId, body);
     if (seen) {
-      if (seen.runId !== runId || seen.stepId !== stepId) {
-        throw conflict('This idempotency key was already used for another entry; send a new key.', { fields: [{ field: 'body.key', reason: 'already used' }] });
+      // A resend is the same request; the same key with anything else would silently drop the new value.
+      if (seen.runId !== runId || seen.stepId !== stepId || (seen.requestHash !== null && seen.requestHash !== requestHash)) {
+        throw new HttpError(422, 'This idempotency key was already used for a different entry; nothing was recorded. Send the entry again with a new key.', {
+          fields: [{ field: 'body.key', reason: 'already used with a different request' }],
+        });
       }
       return { replayed: true, run };
     }
@@ -116,6 +134,7 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
       stepId,
       version: entry.version,
       idempotencyKey: body.key,
+      requestHash,
       raw: entry.raw,
       measured: entry.measured,
       within: entry.within,
