@@ -7,6 +7,7 @@ import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError } from './http/errors';
+import { inputGuard } from './http/input-guard';
 import { requestLog } from './http/request-log';
 import { mountRoutes } from './http/route';
 import { routeTable } from './routes';
@@ -50,6 +51,7 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   api.use(express.json({ limit: '2mb' }));
+  api.use(inputGuard);
   api.use(sessions.middleware);
   api.use(absoluteSessionLimit(config));
   api.use(passport.session());

@@ -3,6 +3,7 @@ import type { ZodType } from 'zod';
 import type { Role } from '../db/schema';
 import type { AppDeps } from '../deps';
 import { HttpError, problemsMessage, zodProblems, type FieldProblem } from './errors';
+import { findInputProblem } from './input-guard';
 
 /** Who may call a route. Declared once, on the route itself. */
 export type Access = 'public' | 'signed-in' | readonly Role[];
@@ -73,6 +74,8 @@ export function mountRoutes(router: Router, routes: readonly RouteDef[], deps: A
     };
     const run: RequestHandler = async (req, res) => {
       const problems: FieldProblem[] = [];
+      const badParam = findInputProblem(req.params, 'params');
+      if (badParam) throw new HttpError(400, `${badParam.field}: ${badParam.reason}`, { fields: [badParam] });
       const params = parsePart(def.params, req.params, 'params', problems);
       const query = parsePart(def.query, req.query, 'query', problems);
       const body = parsePart(def.body, req.body ?? {}, 'body', problems);

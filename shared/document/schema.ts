@@ -10,6 +10,8 @@ export const BLOCK_ID = /^[A-Za-z0-9_-]{6,40}$/;
 export const BLOCK_NAME = /^[A-Za-z_][A-Za-z0-9_-]{0,31}$/;
 export const MAX_DOC_NODES = 5_000;
 export const MAX_TEXT = 20_000;
+/** Lists in lists in quotes: deeper than this no procedure goes, and recursion must stay bounded. */
+export const MAX_DOC_DEPTH = 24;
 
 const blockId = z.string().regex(BLOCK_ID, 'must be 6–40 letters, digits, - or _');
 const shortText = (max: number) => z.string().max(max, `at most ${max} characters`);
@@ -325,8 +327,12 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
   const problems: DocProblem[] = [];
   let count = 0;
 
-  const visit = (node: unknown, path: string, parentContent: string | null) => {
+  const visit = (node: unknown, path: string, parentContent: string | null, depth = 0) => {
     if (problems.length > 50) return;
+    if (depth > MAX_DOC_DEPTH) {
+      problems.push({ path, reason: `the document is nested more than ${MAX_DOC_DEPTH} levels deep` });
+      return;
+    }
     if (++count > MAX_DOC_NODES) {
       if (count === MAX_DOC_NODES + 1) problems.push({ path, reason: `the document has more than ${MAX_DOC_NODES} nodes` });
       return;
@@ -380,7 +386,7 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
     if (n.content !== undefined) {
       if (spec.content === 'none') problems.push({ path: at('content'), reason: `a "${type}" node has no content` });
       else if (!Array.isArray(n.content)) problems.push({ path: at('content'), reason: 'must be a list' });
-      else n.content.forEach((child, i) => visit(child, at(`content.${i}`), spec.content));
+      else n.content.forEach((child, i) => visit(child, at(`content.${i}`), spec.content, depth + 1));
     }
   };
 

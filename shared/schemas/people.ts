@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ROLES } from './roles';
 import { emailSchema } from './auth';
+import { oneLine } from './text';
 
 export const roleListSchema = z
   .array(z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }))
@@ -10,14 +11,14 @@ export const roleListSchema = z
 export const inviteBody = z
   .object({
     email: emailSchema,
-    displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters'),
+    displayName: oneLine(120, { min: 1 }),
     roles: roleListSchema,
   })
   .strict();
 
 export const updatePersonBody = z
   .object({
-    displayName: z.string().trim().min(1, 'required').max(120, 'at most 120 characters').optional(),
+    displayName: oneLine(120, { min: 1 }).optional(),
     roles: roleListSchema.optional(),
     active: z.boolean().optional(),
   })

@@ -7,20 +7,16 @@ import type { ProcedureDoc } from '../document/schema';
 import type { LintWarning } from '../document/lint';
 
 import type { RevisionStateName } from './revision-states';
+import { oneLine } from './text';
 
 export { REVISION_STATE_LABELS, type RevisionStateName } from './revision-states';
 
-const tag = z
-  .string()
-  .trim()
-  .min(1, 'empty tag')
-  .max(40, 'tags are at most 40 characters')
-  .transform((t) => t.toLowerCase());
+const tag = oneLine(40, { min: 1, minMessage: 'empty tag', label: 'tags' }).transform((t) => t.toLowerCase());
 
 export const procedureMetaSchema = z.object({
-  title: z.string().trim().min(3, 'at least 3 characters').max(160, 'at most 160 characters'),
-  equipmentFamily: z.string().trim().min(1, 'required').max(80, 'at most 80 characters'),
-  equipmentModel: z.string().trim().min(1, 'required').max(80, 'at most 80 characters'),
+  title: oneLine(160, { min: 3, minMessage: 'at least 3 characters' }),
+  equipmentFamily: oneLine(80, { min: 1 }),
+  equipmentModel: oneLine(80, { min: 1 }),
   tags: z.array(tag).max(20, 'at most 20 tags').transform((t) => [...new Set(t)]),
 });
 

@@ -1,15 +1,17 @@
 import { z } from 'zod';
+import { oneLine } from './text';
 
-const text = (label: string, max: number) => z.string().trim().max(max, `${label}: at most ${max} characters`);
+const text = (label: string, max: number) => oneLine(max, { label });
+const multiLine = (label: string, max: number) => z.string().trim().max(max, `${label}: at most ${max} characters`);
 
 /** A unit on the bench, as entered by the shop. */
 export const unitBody = z
   .object({
-    model: text('model', 80).min(1, 'required'),
-    serial: text('serial', 80).min(1, 'required'),
+    model: oneLine(80, { min: 1, label: 'model' }),
+    serial: oneLine(80, { min: 1, label: 'serial' }),
     owner: text('owner', 120).default(''),
     jobNumber: text('job number', 40).default(''),
-    notes: text('notes', 4000).default(''),
+    notes: multiLine('notes', 4000).default(''),
   })
   .strict();
 export type UnitBody = z.input<typeof unitBody>;

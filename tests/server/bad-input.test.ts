@@ -26,8 +26,11 @@ async function fingerprint() {
   return out;
 }
 
+// Strings PostgreSQL or a recursive validator would choke on: NUL, other controls, text-direction overrides.
+const hostileString = fc.constantFrom('a\u0000b', '\u0000', 'x\u0007y', 'Tom\u202Egnp.exe', '\u2066x\u2069', 'line\u000Bfeed', '\u009b');
 const nearValid = fc.oneof(
   fc.anything(),
+  fc.dictionary(fc.constantFrom('title', 'email', 'displayName', 'password', 'comment', 'value', 'note', 'reason', 'serial', 'owner', 'tags'), hostileString),
   fc.dictionary(fc.constantFrom('title', 'email', 'roles', 'password', 'document', 'params', 'lockVersion', 'comment', 'value', 'measured', 'state', 'role', 'tags', 'id'), fc.anything()),
   fc.record({ lockVersion: fc.oneof(fc.integer(), fc.double(), fc.constant(Number.NaN)), document: fc.anything(), params: fc.anything() }),
   fc.constantFrom({ value: 'NaN' }, { value: 'Infinity' }, { value: '-Infinity' }, { value: '1e309' }, { measured: '1e309 V' }, { measured: '3 furlongs' }),
