@@ -7,10 +7,14 @@ import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
 import { errorHandler, HttpError } from './http/errors';
+import { hostAllowlist } from './http/host-allowlist';
 import { inputGuard } from './http/input-guard';
 import { requestLog } from './http/request-log';
 import { mountRoutes } from './http/route';
 import { routeTable } from './routes';
+
+/** Powerful browser features the app never uses, switched off for every page. */
+const PERMISSIONS_POLICY = 'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
 
 /** Builds the Express app (API + built client) without listening, so tests can drive it directly. */
 export function createApp(deps: AppDeps) {
@@ -18,6 +22,8 @@ export function createApp(deps: AppDeps) {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
+  app.use(hostAllowlist(config));
+  const overTls = config.publicUrl.startsWith('https:');
 
   app.use(
     helmet({
@@ -34,12 +40,18 @@ export function createApp(deps: AppDeps) {
           'font-src': ["'self'"],
           'connect-src': ["'self'"],
           'form-action': ["'self'"],
-          'upgrade-insecure-requests': config.publicUrl.startsWith('https:') ? [] : null,
+          'upgrade-insecure-requests': overTls ? [] : null,
         },
       },
       crossOriginEmbedderPolicy: false,
+      // Over plain http a browser ignores HSTS, and sending it there only misleads.
+      strictTransportSecurity: overTls ? { maxAge: 31_536_000, includeSubDomains: true } : false,
     }),
   );
+  app.use((_req, res, next) => {
+    res.set('Permissions-Policy', PERMISSIONS_POLICY);
+    next();
+  });
   app.use(requestLog(logger, { skip: (url) => url === '/api/health' }));
 
   const passport = createPassport(db);
@@ -50,6 +62,11 @@ export function createApp(deps: AppDeps) {
   app.locals.sessionCookieName = config.publicUrl.startsWith('https:') ? '__Host-bw.sid' : 'bw.sid';
 
   const api = express.Router();
+  // API answers carry people's names, runs and sessions: never kept by a browser or a proxy cache.
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '2mb' }));
   api.use(inputGuard);
   api.use(sessions.middleware);

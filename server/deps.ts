@@ -14,6 +14,8 @@ export interface AppConfig {
   clientDir?: string;
   /** Base URL people reach the app at, for links in invitations and mail. */
   publicUrl: string;
+  /** Host names besides the public URL's and loopback that requests may name (421 for others). */
+  allowedHosts?: string[];
   signInLimits: { perAccount: number; perAddress: number; windowMs: number };
   /** Idle and absolute session lifetimes. */
   sessionIdleMs: number;

@@ -1,3 +1,4 @@
+import './lib/zod-config';
 import '@fontsource/literata/400.css';
 import '@fontsource/literata/400-italic.css';
 import '@fontsource/literata/600.css';

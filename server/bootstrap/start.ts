@@ -35,6 +35,8 @@ const running = await startServer({
     sessionSecret: readOrCreateSecret('session'),
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
+    // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.
+    allowedHosts: (process.env.BW_ALLOWED_HOSTS ?? '').split(',').map((h) => h.trim()).filter(Boolean),
     smtp: { ...smtp, from: process.env.SMTP_FROM ?? 'Benchwright <benchwright@tallowcreek.example>' },
   },
 }).catch((err: NodeJS.ErrnoException) => {

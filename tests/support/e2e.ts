@@ -40,6 +40,13 @@ export function useBrowserApp() {
       page.on('console', (m) => {
         if (/Content.Security.Policy/i.test(m.text())) cspViolations.push(m.text().slice(0, 200));
       });
+      // The browser's own report, also for a violation the page catches (an eval probe in a try).
+      await page.exposeFunction('__bwCspViolation', (text: string) => cspViolations.push(text));
+      await page.addInitScript(() => {
+        document.addEventListener('securitypolicyviolation', (e) => {
+          (window as unknown as { __bwCspViolation: (t: string) => void }).__bwCspViolation(`${e.violatedDirective} ${e.blockedURI} at ${e.sourceFile}:${e.lineNumber}`);
+        });
+      });
       return page;
     },
     /** Signs in through the sign-in form and waits until the app has left it. */
