@@ -10,7 +10,7 @@ import { defineRoute } from '../../http/route';
 const when = z
   .string()
   .max(40)
-  .refine((s) => /^\d{4}-\d{2}-\d{2}(T[\d:.]+(Z|[+-]\d{2}:\d{2})?)?$/.test(s) && !Number.isNaN(Date.parse(s)), 'must be a date (YYYY-MM-DD) or an ISO date-time')
+  .refine((s) => /^\d{4}-\d{2}-\d{2}(T[\d:.]+(Z|[+-]\d{2}:\d{2})?)?$/.test(s) && !Number.isNaN(Date.parse(s)), { error: 'must be a date (YYYY-MM-DD) or an ISO date-time', abort: true })
   // PostgreSQL has no year 0 and the log starts long after 1970: anything outside is a typo, not a 500.
   .refine((s) => Date.parse(s) >= Date.UTC(1970, 0, 1) && Date.parse(s) < Date.UTC(10000, 0, 1), 'must be a date between 1970 and 9999');
 
