@@ -12,7 +12,7 @@ import { eachField } from '../../../shared/reckoners/field-paths';
 import { listReckoners, RECKONER_KINDS, getReckoner } from '../../../shared/reckoners/registry';
 import { runReckoner } from '../../../shared/reckoners/validate';
 import type { FieldSpec } from '../../../shared/reckoners/types';
-import { TYPICAL_INPUTS } from './typical-inputs';
+import { TYPICAL_INPUTS } from './examples';
 
 const clone = <T>(v: T): T => JSON.parse(JSON.stringify(v)) as T;
 
