@@ -8,7 +8,7 @@ import { simulateCapacitorInput, CapInputOverload } from './capacitor-input';
 import { ReckonerInputError } from './errors';
 import { defineInputs, optionalQuantity, quantity, type InputOf } from './fields';
 import { n, q, SRC } from './outputs';
-import { diodesInPath, rectifierField } from './rectifier';
+import { diodeDropField, diodesInPath, rectifierField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
@@ -51,14 +51,7 @@ const shape = {
   }),
   loadCurrent: quantity('A dc', { label: 'Load current (DC)', min: 0, max: 10, plausible: { min: 1e-4, max: 3 } }),
   rectifier: rectifierField(),
-  diodeDrop: quantity('V dc', {
-    label: 'Silicon diode forward drop',
-    default: 0.9,
-    min: 0,
-    max: 3,
-    plausible: { min: 0.3, max: 1.5 },
-    part: 'silicon-diode-drop',
-  }),
+  diodeDrop: diodeDropField(),
   valveDrop: quantity('V dc', {
     label: 'Valve rectifier fixed drop',
     default: 0,

@@ -7,7 +7,7 @@ import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
 import { defineInputs, optionalInteger, optionalQuantity, quantity, select, type InputOf } from './fields';
 import { ReckonerInputError } from './errors';
 import { b, n, q, SRC } from './outputs';
-import { diodesInPath, rectifierField } from './rectifier';
+import { diodeDropField, diodesInPath, rectifierField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
@@ -44,15 +44,7 @@ const shape = {
     help: 'Follows the measured mains of the procedure (and of each bench run). A winding scales with the mains.',
   }),
   rectifier: rectifierField(),
-  diodeDrop: quantity('V dc', {
-    label: 'Silicon diode forward drop',
-    default: 0.9,
-    min: 0,
-    max: 3,
-    plausible: { min: 0.3, max: 1.5 },
-    part: 'silicon-diode-drop',
-    help: '0.7–1.1 V per diode is usual (common practice).',
-  }),
+  diodeDrop: diodeDropField(),
   valveDrop: optionalQuantity('V dc', {
     label: 'Valve rectifier drop',
     min: 0,

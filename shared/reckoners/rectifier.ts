@@ -1,4 +1,4 @@
-import { select } from './fields';
+import { quantity, select } from './fields';
 
 export const RECTIFIER_OPTIONS = [
   { value: 'silicon-bridge', label: 'Silicon bridge (two diodes conduct)' },
@@ -13,6 +13,18 @@ export const rectifierField = () =>
     options: RECTIFIER_OPTIONS,
     default: 'silicon-bridge',
     help: 'For a centre-tapped winding, enter the voltage of one half (e.g. 300 V for 300-0-300).',
+  });
+
+/** One silicon diode's forward drop; the same part wherever a block names it. */
+export const diodeDropField = () =>
+  quantity('V dc', {
+    label: 'Silicon diode forward drop',
+    default: 0.9,
+    min: 0,
+    max: 3,
+    plausible: { min: 0.3, max: 1.5 },
+    part: 'silicon-diode-drop',
+    help: '0.7–1.1 V per diode is usual (common practice).',
   });
 
 /** Silicon diodes in the conducting path: 2 for a bridge, 1 for a centre-tap pair. */
