@@ -1,11 +1,15 @@
 // The database guards its records whoever connects (issue 14): attacks made as the application
 // role (`benchwright_app`, what the app itself connects as), and as the owner where the point is
 // that even a role allowed more cannot get past the triggers.
+import { Writable } from 'node:stream';
 import { eq, sql } from 'drizzle-orm';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { verifyAuditChain } from '../../server/audit/chain';
+import { checkAuditChain } from '../../server/audit/watch';
 import { revisions } from '../../server/db/schema';
+import { startServer } from '../../server/index';
+import { createLogger } from '../../server/logger';
 import { revisionContentHash } from '../../server/modules/review/signed-content';
 import { createTestApp, type TestApp } from '../support/test-app';
 import { inReview } from './review-support';
@@ -194,5 +198,42 @@ describe('the audit log keeps its own time and is checked (must-exist 11)', () =
     expect(new Date(at).getUTCFullYear()).not.toBe(2001);
     expect(Math.abs(new Date(at).getTime() - new Date(now).getTime())).toBeLessThan(60_000);
     expect((await verifyAuditChain(t.db)).firstBroken).toBeNull();
+  });
+
+  it('the server checks the chain at start-up and on its schedule, logging the head; a broken chain is an error', async () => {
+    let output = '';
+    const sink = new Writable({
+      write(chunk, _encoding, done) {
+        output += chunk.toString();
+        done();
+      },
+    });
+    const lines = () => output.split('\n').filter(Boolean).map((l) => JSON.parse(l) as { level: number; msg: string; head?: { seq: number; rowHash: string }; firstBroken?: { seq: number } });
+    const checks = () => lines().filter((l) => /^audit chain/.test(l.msg));
+    const running = await startServer({
+      databaseUrl: t.databaseUrl,
+      port: 0,
+      logger: createLogger('info', sink),
+      config: { sessionSecret: 'chain-watch'.padEnd(40, 'x'), uploadDir: t.uploadDir, auditCheckIntervalMs: 300 },
+    });
+    try {
+      await expect.poll(() => checks().length, { timeout: 5_000, interval: 50 }).toBeGreaterThanOrEqual(2);
+    } finally {
+      await running.close();
+    }
+    const head = await one<{ seq: number; row_hash: string }>(sql`select seq::int, row_hash from audit_log order by seq desc limit 1`);
+    const first = checks()[0]!;
+    expect(first).toMatchObject({ level: 30, msg: 'audit chain verified', head: { seq: head.seq, rowHash: head.row_hash } });
+
+    // A row edited around the triggers (only the owner can): the next check is an error naming it.
+    const victim = await one<{ id: number; seq: number }>(sql`select id, seq::int from audit_log order by seq limit 1 offset 2`);
+    await t.ownerDb.transaction(async (tx) => {
+      await tx.execute(sql`alter table audit_log disable trigger audit_log_append_only`);
+      await tx.execute(sql`update audit_log set subject = coalesce(subject, '') || '!' where id = ${victim.id}`);
+      await tx.execute(sql`alter table audit_log enable trigger audit_log_append_only`);
+    });
+    output = '';
+    await checkAuditChain(t.db, createLogger('info', sink));
+    expect(checks()).toEqual([expect.objectContaining({ level: 50, msg: 'audit chain broken', firstBroken: expect.objectContaining({ seq: victim.seq }) })]);
   });
 });
