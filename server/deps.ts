@@ -24,6 +24,8 @@ export interface AppConfig {
   uploadDir: string;
   /** Outgoing mail server; none in API-only tests (mail then waits in the outbox). */
   smtp?: SmtpSettings;
+  /** How often a running server re-checks the audit hash chain (it also checks at start); 0: at start only; default hourly. */
+  auditCheckIntervalMs?: number;
 }
 
 /** Everything a route handler may reach; built once per app. */

@@ -1,6 +1,7 @@
 import type { Server } from 'node:http';
 import type { Logger } from 'pino';
 import { createApp } from './app';
+import { DEFAULT_CHECK_INTERVAL_MS, watchAuditChain } from './audit/watch';
 import { createDb, createPool } from './db/client';
 import { defaultConfig, type AppConfig } from './deps';
 import { createLogger } from './logger';
@@ -32,6 +33,8 @@ export async function startServer(opts: {
   const search = new SearchService(db, opts.databaseUrl, logger);
   await search.start().catch((err: Error) => logger.warn({ msg: err.message }, 'search index not built yet; retrying in the background'));
   const app = createApp({ db, pool, logger, config, mailer, search });
+  // At start and then on the schedule; the head goes to the log (server/audit/watch.ts).
+  const chainWatch = watchAuditChain(db, logger, config.auditCheckIntervalMs ?? DEFAULT_CHECK_INTERVAL_MS);
 
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -61,6 +64,7 @@ export async function startServer(opts: {
       // Each step is bounded: a connection left broken by a database restart must not hold up exit.
       await settleWithin(3_000, mailer?.stop(), 'mail sender', logger);
       await settleWithin(3_000, search.stop(), 'search listener', logger);
+      await settleWithin(3_000, chainWatch.stop(), 'audit chain check', logger);
       await settleWithin(3_000, pool.end(), 'database pool', logger);
     },
   };

@@ -4,7 +4,7 @@ import { execFileSync } from 'node:child_process';
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { ensureAppRole, pgBinDir, withAdminClient } from '../bootstrap/postgres';
+import { ensureAppRole, pgBinDir, revokeTemporary, withAdminClient } from '../bootstrap/postgres';
 
 function connectionEnv(url: string) {
   const u = new URL(url);
@@ -48,8 +48,10 @@ export async function restoreBackup(opts: { file: string; adminUrl: string; data
     if (rowCount) throw new Error(`database ${database} already exists; restore into a new, empty database`);
     await c.query(`CREATE DATABASE "${database}"`);
   });
-  // The dump grants to the application role: it must exist on the target cluster first.
+  // The dump grants to the application role: it must exist on the target cluster first. A dump
+  // keeps no database privileges, so temporary tables are refused again here.
   await ensureAppRole(opts.adminUrl);
+  await revokeTemporary(opts.adminUrl, database);
   const work = mkdtempSync(path.join(tmpdir(), 'bw-restore-'));
   try {
     execFileSync('tar', ['-xf', opts.file, '-C', work]);

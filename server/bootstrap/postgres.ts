@@ -185,6 +185,17 @@ export async function ensureDatabase(adminUrl: string, name: string) {
     const { rowCount } = await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [name]);
     if (!rowCount) await c.query(`CREATE DATABASE ${ident(name)}`);
   });
+  await revokeTemporary(adminUrl, name);
+}
+
+/**
+ * No temporary tables in this database for the application role or PUBLIC: a temporary table is
+ * looked up before a real one of the same name. Database privileges are not copied by CREATE
+ * DATABASE … TEMPLATE nor kept in a dump, so this runs after each (drizzle/0014 does it once too).
+ */
+export async function revokeTemporary(adminUrl: string, name: string) {
+  await ensureAppRole(adminUrl);
+  await withAdminClient(adminUrl, (c) => c.query(`REVOKE TEMPORARY ON DATABASE ${ident(name)} FROM PUBLIC, ${APP_ROLE}`));
 }
 
 export async function recreateDatabase(adminUrl: string, name: string, template?: string) {
@@ -192,6 +203,7 @@ export async function recreateDatabase(adminUrl: string, name: string, template?
     await c.query(`DROP DATABASE IF EXISTS ${ident(name)} WITH (FORCE)`);
     await c.query(`CREATE DATABASE ${ident(name)}${template ? ` TEMPLATE ${ident(template)}` : ''}`);
   });
+  await revokeTemporary(adminUrl, name);
 }
 
 export async function dropDatabase(adminUrl: string, name: string) {

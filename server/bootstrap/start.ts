@@ -27,12 +27,17 @@ const relay = process.env.SMTP_HOST ? { host: process.env.SMTP_HOST, port: Numbe
 const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
 const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
 
+// AUDIT_CHECK_MINUTES: how often the audit chain is re-checked (default hourly; 0: at start only).
+const auditCheckMinutes = Number(process.env.AUDIT_CHECK_MINUTES ?? 60);
+if (!Number.isFinite(auditCheckMinutes) || auditCheckMinutes < 0) throw new Error(`AUDIT_CHECK_MINUTES must be a number of minutes, not "${process.env.AUDIT_CHECK_MINUTES}"`);
+
 const running = await startServer({
   databaseUrl,
   host,
   port,
   config: {
     sessionSecret: readOrCreateSecret('session'),
+    auditCheckIntervalMs: auditCheckMinutes * 60_000,
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
     // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.

@@ -5,8 +5,7 @@ import { z } from 'zod';
 import { paramsSchema } from '../../shared/document/params';
 import { procedureMetaSchema } from '../../shared/schemas/procedures';
 import { checkDocument } from '../modules/procedures/document-check';
-import { createProcedure } from '../modules/procedures/procedures.service';
-import { signRevision } from '../modules/review/signatures';
+import { createApprovedProcedure } from '../modules/review/transitions';
 import type { Db } from './client';
 import { people, procedures } from './schema';
 
@@ -49,17 +48,9 @@ export async function seedDemoProcedures(db: Db, dir: string) {
     const [reviewer] = await db.select().from(people).where(eq(people.email, p.reviewer));
     if (!reviewer?.roles.includes('reviewer')) throw new Error(`demo procedure ${p.seedKey}: ${p.reviewer} is not a reviewer`);
     if (reviewer.id === author.id) throw new Error(`demo procedure ${p.seedKey}: the reviewer must not be the author`);
-    await db.transaction(async (tx) => {
-      const { revision } = await createProcedure(tx, author.id, { ...p, document: checked.doc }, 'approved');
-      // Demo approvals carry a real reviewer signature over the stored content, so they verify.
-      await signRevision(tx, {
-        row: revision,
-        signer: reviewer,
-        role: 'reviewer',
-        meaning: 'approved',
-        comment: 'Approved for the shop’s starting library (demo content).',
-      });
-    });
+    // The way any procedure is approved: a draft, submitted, approved with a real reviewer
+    // signature over the stored content (so it verifies), in one transaction.
+    await db.transaction((tx) => createApprovedProcedure(tx, author, reviewer, { ...p, document: checked.doc }, 'Approved for the shop’s starting library (demo content).'));
     added++;
   }
   return { added, present: present.size };

@@ -112,8 +112,9 @@ class SkipRun extends Error {}
 /**
  * Writes a technician's signature on a run sheet exactly as signRun does (same checks, same
  * canonical content hash, same rows and audit entry), without the password re-entry a seeder
- * cannot give and without the out-of-tolerance mail. The time is the given one, so demo history
- * can be dated in the past; the database does not force now() on run signatures.
+ * cannot give and without the out-of-tolerance mail. The run sheet and its signature carry the
+ * given time, so demo history can be dated in the past; the audit entry carries the database's
+ * (drizzle/0015), the time it was really written.
  */
 export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, signedAt: Date) {
   const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
@@ -155,7 +156,6 @@ export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, si
     subject: `run ${runId}`,
     details: { contentHash, revisionId: run.revisionId, meaning, outOfTolerance },
     ip: null,
-    at: signedAt,
   });
   return { signature: signature!, outOfTolerance };
 }

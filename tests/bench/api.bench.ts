@@ -16,8 +16,8 @@ import { eq } from 'drizzle-orm';
 import { projectRoot, prepareDatabase } from '../../server/bootstrap/prepare';
 import { recreateDatabase, startCluster, stopCluster } from '../../server/bootstrap/postgres';
 import { createDb, createPool } from '../../server/db/client';
-import { people, revisions } from '../../server/db/schema';
-import { createProcedure } from '../../server/modules/procedures/procedures.service';
+import { revisions } from '../../server/db/schema';
+import { procedureInState } from '../support/review-path';
 import { generateCorpus } from '../support/search-corpus';
 import { httpSession } from '../support/http-session';
 import { clusterPids, cpuMeter } from './process-cpu';
@@ -38,16 +38,15 @@ let demoRevisionIds: string[] = [];
   const pool = createPool(cluster.urlFor('benchwright_bench_api'));
   const db = createDb(pool);
   demoRevisionIds = (await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.state, 'approved'))).map((r) => r.id);
-  const [author] = await db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
   const started = Date.now();
   for (const p of generateCorpus(2_000, 7)) {
-    await createProcedure(db, author!.id, {
+    await procedureInState(db, 'approved', {
       title: p.title,
       equipmentFamily: p.family,
       equipmentModel: p.model,
       tags: p.tags,
       document: { type: 'doc', content: p.body.split('\n').map((line) => ({ type: 'paragraph', content: [{ type: 'text', text: line }] })) },
-    }, 'approved');
+    });
   }
   await pool.query('ANALYZE');
   console.log(`library: 2,000 generated procedures added in ${((Date.now() - started) / 1000).toFixed(1)} s`);

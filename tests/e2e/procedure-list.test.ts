@@ -1,8 +1,6 @@
-import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool } from '../../server/db/client';
-import { people } from '../../server/db/schema';
-import { createProcedure } from '../../server/modules/procedures/procedures.service';
+import { procedureInState, textDoc } from '../support/review-path';
 import { useBrowserApp } from '../support/e2e';
 
 const app = useBrowserApp();
@@ -11,9 +9,9 @@ const ADDED = 60;
 beforeAll(async () => {
   const pool = createPool(app.databaseUrl);
   const db = createDb(pool);
-  const [hal] = await db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
   for (let i = 0; i < ADDED; i++) {
-    await createProcedure(db, hal!.id, { title: `Pager check ${String(i).padStart(2, '0')}`, equipmentFamily: 'Organ', equipmentModel: `PG-${i}`, tags: ['pager'] }, 'approved');
+    const title = `Pager check ${String(i).padStart(2, '0')}`;
+    await procedureInState(db, 'approved', { title, equipmentFamily: 'Organ', equipmentModel: `PG-${i}`, tags: ['pager'], document: textDoc(`${title}: one page of the list.`) });
   }
   await pool.end();
 });

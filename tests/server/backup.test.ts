@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { sql } from 'drizzle-orm';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
@@ -85,6 +86,16 @@ describe('backup and restore', () => {
       const chain = await verifyAuditChain(restoredDb);
       expect(chain.firstBroken).toBeNull();
       expect(chain.checked).toBeGreaterThan(0);
+      // The functions keep their pinned search_path, and the new database refuses the app role
+      // temporary tables (database privileges are not in a dump; the restore revokes them).
+      const { rows: unpinned } = await restoredDb.execute(sql`
+        select p.proname from pg_proc p join pg_namespace n on n.oid = p.pronamespace
+        where n.nspname = 'public' and not coalesce('search_path=pg_catalog, public, pg_temp' = any(p.proconfig), false)`);
+      expect(unpinned).toEqual([]);
+      const { rows: temp } = await restoredDb.execute<{ app: boolean; everyone: boolean }>(sql`
+        select has_database_privilege('benchwright_app', current_database(), 'TEMP') as app,
+               has_database_privilege('public', current_database(), 'TEMP') as everyone`);
+      expect(temp[0]).toEqual({ app: false, everyone: false });
     } finally {
       await restoredPool.end();
     }

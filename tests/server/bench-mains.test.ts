@@ -5,10 +5,10 @@
  * Winding scaling [derived: V × V_mains,actual ÷ V_mains,nominal; docs/references.md §2].
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createProcedure } from '../../server/modules/procedures/procedures.service';
+import { procedureInState } from '../support/review-path';
 import type { ProcedureDoc } from '../../shared/document/schema';
 import { createTestApp, type TestApp } from '../support/test-app';
-import { entry, newUnit, personId, startRun } from './runs-fixtures';
+import { entry, newUnit, startRun } from './runs-fixtures';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -44,12 +44,14 @@ const doc: ProcedureDoc = {
 };
 
 async function approved() {
-  const { revision } = await createProcedure(
-    t.db,
-    await personId(t, 'hal'),
-    { title: 'Menu-inserted block', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [], params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, document: structuredClone(doc) },
-    'approved',
-  );
+  const { revision } = await procedureInState(t.db, 'approved', {
+    title: 'Menu-inserted block',
+    equipmentFamily: 'Guitar amplifier',
+    equipmentModel: 'TC-18',
+    tags: [],
+    params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+    document: structuredClone(doc),
+  });
   return revision;
 }
 

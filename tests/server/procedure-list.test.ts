@@ -1,8 +1,8 @@
 import { eq } from 'drizzle-orm';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { people, procedureListing, revisions } from '../../server/db/schema';
-import { createProcedure } from '../../server/modules/procedures/procedures.service';
+import { procedureListing, revisions } from '../../server/db/schema';
+import { procedureInState, textDoc } from '../support/review-path';
 import { createTestApp, type TestApp } from '../support/test-app';
 import { approve, goodDoc, inReview, newDraft, params } from './review-support';
 
@@ -10,15 +10,16 @@ let t: TestApp;
 const GENERATED = 37;
 beforeAll(async () => {
   t = await createTestApp();
-  const [hal] = await t.db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
   // A library bigger than one page: approved procedures over three families, tagged by number.
   for (let i = 0; i < GENERATED; i++) {
-    await createProcedure(
-      t.db,
-      hal!.id,
-      { title: `Listing check ${String(i).padStart(2, '0')}`, equipmentFamily: ['Hi-fi amplifier', 'Organ', 'Radio'][i % 3]!, equipmentModel: `LC-${i}`, tags: [i % 2 ? 'odd' : 'even'] },
-      'approved',
-    );
+    const title = `Listing check ${String(i).padStart(2, '0')}`;
+    await procedureInState(t.db, 'approved', {
+      title,
+      equipmentFamily: ['Hi-fi amplifier', 'Organ', 'Radio'][i % 3]!,
+      equipmentModel: `LC-${i}`,
+      tags: [i % 2 ? 'odd' : 'even'],
+      document: textDoc(`${title}: measure the HT at the reservoir.`),
+    });
   }
 });
 afterAll(() => t.close());
@@ -129,8 +130,7 @@ describe('the procedure list, paged on the server', () => {
   });
 
   it('two transactions changing one procedure at once leave the listing as the database ends up', async () => {
-    const [hal] = await t.db.select().from(people).where(eq(people.email, 'hal@tallowcreek.example'));
-    const { procedure, revision: first } = await createProcedure(t.db, hal!.id, { title: 'Listing race', equipmentFamily: 'Organ', equipmentModel: 'LR-1', tags: [] }, 'approved');
+    const { procedure, revision: first } = await procedureInState(t.db, 'approved', { title: 'Listing race', equipmentFamily: 'Organ', equipmentModel: 'LR-1', tags: [], document: textDoc('Race the listing.') });
     const c = await t.as('hal');
     const next = (await c.post(`/api/procedures/${procedure.id}/drafts`).send({})).body.revision as { id: string };
     const withdrawer = new pg.Client({ connectionString: t.databaseUrl });

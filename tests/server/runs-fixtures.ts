@@ -2,8 +2,8 @@
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { people } from '../../server/db/schema';
-import { createProcedure } from '../../server/modules/procedures/procedures.service';
 import type { RevisionState } from '../../server/db/schema';
+import { procedureInState } from '../support/review-path';
 import type { TestApp } from '../support/test-app';
 import type { ProcedureDoc } from '../../shared/document/schema';
 
@@ -49,14 +49,16 @@ export async function personId(t: TestApp, who: string) {
   return row!.id;
 }
 
-/** An approved (or other-state) revision by hal, created directly as demo content is. */
+/** An approved (or other-state) revision by hal, taken there as demo content is (approved by marek). */
 export async function benchProcedure(t: TestApp, state: RevisionState = 'approved', title = 'TC-18 HT winding check') {
-  const { revision } = await createProcedure(
-    t.db,
-    await personId(t, 'hal'),
-    { title, equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: ['ht'], params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, document: structuredClone(benchDoc) },
-    state,
-  );
+  const { revision } = await procedureInState(t.db, state, {
+    title,
+    equipmentFamily: 'Guitar amplifier',
+    equipmentModel: 'TC-18',
+    tags: ['ht'],
+    params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+    document: structuredClone(benchDoc),
+  });
   return revision;
 }
 

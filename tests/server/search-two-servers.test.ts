@@ -1,10 +1,11 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
-import { eq, sql } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/bootstrap/prepare';
 import { revisions } from '../../server/db/schema';
 import { httpSession } from '../support/http-session';
+import { approveRevision } from '../support/review-path';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
 
 // Server A runs in this process; server B is a separate Node process on the same database.
@@ -52,10 +53,7 @@ describe('two server processes on one database', () => {
     expect((await onB.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
     expect((await onB.get('/api/search?q=gribbleton')).body.total).toBe(0);
 
-    await a.db.transaction(async (tx) => {
-      await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${rev.id}`);
-      await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${rev.id}`);
-    });
+    await approveRevision(a.db, rev.id);
     const approvedAt = Date.now();
     let total = 0;
     while (Date.now() - approvedAt < 1_000 && total === 0) {

@@ -1,6 +1,7 @@
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { procedures, revisions } from '../../server/db/schema';
+import { approveRevision } from '../support/review-path';
 import { createTestApp, type TestApp } from '../support/test-app';
 
 let t: TestApp;
@@ -24,16 +25,13 @@ async function draftWith(lines: string[]) {
 }
 
 /**
- * Approves directly in SQL, through the states the database allows (the signed review flow is
+ * Submits and approves without passwords, by the same steps as the API (the signed review flow is
  * tested in the review tests); the state-change trigger notifies search at commit.
  */
 async function approve(revisionId: string) {
   const procedureId = (await t.db.select().from(revisions).where(eq(revisions.id, revisionId)))[0]!.procedureId;
   const refreshed = t.search!.nextRefreshOf(procedureId);
-  await t.db.transaction(async (tx) => {
-    await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${revisionId}`);
-    await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${revisionId}`);
-  });
+  await approveRevision(t.db, revisionId);
   expect(await refreshed).toBe(true);
   // The draft's own notification (at its INSERT) may be the one that arrived: wait for the approval's.
   for (let i = 0; i < 10 && !t.search!.index.has(procedureId); i++) await t.search!.nextRefreshOf(procedureId, 500);
@@ -70,11 +68,7 @@ describe('search over approved procedures', () => {
     const rev2 = draft.body.revision;
     await hal.put(`/api/revisions/${rev2.id}`).send({ ...meta, params, lockVersion: rev2.lockVersion, document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] } });
     const refreshed = t.search!.nextRefreshOf(procedureId);
-    await t.db.transaction(async (tx) => {
-      await tx.update(revisions).set({ state: 'superseded' }).where(eq(revisions.id, revisionId));
-      await tx.update(revisions).set({ state: 'in_review' }).where(eq(revisions.id, rev2.id));
-      await tx.update(revisions).set({ state: 'approved' }).where(eq(revisions.id, rev2.id));
-    });
+    await approveRevision(t.db, rev2.id); // supersedes revision 1 in the same transaction
     await refreshed;
     await new Promise((r) => setTimeout(r, 200)); // the second notification of the same commit
     expect((await search('zorbulating')).total).toBe(0);
@@ -119,10 +113,7 @@ describe('search over approved procedures', () => {
     const { revisionId } = await draftWith(['The wobbleflux reading drifts when the chassis warms.']);
     // Cut the index's LISTEN connection, then approve while it is away.
     await t.db.execute(sql`select pg_terminate_backend(pid) from pg_stat_activity where datname = current_database() and query ilike 'LISTEN%'`);
-    await t.db.transaction(async (tx) => {
-      await tx.execute(sql`update ${revisions} set state = 'in_review' where ${revisions.id} = ${revisionId}`);
-      await tx.execute(sql`update ${revisions} set state = 'approved' where ${revisions.id} = ${revisionId}`);
-    });
+    await approveRevision(t.db, revisionId);
     let total = 0;
     for (let i = 0; i < 50 && !total; i++) {
       await new Promise((r) => setTimeout(r, 100));

@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { inject } from 'vitest';
-import { dropDatabase, withAdminClient } from '../../server/bootstrap/postgres';
+import { dropDatabase, revokeTemporary, withAdminClient } from '../../server/bootstrap/postgres';
 
 /**
  * A private copy of the migrated, seeded template database for one test file: `url` connects as
@@ -19,5 +19,7 @@ export async function createTestDatabase() {
       await new Promise((r) => setTimeout(r, 150 + Math.random() * 300));
     }
   }
+  // A clone does not inherit the template's database privileges.
+  await revokeTemporary(adminUrl, name);
   return { name, url: appUrlPrefix + name, ownerUrl: urlPrefix + name, drop: () => dropDatabase(adminUrl, name) };
 }

@@ -63,6 +63,11 @@ export const revisions = pgTable(
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     submittedAt: timestamp({ withTimezone: true }),
     decidedAt: timestamp({ withTimezone: true }),
+    /**
+     * SHA-256 of the signed content (review/signed-content.ts), recorded in the UPDATE that approves
+     * it; at commit the database wants the reviewer's signature over the same hash (drizzle/0015).
+     */
+    contentHash: text(),
   },
   (t) => [
     uniqueIndex('revisions_procedure_number_uq').on(t.procedureId, t.number),

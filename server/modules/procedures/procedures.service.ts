@@ -84,8 +84,11 @@ export interface NewProcedure {
   seedKey?: string;
 }
 
-/** Creates a procedure with revision 1 as a draft (or in the given state, for demo content). */
-export async function createProcedure(db: Db | Tx, authorId: string, input: NewProcedure, state: RevisionState = 'draft') {
+/**
+ * Creates a procedure with revision 1 as a draft; the database refuses any other first state.
+ * Demo content and tests that need it approved use createApprovedProcedure (review/transitions.ts).
+ */
+export async function createProcedure(db: Db | Tx, authorId: string, input: NewProcedure) {
   const params = input.params ?? defaultParams();
   const document = input.document ?? emptyDoc();
   const [procedure] = await db
@@ -97,7 +100,7 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
     .values({
       procedureId: procedure!.id,
       number: 1,
-      state,
+      state: 'draft',
       title: input.title,
       equipmentFamily: input.equipmentFamily,
       equipmentModel: input.equipmentModel,
@@ -107,7 +110,6 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
       ...derive(document, params),
       authorId,
       editorIds: [authorId],
-      decidedAt: state === 'approved' ? new Date() : null,
     })
     .returning();
   return { procedure: procedure!, revision: revision! };
