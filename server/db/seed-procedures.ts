@@ -7,6 +7,7 @@ import { procedureMetaSchema } from '../../shared/schemas/procedures';
 import { checkDocument } from '../modules/procedures/document-check';
 import { createProcedure } from '../modules/procedures/procedures.service';
 import { signRevision } from '../modules/review/signatures';
+import { NO_FILES } from '../storage/files';
 import type { Db } from './client';
 import { people, procedures } from './schema';
 
@@ -52,7 +53,8 @@ export async function seedDemoProcedures(db: Db, dir: string) {
     await db.transaction(async (tx) => {
       const { revision } = await createProcedure(tx, author.id, { ...p, document: checked.doc }, 'approved');
       // Demo approvals carry a real reviewer signature over the stored content, so they verify.
-      await signRevision(tx, {
+      // Demo documents attach no files.
+      await signRevision(tx, NO_FILES, {
         row: revision,
         signer: reviewer,
         role: 'reviewer',

@@ -123,7 +123,7 @@ export async function decideRevision(
     if (!updated) throw illegal(current, `only a revision in review can be ${verb}`);
     const subject = `${updated.title} r${updated.number}`;
     const reauthAuditId = await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: user.id, subject, details: { revisionId, meaning: decision }, req });
-    const signature = await signRevision(tx, {
+    const signature = await signRevision(tx, deps.files, {
       row: updated,
       signer: user,
       role: 'reviewer',
@@ -183,7 +183,7 @@ export async function withdrawProcedure(deps: AppDeps, user: SessionUser, proced
     const subject = `${updated.title} r${updated.number}`;
     const reauthAuditId = await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: user.id, subject, details: { revisionId: updated.id, meaning: 'withdrawn' }, req });
     const role = user.roles.includes('reviewer') ? 'reviewer' : 'admin';
-    const signature = await signRevision(tx, {
+    const signature = await signRevision(tx, deps.files, {
       row: updated,
       signer: user,
       role,
