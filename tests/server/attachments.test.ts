@@ -129,11 +129,14 @@ describe('image dimensions', () => {
     const jpeg = await upload(hal, jpegHeaderOf(9000, 20), 'wide.jpg');
     expect(jpeg.status).toBe(400);
     expect(jpeg.body.fields[0]).toMatchObject({ field: 'body.file', reason: expect.stringMatching(/9000 × 20 px/) });
+    expect((await upload(hal, jpegHeaderOf(20, 8001, 'progressive'), 'tall.jpg')).body.fields[0].reason).toMatch(/20 × 8001 px/);
     expect((await upload(hal, jpegHeaderOf(640, 480), 'ok.jpg')).status).toBe(201);
-    const webp = await upload(hal, webpHeaderOf(12000, 1), 'wide.webp');
-    expect(webp.status).toBe(400);
-    expect(webp.body.fields[0].reason).toMatch(/12000 × 1 px/);
-    expect((await upload(hal, webpHeaderOf(800, 600), 'ok.webp')).status).toBe(201);
+    for (const chunk of ['VP8X', 'VP8L', 'VP8 '] as const) {
+      const wide = await upload(hal, webpHeaderOf(12000, 3, chunk), 'wide.webp');
+      expect(wide.status, chunk).toBe(400);
+      expect(wide.body.fields[0].reason, chunk).toMatch(/12000 × 3 px/);
+      expect((await upload(hal, webpHeaderOf(800, 600, chunk), 'ok.webp')).status, chunk).toBe(201);
+    }
   });
 
   it('applies the same limit and name rules to run photos', async () => {

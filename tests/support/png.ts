@@ -44,29 +44,43 @@ export function pngOf(width: number, height: number, shade = 200) {
 export const tinyPng = () => pngOf(1, 1);
 
 /**
- * The header of a baseline JPEG of width × height (ITU-T T.81 Annex B: SOI, a JFIF APP0 segment,
- * SOF0 with sample precision, number of lines (height) and samples per line (width) as 2-byte
- * big-endian, EOI). Enough for type and size to be read from it; it decodes to nothing.
+ * The header of a JPEG of width × height (ITU-T T.81 Annex B: SOI, a JFIF APP0 segment, a DQT
+ * segment, then the frame header SOF0 (baseline) or SOF2 (progressive) with sample precision, number
+ * of lines (height) and samples per line (width) as 2-byte big-endian, after two fill bytes (§B.1.1.2);
+ * EOI). Enough for type and size to be read from it; it decodes to nothing.
  */
-export function jpegHeaderOf(width: number, height: number) {
+export function jpegHeaderOf(width: number, height: number, frame: 'baseline' | 'progressive' = 'baseline') {
   const app0 = Buffer.from([0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00, 0x00]);
-  const sof0 = Buffer.from([0xff, 0xc0, 0x00, 0x11, 8, height >> 8, height & 0xff, width >> 8, width & 0xff, 3, 1, 0x22, 0, 2, 0x11, 1, 3, 0x11, 1]);
-  return Buffer.concat([Buffer.from([0xff, 0xd8]), app0, sof0, Buffer.from([0xff, 0xd9])]);
+  const dqt = Buffer.concat([Buffer.from([0xff, 0xdb, 0x00, 0x43, 0x00]), Buffer.alloc(64, 1)]);
+  const sof = Buffer.from([0xff, 0xff, 0xff, frame === 'baseline' ? 0xc0 : 0xc2, 0x00, 0x11, 8, height >> 8, height & 0xff, width >> 8, width & 0xff, 3, 1, 0x22, 0, 2, 0x11, 1, 3, 0x11, 1]);
+  return Buffer.concat([Buffer.from([0xff, 0xd8]), app0, dqt, sof, Buffer.from([0xff, 0xd9])]);
 }
 
 /**
- * The header of an extended WebP of width × height (RIFF container, RFC 9649 §2.7: a VP8X chunk
- * whose canvas width and height are stored minus one in 24-bit little-endian fields).
+ * The header of a WebP of width × height in a RIFF container (RFC 9649): extended (VP8X, §2.7:
+ * canvas width and height minus one, 24-bit little-endian), lossless (VP8L, §3.2.1: signature 0x2f,
+ * then 14 bits width minus one, 14 bits height minus one) or lossy (VP8, RFC 6386 §9.1: frame tag,
+ * start code 9d 01 2a, 14-bit width and height).
  */
-export function webpHeaderOf(width: number, height: number) {
-  const vp8x = Buffer.alloc(18);
-  vp8x.write('VP8X', 0, 'ascii');
-  vp8x.writeUInt32LE(10, 4);
-  vp8x.writeUIntLE(width - 1, 12, 3);
-  vp8x.writeUIntLE(height - 1, 15, 3);
+export function webpHeaderOf(width: number, height: number, chunk: 'VP8X' | 'VP8L' | 'VP8 ' = 'VP8X') {
+  const data = Buffer.alloc(10);
+  if (chunk === 'VP8X') {
+    data.writeUIntLE(width - 1, 4, 3);
+    data.writeUIntLE(height - 1, 7, 3);
+  } else if (chunk === 'VP8L') {
+    data[0] = 0x2f;
+    data.writeUInt32LE(((width - 1) | ((height - 1) << 14)) >>> 0, 1);
+  } else {
+    data.set([0x50, 0x01, 0x00, 0x9d, 0x01, 0x2a], 0); // key frame tag, start code
+    data.writeUInt16LE(width, 6);
+    data.writeUInt16LE(height, 8);
+  }
+  const head = Buffer.alloc(8);
+  head.write(chunk, 0, 'ascii');
+  head.writeUInt32LE(data.length, 4);
   const riff = Buffer.alloc(12);
   riff.write('RIFF', 0, 'ascii');
-  riff.writeUInt32LE(4 + vp8x.length, 4);
+  riff.writeUInt32LE(4 + head.length + data.length, 4);
   riff.write('WEBP', 8, 'ascii');
-  return Buffer.concat([riff, vp8x]);
+  return Buffer.concat([riff, head, data]);
 }
