@@ -6,6 +6,7 @@ import { csrfProtection } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
+import { fileStore } from './storage/files';
 import { errorHandler, HttpError } from './http/errors';
 import { hostAllowlist } from './http/host-allowlist';
 import { inputGuard } from './http/input-guard';
@@ -17,7 +18,8 @@ import { routeTable } from './routes';
 const PERMISSIONS_POLICY = 'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
 
 /** Builds the Express app (API + built client) without listening, so tests can drive it directly. */
-export function createApp(deps: AppDeps) {
+export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 'files'>>) {
+  const deps: AppDeps = { ...given, files: given.files ?? fileStore(given.config.uploadDir) };
   const { config, pool, db, logger } = deps;
   const app = express();
   app.disable('x-powered-by');

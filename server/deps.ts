@@ -5,6 +5,7 @@ import type { Logger } from 'pino';
 import type { Db } from './db/client';
 import type { MailSender, SmtpSettings } from './mail/sender';
 import type { SearchService } from './search/search-service';
+import type { FileStore } from './storage/files';
 
 export interface AppConfig {
   sessionSecret: string;
@@ -38,6 +39,8 @@ export interface AppDeps {
   mailer?: MailSender;
   /** The in-process search index, kept current by NOTIFY from PostgreSQL. */
   search?: SearchService;
+  /** Uploaded bytes, kept under their SHA-256 (by default in config.uploadDir). */
+  files: FileStore;
 }
 
 export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>): AppConfig => ({

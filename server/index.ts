@@ -7,6 +7,7 @@ import { defaultConfig, type AppConfig } from './deps';
 import { createLogger } from './logger';
 import { MailSender } from './mail/sender';
 import { SearchService } from './search/search-service';
+import { upgradeLegacyFiles } from './storage/files';
 
 export interface RunningServer {
   server: Server;
@@ -28,6 +29,8 @@ export async function startServer(opts: {
   const db = createDb(pool);
   const host = opts.host ?? '127.0.0.1';
   const config = defaultConfig({ publicUrl: `http://${host}:${opts.port}`, ...opts.config });
+  const moved = await upgradeLegacyFiles(config.uploadDir);
+  if (moved) logger.info({ moved }, 'uploaded files moved to their SHA-256 names');
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   mailer?.start();
   const search = new SearchService(db, opts.databaseUrl, logger);

@@ -5,6 +5,7 @@ import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync } from 
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { ensureAppRole, pgBinDir, revokeTemporary, withAdminClient } from '../bootstrap/postgres';
+import { upgradeLegacyFiles } from '../storage/files';
 
 function connectionEnv(url: string) {
   const u = new URL(url);
@@ -25,7 +26,8 @@ export function createBackup(opts: { databaseUrl: string; uploadDir: string; out
   try {
     execFileSync(path.join(pgBinDir(), 'pg_dump'), ['-Fc', '--no-owner', '-f', path.join(work, 'database.dump')], { env: connectionEnv(opts.databaseUrl) });
     mkdirSync(path.join(work, 'uploads'));
-    if (existsSync(opts.uploadDir)) cpSync(opts.uploadDir, path.join(work, 'uploads'), { recursive: true });
+    // Files still being written (server/storage) are left out; they have no row yet.
+    if (existsSync(opts.uploadDir)) cpSync(opts.uploadDir, path.join(work, 'uploads'), { recursive: true, filter: (src) => !path.basename(src).startsWith('.incoming-') });
     mkdirSync(opts.outDir, { recursive: true });
     const file = path.join(opts.outDir, `benchwright-${stamp}.tar`);
     execFileSync('tar', ['-cf', file, '-C', work, 'database.dump', 'uploads']);
@@ -58,6 +60,8 @@ export async function restoreBackup(opts: { file: string; adminUrl: string; data
     execFileSync(path.join(pgBinDir(), 'pg_restore'), ['--no-owner', '--exit-on-error', '-d', database, path.join(work, 'database.dump')], { env: connectionEnv(opts.databaseUrl) });
     mkdirSync(opts.uploadDir, { recursive: true });
     cpSync(path.join(work, 'uploads'), opts.uploadDir, { recursive: true });
+    // An archive from before content addressing: its files move to their SHA-256 names.
+    await upgradeLegacyFiles(opts.uploadDir);
   } finally {
     rmSync(work, { recursive: true, force: true });
   }

@@ -6,6 +6,7 @@ import { paramsSchema } from '../../shared/document/params';
 import { procedureMetaSchema } from '../../shared/schemas/procedures';
 import { checkDocument } from '../modules/procedures/document-check';
 import { createApprovedProcedure } from '../modules/review/transitions';
+import { NO_FILES } from '../storage/files';
 import type { Db } from './client';
 import { people, procedures } from './schema';
 
@@ -50,7 +51,7 @@ export async function seedDemoProcedures(db: Db, dir: string) {
     if (reviewer.id === author.id) throw new Error(`demo procedure ${p.seedKey}: the reviewer must not be the author`);
     // The way any procedure is approved: a draft, submitted, approved with a real reviewer
     // signature over the stored content (so it verifies), in one transaction.
-    await db.transaction((tx) => createApprovedProcedure(tx, author, reviewer, { ...p, document: checked.doc }, 'Approved for the shop’s starting library (demo content).'));
+    await db.transaction((tx) => createApprovedProcedure(tx, NO_FILES, author, reviewer, { ...p, document: checked.doc }, 'Approved for the shop’s starting library (demo content).'));
     added++;
   }
   return { added, present: present.size };

@@ -10,6 +10,7 @@ import { runContentHash } from '../modules/runs/run-hash';
 import { isFinished } from '../modules/runs/run-steps';
 import { runContent, unitRecordOf } from '../modules/runs/run-view';
 import { recordEntry, startRun, type Tx } from '../modules/runs/runs.service';
+import { NO_FILES } from '../storage/files';
 import type { Db } from './client';
 import { auditLog, people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
 
@@ -124,10 +125,10 @@ export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, si
   const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
   if (unfinished.length) throw new Error(`run ${runId}: ${unfinished.length} steps are not finished (${unfinished.map((s) => s.id).join(', ')})`);
   const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-  if ((await revisionContentHash(tx, revision!)) !== run.revisionHash) throw new Error(`run ${runId}: its revision changed since the run started`);
+  if ((await revisionContentHash(tx, NO_FILES, revision!)) !== run.revisionHash) throw new Error(`run ${runId}: its revision changed since the run started`);
   const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
   const unitRecord = unitRecordOf(unit!);
-  const contentHash = runContentHash(await runContent(tx, run, unitRecord));
+  const contentHash = runContentHash(await runContent(tx, NO_FILES, run, unitRecord));
   const outOfTolerance = entries.some((e) => e.within === false);
   const meaning = 'performed' as const;
   const [signature] = await tx
@@ -181,7 +182,8 @@ async function seedOneRun(db: Db, r: SeedRun) {
   const body = startRunBody.parse({ revisionId: revision.id, unitId: unit.id, mainsVoltage: r.mains.voltage, mainsFrequency: r.mains.frequency, key: demoUuid(`run ${r.key}`) });
   await db.transaction(async (tx) => {
     const asDb = tx as unknown as Db;
-    const { run, created } = await startRun(asDb, tech, body);
+    // Demo revisions attach no files and demo runs take no photos.
+    const { run, created } = await startRun(asDb, NO_FILES, tech, body);
     if (!created) throw new SkipRun('already started');
     const last = r.through ? run.steps.findIndex((s) => s.id === r.through) : run.steps.length - 1;
     if (last < 0) throw new SkipRun(`revision ${revision.number} of ${r.procedure} has no step ${r.through}`);

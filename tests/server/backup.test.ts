@@ -1,19 +1,24 @@
 import { createHash } from 'node:crypto';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { sql } from 'drizzle-orm';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
+import { checkRecords, describeCheck } from '../../server/backup/check';
 import { PORTS, projectRoot, testClusterName } from '../../server/bootstrap/prepare';
 import { dropDatabase, startCluster, stopCluster, type Cluster } from '../../server/bootstrap/postgres';
 import { createDb, createPool } from '../../server/db/client';
-import { signatures } from '../../server/db/schema';
+import { attachments, people, signatures } from '../../server/db/schema';
 import { verifySignature } from '../../server/modules/review/signatures';
 import { verifyAuditChain } from '../../server/audit/chain';
-import { tinyPng } from '../support/png';
+import { fileStore } from '../../server/storage/files';
+import { pngOf } from '../support/png';
 import { createTestApp, type TestApp } from '../support/test-app';
+import { approve, doc, fuseBlock, inReview, paragraph, reading } from './review-support';
+
+const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 
 let t: TestApp;
 let fresh: Cluster;
@@ -47,11 +52,23 @@ async function fingerprint(url: string) {
   }
 }
 
+const imageDoc = (attachmentId: string) =>
+  doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), { type: 'image', attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' } });
+
 describe('backup and restore', () => {
   it('restores into a fresh cluster with the same rows in every table, every signature verifying and every upload intact', async () => {
     const hal = await t.as('hal');
-    const up = await hal.post('/api/attachments').attach('file', tinyPng(), { filename: 'reservoir.png', contentType: 'image/png' });
+    const image = pngOf(7, 3, 42);
+    const up = await hal.post('/api/attachments').attach('file', image, { filename: 'reservoir.png', contentType: 'image/png' });
     expect(up.status).toBe(201);
+    // An approved revision showing the image: its sign-off covers the file's bytes.
+    const { revision } = await inReview(t, 'hal', imageDoc(up.body.attachment.id));
+    expect((await approve(await t.as('marek'), revision.id, 'marek')).status).toBe(200);
+    // A file kept under the older random name (as archives made before content addressing hold them).
+    const legacy = pngOf(2, 9, 17);
+    writeFileSync(path.join(t.uploadDir, 'a'.repeat(32)), legacy);
+    const [person] = await t.db.select({ id: people.id }).from(people).limit(1);
+    await t.db.insert(attachments).values({ originalName: 'old.png', mediaType: 'image/png', size: legacy.length, sha256: sha256(legacy), uploadedBy: person!.id });
 
     const file = createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
     expect(path.basename(file)).toMatch(/^benchwright-\d{4}-\d{2}-\d{2}T.*\.tar$/);
@@ -64,24 +81,30 @@ describe('backup and restore', () => {
     expect(Object.keys(after).length).toBeGreaterThan(5);
     expect(after).toEqual(before);
 
-    // Every stored file is there with the hash recorded at upload.
+    // Every stored file is there under the hash recorded at upload, the older one moved to its hash.
     const c = new pg.Client({ connectionString: restoredUrl });
     await c.connect();
-    const rows = (await c.query('select stored_name, sha256 from attachments')).rows as { stored_name: string; sha256: string }[];
+    const rows = (await c.query('select sha256 from attachments')).rows as { sha256: string }[];
     await c.end();
-    expect(rows.length).toBeGreaterThan(0);
-    for (const r of rows) {
-      const bytes = readFileSync(path.join(restoredUploads, r.stored_name));
-      expect(createHash('sha256').update(bytes).digest('hex')).toBe(r.sha256);
-    }
+    expect(rows.length).toBeGreaterThan(1);
+    for (const r of rows) expect(sha256(readFileSync(path.join(restoredUploads, r.sha256)))).toBe(r.sha256);
+    expect(readdirSync(restoredUploads).filter((n) => /^[0-9a-f]{32}$/.test(n))).toEqual([]);
 
-    // Every reviewer signature recomputes to its content hash in the restored database.
     const restoredPool = createPool(restoredUrl);
     try {
       const restoredDb = createDb(restoredPool);
+      const restoredFiles = fileStore(restoredUploads);
+      // Every reviewer signature recomputes to its content hash in the restored database.
       const sigs = await restoredDb.select().from(signatures);
       expect(sigs.length).toBeGreaterThan(0);
-      for (const sig of sigs) expect((await verifySignature(restoredDb, sig)).verified, `signature ${sig.id}`).toBe(true);
+      for (const sig of sigs) expect((await verifySignature(restoredDb, restoredFiles, sig)).verified, `signature ${sig.id}`).toBe(true);
+      // The records check says the same, for files, sign-offs and run sheets.
+      const clean = await checkRecords(restoredDb, restoredFiles);
+      expect(clean.files.damaged).toEqual([]);
+      expect(clean.files.checked).toBe(rows.length);
+      expect(clean.revisionSignatures).toEqual({ checked: sigs.length, unverified: [] });
+      expect(clean.runSignatures.checked).toBeGreaterThan(0);
+      expect(clean.runSignatures.unverified).toEqual([]);
       // And the audit log's hash chain holds end to end.
       const chain = await verifyAuditChain(restoredDb);
       expect(chain.firstBroken).toBeNull();
@@ -96,6 +119,14 @@ describe('backup and restore', () => {
         select has_database_privilege('benchwright_app', current_database(), 'TEMP') as app,
                has_database_privilege('public', current_database(), 'TEMP') as everyone`);
       expect(temp[0]).toEqual({ app: false, everyone: false });
+
+      // A restored file altered afterwards: the check names it and the sign-off that covers it.
+      writeFileSync(path.join(restoredUploads, sha256(image)), pngOf(7, 3, 43));
+      const damaged = await checkRecords(restoredDb, restoredFiles);
+      expect(damaged.files.damaged).toEqual([{ attachmentId: up.body.attachment.id, fileName: 'reservoir.png' }]);
+      const approval = sigs.find((s) => s.revisionId === revision.id)!;
+      expect(damaged.revisionSignatures.unverified).toEqual([approval.id]);
+      expect(describeCheck(damaged)).toContain(`  NOT VERIFIED: signature ${approval.id}`);
     } finally {
       await restoredPool.end();
     }

@@ -102,7 +102,7 @@ describe('approval and run sign-off need their signature, in the same transactio
   /** The statements that approve `revisionId` directly, with a signature by `signer` over `signedHash`. */
   async function approvalBy(revisionId: string, signer: string | null, signedHash?: string): Promise<[string, unknown[]?][]> {
     const [row] = await t.db.select().from(revisions).where(eq(revisions.id, revisionId));
-    const hash = await revisionContentHash(t.db, row!);
+    const hash = await revisionContentHash(t.db, t.files, row!);
     const statements: [string, unknown[]?][] = [[`update revisions set state = 'approved', content_hash = $2, decided_at = now() where id = $1`, [revisionId, hash]]];
     if (signer) {
       statements.push([

@@ -47,7 +47,7 @@ describe('four eyes in the database', () => {
     const dee = (await t.db.execute(sql`select id from people where email = ${demo.dee.email}`)).rows[0]!.id as string;
     await t.ownerDb.execute(sql`update revisions set provenance_ids = array[${dee}::uuid] where id = ${revision.id}`);
     const [row] = await t.db.select().from(revisions).where(eq(revisions.id, revision.id));
-    const hash = await revisionContentHash(t.db, row!);
+    const hash = await revisionContentHash(t.db, t.files, row!);
     const attempt = t.db.transaction(async (tx) => {
       await tx.execute(sql`update revisions set state = 'approved', content_hash = ${hash}, decided_at = now() where id = ${revision.id}`);
       await tx.execute(sql`insert into signatures (revision_id, procedure_id, revision_number, signer_id, signer_name, signer_email, signer_role, meaning, content_hash)

@@ -163,8 +163,8 @@ describe('sign-off', () => {
     await approve(marek, a.revision.id, 'marek');
     await approve(marek, b.revision.id, 'marek');
     const [sigA] = await signaturesOf(a.revision.id);
-    expect((await verifySignature(t.db, sigA!)).verified).toBe(true);
-    expect((await verifySignature(t.db, { ...sigA!, revisionId: b.revision.id })).verified).toBe(false);
+    expect((await verifySignature(t.db, t.files, sigA!)).verified).toBe(true);
+    expect((await verifySignature(t.db, t.files, { ...sigA!, revisionId: b.revision.id })).verified).toBe(false);
   });
 
   it('canonical JSON sorts keys at every depth, so key order never changes a hash', () => {

@@ -38,7 +38,7 @@ describe('demo units and bench runs', () => {
     let outRuns = 0;
     const outReadings: string[] = [];
     for (const summary of [...history].reverse()) {
-      const view = await loadRunView(t.db, summary.id);
+      const view = await loadRunView(t.db, t.files, summary.id);
       expect(view.signature?.verified, summary.id).toBe(true);
       expect(view.signature?.meaning).toBe('performed');
       expect(view.progress.done).toBe(view.progress.total);
@@ -75,7 +75,7 @@ describe('demo units and bench runs', () => {
     const open = await t.db.select().from(runs).where(eq(runs.unitId, unit.id));
     expect(open).toHaveLength(1);
     expect(open[0]!.status).toBe('in_progress');
-    const view = await loadRunView(t.db, open[0]!.id);
+    const view = await loadRunView(t.db, t.files, open[0]!.id);
     expect(view.signature).toBeNull();
     expect(view.progress.done).toBeGreaterThan(0);
     expect(view.progress.done).toBeLessThan(view.progress.total);

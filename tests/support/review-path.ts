@@ -2,6 +2,7 @@
 // same steps the API takes (server/modules/review/transitions.ts), in one transaction each, with
 // no password asked. The database refuses shortcuts (a revision inserted approved, an approval
 // without its signature), so there is no other way.
+import { NO_FILES } from '../../server/storage/files';
 import { eq } from 'drizzle-orm';
 import type { Db } from '../../server/db/client';
 import { people, revisions, type RevisionState } from '../../server/db/schema';
@@ -22,7 +23,7 @@ export async function approveRevision(db: Db, revisionId: string, reviewer = 'ma
   return db.transaction(async (tx) => {
     const [row] = await tx.select().from(revisions).where(eq(revisions.id, revisionId));
     if (row?.state === 'draft') await recordSubmission(tx, row.authorId, revisionId);
-    return recordDecision(tx, signer, revisionId, 'approved', { comment: COMMENT, reauthenticated: false });
+    return recordDecision(tx, NO_FILES, signer, revisionId, 'approved', { comment: COMMENT, reauthenticated: false });
   });
 }
 
@@ -39,10 +40,10 @@ export async function procedureInState(db: Db, state: RevisionState, input: NewP
     const submitted = await recordSubmission(tx, author.id, revision.id);
     if (state === 'in_review') return { procedure, revision: submitted };
     const decision = state === 'returned' ? 'returned' : 'approved';
-    const decided = await recordDecision(tx, reviewer, revision.id, decision, { comment: decision === 'returned' ? 'Returned for a test.' : COMMENT, reauthenticated: false });
+    const decided = await recordDecision(tx, NO_FILES, reviewer, revision.id, decision, { comment: decision === 'returned' ? 'Returned for a test.' : COMMENT, reauthenticated: false });
     if (state === 'approved' || state === 'returned') return { procedure, revision: decided.revision };
     if (state === 'withdrawn') {
-      const withdrawn = await recordWithdrawal(tx, reviewer, procedure.id, { reason: 'Withdrawn for a test.', reauthenticated: false });
+      const withdrawn = await recordWithdrawal(tx, NO_FILES, reviewer, procedure.id, { reason: 'Withdrawn for a test.', reauthenticated: false });
       return { procedure, revision: withdrawn.revision };
     }
     throw new Error(`a first revision cannot be made ${state}`);

@@ -9,6 +9,7 @@ import { createLogger } from '../../server/logger';
 import { startFakeSmtp } from '../../server/mail/fake-smtp';
 import { MailSender } from '../../server/mail/sender';
 import { SearchService } from '../../server/search/search-service';
+import { fileStore } from '../../server/storage/files';
 import { readDemoPeople } from '../../server/db/seed';
 import { createTestDatabase } from './test-db';
 
@@ -33,7 +34,8 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger, 60_000) : undefined;
   const search = options.search ? new SearchService(db, database.url, logger) : undefined;
   await search?.start();
-  const app = createApp({ db, pool, logger, config, mailer, search });
+  const files = fileStore(uploadDir);
+  const app = createApp({ db, pool, logger, config, mailer, search, files });
 
   /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
   function client() {
@@ -82,6 +84,7 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
     databaseUrl: database.url,
     ownerUrl: database.ownerUrl,
     uploadDir,
+    files,
     client,
     as,
     async close() {

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { bigint, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { bigint, check, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { ProcedureDoc } from '../../../shared/document/schema';
 import type { Snapshot } from '../../../shared/document/evaluate';
@@ -112,16 +112,22 @@ export const procedureListing = pgTable(
   ],
 );
 
-/** Uploaded photos, schematics and scope captures; the bytes live under .data/uploads. */
-export const attachments = pgTable('attachments', {
-  id: uuid().primaryKey().defaultRandom(),
-  storedName: text().notNull().unique(),
-  originalName: text().notNull(),
-  mediaType: text().notNull(),
-  size: bigint({ mode: 'number' }).notNull(),
-  sha256: text().notNull(),
-  uploadedBy: uuid()
-    .notNull()
-    .references(() => people.id),
-  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-});
+/**
+ * Uploaded photos, schematics and scope captures. Append-only (trigger and grants): the bytes are
+ * found by their SHA-256 in the file store (server/storage), so a row can only ever name one content.
+ */
+export const attachments = pgTable(
+  'attachments',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    originalName: text().notNull(),
+    mediaType: text().notNull(),
+    size: bigint({ mode: 'number' }).notNull(),
+    sha256: text().notNull(),
+    uploadedBy: uuid()
+      .notNull()
+      .references(() => people.id),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [check('attachments_sha256_hex', sql`${t.sha256} ~ '^[0-9a-f]{64}$'`)],
+);

@@ -42,7 +42,7 @@ export const unitPhotos = pgTable(
       .references(() => people.id),
     addedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('unit_photos_unit_idx').on(t.unitId)],
+  (t) => [index('unit_photos_unit_idx').on(t.unitId), index('unit_photos_attachment_idx').on(t.attachmentId)],
 );
 
 export const RUN_STATUSES = ['in_progress', 'signed'] as const;
@@ -171,7 +171,7 @@ export const runPhotos = pgTable(
       .references(() => people.id),
     addedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('run_photos_run_idx').on(t.runId)],
+  (t) => [index('run_photos_run_idx').on(t.runId), index('run_photos_attachment_idx').on(t.attachmentId)],
 );
 
 /** The technician's signature on a run sheet (append-only; refused UPDATE/DELETE by trigger). */

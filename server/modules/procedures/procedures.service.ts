@@ -17,6 +17,8 @@ type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** Only technicians are limited to published revisions; authors, reviewers and admins see all. */
 export const seesDrafts = (user: SessionUser) => user.roles.some((r) => r !== 'technician');
+/** The states a technician may read: approved now, or before. */
+export const PUBLISHED_STATES = ['approved', 'superseded'] as const satisfies readonly RevisionState[];
 
 /** Everything the server derives from a document: snapshot, sanitized HTML, plain text. */
 export function derive(doc: ProcedureDoc, params: ProcedureParams) {

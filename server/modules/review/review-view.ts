@@ -6,6 +6,7 @@ import type { BlockRef, QueueItem, ReviewCommentView, ReviewView } from '../../.
 import type { Db } from '../../db/client';
 import { people, procedures, reviewComments, revisions } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
+import type { FileStore } from '../../storage/files';
 import { diffText } from './diff/text-diff';
 import { countsAsAuthor } from './four-eyes';
 import { valueChanges } from './diff/value-changes';
@@ -57,7 +58,7 @@ export async function commentsOf(db: Db, row: RevisionRow): Promise<ReviewCommen
   }));
 }
 
-export async function buildReviewView(db: Db, user: SessionUser, row: RevisionRow): Promise<ReviewView> {
+export async function buildReviewView(db: Db, files: FileStore, user: SessionUser, row: RevisionRow): Promise<ReviewView> {
   const ids = [...new Set([row.authorId, ...row.editorIds])];
   const names = new Map((await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, ids))).map((p) => [p.id, p]));
   const base = await baseRevision(db, row);
@@ -93,7 +94,7 @@ export async function buildReviewView(db: Db, user: SessionUser, row: RevisionRo
     reckoners: figures.blocks,
     blocks: blockRefs(row.document),
     comments: await commentsOf(db, row),
-    signatures: await verifiedSignatures(db, row.id),
+    signatures: await verifiedSignatures(db, files, row.id),
     canDecide: cannotDecideReason === null,
     cannotDecideReason,
   };

@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { approveBody, commentBody, returnBody, submitBody, withdrawBody } from '../../../shared/schemas/review';
 import { recordAudit } from '../../audit/record';
+import type { AppDeps } from '../../deps';
 import { reviewComments, signatures } from '../../db/schema';
 import { badRequest, notFound } from '../../http/errors';
 import { defineRoute, type SessionUser } from '../../http/route';
@@ -18,10 +19,10 @@ const signatureParams = z.object({ id: z.uuid('not a valid signature id') });
 const PUBLISHED = new Set(['approved', 'superseded']);
 const canSee = (user: SessionUser, state: string) => seesDrafts(user) || PUBLISHED.has(state);
 
-async function decisionResponse(deps: Parameters<typeof buildReviewView>[0], result: Awaited<ReturnType<typeof decideRevision>>) {
+async function decisionResponse(deps: AppDeps, result: Awaited<ReturnType<typeof decideRevision>>) {
   return {
-    revision: await revisionView(deps, result.revision),
-    signature: signatureView(result.signature, (await verifySignature(deps, result.signature)).verified),
+    revision: await revisionView(deps.db, result.revision),
+    signature: signatureView(result.signature, (await verifySignature(deps.db, deps.files, result.signature)).verified),
     superseded: result.superseded ? { id: result.superseded.id, number: result.superseded.number } : null,
   };
 }
@@ -44,7 +45,7 @@ export const reviewRoutes = [
     handler: async ({ params, user, deps }) => {
       const row = await getRevisionRow(deps.db, params.id);
       if (!row) throw notFound('No such revision.');
-      return { review: await buildReviewView(deps.db, user!, row) };
+      return { review: await buildReviewView(deps.db, deps.files, user!, row) };
     },
   }),
 
@@ -68,7 +69,7 @@ export const reviewRoutes = [
     summary: 'Approve a revision in review with a signed decision (password re-entered; never one’s own)',
     params: revisionParams,
     body: approveBody,
-    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps.db, await decideRevision(deps, user!, params.id, 'approved', body, req)),
+    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps, await decideRevision(deps, user!, params.id, 'approved', body, req)),
   }),
 
   defineRoute({
@@ -78,7 +79,7 @@ export const reviewRoutes = [
     summary: 'Return a revision in review to its author with comments, signed (password re-entered; never one’s own)',
     params: revisionParams,
     body: returnBody,
-    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps.db, await decideRevision(deps, user!, params.id, 'returned', body, req)),
+    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps, await decideRevision(deps, user!, params.id, 'returned', body, req)),
   }),
 
   defineRoute({
@@ -92,7 +93,7 @@ export const reviewRoutes = [
       const result = await withdrawProcedure(deps, user!, params.id, body, req);
       return {
         revision: await revisionView(deps.db, result.revision),
-        signature: signatureView(result.signature, (await verifySignature(deps.db, result.signature)).verified),
+        signature: signatureView(result.signature, (await verifySignature(deps.db, deps.files, result.signature)).verified),
       };
     },
   }),
@@ -130,7 +131,7 @@ export const reviewRoutes = [
     handler: async ({ params, user, deps }) => {
       const row = await getRevisionRow(deps.db, params.id);
       if (!row || !canSee(user!, row.state)) throw notFound('No such revision.');
-      return { signatures: await verifiedSignatures(deps.db, row.id) };
+      return { signatures: await verifiedSignatures(deps.db, deps.files, row.id) };
     },
   }),
 
@@ -144,7 +145,7 @@ export const reviewRoutes = [
       const [sig] = await deps.db.select().from(signatures).where(eq(signatures.id, params.id));
       const row = sig && (await getRevisionRow(deps.db, sig.revisionId));
       if (!sig || !row || !canSee(user!, row.state)) throw notFound('No such signature.');
-      const check = await verifySignature(deps.db, sig);
+      const check = await verifySignature(deps.db, deps.files, sig);
       return { signature: signatureView(sig, check.verified), storedHash: sig.contentHash, currentHash: check.currentHash, verified: check.verified };
     },
   }),

@@ -2,7 +2,9 @@ import { asc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { revisions, signatures, type SignatureMeaning } from '../../db/schema';
 import type { SignatureView } from '../../../shared/schemas/review';
-import { revisionContentHash } from './signed-content';
+import { conflict } from '../../http/errors';
+import type { FileStore } from '../../storage/files';
+import { checkRevisionContent } from './signed-content';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type RevisionRow = typeof revisions.$inferSelect;
@@ -16,12 +18,18 @@ export interface Signer {
 
 /**
  * Writes a signature for a revision already moved to the state it means (the database checks
- * that). The hash is taken from the row as stored, inside the same transaction.
+ * that). The hash is taken from the row as stored, inside the same transaction, and from the bytes
+ * of its files: an approval over a file that is missing or altered is refused.
  */
 export async function signRevision(
   tx: Tx,
+  files: FileStore,
   opts: { row: RevisionRow; signer: Signer; role: string; meaning: SignatureMeaning; comment: string; reauthAuditId?: number; requestId?: string },
 ) {
+  const content = await checkRevisionContent(tx, files, opts.row);
+  if (opts.meaning === 'approved' && !content.intact) {
+    throw conflict('A file this revision shows is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); it cannot be approved. Tell an admin.');
+  }
   const [sig] = await tx
     .insert(signatures)
     .values({
@@ -34,7 +42,7 @@ export async function signRevision(
       signerRole: opts.role,
       meaning: opts.meaning,
       comment: opts.comment,
-      contentHash: await revisionContentHash(tx, opts.row),
+      contentHash: content.hash,
       reauthAuditId: opts.reauthAuditId ?? null,
       requestId: opts.requestId ?? null,
     })
@@ -43,11 +51,11 @@ export async function signRevision(
 }
 
 
-/** Recomputes the content hash of the signed revision as it is stored now. */
-export async function verifySignature(db: Db | Tx, sig: SignatureRow) {
+/** Recomputes the content hash of the signed revision as it is stored now, re-hashing its files. */
+export async function verifySignature(db: Db | Tx, files: FileStore, sig: SignatureRow) {
   const [row] = await db.select().from(revisions).where(eq(revisions.id, sig.revisionId));
-  const currentHash = row ? await revisionContentHash(db, row) : null;
-  return { verified: currentHash === sig.contentHash, currentHash };
+  const current = row ? await checkRevisionContent(db, files, row) : null;
+  return { verified: !!current?.intact && current.hash === sig.contentHash, currentHash: current?.hash ?? null };
 }
 
 export const signatureView = (sig: SignatureRow, verified: boolean): SignatureView => ({
@@ -62,11 +70,11 @@ export const signatureView = (sig: SignatureRow, verified: boolean): SignatureVi
   verified,
 });
 
-/** A revision's signatures, oldest first, each verified against the stored revision. */
-export async function verifiedSignatures(db: Db, revisionId: string) {
+/** A revision's signatures, oldest first, each verified against the stored revision and its files. */
+export async function verifiedSignatures(db: Db, files: FileStore, revisionId: string) {
   const rows = await db.select().from(signatures).where(eq(signatures.revisionId, revisionId)).orderBy(asc(signatures.signedAt));
   if (!rows.length) return [];
   const [revision] = await db.select().from(revisions).where(eq(revisions.id, revisionId));
-  const currentHash = revision ? await revisionContentHash(db, revision) : null;
-  return rows.map((s) => signatureView(s, s.contentHash === currentHash));
+  const current = revision ? await checkRevisionContent(db, files, revision) : null;
+  return rows.map((s) => signatureView(s, !!current?.intact && s.contentHash === current.hash));
 }

@@ -4,6 +4,7 @@
  * revision, re-checks the state and updates with a conditional WHERE, so two people acting at once
  * can never both succeed. The database trigger enforces the same machine underneath.
  */
+import type { FileStore } from '../../storage/files';
 import { fieldLabel } from '../../../shared/document/block-view';
 import { getReckoner } from '../../../shared/reckoners';
 import { and, eq, ne, sql } from 'drizzle-orm';
@@ -111,6 +112,7 @@ export async function submitRevision(deps: AppDeps, user: SessionUser, revisionI
  */
 export async function recordDecision(
   tx: Tx,
+  files: FileStore,
   signer: Signer,
   revisionId: string,
   decision: 'approved' | 'returned',
@@ -131,7 +133,7 @@ export async function recordDecision(
       .returning();
   }
   // The signed content leaves out state and times, so the row as locked hashes as it will be stored.
-  const contentHash = decision === 'approved' ? await revisionContentHash(tx, current) : undefined;
+  const contentHash = decision === 'approved' ? await revisionContentHash(tx, files, current) : undefined;
   const [updated] = await tx
     .update(revisions)
     .set({ state: decision, decidedAt: sql`now()`, updatedAt: sql`now()`, ...(contentHash ? { contentHash } : {}) })
@@ -142,7 +144,7 @@ export async function recordDecision(
   const reauthAuditId = opts.reauthenticated
     ? await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: signer.id, subject, details: { revisionId, meaning: decision }, req: opts.req })
     : undefined;
-  const signature = await signRevision(tx, {
+  const signature = await signRevision(tx, files, {
     row: updated,
     signer,
     role: 'reviewer',
@@ -185,7 +187,7 @@ export async function decideRevision(
   await confirmSignerPassword(deps.db, user, input.password, req, `${before.title} r${before.number}`);
 
   const result = await deps.db.transaction(async (tx) => {
-    const decided = await recordDecision(tx, user, revisionId, decision, { comment: input.comment, reauthenticated: true, req });
+    const decided = await recordDecision(tx, deps.files, user, revisionId, decision, { comment: input.comment, reauthenticated: true, req });
     await queueDecision(tx, deps.config.publicUrl, decided.revision, decision, user.displayName, input.comment);
     return decided;
   });
@@ -199,10 +201,10 @@ export async function decideRevision(
  * reviewer. For demo content and tests; no password is asked here, so the signature links no
  * re-authentication, and no mail is queued.
  */
-export async function createApprovedProcedure(tx: Tx, author: Signer, reviewer: Signer, input: NewProcedure, comment: string) {
+export async function createApprovedProcedure(tx: Tx, files: FileStore, author: Signer, reviewer: Signer, input: NewProcedure, comment: string) {
   const { procedure, revision } = await createProcedure(tx, author.id, input);
   await recordSubmission(tx, author.id, revision.id);
-  const decided = await recordDecision(tx, reviewer, revision.id, 'approved', { comment, reauthenticated: false });
+  const decided = await recordDecision(tx, files, reviewer, revision.id, 'approved', { comment, reauthenticated: false });
   return { procedure, ...decided };
 }
 
@@ -210,7 +212,7 @@ export async function createApprovedProcedure(tx: Tx, author: Signer, reviewer: 
  * The withdrawal itself, inside the caller's transaction: the approved revision becomes withdrawn,
  * signed by the reviewer or admin with the reason; audited.
  */
-export async function recordWithdrawal(tx: Tx, signer: Signer & { roles: string[] }, procedureId: string, opts: { reason: string; reauthenticated: boolean; req?: Request }) {
+export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer & { roles: string[] }, procedureId: string, opts: { reason: string; reauthenticated: boolean; req?: Request }) {
   await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
   const [approved] = await tx
     .select()
@@ -235,7 +237,7 @@ export async function recordWithdrawal(tx: Tx, signer: Signer & { roles: string[
     ? await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: signer.id, subject, details: { revisionId: updated.id, meaning: 'withdrawn' }, req: opts.req })
     : undefined;
   const role = signer.roles.includes('reviewer') ? 'reviewer' : 'admin';
-  const signature = await signRevision(tx, {
+  const signature = await signRevision(tx, files, {
     row: updated,
     signer,
     role,
@@ -259,5 +261,5 @@ export async function withdrawProcedure(deps: AppDeps, user: SessionUser, proced
   const [proc] = await deps.db.select().from(procedures).where(eq(procedures.id, procedureId));
   if (!proc) throw notFound('No such procedure.');
   await confirmSignerPassword(deps.db, user, input.password, req, `${proc.title} (withdraw)`);
-  return deps.db.transaction((tx) => recordWithdrawal(tx, user, procedureId, { reason: input.reason, reauthenticated: true, req }));
+  return deps.db.transaction((tx) => recordWithdrawal(tx, deps.files, user, procedureId, { reason: input.reason, reauthenticated: true, req }));
 }

@@ -8,7 +8,8 @@ export interface RunContent {
   params: unknown;
   steps: unknown;
   entries: Pick<EntryView, 'stepId' | 'raw' | 'measured' | 'unit' | 'expected' | 'low' | 'high' | 'within' | 'done' | 'note' | 'version'>[];
-  photos: { id: string; stepId: string | null; sha256: string }[];
+  /** Each photo's SHA-256 as re-hashed from its stored bytes; null when missing or altered. */
+  photos: { id: string; stepId: string | null; sha256: string | null }[];
 }
 
 /** SHA-256 of a run sheet's canonical content: what the technician's signature covers. */

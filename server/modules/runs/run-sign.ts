@@ -39,12 +39,16 @@ export async function signRun(deps: AppDeps, user: SessionUser, runId: string, b
       });
     }
     const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-    if ((await revisionContentHash(tx, revision!)) !== run.revisionHash) {
+    if ((await revisionContentHash(tx, deps.files, revision!)) !== run.revisionHash) {
       throw conflict('The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.');
     }
     const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
     const unitRecord = unitRecordOf(unit!);
-    const contentHash = runContentHash(await runContent(tx, run, unitRecord));
+    const content = await runContent(tx, deps.files, run, unitRecord);
+    if (content.photos.some((p) => p.sha256 === null)) {
+      throw conflict('A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.');
+    }
+    const contentHash = runContentHash(content);
     const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
     const outOfTolerance = entries.some((e) => e.within === false);
     // The signature first: the trigger refuses rows for a run that is already signed.

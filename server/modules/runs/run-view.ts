@@ -3,6 +3,7 @@ import type { EntryView, RevisionRecord, RunListItem, RunView } from '../../../s
 import type { Db } from '../../db/client';
 import { attachments, people, revisions, runEntries, runEntryHistory, runPhotos, runs, runSignatures, signatures, units } from '../../db/schema';
 import { notFound } from '../../http/errors';
+import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
 import { lockedSteps, progressOf } from './run-steps';
 import type { RunRow, Tx } from './runs.service';
@@ -19,8 +20,12 @@ async function names(db: Db | Tx, ids: string[]) {
 type EntryRow = typeof runEntries.$inferSelect;
 type PhotoHash = RunContent['photos'][number];
 
-/** The canonical content a technician's signature covers, from what is stored now. */
-export async function runContent(db: Db | Tx, run: RunRow, unit: RunContent['unit']): Promise<RunContent> {
+/** Photos with the SHA-256 their rows recorded, kept only where the stored bytes still hash to it. */
+const rehashed = (files: FileStore, photos: { id: string; stepId: string | null; sha256: string }[]): Promise<PhotoHash[]> =>
+  Promise.all(photos.map(async (p) => ({ id: p.id, stepId: p.stepId, sha256: (await files.exists(p.sha256)) ? p.sha256 : null })));
+
+/** The canonical content a technician's signature covers, from what is stored now (photos re-hashed). */
+export async function runContent(db: Db | Tx, files: FileStore, run: RunRow, unit: RunContent['unit']): Promise<RunContent> {
   const [entries, photos] = await Promise.all([
     db.select().from(runEntries).where(eq(runEntries.runId, run.id)),
     db
@@ -29,7 +34,7 @@ export async function runContent(db: Db | Tx, run: RunRow, unit: RunContent['uni
       .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
       .where(eq(runPhotos.runId, run.id)),
   ]);
-  return contentOf(run, unit, entries, photos);
+  return contentOf(run, unit, entries, await rehashed(files, photos));
 }
 
 /** The same, from entries and photos already read. */
@@ -87,7 +92,7 @@ export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<Revision
 }
 
 /** A run as the client shows it; pass the run row when it was just read (under its lock) to save reading it again. */
-export async function loadRunView(db: Db | Tx, runId: string, known?: RunRow): Promise<RunView> {
+export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, known?: RunRow): Promise<RunView> {
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
@@ -147,8 +152,13 @@ export async function loadRunView(db: Db | Tx, runId: string, known?: RunRow): P
   // Signed since the given row was read: read the run again, as signed.
   if (signature && run.status !== 'signed') [run] = (await db.select().from(runs).where(eq(runs.id, runId))) as [RunRow];
   if (signature) {
-    // A signed run's entries and photos cannot change (triggers), so the ones read above are what was signed.
-    verified = runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photos)) === signature.contentHash && signature.contentHash === run.contentHash;
+    // A signed run's entries and photos cannot change (triggers), so the ones read above are what was
+    // signed; the photos' bytes are hashed again, so a file altered or gone shows here.
+    const photoHashes = await rehashed(files, photos);
+    verified =
+      photoHashes.every((p) => p.sha256 !== null) &&
+      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes)) === signature.contentHash &&
+      signature.contentHash === run.contentHash;
   }
   return {
     id: run.id,

@@ -33,9 +33,9 @@ export const runRoutes = [
     summary: 'Start a bench run on an approved revision and a unit, with the measured mains (409 unless approved)',
     body: startRunBody,
     handler: async ({ res, body, user, deps }) => {
-      const { run, created } = await startRun(deps.db, user!, body);
+      const { run, created } = await startRun(deps.db, deps.files, user!, body);
       res.status(created ? 201 : 200);
-      return { run: await loadRunView(deps.db, run.id) };
+      return { run: await loadRunView(deps.db, deps.files, run.id) };
     },
   }),
 
@@ -45,7 +45,7 @@ export const runRoutes = [
     access: 'signed-in',
     summary: 'One bench run: steps, entries with their history, photos, signature (verified on read)',
     params: runParams,
-    handler: async ({ params, deps }) => ({ run: await loadRunView(deps.db, params.id) }),
+    handler: async ({ params, deps }) => ({ run: await loadRunView(deps.db, deps.files, params.id) }),
   }),
 
   defineRoute({
@@ -57,7 +57,7 @@ export const runRoutes = [
     body: entryBody,
     handler: async ({ params, body, user, deps }) => {
       const { replayed, run: row } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
-      const run = await loadRunView(deps.db, params.id, row);
+      const run = await loadRunView(deps.db, deps.files, params.id, row);
       return { replayed, entry: run.entries.find((e) => e.stepId === params.stepId) ?? null, run };
     },
   }),
@@ -91,7 +91,7 @@ export const runRoutes = [
     body: signRunBody,
     handler: async ({ req, params, body, user, deps }) => {
       await signRun(deps, user!, params.id, body, req);
-      return { run: await loadRunView(deps.db, params.id) };
+      return { run: await loadRunView(deps.db, deps.files, params.id) };
     },
   }),
 
@@ -102,7 +102,7 @@ export const runRoutes = [
     summary: 'The run sheet as a PDF for the customer’s file, with the safety caution and the revision’s approval record',
     params: runParams,
     handler: async ({ res, params, deps }) => {
-      const run = await loadRunView(deps.db, params.id);
+      const run = await loadRunView(deps.db, deps.files, params.id);
       const pdf = await renderRunSheetPdf(run);
       const name = `run-sheet-${run.unit.model}-${run.unit.serial}-${run.id.slice(0, 8)}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_');
       res.set({

@@ -6,6 +6,7 @@ import { revisions, runEntries, runEntryHistory, runs, units } from '../../db/sc
 import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
 import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
+import type { FileStore } from '../../storage/files';
 import { revisionContentHash } from '../review/signed-content';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
@@ -20,7 +21,7 @@ const short = (s: string, n = 80) => (s.length > n ? `${s.slice(0, n - 1)}…` :
  * Starts a bench run on an approved revision: every expected value is evaluated again with the
  * bench's measured mains, and the run keeps that revision and its own snapshot from then on.
  */
-export async function startRun(db: Db, user: SessionUser, body: StartRunBody) {
+export async function startRun(db: Db, files: FileStore, user: SessionUser, body: StartRunBody) {
   return db.transaction(async (tx) => {
     if (body.key) {
       const [existing] = await tx.select().from(runs).where(eq(runs.startKey, body.key));
@@ -54,7 +55,7 @@ export async function startRun(db: Db, user: SessionUser, body: StartRunBody) {
         procedureId: revision.procedureId,
         revisionId: revision.id,
         revisionNumber: revision.number,
-        revisionHash: await revisionContentHash(tx, revision),
+        revisionHash: await revisionContentHash(tx, files, revision),
         title: revision.title,
         params,
         snapshot,
