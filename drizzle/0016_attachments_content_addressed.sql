@@ -10,7 +10,7 @@ CREATE INDEX "unit_photos_attachment_idx" ON "unit_photos" USING btree ("attachm
 -- Append-only, whoever connects: a signed revision's image cannot be re-pointed or removed.
 CREATE OR REPLACE FUNCTION public.benchwright_refuse_attachment_change() RETURNS trigger
   LANGUAGE plpgsql
-  SET search_path = pg_catalog, public
+  SET search_path = pg_catalog, public, pg_temp
 AS $$
 BEGIN
   RAISE EXCEPTION 'attachments are append-only: % refused', TG_OP USING ERRCODE = 'check_violation';
