@@ -14,6 +14,10 @@ export interface AppConfig {
   clientDir?: string;
   /** Base URL people reach the app at, for links in invitations and mail. */
   publicUrl: string;
+  /**
+   * Wrong passwords per account (any address) and per address before each further sign-in try waits
+   * (a growing wait: server/auth/throttle.ts); a key quiet for windowMs after its wait starts over.
+   */
   signInLimits: { perAccount: number; perAddress: number; windowMs: number };
   /** Idle and absolute session lifetimes. */
   sessionIdleMs: number;

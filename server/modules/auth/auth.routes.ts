@@ -1,7 +1,6 @@
 import { createHash } from 'node:crypto';
 import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { Request, Response } from 'express';
-import { rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
 import { z } from 'zod';
 import { setPasswordBody, signInBody } from '../../../shared/schemas/auth';
@@ -9,6 +8,7 @@ import { recordAudit } from '../../audit/record';
 import { csrfToken } from '../../auth/csrf';
 import { isCommonPassword } from '../../auth/common-passwords';
 import { hashPassword } from '../../auth/passwords';
+import { claimTry, signInRules } from '../../auth/throttle';
 import { invitations, people } from '../../db/schema';
 import { HttpError } from '../../http/errors';
 import { defineRoute, type SessionUser } from '../../http/route';
@@ -26,7 +26,7 @@ function authenticate(passport: PassportStatic, req: Request, res: Response): Pr
 const logIn = (req: Request, user: SessionUser) =>
   new Promise<void>((resolve, reject) => req.logIn(user, (err) => (err ? reject(err) : resolve())));
 
-const tooMany = { error: 'Too many failed sign-in attempts. Wait 15 minutes, or ask an admin to check your account.' };
+const tooMany = (wait: string) => `Too many failed sign-in attempts. Wait ${wait} and try again.`;
 
 export const authRoutes = [
   defineRoute({
@@ -34,7 +34,7 @@ export const authRoutes = [
     path: '/auth/session',
     access: 'public',
     summary: 'Who is signed in, and the CSRF token for writes',
-    handler: ({ req, user }) => ({ user, csrfToken: csrfToken(req) }),
+    handler: ({ req, res, user }) => ({ user, csrfToken: csrfToken(req, res) }),
   }),
 
   defineRoute({
@@ -51,27 +51,19 @@ export const authRoutes = [
     access: 'public',
     summary: 'Sign in with e-mail and password',
     body: signInBody,
-    // Failures only count; per address and per account, so one attacker cannot lock out everyone.
-    before: ({ config }) => [
-      rateLimit({
-        windowMs: config.signInLimits.windowMs,
-        limit: config.signInLimits.perAddress,
-        skipSuccessfulRequests: true,
-        standardHeaders: 'draft-8',
-        legacyHeaders: false,
-        message: tooMany,
-      }),
-      rateLimit({
-        windowMs: config.signInLimits.windowMs,
-        limit: config.signInLimits.perAccount,
-        skipSuccessfulRequests: true,
-        standardHeaders: 'draft-8',
-        legacyHeaders: false,
-        keyGenerator: (req) => `account:${String(req.body?.email ?? '').trim().toLowerCase()}`,
-        message: tooMany,
-      }),
-    ],
     handler: async ({ req, res, body, deps }) => {
+      // Each try is claimed per account and per address before the password is checked (shared by
+      // every app process); an unknown address counts like a known one.
+      const rules = signInRules(deps.config.signInLimits);
+      const tries = await claimTry(
+        deps.db,
+        res,
+        [
+          { key: `sign-in:account:${body.email.trim().toLowerCase()}`, rule: rules.account, onSuccess: 'reset' },
+          { key: `sign-in:address:${req.ip ?? 'unknown'}`, rule: rules.address, onSuccess: 'give-back' },
+        ],
+        tooMany,
+      );
       const passport = req.app.locals.passport as PassportStatic;
       const user = await authenticate(passport, req, res);
       if (!user) {
@@ -79,10 +71,11 @@ export const authRoutes = [
         req.log?.info('sign-in refused');
         throw new HttpError(401, 'That e-mail and password do not match an active account.');
       }
+      await tries.succeeded();
       await logIn(req, user); // passport regenerates the session id here
       req.session.startedAt = Date.now();
       await recordAudit(deps.db, { action: 'sign-in', actorId: user.id, subject: user.email, req });
-      return { user, csrfToken: csrfToken(req, true) };
+      return { user, csrfToken: csrfToken(req, res, true) };
     },
   }),
 
