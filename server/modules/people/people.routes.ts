@@ -129,13 +129,17 @@ export const peopleRoutes = [
         const [p] = await tx.select().from(people).where(eq(people.id, params.id)).for('update');
         if (!p) throw notFound('No such person.');
         if (!p.active) throw conflict(`${p.displayName} is deactivated; reactivate them first.`);
-        await mailSetPasswordLink(tx, deps.config.publicUrl, p, user!.id, 'reset', (url) => resetMail(p, user!.displayName, url));
-        return p;
+        // Someone who never chose a password gets a fresh invitation instead.
+        const purpose = p.passwordHash ? 'reset' : 'invitation';
+        await mailSetPasswordLink(tx, deps.config.publicUrl, p, user!.id, purpose, (url) =>
+          purpose === 'reset' ? resetMail(p, user!.displayName, url) : invitationMail(p, user!.displayName, url),
+        );
+        return { ...p, purpose };
       });
       void deps.mailer?.flush();
-      await recordAudit(deps.db, { action: 'person.password-reset-sent', actorId: user!.id, subject: person.email, req });
+      await recordAudit(deps.db, { action: 'person.password-reset-sent', actorId: user!.id, subject: person.email, details: { purpose: person.purpose }, req });
       res.status(202);
-      return { mailedTo: person.email, expiresInHours: RESET_HOURS };
+      return { mailedTo: person.email, expiresInHours: person.purpose === 'reset' ? RESET_HOURS : INVITE_DAYS * 24 };
     },
   }),
 
