@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express from 'express';
 import helmet from 'helmet';
-import { csrfProtection } from './auth/csrf';
+import { createCsrf } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
@@ -60,6 +60,8 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
   const sessions = createSessionMiddleware(pool, config);
   app.locals.passport = passport;
   app.locals.sessionStore = sessions.store;
+  const csrf = createCsrf(config);
+  app.locals.csrf = csrf;
   app.locals.forgetSessionsOf = sessions.forgetSessionsOf;
   app.locals.sessionCookieName = config.publicUrl.startsWith('https:') ? '__Host-bw.sid' : 'bw.sid';
 
@@ -75,7 +77,7 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
   api.use(absoluteSessionLimit(config));
   api.use(passport.session());
   api.use(sameOriginGuard(config));
-  api.use(csrfProtection);
+  api.use(csrf.protection);
   mountRoutes(api, routeTable, deps);
   api.use((req, _res, next) => next(new HttpError(404, `No API route ${req.method} ${req.path}`)));
   app.use('/api', api);

@@ -17,6 +17,10 @@ export interface AppConfig {
   publicUrl: string;
   /** Host names besides the public URL's and loopback that requests may name (421 for others). */
   allowedHosts?: string[];
+  /**
+   * Wrong passwords per account (any address) and per address before each further sign-in try waits
+   * (a growing wait: server/auth/throttle.ts); a key quiet for windowMs after its wait starts over.
+   */
   signInLimits: { perAccount: number; perAddress: number; windowMs: number };
   /** Idle and absolute session lifetimes. */
   sessionIdleMs: number;

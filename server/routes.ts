@@ -1,5 +1,6 @@
 import type { RouteDef } from './http/route';
 import { attachmentRoutes } from './modules/attachments/attachments.routes';
+import { accountRoutes } from './modules/auth/account.routes';
 import { authRoutes } from './modules/auth/auth.routes';
 import { healthRoutes } from './modules/health/health.routes';
 import { peopleRoutes } from './modules/people/people.routes';
@@ -15,6 +16,7 @@ import { unitRoutes } from './modules/units/units.routes';
 export const routeTable: readonly RouteDef[] = [
   ...healthRoutes,
   ...authRoutes,
+  ...accountRoutes,
   ...peopleRoutes,
   ...procedureRoutes,
   ...attachmentRoutes,

@@ -11,6 +11,7 @@ export const toSessionUser = (p: typeof people.$inferSelect): SessionUser => ({
   email: p.email,
   displayName: p.displayName,
   roles: p.roles,
+  totp: p.totpSecret !== null,
 });
 
 /**

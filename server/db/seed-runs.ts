@@ -5,6 +5,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { entryBody, startRunBody } from '../../shared/schemas/runs';
 import type { SessionUser } from '../http/route';
+import { toSessionUser } from '../auth/passport';
 import { revisionContentHash } from '../modules/review/signed-content';
 import { runContentHash } from '../modules/runs/run-hash';
 import { isFinished } from '../modules/runs/run-steps';
@@ -79,7 +80,7 @@ export function demoUuid(name: string): string {
 
 async function personByEmail(db: Db | Tx, address: string): Promise<SessionUser | undefined> {
   const [p] = await db.select().from(people).where(eq(people.email, address));
-  return p ? { id: p.id, email: p.email, displayName: p.displayName, roles: p.roles } : undefined;
+  return p ? toSessionUser(p) : undefined;
 }
 
 const findUnit = async (db: Db | Tx, model: string, serial: string) =>

@@ -2,6 +2,7 @@ import type { Request, RequestHandler, Response, Router } from 'express';
 import type { ZodType } from 'zod';
 import type { Role } from '../db/schema';
 import type { AppDeps } from '../deps';
+import { enrolmentRequired } from '../auth/second-factor';
 import { HttpError, problemsMessage, zodProblems, type FieldProblem } from './errors';
 import { findInputProblem } from './input-guard';
 
@@ -13,6 +14,8 @@ export interface SessionUser {
   email: string;
   displayName: string;
   roles: Role[];
+  /** Has an authenticator set up (signs in with a code as well as the password). */
+  totp: boolean;
 }
 
 export interface RouteContext<P, Q, B> {
@@ -37,6 +40,11 @@ export interface RouteDef<P = unknown, Q = unknown, B = unknown> {
   params?: ZodType<P>;
   query?: ZodType<Q>;
   body?: ZodType<B>;
+  /**
+   * Reachable by a signed-in person who must still set up an authenticator (the shop requires one
+   * for their role): their session, account page and sign-out. Every other route refuses them.
+   */
+  beforeEnrolment?: true;
   /** Extra middleware run after the access check (rate limits, uploads). */
   before?: (deps: AppDeps) => RequestHandler[];
   handler: (ctx: RouteContext<P, Q, B>) => unknown | Promise<unknown>;
@@ -68,8 +76,12 @@ function parsePart<T>(schema: ZodType<T> | undefined, value: unknown, where: str
 
 export function mountRoutes(router: Router, routes: readonly RouteDef[], deps: AppDeps) {
   for (const def of routes) {
-    const guard: RequestHandler = (req, _res, next) => {
-      checkAccess(def.access, (req.user as SessionUser | undefined) ?? null);
+    const guard: RequestHandler = async (req, _res, next) => {
+      const user = (req.user as SessionUser | undefined) ?? null;
+      checkAccess(def.access, user);
+      if (user && def.access !== 'public' && !def.beforeEnrolment && (await enrolmentRequired(deps.db, user))) {
+        throw new HttpError(403, 'The shop requires an authenticator code for your role. Set one up on your account page first.', { code: 'second-factor-enrolment' });
+      }
       next();
     };
     const run: RequestHandler = async (req, res) => {

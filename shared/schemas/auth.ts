@@ -32,3 +32,24 @@ export const setPasswordBody = z
   .strict();
 
 export type SignInBody = z.infer<typeof signInBody>;
+
+export const changePasswordBody = z
+  .object({
+    currentPassword: z.string().min(1, 'required').max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`),
+    newPassword: newPasswordSchema,
+  })
+  .strict();
+
+/** Re-entering one's password (authenticator set-up, new recovery codes, turning codes off). */
+export const passwordBody = z
+  .object({ password: z.string().min(1, 'required').max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`) })
+  .strict();
+
+/** Six digits from the authenticator app, or a recovery code (xxxx-xxxx-xxxx-xxxx). */
+export const codeBody = z
+  .object({ code: z.string().trim().min(6, 'six digits or a recovery code').max(40, 'six digits or a recovery code') })
+  .strict();
+
+export const signInSettingsBody = z.object({ requireSecondFactor: z.boolean({ error: 'must be true or false' }) }).strict();
+
+export type ChangePasswordBody = z.infer<typeof changePasswordBody>;

@@ -36,5 +36,7 @@ export interface PersonView {
   roles: (typeof ROLES)[number][];
   active: boolean;
   hasPassword: boolean;
+  /** Signs in with an authenticator code as well. */
+  totp: boolean;
   createdAt: string;
 }

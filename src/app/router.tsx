@@ -40,6 +40,7 @@ const router = createBrowserRouter([
       // The editor chunk: the only importer of @tiptap/*.
       { path: paths.editRevision.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/edit-revision')).default }) },
       { path: paths.search.pattern, lazy: async () => ({ Component: (await import('./routes/search')).default }) },
+      { path: paths.account.pattern, lazy: async () => ({ Component: (await import('./routes/account')).default }) },
       { path: paths.people.pattern, lazy: async () => ({ Component: (await import('./routes/admin/people')).default }) },
       { path: paths.reviewQueue.pattern, lazy: async () => ({ Component: (await import('./routes/review/queue')).default }) },
       { path: paths.reviewRevision.pattern, lazy: async () => ({ Component: (await import('./routes/review/revision')).default }) },

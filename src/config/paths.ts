@@ -4,6 +4,7 @@ export const paths = {
   signIn: { pattern: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
   setPassword: { pattern: '/set-password/:token', href: (token: string) => `/set-password/${token}` },
   people: { pattern: '/admin/people', href: () => '/admin/people' },
+  account: { pattern: '/account', href: () => '/account' },
   search: { pattern: '/search', href: (q?: string) => (q ? `/search?q=${encodeURIComponent(q)}` : '/search') },
   procedures: { pattern: '/procedures', href: () => '/procedures' },
   newProcedure: { pattern: '/procedures/new', href: () => '/procedures/new' },

@@ -1,8 +1,18 @@
-import { QueryClient } from '@tanstack/react-query';
+import { MutationCache, QueryCache, QueryClient } from '@tanstack/react-query';
 import { ApiError } from './api-client';
 
+/**
+ * The shop started requiring an authenticator for this person's role: read the session again, so
+ * the layout sends them to their account page to set one up.
+ */
+const followEnrolment = (err: unknown) => {
+  if (err instanceof ApiError && err.body.code === 'second-factor-enrolment') void queryClient.invalidateQueries({ queryKey: ['session'] });
+};
+
 /** The one query cache; route loaders warm it so data and code load side by side. */
-export const queryClient = new QueryClient({
+export const queryClient: QueryClient = new QueryClient({
+  queryCache: new QueryCache({ onError: followEnrolment }),
+  mutationCache: new MutationCache({ onError: followEnrolment }),
   defaultOptions: {
     queries: {
       // Don't hammer the server with retries for answers that won't change.

@@ -44,7 +44,7 @@ describe('signing in as each demo role in Chromium', () => {
     await page.context().close();
   });
 
-  it('an admin invites a person and sees the one-time link; an unknown page shows the 404 page', async () => {
+  it('an admin invites a person and is told the link went by mail (it is never shown); an unknown page shows the 404 page', async () => {
     const page = await openPage();
     await signIn(page, demo.admin.email, demo.admin.password);
     await page.getByRole('link', { name: 'People', exact: true }).first().click();
@@ -52,7 +52,8 @@ describe('signing in as each demo role in Chromium', () => {
     await page.getByLabel('Name').fill('Ada Fenwick');
     await page.getByLabel('E-mail').fill('ada@tallowcreek.example');
     await page.getByRole('button', { name: 'Create invitation' }).click();
-    await page.getByText('/set-password/').waitFor();
+    await page.getByText('went to ada@tallowcreek.example').waitFor();
+    expect(await page.getByText('/set-password/').count()).toBe(0);
     await page.getByRole('cell', { name: 'ada@tallowcreek.example' }).waitFor();
     await page.goto(app.url + '/no/such/page');
     await page.getByRole('heading', { name: 'Nothing here' }).waitFor();

@@ -3,7 +3,9 @@
 //   technician — reads approved procedures, runs them on units, records readings and photos, signs run sheets;
 //   author     — writes and edits drafts, submits them, sees and writes review comments;
 //   reviewer   — reviews submitted revisions, approves or returns them (signed), withdraws from use;
-//   admin      — invites and deactivates people, assigns roles, reads the audit log and the mail outbox.
+//   admin      — invites and deactivates people, assigns roles, mails password resets, sets the shop's sign-in
+//                rules, reads the audit log and the mail outbox.
+// Everyone manages their own password, sessions and authenticator.
 // Everyone signed in reads what has been approved, the unit register and bench runs.
 //
 // Each probe aims at a real target, so an allowed caller gets a 2xx or a well-defined 4xx (404 for a
@@ -31,6 +33,8 @@ export interface Probe {
   body?: Record<string, unknown>;
   /** The probe ends the session it runs in, so it gets a session of its own. */
   freshSession?: true;
+  /** The probe ends every session of its person: the shared sessions are signed in again after it. */
+  endsEverySession?: true;
 }
 
 export interface MatrixRow {
@@ -58,6 +62,16 @@ export const MATRIX: readonly MatrixRow[] = [
     expect: { anonymous: 404, technician: 404, author: 404, reviewer: 404, admin: 404 },
   },
 
+  // One's own account: anyone signed in, for themselves only (there is no id to point elsewhere).
+  { method: 'get', path: '/auth/account', probe: {}, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
+  { method: 'post', path: '/auth/password', probe: { body: {} }, expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+  { method: 'post', path: '/auth/sign-out-everywhere', probe: { freshSession: true, endsEverySession: true }, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
+  { method: 'post', path: '/auth/sign-in/code', probe: { body: {} }, expect: { anonymous: 400, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+  { method: 'post', path: '/auth/totp/setup', probe: { body: {} }, expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+  { method: 'post', path: '/auth/totp/confirm', probe: { body: {} }, expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+  { method: 'post', path: '/auth/totp/recovery-codes', probe: { body: {} }, expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+  { method: 'post', path: '/auth/totp/disable', probe: { body: {} }, expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 } },
+
   // People: admin only.
   { method: 'get', path: '/people', probe: {}, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 } },
   { method: 'post', path: '/people/invitations', probe: { body: {} }, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 400 } },
@@ -67,6 +81,10 @@ export const MATRIX: readonly MatrixRow[] = [
     probe: { params: { id: 'randomId' }, body: { displayName: 'Nobody' } },
     expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 404 },
   },
+  { method: 'post', path: '/people/:id/password-reset', probe: { params: { id: 'randomId' } }, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 404 } },
+  { method: 'post', path: '/people/:id/second-factor-reset', probe: { params: { id: 'randomId' } }, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 404 } },
+  { method: 'get', path: '/settings/sign-in', probe: {}, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 } },
+  { method: 'put', path: '/settings/sign-in', probe: { body: {} }, expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 400 } },
 
   // Procedures and drafts: everyone reads what they may see; only authors write.
   { method: 'get', path: '/procedures', probe: {}, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },

@@ -10,6 +10,7 @@ import { defaultConfig } from '../../server/deps';
 import { createLogger } from '../../server/logger';
 import { demo } from '../support/test-app';
 import { createTestDatabase } from '../support/test-db';
+import { setPasswordTokenMailedTo } from '../support/mailed-link';
 
 // The app as it runs, logging at 'info' into memory instead of stdout.
 let output = '';
@@ -76,7 +77,7 @@ describe('what reaches the log', () => {
     // A write carrying the CSRF header: an invitation, whose link holds a one-time token.
     const invite = await admin.post('/api/people/invitations', { email: 'log.check@tallowcreek.example', displayName: 'Log Check', roles: ['technician'] });
     expect(invite.status).toBe(201);
-    const inviteToken = String(invite.body.inviteUrl).split('/set-password/')[1]!;
+    const inviteToken = await setPasswordTokenMailedTo(createDb(pool), 'log.check@tallowcreek.example');
     // The invitee opens the link itself: the app shell is served for it, and its token must not be logged.
     await request(app).get(`/set-password/${inviteToken}`);
     await request(app).get(`/API/Auth/Invitations/${inviteToken}`); // Express routes paths in any case

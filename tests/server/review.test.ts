@@ -339,7 +339,10 @@ describe('transitions', () => {
     const results = await Promise.all(Array.from({ length: 50 }, () => approve(marek, revision.id, 'marek')));
     const statuses = results.map((r) => r.status);
     expect(statuses.filter((s) => s === 200)).toHaveLength(1);
-    expect(statuses.filter((s) => s === 409)).toHaveLength(49);
+    // The rest lost the race (409) or were refused before their password was checked: at most five
+    // of one person's passwords are checked at once (429, tests/server/auth-limits.test.ts).
+    expect(statuses.filter((s) => s === 409 || s === 429)).toHaveLength(49);
+    expect(statuses.filter((s) => s === 409).length).toBeGreaterThanOrEqual(1);
     expect(await signaturesOf(revision.id)).toHaveLength(1);
   }, 60_000);
 });

@@ -7,6 +7,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { people } from '../../server/db/schema';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
+import { setPasswordTokenMailedTo } from '../support/mailed-link';
 
 let t: TestApp;
 let clientDir: string;
@@ -114,17 +115,19 @@ const cookieParts = (setCookie: string[] | undefined, name: string) => {
 };
 
 describe('the session cookie', () => {
-  it('behind TLS: __Host-bw.sid, Secure, HttpOnly, SameSite=Lax, Path=/, no Domain — before and after sign-in', async () => {
+  it('behind TLS: an anonymous visitor gets only the __Host-bw.csrf cookie; sign-in gives __Host-bw.sid — Secure, HttpOnly, SameSite, Path=/, no Domain', async () => {
     const tls = await createTestApp({ publicUrl: 'https://bench.tallowcreek.example', trustProxy: 1 });
     try {
       const viaProxy = (r: request.Test) => r.set('X-Forwarded-Proto', 'https').set('Host', 'bench.tallowcreek.example');
       const session = await viaProxy(request(tls.app).get('/api/auth/session'));
-      const anon = cookieParts(session.headers['set-cookie'] as unknown as string[], '__Host-bw.sid');
-      expect(anon, 'an anonymous session cookie with the __Host- prefix').toBeDefined();
-      expect(anon!.attrs).toEqual(expect.arrayContaining(['secure', 'httponly', 'samesite=lax', 'path=/']));
+      const setCookies = session.headers['set-cookie'] as unknown as string[];
+      expect(cookieParts(setCookies, '__Host-bw.sid'), 'no session for an anonymous visitor').toBeUndefined();
+      const anon = cookieParts(setCookies, '__Host-bw.csrf');
+      expect(anon, 'the anonymous CSRF cookie with the __Host- prefix').toBeDefined();
+      expect(anon!.attrs).toEqual(expect.arrayContaining(['secure', 'httponly', 'samesite=strict', 'path=/']));
       expect(anon!.attrs.some((a) => a.startsWith('domain='))).toBe(false);
       const signIn = await viaProxy(request(tls.app).post('/api/auth/sign-in'))
-        .set('Cookie', `__Host-bw.sid=${anon!.value}`)
+        .set('Cookie', `__Host-bw.csrf=${anon!.value}`)
         .set('X-CSRF-Token', session.body.csrfToken)
         .send({ email: demo.tom.email, password: demo.tom.password });
       expect(signIn.status).toBe(200);
@@ -132,7 +135,7 @@ describe('the session cookie', () => {
       expect(signed!.attrs).toEqual(expect.arrayContaining(['secure', 'httponly', 'samesite=lax', 'path=/']));
       expect(signed!.attrs.some((a) => a.startsWith('domain='))).toBe(false);
       expect(signIn.headers['set-cookie']).toHaveLength(1);
-      // Reached over plain http (no TLS at the proxy), it never hands out the Secure cookie.
+      // Reached over plain http (no TLS at the proxy), it never hands out a Secure cookie.
       const plain = await request(tls.app).get('/api/auth/session');
       expect(plain.headers['set-cookie']).toBeUndefined();
     } finally {
@@ -140,8 +143,9 @@ describe('the session cookie', () => {
     }
   });
 
-  it('over plain http: bw.sid, HttpOnly, SameSite=Lax, without Secure', async () => {
-    const res = await t.client().get('/api/auth/session');
+  it('over plain http: bw.sid at sign-in, HttpOnly, SameSite=Lax, without Secure', async () => {
+    const res = await t.client().signIn(demo.ruth.email, demo.ruth.password);
+    expect(res.status).toBe(200);
     const c = cookieParts(res.headers['set-cookie'] as unknown as string[], 'bw.sid');
     expect(c).toBeDefined();
     expect(c!.attrs).toEqual(expect.arrayContaining(['httponly', 'samesite=lax', 'path=/']));
@@ -201,7 +205,7 @@ describe('long Unicode passphrases (ASVS 6.2.8, 6.2.9)', () => {
     const email = `passphrase-${n}@tallowcreek.example`;
     const invite = await admin.post('/api/people/invitations').send({ email, displayName: `Passphrase ${n}`, roles: ['technician'] });
     expect(invite.status).toBe(201);
-    const token = String(invite.body.inviteUrl).split('/set-password/')[1]!;
+    const token = await setPasswordTokenMailedTo(t.db, email);
     const anon = t.client();
     await anon.refreshToken();
     const set = await anon.post('/api/auth/set-password').send({ token, password });

@@ -5,3 +5,4 @@ export * from './procedures';
 export * from './mail';
 export * from './runs';
 export * from './review';
+export * from './auth';

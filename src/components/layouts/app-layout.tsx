@@ -36,6 +36,8 @@ export function AppLayout() {
     );
   const user = session.data.user;
   if (!user) return <Navigate to={paths.signIn.href(location.pathname + location.search)} replace />;
+  // The shop requires an authenticator for this role: the account page is the only way on.
+  if (session.data.enrolmentRequired && location.pathname !== paths.account.href()) return <Navigate to={paths.account.href()} replace />;
 
   const links = NAV.filter((n) => n.roles === 'all' || hasRole(user, ...n.roles));
   return (
@@ -64,10 +66,10 @@ export function AppLayout() {
           </nav>
           <SearchBox />
           <div className="ml-auto flex items-center gap-3 text-sm">
-            <span>
+            <NavLink to={paths.account.href()} className="rounded-md px-2 py-2 hover:bg-paper" title="Your account: password, authenticator, sessions">
               {user.displayName}{' '}
               <span className="text-graphite-soft">({user.roles.map((r) => ROLE_LABELS[r]).join(', ')})</span>
-            </span>
+            </NavLink>
             <button
               type="button"
               className="rounded-md border border-rule bg-card px-3 py-2 hover:bg-paper"

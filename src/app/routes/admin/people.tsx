@@ -4,6 +4,7 @@ import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { usePeople } from '@/features/people/api/get-people';
 import { InviteForm } from '@/features/people/components/invite-form';
 import { PeopleTable } from '@/features/people/components/people-table';
+import { SignInSettingsPanel } from '@/features/people/components/sign-in-settings';
 
 export default function PeoplePage() {
   const session = useSession();
@@ -20,6 +21,7 @@ export default function PeoplePage() {
       {people.isError && <Notice tone="error">{people.error.message}</Notice>}
       {people.data && <PeopleTable people={people.data.people} selfId={session.data!.user!.id} />}
       <InviteForm />
+      <SignInSettingsPanel />
     </section>
   );
 }

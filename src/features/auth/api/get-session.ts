@@ -7,11 +7,17 @@ export interface SessionUser {
   email: string;
   displayName: string;
   roles: Role[];
+  /** Signs in with an authenticator code as well. */
+  totp: boolean;
 }
 
 export interface SessionInfo {
   user: SessionUser | null;
   csrfToken: string;
+  /** The shop requires an authenticator for this person's role and they have none yet. */
+  enrolmentRequired?: boolean;
+  /** The password was right; a code from the authenticator comes next. */
+  secondFactor?: 'totp';
 }
 
 export const getSession = () => api.get<SessionInfo>('/api/auth/session');

@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 export const useInvitation = (token: string) =>
   useQuery({
     queryKey: ['invitation', token],
-    queryFn: () => api.get<{ email: string; displayName: string }>(`/api/auth/invitations/${encodeURIComponent(token)}`),
+    queryFn: () => api.get<{ email: string; displayName: string; purpose: 'invitation' | 'reset' }>(`/api/auth/invitations/${encodeURIComponent(token)}`),
     retry: false,
   });
 

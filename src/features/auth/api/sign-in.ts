@@ -4,14 +4,22 @@ import { api } from '@/lib/api-client';
 import type { SessionInfo } from './get-session';
 
 export const signIn = (body: SignInBody) => api.post<SessionInfo>('/api/auth/sign-in', body);
+export const signInWithCode = (body: { code: string }) => api.post<SessionInfo>('/api/auth/sign-in/code', body);
+
+/** Once someone is signed in, nothing cached for the previous visitor may show. */
+function useSignedIn() {
+  const queryClient = useQueryClient();
+  return (session: SessionInfo) => {
+    if (!session.user) return; // half-way: the code step follows
+    queryClient.clear();
+    queryClient.setQueryData(['session'], session);
+  };
+}
 
 export function useSignIn() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: signIn,
-    onSuccess: (session) => {
-      queryClient.clear();
-      queryClient.setQueryData(['session'], session);
-    },
-  });
+  return useMutation({ mutationFn: signIn, onSuccess: useSignedIn() });
+}
+
+export function useSignInWithCode() {
+  return useMutation({ mutationFn: signInWithCode, onSuccess: useSignedIn() });
 }

@@ -5,7 +5,7 @@ import { api } from '@/lib/api-client';
 
 export interface InviteResult {
   person: PersonView;
-  inviteUrl: string;
+  mailedTo: string;
   expiresInDays: number;
 }
 

@@ -31,8 +31,8 @@ export function InviteForm() {
       {invite.error && <Notice tone="error">{invite.error.message}</Notice>}
       {invite.data && (
         <Notice tone="success">
-          {invite.data.person.displayName} is invited. Send them this one-time link (valid {invite.data.expiresInDays} days):
-          <code className="value mt-2 block overflow-x-auto rounded bg-card p-2 text-xs text-graphite">{invite.data.inviteUrl}</code>
+          {invite.data.person.displayName} is invited. An e-mail with a one-time link to choose a password went to {invite.data.mailedTo} (valid{' '}
+          {invite.data.expiresInDays} days). The link is sent to them only.
         </Notice>
       )}
       <div className="grid gap-4 sm:grid-cols-2">

@@ -1,10 +1,13 @@
 import type { PersonView } from '@shared/schemas/people';
 import { ROLE_LABELS, ROLES, type Role } from '@shared/schemas/roles';
 import { Notice } from '@/components/ui/notice';
+import { usePasswordReset, useSecondFactorReset } from '../api/account-admin';
 import { useUpdatePerson } from '../api/update-person';
 
 export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: string }) {
   const update = useUpdatePerson();
+  const reset = usePasswordReset();
+  const clearCodes = useSecondFactorReset();
   const toggleRole = (p: PersonView, role: Role, on: boolean) => {
     const roles = on ? [...p.roles, role] : p.roles.filter((r) => r !== role);
     update.mutate({ id: p.id, roles });
@@ -12,6 +15,14 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
   return (
     <div className="flex flex-col gap-3">
       {update.error && <Notice tone="error">{update.error.message}</Notice>}
+      {reset.error && <Notice tone="error">{reset.error.message}</Notice>}
+      {clearCodes.error && <Notice tone="error">{clearCodes.error.message}</Notice>}
+      {reset.data && (
+        <Notice tone="success">
+          A one-time link to choose a new password went to {reset.data.mailedTo} (valid {reset.data.expiresInHours} hours). Their current password works until they use it.
+        </Notice>
+      )}
+      {clearCodes.data && <Notice tone="success">{clearCodes.data.person.displayName}’s authenticator is cleared; they are signed out everywhere.</Notice>}
       <div className="overflow-x-auto rounded-lg border border-rule bg-card">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-rule bg-paper-deep">
@@ -24,6 +35,7 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                 </th>
               ))}
               <th className="px-3 py-2">Status</th>
+              <th className="px-3 py-2">Codes</th>
               <th className="px-3 py-2">
                 <span className="sr-only">Actions</span>
               </th>
@@ -47,7 +59,30 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                   </td>
                 ))}
                 <td className="px-3 py-2">{!p.active ? 'Deactivated' : p.hasPassword ? 'Active' : 'Invited'}</td>
-                <td className="px-3 py-2 text-right">
+                <td className="px-3 py-2">{p.totp ? 'On' : '—'}</td>
+                <td className="flex flex-wrap justify-end gap-2 px-3 py-2 text-right">
+                  {p.active && (
+                    <button
+                      type="button"
+                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                      aria-label={`Mail ${p.displayName} a password link`}
+                      disabled={reset.isPending}
+                      onClick={() => reset.mutate(p.id)}
+                    >
+                      {p.hasPassword ? 'Mail reset link' : 'Mail new invitation link'}
+                    </button>
+                  )}
+                  {p.totp && p.id !== selfId && (
+                    <button
+                      type="button"
+                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                      aria-label={`Clear ${p.displayName}’s authenticator`}
+                      disabled={clearCodes.isPending}
+                      onClick={() => clearCodes.mutate(p.id)}
+                    >
+                      Clear authenticator
+                    </button>
+                  )}
                   {p.id !== selfId && (
                     <button
                       type="button"

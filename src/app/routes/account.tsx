@@ -1,0 +1,30 @@
+import { useEffect } from 'react';
+import { Notice } from '@/components/ui/notice';
+import { useAccount } from '@/features/account/api/account';
+import { AuthenticatorPanel } from '@/features/account/components/authenticator-panel';
+import { ChangePasswordForm } from '@/features/account/components/change-password-form';
+import { SignOutEverywhere } from '@/features/account/components/sign-out-everywhere';
+
+export default function AccountPage() {
+  const account = useAccount();
+  useEffect(() => {
+    document.title = 'Your account · Benchwright';
+  }, []);
+  return (
+    <section className="flex max-w-2xl flex-col gap-6">
+      <h1 className="text-2xl font-semibold">Your account</h1>
+      {account.isPending && <p>Loading…</p>}
+      {account.isError && <Notice tone="error">{account.error.message}</Notice>}
+      {account.data && (
+        <>
+          <p className="text-sm">
+            Signed in as <strong>{account.data.user.displayName}</strong> ({account.data.user.email}).
+          </p>
+          <AuthenticatorPanel account={account.data} />
+          <ChangePasswordForm />
+          <SignOutEverywhere />
+        </>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,169 @@
+import { useEffect, useState, type FormEvent } from 'react';
+import { Button } from '@/components/ui/button';
+import { Field } from '@/components/ui/field';
+import { Notice } from '@/components/ui/notice';
+import { useConfirmTotp, useDisableTotp, useNewRecoveryCodes, useStartTotpSetup, type AccountInfo } from '../api/account';
+
+/** The otpauth:// address as an SVG QR code in a data: URL (allowed by the page's img-src). */
+function useQrImage(text: string | undefined) {
+  const [src, setSrc] = useState<string>();
+  useEffect(() => {
+    if (!text) return setSrc(undefined);
+    let live = true;
+    void import('qrcode').then(async (m) => {
+      const qr = ('default' in m ? m.default : m) as typeof m;
+      const svg = await qr.toString(text, { type: 'svg', margin: 1, errorCorrectionLevel: 'M' });
+      if (live) setSrc(`data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`);
+    });
+    return () => {
+      live = false;
+    };
+  }, [text]);
+  return src;
+}
+
+function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void }) {
+  return (
+    <div className="flex flex-col gap-3">
+      <Notice tone="success">
+        Keep these recovery codes somewhere safe, away from your phone. Each one signs you in once if you lose the authenticator. They are shown only now.
+      </Notice>
+      <ol aria-label="Recovery codes" className="value grid gap-1 rounded-md border border-rule bg-paper p-3 sm:grid-cols-2">
+        {codes.map((c) => (
+          <li key={c}>{c}</li>
+        ))}
+      </ol>
+      <Button className="self-start" onClick={onDone}>
+        I have kept them
+      </Button>
+    </div>
+  );
+}
+
+/** A password field and a button, for the steps that ask for the password again. */
+function PasswordStep({ label, pending, error, onSubmit, variant = 'primary' }: { label: string; pending: boolean; error?: string; onSubmit: (password: string) => void; variant?: 'primary' | 'danger' | 'quiet' }) {
+  const [password, setPassword] = useState('');
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    onSubmit(password);
+  };
+  return (
+    <form onSubmit={submit} aria-label={label} className="flex flex-col gap-3" noValidate>
+      <Field label="Your password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={error} />
+      <Button type="submit" variant={variant} className="self-start" disabled={pending || !password}>
+        {label}
+      </Button>
+    </form>
+  );
+}
+
+export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
+  const start = useStartTotpSetup();
+  const confirm = useConfirmTotp();
+  const renew = useNewRecoveryCodes();
+  const disable = useDisableTotp();
+  const [code, setCode] = useState('');
+  const [shownCodes, setShownCodes] = useState<string[]>();
+  const [action, setAction] = useState<'renew' | 'disable'>();
+  const qr = useQrImage(start.data?.otpauthUrl);
+  const { enabled, required, recoveryCodesLeft } = account.secondFactor;
+
+  const confirmCode = (e: FormEvent) => {
+    e.preventDefault();
+    confirm.mutate(
+      { code: code.trim() },
+      {
+        onSuccess: (r) => {
+          setShownCodes(r.recoveryCodes);
+          start.reset();
+          setCode('');
+        },
+      },
+    );
+  };
+
+  return (
+    <section aria-label="Authenticator codes" className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-5">
+      <h2 className="text-lg font-semibold">Authenticator codes</h2>
+      <p className="text-sm">
+        With an authenticator app on your phone, signing in takes your password and a six-digit code that changes every 30 seconds, so a leaked password alone is not enough.
+      </p>
+      {required && !enabled && <Notice tone="error">The shop requires authenticator codes for your role. Set one up to go on using Benchwright.</Notice>}
+
+      {shownCodes ? (
+        <RecoveryCodes codes={shownCodes} onDone={() => setShownCodes(undefined)} />
+      ) : enabled ? (
+        <>
+          <p className="text-sm">
+            <strong>On.</strong> {recoveryCodesLeft} of 10 recovery codes left{recoveryCodesLeft <= 3 ? ' — make new ones soon.' : '.'}
+          </p>
+          {action === 'renew' ? (
+            <PasswordStep
+              label="Make new recovery codes"
+              pending={renew.isPending}
+              error={renew.error?.message}
+              onSubmit={(password) =>
+                renew.mutate(
+                  { password },
+                  {
+                    onSuccess: (r) => {
+                      setShownCodes(r.recoveryCodes);
+                      setAction(undefined);
+                    },
+                  },
+                )
+              }
+            />
+          ) : action === 'disable' ? (
+            <PasswordStep
+              label="Turn authenticator codes off"
+              variant="danger"
+              pending={disable.isPending}
+              error={disable.error?.message}
+              onSubmit={(password) => disable.mutate({ password }, { onSuccess: () => setAction(undefined) })}
+            />
+          ) : (
+            <div className="flex flex-wrap gap-3">
+              <Button variant="quiet" onClick={() => setAction('renew')}>
+                New recovery codes
+              </Button>
+              {!required && (
+                <Button variant="danger" onClick={() => setAction('disable')}>
+                  Turn off
+                </Button>
+              )}
+            </div>
+          )}
+        </>
+      ) : start.data ? (
+        <form onSubmit={confirmCode} aria-label="Finish setting up the authenticator" className="flex flex-col gap-4" noValidate>
+          <ol className="list-decimal space-y-1 pl-5 text-sm">
+            <li>Open your authenticator app and add an account by scanning this code.</li>
+            <li>Type the six-digit code the app then shows for Benchwright.</li>
+          </ol>
+          {qr ? <img src={qr} alt="QR code to scan with the authenticator app" width={200} height={200} className="rounded border border-rule bg-white p-2" /> : <p>Drawing the QR code…</p>}
+          <p className="text-sm">
+            Cannot scan? Enter this key by hand (time-based, 6 digits):{' '}
+            <code data-testid="totp-key" className="value break-all rounded bg-paper px-1">
+              {start.data.secret}
+            </code>
+          </p>
+          {confirm.error && !confirm.error.fields.length && <Notice tone="error">{confirm.error.message}</Notice>}
+          <Field
+            label="Code from the app"
+            autoComplete="one-time-code"
+            inputMode="numeric"
+            value={code}
+            onChange={(e) => setCode(e.target.value)}
+            error={confirm.error?.fields.length ? confirm.error.message : undefined}
+          />
+          <Button type="submit" className="self-start" disabled={confirm.isPending || code.trim().length < 6}>
+            Turn on authenticator codes
+          </Button>
+        </form>
+      ) : (
+        <PasswordStep label="Set up an authenticator" pending={start.isPending} error={start.error?.message} onSubmit={(password) => start.mutate({ password })} />
+      )}
+    </section>
+  );
+}
