@@ -16,6 +16,7 @@ import { conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { wroteOrEdited } from './four-eyes';
 import { confirmSignerPassword } from './reauth';
+import { tellTechniciansOnHold } from '../runs/run-hold';
 import { queueDecision, queueReviewRequested } from './review-mail';
 import { signRevision } from './signatures';
 
@@ -155,12 +156,15 @@ export async function decideRevision(
   return result;
 }
 
-/** Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. */
+/**
+ * Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. Open
+ * bench runs on it go on hold (refused from then on, see runs/run-hold.ts); their technicians are mailed.
+ */
 export async function withdrawProcedure(deps: AppDeps, user: SessionUser, procedureId: string, input: { password: string; reason: string }, req: Request) {
   const [proc] = await deps.db.select().from(procedures).where(eq(procedures.id, procedureId));
   if (!proc) throw notFound('No such procedure.');
   await confirmSignerPassword(deps.db, user, input.password, req, `${proc.title} (withdraw)`);
-  return deps.db.transaction(async (tx) => {
+  const result = await deps.db.transaction(async (tx) => {
     await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
     const [approved] = await tx
       .select()
@@ -192,13 +196,16 @@ export async function withdrawProcedure(deps: AppDeps, user: SessionUser, proced
       reauthAuditId,
       requestId: req.id === undefined ? undefined : String(req.id),
     });
+    const runsOnHold = await tellTechniciansOnHold(tx, deps.config.publicUrl, updated, input.reason, user.displayName);
     await recordAudit(tx, {
       action: 'revision.withdrawn',
       actorId: user.id,
       subject,
-      details: { revisionId: updated.id, from: 'approved', to: 'withdrawn', signatureId: signature.id, reason: input.reason.slice(0, 500) },
+      details: { revisionId: updated.id, from: 'approved', to: 'withdrawn', signatureId: signature.id, reason: input.reason.slice(0, 500), runsOnHold },
       req,
     });
     return { revision: updated, signature };
   });
+  await deps.mailer?.flush();
+  return result;
 }
