@@ -32,6 +32,8 @@ export const AUDIT_ACTIONS = [
   'sign-off.reauthenticated',
   'sign-off.failed',
   'review.commented',
+  'run.handed-over',
+  'run.abandoned',
 ] as const;
 
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];

@@ -76,9 +76,20 @@ export const entryBody = z
     note: z.string().max(2000, 'at most 2000 characters').optional(),
     /** Why a recorded measurement is being changed; required for a change. */
     reason: z.string().trim().max(500, 'at most 500 characters').optional(),
+    /** Who made the entry (their person id): the server refuses it from anyone else's session. */
+    by: z.uuid('not a valid person id').optional(),
   })
   .strict();
 export type EntryBody = z.infer<typeof entryBody>;
+
+const why = (what: string) => z.string({ error: `give the reason for ${what}` }).trim().min(3, `give the reason for ${what} (at least 3 characters)`).max(500, 'at most 500 characters');
+
+/** Hand an open run over to another technician, who performs (and signs) it from then on. */
+export const handoverBody = z.object({ to: z.uuid('choose the technician who takes the run over'), reason: why('the handover') }).strict();
+export type HandoverBody = z.infer<typeof handoverBody>;
+
+/** Close an open run without signing it (the unit left, or the revision it follows was withdrawn). */
+export const abandonBody = z.object({ reason: why('closing the run') }).strict();
 
 export const signRunBody = z
   .object({
@@ -90,7 +101,7 @@ export const signRunBody = z
 
 export const runListQuery = z
   .object({
-    status: z.enum(['in_progress', 'signed']).optional(),
+    status: z.enum(['in_progress', 'signed', 'abandoned'], 'not a run status').optional(),
     unitId: z.uuid().optional(),
     mine: z.enum(['1']).optional(),
   })
@@ -161,10 +172,31 @@ export interface RevisionRecord {
   signOffs: { name: string; meaning: string; signedAt: string }[];
 }
 
+export type RunStatus = 'in_progress' | 'signed' | 'abandoned';
+type Person = { id: string; displayName: string };
+
+/** A run whose revision was withdrawn while it was open: nothing more can be recorded or signed. */
+export interface RunHold {
+  reason: string;
+  /** Who withdrew the revision, as signed. */
+  by: string;
+  at: string;
+  revisionNumber: number;
+}
+
+export interface RunHandoverView {
+  from: Person;
+  to: Person;
+  /** The performer who handed over, or an admin who reassigned the run. */
+  by: Person;
+  reason: string;
+  at: string;
+}
+
 export interface RunView {
   id: string;
   title: string;
-  status: 'in_progress' | 'signed';
+  status: RunStatus;
   outOfTolerance: boolean;
   unit: { id: string; model: string; serial: string; owner: string; jobNumber: string };
   revision: RevisionRecord;
@@ -175,6 +207,12 @@ export interface RunView {
   photos: RunPhotoView[];
   signature: RunSignatureView | null;
   startedBy: { id: string; displayName: string };
+  /** Who performs the run now: the only person who may record entries and sign. */
+  performedBy: Person;
+  handovers: RunHandoverView[];
+  hold: RunHold | null;
+  /** Closed as abandoned. */
+  closed: { by: Person; reason: string; at: string } | null;
   startedAt: string;
   signedAt: string | null;
   progress: { done: number; total: number; outOfTolerance: number };
@@ -185,11 +223,13 @@ export interface RunView {
 export interface RunListItem {
   id: string;
   title: string;
-  status: 'in_progress' | 'signed';
+  status: RunStatus;
+  onHold: boolean;
   outOfTolerance: boolean;
   revisionNumber: number;
   unit: { id: string; model: string; serial: string };
   startedBy: { id: string; displayName: string };
+  performedBy: Person;
   startedAt: string;
   signedAt: string | null;
   progress: { done: number; total: number };

@@ -58,7 +58,7 @@ export interface UnitRunSummary {
   id: string;
   title: string;
   revisionNumber: number;
-  status: 'in_progress' | 'signed';
+  status: 'in_progress' | 'signed' | 'abandoned';
   outOfTolerance: boolean;
   startedAt: string;
   signedAt: string | null;

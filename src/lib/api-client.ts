@@ -16,7 +16,14 @@ export class ApiError extends Error {
   }
 }
 
+export interface Person {
+  id: string;
+  displayName: string;
+}
+
 let csrfToken = '';
+/** Whose session the token belongs to, as the server said with it (null: nobody signed in). */
+let tokenOwner: Person | null = null;
 export const setCsrfToken = (token: string) => {
   csrfToken = token;
 };
@@ -25,7 +32,13 @@ export const getCsrfToken = () => csrfToken;
 
 type Json = Record<string, unknown> | unknown[];
 
-async function request<T>(method: string, url: string, body?: Json, retried = false): Promise<T> {
+export interface WriteOptions {
+  /** Who made this write (a queued entry keeps its maker); by default whoever the token belonged to when it was sent. */
+  madeBy?: Person | null;
+}
+
+async function request<T>(method: string, url: string, body?: Json, opts: WriteOptions & { retried?: boolean } = {}): Promise<T> {
+  const madeBy = opts.madeBy === undefined ? tokenOwner : opts.madeBy;
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
   if (method !== 'GET') headers['X-CSRF-Token'] = csrfToken;
@@ -38,16 +51,29 @@ async function request<T>(method: string, url: string, body?: Json, retried = fa
   const text = await res.text();
   const data = text ? (JSON.parse(text) as Record<string, unknown>) : {};
   // The token went stale (a sign-in in another tab, or an answer to an older request arriving
-  // last): fetch the session's current one and send the write once more.
-  if (res.status === 403 && data.code === 'csrf' && method !== 'GET' && !retried) {
-    await request('GET', '/api/auth/session');
-    return request<T>(method, url, body, true);
+  // last): fetch the session's current one and send the write once more — but only if the session
+  // still belongs to the person who made the write; it is never sent in someone else's name.
+  if (res.status === 403 && data.code === 'csrf' && method !== 'GET' && !opts.retried) {
+    const session = await request<{ user: Person | null }>('GET', '/api/auth/session');
+    if (madeBy && session.user && session.user.id !== madeBy.id) {
+      const now = session.user.displayName;
+      throw new ApiError(403, `Signed in as ${now}; this was done by ${madeBy.displayName} — sign in as ${madeBy.displayName} to send it.`, [], {
+        code: 'session-changed',
+        signedInAs: { id: session.user.id, displayName: now },
+        madeBy,
+      });
+    }
+    return request<T>(method, url, body, { madeBy, retried: true });
   }
   if (!res.ok) {
     const message = typeof data.error === 'string' ? data.error : `The server answered ${res.status}.`;
     throw new ApiError(res.status, message, (data.fields as FieldProblem[]) ?? [], data);
   }
-  if (typeof data.csrfToken === 'string') setCsrfToken(data.csrfToken);
+  if (typeof data.csrfToken === 'string') {
+    setCsrfToken(data.csrfToken);
+    const user = data.user as Person | null | undefined;
+    if (user !== undefined) tokenOwner = user ? { id: user.id, displayName: user.displayName } : null;
+  }
   return data as T;
 }
 
@@ -55,7 +81,7 @@ export const api = {
   get: <T>(url: string) => request<T>('GET', url),
   post: <T>(url: string, body: Json = {}) => request<T>('POST', url, body),
   patch: <T>(url: string, body: Json) => request<T>('PATCH', url, body),
-  put: <T>(url: string, body: Json) => request<T>('PUT', url, body),
+  put: <T>(url: string, body: Json, opts?: WriteOptions) => request<T>('PUT', url, body, opts),
   delete: <T>(url: string) => request<T>('DELETE', url),
 };
 

@@ -144,5 +144,9 @@ export const MATRIX: readonly MatrixRow[] = [
   },
   { method: 'post', path: '/runs/:id/photos', probe: { params: { id: 'run' } }, expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 } },
   { method: 'post', path: '/runs/:id/sign', probe: { params: { id: 'run' }, body: {} }, expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 } },
+  // A run changes hands, or is closed as abandoned, by its performer (a technician) or by an admin when the performer is away.
+  { method: 'get', path: '/runs/technicians', probe: {}, expect: { anonymous: 401, technician: 200, author: 403, reviewer: 403, admin: 200 } },
+  { method: 'post', path: '/runs/:id/handover', probe: { params: { id: 'run' }, body: {} }, expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 400 } },
+  { method: 'post', path: '/runs/:id/abandon', probe: { params: { id: 'run' }, body: {} }, expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 400 } },
   { method: 'get', path: '/runs/:id/sheet.pdf', probe: { params: { id: 'run' } }, expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 } },
 ];

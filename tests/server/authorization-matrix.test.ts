@@ -124,9 +124,7 @@ describe('object-level checks', () => {
     expect(rows.find((p) => p.email === demo.hal.email)!.roles).toEqual(['author']);
   });
 
-  it('any technician may sign a run sheet (as the code intends); the signature names who signed, not who started', async () => {
-    // Runs are shared at the bench (another technician may correct an entry), so signing is not
-    // limited to the technician who started the run; attribution comes from the signature itself.
+  it('only the run’s performer signs its sheet; after a recorded handover the new performer signs, and the sheet names both', async () => {
     const tom = clients.get('technician')!;
     const unit = await newUnit(tom);
     const run = (await startRun(tom, targets.approvedRevision, unit.id)).body.run;
@@ -137,9 +135,14 @@ describe('object-level checks', () => {
       ['ck-discharge', { done: true }],
     ] as const) expect((await entry(tom, run.id, step, body)).status).toBe(200);
     const priya = await t.as('priya');
+    expect((await priya.post(`/api/runs/${run.id}/sign`).send({ password: demo.priya.password })).status).toBe(403);
+    const priyaId = (await priya.get('/api/auth/session')).body.user.id;
+    expect((await tom.post(`/api/runs/${run.id}/handover`).send({ to: priyaId, reason: 'Priya signs off the bench today.' })).status).toBe(200);
+    expect((await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password })).status).toBe(403);
     const signed = await priya.post(`/api/runs/${run.id}/sign`).send({ password: demo.priya.password });
     expect(signed.status).toBe(200);
     expect(signed.body.run.startedBy.displayName).toBe('Tom Achterberg');
+    expect(signed.body.run.handovers).toMatchObject([{ from: { displayName: 'Tom Achterberg' }, to: { displayName: 'Priya Lindqvist' } }]);
     expect(signed.body.run.signature).toMatchObject({ signer: { displayName: 'Priya Lindqvist' }, signerRole: 'technician', meaning: 'performed', verified: true });
     // An author cannot sign a run sheet at all.
     expect((await clients.get('author')!.post(`/api/runs/${run.id}/sign`).send({ password: demo.hal.password })).status).toBe(403);

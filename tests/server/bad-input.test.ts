@@ -32,7 +32,7 @@ const hostileString = fc.constantFrom('a\u0000b', '\u0000', 'x\u0007y', 'Tom\u20
 const nearValid = fc.oneof(
   fc.anything(),
   fc.dictionary(fc.constantFrom('title', 'email', 'displayName', 'password', 'comment', 'value', 'note', 'reason', 'serial', 'owner', 'tags'), hostileString),
-  fc.dictionary(fc.constantFrom('title', 'email', 'roles', 'password', 'document', 'params', 'lockVersion', 'comment', 'value', 'measured', 'state', 'role', 'tags', 'id'), fc.anything()),
+  fc.dictionary(fc.constantFrom('title', 'email', 'roles', 'password', 'document', 'params', 'lockVersion', 'comment', 'value', 'measured', 'state', 'role', 'tags', 'id', 'to', 'reason', 'by'), fc.anything()),
   fc.record({ lockVersion: fc.oneof(fc.integer(), fc.double(), fc.constant(Number.NaN)), document: fc.anything(), params: fc.anything() }),
   fc.constantFrom({ value: 'NaN' }, { value: 'Infinity' }, { value: '-Infinity' }, { value: '1e309' }, { measured: '1e309 V' }, { measured: '3 furlongs' }),
 );

@@ -160,7 +160,7 @@ describe('entries', () => {
     expect((await entry(tom, run.id, 'hz-ht-live', { done: false, reason: 'x' })).status).toBe(400);
   });
 
-  it('an edited measurement keeps its original, with who, when and why; another technician sees it', async () => {
+  it('an edited measurement keeps its original, with who, when and why; the technician the run was handed to corrects it', async () => {
     const { tom, run } = await openRun();
     await entry(tom, run.id, 'hz-ht-live', { done: true });
     await entry(tom, run.id, 'rd-heater', { value: '6.1 V', note: 'meter on 20 V range' });
@@ -168,6 +168,8 @@ describe('entries', () => {
     expect(noReason.status).toBe(400);
     expect(noReason.body.fields[0].field).toBe('body.reason');
     const priya = await t.as('priya');
+    const priyaId = (await priya.get('/api/auth/session')).body.user.id;
+    expect((await tom.post(`/api/runs/${run.id}/handover`).send({ to: priyaId, reason: 'Priya finishes the heater checks.' })).status).toBe(200);
     const fixed = await entry(priya, run.id, 'rd-heater', { value: '6.35 V', reason: 'misread the display' });
     expect(fixed.status).toBe(200);
     const seen = (await tom.get(`/api/runs/${run.id}`)).body.run.entries.find((e: { stepId: string }) => e.stepId === 'rd-heater');
@@ -303,7 +305,7 @@ describe('nothing lost', () => {
     try {
       const agent = supertest.agent(app2);
       const session = await agent.get('/api/auth/session');
-      const signIn = await agent.post('/api/auth/sign-in').set('x-csrf-token', session.body.csrfToken).send({ email: demo.priya.email, password: demo.priya.password });
+      const signIn = await agent.post('/api/auth/sign-in').set('x-csrf-token', session.body.csrfToken).send({ email: demo.tom.email, password: demo.tom.password });
       expect(signIn.status).toBe(200);
       const back = await agent.get(`/api/runs/${run.id}`);
       expect(back.status).toBe(200);

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { bigserial, boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { bigserial, boolean, check, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { Snapshot } from '../../../shared/document/evaluate';
 import type { RunStep } from '../../../shared/schemas/runs';
@@ -45,7 +45,7 @@ export const unitPhotos = pgTable(
   (t) => [index('unit_photos_unit_idx').on(t.unitId), index('unit_photos_attachment_idx').on(t.attachmentId)],
 );
 
-export const RUN_STATUSES = ['in_progress', 'signed'] as const;
+export const RUN_STATUSES = ['in_progress', 'signed', 'abandoned'] as const;
 export type RunStatus = (typeof RUN_STATUSES)[number];
 
 /**
@@ -79,13 +79,54 @@ export const runs = pgTable(
     startedBy: uuid()
       .notNull()
       .references(() => people.id),
+    /** Who performs the run now: the only person who may record entries and sign (changed by a recorded handover). */
+    performedBy: uuid()
+      .notNull()
+      .references(() => people.id),
     startedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     signedAt: timestamp({ withTimezone: true }),
+    /** Closed as abandoned: when, by whom and why (the run is frozen from then on). */
+    closedAt: timestamp({ withTimezone: true }),
+    closedBy: uuid().references(() => people.id),
+    closeReason: text(),
     contentHash: text(),
     /** The unit as it was when the run sheet was signed (the register itself stays editable). */
     unitRecord: jsonb().$type<{ id: string; model: string; serial: string; owner: string; jobNumber: string }>(),
   },
-  (t) => [index('runs_unit_idx').on(t.unitId), index('runs_revision_idx').on(t.revisionId), index('runs_status_idx').on(t.status)],
+  (t) => [
+    index('runs_unit_idx').on(t.unitId),
+    index('runs_revision_idx').on(t.revisionId),
+    index('runs_status_idx').on(t.status),
+    check('runs_status_ck', sql`${t.status} in ('in_progress', 'signed', 'abandoned')`),
+    check('runs_abandoned_ck', sql`${t.status} <> 'abandoned' or (${t.closedAt} is not null and ${t.closedBy} is not null and ${t.closeReason} is not null)`),
+  ],
+);
+
+/** Append-only: each handover of a run from one technician to another, with who made it and why. */
+export const runHandovers = pgTable(
+  'run_handovers',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    runId: uuid()
+      .notNull()
+      .references(() => runs.id),
+    fromId: uuid()
+      .notNull()
+      .references(() => people.id),
+    fromName: text().notNull(),
+    toId: uuid()
+      .notNull()
+      .references(() => people.id),
+    toName: text().notNull(),
+    /** The performer handing over, or an admin reassigning the run. */
+    byId: uuid()
+      .notNull()
+      .references(() => people.id),
+    byName: text().notNull(),
+    reason: text().notNull(),
+    at: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('run_handovers_run_idx').on(t.runId)],
 );
 
 /** The current entry for each step of a run; every version is also kept in run_entry_history. */

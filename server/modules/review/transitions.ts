@@ -17,6 +17,7 @@ import { conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { countsAsAuthor, wroteOrEdited } from './four-eyes';
 import { confirmSignerPassword } from './reauth';
+import { tellTechniciansOnHold } from '../runs/run-hold';
 import { queueDecision, queueReviewRequested } from './review-mail';
 import { createProcedure, type NewProcedure } from '../procedures/procedures.service';
 import { signRevision, type Signer } from './signatures';
@@ -256,10 +257,19 @@ export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer 
   return { revision: updated, signature };
 }
 
-/** Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. */
+/**
+ * Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. Open
+ * bench runs on it go on hold (refused from then on, see runs/run-hold.ts); their technicians are mailed.
+ */
 export async function withdrawProcedure(deps: AppDeps, user: SessionUser, procedureId: string, input: { password: string; reason: string }, req: Request) {
   const [proc] = await deps.db.select().from(procedures).where(eq(procedures.id, procedureId));
   if (!proc) throw notFound('No such procedure.');
   await confirmSignerPassword(deps.db, user, input.password, req, `${proc.title} (withdraw)`);
-  return deps.db.transaction((tx) => recordWithdrawal(tx, deps.files, user, procedureId, { reason: input.reason, reauthenticated: true, req }));
+  const result = await deps.db.transaction(async (tx) => {
+    const withdrawn = await recordWithdrawal(tx, deps.files, user, procedureId, { reason: input.reason, reauthenticated: true, req });
+    await tellTechniciansOnHold(tx, deps.config.publicUrl, withdrawn.revision, input.reason, user.displayName);
+    return withdrawn;
+  });
+  await deps.mailer?.flush();
+  return result;
 }

@@ -43,9 +43,10 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
 
   doc.font('Helvetica-Bold').fontSize(16).text(pdfText(`Run sheet: ${run.title}`), { width });
   doc.font('Helvetica').fontSize(9).fillColor('#5a5650').text(pdfText(`Benchwright bench run ${run.id}`)).fillColor('#2b2a28');
-  if (run.status !== 'signed') {
-    doc.moveDown(0.3).font('Helvetica-Bold').fontSize(11).fillColor('#a3261b').text('NOT SIGNED: this bench run is still in progress.').fillColor('#2b2a28');
-  }
+  const alert = (t: string) => doc.moveDown(0.3).font('Helvetica-Bold').fontSize(11).fillColor('#a3261b').text(pdfText(t), { width }).fillColor('#2b2a28');
+  if (run.closed) alert(`ABANDONED, NOT SIGNED: closed by ${run.closed.by.displayName}, ${utc(run.closed.at)}. Reason: ${run.closed.reason}`);
+  else if (run.status !== 'signed') alert('NOT SIGNED: this bench run is still in progress.');
+  if (run.hold) alert(`ON HOLD: revision ${run.hold.revisionNumber} was withdrawn by ${run.hold.by}, ${utc(run.hold.at)}. Reason: ${run.hold.reason}`);
   if (run.outOfTolerance) {
     doc.moveDown(0.3).font('Helvetica-Bold').fontSize(11).fillColor('#a3261b').text(`OUT OF TOLERANCE: ${run.progress.outOfTolerance} reading(s) outside their band.`).fillColor('#2b2a28');
   }
@@ -83,15 +84,21 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   line('Mains frequency', formatQuantity(run.params.mainsFrequency, 'Hz', 3));
   line('Nominal mains of the procedure', formatQuantity(run.params.mainsNominal, 'V', 4));
   line('Started', `${utc(run.startedAt)} by ${run.startedBy.displayName}`);
+  for (const h of run.handovers) {
+    line('Handed over', `${h.from.displayName} handed the run over to ${h.to.displayName}, ${utc(h.at)}${h.by.id !== h.from.id ? ` (reassigned by ${h.by.displayName})` : ''}`);
+    line('Reason', h.reason);
+  }
+  if (run.status === 'in_progress') line('Performed by', run.performedBy.displayName);
 
   // Readings table
   heading('Readings');
   const cols = [
-    { title: 'Reading', w: 0.27 },
-    { title: 'Expected band', w: 0.22 },
-    { title: 'Measured', w: 0.15 },
-    { title: 'Deviation', w: 0.18 },
-    { title: 'Mark', w: 0.18 },
+    { title: 'Reading', w: 0.25 },
+    { title: 'Expected band', w: 0.19 },
+    { title: 'Measured', w: 0.13 },
+    { title: 'Deviation', w: 0.16 },
+    { title: 'Mark', w: 0.12 },
+    { title: 'Recorded by', w: 0.15 },
   ].map((c) => ({ ...c, w: c.w * width }));
   const row = (cells: string[], bold = false, tint?: string) => {
     doc.font(bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8.5);
@@ -117,7 +124,7 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
     const dev = e?.deviation != null ? `${sign(e.deviation)}${formatQuantity(e.deviation, r.unit, 3)}${e.deviationPercent != null ? ` (${sign(e.deviationPercent)}${formatNumber(e.deviationPercent, 2)} %)` : ''}` : '—';
     const mark = !e || e.measured === null ? 'not recorded' : e.within === null ? 'no band' : e.within ? 'within' : 'OUT of tolerance';
     row(
-      [`${step.position}. ${step.text}\n${r.testPoint}`, r.bandText ?? r.error ?? '—', e?.raw ? `${qty(e.measured, r.unit)}${e.version > 1 ? ' (corrected)' : ''}` : '—', dev, mark],
+      [`${step.position}. ${step.text}\n${r.testPoint}`, r.bandText ?? r.error ?? '—', e?.raw ? `${qty(e.measured, r.unit)}${e.version > 1 ? ' (corrected)' : ''}` : '—', dev, mark, e?.enteredBy.displayName ?? '—'],
       false,
       e?.within === false ? '#f6dcd6' : undefined,
     );

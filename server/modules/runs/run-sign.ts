@@ -8,6 +8,7 @@ import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import { confirmSignerPassword } from '../review/reauth';
 import { revisionContentHash } from '../review/signed-content';
+import { assertWritable } from './run-custody';
 import { runContentHash } from './run-hash';
 import { isFinished } from './run-steps';
 import { runContent, unitRecordOf } from './run-view';
@@ -21,14 +22,17 @@ export const runSheetPath = (runId: string) => `/runs/${runId}`;
  */
 export async function signRun(deps: AppDeps, user: SessionUser, runId: string, body: { password: string; meaning: 'performed'; reason?: string }, req: Request) {
   const { db } = deps;
-  const [exists] = await db.select({ id: runs.id, status: runs.status }).from(runs).where(eq(runs.id, runId));
+  const [exists] = await db.select().from(runs).where(eq(runs.id, runId));
   if (!exists) throw notFound('No such bench run.');
   if (exists.status === 'signed') throw conflict('This run sheet is already signed.');
+  // Only the performer signs, never on hold: said before the password is asked for (and again under the lock).
+  await assertWritable(db, exists, user);
   await confirmSignerPassword(db, user, body.password, req, `run ${runId}`);
 
   const result = await db.transaction(async (tx) => {
     const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
     if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
+    await assertWritable(tx, run, user);
     const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
     const byStep = new Map(entries.map((e) => [e.stepId, e]));
     const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));

@@ -1,10 +1,11 @@
 import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
-import type { EntryView, RevisionRecord, RunListItem, RunView } from '../../../shared/schemas/runs';
+import type { EntryView, RevisionRecord, RunListItem, RunStatus, RunView } from '../../../shared/schemas/runs';
 import type { Db } from '../../db/client';
-import { attachments, people, revisions, runEntries, runEntryHistory, runPhotos, runs, runSignatures, signatures, units } from '../../db/schema';
+import { attachments, people, revisions, runEntries, runEntryHistory, runHandovers, runPhotos, runs, runSignatures, signatures, units } from '../../db/schema';
 import { notFound } from '../../http/errors';
 import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
+import { holdOf } from './run-hold';
 import { lockedSteps, progressOf } from './run-steps';
 import type { RunRow, Tx } from './runs.service';
 
@@ -96,7 +97,7 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
-  const [[unit], entries, history, photos, [signature], revision] = await Promise.all([
+  const [[unit], entries, history, photos, [signature], revision, handovers, hold] = await Promise.all([
     db.select().from(units).where(eq(units.id, run.unitId)),
     db.select().from(runEntries).where(eq(runEntries.runId, runId)),
     db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id)),
@@ -108,8 +109,17 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
       .orderBy(asc(runPhotos.addedAt)),
     db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
     revisionRecord(db, run),
+    db.select().from(runHandovers).where(eq(runHandovers.runId, runId)).orderBy(asc(runHandovers.at), asc(runHandovers.id)),
+    holdOf(db, run),
   ]);
-  const who = await names(db, [run.startedBy, ...entries.map((e) => e.enteredBy), ...photos.map((p) => p.addedBy), ...(signature ? [signature.signerId] : [])]);
+  const who = await names(db, [
+    run.startedBy,
+    run.performedBy,
+    ...(run.closedBy ? [run.closedBy] : []),
+    ...entries.map((e) => e.enteredBy),
+    ...photos.map((p) => p.addedBy),
+    ...(signature ? [signature.signerId] : []),
+  ]);
 
   const entryViews: EntryView[] = entries.map((e) => ({
     stepId: e.stepId,
@@ -184,6 +194,17 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
         }
       : null,
     startedBy: who(run.startedBy),
+    performedBy: who(run.performedBy),
+    // Names as recorded at the handover.
+    handovers: handovers.map((h) => ({
+      from: { id: h.fromId, displayName: h.fromName },
+      to: { id: h.toId, displayName: h.toName },
+      by: { id: h.byId, displayName: h.byName },
+      reason: h.reason,
+      at: h.at.toISOString(),
+    })),
+    hold,
+    closed: run.status === 'abandoned' && run.closedBy ? { by: who(run.closedBy), reason: run.closeReason ?? '', at: iso(run.closedAt)! } : null,
     startedAt: run.startedAt.toISOString(),
     signedAt: iso(run.signedAt),
     progress: progressOf(run.steps, state),
@@ -191,16 +212,16 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
   };
 }
 
-export async function listRuns(db: Db, filter: { status?: 'in_progress' | 'signed'; unitId?: string; startedBy?: string }): Promise<RunListItem[]> {
+export async function listRuns(db: Db, filter: { status?: RunStatus; unitId?: string; performedBy?: string }): Promise<RunListItem[]> {
   const where: SQL[] = [];
   if (filter.status) where.push(eq(runs.status, filter.status));
   if (filter.unitId) where.push(eq(runs.unitId, filter.unitId));
-  if (filter.startedBy) where.push(eq(runs.startedBy, filter.startedBy));
+  if (filter.performedBy) where.push(eq(runs.performedBy, filter.performedBy));
   const rows = await db
-    .select({ run: runs, unit: { id: units.id, model: units.model, serial: units.serial }, starter: { id: people.id, displayName: people.displayName } })
+    .select({ run: runs, unit: { id: units.id, model: units.model, serial: units.serial }, revisionState: revisions.state })
     .from(runs)
     .innerJoin(units, eq(units.id, runs.unitId))
-    .innerJoin(people, eq(people.id, runs.startedBy))
+    .innerJoin(revisions, eq(revisions.id, runs.revisionId))
     .where(where.length ? and(...where) : undefined)
     .orderBy(desc(runs.startedAt))
     .limit(200);
@@ -208,17 +229,20 @@ export async function listRuns(db: Db, filter: { status?: 'in_progress' | 'signe
   const entries = ids.length
     ? await db.select({ runId: runEntries.runId, stepId: runEntries.stepId, measured: runEntries.measured, done: runEntries.done, within: runEntries.within }).from(runEntries).where(inArray(runEntries.runId, ids))
     : [];
-  return rows.map(({ run, unit, starter }) => {
+  const who = await names(db, rows.flatMap((r) => [r.run.startedBy, r.run.performedBy]));
+  return rows.map(({ run, unit, revisionState }) => {
     const state = new Map(entries.filter((e) => e.runId === run.id).map((e) => [e.stepId, e]));
     const p = progressOf(run.steps, state);
     return {
       id: run.id,
       title: run.title,
       status: run.status,
+      onHold: run.status === 'in_progress' && revisionState === 'withdrawn',
       outOfTolerance: run.outOfTolerance,
       revisionNumber: run.revisionNumber,
       unit,
-      startedBy: starter,
+      startedBy: who(run.startedBy),
+      performedBy: who(run.performedBy),
       startedAt: run.startedAt.toISOString(),
       signedAt: iso(run.signedAt),
       progress: { done: p.done, total: p.total },

@@ -1,12 +1,13 @@
-import { eq } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { BLOCK_ID } from '../../../shared/document/schema';
-import { entryBody, runListQuery, signRunBody, startRunBody } from '../../../shared/schemas/runs';
-import { runPhotos, runs } from '../../db/schema';
-import { badRequest, conflict, notFound } from '../../http/errors';
+import { abandonBody, entryBody, handoverBody, runListQuery, signRunBody, startRunBody } from '../../../shared/schemas/runs';
+import { people, runPhotos, runs } from '../../db/schema';
+import { badRequest, notFound } from '../../http/errors';
 import { defineRoute } from '../../http/route';
 import { renderRunSheetPdf } from './pdf';
 import { receivePhoto, storePhoto } from './photo-upload';
+import { abandonRun, assertWritable, handOverRun } from './run-custody';
 import { signRun } from './run-sign';
 import { listRuns, loadRunView } from './run-view';
 import { recordEntry, startRun } from './runs.service';
@@ -22,7 +23,22 @@ export const runRoutes = [
     summary: 'Bench runs, newest first (filter by status, unit, or mine=1)',
     query: runListQuery,
     handler: async ({ query, user, deps }) => ({
-      runs: await listRuns(deps.db, { status: query.status, unitId: query.unitId, startedBy: query.mine ? user!.id : undefined }),
+      runs: await listRuns(deps.db, { status: query.status, unitId: query.unitId, performedBy: query.mine ? user!.id : undefined }),
+    }),
+  }),
+
+  // Before /runs/:id, which would take "technicians" for a run id.
+  defineRoute({
+    method: 'get',
+    path: '/runs/technicians',
+    access: ['technician', 'admin'],
+    summary: 'Active technicians, to whom a bench run can be handed over',
+    handler: async ({ deps }) => ({
+      technicians: await deps.db
+        .select({ id: people.id, displayName: people.displayName })
+        .from(people)
+        .where(and(eq(people.active, true), sql`'technician' = any(${people.roles})`))
+        .orderBy(asc(people.displayName)),
     }),
   }),
 
@@ -71,9 +87,9 @@ export const runRoutes = [
     before: receivePhoto,
     handler: async ({ req, res, params, user, deps }) => {
       const stepId = typeof req.body?.stepId === 'string' && req.body.stepId !== '' ? req.body.stepId : null;
-      const [run] = await deps.db.select({ status: runs.status, steps: runs.steps }).from(runs).where(eq(runs.id, params.id));
+      const [run] = await deps.db.select().from(runs).where(eq(runs.id, params.id));
       if (!run) throw notFound('No such bench run.');
-      if (run.status === 'signed') throw conflict('This run sheet is signed; nothing on it can change.');
+      await assertWritable(deps.db, run, user!);
       if (stepId !== null && !run.steps.some((s) => s.id === stepId)) throw badRequest('body.stepId: no such step in this run', [{ field: 'body.stepId', reason: 'no such step in this run' }]);
       const attachment = await storePhoto(deps, req.file, user!.id);
       const [photo] = await deps.db.insert(runPhotos).values({ runId: params.id, stepId, attachmentId: attachment.id, addedBy: user!.id }).returning();
@@ -91,6 +107,32 @@ export const runRoutes = [
     body: signRunBody,
     handler: async ({ req, params, body, user, deps }) => {
       await signRun(deps, user!, params.id, body, req);
+      return { run: await loadRunView(deps.db, deps.files, params.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/handover',
+    access: ['technician', 'admin'],
+    summary: 'Hand an open run over to another technician, with a reason (its performer, or an admin); recorded, audited and named on the sheet',
+    params: runParams,
+    body: handoverBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await handOverRun(deps.db, user!, params.id, body, req);
+      return { run: await loadRunView(deps.db, deps.files, params.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/abandon',
+    access: ['technician', 'admin'],
+    summary: 'Close an open run as abandoned, with a reason (its performer, or an admin); audited, then nothing on it changes',
+    params: runParams,
+    body: abandonBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await abandonRun(deps.db, user!, params.id, body.reason, req);
       return { run: await loadRunView(deps.db, deps.files, params.id) };
     },
   }),

@@ -8,6 +8,7 @@ import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
 import { revisionContentHash } from '../review/signed-content';
+import { assertWritable } from './run-custody';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
 
@@ -62,6 +63,7 @@ export async function startRun(db: Db, files: FileStore, user: SessionUser, body
         steps: buildSteps(revision.document, snapshot),
         startKey: body.key,
         startedBy: user.id,
+        performedBy: user.id,
       })
       .returning();
     return { run: run!, created: true };
@@ -79,6 +81,10 @@ const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) =
  * returns what was stored. Every version goes to the append-only history with who, when and why.
  */
 export async function recordEntry(db: Db, user: SessionUser, runId: string, stepId: string, body: EntryBody) {
+  // An entry carries who made it on the tablet; it is never recorded in another person's name.
+  if (body.by !== undefined && body.by !== user.id) {
+    throw conflict('This entry was made by someone else; it can only be sent from their own session.', { code: 'not-the-maker', fields: [{ field: 'body.by', reason: 'not the signed-in person' }] });
+  }
   return db.transaction(async (tx) => {
     const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
     if (!run) throw notFound('No such bench run.');
@@ -93,7 +99,7 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
       }
       return { replayed: true, run };
     }
-    if (run.status === 'signed') throw conflict('This run sheet is signed; nothing on it can change.');
+    await assertWritable(tx, run, user);
     const step = run.steps.find((s) => s.id === stepId);
     if (!step) throw notFound(`This run has no step “${short(stepId, 40)}”.`);
     const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));

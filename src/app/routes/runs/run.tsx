@@ -5,10 +5,11 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRun } from '@/features/runs/api/get-run';
 import { BenchChecklist } from '@/features/runs/components/bench-checklist';
+import { HoldBanner, RunCustody, WaitingEntries } from '@/features/runs/components/run-custody';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
 
-/** The bench: checklist mode while the run is open; the run sheet once it is signed. */
+/** The bench: checklist mode for the run's performer while it is open; the run sheet otherwise. */
 export default function RunPage() {
   const { runId = '' } = useParams();
   const navigate = useNavigate();
@@ -21,7 +22,10 @@ export default function RunPage() {
   if (run.isPending) return <p>Loading…</p>;
   if (!run.data) return <Notice tone="error">{run.error?.message ?? 'Cannot load this run.'}</Notice>;
   const r = run.data.run;
-  const tech = hasRole(session.data?.user, 'technician');
+  const user = session.data?.user;
+  const open = r.status === 'in_progress';
+  const performing = open && !r.hold && hasRole(user, 'technician') && r.performedBy.id === user?.id;
+  const inCharge = open && (r.performedBy.id === user?.id || hasRole(user, 'admin'));
   return (
     <section className="flex flex-col gap-4">
       <header className="flex flex-wrap items-end gap-3">
@@ -39,16 +43,19 @@ export default function RunPage() {
         </Link>
       </header>
       {run.isError && <Notice tone="error">Cannot reach the server right now; entries are kept on this tablet and sent when it is back.</Notice>}
-      {r.status === 'signed' ? (
-        <RunSheet run={r} />
-      ) : tech ? (
-        <BenchChecklist run={r} pending={pending} onSigned={() => navigate(paths.runSheet.href(r.id))} />
+      {open && r.hold && <HoldBanner hold={r.hold} />}
+      <WaitingEntries items={pending.others} steps={r.steps} />
+      {performing ? (
+        <BenchChecklist run={r} pending={pending.mine} onSigned={() => navigate(paths.runSheet.href(r.id))} />
       ) : (
         <>
-          <Notice>This bench run is in progress; entries are made by technicians.</Notice>
+          {open && !r.hold && r.performedBy.id !== user?.id && (
+            <Notice>{r.performedBy.displayName} is performing this bench run; only they record its entries and sign it, unless they hand it over.</Notice>
+          )}
           <RunSheet run={r} />
         </>
       )}
+      {inCharge && <RunCustody run={r} />}
     </section>
   );
 }

@@ -10,6 +10,7 @@ export default function RunsPage() {
   const session = useSession();
   const open = useRuns({ status: 'in_progress' });
   const signed = useRuns({ status: 'signed' });
+  const abandoned = useRuns({ status: 'abandoned' });
   useEffect(() => {
     document.title = 'Bench runs · Benchwright';
   }, []);
@@ -29,6 +30,12 @@ export default function RunsPage() {
       {open.data && <RunsTable runs={open.data.runs} runPath={runPath} />}
       <h2 className="text-lg font-semibold">Signed run sheets</h2>
       {signed.data && <RunsTable runs={signed.data.runs} runPath={paths.runSheet.href} />}
+      {!!abandoned.data?.runs.length && (
+        <>
+          <h2 className="text-lg font-semibold">Closed as abandoned</h2>
+          <RunsTable runs={abandoned.data.runs} runPath={paths.runSheet.href} />
+        </>
+      )}
     </section>
   );
 }

@@ -89,7 +89,7 @@ export default function UnitPage() {
                 </td>
                 <td className="px-3 py-2">{r.startedBy.displayName}</td>
                 <td className="px-3 py-2">
-                  {r.status === 'signed' ? 'Signed' : 'In progress'}
+                  {{ signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[r.status]}
                   {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
                 </td>
               </tr>

@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RunListItem } from '@shared/schemas/runs';
+import type { RunListItem, RunStatus } from '@shared/schemas/runs';
 import { api } from '@/lib/api-client';
 
-export const runsQueryOptions = (filter: { status?: 'in_progress' | 'signed'; mine?: boolean } = {}) =>
+export const runsQueryOptions = (filter: { status?: RunStatus; mine?: boolean } = {}) =>
   queryOptions({
     queryKey: ['runs', 'list', filter],
     queryFn: () => {
@@ -13,4 +13,4 @@ export const runsQueryOptions = (filter: { status?: 'in_progress' | 'signed'; mi
     },
   });
 
-export const useRuns = (filter: { status?: 'in_progress' | 'signed'; mine?: boolean } = {}) => useQuery(runsQueryOptions(filter));
+export const useRuns = (filter: { status?: RunStatus; mine?: boolean } = {}) => useQuery(runsQueryOptions(filter));

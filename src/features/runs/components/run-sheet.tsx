@@ -6,7 +6,19 @@ import { Mark } from './mark';
 
 const utc = (iso: string | null) => (iso ? `${iso.slice(0, 19).replace('T', ' ')} UTC` : '—');
 
-/** The run sheet: readings with their bands and marks, the plot, checks, photos, signatures. */
+function HandoverRow({ h }: { h: RunView['handovers'][number] }) {
+  return (
+    <>
+      <dt className="text-graphite-soft">Handed over</dt>
+      <dd data-handover>
+        <span className="value">{utc(h.at)}</span>: {h.from.displayName} handed the run over to {h.to.displayName}
+        {h.by.id !== h.from.id && ` (reassigned by ${h.by.displayName})`}. Reason: {h.reason}
+      </dd>
+    </>
+  );
+}
+
+/** The run sheet: readings with their bands and marks and who recorded them, the plot, checks, photos, the people on the run, signatures. */
 export function RunSheet({ run }: { run: RunView }) {
   const entries = new Map(run.entries.map((e) => [e.stepId, e]));
   const readings = run.steps.filter((s) => s.kind === 'reading');
@@ -29,9 +41,12 @@ export function RunSheet({ run }: { run: RunView }) {
         <div className="flex flex-wrap gap-2">
           {run.status === 'signed' ? (
             <span className="rounded border border-ok px-2 py-0.5 text-sm font-semibold text-ok">Signed</span>
+          ) : run.status === 'abandoned' ? (
+            <span data-run-abandoned className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">Closed as abandoned, not signed</span>
           ) : (
             <span className="rounded border border-hazard-ink bg-hazard px-2 py-0.5 text-sm font-semibold text-hazard-ink">Not signed: bench run in progress</span>
           )}
+          {run.hold && <span className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">On hold: revision withdrawn</span>}
           {run.outOfTolerance && (
             <span data-run-out="true" className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">
               ▲ {run.progress.outOfTolerance} reading{run.progress.outOfTolerance === 1 ? '' : 's'} out of tolerance
@@ -85,6 +100,31 @@ export function RunSheet({ run }: { run: RunView }) {
             <dd>
               <span className="value">{utc(run.startedAt)}</span> by {run.startedBy.displayName}
             </dd>
+            {run.handovers.map((h) => (
+              <HandoverRow key={h.at + h.to.id} h={h} />
+            ))}
+            {run.status === 'in_progress' && (
+              <>
+                <dt className="text-graphite-soft">Performed by</dt>
+                <dd data-performer>{run.performedBy.displayName}</dd>
+              </>
+            )}
+            {run.closed && (
+              <>
+                <dt className="text-graphite-soft">Closed</dt>
+                <dd>
+                  <span className="value">{utc(run.closed.at)}</span> by {run.closed.by.displayName}, as abandoned: {run.closed.reason}
+                </dd>
+              </>
+            )}
+            {run.hold && (
+              <>
+                <dt className="text-graphite-soft">On hold</dt>
+                <dd className="text-out">
+                  revision {run.hold.revisionNumber} withdrawn by {run.hold.by}, <span className="value">{utc(run.hold.at)}</span>: {run.hold.reason}
+                </dd>
+              </>
+            )}
           </dl>
         </div>
       </section>
@@ -100,6 +140,7 @@ export function RunSheet({ run }: { run: RunView }) {
                 <th className="px-3 py-2">Measured</th>
                 <th className="px-3 py-2">Deviation</th>
                 <th className="px-3 py-2">Mark</th>
+                <th className="px-3 py-2">Recorded by</th>
               </tr>
             </thead>
             <tbody>
@@ -125,6 +166,16 @@ export function RunSheet({ run }: { run: RunView }) {
                       {e?.deviationPercent != null && <span className="block">{`${e.deviationPercent >= 0 ? '+' : ''}${formatNumber(e.deviationPercent, 2)} %`}</span>}
                     </td>
                     <td className="px-3 py-2">{e?.measured != null ? <Mark within={e.within} /> : <span className="text-graphite-soft">not recorded</span>}</td>
+                    <td className="px-3 py-2" data-recorded-by>
+                      {e ? (
+                        <>
+                          {e.enteredBy.displayName}
+                          <span className="value block text-xs text-graphite-soft">{utc(e.enteredAt)}</span>
+                        </>
+                      ) : (
+                        '—'
+                      )}
+                    </td>
                   </tr>
                 );
               })}

@@ -5,7 +5,7 @@ import type { RunListItem } from '@shared/schemas/runs';
 export function RunsTable({ runs, runPath }: { runs: RunListItem[]; runPath: (id: string) => string }) {
   if (!runs.length) return <p className="text-sm text-graphite-soft">No bench runs here yet.</p>;
   return (
-    <DataTable columns={['Procedure', 'Unit', 'Progress', 'Status', 'Started']}>
+    <DataTable columns={['Procedure', 'Unit', 'Progress', 'Status', 'Started', 'Performed by']}>
       {runs.map((r) => (
         <tr key={r.id} className="border-b border-rule last:border-0">
           <td className="px-3 py-2">
@@ -21,12 +21,14 @@ export function RunsTable({ runs, runPath }: { runs: RunListItem[]; runPath: (id
             {r.progress.done} of {r.progress.total}
           </td>
           <td className="px-3 py-2">
-            {r.status === 'signed' ? 'Signed' : 'In progress'}
+            {{ signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[r.status]}
+            {r.onHold && <span className="ml-2 font-semibold text-out">on hold: revision withdrawn</span>}
             {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
           </td>
           <td className="px-3 py-2">
             {new Date(r.startedAt).toLocaleString()} · {r.startedBy.displayName}
           </td>
+          <td className="px-3 py-2">{r.performedBy.displayName}</td>
         </tr>
       ))}
     </DataTable>

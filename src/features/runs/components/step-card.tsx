@@ -27,6 +27,13 @@ function Status({ entry, pending }: { entry: EntryView | undefined; pending: Pen
           Pending: saved on this tablet, sent when the server is reachable.
         </p>
       )}
+      {waiting
+        .filter((p) => p.waiting)
+        .map((p) => (
+          <p key={p.body.key} role="alert" className="font-semibold text-out">
+            {p.waiting}
+          </p>
+        ))}
       {refused.map((p) => (
         <p key={p.body.key} role="alert" className="flex flex-wrap items-center gap-2 text-out">
           Not recorded: {p.refused}

@@ -1,17 +1,29 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
 import { useSession } from '@/features/auth/api/get-session';
-import { flushPending, pendingSnapshot, setQueueUser, setStoredHandler, subscribePending } from './entry-queue';
+import { flushPending, pendingSnapshot, setQueueUser, setSessionCheck, setStoredHandler, subscribePending, waitingMessage, type PendingEntry } from './entry-queue';
 
-/** This run's unacknowledged entries, and the wiring that puts acknowledged ones in the query cache. */
+/**
+ * This run's unacknowledged entries: `mine` (sent from this session) and `others` (made by someone
+ * else, waiting here until they sign in again, each with the message saying so), and the wiring that
+ * puts acknowledged ones in the query cache.
+ */
 export function usePendingEntries(runId: string) {
   const queryClient = useQueryClient();
   const all = useSyncExternalStore(subscribePending, pendingSnapshot, pendingSnapshot);
-  const userId = useSession().data?.user?.id ?? null;
-  setQueueUser(userId);
+  const user = useSession().data?.user ?? null;
+  setQueueUser(user && { id: user.id, displayName: user.displayName });
   useEffect(() => {
     setStoredHandler((id, run) => queryClient.setQueryData(['runs', 'one', id], { run }));
+    setSessionCheck(() => void queryClient.invalidateQueries({ queryKey: ['session'] }));
     void flushPending();
-  }, [queryClient, userId]);
-  return useMemo(() => all.filter((p) => p.runId === runId && p.userId === userId), [all, runId, userId]);
+    return () => setSessionCheck(null);
+  }, [queryClient, user?.id]);
+  return useMemo(() => {
+    const here = all.filter((p) => p.runId === runId);
+    const others: (PendingEntry & { waiting: string })[] = here
+      .filter((p) => p.userId !== user?.id && !p.refused)
+      .map((p) => ({ ...p, waiting: waitingMessage(user?.displayName ?? 'nobody', p.userName ?? 'another person') }));
+    return { mine: here.filter((p) => p.userId === user?.id), others };
+  }, [all, runId, user?.id, user?.displayName]);
 }
