@@ -36,7 +36,7 @@ ALTER TABLE "runs" ADD CONSTRAINT "runs_abandoned_ck" CHECK ("runs"."status" <> 
 -- current performer (the column named by the trigger's argument), on a run that is neither closed as
 -- abandoned nor on hold because the revision it follows was withdrawn.
 CREATE FUNCTION benchwright_run_write_guard() RETURNS trigger
-LANGUAGE plpgsql SET search_path = pg_catalog, public AS $$
+LANGUAGE plpgsql SET search_path = pg_catalog, public, pg_temp AS $$
 DECLARE
   r record;
   who uuid := (to_jsonb(NEW) ->> TG_ARGV[0])::uuid;
@@ -83,7 +83,7 @@ REVOKE UPDATE, DELETE, TRUNCATE ON run_handovers FROM benchwright_app;
 -- The run row: frozen once abandoned, and its performer changes only with a handover row from the
 -- old performer to the new one written in the same transaction (now() is the transaction's start).
 CREATE FUNCTION benchwright_run_row_guard() RETURNS trigger
-LANGUAGE plpgsql SET search_path = pg_catalog, public AS $$
+LANGUAGE plpgsql SET search_path = pg_catalog, public, pg_temp AS $$
 BEGIN
   IF OLD.status = 'abandoned' THEN
     RAISE EXCEPTION 'bench run % was closed as abandoned and cannot be changed', OLD.id USING ERRCODE = 'check_violation';
