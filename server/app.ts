@@ -87,7 +87,9 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
     const index = path.join(config.clientDir, 'index.html');
     app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
     // Client-side routes: every other GET gets the app shell.
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(index));
+    // Relative to root: send's dotfile rule then looks at "index.html" only, so a checkout under a
+    // folder whose name starts with a dot still serves its pages.
+    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.basename(index), { root: config.clientDir }));
   }
 
   app.use(errorHandler);

@@ -56,3 +56,14 @@ export function startMainCluster() {
   say(`starting PostgreSQL on 127.0.0.1:${PORTS.mainDb}`);
   return startCluster({ name: 'main', port: PORTS.mainDb, projectRoot });
 }
+
+/** A TCP port from the environment, or the default; anything else stops start-up with the reason. */
+export function portFrom(raw: string | undefined, fallback: number): number {
+  if (raw === undefined || raw.trim() === '') return fallback;
+  const port = Number(raw);
+  if (!Number.isInteger(port) || port < 1 || port > 65535) {
+    console.error(`[benchwright] PORT=${JSON.stringify(raw)} is not a port number (1–65535).`);
+    process.exit(2);
+  }
+  return port;
+}

@@ -5,11 +5,11 @@ import { build } from 'vite';
 import { readDemoPeople } from '../db/seed';
 import { startServer } from '../index';
 import { acquireStartLock } from './lock';
-import { dataDir, PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
+import { dataDir, portFrom, PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
 
-const port = Number(process.env.PORT ?? PORTS.app);
+const port = portFrom(process.env.PORT, PORTS.app);
 const host = '127.0.0.1';
 const url = `http://${host}:${port}`;
 
