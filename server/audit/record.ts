@@ -32,6 +32,7 @@ export const AUDIT_ACTIONS = [
   'sign-off.reauthenticated',
   'sign-off.failed',
   'review.commented',
+  'run.signed',
   'run.handed-over',
   'run.abandoned',
 ] as const;

@@ -13,7 +13,8 @@ import { runContent, unitRecordOf } from '../modules/runs/run-view';
 import { recordEntry, startRun, type Tx } from '../modules/runs/runs.service';
 import { NO_FILES } from '../storage/files';
 import type { Db } from './client';
-import { auditLog, people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
+import { recordAudit } from '../audit/record';
+import { people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
 
 const email = z.email();
 const instant = z.iso.datetime({ offset: true });
@@ -152,12 +153,11 @@ export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, si
     .update(runs)
     .set({ status: 'signed', signedAt, contentHash, unitRecord, outOfTolerance })
     .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
-  await tx.insert(auditLog).values({
+  await recordAudit(tx, {
     action: 'run.signed',
     actorId: signer.id,
     subject: `run ${runId}`,
     details: { contentHash, revisionId: run.revisionId, meaning, outOfTolerance },
-    ip: null,
   });
   return { signature: signature!, outOfTolerance };
 }

@@ -36,6 +36,12 @@ describe('the audit log page API', () => {
     const actions = new Set(all.body.entries.map((e: { action: string }) => e.action));
     for (const a of ['revision.submitted', 'revision.approved', 'sign-off.reauthenticated', 'sign-in.failed', 'person.roles-changed', 'person.deactivated']) expect(actions).toContain(a);
 
+    // Signed run sheets (the demo's, written through recordAudit like every action) can be filtered for.
+    expect(all.body.actions).toContain('run.signed');
+    const signedRuns = await admin.get('/api/audit?action=run.signed');
+    expect(signedRuns.status).toBe(200);
+    expect(signedRuns.body.total ?? signedRuns.body.entries.length).toBeGreaterThan(0);
+
     const approved = await admin.get('/api/audit?action=revision.approved');
     expect(approved.body.entries.length).toBeGreaterThan(0);
     expect(approved.body.entries.every((e: { action: string }) => e.action === 'revision.approved')).toBe(true);

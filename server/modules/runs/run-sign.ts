@@ -2,7 +2,8 @@ import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import { formatQuantity } from '../../../shared/units/format';
 import type { AppDeps } from '../../deps';
-import { auditLog, people, procedures, revisions, runEntries, runs, runSignatures, signatures, units } from '../../db/schema';
+import { recordAudit } from '../../audit/record';
+import { people, procedures, revisions, runEntries, runs, runSignatures, signatures, units } from '../../db/schema';
 import { conflict, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
@@ -75,12 +76,12 @@ export async function signRun(deps: AppDeps, user: SessionUser, runId: string, b
       .update(runs)
       .set({ status: 'signed', signedAt: sql`now()`, contentHash, unitRecord, outOfTolerance })
       .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
-    await tx.insert(auditLog).values({
+    await recordAudit(tx, {
       action: 'run.signed',
       actorId: user.id,
       subject: `run ${runId}`,
       details: { contentHash, revisionId: run.revisionId, meaning: body.meaning, outOfTolerance },
-      ip: req.ip ?? null,
+      req,
     });
     if (outOfTolerance) await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, person?.name ?? user.displayName);
     return { signature: signature!, outOfTolerance };
