@@ -1,8 +1,7 @@
 import type { Request } from 'express';
-import type { Db } from '../db/client';
+import type { Db, Tx } from '../db/client';
 import { auditLog } from '../db/schema';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** Every action the audit log records; the admin page filters by these. */
 export const AUDIT_ACTIONS = [

@@ -28,4 +28,6 @@ export function createDb(pool: pg.Pool) {
 }
 
 export type Db = ReturnType<typeof createDb>;
+/** A transaction on Db: what a service takes when it runs inside its caller's transaction. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 export { schema };

@@ -1,7 +1,6 @@
-import type { Db } from '../db/client';
+import type { Db, Tx } from '../db/client';
 import { mailOutbox } from '../db/schema';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 export interface OutgoingMail {
   to: string[];

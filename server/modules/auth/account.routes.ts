@@ -7,13 +7,12 @@ import { endSessionsOf } from '../../auth/end-sessions';
 import { hashPassword } from '../../auth/passwords';
 import { secondFactorRequired } from '../../auth/second-factor';
 import { matchTotp, newRecoveryCodes, newTotpSecret, otpauthUrl, recoveryCodeHash } from '../../auth/totp';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { invitations, people, recoveryCodes } from '../../db/schema';
 import { conflict, HttpError } from '../../http/errors';
 import { defineRoute, type SessionUser } from '../../http/route';
 import { destroySession, logIn, refuseCommonPassword } from './session-steps';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 const forgetPerson = (req: { app: { locals: Record<string, unknown> } }, id: string) =>
   (req.app.locals.passport as { forgetPerson(id: string): void }).forgetPerson(id);

@@ -6,14 +6,13 @@ import { inviteBody, updatePersonBody, type PersonView } from '../../../shared/s
 import { recordAudit } from '../../audit/record';
 import { endSessionsOf } from '../../auth/end-sessions';
 import { forgetShopSettings } from '../../auth/second-factor';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { invitations, people, recoveryCodes, session, shopSettings } from '../../db/schema';
 import { conflict, badRequest, notFound } from '../../http/errors';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import { defineRoute } from '../../http/route';
 import { tokenHash } from '../auth/auth.routes';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 const INVITE_DAYS = 7;
 const RESET_HOURS = 24;

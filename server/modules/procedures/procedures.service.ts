@@ -7,13 +7,12 @@ import { defaultParams, type ProcedureParams } from '../../../shared/document/pa
 import { emptyDoc, type ProcedureDoc } from '../../../shared/document/schema';
 import { plainText } from '../../../shared/document/extract';
 import type { ProcedureFacets, ProcedurePage, ProcedureSort, procedureListQuery, RevisionView } from '../../../shared/schemas/procedures';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { people, procedureListing, procedures, revisions, type ListingAudience, type RevisionState } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
 import { renderRevisionHtml } from './render-html';
 
 type RevisionRow = typeof revisions.$inferSelect;
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 /** Only technicians are limited to published revisions; authors, reviewers and admins see all. */
 export const seesDrafts = (user: SessionUser) => user.roles.some((r) => r !== 'technician');

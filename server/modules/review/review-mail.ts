@@ -1,11 +1,10 @@
 import { and, arrayContains, eq } from 'drizzle-orm';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { people, type revisions } from '../../db/schema';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import { authorsOf } from './four-eyes';
 import { reviewPagePath } from './links';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type RevisionRow = typeof revisions.$inferSelect;
 
 const label = (r: RevisionRow) => `${r.title} (${r.equipmentModel}), revision ${r.number}`;

@@ -1,12 +1,11 @@
 import { asc, eq } from 'drizzle-orm';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { revisions, signatures, type SignatureMeaning } from '../../db/schema';
 import type { SignatureView } from '../../../shared/schemas/review';
 import { conflict } from '../../http/errors';
 import type { FileStore } from '../../storage/files';
 import { checkRevisionContent } from './signed-content';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type RevisionRow = typeof revisions.$inferSelect;
 type SignatureRow = typeof signatures.$inferSelect;
 

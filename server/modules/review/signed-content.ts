@@ -1,11 +1,10 @@
 import { inArray } from 'drizzle-orm';
 import { extractBlocks } from '../../../shared/document/extract';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { attachments, type revisions } from '../../db/schema';
 import type { FileStore } from '../../storage/files';
 import { canonicalJson, sha256Hex } from './canonical';
 
-type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type RevisionRow = typeof revisions.$inferSelect;
 
 /** Bump when the shape below changes; old signatures keep verifying under their own version. */

@@ -4,6 +4,7 @@
  * revision, re-checks the state and updates with a conditional WHERE, so two people acting at once
  * can never both succeed. The database trigger enforces the same machine underneath.
  */
+import type { Tx } from '../../db/client';
 import type { FileStore } from '../../storage/files';
 import { fieldLabel } from '../../../shared/document/block-view';
 import { getReckoner } from '../../../shared/reckoners';
@@ -23,7 +24,6 @@ import { createProcedure, type NewProcedure } from '../procedures/procedures.ser
 import { signRevision, type Signer } from './signatures';
 import { revisionContentHash } from './signed-content';
 
-type Tx = Parameters<Parameters<AppDeps['db']['transaction']>[0]>[0];
 type RevisionRow = typeof revisions.$inferSelect;
 
 const STATE_WORDS: Record<RevisionState, string> = {

@@ -1,7 +1,7 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { evaluateDocument } from '../../../shared/document/evaluate';
 import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
 import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
 import { canonicalJson, sha256Hex } from '../review/canonical';
@@ -12,7 +12,7 @@ import { assertWritable } from './run-custody';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
 
-export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type { Tx };
 export type RunRow = typeof runs.$inferSelect;
 export type EntryRow = typeof runEntries.$inferSelect;
 
