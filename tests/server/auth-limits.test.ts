@@ -2,13 +2,12 @@
 // an hour per account) that hold across app processes and under parallel requests (ASVS 2.3.3,
 // atomic), and that slow an attacker down with a growing wait rather than lock the owner out.
 // Also: an anonymous visitor leaves no session behind (a session row is made at sign-in).
-import { spawn, type ChildProcess } from 'node:child_process';
 import { and, eq, sql } from 'drizzle-orm';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { projectRoot } from '../../server/bootstrap/prepare';
 import { auditLog, session as sessionTable, signatures } from '../../server/db/schema';
 import { httpSession } from '../support/http-session';
+import { startSecondServer } from '../support/second-server';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
 import { inReview } from './review-support';
 import { benchProcedure, entry, newUnit, startRun } from './runs-fixtures';
@@ -20,29 +19,16 @@ const SIGN_IN_TRIES = 10;
 
 // Server A runs in this process; server B is a separate Node process on the same database.
 let a: TestApp;
-let b: ChildProcess;
+let b: { url: string; stop: () => void } | undefined;
 let bUrl = '';
 
 beforeAll(async () => {
   a = await createTestApp();
-  b = spawn(process.execPath, ['--import', 'tsx', 'tests/support/server-process.ts'], {
-    cwd: projectRoot,
-    env: { ...process.env, DATABASE_URL: a.databaseUrl },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  bUrl = await new Promise<string>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error('server B did not start')), 30_000);
-    b.stdout!.on('data', (chunk: Buffer) => {
-      const m = /READY (\S+)/.exec(chunk.toString());
-      if (m) {
-        clearTimeout(timer);
-        resolve(m[1]!);
-      }
-    });
-  });
+  b = await startSecondServer(a.databaseUrl);
+  bUrl = b.url;
 });
 afterAll(async () => {
-  b?.kill('SIGTERM');
+  b?.stop();
   await a?.close();
 });
 

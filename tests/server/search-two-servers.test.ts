@@ -1,38 +1,24 @@
-import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { projectRoot } from '../../server/bootstrap/prepare';
 import { revisions } from '../../server/db/schema';
 import { httpSession } from '../support/http-session';
 import { approveRevision } from '../support/review-path';
+import { startSecondServer } from '../support/second-server';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
 
 // Server A runs in this process; server B is a separate Node process on the same database.
 let a: TestApp;
-let b: ChildProcess;
+let b: { url: string; stop: () => void } | undefined;
 let bUrl = '';
 
 beforeAll(async () => {
   a = await createTestApp({}, { search: true });
-  b = spawn(process.execPath, ['--import', 'tsx', 'tests/support/server-process.ts'], {
-    cwd: projectRoot,
-    env: { ...process.env, DATABASE_URL: a.databaseUrl },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  bUrl = await new Promise<string>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error('server B did not start')), 30_000);
-    b.stdout!.on('data', (chunk: Buffer) => {
-      const m = /READY (\S+)/.exec(chunk.toString());
-      if (m) {
-        clearTimeout(timer);
-        resolve(m[1]!);
-      }
-    });
-  });
+  b = await startSecondServer(a.databaseUrl);
+  bUrl = b.url;
 });
 afterAll(async () => {
-  b?.kill('SIGTERM');
+  b?.stop();
   await a?.close();
 });
 
