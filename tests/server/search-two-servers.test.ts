@@ -1,4 +1,3 @@
-import path from 'node:path';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { revisions } from '../../server/db/schema';
