@@ -1,3 +1,4 @@
+import { paths } from '../../../shared/paths';
 import { randomBytes } from 'node:crypto';
 import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
@@ -34,7 +35,7 @@ async function mailSetPasswordLink(
   const lifetimeMs = purpose === 'reset' ? RESET_HOURS * 3_600_000 : INVITE_DAYS * 86_400_000;
   await tx.update(invitations).set({ usedAt: new Date() }).where(and(eq(invitations.personId, person.id), isNull(invitations.usedAt)));
   await tx.insert(invitations).values({ tokenHash: tokenHash(token), personId: person.id, createdBy, purpose, expiresAt: new Date(Date.now() + lifetimeMs) });
-  await enqueueMail(tx, compose(`${publicUrl}/set-password/${token}`));
+  await enqueueMail(tx, compose(`${publicUrl.replace(/\/$/, '')}${paths.setPassword.href(token)}`));
 }
 
 /** The person's mail for an admin-started reset. */

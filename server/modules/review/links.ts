@@ -1,3 +1,5 @@
-/** Client paths the server links to from mail; kept in step with src/config/paths.ts. */
-export const reviewPagePath = (revisionId: string) => `/review/revisions/${revisionId}`;
-export const reviewQueuePath = () => '/review';
+import { paths } from '../../../shared/paths';
+
+/** Client pages the server links to from mail (patterns defined once, in shared/paths.ts). */
+export const reviewPagePath = (revisionId: string) => paths.reviewRevision.href(revisionId);
+export const reviewQueuePath = () => paths.reviewQueue.href();

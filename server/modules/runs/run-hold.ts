@@ -3,6 +3,7 @@
  * (the server refuses with the withdrawal reason, a database trigger underneath), the run can be
  * closed as abandoned, and the technicians on it are told by mail in the withdrawal's transaction.
  */
+import { paths } from '../../../shared/paths';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { RunHold } from '../../../shared/schemas/runs';
 import type { Db } from '../../db/client';
@@ -67,7 +68,7 @@ export async function tellTechniciansOnHold(tx: Tx, publicUrl: string, revision:
         lines: [
           `${withdrawnBy} withdrew revision ${revision.number} of “${revision.title}”: ${reason}`,
           `${theirs.length === 1 ? 'This bench run' : 'These bench runs'} of yours ${theirs.length === 1 ? 'is' : 'are'} on hold: nothing more can be recorded or signed. Close ${theirs.length === 1 ? 'it' : 'each'} as abandoned, and start again when a new revision is approved.`,
-          ...theirs.map((r) => `• ${r.model} ${r.serial}: ${new URL(`/runs/${r.id}`, publicUrl).toString()}`),
+          ...theirs.map((r) => `• ${r.model} ${r.serial}: ${new URL(paths.run.href(r.id), publicUrl).toString()}`),
         ],
         link: { url: new URL('/runs', publicUrl).toString(), label: 'Open the bench runs' },
       }),

@@ -2,6 +2,7 @@ import { and, eq, inArray, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import { formatQuantity } from '../../../shared/units/format';
 import type { AppDeps } from '../../deps';
+import { paths } from '../../../shared/paths';
 import { recordAudit } from '../../audit/record';
 import { people, procedures, revisions, runEntries, runs, runSignatures, signatures, units } from '../../db/schema';
 import { conflict, notFound } from '../../http/errors';
@@ -15,7 +16,7 @@ import { isFinished } from './run-steps';
 import { runContent, unitRecordOf } from './run-view';
 import type { RunRow, Tx } from './runs.service';
 
-export const runSheetPath = (runId: string) => `/runs/${runId}`;
+export const runSheetPath = (runId: string) => paths.run.href(runId);
 
 /**
  * The technician signs the run sheet: password again, meaning "performed", database time, and the
