@@ -1,6 +1,6 @@
 // The audit log's hash chain (21 CFR 11.10(e) audit trail; ASVS 5.0 16.4.2 tamper-proof logs;
-// SECURITY.md §2 check 3: a one-byte superuser edit is flagged and the checker names the first
-// broken link). Hashes are recomputed with Node's SHA-256, not by the database that wrote them.
+// 21 CFR 11.10(a) validation able to discern altered records: a one-byte superuser edit is flagged
+// and the checker names the first broken link). Hashes are recomputed with Node's SHA-256, not by the database that wrote them.
 import { createHash } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

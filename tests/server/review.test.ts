@@ -187,7 +187,8 @@ describe('the database guards reviewed records', () => {
     expect(await refusal(sql`update audit_log set action = 'nothing'`)).toMatch(/append-only/);
     expect(await refusal(sql`delete from audit_log`)).toMatch(/append-only/);
     // The application role is refused before any trigger runs: it holds no UPDATE, DELETE or
-    // TRUNCATE on the append-only records (SECURITY.md §2 check 2), and cannot switch triggers off.
+    // TRUNCATE on the append-only records (21 CFR 11.10(e): an audit trail that never obscures
+    // earlier entries; ISO 9001:2015 7.5.3 protection from unintended alteration), and cannot switch triggers off.
     for (const statement of [
       sql`update signatures set comment = 'forged' where revision_id = ${revision.id}`,
       sql`delete from signatures where revision_id = ${revision.id}`,
