@@ -7,7 +7,7 @@
  * Stored snapshots keep outputs in jsonb, which does not keep key order, and older snapshots carry
  * no validated input or sources: both are worked out again here from the document's own inputs.
  */
-import { withFollowedParams } from '../reckoners/field-paths';
+import { isEmptyInput, isParam, isRef, withFollowedParams } from '../reckoners/field-paths';
 import { MEASURE_WORDS } from '../reckoners/measures';
 import { getReckoner, validateInputs, type AnyReckoner, type Caution, type FieldSpec, type InputSource, type Measure, type Output } from '../reckoners';
 import { formatNumber, formatQuantity, parseQuantity } from '../units';
@@ -95,9 +95,6 @@ export function valueWithMeasure(row: { formatted: string; measure: Measure | nu
 }
 
 const isObj = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
-const isRef = (v: unknown): v is { ref: string } => isObj(v) && typeof v.ref === 'string';
-const isParam = (v: unknown): v is { param: string } => isObj(v) && typeof v.param === 'string';
-const isEmpty = (v: unknown) => v === undefined || v === null || (typeof v === 'string' && v.trim() === '');
 const isNumeric = (s: FieldSpec) => s.kind === 'quantity' || s.kind === 'number' || s.kind === 'integer';
 
 /** The text column that names a row ("HT", "Heaters"), if the rows have one. */
@@ -143,7 +140,7 @@ function resolveRaw(fields: readonly FieldSpec[], raw: Record<string, unknown>, 
     }
     if (Array.isArray(v)) return v.map((x, i) => walk(x, `${path}.${i}`));
     if (isObj(v)) return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, walk(x, path ? `${path}.${k}` : k)]));
-    if (path && !isEmpty(v)) sources[path] = { kind: 'typed' };
+    if (path && !isEmptyInput(v)) sources[path] = { kind: 'typed' };
     return v;
   };
   return { resolved: walk(inputs, '') as Record<string, unknown>, sources };
@@ -160,7 +157,7 @@ function readAlone(spec: FieldSpec, v: unknown): unknown {
 }
 
 function originOf(stored: InputSource | undefined, spec: FieldSpec, value: unknown, ctx: Context): InputOrigin {
-  if (!stored) return isEmpty(value) ? { kind: 'empty' } : spec.default !== undefined ? { kind: 'default' } : { kind: 'typed' };
+  if (!stored) return isEmptyInput(value) ? { kind: 'empty' } : spec.default !== undefined ? { kind: 'default' } : { kind: 'typed' };
   if (stored.kind === 'param') {
     const label = PARAM_SPECS.find((p) => p.key === stored.param)?.label ?? stored.param;
     return { kind: 'param', param: stored.param, paramLabel: label, followed: stored.followed };

@@ -4,10 +4,10 @@
  * snapshot; bench runs call it again with the measured mains; the editor calls it on each change.
  */
 import { evaluateProcedure, getReckoner, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
-import { measureMismatch, unitWithMeasure } from '../reckoners/measures';
-import { readingUnitSpec } from '../reckoners/reading-units';
+import { readMeasured } from '../reckoners/measurement';
+import { unitWithMeasure } from '../reckoners/measures';
 import type { Measure } from '../reckoners/types';
-import { formatNumber, formatQuantity, parseQuantity } from '../units';
+import { formatQuantity } from '../units';
 import { extractBlocks } from './extract';
 import type { ProcedureParams } from './params';
 import type { ProcedureDoc, ReadingAttrs } from './schema';
@@ -49,12 +49,10 @@ export interface Snapshot {
 
 function expectedValue(reading: ReadingAttrs, measure: Measure, blocks: Map<string, BlockResult>, ratio: number): number {
   if ('literal' in reading.expected) {
-    const q = parseQuantity(reading.expected.literal, reading.unit);
-    const wrong = measureMismatch(reading.expected.literal, q, measure);
-    if (wrong) throw new Error(wrong.replace('this field', 'this reading'));
-    const max = readingUnitSpec(reading.unit)?.max ?? Infinity;
-    if (Math.abs(q.value) > max) throw new Error(`the expected value ${reading.expected.literal.trim()} is beyond what a bench meter reads (at most ${formatQuantity(max, reading.unit)})`);
-    return reading.followsMains ? q.value * ratio : q.value;
+    // Read as a bench value is read: the reading's unit and measure, within what a meter shows.
+    const read = readMeasured(reading.expected.literal, reading.unit, measure);
+    if (!read.ok) throw new Error(`the expected value ${read.reason}`);
+    return reading.followsMains ? read.measured * ratio : read.measured;
   }
   const ref = reading.expected.ref;
   const dot = ref.indexOf('.');
@@ -91,7 +89,7 @@ export function resolveReading(
     toleranceText: reading.tolerance,
     expectedSource: 'literal' in reading.expected ? reading.expected.literal : reading.expected.ref,
     ...(literal && reading.followsMains != null && { followsMains: reading.followsMains }),
-    ...(literal && reading.followsMains && { mainsRatio: Number(formatNumber(ratio, 6)) }),
+    ...(literal && reading.followsMains && { mainsRatio: Number(ratio.toPrecision(6)) }),
   };
   try {
     const expected = expectedValue(reading, measure, blocks, ratio);

@@ -5,7 +5,7 @@
  */
 import { runReckoner } from './validate';
 import { getReckoner } from './registry';
-import { specAt, withFollowedParams } from './field-paths';
+import { isParam, isRef, specAt, withFollowedParams } from './field-paths';
 import { unitWithMeasure } from './measures';
 import { paramSpec } from './params';
 import type { Caution, FieldError, FieldSpec, Measure, Output, ParamKey } from './types';
@@ -57,12 +57,6 @@ interface Reference {
   output?: string;
 }
 
-function isRef(v: unknown): v is { ref: string } {
-  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { ref?: unknown }).ref === 'string' && Object.keys(v).length === 1;
-}
-function isParam(v: unknown): v is { param: string } {
-  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { param?: unknown }).param === 'string' && Object.keys(v).length === 1;
-}
 
 function collectRefs(value: unknown, path: string[], out: Reference[]): void {
   if (isRef(value)) {

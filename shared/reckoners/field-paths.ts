@@ -10,6 +10,17 @@ export function specAt(fields: readonly FieldSpec[], path: readonly string[]): F
   return undefined;
 }
 
+/** A reference to another block's output: { ref: "block.output" }. */
+export function isRef(v: unknown): v is { ref: string } {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { ref?: unknown }).ref === 'string' && Object.keys(v).length === 1;
+}
+
+/** A procedure parameter: { param: "mainsVoltage" }. */
+export function isParam(v: unknown): v is { param: string } {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { param?: unknown }).param === 'string' && Object.keys(v).length === 1;
+}
+
+/** Nothing typed: absent, null or blank. */
 export function isEmptyInput(v: unknown): boolean {
   return v === undefined || v === null || (typeof v === 'string' && v.trim() === '');
 }

@@ -8,6 +8,7 @@ import { parseQuantity, QuantityParseError } from '../units/parse';
 import { formatQuantity } from '../units/format';
 import { measureMismatch } from './measures';
 import { splitUnit, type OutputUnit } from './outputs';
+import { isEmptyInput } from './field-paths';
 import { closestName } from './names';
 import type { FieldSpec, Measure, ParamKey } from './types';
 
@@ -33,9 +34,6 @@ interface NumericOpts {
   rating?: FieldSpec['rating'];
 }
 
-function isMissing(v: unknown): boolean {
-  return v === undefined || v === null || (typeof v === 'string' && v.trim() === '');
-}
 
 function describe(value: number, unit: string): string {
   return unit ? formatQuantity(value, unit, 4) : String(value);
@@ -52,7 +50,7 @@ function numericSchema(
       ctx.addIssue({ code: 'custom', message, input: raw });
       return z.NEVER;
     };
-    if (isMissing(raw)) {
+    if (isEmptyInput(raw)) {
       if (dflt !== undefined) return dflt;
       if (optional) return undefined;
       return fail('is required');
@@ -136,7 +134,7 @@ export function select<const T extends string>(opts: {
   const values = opts.options.map((o) => o.value);
   const list = values.join(', ');
   const schema = z.unknown().optional().transform((raw, ctx): T => {
-    if (isMissing(raw)) {
+    if (isEmptyInput(raw)) {
       if (opts.default !== undefined) return opts.default;
       ctx.addIssue({ code: 'custom', message: `is required (one of: ${list})`, input: raw });
       return z.NEVER;
@@ -166,11 +164,12 @@ export function text(opts: { label: string; help?: string }): FieldDef<string | 
 type Shape = Record<string, FieldDef<unknown>>;
 export type InputOf<S extends Shape> = { [K in keyof S]: S[K] extends FieldDef<infer T> ? T : never };
 
-/** Named inputs; an unknown name is refused (a misspelt key must never be dropped silently). */
-function objectSchema<S extends Shape>(shape: S) {
-  const zshape: Record<string, z.ZodType> = {};
-  for (const [k, def] of Object.entries(shape)) zshape[k] = def.schema;
-  const known = Object.keys(shape);
+/**
+ * Named inputs over `zshape`, where a name that is not one of them is refused by name with the
+ * nearest real one (a misspelt key must never be dropped silently).
+ */
+export function namedInputs<T extends Record<string, z.ZodType>>(zshape: T) {
+  const known = Object.keys(zshape);
   return z
     .object(zshape, { error: () => 'must be a set of named inputs' })
     .catchall(z.unknown())
@@ -184,7 +183,14 @@ function objectSchema<S extends Shape>(shape: S) {
           message: `is not an input of this block${near ? ` — did you mean "${near}"?` : ''} (inputs: ${known.join(', ')})`,
         });
       }
-    })
+    });
+}
+
+function objectSchema<S extends Shape>(shape: S) {
+  const zshape: Record<string, z.ZodType> = {};
+  for (const [k, def] of Object.entries(shape)) zshape[k] = def.schema;
+  const known = Object.keys(shape);
+  return namedInputs(zshape)
     .transform((value) => {
       const out: Record<string, unknown> = {};
       for (const key of known) out[key] = (value as Record<string, unknown>)[key];

@@ -15,9 +15,6 @@ export const MEASURE_WORDS: Record<Measure, string> = {
   scalar: '',
 };
 
-/** Units that carry a measure. */
-export const MEASURED_UNITS: readonly string[] = ['V', 'A'];
-
 /** Factor from peak to each ac measure of a sine. */
 const PER_PEAK: Partial<Record<Measure, number>> = { peak: 1, rms: Math.SQRT1_2, 'peak-to-peak': 2 };
 

@@ -35,6 +35,32 @@ function readRaw(spec: FieldSpec, value: unknown): number | undefined {
   }
 }
 
+/** The caution for one value outside its field's shop range, or null when it is inside. */
+function outOfRange(spec: FieldSpec, path: string, value: unknown): Caution | null {
+  const range = spec.plausible;
+  if (!range || typeof value !== 'number' || !Number.isFinite(value) || (value >= range.min && value <= range.max)) return null;
+  const slip = likelySlip(value, range);
+  return {
+    level: 'warning',
+    code: 'implausible-input',
+    field: path,
+    message:
+      `${spec.label}: ${show(value, spec)} is outside the range met in shop work (${show(range.min, spec)} to ${show(range.max, spec)}` +
+      `${spec.measure ? `, ${unitWithMeasure('', spec.measure).trim()}` : ''}). ` +
+      (slip !== null ? `Check the prefix or unit — did you mean ${show(slip, spec)}?` : 'Check the value, its prefix and its unit.'),
+  };
+}
+
+/** Every validated input outside its field's shop range. */
+export function implausibleInputs(fields: readonly FieldSpec[], input: Record<string, unknown>): Caution[] {
+  const out: Caution[] = [];
+  eachField(fields, input, (spec, path, value) => {
+    const c = outOfRange(spec, path, value);
+    if (c) out.push(c);
+  });
+  return out;
+}
+
 /**
  * The same check on raw inputs, for a block that was refused: the slip that caused the refusal is
  * usually elsewhere than the field the refusal names (a 47 nF reservoir makes the load "too high").
@@ -43,27 +69,8 @@ export function implausibleRawInputs(fields: readonly FieldSpec[], raw: unknown)
   if (!raw || typeof raw !== 'object') return [];
   const out: Caution[] = [];
   eachField(fields, raw as Record<string, unknown>, (spec, path, value) => {
-    const v = spec.kind === 'quantity' ? readRaw(spec, value) : undefined;
-    if (v !== undefined) out.push(...implausibleInputs([{ ...spec, key: 'x' }], { x: v }).map((c) => ({ ...c, field: path })));
-  });
-  return out;
-}
-
-export function implausibleInputs(fields: readonly FieldSpec[], input: Record<string, unknown>): Caution[] {
-  const out: Caution[] = [];
-  eachField(fields, input, (spec, path, value) => {
-    const range = spec.plausible;
-    if (!range || typeof value !== 'number' || !Number.isFinite(value) || (value >= range.min && value <= range.max)) return;
-    const slip = likelySlip(value, range);
-    out.push({
-      level: 'warning',
-      code: 'implausible-input',
-      field: path,
-      message:
-        `${spec.label}: ${show(value, spec)} is outside the range met in shop work (${show(range.min, spec)} to ${show(range.max, spec)}` +
-        `${spec.measure ? `, ${unitWithMeasure('', spec.measure).trim()}` : ''}). ` +
-        (slip !== null ? `Check the prefix or unit — did you mean ${show(slip, spec)}?` : 'Check the value, its prefix and its unit.'),
-    });
+    const c = spec.kind === 'quantity' ? outOfRange(spec, path, readRaw(spec, value)) : null;
+    if (c) out.push(c);
   });
   return out;
 }

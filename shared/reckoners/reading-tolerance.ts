@@ -6,7 +6,7 @@ import { z } from 'zod';
 import { parseQuantity, QuantityParseError } from '../units/parse';
 import { formatNumber, formatQuantity } from '../units/format';
 import { measureMismatch, MEASURE_WORDS } from './measures';
-import { closestName } from './names';
+import { namedInputs } from './fields';
 import { READING_MEASURES, READING_UNITS, readingUnitSpec, type ReadingUnit } from './reading-units';
 import { LOCAL_CODES } from './cautions';
 import { ReckonerInputError } from './errors';
@@ -163,18 +163,9 @@ export interface ReadingToleranceInput {
 
 const INPUT_KEYS = ['unit', 'measure', 'expected', 'tolerance', 'measured'] as const;
 
-const rawSchema = z
-  .object(Object.fromEntries(INPUT_KEYS.map((k) => [k, z.unknown().optional()])) as Record<(typeof INPUT_KEYS)[number], z.ZodOptional<z.ZodUnknown>>, {
-    error: () => 'must be a set of named inputs',
-  })
-  .catchall(z.unknown())
-  .superRefine((value, ctx) => {
-    for (const key of Object.keys(value)) {
-      if ((INPUT_KEYS as readonly string[]).includes(key)) continue;
-      const near = closestName(key, INPUT_KEYS);
-      ctx.addIssue({ code: 'custom', path: [key], message: `is not an input of this block${near ? ` — did you mean "${near}"?` : ''}` });
-    }
-  });
+const rawSchema = namedInputs(
+  Object.fromEntries(INPUT_KEYS.map((k) => [k, z.unknown().optional()])) as Record<(typeof INPUT_KEYS)[number], z.ZodOptional<z.ZodUnknown>>,
+);
 
 const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
   let failed = false;
