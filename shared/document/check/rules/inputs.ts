@@ -11,7 +11,7 @@ export const reckonerInputErrors: Rule = {
         ? []
         : block.errors.map((e) => {
             const label = fieldLabel(block.kind, e.field, blocks.reckoners.find((r) => r.id === block.id)?.inputs);
-            return { blockId: block.id, message: `${reckonerName(block)}: ${label}: ${e.reason}.` };
+            return { blockId: block.id, message: `${reckonerName(block)}: ${label}: ${e.reason}${/[.?!]$/.test(e.reason) ? '' : '.'}` };
           }),
     ),
 };

@@ -53,7 +53,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   let editor;
   if (spec.kind === 'select') {
     editor = (
-      <select id={id} aria-label={label} className={control} value={typeof value === 'string' ? value : ''} onChange={(e) => onChange(e.target.value)}>
+      <select id={id} aria-label={label} className={`${control} w-full min-w-0`} value={typeof value === 'string' ? value : ''} onChange={(e) => onChange(e.target.value)}>
         {spec.options?.map((o) => (
           <option key={o.value} value={o.value}>
             {o.label}

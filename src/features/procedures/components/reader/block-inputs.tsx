@@ -7,7 +7,7 @@ export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string
     <table aria-label={`Inputs of ${name}`} className="w-full text-left text-sm">
       <thead className="border-b border-rule text-xs text-graphite-soft">
         <tr>
-          <th scope="col" className="py-1 pr-3 font-normal">Input</th>
+          <th scope="col" className="w-1/2 py-1 pr-3 font-normal">Input</th>
           <th scope="col" className="py-1 pr-3 font-normal">Value</th>
           <th scope="col" className="py-1 font-normal">From</th>
         </tr>
@@ -19,7 +19,7 @@ export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string
             <td className="py-1 pr-3">
               <Figure formatted={i.formatted} measure={i.measure} />
             </td>
-            <td className="py-1 text-graphite-soft">{i.sourceText}</td>
+            <td className="py-1 text-xs text-graphite-soft">{i.sourceText}</td>
           </tr>
         ))}
       </tbody>

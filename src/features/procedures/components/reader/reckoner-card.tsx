@@ -15,7 +15,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
       {!view ? (
         <p className="mt-2 text-sm text-out">This calculation is missing from the stored results.</p>
       ) : (
-        <div className="mt-2 grid gap-4 lg:grid-cols-2">
+        <div className="mt-2 grid gap-4">
           {view.inputs.length > 0 && (
             <div>
               <h4 className={heading}>Assumed</h4>
@@ -26,9 +26,9 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
             <h4 className={heading}>Results</h4>
             {view.ok ? (
               <>
-                <dl className="mt-1 grid gap-x-6 gap-y-2 sm:grid-cols-2">
+                <dl className="mt-1 grid gap-x-6 gap-y-2 sm:grid-cols-2 md:grid-cols-3">
                   {view.outputs.map((out) => (
-                    <div key={out.key} data-output={out.key}>
+                    <div key={out.key} data-output={out.key} className={typeof out.value === 'string' && out.formatted.length > 24 ? 'col-span-full' : undefined}>
                       <dt className="text-xs text-graphite-soft">{out.label}</dt>
                       <dd className="text-base">
                         <Figure formatted={out.formatted} measure={out.measure} strong />
