@@ -15,7 +15,8 @@ import { mountRoutes } from './http/route';
 import { routeTable } from './routes';
 
 /** Powerful browser features the app never uses, switched off for every page. */
-const PERMISSIONS_POLICY = 'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
+const PERMISSIONS_POLICY =
+  'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
 
 /** Builds the Express app (API + built client) without listening, so tests can drive it directly. */
 export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 'files'>>) {

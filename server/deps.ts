@@ -47,7 +47,9 @@ export interface AppDeps {
   files: FileStore;
 }
 
-export const defaultConfig = (overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>): AppConfig => ({
+export const defaultConfig = (
+  overrides: Partial<AppConfig> & Pick<AppConfig, 'sessionSecret'>,
+): AppConfig => ({
   trustProxy: false,
   publicUrl: 'http://127.0.0.1:5480',
   signInLimits: { perAccount: 10, perAddress: 50, windowMs: 15 * 60_000 },

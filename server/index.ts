@@ -34,7 +34,11 @@ export async function startServer(opts: {
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   mailer?.start();
   const search = new SearchService(db, opts.databaseUrl, logger);
-  await search.start().catch((err: Error) => logger.warn({ msg: err.message }, 'search index not built yet; retrying in the background'));
+  await search
+    .start()
+    .catch((err: Error) =>
+      logger.warn({ msg: err.message }, 'search index not built yet; retrying in the background'),
+    );
   const app = createApp({ db, pool, logger, config, mailer, search });
   // At start and then on the schedule; the head goes to the log (server/audit/watch.ts).
   const chainWatch = watchAuditChain(db, logger, config.auditCheckIntervalMs ?? DEFAULT_CHECK_INTERVAL_MS);
@@ -78,7 +82,14 @@ async function settleWithin(ms: number, step: Promise<unknown> | undefined, what
   if (!step) return;
   let timer: NodeJS.Timeout | undefined;
   const overrun = new Promise<'overrun'>((resolve) => (timer = setTimeout(() => resolve('overrun'), ms)));
-  const outcome = await Promise.race([step.then(() => 'done' as const, () => 'done' as const), overrun]);
+  const outcome = await Promise.race([
+    step.then(
+      () => 'done' as const,
+      () => 'done' as const,
+    ),
+    overrun,
+  ]);
   clearTimeout(timer);
-  if (outcome === 'overrun') logger.warn({ step: what, ms }, 'shutdown step did not finish in time; going on');
+  if (outcome === 'overrun')
+    logger.warn({ step: what, ms }, 'shutdown step did not finish in time; going on');
 }

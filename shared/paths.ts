@@ -1,18 +1,27 @@
 /** Every client URL once: the route pattern and a builder for links. The client routes by it; the server links to it from mail. */
 export const paths = {
   home: { pattern: '/', href: () => '/' },
-  signIn: { pattern: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
+  signIn: {
+    pattern: '/sign-in',
+    href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
+  },
   setPassword: { pattern: '/set-password/:token', href: (token: string) => `/set-password/${token}` },
   people: { pattern: '/admin/people', href: () => '/admin/people' },
   account: { pattern: '/account', href: () => '/account' },
-  search: { pattern: '/search', href: (q?: string) => (q ? `/search?q=${encodeURIComponent(q)}` : '/search') },
+  search: {
+    pattern: '/search',
+    href: (q?: string) => (q ? `/search?q=${encodeURIComponent(q)}` : '/search'),
+  },
   procedures: { pattern: '/procedures', href: () => '/procedures' },
   newProcedure: { pattern: '/procedures/new', href: () => '/procedures/new' },
   procedure: { pattern: '/procedures/:procedureId', href: (id: string) => `/procedures/${id}` },
   revision: { pattern: '/revisions/:revisionId', href: (id: string) => `/revisions/${id}` },
   editRevision: { pattern: '/revisions/:revisionId/edit', href: (id: string) => `/revisions/${id}/edit` },
   reviewQueue: { pattern: '/review', href: () => '/review' },
-  reviewRevision: { pattern: '/review/revisions/:revisionId', href: (id: string) => `/review/revisions/${id}` },
+  reviewRevision: {
+    pattern: '/review/revisions/:revisionId',
+    href: (id: string) => `/review/revisions/${id}`,
+  },
   audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
   outbox: { pattern: '/admin/outbox', href: () => '/admin/outbox' },
   units: { pattern: '/units', href: () => '/units' },

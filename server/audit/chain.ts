@@ -34,7 +34,17 @@ export interface ChainReport {
 
 /** SHA-256 (hex) of one row as the database chained it (drizzle/0012: benchwright_audit_text). */
 export function auditRowHash(r: Omit<ChainRow, 'rowHash'>): string {
-  const text = [r.seq, r.id, r.at, r.actorId ?? NULL_MARK, r.action, r.subject ?? NULL_MARK, r.details, r.ip ?? NULL_MARK, r.prevHash].join(SEPARATOR);
+  const text = [
+    r.seq,
+    r.id,
+    r.at,
+    r.actorId ?? NULL_MARK,
+    r.action,
+    r.subject ?? NULL_MARK,
+    r.details,
+    r.ip ?? NULL_MARK,
+    r.prevHash,
+  ].join(SEPARATOR);
   return createHash('sha256').update(text, 'utf8').digest('hex');
 }
 
@@ -58,7 +68,12 @@ export async function verifyAuditChain(db: Db): Promise<ChainReport> {
       select seq, id, to_char(at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"') as at, actor_id, action, subject,
              details::text as details, ip, prev_hash, row_hash
       from audit_log where seq > ${before?.seq ?? 0} order by seq limit ${BATCH}`);
-    if (!rows.length) return { checked, head: before ? { seq: before.seq, rowHash: before.rowHash } : null, firstBroken: null };
+    if (!rows.length)
+      return {
+        checked,
+        head: before ? { seq: before.seq, rowHash: before.rowHash } : null,
+        firstBroken: null,
+      };
     for (const raw of rows) {
       const row: ChainRow = {
         seq: Number(raw.seq),
@@ -74,7 +89,12 @@ export async function verifyAuditChain(db: Db): Promise<ChainReport> {
       };
       checked++;
       const reason = brokenLink(row, before);
-      if (reason) return { checked, head: null, firstBroken: { seq: row.seq, id: row.id, at: row.at, action: row.action, reason } };
+      if (reason)
+        return {
+          checked,
+          head: null,
+          firstBroken: { seq: row.seq, id: row.id, at: row.at, action: row.action, reason },
+        };
       before = row;
     }
   }

@@ -1,7 +1,7 @@
 import type { Request } from 'express';
 import type { Db, Tx } from '../db/client';
 import { auditLog } from '../db/schema';
-
+import { oneLine } from '../http/clean-text';
 
 /** Every action the audit log records; the admin page filters by these. */
 export const AUDIT_ACTIONS = [
@@ -44,9 +44,15 @@ export type AuditAction = (typeof AUDIT_ACTIONS)[number];
  */
 export async function recordAudit(
   db: Db | Tx,
-  entry: { action: AuditAction; actorId?: string | null; subject?: string; details?: Record<string, unknown>; req?: Request },
+  entry: {
+    action: AuditAction;
+    actorId?: string | null;
+    subject?: string;
+    details?: Record<string, unknown>;
+    req?: Request;
+  },
 ) {
-  const clean = (s: string | undefined) => s?.replace(/[\u0000-\u001f\u007f]/g, ' ').slice(0, 200);
+  const clean = (s: string | undefined) => (s === undefined ? undefined : oneLine(s, 200));
   const [row] = await db
     .insert(auditLog)
     .values({

@@ -12,11 +12,15 @@ export async function checkAuditChain(db: Db, logger: Logger) {
   try {
     const report = await verifyAuditChain(db);
     const ms = Date.now() - started;
-    if (report.firstBroken) logger.error({ checked: report.checked, firstBroken: report.firstBroken, ms }, 'audit chain broken');
+    if (report.firstBroken)
+      logger.error({ checked: report.checked, firstBroken: report.firstBroken, ms }, 'audit chain broken');
     else logger.info({ checked: report.checked, head: report.head, ms }, 'audit chain verified');
     return report;
   } catch (err) {
-    logger.warn({ msg: (err as Error).message }, 'audit chain check could not run; trying again at the next one');
+    logger.warn(
+      { msg: (err as Error).message },
+      'audit chain check could not run; trying again at the next one',
+    );
     return null;
   }
 }

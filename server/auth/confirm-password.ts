@@ -24,12 +24,22 @@ export async function confirmPassword(
   req: Request,
   opts: { subject: string; what: string; failedAction: AuditAction; field?: string; wrong?: string },
 ) {
-  const tries = await claimTry(db, req.res, [{ key: reauthKey(user.id), rule: PERSON_RULE, onSuccess: 'reset' }], (wait) => `Too many wrong passwords at ${opts.what}. Wait ${wait} and try again.`);
-  const [person] = await db.select({ hash: people.passwordHash, active: people.active }).from(people).where(eq(people.id, user.id));
+  const tries = await claimTry(
+    db,
+    req.res,
+    [{ key: reauthKey(user.id), rule: PERSON_RULE, onSuccess: 'reset' }],
+    (wait) => `Too many wrong passwords at ${opts.what}. Wait ${wait} and try again.`,
+  );
+  const [person] = await db
+    .select({ hash: people.passwordHash, active: people.active })
+    .from(people)
+    .where(eq(people.id, user.id));
   const ok = !!person?.active && !!person.hash && (await verifyPassword(person.hash, password));
   if (!ok) {
     await recordAudit(db, { action: opts.failedAction, actorId: user.id, subject: opts.subject, req });
-    throw new HttpError(401, opts.wrong ?? 'That password is not right.', { fields: [{ field: opts.field ?? 'body.password', reason: 'does not match your password' }] });
+    throw new HttpError(401, opts.wrong ?? 'That password is not right.', {
+      fields: [{ field: opts.field ?? 'body.password', reason: 'does not match your password' }],
+    });
   }
   await tries.succeeded();
 }

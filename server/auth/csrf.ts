@@ -28,13 +28,15 @@ export function createCsrf(config: AppConfig) {
   const sync = csrfSync({ getTokenFromRequest: (req) => req.get('x-csrf-token') });
   const secure = config.publicUrl.startsWith('https:');
   const cookieName = secure ? '__Host-bw.csrf' : 'bw.csrf';
-  const mac = (nonce: string) => createHmac('sha256', config.sessionSecret).update(`anonymous-csrf:${nonce}`).digest('base64url');
+  const mac = (nonce: string) =>
+    createHmac('sha256', config.sessionSecret).update(`anonymous-csrf:${nonce}`).digest('base64url');
   const nonceOf = (req: Request) => {
     const raw = /(?:^|;\s*)([^=;]+)=([A-Za-z0-9_-]{43})(?=;|$)/g;
     for (const m of (req.get('cookie') ?? '').matchAll(raw)) if (m[1] === cookieName) return m[2]!;
     return undefined;
   };
-  const same = (a: string, b: string) => a.length === b.length && timingSafeEqual(Buffer.from(a), Buffer.from(b));
+  const same = (a: string, b: string) =>
+    a.length === b.length && timingSafeEqual(Buffer.from(a), Buffer.from(b));
 
   function token(req: Request, res: Response, overwrite = false): string {
     if (holdsSession(req)) return sync.generateToken(req, overwrite);

@@ -22,22 +22,28 @@ export function createPassport(db: Db) {
   const instance = new passport.Passport();
 
   instance.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, async (email, password, done) => {
-      try {
-        const [person] = await db.select().from(people).where(eq(people.email, email.trim().toLowerCase()));
-        if (!person || !person.active || !person.passwordHash) {
-          await burnVerifyTime(password);
-          return done(null, false);
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password' },
+      async (email, password, done) => {
+        try {
+          const [person] = await db.select().from(people).where(eq(people.email, email.trim().toLowerCase()));
+          if (!person || !person.active || !person.passwordHash) {
+            await burnVerifyTime(password);
+            return done(null, false);
+          }
+          if (!(await verifyPassword(person.passwordHash, password))) return done(null, false);
+          if (passwordNeedsRehash(person.passwordHash)) {
+            await db
+              .update(people)
+              .set({ passwordHash: await hashPassword(password) })
+              .where(eq(people.id, person.id));
+          }
+          return done(null, toSessionUser(person));
+        } catch (err) {
+          return done(err);
         }
-        if (!(await verifyPassword(person.passwordHash, password))) return done(null, false);
-        if (passwordNeedsRehash(person.passwordHash)) {
-          await db.update(people).set({ passwordHash: await hashPassword(password) }).where(eq(people.id, person.id));
-        }
-        return done(null, toSessionUser(person));
-      } catch (err) {
-        return done(err);
-      }
-    }),
+      },
+    ),
   );
 
   // The person behind a session is re-read at most every PERSON_TTL_MS. Deactivation still takes

@@ -1,8 +1,12 @@
 import argon2 from 'argon2';
 
 /** OWASP's minimum for argon2id: 19 MiB memory, 2 iterations, 1 lane. */
-export const ARGON2_OPTIONS = { type: argon2.argon2id, memoryCost: 19_456, timeCost: 2, parallelism: 1 } as const;
-
+export const ARGON2_OPTIONS = {
+  type: argon2.argon2id,
+  memoryCost: 19_456,
+  timeCost: 2,
+  parallelism: 1,
+} as const;
 
 export const hashPassword = (password: string) => argon2.hash(password, ARGON2_OPTIONS);
 

@@ -28,19 +28,30 @@ export async function secondFactorRequired(db: Db, user: Pick<SessionUser, 'role
 }
 
 /** Required but not set up yet: such a session may reach only its account page until it is. */
-export const enrolmentRequired = async (db: Db, user: SessionUser) => !user.totp && (await secondFactorRequired(db, user));
+export const enrolmentRequired = async (db: Db, user: SessionUser) =>
+  !user.totp && (await secondFactorRequired(db, user));
 
 /**
  * Checks a code typed at sign-in: six digits from the authenticator, accepted at most once per time
  * step (the step is recorded atomically, so a replayed or raced code loses), or one of the person's
  * recovery codes, used up atomically.
  */
-export async function useSecondFactor(db: Db, personId: string, code: string): Promise<'totp' | 'recovery-code' | null> {
+export async function useSecondFactor(
+  db: Db,
+  personId: string,
+  code: string,
+): Promise<'totp' | 'recovery-code' | null> {
   if (isRecoveryCode(code)) {
     const [used] = await db
       .update(recoveryCodes)
       .set({ usedAt: new Date() })
-      .where(and(eq(recoveryCodes.personId, personId), eq(recoveryCodes.codeHash, recoveryCodeHash(code)), isNull(recoveryCodes.usedAt)))
+      .where(
+        and(
+          eq(recoveryCodes.personId, personId),
+          eq(recoveryCodes.codeHash, recoveryCodeHash(code)),
+          isNull(recoveryCodes.usedAt),
+        ),
+      )
       .returning({ id: recoveryCodes.id });
     return used ? 'recovery-code' : null;
   }

@@ -24,7 +24,12 @@ const PgStore = connectPgSimple(session);
  * are served from memory briefly (see cacheReads), so a plain read costs no database round trip.
  */
 export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
-  const store = new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 });
+  const store = new PgStore({
+    pool,
+    tableName: 'session',
+    createTableIfMissing: false,
+    pruneSessionInterval: 15 * 60,
+  });
   const cache = cacheReads(store, pool, SESSION_READ_CACHE_MS);
   // Renewal re-saves the session with its new expiry; a separate touch would only repeat that.
   store.touch = (_sid, _sess, callback) => callback?.();
@@ -52,7 +57,8 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
       next(err);
     });
   const renew = renewIdleLimit(Math.min(60_000, config.sessionIdleMs / 10));
-  const withRenewal: RequestHandler = (req, res, next) => guarded(req, res, (err?: unknown) => (err ? next(err) : renew(req, res, next)));
+  const withRenewal: RequestHandler = (req, res, next) =>
+    guarded(req, res, (err?: unknown) => (err ? next(err) : renew(req, res, next)));
   return { middleware: withRenewal, store, forgetSessionsOf: cache.forgetSessionsOf };
 }
 
@@ -112,7 +118,8 @@ function cacheReads(store: session.Store, pool: pg.Pool, ttlMs: number) {
   store.get = (sid, callback) => {
     const hit = entries.get(sid);
     const started = Date.now();
-    if (hit && started - hit.readAt < ttlMs && started < hit.expires) return callback(null, JSON.parse(hit.json) as session.SessionData);
+    if (hit && started - hit.readAt < ttlMs && started < hit.expires)
+      return callback(null, JSON.parse(hit.json) as session.SessionData);
     entries.delete(sid);
     get(sid, (err, sess) => {
       if (!err && sess && !((destroyedAt.get(sid) ?? -1) >= started)) remember(sid, sess);

@@ -33,7 +33,12 @@ let claimsSincePrune = 0;
  * first and written after the check could be raced). A key still waiting refuses the try with 429
  * and Retry-After, and nothing is counted. Call `succeeded()` when the password was right.
  */
-export async function claimTry(db: Db, res: Response | undefined, keys: { key: string; rule: ThrottleRule; onSuccess: 'reset' | 'give-back' }[], message: (wait: string) => string): Promise<Claimed> {
+export async function claimTry(
+  db: Db,
+  res: Response | undefined,
+  keys: { key: string; rule: ThrottleRule; onSuccess: 'reset' | 'give-back' }[],
+  message: (wait: string) => string,
+): Promise<Claimed> {
   const sorted = [...keys].sort((x, y) => (x.key < y.key ? -1 : 1)); // one lock order: no deadlocks
   try {
     await db.transaction(async (tx) => {
@@ -47,14 +52,19 @@ export async function claimTry(db: Db, res: Response | undefined, keys: { key: s
     // How long until every key may be tried again, read after the rollback.
     const { rows } = await db.execute<{ wait_ms: number | null }>(sql`
       select max(extract(epoch from (retry_at - clock_timestamp())) * 1000)::float8 as wait_ms
-      from ${authThrottle} where key in (${sql.join(sorted.map((k) => sql`${k.key}`), sql`, `)})`);
+      from ${authThrottle} where key in (${sql.join(
+        sorted.map((k) => sql`${k.key}`),
+        sql`, `,
+      )})`);
     const seconds = Math.max(1, Math.ceil(Number(rows[0]?.wait_ms ?? 1000) / 1000));
     res?.set('Retry-After', String(seconds));
     throw new HttpError(429, message(waitWords(seconds)), { retryAfterSeconds: seconds });
   }
   if (++claimsSincePrune >= PRUNE_EVERY) {
     claimsSincePrune = 0;
-    await db.execute(sql`delete from ${authThrottle} where forget_at < clock_timestamp() and retry_at < clock_timestamp()`);
+    await db.execute(
+      sql`delete from ${authThrottle} where forget_at < clock_timestamp() and retry_at < clock_timestamp()`,
+    );
   }
   return {
     async succeeded() {
@@ -124,4 +134,9 @@ export function signInRules(limits: { perAccount: number; perAddress: number; wi
  * and for one-time codes: five wrong ones, then 1 s, 2 s, 4 s… up to 15 minutes. Only someone
  * holding the person's session (or their password, for codes) can make these count.
  */
-export const PERSON_RULE: ThrottleRule = { free: 5, baseMs: SECOND, maxMs: 15 * MINUTE, forgetMs: 15 * MINUTE };
+export const PERSON_RULE: ThrottleRule = {
+  free: 5,
+  baseMs: SECOND,
+  maxMs: 15 * MINUTE,
+  forgetMs: 15 * MINUTE,
+};

@@ -8,7 +8,14 @@ import { Secret, TOTP } from 'otpauth';
  */
 const PERIOD_S = 30;
 const totpOf = (secretBase32: string, label = '') =>
-  new TOTP({ issuer: 'Benchwright', label, secret: Secret.fromBase32(secretBase32), algorithm: 'SHA1', digits: 6, period: PERIOD_S });
+  new TOTP({
+    issuer: 'Benchwright',
+    label,
+    secret: Secret.fromBase32(secretBase32),
+    algorithm: 'SHA1',
+    digits: 6,
+    period: PERIOD_S,
+  });
 
 /** A new 160-bit secret (RFC 4226 §4 recommends 160 bits), base32. */
 export const newTotpSecret = () => new Secret({ size: 20 }).base32;
@@ -47,7 +54,9 @@ export function newRecoveryCodes(n = RECOVERY_CODE_COUNT): string[] {
 }
 
 /** The stored form of a recovery code, whatever case and separators it was typed with. */
-export const recoveryCodeHash = (code: string) => createHash('sha256').update(code.toLowerCase().replace(/[\s-]/g, '')).digest('hex');
+export const recoveryCodeHash = (code: string) =>
+  createHash('sha256').update(code.toLowerCase().replace(/[\s-]/g, '')).digest('hex');
 
 /** Whether typed text looks like a recovery code (rather than a 6-digit code). */
-export const isRecoveryCode = (code: string) => /^[a-z2-7]{16}$/.test(code.toLowerCase().replace(/[\s-]/g, ''));
+export const isRecoveryCode = (code: string) =>
+  /^[a-z2-7]{16}$/.test(code.toLowerCase().replace(/[\s-]/g, ''));

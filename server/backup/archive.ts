@@ -24,10 +24,18 @@ export function createBackup(opts: { databaseUrl: string; uploadDir: string; out
   const stamp = (opts.now ?? new Date()).toISOString().replace(/[:.]/g, '-');
   const work = mkdtempSync(path.join(tmpdir(), 'bw-backup-'));
   try {
-    execFileSync(path.join(pgBinDir(), 'pg_dump'), ['-Fc', '--no-owner', '-f', path.join(work, 'database.dump')], { env: connectionEnv(opts.databaseUrl) });
+    execFileSync(
+      path.join(pgBinDir(), 'pg_dump'),
+      ['-Fc', '--no-owner', '-f', path.join(work, 'database.dump')],
+      { env: connectionEnv(opts.databaseUrl) },
+    );
     mkdirSync(path.join(work, 'uploads'));
     // Files still being written (server/storage) are left out; they have no row yet.
-    if (existsSync(opts.uploadDir)) cpSync(opts.uploadDir, path.join(work, 'uploads'), { recursive: true, filter: (src) => !path.basename(src).startsWith('.incoming-') });
+    if (existsSync(opts.uploadDir))
+      cpSync(opts.uploadDir, path.join(work, 'uploads'), {
+        recursive: true,
+        filter: (src) => !path.basename(src).startsWith('.incoming-'),
+      });
     mkdirSync(opts.outDir, { recursive: true });
     const file = path.join(opts.outDir, `benchwright-${stamp}.tar`);
     execFileSync('tar', ['-cf', file, '-C', work, 'database.dump', 'uploads']);
@@ -41,10 +49,16 @@ export function createBackup(opts: { databaseUrl: string; uploadDir: string; out
  * Restores an archive into a database that must not exist yet (it is created), and its uploads
  * into an upload folder that must be empty. Refuses to overwrite anything.
  */
-export async function restoreBackup(opts: { file: string; adminUrl: string; databaseUrl: string; uploadDir: string }) {
+export async function restoreBackup(opts: {
+  file: string;
+  adminUrl: string;
+  databaseUrl: string;
+  uploadDir: string;
+}) {
   const database = new URL(opts.databaseUrl).pathname.slice(1);
   if (!/^[a-z_][a-z0-9_]*$/.test(database)) throw new Error(`bad database name ${database}`);
-  if (existsSync(opts.uploadDir) && readdirSync(opts.uploadDir).length > 0) throw new Error(`${opts.uploadDir} is not empty; restore into an empty upload folder`);
+  if (existsSync(opts.uploadDir) && readdirSync(opts.uploadDir).length > 0)
+    throw new Error(`${opts.uploadDir} is not empty; restore into an empty upload folder`);
   await withAdminClient(opts.adminUrl, async (c) => {
     const { rowCount } = await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [database]);
     if (rowCount) throw new Error(`database ${database} already exists; restore into a new, empty database`);
@@ -57,7 +71,11 @@ export async function restoreBackup(opts: { file: string; adminUrl: string; data
   const work = mkdtempSync(path.join(tmpdir(), 'bw-restore-'));
   try {
     execFileSync('tar', ['-xf', opts.file, '-C', work]);
-    execFileSync(path.join(pgBinDir(), 'pg_restore'), ['--no-owner', '--exit-on-error', '-d', database, path.join(work, 'database.dump')], { env: connectionEnv(opts.databaseUrl) });
+    execFileSync(
+      path.join(pgBinDir(), 'pg_restore'),
+      ['--no-owner', '--exit-on-error', '-d', database, path.join(work, 'database.dump')],
+      { env: connectionEnv(opts.databaseUrl) },
+    );
     mkdirSync(opts.uploadDir, { recursive: true });
     cpSync(path.join(work, 'uploads'), opts.uploadDir, { recursive: true });
     // An archive from before content addressing: its files move to their SHA-256 names.

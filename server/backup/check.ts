@@ -14,12 +14,21 @@ export interface RecordsCheck {
 }
 
 export async function checkRecords(db: Db, files: FileStore): Promise<RecordsCheck> {
-  const out: RecordsCheck = { files: { checked: 0, damaged: [] }, revisionSignatures: { checked: 0, unverified: [] }, runSignatures: { checked: 0, unverified: [] } };
-  for (const row of await db.select({ id: attachments.id, name: attachments.originalName, sha256: attachments.sha256 }).from(attachments)) {
+  const out: RecordsCheck = {
+    files: { checked: 0, damaged: [] },
+    revisionSignatures: { checked: 0, unverified: [] },
+    runSignatures: { checked: 0, unverified: [] },
+  };
+  for (const row of await db
+    .select({ id: attachments.id, name: attachments.originalName, sha256: attachments.sha256 })
+    .from(attachments)) {
     out.files.checked++;
-    if (!(await files.exists(row.sha256))) out.files.damaged.push({ attachmentId: row.id, fileName: row.name });
+    if (!(await files.exists(row.sha256)))
+      out.files.damaged.push({ attachmentId: row.id, fileName: row.name });
   }
-  for (const { revisionId } of await db.selectDistinct({ revisionId: signatures.revisionId }).from(signatures)) {
+  for (const { revisionId } of await db
+    .selectDistinct({ revisionId: signatures.revisionId })
+    .from(signatures)) {
     for (const sig of await verifiedSignatures(db, files, revisionId)) {
       out.revisionSignatures.checked++;
       if (!sig.verified) out.revisionSignatures.unverified.push(sig.id);

@@ -9,7 +9,11 @@ import { dataDir, say, startMainCluster } from './prepare';
 const cluster = startMainCluster();
 const wasRunning = clusterIsRunning(cluster.dataDir);
 const uploadDir = path.join(dataDir, 'uploads');
-const file = createBackup({ databaseUrl: cluster.urlFor('benchwright'), uploadDir, outDir: path.join(dataDir, 'backups') });
+const file = createBackup({
+  databaseUrl: cluster.urlFor('benchwright'),
+  uploadDir,
+  outDir: path.join(dataDir, 'backups'),
+});
 say(`backup written: ${file}`);
 await reportRecords(cluster.urlFor('benchwright'), uploadDir, say);
 if (!wasRunning) stopCluster(cluster.dataDir);

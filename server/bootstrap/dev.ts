@@ -17,7 +17,11 @@ const api = await startServer({
   config: {
     sessionSecret: readOrCreateSecret('session'),
     publicUrl: 'http://127.0.0.1:5173',
-    smtp: { host: '127.0.0.1', port: mailCatcher.port, from: 'Benchwright <benchwright@tallowcreek.example>' },
+    smtp: {
+      host: '127.0.0.1',
+      port: mailCatcher.port,
+      from: 'Benchwright <benchwright@tallowcreek.example>',
+    },
   },
 });
 const vite = await createServer({ configFile: path.join(projectRoot, 'vite.config.ts') });

@@ -20,7 +20,9 @@ export function acquireStartLock(url: string): () => void {
   if (existsSync(file)) {
     const held = JSON.parse(readFileSync(file, 'utf8')) as { pid: number; url: string };
     if (alive(held.pid) && held.pid !== process.pid) {
-      console.error(`[benchwright] Benchwright is already running from this folder (pid ${held.pid}) at ${held.url}.`);
+      console.error(
+        `[benchwright] Benchwright is already running from this folder (pid ${held.pid}) at ${held.url}.`,
+      );
       console.error('[benchwright] Stop that one first (Ctrl+C in its terminal) or open the address above.');
       process.exit(1);
     }

@@ -17,7 +17,13 @@ export const dataDir = path.join(projectRoot, '.data');
  * the restart test) and a client build of its own, so two people can run the tests in one checkout at once.
  */
 export const TEST_SLOT = Number(process.env.BW_TEST_SLOT ?? 0);
-export const PORTS = { app: 5480, mainDb: Number(process.env.BW_DB_PORT ?? 54329), testDb: 54339 + TEST_SLOT * 20, healthDb: 54349 + TEST_SLOT * 20, restoreDb: 54350 + TEST_SLOT * 20 } as const;
+export const PORTS = {
+  app: 5480,
+  mainDb: Number(process.env.BW_DB_PORT ?? 54329),
+  testDb: 54339 + TEST_SLOT * 20,
+  healthDb: 54349 + TEST_SLOT * 20,
+  restoreDb: 54350 + TEST_SLOT * 20,
+} as const;
 export const testClientDir = path.join(projectRoot, 'dist', `client-test-${TEST_SLOT}`);
 export const testClusterName = (base: string) => (TEST_SLOT ? `${base}-${TEST_SLOT}` : base);
 
@@ -36,7 +42,11 @@ export function readOrCreateSecret(name: string): string {
  * Creates the database if needed, applies migrations and loads demo content as the owner; returns
  * the URL the app connects with, as the application role.
  */
-export async function prepareDatabase(cluster: Pick<Cluster, 'adminUrl' | 'urlFor' | 'appUrlFor' | 'appPassword'>, database: string, { seed = true } = {}) {
+export async function prepareDatabase(
+  cluster: Pick<Cluster, 'adminUrl' | 'urlFor' | 'appUrlFor' | 'appPassword'>,
+  database: string,
+  { seed = true } = {},
+) {
   await ensureAppRole(cluster.adminUrl, cluster.appPassword);
   await ensureDatabase(cluster.adminUrl, database);
   const url = cluster.urlFor(database);

@@ -13,7 +13,12 @@ if (!file) {
 const database = name ?? `benchwright_restored_${Date.now()}`;
 const cluster = startMainCluster();
 const uploadDir = path.join(dataDir, `uploads-${database}`);
-await restoreBackup({ file: path.resolve(file), adminUrl: cluster.adminUrl, databaseUrl: cluster.urlFor(database), uploadDir });
+await restoreBackup({
+  file: path.resolve(file),
+  adminUrl: cluster.adminUrl,
+  databaseUrl: cluster.urlFor(database),
+  uploadDir,
+});
 say(`restored into database ${database} with uploads in ${uploadDir}.`);
 await reportRecords(cluster.urlFor(database), uploadDir, say);
 say('To use it, rename it to benchwright (with npm start stopped) or point DATABASE_URL at it.');

@@ -5,7 +5,16 @@ import { build } from 'vite';
 import { readDemoPeople } from '../db/seed';
 import { startServer } from '../index';
 import { acquireStartLock } from './lock';
-import { dataDir, portFrom, PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
+import {
+  dataDir,
+  portFrom,
+  PORTS,
+  prepareDatabase,
+  projectRoot,
+  readOrCreateSecret,
+  say,
+  startMainCluster,
+} from './prepare';
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
 
@@ -23,13 +32,18 @@ say('building the client…');
 await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
 
 // Mail: the shop's relay when SMTP_HOST is set, otherwise a local catcher that keeps every message.
-const relay = process.env.SMTP_HOST ? { host: process.env.SMTP_HOST, port: Number(process.env.SMTP_PORT ?? 25) } : null;
+const relay = process.env.SMTP_HOST
+  ? { host: process.env.SMTP_HOST, port: Number(process.env.SMTP_PORT ?? 25) }
+  : null;
 const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
 const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
 
 // AUDIT_CHECK_MINUTES: how often the audit chain is re-checked (default hourly; 0: at start only).
 const auditCheckMinutes = Number(process.env.AUDIT_CHECK_MINUTES ?? 60);
-if (!Number.isFinite(auditCheckMinutes) || auditCheckMinutes < 0) throw new Error(`AUDIT_CHECK_MINUTES must be a number of minutes, not "${process.env.AUDIT_CHECK_MINUTES}"`);
+if (!Number.isFinite(auditCheckMinutes) || auditCheckMinutes < 0)
+  throw new Error(
+    `AUDIT_CHECK_MINUTES must be a number of minutes, not "${process.env.AUDIT_CHECK_MINUTES}"`,
+  );
 
 const running = await startServer({
   databaseUrl,
@@ -41,11 +55,15 @@ const running = await startServer({
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
     // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.
-    allowedHosts: (process.env.BW_ALLOWED_HOSTS ?? '').split(',').map((h) => h.trim()).filter(Boolean),
+    allowedHosts: (process.env.BW_ALLOWED_HOSTS ?? '')
+      .split(',')
+      .map((h) => h.trim())
+      .filter(Boolean),
     smtp: { ...smtp, from: process.env.SMTP_FROM ?? 'Benchwright <benchwright@tallowcreek.example>' },
   },
 }).catch((err: NodeJS.ErrnoException) => {
-  if (err.code === 'EADDRINUSE') console.error(`[benchwright] port ${port} is taken by another program; set PORT=… and try again.`);
+  if (err.code === 'EADDRINUSE')
+    console.error(`[benchwright] port ${port} is taken by another program; set PORT=… and try again.`);
   releaseLock();
   throw err;
 });

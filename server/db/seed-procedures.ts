@@ -27,7 +27,10 @@ export function readDemoProcedures(dir: string): SeedProcedure[] {
     .sort()
     .map((f) => {
       const parsed = seedFile.safeParse(JSON.parse(readFileSync(path.join(folder, f), 'utf8')));
-      if (!parsed.success) throw new Error(`content-seed/procedures/${f}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+      if (!parsed.success)
+        throw new Error(
+          `content-seed/procedures/${f}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
+        );
       return parsed.data;
     });
 }
@@ -37,21 +40,45 @@ export async function seedDemoProcedures(db: Db, dir: string) {
   const demo = readDemoProcedures(dir);
   if (!demo.length) return { added: 0, present: 0 };
   const present = new Set(
-    (await db.select({ key: procedures.seedKey }).from(procedures).where(inArray(procedures.seedKey, demo.map((d) => d.seedKey)))).map((r) => r.key),
+    (
+      await db
+        .select({ key: procedures.seedKey })
+        .from(procedures)
+        .where(
+          inArray(
+            procedures.seedKey,
+            demo.map((d) => d.seedKey),
+          ),
+        )
+    ).map((r) => r.key),
   );
   let added = 0;
   for (const p of demo) {
     if (present.has(p.seedKey)) continue;
     const checked = checkDocument(p.document, `${p.seedKey}.document`);
-    if (!checked.ok) throw new Error(`demo procedure ${p.seedKey} is invalid: ${checked.problems.map((x) => `${x.field}: ${x.reason}`).join('; ')}`);
+    if (!checked.ok)
+      throw new Error(
+        `demo procedure ${p.seedKey} is invalid: ${checked.problems.map((x) => `${x.field}: ${x.reason}`).join('; ')}`,
+      );
     const [author] = await db.select().from(people).where(eq(people.email, p.author));
     if (!author) throw new Error(`demo procedure ${p.seedKey}: no person ${p.author}`);
     const [reviewer] = await db.select().from(people).where(eq(people.email, p.reviewer));
-    if (!reviewer?.roles.includes('reviewer')) throw new Error(`demo procedure ${p.seedKey}: ${p.reviewer} is not a reviewer`);
-    if (reviewer.id === author.id) throw new Error(`demo procedure ${p.seedKey}: the reviewer must not be the author`);
+    if (!reviewer?.roles.includes('reviewer'))
+      throw new Error(`demo procedure ${p.seedKey}: ${p.reviewer} is not a reviewer`);
+    if (reviewer.id === author.id)
+      throw new Error(`demo procedure ${p.seedKey}: the reviewer must not be the author`);
     // The way any procedure is approved: a draft, submitted, approved with a real reviewer
     // signature over the stored content (so it verifies), in one transaction.
-    await db.transaction((tx) => createApprovedProcedure(tx, NO_FILES, author, reviewer, { ...p, document: checked.doc }, 'Approved for the shop’s starting library (demo content).'));
+    await db.transaction((tx) =>
+      createApprovedProcedure(
+        tx,
+        NO_FILES,
+        author,
+        reviewer,
+        { ...p, document: checked.doc },
+        'Approved for the shop’s starting library (demo content).',
+      ),
+    );
     added++;
   }
   return { added, present: present.size };

@@ -53,7 +53,10 @@ const runsFile = z.object({
         notes: z.record(z.string(), z.string()).default({}),
       })
       .strict()
-      .refine((r) => !!r.signedAt !== !!r.through, 'give either signedAt (a signed run) or through (an open run)'),
+      .refine(
+        (r) => !!r.signedAt !== !!r.through,
+        'give either signedAt (a signed run) or through (an open run)',
+      ),
   ),
 });
 
@@ -64,7 +67,10 @@ function readJson<T extends z.ZodType>(dir: string, file: string, schema: T): z.
   const full = path.join(dir, file);
   if (!existsSync(full)) return null;
   const parsed = schema.safeParse(JSON.parse(readFileSync(full, 'utf8')));
-  if (!parsed.success) throw new Error(`content-seed/${file}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  if (!parsed.success)
+    throw new Error(
+      `content-seed/${file}: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`,
+    );
   return parsed.data;
 }
 
@@ -85,7 +91,14 @@ async function personByEmail(db: Db | Tx, address: string): Promise<SessionUser 
 }
 
 const findUnit = async (db: Db | Tx, model: string, serial: string) =>
-  (await db.select().from(units).where(and(sql`lower(${units.model}) = lower(${model})`, sql`lower(${units.serial}) = lower(${serial})`)))[0];
+  (
+    await db
+      .select()
+      .from(units)
+      .where(
+        and(sql`lower(${units.model}) = lower(${model})`, sql`lower(${units.serial}) = lower(${serial})`),
+      )
+  )[0];
 
 /** Demo units by model + serial; one already registered (whatever people changed on it) is left alone. */
 export async function seedDemoUnits(db: Db, dir: string) {
@@ -101,7 +114,15 @@ export async function seedDemoUnits(db: Db, dir: string) {
     const at = u.registeredAt ? new Date(u.registeredAt) : undefined;
     const inserted = await db
       .insert(units)
-      .values({ model: u.model, serial: u.serial, owner: u.owner, jobNumber: u.jobNumber, notes: u.notes, createdBy: by.id, ...(at ? { createdAt: at, updatedAt: at } : {}) })
+      .values({
+        model: u.model,
+        serial: u.serial,
+        owner: u.owner,
+        jobNumber: u.jobNumber,
+        notes: u.notes,
+        createdBy: by.id,
+        ...(at ? { createdAt: at, updatedAt: at } : {}),
+      })
       .onConflictDoNothing()
       .returning({ id: units.id });
     if (inserted.length) added++;
@@ -125,9 +146,13 @@ export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, si
   const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
   const byStep = new Map(entries.map((e) => [e.stepId, e]));
   const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
-  if (unfinished.length) throw new Error(`run ${runId}: ${unfinished.length} steps are not finished (${unfinished.map((s) => s.id).join(', ')})`);
+  if (unfinished.length)
+    throw new Error(
+      `run ${runId}: ${unfinished.length} steps are not finished (${unfinished.map((s) => s.id).join(', ')})`,
+    );
   const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-  if ((await revisionContentHash(tx, NO_FILES, revision!)) !== run.revisionHash) throw new Error(`run ${runId}: its revision changed since the run started`);
+  if ((await revisionContentHash(tx, NO_FILES, revision!)) !== run.revisionHash)
+    throw new Error(`run ${runId}: its revision changed since the run started`);
   const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
   const unitRecord = unitRecordOf(unit!);
   const contentHash = runContentHash(await runContent(tx, NO_FILES, run, unitRecord));
@@ -170,17 +195,29 @@ export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, si
 async function seedOneRun(db: Db, r: SeedRun) {
   const [procedure] = await db.select().from(procedures).where(eq(procedures.seedKey, r.procedure));
   if (!procedure) throw new SkipRun(`no procedure ${r.procedure}`);
-  const [revision] = await db.select().from(revisions).where(and(eq(revisions.procedureId, procedure.id), eq(revisions.state, 'approved')));
+  const [revision] = await db
+    .select()
+    .from(revisions)
+    .where(and(eq(revisions.procedureId, procedure.id), eq(revisions.state, 'approved')));
   if (!revision) throw new SkipRun(`${r.procedure} has no approved revision`);
   const unit = await findUnit(db, r.unit.model, r.unit.serial);
   if (!unit) throw new SkipRun(`no unit ${r.unit.model} ${r.unit.serial}`);
   const tech = await personByEmail(db, r.technician);
   if (!tech?.roles.includes('technician')) throw new SkipRun(`${r.technician} is not a technician`);
   const startedAt = new Date(r.startedAt);
-  const [sameVisit] = await db.select({ id: runs.id }).from(runs).where(and(eq(runs.unitId, unit.id), eq(runs.startedAt, startedAt)));
+  const [sameVisit] = await db
+    .select({ id: runs.id })
+    .from(runs)
+    .where(and(eq(runs.unitId, unit.id), eq(runs.startedAt, startedAt)));
   if (sameVisit) return false;
 
-  const body = startRunBody.parse({ revisionId: revision.id, unitId: unit.id, mainsVoltage: r.mains.voltage, mainsFrequency: r.mains.frequency, key: demoUuid(`run ${r.key}`) });
+  const body = startRunBody.parse({
+    revisionId: revision.id,
+    unitId: unit.id,
+    mainsVoltage: r.mains.voltage,
+    mainsFrequency: r.mains.frequency,
+    key: demoUuid(`run ${r.key}`),
+  });
   await db.transaction(async (tx) => {
     const asDb = tx as unknown as Db;
     // Demo revisions attach no files and demo runs take no photos.
@@ -189,13 +226,21 @@ async function seedOneRun(db: Db, r: SeedRun) {
     const last = r.through ? run.steps.findIndex((s) => s.id === r.through) : run.steps.length - 1;
     if (last < 0) throw new SkipRun(`revision ${revision.number} of ${r.procedure} has no step ${r.through}`);
     const todo = run.steps.slice(0, last + 1);
-    const unknown = [...Object.keys(r.readings), ...Object.keys(r.notes)].filter((id) => !todo.some((s) => s.id === id));
-    const missing = todo.filter((s) => s.kind === 'reading' && r.readings[s.id] === undefined).map((s) => s.id);
+    const unknown = [...Object.keys(r.readings), ...Object.keys(r.notes)].filter(
+      (id) => !todo.some((s) => s.id === id),
+    );
+    const missing = todo
+      .filter((s) => s.kind === 'reading' && r.readings[s.id] === undefined)
+      .map((s) => s.id);
     if (unknown.length || missing.length) {
-      throw new SkipRun(`revision ${revision.number} of ${r.procedure} does not match: ${[...unknown.map((id) => `no step ${id}`), ...missing.map((id) => `no reading for ${id}`)].join(', ')}`);
+      throw new SkipRun(
+        `revision ${revision.number} of ${r.procedure} does not match: ${[...unknown.map((id) => `no step ${id}`), ...missing.map((id) => `no reading for ${id}`)].join(', ')}`,
+      );
     }
     // Entries spread evenly between the start and the signature (two minutes apart on an open run).
-    const end = r.signedAt ? new Date(r.signedAt).getTime() : startedAt.getTime() + (todo.length + 1) * 120_000;
+    const end = r.signedAt
+      ? new Date(r.signedAt).getTime()
+      : startedAt.getTime() + (todo.length + 1) * 120_000;
     const gap = (end - startedAt.getTime()) / (todo.length + 1);
     for (const [i, step] of todo.entries()) {
       const note = r.notes[step.id];
@@ -206,7 +251,10 @@ async function seedOneRun(db: Db, r: SeedRun) {
       });
       await recordEntry(asDb, tech, run.id, step.id, entry);
       const at = new Date(startedAt.getTime() + Math.round((i + 1) * gap));
-      await tx.update(runEntries).set({ firstEnteredAt: at, enteredAt: at }).where(and(eq(runEntries.runId, run.id), eq(runEntries.stepId, step.id)));
+      await tx
+        .update(runEntries)
+        .set({ firstEnteredAt: at, enteredAt: at })
+        .where(and(eq(runEntries.runId, run.id), eq(runEntries.stepId, step.id)));
     }
     await tx.update(runs).set({ startedAt }).where(eq(runs.id, run.id));
     if (r.signedAt) await signDemoRun(tx, run.id, tech, new Date(r.signedAt));
@@ -220,7 +268,10 @@ export async function seedDemoRuns(db: Db, dir: string, log: (line: string) => v
   let present = 0;
   let skipped = 0;
   for (const r of readDemoRuns(dir)) {
-    const [seen] = await db.select({ id: runs.id }).from(runs).where(eq(runs.startKey, demoUuid(`run ${r.key}`)));
+    const [seen] = await db
+      .select({ id: runs.id })
+      .from(runs)
+      .where(eq(runs.startKey, demoUuid(`run ${r.key}`)));
     if (seen) {
       present++;
       continue;

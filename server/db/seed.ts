@@ -9,11 +9,19 @@ import { people } from './schema';
 import { seedDemoProcedures } from './seed-procedures';
 import { seedDemoBench } from './seed-runs';
 
-export const contentSeedDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../content-seed');
+export const contentSeedDir = path.resolve(
+  path.dirname(fileURLToPath(import.meta.url)),
+  '../../content-seed',
+);
 
 const peopleFile = z.object({
   people: z.array(
-    z.object({ email: z.string(), displayName: z.string(), roles: z.array(z.enum(ROLES)), password: z.string() }),
+    z.object({
+      email: z.string(),
+      displayName: z.string(),
+      roles: z.array(z.enum(ROLES)),
+      password: z.string(),
+    }),
   ),
 });
 
@@ -33,7 +41,12 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
     if (existing.has(p.email)) continue;
     const inserted = await db
       .insert(people)
-      .values({ email: p.email, displayName: p.displayName, roles: p.roles, passwordHash: await hashPassword(p.password) })
+      .values({
+        email: p.email,
+        displayName: p.displayName,
+        roles: p.roles,
+        passwordHash: await hashPassword(p.password),
+      })
       .onConflictDoNothing({ target: people.email })
       .returning({ id: people.id });
     added += inserted.length;
@@ -42,5 +55,7 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
   const procs = await seedDemoProcedures(db, contentSeedDir);
   log(`demo procedures: ${procs.added} added, ${procs.present} already present`);
   const bench = await seedDemoBench(db, contentSeedDir, log);
-  log(`demo units: ${bench.units.added} added, ${bench.units.present} already present; demo bench runs: ${bench.runs.added} added, ${bench.runs.present} already present, ${bench.runs.skipped} skipped`);
+  log(
+    `demo units: ${bench.units.added} added, ${bench.units.present} already present; demo bench runs: ${bench.runs.added} added, ${bench.runs.present} already present, ${bench.runs.skipped} skipped`,
+  );
 }

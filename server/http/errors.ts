@@ -17,9 +17,11 @@ export class HttpError extends Error {
   }
 }
 
-export const badRequest = (message: string, fields: FieldProblem[] = []) => new HttpError(400, message, { fields });
+export const badRequest = (message: string, fields: FieldProblem[] = []) =>
+  new HttpError(400, message, { fields });
 export const notFound = (what = 'Not found') => new HttpError(404, what);
-export const conflict = (message: string, extra: Record<string, unknown> = {}) => new HttpError(409, message, extra);
+export const conflict = (message: string, extra: Record<string, unknown> = {}) =>
+  new HttpError(409, message, extra);
 
 /** Turns zod issues into field problems, prefixed with where they came from (body, query, params). */
 export function zodProblems(error: ZodError, where: string): FieldProblem[] {
@@ -33,7 +35,18 @@ export function problemsMessage(fields: FieldProblem[]) {
   return fields.map((f) => `${f.field}: ${f.reason}`).join('; ');
 }
 
-const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08006']);
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  '57P01',
+  '57P02',
+  '57P03',
+  '08000',
+  '08001',
+  '08003',
+  '08006',
+]);
 
 export function isDatabaseUnavailable(err: unknown): boolean {
   if (!err || typeof err !== 'object') return false;
@@ -41,7 +54,12 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   if (e.code && DB_DOWN_CODES.has(e.code)) return true;
   // "Cannot use a pool after calling end": pg-pool's answer once the pool has been ended (shutting down).
   // "not queryable": pg's answer when a transaction's ROLLBACK runs on a connection the restart already cut.
-  if (/Connection terminated|timeout exceeded when trying to connect|connect ECONNREFUSED|Cannot use a pool after calling end|not queryable/i.test(e.message ?? '')) return true;
+  if (
+    /Connection terminated|timeout exceeded when trying to connect|connect ECONNREFUSED|Cannot use a pool after calling end|not queryable/i.test(
+      e.message ?? '',
+    )
+  )
+    return true;
   return e.cause ? isDatabaseUnavailable(e.cause) : false;
 }
 
@@ -59,7 +77,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   const e = err as { type?: string; status?: number; code?: string; message?: string };
   if (e.type === 'entity.parse.failed') {
-    res.status(400).json({ error: 'The request body is not valid JSON.', fields: [{ field: 'body', reason: 'invalid JSON' }] });
+    res
+      .status(400)
+      .json({
+        error: 'The request body is not valid JSON.',
+        fields: [{ field: 'body', reason: 'invalid JSON' }],
+      });
     return;
   }
   if (e.type === 'entity.too.large') {
@@ -68,7 +91,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (e.code === 'EBADCSRFTOKEN') {
     req.log?.warn({ path: req.path }, 'refused: missing or wrong CSRF token');
-    res.status(403).json({ error: 'This form has expired or did not come from Benchwright; reload the page and try again.', code: 'csrf' });
+    res
+      .status(403)
+      .json({
+        error: 'This form has expired or did not come from Benchwright; reload the page and try again.',
+        code: 'csrf',
+      });
     return;
   }
   if (isDatabaseUnavailable(err)) {

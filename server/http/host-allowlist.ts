@@ -7,7 +7,16 @@ import type { NextFunction, Request, Response } from 'express';
 import type { AppConfig } from '../deps';
 
 export function allowedHostnames(config: Pick<AppConfig, 'publicUrl' | 'allowedHosts'>): Set<string> {
-  return new Set([new URL(config.publicUrl).hostname, 'localhost', '127.0.0.1', '[::1]', '::1', ...(config.allowedHosts ?? [])].map((h) => h.toLowerCase()));
+  return new Set(
+    [
+      new URL(config.publicUrl).hostname,
+      'localhost',
+      '127.0.0.1',
+      '[::1]',
+      '::1',
+      ...(config.allowedHosts ?? []),
+    ].map((h) => h.toLowerCase()),
+  );
 }
 
 export function hostAllowlist(config: Pick<AppConfig, 'publicUrl' | 'allowedHosts'>) {
@@ -15,6 +24,9 @@ export function hostAllowlist(config: Pick<AppConfig, 'publicUrl' | 'allowedHost
   return (req: Request, res: Response, next: NextFunction) => {
     const host = (req.hostname ?? '').toLowerCase();
     if (allowed.has(host)) return next();
-    res.status(421).type('application/json').send(JSON.stringify({ error: 'This server does not answer for that host name.' }));
+    res
+      .status(421)
+      .type('application/json')
+      .send(JSON.stringify({ error: 'This server does not answer for that host name.' }));
   };
 }

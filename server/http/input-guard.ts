@@ -9,6 +9,7 @@ import type { NextFunction, Request, Response } from 'express';
 import { badRequest } from './errors';
 
 // C0 controls except \t \n \r, DEL, C1 controls; LRE RLE PDF LRO RLO and LRI RLI FSI PDI.
+// eslint-disable-next-line no-control-regex -- control characters are what this matches
 const FORBIDDEN = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\u202A-\u202E\u2066-\u2069]/;
 export const MAX_JSON_DEPTH = 64;
 
@@ -21,12 +22,21 @@ export function findInputProblem(value: unknown, root: string): { field: string;
     const { v, path, depth } = stack.pop()!;
     if (typeof v === 'string') {
       const m = FORBIDDEN.exec(v);
-      if (m) return { field: path, reason: `contains a control or text-direction character (${describe(m[0])}); remove it` };
+      if (m)
+        return {
+          field: path,
+          reason: `contains a control or text-direction character (${describe(m[0])}); remove it`,
+        };
     } else if (v && typeof v === 'object') {
-      if (depth >= MAX_JSON_DEPTH) return { field: path, reason: `is nested more than ${MAX_JSON_DEPTH} levels deep` };
+      if (depth >= MAX_JSON_DEPTH)
+        return { field: path, reason: `is nested more than ${MAX_JSON_DEPTH} levels deep` };
       for (const [k, child] of Object.entries(v)) {
         const m = FORBIDDEN.exec(k);
-        if (m) return { field: `${path}.${k.replace(FORBIDDEN, '?')}`, reason: `has a name with a control character (${describe(m[0])})` };
+        if (m)
+          return {
+            field: `${path}.${k.replace(FORBIDDEN, '?')}`,
+            reason: `has a name with a control character (${describe(m[0])})`,
+          };
         stack.push({ v: child, path: `${path}.${k}`, depth: depth + 1 });
       }
     }

@@ -27,12 +27,24 @@ export function requestLog(logger: Logger, opts: { skip?: (url: string) => boole
     const started = performance.now();
     req.id = randomUUID();
     let child: Logger | undefined;
-    Object.defineProperty(req, 'log', { configurable: true, get: () => (child ??= logger.child({ reqId: req.id })) });
+    Object.defineProperty(req, 'log', {
+      configurable: true,
+      get: () => (child ??= logger.child({ reqId: req.id })),
+    });
     const line = (level: 'info' | 'warn' | 'error', msg: string) => {
       if (!logger.isLevelEnabled(level) || opts.skip?.(req.originalUrl)) return;
-      logger[level]({ req: { id: req.id, method: req.method, url: loggedUrl(req.originalUrl) }, res: { statusCode: res.statusCode }, responseTime: Math.round(performance.now() - started) }, msg);
+      logger[level](
+        {
+          req: { id: req.id, method: req.method, url: loggedUrl(req.originalUrl) },
+          res: { statusCode: res.statusCode },
+          responseTime: Math.round(performance.now() - started),
+        },
+        msg,
+      );
     };
-    res.on('finish', () => line(res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info', 'request completed'));
+    res.on('finish', () =>
+      line(res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info', 'request completed'),
+    );
     // The client went away (or the socket broke) before the whole answer was sent.
     res.on('close', () => {
       if (!res.writableFinished) line('warn', 'request closed before its answer was complete');

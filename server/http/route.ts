@@ -66,7 +66,12 @@ export function checkAccess(access: Access, user: SessionUser | null) {
   }
 }
 
-function parsePart<T>(schema: ZodType<T> | undefined, value: unknown, where: string, problems: FieldProblem[]): T {
+function parsePart<T>(
+  schema: ZodType<T> | undefined,
+  value: unknown,
+  where: string,
+  problems: FieldProblem[],
+): T {
   if (!schema) return value as T;
   const result = schema.safeParse(value);
   if (result.success) return result.data;
@@ -79,8 +84,17 @@ export function mountRoutes(router: Router, routes: readonly RouteDef[], deps: A
     const guard: RequestHandler = async (req, _res, next) => {
       const user = (req.user as SessionUser | undefined) ?? null;
       checkAccess(def.access, user);
-      if (user && def.access !== 'public' && !def.beforeEnrolment && (await enrolmentRequired(deps.db, user))) {
-        throw new HttpError(403, 'The shop requires an authenticator code for your role. Set one up on your account page first.', { code: 'second-factor-enrolment' });
+      if (
+        user &&
+        def.access !== 'public' &&
+        !def.beforeEnrolment &&
+        (await enrolmentRequired(deps.db, user))
+      ) {
+        throw new HttpError(
+          403,
+          'The shop requires an authenticator code for your role. Set one up on your account page first.',
+          { code: 'second-factor-enrolment' },
+        );
       }
       next();
     };

@@ -1,7 +1,6 @@
 import type { Db, Tx } from '../db/client';
 import { mailOutbox } from '../db/schema';
 
-
 export interface OutgoingMail {
   to: string[];
   subject: string;
@@ -20,11 +19,24 @@ export async function enqueueMail(db: Db | Tx, mail: OutgoingMail) {
   await db.insert(mailOutbox).values({ ...mail, to });
 }
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const esc = (s: string) =>
+  s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 /** Plain text and HTML from the same lines, with one link to the page the mail is about. */
-export function composeMail(opts: { greeting: string; lines: string[]; link: { url: string; label: string } }) {
-  const text = [opts.greeting, '', ...opts.lines, '', `${opts.link.label}: ${opts.link.url}`, '', '— Benchwright'].join('\n');
+export function composeMail(opts: {
+  greeting: string;
+  lines: string[];
+  link: { url: string; label: string };
+}) {
+  const text = [
+    opts.greeting,
+    '',
+    ...opts.lines,
+    '',
+    `${opts.link.label}: ${opts.link.url}`,
+    '',
+    '— Benchwright',
+  ].join('\n');
   const html = [
     `<p>${esc(opts.greeting)}</p>`,
     ...opts.lines.map((l) => `<p>${esc(l)}</p>`),

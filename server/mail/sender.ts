@@ -27,7 +27,15 @@ export class MailSender {
     private readonly logger: Logger,
     private readonly intervalMs = 3_000,
   ) {
-    this.transport = nodemailer.createTransport({ host: smtp.host, port: smtp.port, secure: false, ignoreTLS: true, connectionTimeout: 3_000, greetingTimeout: 3_000, socketTimeout: 5_000 });
+    this.transport = nodemailer.createTransport({
+      host: smtp.host,
+      port: smtp.port,
+      secure: false,
+      ignoreTLS: true,
+      connectionTimeout: 3_000,
+      greetingTimeout: 3_000,
+      socketTimeout: 5_000,
+    });
   }
 
   start() {
@@ -64,14 +72,28 @@ export class MailSender {
     }
     for (const mail of due) {
       try {
-        await this.transport.sendMail({ from: this.smtp.from, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html, messageId: `<${mail.id}@benchwright.local>` });
-        await this.db.update(mailOutbox).set({ sentAt: new Date(), lastError: null, attempts: sql`${mailOutbox.attempts} + 1` }).where(eq(mailOutbox.id, mail.id));
+        await this.transport.sendMail({
+          from: this.smtp.from,
+          to: mail.to,
+          subject: mail.subject,
+          text: mail.text,
+          html: mail.html,
+          messageId: `<${mail.id}@benchwright.local>`,
+        });
+        await this.db
+          .update(mailOutbox)
+          .set({ sentAt: new Date(), lastError: null, attempts: sql`${mailOutbox.attempts} + 1` })
+          .where(eq(mailOutbox.id, mail.id));
       } catch (err) {
         const backoff = Math.min(MAX_BACKOFF_MS, 2_000 * 2 ** mail.attempts);
         this.logger.warn({ mailId: mail.id, msg: (err as Error).message }, 'mail not delivered; will retry');
         await this.db
           .update(mailOutbox)
-          .set({ attempts: sql`${mailOutbox.attempts} + 1`, lastError: (err as Error).message.slice(0, 300), nextAttemptAt: new Date(Date.now() + backoff) })
+          .set({
+            attempts: sql`${mailOutbox.attempts} + 1`,
+            lastError: (err as Error).message.slice(0, 300),
+            nextAttemptAt: new Date(Date.now() + backoff),
+          })
           .where(eq(mailOutbox.id, mail.id))
           .catch(() => undefined);
       }

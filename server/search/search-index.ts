@@ -179,11 +179,13 @@ export class SearchIndex {
     const exact = this.terms.get(term);
     if (exact) add(term, exact, 1);
     if (isLast && term.length >= 3 && !hasDigit(term)) {
-      for (const [word, postings] of this.terms.atPrefix(term)) if (word !== term) add(word, postings, PREFIX_FACTOR);
+      for (const [word, postings] of this.terms.atPrefix(term))
+        if (word !== term) add(word, postings, PREFIX_FACTOR);
     }
     if (!exact && term.length >= 4 && !hasDigit(term)) {
       const distance = term.length >= 8 ? 2 : 1;
-      for (const [word, [postings, d]] of this.terms.fuzzyGet(term, distance)) add(word, postings, FUZZY_FACTOR / d);
+      for (const [word, [postings, d]] of this.terms.fuzzyGet(term, distance))
+        add(word, postings, FUZZY_FACTOR / d);
     }
     return { sources, words };
   }
@@ -204,7 +206,10 @@ export class SearchIndex {
    * across terms the scores add up. Returns the documents that matched all terms (or, when none
    * did, those that matched any, weighted by how many).
    */
-  private score(terms: { sources: { postings: Postings; factor: number }[] }[]): { slots: number[]; scores: number[] } {
+  private score(terms: { sources: { postings: Postings; factor: number }[] }[]): {
+    slots: number[];
+    scores: number[];
+  } {
     this.ensureScratch();
     const { acc, hits, best, stampOf } = this;
     const touched: number[] = [];
@@ -253,11 +258,22 @@ export class SearchIndex {
     return out;
   }
 
-  search(query: string, opts: { family?: string; tag?: string; page?: number; pageSize?: number } = {}): SearchPage {
+  search(
+    query: string,
+    opts: { family?: string; tag?: string; page?: number; pageSize?: number } = {},
+  ): SearchPage {
     const page = Math.max(1, opts.page ?? 1);
     const pageSize = Math.min(50, Math.max(1, opts.pageSize ?? 20));
     const queryTerms = [...new Set(tokenize(query))];
-    const empty: SearchPage = { query, total: 0, page, pageSize, results: [], suggestions: [], facets: { families: [], tags: [] } };
+    const empty: SearchPage = {
+      query,
+      total: 0,
+      page,
+      pageSize,
+      results: [],
+      suggestions: [],
+      facets: { families: [], tags: [] },
+    };
     if (!queryTerms.length) return empty;
 
     const terms = queryTerms.map((t, i) => this.sourcesFor(t, i === queryTerms.length - 1));
@@ -274,7 +290,8 @@ export class SearchIndex {
       const ts = this.tagsOf[slot]!;
       seen[f] = 1;
       for (const t of ts) seen[t] = 1;
-      if ((family === -1 || f === family) && (tag === -1 || ts.includes(tag))) kept.push([slot, found.scores[i]!]);
+      if ((family === -1 || f === family) && (tag === -1 || ts.includes(tag)))
+        kept.push([slot, found.scores[i]!]);
     }
     const families: string[] = [];
     const tags: string[] = [];
@@ -359,7 +376,12 @@ export function snippet(text: string, matched: Set<string>, max = 200) {
   return snippetFrom(lines, matched, max);
 }
 
-function snippetFrom(lines: { line: string; tokens: Set<string> }[], matched: Set<string>, max = 200, tokensOf = tokenize): { text: string; hit: boolean }[] {
+function snippetFrom(
+  lines: { line: string; tokens: Set<string> }[],
+  matched: Set<string>,
+  max = 200,
+  tokensOf = tokenize,
+): { text: string; hit: boolean }[] {
   let best = lines[0]?.line ?? '';
   let bestCount = 0;
   for (const { line, tokens } of lines) {

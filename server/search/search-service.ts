@@ -76,7 +76,8 @@ export class SearchService {
   async rebuild() {
     const started = Date.now();
     const docs = await loadApproved(this.db, (n) => {
-      if (n % 5_000 === 0 && n > 0) this.logger.info({ indexed: n }, 'search index: loading approved revisions…');
+      if (n % 5_000 === 0 && n > 0)
+        this.logger.info({ indexed: n }, 'search index: loading approved revisions…');
     });
     this.index.replaceAll(docs);
     this.logger.info({ procedures: docs.length, ms: Date.now() - started }, 'search index built');

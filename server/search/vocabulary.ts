@@ -6,9 +6,23 @@
 
 /** Each group: the canonical term first, then the patterns that mean the same. */
 const SYNONYM_GROUPS: readonly [string, readonly RegExp[]][] = [
-  ['bplus', [/\bb\s*\+/g, /\bht\b/g, /\bh\.t\./g, /\bplate\s+(?:supply|voltage|rail)s?\b/g, /\banode\s+supply\b/g, /\bhigh\s+tension\b/g, /\bb-plus\b/g]],
+  [
+    'bplus',
+    [
+      /\bb\s*\+/g,
+      /\bht\b/g,
+      /\bh\.t\./g,
+      /\bplate\s+(?:supply|voltage|rail)s?\b/g,
+      /\banode\s+supply\b/g,
+      /\bhigh\s+tension\b/g,
+      /\bb-plus\b/g,
+    ],
+  ],
   ['heater', [/\bfilaments?\b/g, /\bheaters?\b/g]],
-  ['timedelay', [/\bslow[\s-]?blow\b/g, /\btime[\s-]?(?:delay|lag)\b/g, /\bt[\s-]type\b/g, /\bsurge[\s-]proof\b/g]],
+  [
+    'timedelay',
+    [/\bslow[\s-]?blow\b/g, /\btime[\s-]?(?:delay|lag)\b/g, /\bt[\s-]type\b/g, /\bsurge[\s-]proof\b/g],
+  ],
   ['timedelay fuse', [/\bt[\s-]fuses?\b/g]],
   ['quickacting', [/\bquick[\s-]?(?:acting|blow)\b/g, /\bfast[\s-]?(?:acting|blow)\b/g]],
   ['quickacting fuse', [/\bf[\s-]fuses?\b/g]],
@@ -21,29 +35,56 @@ const SYNONYM_GROUPS: readonly [string, readonly RegExp[]][] = [
 ];
 
 const UNIT_WORDS: Record<string, string> = {
-  v: 'v', vac: 'v', vdc: 'v', volt: 'v', volts: 'v',
-  a: 'a', amp: 'a', amps: 'a',
-  w: 'w', watt: 'w', watts: 'w',
+  v: 'v',
+  vac: 'v',
+  vdc: 'v',
+  volt: 'v',
+  volts: 'v',
+  a: 'a',
+  amp: 'a',
+  amps: 'a',
+  w: 'w',
+  watt: 'w',
+  watts: 'w',
   hz: 'hz',
-  f: 'f', farad: 'f',
-  ohm: 'ohm', ohms: 'ohm', 'ω': 'ohm', r: 'ohm',
+  f: 'f',
+  farad: 'f',
+  ohm: 'ohm',
+  ohms: 'ohm',
+  ω: 'ohm',
+  r: 'ohm',
   va: 'va',
-  h: 'h', henry: 'h', henries: 'h',
+  h: 'h',
+  henry: 'h',
+  henries: 'h',
 };
-const PREFIXES: Record<string, string> = { p: 'p', n: 'n', u: 'u', 'µ': 'u', 'μ': 'u', m: 'm', k: 'k', meg: 'meg' };
+const PREFIXES: Record<string, string> = {
+  p: 'p',
+  n: 'n',
+  u: 'u',
+  µ: 'u',
+  μ: 'u',
+  m: 'm',
+  k: 'k',
+  meg: 'meg',
+};
 
 // A number, an optional SI prefix, an optional unit, with or without a space between.
-const QUANTITY = /(\d+(?:[.,]\d+)?)\s*(meg|[pnuµμmk])?\s*(vac|vdc|volts?|v|amps?|a|watts?|w|hz|farad|f|ohms?|ω|va|henry|henries|h)?(?![a-z0-9])/g;
+const QUANTITY =
+  /(\d+(?:[.,]\d+)?)\s*(meg|[pnuµμmk])?\s*(vac|vdc|volts?|v|amps?|a|watts?|w|hz|farad|f|ohms?|ω|va|henry|henries|h)?(?![a-z0-9])/g;
 
 function normaliseQuantities(text: string) {
-  return text.replace(QUANTITY, (whole, num: string, prefix: string | undefined, unit: string | undefined) => {
-    if (!prefix && !unit) return whole;
-    const n = num.replace(',', '.');
-    const p = prefix ? PREFIXES[prefix] : '';
-    // A bare "m" after a number without a unit is ambiguous; keep it as written.
-    if (prefix && !unit && prefix !== 'k' && prefix !== 'meg') return ` ${n}${p} `;
-    return ` ${n}${p}${unit ? UNIT_WORDS[unit] : ''} `;
-  });
+  return text.replace(
+    QUANTITY,
+    (whole, num: string, prefix: string | undefined, unit: string | undefined) => {
+      if (!prefix && !unit) return whole;
+      const n = num.replace(',', '.');
+      const p = prefix ? PREFIXES[prefix] : '';
+      // A bare "m" after a number without a unit is ambiguous; keep it as written.
+      if (prefix && !unit && prefix !== 'k' && prefix !== 'meg') return ` ${n}${p} `;
+      return ` ${n}${p}${unit ? UNIT_WORDS[unit] : ''} `;
+    },
+  );
 }
 
 /** Lower-cases, unifies synonyms and quantities. Idempotent. */
@@ -59,7 +100,28 @@ export function canonicalText(text: string): string {
 }
 
 /** Words too common in procedures to help a search. */
-export const STOP_WORDS = new Set(['a', 'an', 'and', 'at', 'by', 'for', 'in', 'is', 'of', 'on', 'or', 'the', 'to', 'with', 'it', 'be', 'as', 'from', 'this', 'that']);
+export const STOP_WORDS = new Set([
+  'a',
+  'an',
+  'and',
+  'at',
+  'by',
+  'for',
+  'in',
+  'is',
+  'of',
+  'on',
+  'or',
+  'the',
+  'to',
+  'with',
+  'it',
+  'be',
+  'as',
+  'from',
+  'this',
+  'that',
+]);
 
 /** Splits canonical text into terms: quantities like "6.3v" stay whole. */
 export function tokenize(text: string): string[] {

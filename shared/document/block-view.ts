@@ -9,7 +9,16 @@
  */
 import { isEmptyInput, isParam, isRef, withFollowedParams } from '../reckoners/field-paths';
 import { MEASURE_WORDS } from '../reckoners/measures';
-import { getReckoner, validateInputs, type AnyReckoner, type Caution, type FieldSpec, type InputSource, type Measure, type Output } from '../reckoners';
+import {
+  getReckoner,
+  validateInputs,
+  type AnyReckoner,
+  type Caution,
+  type FieldSpec,
+  type InputSource,
+  type Measure,
+  type Output,
+} from '../reckoners';
 import { formatNumber, formatQuantity, parseQuantity } from '../units';
 import type { BlockSnapshot, Snapshot } from './evaluate';
 import { extractBlocks } from './extract';
@@ -94,21 +103,29 @@ export function valueWithMeasure(row: { formatted: string; measure: Measure | nu
   return word && row.formatted !== '—' ? `${row.formatted} ${word}` : row.formatted;
 }
 
-const isObj = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+const isObj = (v: unknown): v is Record<string, unknown> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
 const isNumeric = (s: FieldSpec) => s.kind === 'quantity' || s.kind === 'number' || s.kind === 'integer';
 
 /** The text column that names a row ("HT", "Heaters"), if the rows have one. */
 const rowNameColumn = (rows: FieldSpec) => rows.columns?.find((c) => c.kind === 'text');
 
 /** "Secondary windings, row 2 (HT): Winding voltage" for "windings.1.volts"; the path itself if unknown. */
-export function fieldLabel(fields: readonly FieldSpec[], path: string, input?: Record<string, unknown>): string {
+export function fieldLabel(
+  fields: readonly FieldSpec[],
+  path: string,
+  input?: Record<string, unknown>,
+): string {
   const [head, index, col] = path.split('.');
   const spec = fields.find((f) => f.key === head);
   if (!spec) return { name: 'Block name', kind: 'Reckoner', inputs: 'Inputs', '': 'Block' }[path] ?? path;
   if (spec.kind !== 'rows' || index === undefined || !/^\d+$/.test(index)) return spec.label;
   const nameCol = rowNameColumn(spec);
   const rowValue = (input?.[spec.key] as unknown[] | undefined)?.[Number(index)];
-  const rowName = nameCol && isObj(rowValue) && typeof rowValue[nameCol.key] === 'string' ? (rowValue[nameCol.key] as string).trim() : '';
+  const rowName =
+    nameCol && isObj(rowValue) && typeof rowValue[nameCol.key] === 'string'
+      ? (rowValue[nameCol.key] as string).trim()
+      : '';
   const row = `${spec.label}, row ${Number(index) + 1}${rowName ? ` (${rowName})` : ''}`;
   const column = col === undefined ? undefined : spec.columns?.find((c) => c.key === col);
   return column ? `${row}: ${column.label}` : row;
@@ -139,7 +156,8 @@ function resolveRaw(fields: readonly FieldSpec[], raw: Record<string, unknown>, 
       return ctx.params[v.param];
     }
     if (Array.isArray(v)) return v.map((x, i) => walk(x, `${path}.${i}`));
-    if (isObj(v)) return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, walk(x, path ? `${path}.${k}` : k)]));
+    if (isObj(v))
+      return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, walk(x, path ? `${path}.${k}` : k)]));
     if (path && !isEmptyInput(v)) sources[path] = { kind: 'typed' };
     return v;
   };
@@ -156,8 +174,18 @@ function readAlone(spec: FieldSpec, v: unknown): unknown {
   }
 }
 
-function originOf(stored: InputSource | undefined, spec: FieldSpec, value: unknown, ctx: Context): InputOrigin {
-  if (!stored) return isEmptyInput(value) ? { kind: 'empty' } : spec.default !== undefined ? { kind: 'default' } : { kind: 'typed' };
+function originOf(
+  stored: InputSource | undefined,
+  spec: FieldSpec,
+  value: unknown,
+  ctx: Context,
+): InputOrigin {
+  if (!stored)
+    return isEmptyInput(value)
+      ? { kind: 'empty' }
+      : spec.default !== undefined
+        ? { kind: 'default' }
+        : { kind: 'typed' };
   if (stored.kind === 'param') {
     const label = PARAM_SPECS.find((p) => p.key === stored.param)?.label ?? stored.param;
     return { kind: 'param', param: stored.param, paramLabel: label, followed: stored.followed };
@@ -194,20 +222,32 @@ export function sourceText(o: InputOrigin): string {
 function formatInput(spec: FieldSpec, value: unknown, source: InputOrigin): string {
   if (value === undefined || value === null || value === '') return '—';
   const sig = source.kind === 'ref' ? 3 : 4;
-  if (typeof value === 'number') return spec.unit ? formatQuantity(value, spec.unit, sig) : formatNumber(value, sig);
+  if (typeof value === 'number')
+    return spec.unit ? formatQuantity(value, spec.unit, sig) : formatNumber(value, sig);
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (spec.kind === 'select') return spec.options?.find((o) => o.value === value)?.label ?? String(value);
   return String(value);
 }
 
-function inputRows(def: AnyReckoner, input: Record<string, unknown>, sources: Record<string, InputSource>, ctx: Context): InputRow[] {
+function inputRows(
+  def: AnyReckoner,
+  input: Record<string, unknown>,
+  sources: Record<string, InputSource>,
+  ctx: Context,
+): InputRow[] {
   const rows: InputRow[] = [];
-  const visit = (fields: readonly FieldSpec[], obj: Record<string, unknown>, prefix: string, inRow: boolean) => {
+  const visit = (
+    fields: readonly FieldSpec[],
+    obj: Record<string, unknown>,
+    prefix: string,
+    inRow: boolean,
+  ) => {
     for (const f of fields) {
       const path = prefix ? `${prefix}.${f.key}` : f.key;
       const value = obj[f.key];
       if (f.kind === 'rows') {
-        if (Array.isArray(value)) value.forEach((row, i) => isObj(row) && visit(f.columns ?? [], row, `${path}.${i}`, true));
+        if (Array.isArray(value))
+          value.forEach((row, i) => isObj(row) && visit(f.columns ?? [], row, `${path}.${i}`, true));
         continue;
       }
       // A row's own name is in the row's label, not a figure of its own.
@@ -244,7 +284,10 @@ function declaredOrder(def: AnyReckoner, input: unknown, stored: string[]): stri
     // The stored outputs are what was signed; without a fresh run they keep their stored order.
     return stored;
   }
-  const order = [...declared.filter((k) => stored.includes(k)), ...stored.filter((k) => !declared.includes(k))];
+  const order = [
+    ...declared.filter((k) => stored.includes(k)),
+    ...stored.filter((k) => !declared.includes(k)),
+  ];
   if (orderCache.size > 1000) orderCache.clear();
   orderCache.set(cacheKey, order);
   return order;
@@ -263,14 +306,33 @@ function outputRow(key: string, o: Output): OutputRow {
   };
 }
 
-export function describeBlock(node: ReckonerAttrs & { section?: string }, stored: BlockSnapshot | undefined, ctx: Context): BlockView {
+export function describeBlock(
+  node: ReckonerAttrs & { section?: string },
+  stored: BlockSnapshot | undefined,
+  ctx: Context,
+): BlockView {
   const def = getReckoner(node.kind);
-  const base = { id: node.id, name: node.name, kind: node.kind, label: def?.label ?? stored?.label ?? node.kind, section: node.section ?? stored?.section ?? '' };
+  const base = {
+    id: node.id,
+    name: node.name,
+    kind: node.kind,
+    label: def?.label ?? stored?.label ?? node.kind,
+    section: node.section ?? stored?.section ?? '',
+  };
   const storedOutputs = stored?.ok ? stored.outputs : {};
   if (!def) {
-    return { ...base, ok: false, inputs: [], outputs: [], errors: [{ field: 'Reckoner', reason: `unknown reckoner “${node.kind}”` }], cautions: [] };
+    return {
+      ...base,
+      ok: false,
+      inputs: [],
+      outputs: [],
+      errors: [{ field: 'Reckoner', reason: `unknown reckoner “${node.kind}”` }],
+      cautions: [],
+    };
   }
-  const given = stored?.ok ? (stored as { input?: Record<string, unknown>; sources?: Record<string, InputSource> }) : {};
+  const given = stored?.ok
+    ? (stored as { input?: Record<string, unknown>; sources?: Record<string, InputSource> })
+    : {};
   let input: Record<string, unknown>;
   let sources: Record<string, InputSource>;
   let valid: boolean;
@@ -296,7 +358,12 @@ export function describeBlock(node: ReckonerAttrs & { section?: string }, stored
     ok: !!stored?.ok,
     inputs: inputRows(def, input, sources, ctx),
     outputs: order.map((k) => outputRow(k, storedOutputs[k]!)),
-    errors: stored && !stored.ok ? stored.errors.map((e) => ({ field: fieldLabel(def.fields, e.field, input), reason: e.reason })) : stored ? [] : [{ field: 'Block', reason: 'missing from the stored results' }],
+    errors:
+      stored && !stored.ok
+        ? stored.errors.map((e) => ({ field: fieldLabel(def.fields, e.field, input), reason: e.reason }))
+        : stored
+          ? []
+          : [{ field: 'Block', reason: 'missing from the stored results' }],
     cautions: stored?.ok ? stored.cautions : [],
   };
 }
@@ -305,26 +372,48 @@ function readEach(fields: readonly FieldSpec[], raw: Record<string, unknown>): R
   const out: Record<string, unknown> = {};
   for (const f of fields) {
     const v = raw[f.key];
-    out[f.key] = f.kind === 'rows' ? (Array.isArray(v) ? v.map((r) => (isObj(r) ? readEach(f.columns ?? [], r) : r)) : v) : readAlone(f, v);
+    out[f.key] =
+      f.kind === 'rows'
+        ? Array.isArray(v)
+          ? v.map((r) => (isObj(r) ? readEach(f.columns ?? [], r) : r))
+          : v
+        : readAlone(f, v);
   }
   return out;
 }
 
 /** Every reckoner block of a revision, in document order, described from its document and stored snapshot. */
 export function describeBlocks(doc: ProcedureDoc, snapshot: Snapshot): BlockView[] {
-  const ctx: Context = { params: snapshot.params ?? {}, byName: new Map(snapshot.blocks.map((b) => [b.name, b])) };
+  const ctx: Context = {
+    params: snapshot.params ?? {},
+    byName: new Map(snapshot.blocks.map((b) => [b.name, b])),
+  };
   const byId = new Map(snapshot.blocks.map((b) => [b.id, b]));
-  return extractBlocks(doc).reckoners.map((node) => describeBlock(node, byId.get(node.id) ?? ctx.byName.get(node.name), ctx));
+  return extractBlocks(doc).reckoners.map((node) =>
+    describeBlock(node, byId.get(node.id) ?? ctx.byName.get(node.name), ctx),
+  );
 }
 
 export function describeParams(snapshot: Snapshot): ParamRow[] {
   return PARAM_SPECS.flatMap((p) => {
     const v = snapshot.params?.[p.key];
     if (typeof v !== 'number') return [];
-    return [{ key: p.key, label: p.label, value: v, formatted: formatQuantity(v, p.unit, 4), measure: named(p.measure) }];
+    return [
+      {
+        key: p.key,
+        label: p.label,
+        value: v,
+        formatted: formatQuantity(v, p.unit, 4),
+        measure: named(p.measure),
+      },
+    ];
   });
 }
 
 export function describeRevision(doc: ProcedureDoc, snapshot: Snapshot): RevisionFigures {
-  return { params: describeParams(snapshot), blocks: describeBlocks(doc, snapshot), readings: snapshot.readings };
+  return {
+    params: describeParams(snapshot),
+    blocks: describeBlocks(doc, snapshot),
+    readings: snapshot.readings,
+  };
 }

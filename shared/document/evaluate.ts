@@ -3,7 +3,14 @@
  * registry) and every reading's expected band. The server stores the result as the revision's
  * snapshot; bench runs call it again with the measured mains; the editor calls it on each change.
  */
-import { evaluateProcedure, getReckoner, parseTolerance, toleranceBand, type BlockResult, type ProcedureError } from '../reckoners';
+import {
+  evaluateProcedure,
+  getReckoner,
+  parseTolerance,
+  toleranceBand,
+  type BlockResult,
+  type ProcedureError,
+} from '../reckoners';
 import { readMeasured } from '../reckoners/measurement';
 import { unitWithMeasure } from '../reckoners/measures';
 import type { Measure } from '../reckoners/types';
@@ -47,7 +54,12 @@ export interface Snapshot {
   errors: ProcedureError[];
 }
 
-function expectedValue(reading: ReadingAttrs, measure: Measure, blocks: Map<string, BlockResult>, ratio: number): number {
+function expectedValue(
+  reading: ReadingAttrs,
+  measure: Measure,
+  blocks: Map<string, BlockResult>,
+  ratio: number,
+): number {
   if ('literal' in reading.expected) {
     // Read as a bench value is read: the reading's unit and measure, within what a meter shows.
     const read = readMeasured(reading.expected.literal, reading.unit, measure);
@@ -62,10 +74,15 @@ function expectedValue(reading: ReadingAttrs, measure: Measure, blocks: Map<stri
   if (!block) throw new Error(`no reckoner is named "${name}"`);
   if (!block.ok) throw new Error(`reckoner "${name}" has errors, so "${ref}" has no value`);
   const out = block.outputs[key];
-  if (!out) throw new Error(`reckoner "${name}" has no output "${key}" (it has: ${Object.keys(block.outputs).join(', ')})`);
+  if (!out)
+    throw new Error(
+      `reckoner "${name}" has no output "${key}" (it has: ${Object.keys(block.outputs).join(', ')})`,
+    );
   if (typeof out.value !== 'number') throw new Error(`"${ref}" is not a number`);
   if (out.unit !== reading.unit || out.measure !== measure) {
-    throw new Error(`"${ref}" is in ${unitWithMeasure(out.unit || 'no unit', out.measure)}, but the reading is in ${unitWithMeasure(reading.unit, measure)}`);
+    throw new Error(
+      `"${ref}" is in ${unitWithMeasure(out.unit || 'no unit', out.measure)}, but the reading is in ${unitWithMeasure(reading.unit, measure)}`,
+    );
   }
   return out.value;
 }
@@ -104,7 +121,14 @@ export function resolveReading(
       bandText: `${formatQuantity(band.low, reading.unit)} … ${formatQuantity(band.high, reading.unit)}`,
     };
   } catch (err) {
-    return { ...base, expected: null, low: null, high: null, bandText: null, error: err instanceof Error ? err.message : String(err) };
+    return {
+      ...base,
+      expected: null,
+      low: null,
+      high: null,
+      bandText: null,
+      error: err instanceof Error ? err.message : String(err),
+    };
   }
 }
 
@@ -114,7 +138,17 @@ export function evaluateDocument(doc: ProcedureDoc, params: ProcedureParams): Sn
     reckoners.map((r) => ({ name: r.name, kind: r.kind, inputs: r.inputs })),
     params,
   );
-  const blocks = result.blocks.map((b, i) => ({ ...b, id: reckoners[i]!.id, section: reckoners[i]!.section, label: getReckoner(b.kind)?.label ?? b.kind }));
+  const blocks = result.blocks.map((b, i) => ({
+    ...b,
+    id: reckoners[i]!.id,
+    section: reckoners[i]!.section,
+    label: getReckoner(b.kind)?.label ?? b.kind,
+  }));
   const byName = new Map(result.blocks.map((b) => [b.name, b]));
-  return { params, blocks, readings: readings.map((r) => resolveReading(r, byName, params)), errors: result.errors };
+  return {
+    params,
+    blocks,
+    readings: readings.map((r) => resolveReading(r, byName, params)),
+    errors: result.errors,
+  };
 }

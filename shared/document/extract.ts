@@ -1,4 +1,13 @@
-import type { CheckStepAttrs, DocNode, FileAttrs, HazardNoteAttrs, ImageAttrs, ProcedureDoc, ReadingAttrs, ReckonerAttrs } from './schema';
+import type {
+  CheckStepAttrs,
+  DocNode,
+  FileAttrs,
+  HazardNoteAttrs,
+  ImageAttrs,
+  ProcedureDoc,
+  ReadingAttrs,
+  ReckonerAttrs,
+} from './schema';
 import { checkKindOf, HAZARD_FLAG_LABELS, HAZARD_FLAGS, walk } from './schema';
 
 /** "Check", "Wait 10 s (bleeder)", "Discharge verified below 60 V", with "live" where marked: one wording for text, reader and run. */
@@ -15,7 +24,9 @@ export function checkStepHeading(a: CheckStepAttrs): string {
 
 /** The flags a hazard note carries, in words ("Work one hand only; Isolation transformer"), '' for none. */
 export function hazardFlagWords(a: HazardNoteAttrs): string {
-  return HAZARD_FLAGS.filter((f) => a.flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f]).join('; ');
+  return HAZARD_FLAGS.filter((f) => a.flags?.[f])
+    .map((f) => HAZARD_FLAG_LABELS[f])
+    .join('; ');
 }
 
 /** Where a block sits: the heading it is under ('' before the first) and its place in document order. */
@@ -41,7 +52,14 @@ export function textOf(node: DocNode): string {
 }
 
 export function extractBlocks(doc: ProcedureDoc): DocBlocks {
-  const out: DocBlocks = { reckoners: [], readings: [], checkSteps: [], hazardNotes: [], images: [], files: [] };
+  const out: DocBlocks = {
+    reckoners: [],
+    readings: [],
+    checkSteps: [],
+    hazardNotes: [],
+    images: [],
+    files: [],
+  };
   let section = '';
   let order = 0;
   // Only top-level headings start sections; nested walking still finds blocks inside lists.
@@ -87,7 +105,9 @@ export function plainText(doc: ProcedureDoc): string {
         lines.push(textOf(node));
         return;
       case 'reading':
-        lines.push(`Reading${a.live === true ? ' (live)' : ''}: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`);
+        lines.push(
+          `Reading${a.live === true ? ' (live)' : ''}: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`,
+        );
         return;
       case 'checkStep':
         lines.push(`${checkStepHeading(a as CheckStepAttrs)}: ${a.text}`);

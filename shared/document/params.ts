@@ -7,12 +7,23 @@ export type { ParamKey, ParamSpec };
 export type ProcedureParams = Record<ParamKey, number>;
 
 const bounded = (p: ParamSpec) =>
-  z.number({ error: `${p.label} must be a number in ${p.unit}` }).refine(Number.isFinite, 'must be finite').pipe(
-    z.number().min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`).max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
-  );
+  z
+    .number({ error: `${p.label} must be a number in ${p.unit}` })
+    .refine(Number.isFinite, 'must be finite')
+    .pipe(
+      z
+        .number()
+        .min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`)
+        .max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
+    );
 
 export const paramsSchema = z
-  .object(Object.fromEntries(PARAM_SPECS.map((p) => [p.key, bounded(p)])) as unknown as Record<ParamKey, z.ZodType<number>>)
+  .object(
+    Object.fromEntries(PARAM_SPECS.map((p) => [p.key, bounded(p)])) as unknown as Record<
+      ParamKey,
+      z.ZodType<number>
+    >,
+  )
   .strict();
 
 export const defaultParams = (): ProcedureParams =>

@@ -20,7 +20,10 @@ const shortText = (max: number) => z.string().max(max, `at most ${max} character
 const safeHref = z
   .string()
   .max(2_000)
-  .refine((href) => /^(https?:\/\/|mailto:)/i.test(href.trim()), 'links must start with http://, https:// or mailto:');
+  .refine(
+    (href) => /^(https?:\/\/|mailto:)/i.test(href.trim()),
+    'links must start with http://, https:// or mailto:',
+  );
 
 // ── marks ────────────────────────────────────────────────────────────────────
 const plainMark = (type: string) => z.object({ type: z.literal(type) }).strict();
@@ -47,7 +50,9 @@ export const markSchemas = {
 export type MarkType = keyof typeof markSchemas;
 export const MARK_TYPES = Object.keys(markSchemas) as MarkType[];
 
-const markSchema = z.union(Object.values(markSchemas) as unknown as [z.ZodTypeAny, z.ZodTypeAny, ...z.ZodTypeAny[]]);
+const markSchema = z.union(
+  Object.values(markSchemas) as unknown as [z.ZodTypeAny, z.ZodTypeAny, ...z.ZodTypeAny[]],
+);
 
 // ── values inside reckoner inputs: literals, rows, references ─────────────────
 export type InputValue =
@@ -78,7 +83,11 @@ const toleranceText = shortText(40);
  * An attribute added after documents were first stored: absent in old documents, and null from the
  * editor when unset (TipTap writes every declared attribute). Both mean "not stated".
  */
-const added = <T extends z.ZodTypeAny>(schema: T) => schema.nullish().transform((v) => v ?? undefined).optional();
+const added = <T extends z.ZodTypeAny>(schema: T) =>
+  schema
+    .nullish()
+    .transform((v) => v ?? undefined)
+    .optional();
 
 /** Live work: done or measured on a powered unit. Absent on a reading: see isLiveReading. */
 const live = added(z.boolean({ error: 'must be yes (true) or no (false)' }));
@@ -90,7 +99,9 @@ export const reckonerAttrs = z
   .object({
     id: blockId,
     /** Short name other blocks use to refer to this one's outputs ("bplus" → "bplus.averageDc"). */
-    name: z.string().regex(BLOCK_NAME, 'must start with a letter and hold only letters, digits, - or _ (max 32)'),
+    name: z
+      .string()
+      .regex(BLOCK_NAME, 'must start with a letter and hold only letters, digits, - or _ (max 32)'),
     kind: z.string().max(40),
     inputs: z.record(z.string().max(40), inputValueSchema),
   })
@@ -106,7 +117,10 @@ export const readingAttrs = z
     /** For volts and amps: what the meter is set to read. Documents saved before it existed are upgraded on load. */
     measure: z.enum(READING_MEASURES).nullable().optional(),
     /** A literal as typed ("350 V") or a reckoner output ("bplus.averageDc"). */
-    expected: z.union([z.object({ literal: shortText(40) }).strict(), z.object({ ref: shortText(80) }).strict()]),
+    expected: z.union([
+      z.object({ literal: shortText(40) }).strict(),
+      z.object({ ref: shortText(80) }).strict(),
+    ]),
     /**
      * For a typed expected value: true scales it with measured ÷ nominal mains (a winding, a rail fed
      * from one); false states it does not (a regulated rail, the mains itself); absent is unstated.
@@ -119,7 +133,11 @@ export const readingAttrs = z
   .strict()
   .superRefine((r, ctx) => {
     if (r.measure != null && !takesMeasure(r.unit)) {
-      ctx.addIssue({ code: 'custom', path: ['measure'], message: `a reading in ${r.unit} takes no measure (rms, peak, DC are for volts and amps)` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['measure'],
+        message: `a reading in ${r.unit} takes no measure (rms, peak, DC are for volts and amps)`,
+      });
     }
   });
 
@@ -136,13 +154,22 @@ const thresholdText = z
       q = parseQuantity(text, 'V');
     } catch (e) {
       if (!(e instanceof QuantityParseError)) throw e;
-      ctx.addIssue({ code: 'custom', message: `"${text.slice(0, 40)}" is not a voltage; write it as "60 V"` });
+      ctx.addIssue({
+        code: 'custom',
+        message: `"${text.slice(0, 40)}" is not a voltage; write it as "60 V"`,
+      });
       return;
     }
     if (!(q.value > 0) || q.value > MAX_DISCHARGE_THRESHOLD) {
-      ctx.addIssue({ code: 'custom', message: `must be a voltage above 0 V and at most ${MAX_DISCHARGE_THRESHOLD} V` });
+      ctx.addIssue({
+        code: 'custom',
+        message: `must be a voltage above 0 V and at most ${MAX_DISCHARGE_THRESHOLD} V`,
+      });
     } else if (q.measure && q.measure !== 'dc') {
-      ctx.addIssue({ code: 'custom', message: 'is a DC voltage on the discharged capacitors; write it without rms or peak' });
+      ctx.addIssue({
+        code: 'custom',
+        message: 'is a DC voltage on the discharged capacitors; write it without rms or peak',
+      });
     }
   });
 
@@ -178,16 +205,29 @@ export const checkStepAttrs = z
   .superRefine((a, ctx) => {
     const kind = a.kind ?? 'confirm';
     const only = (key: 'threshold' | 'seconds' | 'drain', owner: CheckKind) => {
-      if (a[key] !== undefined && kind !== owner) ctx.addIssue({ code: 'custom', path: [key], message: `only a ${owner} step takes ${key === 'seconds' ? 'a duration' : `a ${key}`}` });
+      if (a[key] !== undefined && kind !== owner)
+        ctx.addIssue({
+          code: 'custom',
+          path: [key],
+          message: `only a ${owner} step takes ${key === 'seconds' ? 'a duration' : `a ${key}`}`,
+        });
     };
     only('threshold', 'discharge-verified');
     only('seconds', 'wait');
     only('drain', 'wait');
     if (kind === 'discharge-verified' && a.threshold === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['threshold'], message: 'a discharge-verified step needs the voltage it verifies below, e.g. "60 V"' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['threshold'],
+        message: 'a discharge-verified step needs the voltage it verifies below, e.g. "60 V"',
+      });
     }
     if (kind === 'wait' && a.seconds === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['seconds'], message: 'a wait step needs its duration in seconds' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['seconds'],
+        message: 'a wait step needs its duration in seconds',
+      });
     }
   });
 
@@ -213,7 +253,9 @@ export const hazardNoteAttrs = z
       z
         .object(Object.fromEntries(HAZARD_FLAGS.map((f) => [f, flag])) as Record<HazardFlag, typeof flag>, {
           error: (iss) =>
-            iss.code === 'unrecognized_keys' ? `unknown flag ${iss.keys.map((k) => `"${k}"`).join(', ')} (flags: ${HAZARD_FLAGS.join(', ')})` : 'must be a set of yes/no flags',
+            iss.code === 'unrecognized_keys'
+              ? `unknown flag ${iss.keys.map((k) => `"${k}"`).join(', ')} (flags: ${HAZARD_FLAGS.join(', ')})`
+              : 'must be a set of yes/no flags',
         })
         .strict(),
     ),
@@ -249,7 +291,8 @@ export type ImageAttrs = z.infer<typeof imageAttrs>;
  * reading in them is live unless the author marks it otherwise (a residual voltage on a switched-off
  * unit); resistance, capacitance, time and percentages are read cold unless marked live.
  */
-export const isLiveReading = (r: Pick<ReadingAttrs, 'unit' | 'live'>): boolean => r.live ?? LIVE_READING_UNITS.includes(r.unit);
+export const isLiveReading = (r: Pick<ReadingAttrs, 'unit' | 'live'>): boolean =>
+  r.live ?? LIVE_READING_UNITS.includes(r.unit);
 export const isLiveCheck = (c: Pick<CheckStepAttrs, 'live'>): boolean => c.live === true;
 export const checkKindOf = (c: Pick<CheckStepAttrs, 'kind'>): CheckKind => c.kind ?? 'confirm';
 export type FileAttrs = z.infer<typeof fileAttrs>;
@@ -259,10 +302,15 @@ export type FileAttrs = z.infer<typeof fileAttrs>;
 export const nodeSpecs = {
   doc: { attrs: null, content: 'block' },
   paragraph: { attrs: z.object({ textAlign: z.null().optional() }).strict(), content: 'inline' },
-  heading: { attrs: z.object({ level: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4)]) }).strict(), content: 'inline' },
+  heading: {
+    attrs: z.object({ level: z.union([z.literal(1), z.literal(2), z.literal(3), z.literal(4)]) }).strict(),
+    content: 'inline',
+  },
   bulletList: { attrs: null, content: 'listItem' },
   orderedList: {
-    attrs: z.object({ start: z.number().int().min(0).max(10_000), type: z.string().max(4).nullable().optional() }).strict(),
+    attrs: z
+      .object({ start: z.number().int().min(0).max(10_000), type: z.string().max(4).nullable().optional() })
+      .strict(),
     content: 'listItem',
   },
   listItem: { attrs: null, content: 'block' },
@@ -277,7 +325,10 @@ export const nodeSpecs = {
   hazardNote: { attrs: hazardNoteAttrs, content: 'paragraph' },
   image: { attrs: imageAttrs, content: 'none' },
   file: { attrs: fileAttrs, content: 'none' },
-} as const satisfies Record<string, { attrs: z.ZodTypeAny | null; content: 'block' | 'inline' | 'listItem' | 'text' | 'paragraph' | 'none' }>;
+} as const satisfies Record<
+  string,
+  { attrs: z.ZodTypeAny | null; content: 'block' | 'inline' | 'listItem' | 'text' | 'paragraph' | 'none' }
+>;
 
 export type NodeType = keyof typeof nodeSpecs;
 export const NODE_TYPES = Object.keys(nodeSpecs) as NodeType[];
@@ -323,7 +374,9 @@ function allowedChild(content: string, type: string): boolean {
  * Checks a document against the allowed node and mark set. Unknown nodes, marks and attributes
  * come back by path and name; nothing is dropped silently.
  */
-export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc } | { ok: false; problems: DocProblem[] } {
+export function validateDocument(
+  input: unknown,
+): { ok: true; doc: ProcedureDoc } | { ok: false; problems: DocProblem[] } {
   const problems: DocProblem[] = [];
   let count = 0;
 
@@ -334,7 +387,8 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
       return;
     }
     if (++count > MAX_DOC_NODES) {
-      if (count === MAX_DOC_NODES + 1) problems.push({ path, reason: `the document has more than ${MAX_DOC_NODES} nodes` });
+      if (count === MAX_DOC_NODES + 1)
+        problems.push({ path, reason: `the document has more than ${MAX_DOC_NODES} nodes` });
       return;
     }
     if (!node || typeof node !== 'object' || Array.isArray(node)) {
@@ -344,7 +398,10 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
     const n = node as Record<string, unknown>;
     const type = n.type;
     if (typeof type !== 'string' || !(type in nodeSpecs)) {
-      problems.push({ path: path ? `${path}.type` : 'type', reason: `unknown node type "${String(type).slice(0, 40)}"` });
+      problems.push({
+        path: path ? `${path}.type` : 'type',
+        reason: `unknown node type "${String(type).slice(0, 40)}"`,
+      });
       return;
     }
     const spec = nodeSpecs[type as NodeType];
@@ -353,29 +410,45 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
       problems.push({ path: at('type'), reason: `a "${type}" node is not allowed here` });
     }
     for (const key of Object.keys(n)) {
-      if (!['type', 'attrs', 'content', 'marks', 'text'].includes(key)) problems.push({ path: at(key), reason: `unknown property "${key}"` });
+      if (!['type', 'attrs', 'content', 'marks', 'text'].includes(key))
+        problems.push({ path: at(key), reason: `unknown property "${key}"` });
     }
     if (spec.attrs) {
       const r = spec.attrs.safeParse(n.attrs ?? {});
-      if (!r.success) for (const issue of r.error.issues) problems.push({ path: [at('attrs'), ...issue.path.map(String)].join('.'), reason: issue.message });
+      if (!r.success)
+        for (const issue of r.error.issues)
+          problems.push({ path: [at('attrs'), ...issue.path.map(String)].join('.'), reason: issue.message });
       else n.attrs = r.data;
-    } else if (n.attrs !== undefined && (typeof n.attrs !== 'object' || n.attrs === null || Object.keys(n.attrs).length > 0)) {
+    } else if (
+      n.attrs !== undefined &&
+      (typeof n.attrs !== 'object' || n.attrs === null || Object.keys(n.attrs).length > 0)
+    ) {
       problems.push({ path: at('attrs'), reason: `a "${type}" node takes no attributes` });
     }
     if (type === 'text') {
-      if (typeof n.text !== 'string' || n.text.length === 0) problems.push({ path: at('text'), reason: 'text nodes need non-empty text' });
-      else if (n.text.length > MAX_TEXT) problems.push({ path: at('text'), reason: `at most ${MAX_TEXT} characters in one run of text` });
+      if (typeof n.text !== 'string' || n.text.length === 0)
+        problems.push({ path: at('text'), reason: 'text nodes need non-empty text' });
+      else if (n.text.length > MAX_TEXT)
+        problems.push({ path: at('text'), reason: `at most ${MAX_TEXT} characters in one run of text` });
       if (n.marks !== undefined) {
         if (!Array.isArray(n.marks)) problems.push({ path: at('marks'), reason: 'must be a list' });
         else
           n.marks.forEach((m, i) => {
             const mt = (m as { type?: unknown })?.type;
             if (typeof mt !== 'string' || !(mt in markSchemas)) {
-              problems.push({ path: at(`marks.${i}.type`), reason: `unknown mark "${String(mt).slice(0, 40)}"` });
+              problems.push({
+                path: at(`marks.${i}.type`),
+                reason: `unknown mark "${String(mt).slice(0, 40)}"`,
+              });
               return;
             }
             const r = markSchema.safeParse(m);
-            if (!r.success) for (const issue of r.error.issues) problems.push({ path: [at(`marks.${i}`), ...issue.path.map(String)].join('.'), reason: issue.message });
+            if (!r.success)
+              for (const issue of r.error.issues)
+                problems.push({
+                  path: [at(`marks.${i}`), ...issue.path.map(String)].join('.'),
+                  reason: issue.message,
+                });
           });
       }
     } else if (n.marks !== undefined) {
@@ -384,7 +457,8 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
       problems.push({ path: at('text'), reason: `a "${type}" node holds no text of its own` });
     }
     if (n.content !== undefined) {
-      if (spec.content === 'none') problems.push({ path: at('content'), reason: `a "${type}" node has no content` });
+      if (spec.content === 'none')
+        problems.push({ path: at('content'), reason: `a "${type}" node has no content` });
       else if (!Array.isArray(n.content)) problems.push({ path: at('content'), reason: 'must be a list' });
       else n.content.forEach((child, i) => visit(child, at(`content.${i}`), spec.content, depth + 1));
     }
@@ -394,19 +468,25 @@ export function validateDocument(input: unknown): { ok: true; doc: ProcedureDoc 
     return { ok: false, problems: [{ path: 'type', reason: 'the document must be a "doc" node' }] };
   }
   visit(input, '', null);
-  if (!Array.isArray((input as DocNode).content)) problems.push({ path: 'content', reason: 'the document needs content' });
+  if (!Array.isArray((input as DocNode).content))
+    problems.push({ path: 'content', reason: 'the document needs content' });
   const ids = new Set<string>();
   const names = new Set<string>();
   if (!problems.length) {
     walk(input as ProcedureDoc, (node, path) => {
       const id = node.attrs?.id;
       if (typeof id === 'string') {
-        if (ids.has(id)) problems.push({ path: `${path}.attrs.id`, reason: `block id "${id}" is used twice` });
+        if (ids.has(id))
+          problems.push({ path: `${path}.attrs.id`, reason: `block id "${id}" is used twice` });
         ids.add(id);
       }
       if (node.type === 'reckoner') {
         const name = String(node.attrs!.name);
-        if (names.has(name)) problems.push({ path: `${path}.attrs.name`, reason: `two reckoners are named "${name}"; names must be unique` });
+        if (names.has(name))
+          problems.push({
+            path: `${path}.attrs.name`,
+            reason: `two reckoners are named "${name}"; names must be unique`,
+          });
         names.add(name);
       }
     });

@@ -16,7 +16,9 @@ import type { DocNode, ProcedureDoc, ReadingAttrs } from './schema';
 type ReadingMeasure = NonNullable<ReadingAttrs['measure']>;
 
 /** The measure a reading states, or the one its meter range implies. Undefined for units without one. */
-export function readingMeasure(r: Pick<ReadingAttrs, 'unit' | 'measure' | 'meterRange'>): ReadingMeasure | undefined {
+export function readingMeasure(
+  r: Pick<ReadingAttrs, 'unit' | 'measure' | 'meterRange'>,
+): ReadingMeasure | undefined {
   if (!takesMeasure(r.unit)) return undefined;
   if (r.measure) return r.measure;
   if (/\bAC\b|~|\brms\b/i.test(r.meterRange)) return 'rms';

@@ -17,8 +17,18 @@ import { q, s, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  capacitance: quantity('F', { label: 'Capacitance', min: 1e-12, max: 1, plausible: { min: 1e-6, max: 0.05 } }),
-  chargedVoltage: quantity('V dc', { label: 'Charged voltage', min: 1e-3, max: 5000, plausible: { min: 5, max: 2000 } }),
+  capacitance: quantity('F', {
+    label: 'Capacitance',
+    min: 1e-12,
+    max: 1,
+    plausible: { min: 1e-6, max: 0.05 },
+  }),
+  chargedVoltage: quantity('V dc', {
+    label: 'Charged voltage',
+    min: 1e-3,
+    max: 5000,
+    plausible: { min: 5, max: 2000 },
+  }),
   bleederResistance: optionalQuantity('Ω', {
     label: 'Bleeder resistance',
     min: 1e-3,
@@ -71,18 +81,44 @@ function compute(input: BleederInput): ReckonerResult {
       timeToFall(R, C, V0, Vt),
       's',
       `Time to fall below ${formatQuantity(Vt, 'V')}`,
-      above ? 'R C ln(V₀ ÷ V_threshold), with the supply disconnected and no other load.' : 'Already at or below the threshold.',
+      above
+        ? 'R C ln(V₀ ÷ V_threshold), with the supply disconnected and no other load.'
+        : 'Already at or below the threshold.',
       SRC.derived,
     );
-    outputs.bleederDissipation = q((V0 * V0) / R, 'W', 'Bleeder dissipation', 'V² ÷ R at the charged voltage, continuous while powered.', SRC.derived);
-    outputs.bleederCurrent = q(V0 / R, 'A dc', 'Bleeder current', 'V ÷ R; this adds to the supply’s load.', SRC.derived);
+    outputs.bleederDissipation = q(
+      (V0 * V0) / R,
+      'W',
+      'Bleeder dissipation',
+      'V² ÷ R at the charged voltage, continuous while powered.',
+      SRC.derived,
+    );
+    outputs.bleederCurrent = q(
+      V0 / R,
+      'A dc',
+      'Bleeder current',
+      'V ÷ R; this adds to the supply’s load.',
+      SRC.derived,
+    );
   }
   if (above) {
     const rMax = maxBleederFor(targetTime, C, V0, Vt);
     const r = floorESeries(rMax, 'E12');
     const p = (V0 * V0) / r;
-    outputs.maxBleeder = q(rMax, 'Ω', `Largest bleeder for ${formatQuantity(targetTime, 's')}`, 't ÷ (C ln(V₀ ÷ V_threshold)).', SRC.derived);
-    outputs.suggestedBleeder = q(r, 'Ω', 'Suggested bleeder (E12, at or below)', 'The E12 value at or below the largest bleeder, so the time is met.', 'IEC 60063 E12');
+    outputs.maxBleeder = q(
+      rMax,
+      'Ω',
+      `Largest bleeder for ${formatQuantity(targetTime, 's')}`,
+      't ÷ (C ln(V₀ ÷ V_threshold)).',
+      SRC.derived,
+    );
+    outputs.suggestedBleeder = q(
+      r,
+      'Ω',
+      'Suggested bleeder (E12, at or below)',
+      'The E12 value at or below the largest bleeder, so the time is met.',
+      'IEC 60063 E12',
+    );
     outputs.suggestedBleederDissipation = q(p, 'W', 'Suggested bleeder dissipation', 'V² ÷ R.', SRC.derived);
     outputs.suggestedBleederRating = q(
       suggestedPowerRating(p),
@@ -92,7 +128,11 @@ function compute(input: BleederInput): ReckonerResult {
       SRC.commonPractice,
     );
   } else {
-    outputs.suggestedBleeder = s('not needed for the threshold', 'Suggested bleeder', 'The charged voltage is already at or below the threshold.');
+    outputs.suggestedBleeder = s(
+      'not needed for the threshold',
+      'Suggested bleeder',
+      'The charged voltage is already at or below the threshold.',
+    );
   }
   return { outputs };
 }
@@ -105,20 +145,23 @@ function cautions(input: BleederInput, result: ReckonerResult): Caution[] {
     {
       level: 'danger',
       code: 'verify-discharge',
-      message: 'A bleeder can fail open. Always verify with a meter that the capacitor has discharged before touching, whatever this figure says.',
+      message:
+        'A bleeder can fail open. Always verify with a meter that the capacitor has discharged before touching, whatever this figure says.',
     },
-    typeof t === 'number' && t > input.targetTime && {
-      level: 'warning',
-      code: 'slow-discharge',
-      message: `This bleeder takes ${formatQuantity(t, 's')} to fall below ${formatQuantity(input.threshold, 'V')}, longer than the ${formatQuantity(input.targetTime, 's')} target.`,
-      source: DISCHARGE_TIME_SOURCE,
-    },
-    q > CHARGE_LIMIT_C && input.chargedVoltage > input.threshold && {
-      level: 'warning',
-      code: 'stored-charge-limit',
-      message: `Stored charge ${formatQuantity(q, 'C')} exceeds the ${formatQuantity(CHARGE_LIMIT_C, 'C')} limit for accessible parts.`,
-      source: CHARGE_LIMIT_SOURCE,
-    },
+    typeof t === 'number' &&
+      t > input.targetTime && {
+        level: 'warning',
+        code: 'slow-discharge',
+        message: `This bleeder takes ${formatQuantity(t, 's')} to fall below ${formatQuantity(input.threshold, 'V')}, longer than the ${formatQuantity(input.targetTime, 's')} target.`,
+        source: DISCHARGE_TIME_SOURCE,
+      },
+    q > CHARGE_LIMIT_C &&
+      input.chargedVoltage > input.threshold && {
+        level: 'warning',
+        code: 'stored-charge-limit',
+        message: `Stored charge ${formatQuantity(q, 'C')} exceeds the ${formatQuantity(CHARGE_LIMIT_C, 'C')} limit for accessible parts.`,
+        source: CHARGE_LIMIT_SOURCE,
+      },
     LOCAL_CODES,
   ]);
 }
@@ -126,7 +169,8 @@ function cautions(input: BleederInput, result: ReckonerResult): Caution[] {
 export const bleeder: ReckonerDefinition<BleederInput> = {
   kind: 'bleeder',
   label: 'Bleeder and discharge',
-  summary: 'Time constant, time to fall below the hazard threshold, stored energy and a bleeder for a target time.',
+  summary:
+    'Time constant, time to fall below the hazard threshold, stored energy and a bleeder for a target time.',
   inputs,
   fields,
   compute,

@@ -17,13 +17,33 @@ import { n, q, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  startVoltage: quantity('V dc', { label: 'Start node voltage', min: 1e-3, max: 3000, plausible: { min: 5, max: 1500 } }),
+  startVoltage: quantity('V dc', {
+    label: 'Start node voltage',
+    min: 1e-3,
+    max: 3000,
+    plausible: { min: 5, max: 1500 },
+  }),
   stages: rows(
     {
       label: text({ label: 'Node' }),
-      targetVoltage: quantity('V dc', { label: 'Target voltage', min: 1e-3, max: 3000, plausible: { min: 1, max: 1500 } }),
-      current: quantity('A dc', { label: 'Current drawn at this node', min: 0, max: 10, plausible: { min: 0, max: 0.5 } }),
-      capacitance: quantity('F', { label: 'Filter capacitor', min: 1e-12, max: 0.1, plausible: { min: 1e-7, max: 5e-3 } }),
+      targetVoltage: quantity('V dc', {
+        label: 'Target voltage',
+        min: 1e-3,
+        max: 3000,
+        plausible: { min: 1, max: 1500 },
+      }),
+      current: quantity('A dc', {
+        label: 'Current drawn at this node',
+        min: 0,
+        max: 10,
+        plausible: { min: 0, max: 0.5 },
+      }),
+      capacitance: quantity('F', {
+        label: 'Filter capacitor',
+        min: 1e-12,
+        max: 0.1,
+        plausible: { min: 1e-7, max: 5e-3 },
+      }),
       capacitorRating: optionalQuantity('V dc', {
         label: 'Capacitor voltage rating',
         min: 1,
@@ -58,7 +78,12 @@ const shape = {
     plausible: { min: 45, max: 130 },
     help: 'Twice the mains frequency for full-wave rectification: 100 Hz on 50 Hz mains, 120 Hz on 60 Hz.',
   }),
-  startRipple: optionalQuantity('V peak-to-peak', { label: 'Ripple at the start node (peak to peak)', min: 0, max: 1000, plausible: { min: 0, max: 100 } }),
+  startRipple: optionalQuantity('V peak-to-peak', {
+    label: 'Ripple at the start node (peak to peak)',
+    min: 0,
+    max: 1000,
+    plausible: { min: 0, max: 100 },
+  }),
 };
 
 const { schema: baseSchema, fields } = defineInputs(shape);
@@ -81,7 +106,11 @@ const inputs = baseSchema.superRefine((v, ctx) => {
   for (let i = v.stages.length - 1; i >= 0; i--) {
     downstream += v.stages[i]!.current;
     if (downstream <= 0) {
-      ctx.addIssue({ code: 'custom', path: ['stages', i, 'current'], message: 'no current flows through this stage’s resistor; a drop needs current' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['stages', i, 'current'],
+        message: 'no current flows through this stage’s resistor; a drop needs current',
+      });
     }
   }
 });
@@ -112,26 +141,50 @@ function compute(input: DropperLadderInput): ReckonerResult {
     const key = `stage${i + 1}`;
     const name = st.label ?? `Stage ${i + 1}`;
     const I = through[i]!;
-    if (!(I > 0)) throw new ReckonerInputError(`stages.${i}.current`, 'no current flows through this stage’s resistor');
+    if (!(I > 0))
+      throw new ReckonerInputError(`stages.${i}.current`, 'no current flows through this stage’s resistor');
     const exact = (prevTarget - st.targetVoltage) / I;
     const e12 = nearestESeries(exact, 'E12');
     const e24 = nearestESeries(exact, 'E24');
     const fitted = st.fittedResistance;
     const used = fitted ?? (input.series === 'E12' ? e12 : e24);
-    const usedText = fitted !== undefined ? `the fitted ${formatQuantity(used, 'Ω')}` : `the nearest ${input.series} value, ${formatQuantity(used, 'Ω')}`;
+    const usedText =
+      fitted !== undefined
+        ? `the fitted ${formatQuantity(used, 'Ω')}`
+        : `the nearest ${input.series} value, ${formatQuantity(used, 'Ω')}`;
     const node = prevActual - used * I;
     if (!(node > 0)) {
       throw new ReckonerInputError(
         fitted !== undefined ? `stages.${i}.fittedResistance` : `stages.${i}.targetVoltage`,
         `with ${usedText} carrying ${formatQuantity(I, 'A')}, this node falls to ${formatQuantity(node, 'V')} from ${formatQuantity(prevActual, 'V')}: ` +
-          (fitted !== undefined ? 'check the fitted value and the currents' : 'the targets and currents do not fit the standard values; revise the chain'),
+          (fitted !== undefined
+            ? 'check the fitted value and the currents'
+            : 'the targets and currents do not fit the standard values; revise the chain'),
       );
     }
     const power = I * I * used;
     const att = rcAttenuation(used, st.capacitance, input.rippleFrequency);
-    outputs[`${key}.resistanceExact`] = q(exact, 'Ω', `${name}: exact resistance`, 'R = ΔV ÷ I from the previous target (the start voltage for the first stage) to this target, with I the current of this node and all after it. For comparison when a resistor is fitted.', SRC.derived);
-    outputs[`${key}.resistanceE12`] = q(e12, 'Ω', `${name}: nearest E12`, 'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.', 'IEC 60063 E12');
-    outputs[`${key}.resistanceE24`] = q(e24, 'Ω', `${name}: nearest E24`, 'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.', 'IEC 60063 E24');
+    outputs[`${key}.resistanceExact`] = q(
+      exact,
+      'Ω',
+      `${name}: exact resistance`,
+      'R = ΔV ÷ I from the previous target (the start voltage for the first stage) to this target, with I the current of this node and all after it. For comparison when a resistor is fitted.',
+      SRC.derived,
+    );
+    outputs[`${key}.resistanceE12`] = q(
+      e12,
+      'Ω',
+      `${name}: nearest E12`,
+      'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
+      'IEC 60063 E12',
+    );
+    outputs[`${key}.resistanceE24`] = q(
+      e24,
+      'Ω',
+      `${name}: nearest E24`,
+      'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
+      'IEC 60063 E24',
+    );
     outputs[`${key}.resistance`] = q(
       used,
       'Ω',
@@ -141,22 +194,65 @@ function compute(input: DropperLadderInput): ReckonerResult {
         : `No fitted value given: the nearest ${input.series} value to the exact resistance; node voltage, dissipation and attenuation use it.`,
       fitted !== undefined ? undefined : `IEC 60063 ${input.series}`,
     );
-    outputs[`${key}.current`] = q(I, 'A dc', `${name}: resistor current`, 'This node’s current plus every later node’s.', SRC.derived);
+    outputs[`${key}.current`] = q(
+      I,
+      'A dc',
+      `${name}: resistor current`,
+      'This node’s current plus every later node’s.',
+      SRC.derived,
+    );
     outputs[`${key}.nodeVoltage`] = q(
       node,
       'V dc',
-      fitted !== undefined ? `${name}: node voltage with the fitted resistor` : `${name}: node voltage with ${input.series} values`,
+      fitted !== undefined
+        ? `${name}: node voltage with the fitted resistor`
+        : `${name}: node voltage with ${input.series} values`,
       `Previous node’s computed voltage (${formatQuantity(prevActual, 'V')}) less ${usedText} × ${formatQuantity(I, 'A')}.`,
       SRC.derived,
     );
-    outputs[`${key}.dissipationExact`] = q(I * (prevTarget - st.targetVoltage), 'W', `${name}: dissipation at the exact value`, 'ΔV × I, with ΔV from the previous target to this target.', SRC.derived);
-    outputs[`${key}.dissipation`] = q(power, 'W', `${name}: dissipation`, `I² × R with ${usedText}.`, SRC.derived);
-    outputs[`${key}.powerRating`] = q(suggestedPowerRating(power), 'W', `${name}: suggested rating`, 'Next common rating at or above twice the dissipation; check the element voltage limit on HT parts.', SRC.commonPractice);
-    outputs[`${key}.attenuation`] = n(att, `${name}: ripple attenuation`, `X_C ÷ √(R² + X_C²) of this RC stage alone with ${usedText}, ignoring loading by later stages.`, SRC.derived, 4);
-    outputs[`${key}.attenuationDb`] = n(20 * Math.log10(att), `${name}: ripple attenuation (dB)`, '20 log₁₀ of the attenuation.', SRC.derived);
+    outputs[`${key}.dissipationExact`] = q(
+      I * (prevTarget - st.targetVoltage),
+      'W',
+      `${name}: dissipation at the exact value`,
+      'ΔV × I, with ΔV from the previous target to this target.',
+      SRC.derived,
+    );
+    outputs[`${key}.dissipation`] = q(
+      power,
+      'W',
+      `${name}: dissipation`,
+      `I² × R with ${usedText}.`,
+      SRC.derived,
+    );
+    outputs[`${key}.powerRating`] = q(
+      suggestedPowerRating(power),
+      'W',
+      `${name}: suggested rating`,
+      'Next common rating at or above twice the dissipation; check the element voltage limit on HT parts.',
+      SRC.commonPractice,
+    );
+    outputs[`${key}.attenuation`] = n(
+      att,
+      `${name}: ripple attenuation`,
+      `X_C ÷ √(R² + X_C²) of this RC stage alone with ${usedText}, ignoring loading by later stages.`,
+      SRC.derived,
+      4,
+    );
+    outputs[`${key}.attenuationDb`] = n(
+      20 * Math.log10(att),
+      `${name}: ripple attenuation (dB)`,
+      '20 log₁₀ of the attenuation.',
+      SRC.derived,
+    );
     if (ripple !== undefined) {
       ripple = ripple * att;
-      outputs[`${key}.ripple`] = q(ripple, 'V peak-to-peak', `${name}: ripple (peak to peak)`, 'Previous node’s ripple × this stage’s attenuation.', SRC.derived);
+      outputs[`${key}.ripple`] = q(
+        ripple,
+        'V peak-to-peak',
+        `${name}: ripple (peak to peak)`,
+        'Previous node’s ripple × this stage’s attenuation.',
+        SRC.derived,
+      );
     }
     prevTarget = st.targetVoltage;
     prevActual = node;
@@ -167,7 +263,11 @@ function compute(input: DropperLadderInput): ReckonerResult {
     prevActual,
     'V dc',
     'Last node voltage',
-    allFitted ? 'With the fitted resistors.' : anyFitted ? `With the fitted resistors where given, ${input.series} values elsewhere.` : `With ${input.series} values.`,
+    allFitted
+      ? 'With the fitted resistors.'
+      : anyFitted
+        ? `With the fitted resistors where given, ${input.series} values elsewhere.`
+        : `With ${input.series} values.`,
     SRC.derived,
   );
   return { outputs };
@@ -180,7 +280,8 @@ function cautions(input: DropperLadderInput): Caution[] {
     {
       level: 'note',
       code: 'resistor-voltage',
-      message: 'Check each dropping resistor’s element voltage limit as well as its power; HT drops can exceed the limit of small parts.',
+      message:
+        'Check each dropping resistor’s element voltage limit as well as its power; HT drops can exceed the limit of small parts.',
     },
     LOCAL_CODES,
   ]);

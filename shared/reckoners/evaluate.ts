@@ -17,7 +17,8 @@ export interface ProcedureBlock {
 }
 
 /** Where an input's value came from. `followed`: the field was left empty and follows the parameter. */
-export type InputSource = { kind: 'typed' } | { kind: 'param'; param: ParamKey; followed: boolean } | { kind: 'ref'; ref: string };
+export type InputSource =
+  { kind: 'typed' } | { kind: 'param'; param: ParamKey; followed: boolean } | { kind: 'ref'; ref: string };
 
 export type BlockResult =
   | {
@@ -56,7 +57,6 @@ interface Reference {
   block?: string;
   output?: string;
 }
-
 
 function collectRefs(value: unknown, path: string[], out: Reference[]): void {
   if (isRef(value)) {
@@ -114,7 +114,12 @@ function resolve(value: unknown, path: string[], ctx: ResolveContext): unknown {
       });
       return undefined;
     }
-    const wrong = typeof out.value === 'number' ? quantityMismatch(spec, out.unit, out.measure) : spec?.kind === 'select' || spec?.kind === 'text' ? null : 'is not a number';
+    const wrong =
+      typeof out.value === 'number'
+        ? quantityMismatch(spec, out.unit, out.measure)
+        : spec?.kind === 'select' || spec?.kind === 'text'
+          ? null
+          : 'is not a number';
     if (wrong) {
       ctx.errors.push({ field, reason: `refers to "${value.ref}" (${out.label}), which ${wrong}` });
       return undefined;
@@ -133,7 +138,10 @@ function resolve(value: unknown, path: string[], ctx: ResolveContext): unknown {
     }
     const wrong = quantityMismatch(spec, p.unit, p.measure);
     if (wrong) {
-      ctx.errors.push({ field, reason: `refers to the procedure’s ${p.label.toLowerCase()}, which ${wrong}` });
+      ctx.errors.push({
+        field,
+        reason: `refers to the procedure’s ${p.label.toLowerCase()}, which ${wrong}`,
+      });
       return undefined;
     }
     ctx.sources[field] = { kind: 'param', param: p.key, followed: ctx.followed.has(field) };
@@ -145,11 +153,15 @@ function resolve(value: unknown, path: string[], ctx: ResolveContext): unknown {
     for (const [k, v] of Object.entries(value)) o[k] = resolve(v, [...path, k], ctx);
     return o;
   }
-  if (path.length && value !== undefined && value !== null && value !== '') ctx.sources[field] = { kind: 'typed' };
+  if (path.length && value !== undefined && value !== null && value !== '')
+    ctx.sources[field] = { kind: 'typed' };
   return value;
 }
 
-export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<string, number> = {}): ProcedureResult {
+export function evaluateProcedure(
+  blocks: ProcedureBlock[],
+  params: Record<string, number> = {},
+): ProcedureResult {
   const results = new Map<number, BlockResult>();
   const errors: ProcedureError[] = [];
   const fail = (i: number, errs: FieldError[]) => {
@@ -162,7 +174,12 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
   const duplicates = new Set<string>();
   blocks.forEach((b, i) => {
     if (typeof b?.name !== 'string' || !BLOCK_NAME.test(b.name)) {
-      fail(i, [{ field: 'name', reason: 'a block name must start with a letter and use only letters, digits, "-" and "_"' }]);
+      fail(i, [
+        {
+          field: 'name',
+          reason: 'a block name must start with a letter and use only letters, digits, "-" and "_"',
+        },
+      ]);
       return;
     }
     if (byName.has(b.name)) duplicates.add(b.name);
@@ -190,7 +207,10 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     for (const r of refs) {
       if (r.kind !== 'ref') continue;
       if (!r.output) {
-        errs.push({ field: r.field, reason: `reference "${r.target}" must name a block and an output, as "block.output"` });
+        errs.push({
+          field: r.field,
+          reason: `reference "${r.target}" must name a block and an output, as "block.output"`,
+        });
         continue;
       }
       const target = byName.get(r.block!);
@@ -235,11 +255,19 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
   if (stuck.length) {
     for (const cycle of findCycles(stuck, deps)) {
       const names = cycle.map((i) => blocks[i]!.name);
-      errors.push({ message: `blocks refer to each other in a cycle: ${[...names, names[0]].join(' → ')}`, blocks: names });
+      errors.push({
+        message: `blocks refer to each other in a cycle: ${[...names, names[0]].join(' → ')}`,
+        blocks: names,
+      });
     }
     for (const i of stuck) {
       const waitsOn = [...deps.get(i)!].filter((d) => stuck.includes(d)).map((d) => blocks[d]!.name);
-      fail(i, [{ field: 'inputs', reason: `cannot be evaluated: it depends on a reference cycle (through ${waitsOn.map((n) => `"${n}"`).join(', ')})` }]);
+      fail(i, [
+        {
+          field: 'inputs',
+          reason: `cannot be evaluated: it depends on a reference cycle (through ${waitsOn.map((n) => `"${n}"`).join(', ')})`,
+        },
+      ]);
     }
   }
 
@@ -253,7 +281,12 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     const b = blocks[i]!;
     const failedDeps = [...deps.get(i)!].filter((d) => !results.get(d)?.ok).map((d) => blocks[d]!.name);
     if (failedDeps.length) {
-      fail(i, [{ field: 'inputs', reason: `depends on ${failedDeps.map((n) => `"${n}"`).join(', ')}, which could not be evaluated` }]);
+      fail(i, [
+        {
+          field: 'inputs',
+          reason: `depends on ${failedDeps.map((n) => `"${n}"`).join(', ')}, which could not be evaluated`,
+        },
+      ]);
       continue;
     }
     const fields = getReckoner(b.kind)!.fields;
@@ -268,12 +301,21 @@ export function evaluateProcedure(blocks: ProcedureBlock[], params: Record<strin
     try {
       run = runReckoner(b.kind, resolved);
     } catch (e) {
-      run = { ok: false as const, errors: [{ field: '', reason: `internal error: ${e instanceof Error ? e.message : String(e)}` }] };
+      run = {
+        ok: false as const,
+        errors: [{ field: '', reason: `internal error: ${e instanceof Error ? e.message : String(e)}` }],
+      };
     }
     results.set(
       i,
       run.ok
-        ? { name: b.name, kind: b.kind, ...run, cautions: [...typedFollowers(fields, ctx.sources), ...run.cautions], sources: ctx.sources }
+        ? {
+            name: b.name,
+            kind: b.kind,
+            ...run,
+            cautions: [...typedFollowers(fields, ctx.sources), ...run.cautions],
+            sources: ctx.sources,
+          }
         : { name: b.name, kind: b.kind, ok: false, errors: run.errors },
     );
   }

@@ -6,18 +6,31 @@ export function specAt(fields: readonly FieldSpec[], path: readonly string[]): F
   const [head, ...rest] = path;
   const spec = fields.find((f) => f.key === head);
   if (!spec || rest.length === 0) return spec;
-  if (spec.kind === 'rows' && /^\d+$/.test(rest[0]!)) return rest.length === 1 ? spec : specAt(spec.columns ?? [], rest.slice(1));
+  if (spec.kind === 'rows' && /^\d+$/.test(rest[0]!))
+    return rest.length === 1 ? spec : specAt(spec.columns ?? [], rest.slice(1));
   return undefined;
 }
 
 /** A reference to another block's output: { ref: "block.output" }. */
 export function isRef(v: unknown): v is { ref: string } {
-  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { ref?: unknown }).ref === 'string' && Object.keys(v).length === 1;
+  return (
+    typeof v === 'object' &&
+    v !== null &&
+    !Array.isArray(v) &&
+    typeof (v as { ref?: unknown }).ref === 'string' &&
+    Object.keys(v).length === 1
+  );
 }
 
 /** A procedure parameter: { param: "mainsVoltage" }. */
 export function isParam(v: unknown): v is { param: string } {
-  return typeof v === 'object' && v !== null && !Array.isArray(v) && typeof (v as { param?: unknown }).param === 'string' && Object.keys(v).length === 1;
+  return (
+    typeof v === 'object' &&
+    v !== null &&
+    !Array.isArray(v) &&
+    typeof (v as { param?: unknown }).param === 'string' &&
+    Object.keys(v).length === 1
+  );
 }
 
 /** Nothing typed: absent, null or blank. */
@@ -65,7 +78,10 @@ export function eachField(
     const path = prefix ? `${prefix}.${f.key}` : f.key;
     const value = input?.[f.key];
     if (f.kind === 'rows') {
-      if (Array.isArray(value)) value.forEach((row, i) => eachField(f.columns ?? [], row as Record<string, unknown>, fn, `${path}.${i}`));
+      if (Array.isArray(value))
+        value.forEach((row, i) =>
+          eachField(f.columns ?? [], row as Record<string, unknown>, fn, `${path}.${i}`),
+        );
     } else fn(f, path, value);
   }
 }

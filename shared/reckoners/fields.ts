@@ -34,7 +34,6 @@ interface NumericOpts {
   rating?: FieldSpec['rating'];
 }
 
-
 function describe(value: number, unit: string): string {
   return unit ? formatQuantity(value, unit, 4) : String(value);
 }
@@ -45,48 +44,60 @@ function numericSchema(
   dflt: number | undefined,
   optional: boolean,
 ) {
-  return z.unknown().optional().transform((raw, ctx): number | undefined => {
-    const fail = (message: string) => {
-      ctx.addIssue({ code: 'custom', message, input: raw });
-      return z.NEVER;
-    };
-    if (isEmptyInput(raw)) {
-      if (dflt !== undefined) return dflt;
-      if (optional) return undefined;
-      return fail('is required');
-    }
-    let value: number;
-    if (typeof raw === 'number') {
-      if (!Number.isFinite(raw)) return fail('must be a finite number');
-      value = raw;
-    } else if (typeof raw === 'string') {
-      try {
-        const parsed = parseQuantity(raw, unit);
-        const wrong = measureMismatch(raw, parsed, opts.measure);
-        if (wrong) return fail(wrong);
-        value = parsed.value;
-      } catch (e) {
-        if (e instanceof QuantityParseError) return fail(e.reason === 'not a number' ? `"${raw}" is not a number` : e.message);
-        throw e;
+  return z
+    .unknown()
+    .optional()
+    .transform((raw, ctx): number | undefined => {
+      const fail = (message: string) => {
+        ctx.addIssue({ code: 'custom', message, input: raw });
+        return z.NEVER;
+      };
+      if (isEmptyInput(raw)) {
+        if (dflt !== undefined) return dflt;
+        if (optional) return undefined;
+        return fail('is required');
       }
-    } else {
-      return fail(unit ? `must be a number or a quantity such as "${describe(1, unit)}"` : 'must be a number');
-    }
-    if (opts.integer && !Number.isInteger(value)) return fail('must be a whole number');
-    if (opts.min !== undefined) {
-      if (opts.minExclusive && !(value > opts.min)) return fail(`must be greater than ${describe(opts.min, unit)}`);
-      if (!opts.minExclusive && value < opts.min) return fail(`must be at least ${describe(opts.min, unit)}`);
-    }
-    if (opts.max !== undefined && value > opts.max) return fail(`must be at most ${describe(opts.max, unit)}`);
-    return value;
-  });
+      let value: number;
+      if (typeof raw === 'number') {
+        if (!Number.isFinite(raw)) return fail('must be a finite number');
+        value = raw;
+      } else if (typeof raw === 'string') {
+        try {
+          const parsed = parseQuantity(raw, unit);
+          const wrong = measureMismatch(raw, parsed, opts.measure);
+          if (wrong) return fail(wrong);
+          value = parsed.value;
+        } catch (e) {
+          if (e instanceof QuantityParseError)
+            return fail(e.reason === 'not a number' ? `"${raw}" is not a number` : e.message);
+          throw e;
+        }
+      } else {
+        return fail(
+          unit ? `must be a number or a quantity such as "${describe(1, unit)}"` : 'must be a number',
+        );
+      }
+      if (opts.integer && !Number.isInteger(value)) return fail('must be a whole number');
+      if (opts.min !== undefined) {
+        if (opts.minExclusive && !(value > opts.min))
+          return fail(`must be greater than ${describe(opts.min, unit)}`);
+        if (!opts.minExclusive && value < opts.min)
+          return fail(`must be at least ${describe(opts.min, unit)}`);
+      }
+      if (opts.max !== undefined && value > opts.max)
+        return fail(`must be at most ${describe(opts.max, unit)}`);
+      return value;
+    });
 }
 
 /**
  * A quantity, required unless a default is given. Volts and amps name their measure ('V rms',
  * 'A dc'), so a value typed in another measure is refused with the conversion where one exists.
  */
-export function quantity(unitAndMeasure: OutputUnit, opts: NumericOpts & { default?: number }): FieldDef<number> {
+export function quantity(
+  unitAndMeasure: OutputUnit,
+  opts: NumericOpts & { default?: number },
+): FieldDef<number> {
   const { unit, measure } = splitUnit(unitAndMeasure);
   const m = measure === 'scalar' ? undefined : measure;
   return {
@@ -95,7 +106,10 @@ export function quantity(unitAndMeasure: OutputUnit, opts: NumericOpts & { defau
   };
 }
 
-export function optionalQuantity(unitAndMeasure: OutputUnit, opts: NumericOpts): FieldDef<number | undefined> {
+export function optionalQuantity(
+  unitAndMeasure: OutputUnit,
+  opts: NumericOpts,
+): FieldDef<number | undefined> {
   const { unit, measure } = splitUnit(unitAndMeasure);
   const m = measure === 'scalar' ? undefined : measure;
   return {
@@ -133,31 +147,37 @@ export function select<const T extends string>(opts: {
 }): FieldDef<T> {
   const values = opts.options.map((o) => o.value);
   const list = values.join(', ');
-  const schema = z.unknown().optional().transform((raw, ctx): T => {
-    if (isEmptyInput(raw)) {
-      if (opts.default !== undefined) return opts.default;
-      ctx.addIssue({ code: 'custom', message: `is required (one of: ${list})`, input: raw });
-      return z.NEVER;
-    }
-    if (typeof raw !== 'string' || !(values as string[]).includes(raw)) {
-      ctx.addIssue({ code: 'custom', message: `must be one of: ${list}`, input: raw });
-      return z.NEVER;
-    }
-    return raw as T;
-  });
+  const schema = z
+    .unknown()
+    .optional()
+    .transform((raw, ctx): T => {
+      if (isEmptyInput(raw)) {
+        if (opts.default !== undefined) return opts.default;
+        ctx.addIssue({ code: 'custom', message: `is required (one of: ${list})`, input: raw });
+        return z.NEVER;
+      }
+      if (typeof raw !== 'string' || !(values as string[]).includes(raw)) {
+        ctx.addIssue({ code: 'custom', message: `must be one of: ${list}`, input: raw });
+        return z.NEVER;
+      }
+      return raw as T;
+    });
   return { spec: { kind: 'select', ...opts }, schema };
 }
 
 /** Optional free text (a row label). */
 export function text(opts: { label: string; help?: string }): FieldDef<string | undefined> {
-  const schema = z.unknown().optional().transform((raw, ctx): string | undefined => {
-    if (raw === undefined || raw === null) return undefined;
-    if (typeof raw !== 'string') {
-      ctx.addIssue({ code: 'custom', message: 'must be text', input: raw });
-      return z.NEVER;
-    }
-    return raw.trim().slice(0, 80) || undefined;
-  });
+  const schema = z
+    .unknown()
+    .optional()
+    .transform((raw, ctx): string | undefined => {
+      if (raw === undefined || raw === null) return undefined;
+      if (typeof raw !== 'string') {
+        ctx.addIssue({ code: 'custom', message: 'must be text', input: raw });
+        return z.NEVER;
+      }
+      return raw.trim().slice(0, 80) || undefined;
+    });
   return { spec: { kind: 'text', ...opts, optional: true }, schema };
 }
 
@@ -190,12 +210,11 @@ function objectSchema<S extends Shape>(shape: S) {
   const zshape: Record<string, z.ZodType> = {};
   for (const [k, def] of Object.entries(shape)) zshape[k] = def.schema;
   const known = Object.keys(shape);
-  return namedInputs(zshape)
-    .transform((value) => {
-      const out: Record<string, unknown> = {};
-      for (const key of known) out[key] = (value as Record<string, unknown>)[key];
-      return out;
-    }) as unknown as z.ZodType<InputOf<S>>;
+  return namedInputs(zshape).transform((value) => {
+    const out: Record<string, unknown> = {};
+    for (const key of known) out[key] = (value as Record<string, unknown>)[key];
+    return out;
+  }) as unknown as z.ZodType<InputOf<S>>;
 }
 
 function specs<S extends Shape>(shape: S): FieldSpec[] {
@@ -223,6 +242,8 @@ export function rows<S extends Shape>(
 }
 
 /** The input schema and form fields of a reckoner, from one shape. */
-export function defineInputs<S extends Shape>(shape: S): { schema: z.ZodType<InputOf<S>>; fields: FieldSpec[] } {
+export function defineInputs<S extends Shape>(
+  shape: S,
+): { schema: z.ZodType<InputOf<S>>; fields: FieldSpec[] } {
   return { schema: objectSchema(shape), fields: specs(shape) };
 }

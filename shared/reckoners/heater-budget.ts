@@ -6,8 +6,19 @@ import { q, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
-  windingVoltage: quantity('V rms', { label: 'Heater winding voltage', default: 6.3, min: 1e-3, max: 500, plausible: { min: 1, max: 150 } }),
-  windingCurrent: quantity('A rms', { label: 'Heater winding rating', min: 1e-6, max: 100, plausible: { min: 0.05, max: 20 } }),
+  windingVoltage: quantity('V rms', {
+    label: 'Heater winding voltage',
+    default: 6.3,
+    min: 1e-3,
+    max: 500,
+    plausible: { min: 1, max: 150 },
+  }),
+  windingCurrent: quantity('A rms', {
+    label: 'Heater winding rating',
+    min: 1e-6,
+    max: 100,
+    plausible: { min: 0.05, max: 20 },
+  }),
   arrangement: select({
     label: 'Heaters wired',
     options: [
@@ -19,8 +30,18 @@ const shape = {
   heaters: rows(
     {
       label: text({ label: 'Valve' }),
-      volts: quantity('V rms', { label: 'Heater voltage', min: 1e-3, max: 200, plausible: { min: 1, max: 120 } }),
-      amps: quantity('A rms', { label: 'Heater current', min: 1e-6, max: 20, plausible: { min: 0.01, max: 5 } }),
+      volts: quantity('V rms', {
+        label: 'Heater voltage',
+        min: 1e-3,
+        max: 200,
+        plausible: { min: 1, max: 120 },
+      }),
+      amps: quantity('A rms', {
+        label: 'Heater current',
+        min: 1e-6,
+        max: 20,
+        plausible: { min: 0.01, max: 5 },
+      }),
       count: integer({ label: 'How many', default: 1, min: 1, max: 50 }),
     },
     { label: 'Heaters', minRows: 1, maxRows: 30 },
@@ -46,19 +67,45 @@ function compute(input: HeaterBudgetInput): ReckonerResult {
   const heaterPower = input.heaters.reduce((sum, h) => sum + h.volts * h.amps * h.count, 0);
   const stringVolts = input.heaters.reduce((sum, h) => sum + h.volts * h.count, 0);
   // A series string runs at one current; if the rows disagree, budget for the largest.
-  const current = series ? Math.max(...input.heaters.map((h) => h.amps)) : input.heaters.reduce((sum, h) => sum + h.amps * h.count, 0);
+  const current = series
+    ? Math.max(...input.heaters.map((h) => h.amps))
+    : input.heaters.reduce((sum, h) => sum + h.amps * h.count, 0);
   const percent = (current / input.windingCurrent) * 100;
   const outputs: ReckonerResult['outputs'] = {
-    totalCurrent: q(current, 'A rms', 'Heater current', series ? 'One series string: the string current.' : 'Sum of heater currents × counts.', SRC.derived),
-    windingVA: q(current * input.windingVoltage, 'VA', 'Winding load', 'Winding voltage × heater current.', SRC.derived),
+    totalCurrent: q(
+      current,
+      'A rms',
+      'Heater current',
+      series ? 'One series string: the string current.' : 'Sum of heater currents × counts.',
+      SRC.derived,
+    ),
+    windingVA: q(
+      current * input.windingVoltage,
+      'VA',
+      'Winding load',
+      'Winding voltage × heater current.',
+      SRC.derived,
+    ),
     heaterPower: q(heaterPower, 'W', 'Heater power', 'Σ heater volts × amps × count.', SRC.derived),
-    percentOfRating: q(percent, '%', 'Share of the winding rating', 'Heater current ÷ winding rating × 100.', SRC.derived),
+    percentOfRating: q(
+      percent,
+      '%',
+      'Share of the winding rating',
+      'Heater current ÷ winding rating × 100.',
+      SRC.derived,
+    ),
   };
   if (series) {
     outputs.stringVoltage = q(stringVolts, 'V rms', 'String voltage', 'Σ heater volts × count.', SRC.derived);
     if (input.windingVoltage > stringVolts) {
       const r = (input.windingVoltage - stringVolts) / current;
-      outputs.dropperResistance = q(r, 'Ω', 'Series dropper', '(supply − string voltage) ÷ string current.', SRC.derived);
+      outputs.dropperResistance = q(
+        r,
+        'Ω',
+        'Series dropper',
+        '(supply − string voltage) ÷ string current.',
+        SRC.derived,
+      );
       outputs.dropperDissipation = q(current * current * r, 'W', 'Dropper dissipation', 'I² R.', SRC.derived);
     }
   }
@@ -97,7 +144,8 @@ function cautions(input: HeaterBudgetInput, result: ReckonerResult): Caution[] {
       list.push({
         level: 'warning',
         code: 'series-mismatch',
-        message: 'Heaters in one series string must share the same current rating; these differ, so some will be over- or under-run.',
+        message:
+          'Heaters in one series string must share the same current rating; these differ, so some will be over- or under-run.',
       });
     }
     const stringVolts = Number(result.outputs.stringVoltage!.value);

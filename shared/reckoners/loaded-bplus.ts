@@ -49,7 +49,12 @@ const shape = {
     plausible: { min: 45, max: 65 },
     follows: 'mainsFrequency',
   }),
-  loadCurrent: quantity('A dc', { label: 'Load current (DC)', min: 0, max: 10, plausible: { min: 1e-4, max: 3 } }),
+  loadCurrent: quantity('A dc', {
+    label: 'Load current (DC)',
+    min: 0,
+    max: 10,
+    plausible: { min: 1e-4, max: 3 },
+  }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
   valveDrop: quantity('V dc', {
@@ -67,9 +72,14 @@ const { schema: inputs, fields } = defineInputs(shape);
 export type LoadedBplusInput = InputOf<typeof shape>;
 
 function compute(input: LoadedBplusInput): ReckonerResult {
-  const drop = input.rectifier === 'valve' ? input.valveDrop : diodesInPath(input.rectifier) * input.diodeDrop;
+  const drop =
+    input.rectifier === 'valve' ? input.valveDrop : diodesInPath(input.rectifier) * input.diodeDrop;
   const vPeak = Math.SQRT2 * input.windingVoltage;
-  if (vPeak <= drop) throw new ReckonerInputError('windingVoltage', `peak ${formatQuantity(vPeak, 'V')} does not exceed the rectifier drop`);
+  if (vPeak <= drop)
+    throw new ReckonerInputError(
+      'windingVoltage',
+      `peak ${formatQuantity(vPeak, 'V')} does not exceed the rectifier drop`,
+    );
   let r;
   try {
     r = simulateCapacitorInput({
@@ -81,21 +91,44 @@ function compute(input: LoadedBplusInput): ReckonerResult {
       loadCurrent: input.loadCurrent,
     });
   } catch (e) {
-    if (e instanceof CapInputOverload) throw new ReckonerInputError('loadCurrent', `too high for this winding, source resistance and reservoir: ${e.message}`);
+    if (e instanceof CapInputOverload)
+      throw new ReckonerInputError(
+        'loadCurrent',
+        `too high for this winding, source resistance and reservoir: ${e.message}`,
+      );
     throw e;
   }
   // Bridge: the winding carries the rectifier current every half-cycle. Centre-tap (silicon or
   // valve): each half of the winding, and each rectifier, carries it on alternate half-cycles.
-  const windingRms = input.rectifier === 'silicon-bridge' ? r.rectifierRmsHalfCycle : r.rectifierRmsHalfCycle / Math.SQRT2;
+  const windingRms =
+    input.rectifier === 'silicon-bridge' ? r.rectifierRmsHalfCycle : r.rectifierRmsHalfCycle / Math.SQRT2;
   const diodeRms = r.rectifierRmsHalfCycle / Math.SQRT2;
   const model = 'Time-step solution of the full-wave rectifier charging the reservoir, at steady state.';
   const outputs: ReckonerResult['outputs'] = {
-    averageDc: q(r.averageDc, 'V dc', 'Loaded B+ (average DC)', `${model} Constant-current load.`, SRC.derived),
-    ripplePeakToPeak: q(r.ripplePeakToPeak, 'V peak-to-peak', 'Ripple, peak to peak', `${model} At ${formatQuantity(2 * input.mainsFrequency, 'Hz')}.`, SRC.derived),
+    averageDc: q(
+      r.averageDc,
+      'V dc',
+      'Loaded B+ (average DC)',
+      `${model} Constant-current load.`,
+      SRC.derived,
+    ),
+    ripplePeakToPeak: q(
+      r.ripplePeakToPeak,
+      'V peak-to-peak',
+      'Ripple, peak to peak',
+      `${model} At ${formatQuantity(2 * input.mainsFrequency, 'Hz')}.`,
+      SRC.derived,
+    ),
     rippleRms: q(r.rippleRms, 'V rms', 'Ripple, rms', model, SRC.derived),
     maximumDc: q(r.maximum, 'V peak', 'Reservoir voltage, crest', model, SRC.derived),
     minimumDc: q(r.minimum, 'V dc', 'Reservoir voltage, trough', model, SRC.derived),
-    peakRectifierCurrent: q(r.peakRectifierCurrent, 'A peak', 'Peak repetitive rectifier current', model, SRC.derived),
+    peakRectifierCurrent: q(
+      r.peakRectifierCurrent,
+      'A peak',
+      'Peak repetitive rectifier current',
+      model,
+      SRC.derived,
+    ),
     rectifierRmsCurrent: q(diodeRms, 'A rms', 'Rectifier rms current (each)', model, SRC.derived),
     windingRmsCurrent: q(
       windingRms,
@@ -104,10 +137,22 @@ function compute(input: LoadedBplusInput): ReckonerResult {
       `${model} Use this as the winding’s current in the mains-fuse reckoner${input.rectifier === 'silicon-bridge' ? '' : ' (per half of the winding)'}.`,
       SRC.derived,
     ),
-    capacitorRippleCurrent: q(r.capacitorRmsCurrent, 'A rms', 'Reservoir ripple current (rms)', model, SRC.derived),
+    capacitorRippleCurrent: q(
+      r.capacitorRmsCurrent,
+      'A rms',
+      'Reservoir ripple current (rms)',
+      model,
+      SRC.derived,
+    ),
     conduction: q(r.conductionFraction * 100, '%', 'Conduction per half-cycle', model, SRC.derived),
     peakVoltage: q(vPeak, 'V peak', 'Winding peak', '√2 × rms winding voltage.', SRC.derived),
-    noLoadDc: q(vPeak - drop, 'V dc', 'No-load DC', 'Peak less the rectifier drop: the reservoir reaches this before the valves draw current.', SRC.commonPractice),
+    noLoadDc: q(
+      vPeak - drop,
+      'V dc',
+      'No-load DC',
+      'Peak less the rectifier drop: the reservoir reaches this before the valves draw current.',
+      SRC.commonPractice,
+    ),
     regulation: n(
       ((vPeak - drop - r.averageDc) / r.averageDc) * 100,
       'Regulation, no-load to this load (%)',
@@ -138,7 +183,8 @@ function cautions(input: LoadedBplusInput, result: ReckonerResult): Caution[] {
     input.rectifier === 'valve' && {
       level: 'warning',
       code: 'valve-rectifier-limits',
-      message: 'Valve rectifiers limit the reservoir capacitance and need a minimum source resistance per anode; check the valve’s published limits before fitting a larger reservoir.',
+      message:
+        'Valve rectifiers limit the reservoir capacitance and need a minimum source resistance per anode; check the valve’s published limits before fitting a larger reservoir.',
     },
     LOCAL_CODES,
   ]);

@@ -30,7 +30,12 @@ const shape = {
   windings: rows(
     {
       label: text({ label: 'Winding' }),
-      volts: quantity('V rms', { label: 'Winding voltage', min: 1e-3, max: 5000, plausible: { min: 1, max: 1500 } }),
+      volts: quantity('V rms', {
+        label: 'Winding voltage',
+        min: 1e-3,
+        max: 5000,
+        plausible: { min: 1, max: 1500 },
+      }),
       amps: quantity('A rms', {
         label: 'Winding current (AC rms)',
         min: 1e-6,
@@ -41,7 +46,12 @@ const shape = {
     },
     { label: 'Secondary windings', minRows: 0, maxRows: 20 },
   ),
-  va: optionalQuantity('VA', { label: 'Transformer load', min: 1e-3, max: 5000, plausible: { min: 1, max: 2000 } }),
+  va: optionalQuantity('VA', {
+    label: 'Transformer load',
+    min: 1e-3,
+    max: 5000,
+    plausible: { min: 1, max: 2000 },
+  }),
   mainsVoltage: quantity('V rms', {
     label: 'Mains voltage',
     default: 230,
@@ -92,7 +102,13 @@ const shape = {
     max: 50,
     help: 'Rule of thumb: about ten times the running current (common practice).',
   }),
-  inrushDuration: quantity('s', { label: 'Switch-on surge duration', default: 0.2, min: 1e-3, max: 5, plausible: { min: 5e-3, max: 2 } }),
+  inrushDuration: quantity('s', {
+    label: 'Switch-on surge duration',
+    default: 0.2,
+    min: 1e-3,
+    max: 5,
+    plausible: { min: 5e-3, max: 2 },
+  }),
 };
 
 const { schema: baseSchema, fields } = defineInputs(shape);
@@ -100,10 +116,18 @@ export type MainsFuseInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
   if (v.load === 'windings' && v.windings.length === 0) {
-    ctx.addIssue({ code: 'custom', path: ['windings'], message: 'needs at least one winding (or choose a VA figure)' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['windings'],
+      message: 'needs at least one winding (or choose a VA figure)',
+    });
   }
   if (v.load === 'va' && v.va === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['va'], message: 'is required when the load is given as a VA figure' });
+    ctx.addIssue({
+      code: 'custom',
+      path: ['va'],
+      message: 'is required when the load is given as a VA figure',
+    });
   }
 });
 
@@ -113,7 +137,11 @@ export function gateFor(multiple: number, gates: readonly FuseGate[] = TIME_LAG_
 }
 
 /** I²t of a current pulse: rectangle I²t, half-sine I²t/2, triangle I²t/3, exponential decay I²τ/2 [derived]. */
-export function pulseI2t(shape: 'rectangle' | 'half-sine' | 'triangle' | 'exponential', peak: number, time: number): number {
+export function pulseI2t(
+  shape: 'rectangle' | 'half-sine' | 'triangle' | 'exponential',
+  peak: number,
+  time: number,
+): number {
   const k = { rectangle: 1, 'half-sine': 0.5, triangle: 1 / 3, exponential: 0.5 }[shape];
   return peak * peak * time * k;
 }
@@ -164,8 +192,20 @@ function compute(input: MainsFuseInput): ReckonerResult {
       `VA ÷ (efficiency ${formatNumber(input.efficiency)} % × ${formatQuantity(input.mainsVoltage, 'V')}).`,
       SRC.derived,
     ),
-    requiredCurrent: q(required, 'A rms', 'Required fuse current', `Primary current × margin ${formatNumber(input.margin)}.`, SRC.commonPractice),
-    fuseRating: q(rating, 'A rms', 'Fuse rating', `Next standard rating at or above the required current, from the ${series.label}.`, series.source),
+    requiredCurrent: q(
+      required,
+      'A rms',
+      'Required fuse current',
+      `Primary current × margin ${formatNumber(input.margin)}.`,
+      SRC.commonPractice,
+    ),
+    fuseRating: q(
+      rating,
+      'A rms',
+      'Fuse rating',
+      `Next standard rating at or above the required current, from the ${series.label}.`,
+      series.source,
+    ),
     fuseType: s(
       input.fuseType,
       'Fuse type',
@@ -174,7 +214,12 @@ function compute(input: MainsFuseInput): ReckonerResult {
         : `Quick-acting (F), as chosen: it opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In, so the switch-on surge may blow it.`,
       `${SRC.commonPractice}; F-fuse gate: ${QUICK_ACTING_SOURCE}`,
     ),
-    fuseDesignation: s(`${input.fuseType} ${formatQuantity(rating, 'A', 3)}`, 'Fuse', 'Type and rating to fit.', series.source),
+    fuseDesignation: s(
+      `${input.fuseType} ${formatQuantity(rating, 'A', 3)}`,
+      'Fuse',
+      'Type and rating to fit.',
+      series.source,
+    ),
     inrushCurrent: q(
       inrush,
       'A rms',
@@ -182,8 +227,18 @@ function compute(input: MainsFuseInput): ReckonerResult {
       `Rule of thumb: about ${formatNumber(input.inrushMultiple)} × running current for roughly ${formatQuantity(input.inrushDuration, 's')}. An estimate, not a measurement.`,
       SRC.commonPractice,
     ),
-    inrushMultipleOfRating: n(multiple, 'Surge ÷ fuse rating', 'How many times the fuse rating the surge estimate reaches.', SRC.derived),
-    inrushGate: s(gateText, 'Time-lag gate', 'IEC 60127-2 pre-arcing time gates for time-lag (T) low-breaking-capacity fuses.', TIME_LAG_GATES_SOURCE),
+    inrushMultipleOfRating: n(
+      multiple,
+      'Surge ÷ fuse rating',
+      'How many times the fuse rating the surge estimate reaches.',
+      SRC.derived,
+    ),
+    inrushGate: s(
+      gateText,
+      'Time-lag gate',
+      'IEC 60127-2 pre-arcing time gates for time-lag (T) low-breaking-capacity fuses.',
+      TIME_LAG_GATES_SOURCE,
+    ),
     inrushWithinGate: b(
       holds,
       'Surge inside the guaranteed holding time',
@@ -203,7 +258,8 @@ function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
     {
       level: 'danger',
       code: 'mains',
-      message: 'The primary circuit is at mains voltage. Fit the fuse in the live conductor, ahead of the switch where practice requires, with the unit disconnected.',
+      message:
+        'The primary circuit is at mains voltage. Fit the fuse in the live conductor, ahead of the switch where practice requires, with the unit disconnected.',
     },
     !holds && {
       level: multiple > TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple ? 'warning' : 'note',
@@ -222,7 +278,8 @@ function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
     input.margin < 1.1 && {
       level: 'note',
       code: 'margin',
-      message: 'A margin under 1.1 leaves the fuse running close to its rating; ageing fuses may open in normal use.',
+      message:
+        'A margin under 1.1 leaves the fuse running close to its rating; ageing fuses may open in normal use.',
     },
     LOCAL_CODES,
   ]);

@@ -27,13 +27,21 @@ export function readMeasured(value: string | number, unit: string, measure?: Mea
       if (wrong) return { ok: false, reason: wrong.replace('this field', 'this reading') };
       measured = parsed.value;
     } catch (err) {
-      if (err instanceof QuantityParseError) return { ok: false, reason: err.reason === 'not a number' ? `"${value}" is not a number` : `"${value}": ${err.reason}` };
+      if (err instanceof QuantityParseError)
+        return {
+          ok: false,
+          reason: err.reason === 'not a number' ? `"${value}" is not a number` : `"${value}": ${err.reason}`,
+        };
       throw err;
     }
   }
   if (!Number.isFinite(measured)) return { ok: false, reason: 'must be a finite number' };
   const max = readingUnitSpec(unit)?.max ?? 1e12;
-  if (Math.abs(measured) > max) return { ok: false, reason: `${formatQuantity(measured, unit)} is beyond what a bench meter reads (at most ${formatQuantity(max, unit)})` };
+  if (Math.abs(measured) > max)
+    return {
+      ok: false,
+      reason: `${formatQuantity(measured, unit)} is beyond what a bench meter reads (at most ${formatQuantity(max, unit)})`,
+    };
   return { ok: true, measured, raw };
 }
 

@@ -12,8 +12,7 @@ export const SRC = {
  * or current can leave a reckoner without saying whether it is rms, peak, peak-to-peak or dc.
  */
 export type OutputUnit =
-  | `${'V' | 'A'} ${Exclude<Measure, 'scalar'>}`
-  | 'Ω' | 'F' | 'H' | 'W' | 'VA' | 'Hz' | 's' | 'J' | 'C' | '%';
+  `${'V' | 'A'} ${Exclude<Measure, 'scalar'>}` | 'Ω' | 'F' | 'H' | 'W' | 'VA' | 'Hz' | 's' | 'J' | 'C' | '%';
 
 export function splitUnit(u: OutputUnit): { unit: string; measure: Measure } {
   const [unit, measure] = u.split(' ') as [string, Measure | undefined];
@@ -21,7 +20,14 @@ export function splitUnit(u: OutputUnit): { unit: string; measure: Measure } {
 }
 
 /** A numeric output in SI base units, printed with prefix and unit. */
-export function q(value: number, unit: OutputUnit, label: string, explanation: string, source?: string, sig = 3): Output {
+export function q(
+  value: number,
+  unit: OutputUnit,
+  label: string,
+  explanation: string,
+  source?: string,
+  sig = 3,
+): Output {
   if (!Number.isFinite(value)) throw new OutputOverflow(label, value);
   const u = splitUnit(unit);
   return { value, ...u, label, explanation, source, formatted: formatQuantity(value, u.unit, sig) };
@@ -29,15 +35,37 @@ export function q(value: number, unit: OutputUnit, label: string, explanation: s
 
 export function n(value: number, label: string, explanation: string, source?: string, sig = 3): Output {
   if (!Number.isFinite(value)) throw new OutputOverflow(label, value);
-  return { value, unit: '', measure: 'scalar', label, explanation, source, formatted: formatNumber(value, sig) };
+  return {
+    value,
+    unit: '',
+    measure: 'scalar',
+    label,
+    explanation,
+    source,
+    formatted: formatNumber(value, sig),
+  };
 }
 
 export function s(value: string, label: string, explanation: string, source?: string): Output {
   return { value, unit: '', measure: 'scalar', label, explanation, source, formatted: value };
 }
 
-export function b(value: boolean, label: string, explanation: string, source?: string, words: [string, string] = ['yes', 'no']): Output {
-  return { value, unit: '', measure: 'scalar', label, explanation, source, formatted: value ? words[0] : words[1] };
+export function b(
+  value: boolean,
+  label: string,
+  explanation: string,
+  source?: string,
+  words: [string, string] = ['yes', 'no'],
+): Output {
+  return {
+    value,
+    unit: '',
+    measure: 'scalar',
+    label,
+    explanation,
+    source,
+    formatted: value ? words[0] : words[1],
+  };
 }
 
 /** A result too large (or undefined) to hold: the inputs are out of any sensible range. */

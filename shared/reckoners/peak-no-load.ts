@@ -81,13 +81,17 @@ export function scaleWithMains(vRated: number, mainsActual: number, mainsNominal
 }
 
 export function rectifierDrop(input: Pick<PeakNoLoadInput, 'rectifier' | 'diodeDrop' | 'valveDrop'>): number {
-  return input.rectifier === 'valve' ? (input.valveDrop ?? 0) : diodesInPath(input.rectifier) * input.diodeDrop;
+  return input.rectifier === 'valve'
+    ? (input.valveDrop ?? 0)
+    : diodesInPath(input.rectifier) * input.diodeDrop;
 }
 
 function compute(input: PeakNoLoadInput): ReckonerResult {
   const actual = input.mainsActual ?? input.mainsNominal;
   const measured = input.windingBasis === 'measured';
-  const vWinding = measured ? input.windingVoltage : scaleWithMains(input.windingVoltage, actual, input.mainsNominal);
+  const vWinding = measured
+    ? input.windingVoltage
+    : scaleWithMains(input.windingVoltage, actual, input.mainsNominal);
   const vPeak = SQRT2 * vWinding;
   const drop = rectifierDrop(input);
   // No silent zero: a peak at or below the rectifier drop is a slipped unit or a wrong rectifier.
@@ -118,14 +122,34 @@ function compute(input: PeakNoLoadInput): ReckonerResult {
         : `Rated figure × ${formatQuantity(actual, 'V')} ÷ ${formatQuantity(input.mainsNominal, 'V')}.`,
       SRC.derived,
     ),
-    peakVoltage: q(vPeak, 'V peak', 'Peak voltage', '√2 × rms winding voltage.', 'derived; any circuit-theory text'),
-    noLoadDc: q(noLoadDc, 'V dc', 'No-load DC at the reservoir', `Capacitor-input: the peak ${dropText}.`, SRC.commonPractice),
-    windingUnloadedLow: q(bandLow, 'V rms', 'Unloaded winding check, low', 'Lowest expected unloaded reading.', SRC.commonPractice),
+    peakVoltage: q(
+      vPeak,
+      'V peak',
+      'Peak voltage',
+      '√2 × rms winding voltage.',
+      'derived; any circuit-theory text',
+    ),
+    noLoadDc: q(
+      noLoadDc,
+      'V dc',
+      'No-load DC at the reservoir',
+      `Capacitor-input: the peak ${dropText}.`,
+      SRC.commonPractice,
+    ),
+    windingUnloadedLow: q(
+      bandLow,
+      'V rms',
+      'Unloaded winding check, low',
+      'Lowest expected unloaded reading.',
+      SRC.commonPractice,
+    ),
     windingUnloadedHigh: q(
       bandHigh,
       'V rms',
       'Unloaded winding check, high',
-      measured ? 'As measured.' : `Rated figure at this mains plus ${formatNumber(input.unloadedRise)} % unloaded rise.`,
+      measured
+        ? 'As measured.'
+        : `Rated figure at this mains plus ${formatNumber(input.unloadedRise)} % unloaded rise.`,
       SRC.commonPractice,
     ),
     noLoadDcHigh: q(
@@ -136,7 +160,11 @@ function compute(input: PeakNoLoadInput): ReckonerResult {
       SRC.commonPractice,
     ),
     mainsRatio: n(actual / input.mainsNominal, 'Mains ratio', 'Actual ÷ nominal mains.', SRC.derived, 4),
-    scaled: b(!measured && actual !== input.mainsNominal, 'Scaled to actual mains', 'Whether the winding figure was scaled.'),
+    scaled: b(
+      !measured && actual !== input.mainsNominal,
+      'Scaled to actual mains',
+      'Whether the winding figure was scaled.',
+    ),
   };
   if (input.filterNodes !== undefined) {
     outputs.filterNodes = n(

@@ -38,7 +38,13 @@ function readRaw(spec: FieldSpec, value: unknown): number | undefined {
 /** The caution for one value outside its field's shop range, or null when it is inside. */
 function outOfRange(spec: FieldSpec, path: string, value: unknown): Caution | null {
   const range = spec.plausible;
-  if (!range || typeof value !== 'number' || !Number.isFinite(value) || (value >= range.min && value <= range.max)) return null;
+  if (
+    !range ||
+    typeof value !== 'number' ||
+    !Number.isFinite(value) ||
+    (value >= range.min && value <= range.max)
+  )
+    return null;
   const slip = likelySlip(value, range);
   return {
     level: 'warning',
@@ -47,7 +53,9 @@ function outOfRange(spec: FieldSpec, path: string, value: unknown): Caution | nu
     message:
       `${spec.label}: ${show(value, spec)} is outside the range met in shop work (${show(range.min, spec)} to ${show(range.max, spec)}` +
       `${spec.measure ? `, ${unitWithMeasure('', spec.measure).trim()}` : ''}). ` +
-      (slip !== null ? `Check the prefix or unit — did you mean ${show(slip, spec)}?` : 'Check the value, its prefix and its unit.'),
+      (slip !== null
+        ? `Check the prefix or unit — did you mean ${show(slip, spec)}?`
+        : 'Check the value, its prefix and its unit.'),
   };
 }
 

@@ -37,7 +37,8 @@ export interface ReadingCheck {
 }
 
 function finite(field: string, v: unknown): number {
-  if (typeof v !== 'number' || !Number.isFinite(v)) throw new ReckonerInputError(field, 'must be a finite number');
+  if (typeof v !== 'number' || !Number.isFinite(v))
+    throw new ReckonerInputError(field, 'must be a finite number');
   return v;
 }
 function nonNegative(field: string, v: unknown): number {
@@ -79,19 +80,32 @@ export function toleranceBand(expected: number, tolerance: Tolerance): { low: nu
     default:
       throw new ReckonerInputError('tolerance.kind', 'must be percent, absolute or asymmetric');
   }
-  const usesPercent = tolerance.kind === 'percent' || (tolerance.kind === 'asymmetric' && tolerance.basis === 'percent');
-  if (usesPercent && e === 0) throw new ReckonerInputError('tolerance', 'a percentage tolerance needs a non-zero expected value; use an absolute one');
+  const usesPercent =
+    tolerance.kind === 'percent' || (tolerance.kind === 'asymmetric' && tolerance.basis === 'percent');
+  if (usesPercent && e === 0)
+    throw new ReckonerInputError(
+      'tolerance',
+      'a percentage tolerance needs a non-zero expected value; use an absolute one',
+    );
   const low = tidy(e - below);
   const high = tidy(e + above);
-  if (!Number.isFinite(low) || !Number.isFinite(high)) throw new ReckonerInputError('expected', 'is too large to give a tolerance band');
+  if (!Number.isFinite(low) || !Number.isFinite(high))
+    throw new ReckonerInputError('expected', 'is too large to give a tolerance band');
   // A band reaching past zero would accept a reading of the wrong polarity (or none at all).
   if ((e > 0 && low < 0) || (e < 0 && high > 0)) {
-    throw new ReckonerInputError('tolerance', 'reaches past zero: the tolerance below the expected value must be no larger than the value itself (at most 100 %)');
+    throw new ReckonerInputError(
+      'tolerance',
+      'reaches past zero: the tolerance below the expected value must be no larger than the value itself (at most 100 %)',
+    );
   }
   return { low, high };
 }
 
-export function checkReading(args: { expected: number; tolerance: Tolerance; measured: number }): ReadingCheck {
+export function checkReading(args: {
+  expected: number;
+  tolerance: Tolerance;
+  measured: number;
+}): ReadingCheck {
   const { low, high } = toleranceBand(args.expected, args.tolerance);
   const m = finite('measured', args.measured);
   const eps = 1e-12 * Math.max(Math.abs(low), Math.abs(high), Math.abs(m), 1e-300);
@@ -164,7 +178,10 @@ export interface ReadingToleranceInput {
 const INPUT_KEYS = ['unit', 'measure', 'expected', 'tolerance', 'measured'] as const;
 
 const rawSchema = namedInputs(
-  Object.fromEntries(INPUT_KEYS.map((k) => [k, z.unknown().optional()])) as Record<(typeof INPUT_KEYS)[number], z.ZodOptional<z.ZodUnknown>>,
+  Object.fromEntries(INPUT_KEYS.map((k) => [k, z.unknown().optional()])) as Record<
+    (typeof INPUT_KEYS)[number],
+    z.ZodOptional<z.ZodUnknown>
+  >,
 );
 
 const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
@@ -199,7 +216,8 @@ const inputs = rawSchema.transform((raw, ctx): ReadingToleranceInput => {
     }
     if (typeof v === 'number') {
       if (!Number.isFinite(v)) issue([key], 'must be a finite number');
-      else if (Math.abs(v) > spec.max) issue([key], `is beyond what a bench meter reads (at most ${formatQuantity(spec.max, unit)})`);
+      else if (Math.abs(v) > spec.max)
+        issue([key], `is beyond what a bench meter reads (at most ${formatQuantity(spec.max, unit)})`);
       else return v;
       return undefined;
     }
@@ -297,7 +315,9 @@ function readToleranceObject(
       const u = basis === 'percent' ? '%' : unit;
       const below = amount('below', u);
       const above = amount('above', u);
-      return below === undefined || above === undefined ? undefined : { kind: 'asymmetric', below, above, basis };
+      return below === undefined || above === undefined
+        ? undefined
+        : { kind: 'asymmetric', below, above, basis };
     }
     default:
       issue(['tolerance', 'kind'], 'must be percent, absolute or asymmetric');
@@ -321,7 +341,12 @@ const fields: FieldSpec[] = [
     optional: true,
     options: READING_MEASURES.map((m) => ({ value: m, label: MEASURE_WORDS[m] })),
   },
-  { key: 'expected', label: 'Expected', kind: 'quantity', help: 'A number, or a reckoner output by reference.' },
+  {
+    key: 'expected',
+    label: 'Expected',
+    kind: 'quantity',
+    help: 'A number, or a reckoner output by reference.',
+  },
   {
     key: 'tolerance',
     label: 'Tolerance',
@@ -354,13 +379,33 @@ function compute(input: ReadingToleranceInput): ReckonerResult {
     high: q(high, u, 'Highest accepted', `Expected ${tolText}.`, SRC.derived, 4),
   };
   if (input.measured !== undefined) {
-    const r = checkReading({ expected: input.expected, tolerance: input.tolerance, measured: input.measured });
-    outputs.within = b(r.within, 'Within tolerance', `Accepted from ${formatQuantity(low, input.unit)} to ${formatQuantity(high, input.unit)}, limits included.`, undefined, ['within', 'out of tolerance']);
+    const r = checkReading({
+      expected: input.expected,
+      tolerance: input.tolerance,
+      measured: input.measured,
+    });
+    outputs.within = b(
+      r.within,
+      'Within tolerance',
+      `Accepted from ${formatQuantity(low, input.unit)} to ${formatQuantity(high, input.unit)}, limits included.`,
+      undefined,
+      ['within', 'out of tolerance'],
+    );
     outputs.deviation = q(r.deviation, u, 'Deviation', 'Measured − expected.', SRC.derived, 4);
     if (r.deviationPercent !== null) {
-      outputs.deviationPercent = q(r.deviationPercent, '%', 'Deviation (%)', '(measured − expected) ÷ |expected| × 100.', SRC.derived);
+      outputs.deviationPercent = q(
+        r.deviationPercent,
+        '%',
+        'Deviation (%)',
+        '(measured − expected) ÷ |expected| × 100.',
+        SRC.derived,
+      );
     }
-    outputs.verdict = s(r.within ? 'within' : 'out', 'Verdict', r.within ? 'The reading is within tolerance.' : 'The reading is outside tolerance.');
+    outputs.verdict = s(
+      r.within ? 'within' : 'out',
+      'Verdict',
+      r.within ? 'The reading is within tolerance.' : 'The reading is outside tolerance.',
+    );
   }
   return { outputs };
 }

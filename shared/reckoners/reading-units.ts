@@ -33,7 +33,9 @@ export const READING_UNITS = Object.keys(READING_UNIT_SPECS) as [ReadingUnit, ..
 export const READING_MEASURES = ALL_MEASURES as readonly [AcMeasure, ...AcMeasure[]];
 
 export function readingUnitSpec(unit: string): ReadingUnitSpec | undefined {
-  return Object.prototype.hasOwnProperty.call(READING_UNIT_SPECS, unit) ? READING_UNIT_SPECS[unit as ReadingUnit] : undefined;
+  return Object.prototype.hasOwnProperty.call(READING_UNIT_SPECS, unit)
+    ? READING_UNIT_SPECS[unit as ReadingUnit]
+    : undefined;
 }
 
 /** Whether a reading in `unit` must state a measure. */

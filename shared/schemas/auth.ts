@@ -47,9 +47,13 @@ export const passwordBody = z
 
 /** Six digits from the authenticator app, or a recovery code (xxxx-xxxx-xxxx-xxxx). */
 export const codeBody = z
-  .object({ code: z.string().trim().min(6, 'six digits or a recovery code').max(40, 'six digits or a recovery code') })
+  .object({
+    code: z.string().trim().min(6, 'six digits or a recovery code').max(40, 'six digits or a recovery code'),
+  })
   .strict();
 
-export const signInSettingsBody = z.object({ requireSecondFactor: z.boolean({ error: 'must be true or false' }) }).strict();
+export const signInSettingsBody = z
+  .object({ requireSecondFactor: z.boolean({ error: 'must be true or false' }) })
+  .strict();
 
 export type ChangePasswordBody = z.infer<typeof changePasswordBody>;

@@ -17,7 +17,10 @@ export const procedureMetaSchema = z.object({
   title: oneLine(160, { min: 3, minMessage: 'at least 3 characters' }),
   equipmentFamily: oneLine(80, { min: 1 }),
   equipmentModel: oneLine(80, { min: 1 }),
-  tags: z.array(tag).max(20, 'at most 20 tags').transform((t) => [...new Set(t)]),
+  tags: z
+    .array(tag)
+    .max(20, 'at most 20 tags')
+    .transform((t) => [...new Set(t)]),
 });
 
 export const createProcedureBody = procedureMetaSchema.extend({ params: paramsSchema.optional() }).strict();
@@ -46,13 +49,28 @@ export const procedureListQuery = z.object({
   q: z.string().trim().max(160, 'at most 160 characters').optional(),
   family: z.string().max(80, 'at most 80 characters').optional(),
   tag: z.string().max(40, 'at most 40 characters').optional(),
-  state: z.enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state').optional(),
+  state: z
+    .enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state')
+    .optional(),
   /** Only procedures with an approved revision: what a bench run may follow. */
-  runnable: z.enum(['true', 'false'], 'true or false').optional().transform((v) => v === 'true'),
+  runnable: z
+    .enum(['true', 'false'], 'true or false')
+    .optional()
+    .transform((v) => v === 'true'),
   sort: z.enum(PROCEDURE_SORTS, `one of ${PROCEDURE_SORTS.join(', ')}`).default('updatedAt'),
   dir: z.enum(['asc', 'desc'], 'asc or desc').optional(),
-  offset: z.coerce.number('a whole number').int('a whole number').min(0, 'at least 0').max(1_000_000, 'at most 1,000,000').default(0),
-  limit: z.coerce.number('a whole number').int('a whole number').min(1, 'at least 1').max(200, 'at most 200').default(50),
+  offset: z.coerce
+    .number('a whole number')
+    .int('a whole number')
+    .min(0, 'at least 0')
+    .max(1_000_000, 'at most 1,000,000')
+    .default(0),
+  limit: z.coerce
+    .number('a whole number')
+    .int('a whole number')
+    .min(1, 'at least 1')
+    .max(200, 'at most 200')
+    .default(50),
 });
 export type ProcedureListQuery = z.input<typeof procedureListQuery>;
 

@@ -5,13 +5,20 @@ import type { BlockView } from '../document/block-view';
 import type { RevisionStateName } from './procedures';
 
 /** The password is checked, never trimmed or length-limited below what sign-in accepts. */
-const password = z.string({ error: 'required' }).min(1, 'enter your password to sign').max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`);
+const password = z
+  .string({ error: 'required' })
+  .min(1, 'enter your password to sign')
+  .max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`);
 const comment = z.string().trim().max(4000, 'at most 4000 characters');
 
 export const submitBody = z.object({ lockVersion: z.number().int().min(1).optional() }).strict();
 export const approveBody = z.object({ password, comment: comment.default('') }).strict();
-export const returnBody = z.object({ password, comment: comment.min(1, 'say what needs to change') }).strict();
-export const withdrawBody = z.object({ password, reason: comment.min(3, 'give the reason for withdrawing (at least 3 characters)') }).strict();
+export const returnBody = z
+  .object({ password, comment: comment.min(1, 'say what needs to change') })
+  .strict();
+export const withdrawBody = z
+  .object({ password, reason: comment.min(3, 'give the reason for withdrawing (at least 3 characters)') })
+  .strict();
 export const commentBody = z
   .object({
     body: z.string().trim().min(1, 'write a comment').max(4000, 'at most 4000 characters'),

@@ -47,7 +47,12 @@ const bounded = (key: 'mainsVoltage' | 'mainsFrequency') => {
   return z
     .number({ error: `${p.label} must be a number in ${p.unit}` })
     .refine(Number.isFinite, 'must be a finite number')
-    .pipe(z.number().min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`).max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`));
+    .pipe(
+      z
+        .number()
+        .min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`)
+        .max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
+    );
 };
 
 export const startRunBody = z
@@ -70,7 +75,11 @@ export const entryBody = z
   .object({
     key: z.uuid('must be a UUID (the idempotency key)'),
     /** A reading as typed ("352", "352 V", "0.35 kV"); a finite number is read in the reading's unit. */
-    value: z.union([z.string().trim().min(1, 'empty').max(40, 'at most 40 characters'), z.number()], { error: 'must be a value such as "352 V"' }).optional(),
+    value: z
+      .union([z.string().trim().min(1, 'empty').max(40, 'at most 40 characters'), z.number()], {
+        error: 'must be a value such as "352 V"',
+      })
+      .optional(),
     /** Check step ticked or hazard note acknowledged. */
     done: z.boolean().optional(),
     note: z.string().max(2000, 'at most 2000 characters').optional(),
@@ -82,10 +91,17 @@ export const entryBody = z
   .strict();
 export type EntryBody = z.infer<typeof entryBody>;
 
-const why = (what: string) => z.string({ error: `give the reason for ${what}` }).trim().min(3, `give the reason for ${what} (at least 3 characters)`).max(500, 'at most 500 characters');
+const why = (what: string) =>
+  z
+    .string({ error: `give the reason for ${what}` })
+    .trim()
+    .min(3, `give the reason for ${what} (at least 3 characters)`)
+    .max(500, 'at most 500 characters');
 
 /** Hand an open run over to another technician, who performs (and signs) it from then on. */
-export const handoverBody = z.object({ to: z.uuid('choose the technician who takes the run over'), reason: why('the handover') }).strict();
+export const handoverBody = z
+  .object({ to: z.uuid('choose the technician who takes the run over'), reason: why('the handover') })
+  .strict();
 export type HandoverBody = z.infer<typeof handoverBody>;
 
 /** Close an open run without signing it (the unit left, or the revision it follows was withdrawn). */

@@ -2,7 +2,8 @@ import { z } from 'zod';
 import { oneLine } from './text';
 
 const text = (label: string, max: number) => oneLine(max, { label });
-const multiLine = (label: string, max: number) => z.string().trim().max(max, `${label}: at most ${max} characters`);
+const multiLine = (label: string, max: number) =>
+  z.string().trim().max(max, `${label}: at most ${max} characters`);
 
 /** A unit on the bench, as entered by the shop. */
 export const unitBody = z

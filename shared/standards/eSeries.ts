@@ -6,10 +6,13 @@
 export const E6: readonly number[] = [1.0, 1.5, 2.2, 3.3, 4.7, 6.8];
 export const E12: readonly number[] = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2];
 export const E24: readonly number[] = [
-  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5,
-  8.2, 9.1,
+  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8,
+  7.5, 8.2, 9.1,
 ];
-export const E96: readonly number[] = Array.from({ length: 96 }, (_, i) => Math.round(10 ** (i / 96) * 100) / 100);
+export const E96: readonly number[] = Array.from(
+  { length: 96 },
+  (_, i) => Math.round(10 ** (i / 96) * 100) / 100,
+);
 export const E48: readonly number[] = E96.filter((_, i) => i % 2 === 0);
 
 export const E_SERIES = { E6, E12, E24, E48, E96 } as const;
@@ -22,7 +25,8 @@ function decadeValues(series: readonly number[], exponent: number): number[] {
 
 /** Standard values bracketing `value` (value > 0): the largest ≤ value and the smallest ≥ value. */
 export function bracketESeries(value: number, name: ESeriesName): { below: number; above: number } {
-  if (!(value > 0) || !Number.isFinite(value)) throw new RangeError(`E-series lookup needs a positive finite value, got ${value}`);
+  if (!(value > 0) || !Number.isFinite(value))
+    throw new RangeError(`E-series lookup needs a positive finite value, got ${value}`);
   const series = E_SERIES[name];
   const exponent = Math.floor(Math.log10(value));
   const candidates = [

@@ -5,8 +5,8 @@
  * 32 mA – 6.3 A, with 8 A and 10 A found on some standard sheets.
  */
 export const IEC_60127_RATED_CURRENTS: readonly number[] = [
-  0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5,
-  3.15, 4, 5, 6.3, 8, 10,
+  0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2,
+  2.5, 3.15, 4, 5, 6.3, 8, 10,
 ];
 
 /** North American fractional ratings (common practice, no single source). */
@@ -15,7 +15,11 @@ export const NORTH_AMERICAN_RATED_CURRENTS: readonly number[] = [
 ];
 
 export const FUSE_SERIES = {
-  iec: { label: 'IEC 60127-2 (R10 series)', values: IEC_60127_RATED_CURRENTS, source: 'IEC 60127-2; values from the R10 series' },
+  iec: {
+    label: 'IEC 60127-2 (R10 series)',
+    values: IEC_60127_RATED_CURRENTS,
+    source: 'IEC 60127-2; values from the R10 series',
+  },
   'north-american': {
     label: 'North American fractional sizes',
     values: NORTH_AMERICAN_RATED_CURRENTS,

@@ -11,4 +11,6 @@ export const CHARGE_LIMIT_SOURCE = 'IEC 61010-1 hazardous-live charge limit, 45 
 /** Resistor part rating at least twice its dissipation (common practice). */
 export const RESISTOR_DERATING = 2;
 /** Common power ratings for through-hole and wirewound resistors (common practice). */
-export const RESISTOR_POWER_RATINGS: readonly number[] = [0.125, 0.25, 0.5, 1, 2, 3, 5, 7, 10, 15, 20, 25, 50];
+export const RESISTOR_POWER_RATINGS: readonly number[] = [
+  0.125, 0.25, 0.5, 1, 2, 3, 5, 7, 10, 15, 20, 25, 50,
+];

@@ -40,6 +40,7 @@ export function formatQuantity(value: number, unit: string, sig = 3): string {
   const prefix = PREFIXES.find((p) => p.exponent === exp3)!;
   const mantissa = rounded / 10 ** exp3;
   // Below the smallest prefix, keep significant figures rather than printing "0 pF".
-  const text = Math.abs(mantissa) < 1 ? formatNumber(Number(mantissa.toPrecision(sig)), sig) : fixedSig(mantissa, sig);
+  const text =
+    Math.abs(mantissa) < 1 ? formatNumber(Number(mantissa.toPrecision(sig)), sig) : fixedSig(mantissa, sig);
   return `${text} ${prefix.symbol}${unit}`;
 }

@@ -28,7 +28,13 @@ export interface Quantity {
 }
 
 const MEASURE_WORDS: Record<string, WrittenMeasure> = {
-  ac: 'rms', rms: 'rms', pk: 'peak', peak: 'peak', pp: 'peak-to-peak', 'p-p': 'peak-to-peak', dc: 'dc',
+  ac: 'rms',
+  rms: 'rms',
+  pk: 'peak',
+  peak: 'peak',
+  pp: 'peak-to-peak',
+  'p-p': 'peak-to-peak',
+  dc: 'dc',
 };
 
 const PREFIX_MULTIPLIERS: Record<string, number> = {
@@ -50,15 +56,34 @@ const PREFIX_MULTIPLIERS: Record<string, number> = {
 const PREFIX_KEYS = Object.keys(PREFIX_MULTIPLIERS).sort((a, b) => b.length - a.length);
 
 const UNIT_ALIASES: Record<string, string> = {
-  V: 'V', v: 'V', volt: 'V', volts: 'V',
-  A: 'A', a: 'A', amp: 'A', amps: 'A',
-  Ω: 'Ω', ohm: 'Ω', ohms: 'Ω', Ohm: 'Ω', Ohms: 'Ω',
-  F: 'F', f: 'F',
-  H: 'H', h: 'H',
-  W: 'W', w: 'W', watt: 'W', watts: 'W',
-  VA: 'VA', va: 'VA',
-  Hz: 'Hz', hz: 'Hz', HZ: 'Hz',
-  s: 's', sec: 's',
+  V: 'V',
+  v: 'V',
+  volt: 'V',
+  volts: 'V',
+  A: 'A',
+  a: 'A',
+  amp: 'A',
+  amps: 'A',
+  Ω: 'Ω',
+  ohm: 'Ω',
+  ohms: 'Ω',
+  Ohm: 'Ω',
+  Ohms: 'Ω',
+  F: 'F',
+  f: 'F',
+  H: 'H',
+  h: 'H',
+  W: 'W',
+  w: 'W',
+  watt: 'W',
+  watts: 'W',
+  VA: 'VA',
+  va: 'VA',
+  Hz: 'Hz',
+  hz: 'Hz',
+  HZ: 'Hz',
+  s: 's',
+  sec: 's',
   J: 'J',
   C: 'C',
   '%': '%',
@@ -95,7 +120,8 @@ function readSuffix(raw: string): Suffix | null {
   const q = QUALIFIER.exec(s);
   if (q && q[1]) {
     const inner = readPrefixedUnit(q[1]);
-    if (inner && (inner.unit === 'V' || inner.unit === 'A')) return { ...inner, measure: MEASURE_WORDS[q[2]!.toLowerCase()] };
+    if (inner && (inner.unit === 'V' || inner.unit === 'A'))
+      return { ...inner, measure: MEASURE_WORDS[q[2]!.toLowerCase()] };
   }
   return null;
 }
@@ -144,7 +170,10 @@ function settleUnit(
   expectedUnit: string | undefined,
 ): string {
   if (written && implied && written !== implied) {
-    throw new QuantityParseError(input, `the code letter means ${implied} but the unit written is ${written}`);
+    throw new QuantityParseError(
+      input,
+      `the code letter means ${implied} but the unit written is ${written}`,
+    );
   }
   const unit = written ?? implied ?? expectedUnit ?? fallback;
   if (unit === null) {
@@ -152,7 +181,10 @@ function settleUnit(
   }
   if (expectedUnit !== undefined && unit !== expectedUnit) {
     // A bare number is always read in the expected unit; a written one must match.
-    throw new QuantityParseError(input, `expected a value in ${expectedUnit || 'plain numbers'}, got ${unit || 'a plain number'}`);
+    throw new QuantityParseError(
+      input,
+      `expected a value in ${expectedUnit || 'plain numbers'}, got ${unit || 'a plain number'}`,
+    );
   }
   return unit;
 }
@@ -176,14 +208,16 @@ export function parseQuantity(text: string, expectedUnit?: string): Quantity {
   const rkm = RKM.exec(s);
   const rkmUsable =
     rkm !== null &&
-    ((rkm[2] !== '' && rkm[4] !== '') || ((rkm[3] === 'R' || rkm[3] === 'r') && (rkm[2] !== '' || rkm[4] !== '')));
+    ((rkm[2] !== '' && rkm[4] !== '') ||
+      ((rkm[3] === 'R' || rkm[3] === 'r') && (rkm[2] !== '' || rkm[4] !== '')));
   if (rkm && rkmUsable) {
     const [, sign, whole, letter, frac, rest] = rkm;
     const info = RKM_LETTERS[letter!]!;
     let written: string | null = null;
     if (rest !== undefined && rest !== '') {
       written = unitOf(rest.trim());
-      if (written === null || written === '%') throw new QuantityParseError(text, `unknown unit "${rest.trim()}"`);
+      if (written === null || written === '%')
+        throw new QuantityParseError(text, `unknown unit "${rest.trim()}"`);
     }
     value = Number(`${sign}${whole || '0'}.${frac || '0'}`) * info.multiplier;
     unit = settleUnit(text, written, info.implies, RKM_DEFAULT_UNIT[letter!] ?? null, expectedUnit);
@@ -192,7 +226,8 @@ export function parseQuantity(text: string, expectedUnit?: string): Quantity {
     if (!m) throw new QuantityParseError(text, 'not a number');
     const suffix = readSuffix(m[2]!);
     if (!suffix) throw new QuantityParseError(text, `unknown unit or prefix "${m[2]!.trim()}"`);
-    if (suffix.unit === '%' && suffix.multiplier !== 1) throw new QuantityParseError(text, 'a percentage takes no prefix');
+    if (suffix.unit === '%' && suffix.multiplier !== 1)
+      throw new QuantityParseError(text, 'a percentage takes no prefix');
     value = Number(m[1]) * suffix.multiplier;
     unit = settleUnit(text, suffix.unit, null, '', expectedUnit);
     measure = suffix.measure;

@@ -25,9 +25,18 @@ const router = createBrowserRouter([
     errorElement: <RouteError />,
     children: [
       { index: true, lazy: async () => ({ Component: (await import('./routes/home')).default }) },
-      { path: paths.procedures.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/list')).default }) },
-      { path: paths.newProcedure.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/new')).default }) },
-      { path: paths.procedure.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/procedure')).default }) },
+      {
+        path: paths.procedures.pattern,
+        lazy: async () => ({ Component: (await import('./routes/procedures/list')).default }),
+      },
+      {
+        path: paths.newProcedure.pattern,
+        lazy: async () => ({ Component: (await import('./routes/procedures/new')).default }),
+      },
+      {
+        path: paths.procedure.pattern,
+        lazy: async () => ({ Component: (await import('./routes/procedures/procedure')).default }),
+      },
       {
         path: paths.revision.pattern,
         // Fetch the revision alongside the page's code, not after it.
@@ -38,20 +47,62 @@ const router = createBrowserRouter([
         lazy: async () => ({ Component: (await import('./routes/procedures/revision')).default }),
       },
       // The editor chunk: the only importer of @tiptap/*.
-      { path: paths.editRevision.pattern, lazy: async () => ({ Component: (await import('./routes/procedures/edit-revision')).default }) },
-      { path: paths.search.pattern, lazy: async () => ({ Component: (await import('./routes/search')).default }) },
-      { path: paths.account.pattern, lazy: async () => ({ Component: (await import('./routes/account')).default }) },
-      { path: paths.people.pattern, lazy: async () => ({ Component: (await import('./routes/admin/people')).default }) },
-      { path: paths.reviewQueue.pattern, lazy: async () => ({ Component: (await import('./routes/review/queue')).default }) },
-      { path: paths.reviewRevision.pattern, lazy: async () => ({ Component: (await import('./routes/review/revision')).default }) },
-      { path: paths.audit.pattern, lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }) },
-      { path: paths.outbox.pattern, lazy: async () => ({ Component: (await import('./routes/admin/outbox')).default }) },
-      { path: paths.units.pattern, lazy: async () => ({ Component: (await import('./routes/units/units')).default }) },
-      { path: paths.unit.pattern, lazy: async () => ({ Component: (await import('./routes/units/unit')).default }) },
-      { path: paths.runs.pattern, lazy: async () => ({ Component: (await import('./routes/runs/runs')).default }) },
-      { path: paths.newRun.pattern, lazy: async () => ({ Component: (await import('./routes/runs/new-run')).default }) },
-      { path: paths.run.pattern, lazy: async () => ({ Component: (await import('./routes/runs/run')).default }) },
-      { path: paths.runSheet.pattern, lazy: async () => ({ Component: (await import('./routes/runs/run-sheet')).default }) },
+      {
+        path: paths.editRevision.pattern,
+        lazy: async () => ({ Component: (await import('./routes/procedures/edit-revision')).default }),
+      },
+      {
+        path: paths.search.pattern,
+        lazy: async () => ({ Component: (await import('./routes/search')).default }),
+      },
+      {
+        path: paths.account.pattern,
+        lazy: async () => ({ Component: (await import('./routes/account')).default }),
+      },
+      {
+        path: paths.people.pattern,
+        lazy: async () => ({ Component: (await import('./routes/admin/people')).default }),
+      },
+      {
+        path: paths.reviewQueue.pattern,
+        lazy: async () => ({ Component: (await import('./routes/review/queue')).default }),
+      },
+      {
+        path: paths.reviewRevision.pattern,
+        lazy: async () => ({ Component: (await import('./routes/review/revision')).default }),
+      },
+      {
+        path: paths.audit.pattern,
+        lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }),
+      },
+      {
+        path: paths.outbox.pattern,
+        lazy: async () => ({ Component: (await import('./routes/admin/outbox')).default }),
+      },
+      {
+        path: paths.units.pattern,
+        lazy: async () => ({ Component: (await import('./routes/units/units')).default }),
+      },
+      {
+        path: paths.unit.pattern,
+        lazy: async () => ({ Component: (await import('./routes/units/unit')).default }),
+      },
+      {
+        path: paths.runs.pattern,
+        lazy: async () => ({ Component: (await import('./routes/runs/runs')).default }),
+      },
+      {
+        path: paths.newRun.pattern,
+        lazy: async () => ({ Component: (await import('./routes/runs/new-run')).default }),
+      },
+      {
+        path: paths.run.pattern,
+        lazy: async () => ({ Component: (await import('./routes/runs/run')).default }),
+      },
+      {
+        path: paths.runSheet.pattern,
+        lazy: async () => ({ Component: (await import('./routes/runs/run-sheet')).default }),
+      },
       { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).default }) },
     ],
   },

@@ -20,8 +20,18 @@ export function blockCatalog(): CatalogEntry[] {
       hint: r.summary,
       insert: (e: Editor) => e.chain().focus().insertReckoner(r.kind).run(),
     })),
-    { key: 'reading', label: 'Reading', hint: 'A measurement with its expected value and tolerance', insert: (e) => e.chain().focus().insertReading().run() },
-    { key: 'check', label: 'Check step', hint: 'Something the technician confirms by ticking', insert: (e) => e.chain().focus().insertCheckStep().run() },
+    {
+      key: 'reading',
+      label: 'Reading',
+      hint: 'A measurement with its expected value and tolerance',
+      insert: (e) => e.chain().focus().insertReading().run(),
+    },
+    {
+      key: 'check',
+      label: 'Check step',
+      hint: 'Something the technician confirms by ticking',
+      insert: (e) => e.chain().focus().insertCheckStep().run(),
+    },
     {
       key: 'check:discharge',
       label: 'Discharge verified',
@@ -30,26 +40,67 @@ export function blockCatalog(): CatalogEntry[] {
         e
           .chain()
           .focus()
-          .insertCheckStep('Capacitors discharged below 60 V, verified with a meter at every filter node before touching anything inside.', {
-            kind: 'discharge-verified',
-            threshold: DEFAULT_DISCHARGE_THRESHOLD,
-          })
+          .insertCheckStep(
+            'Capacitors discharged below 60 V, verified with a meter at every filter node before touching anything inside.',
+            {
+              kind: 'discharge-verified',
+              threshold: DEFAULT_DISCHARGE_THRESHOLD,
+            },
+          )
           .run(),
     },
     {
       key: 'check:wait',
       label: 'Wait step',
       hint: 'A check step: wait a stated time, for the bleeder or the discharge probe',
-      insert: (e) => e.chain().focus().insertCheckStep('Switched off: wait for the bleeder before touching.', { kind: 'wait', seconds: 60 }).run(),
+      insert: (e) =>
+        e
+          .chain()
+          .focus()
+          .insertCheckStep('Switched off: wait for the bleeder before touching.', {
+            kind: 'wait',
+            seconds: 60,
+          })
+          .run(),
     },
-    { key: 'hazard', label: 'Hazard note', hint: 'A caution in safety colours (danger or warning)', insert: (e) => e.chain().focus().insertHazardNote('danger').run() },
+    {
+      key: 'hazard',
+      label: 'Hazard note',
+      hint: 'A caution in safety colours (danger or warning)',
+      insert: (e) => e.chain().focus().insertHazardNote('danger').run(),
+    },
     { key: 'image', label: 'Image…', hint: 'Upload a photo or drawing (PNG, JPEG, WebP)', upload: 'image' },
     { key: 'file', label: 'File…', hint: 'Upload a PDF or image to link to', upload: 'file' },
-    { key: 'h2', label: 'Section heading', hint: 'Starts a section; hazard notes count per section', insert: (e) => e.chain().focus().setHeading({ level: 2 }).run() },
-    { key: 'h3', label: 'Sub-heading', hint: 'A smaller heading', insert: (e) => e.chain().focus().setHeading({ level: 3 }).run() },
-    { key: 'bullets', label: 'Bulleted list', hint: 'A list without numbers', insert: (e) => e.chain().focus().toggleBulletList().run() },
-    { key: 'numbers', label: 'Numbered list', hint: 'Steps in order', insert: (e) => e.chain().focus().toggleOrderedList().run() },
-    { key: 'rule', label: 'Divider', hint: 'A horizontal rule', insert: (e) => e.chain().focus().setHorizontalRule().run() },
+    {
+      key: 'h2',
+      label: 'Section heading',
+      hint: 'Starts a section; hazard notes count per section',
+      insert: (e) => e.chain().focus().setHeading({ level: 2 }).run(),
+    },
+    {
+      key: 'h3',
+      label: 'Sub-heading',
+      hint: 'A smaller heading',
+      insert: (e) => e.chain().focus().setHeading({ level: 3 }).run(),
+    },
+    {
+      key: 'bullets',
+      label: 'Bulleted list',
+      hint: 'A list without numbers',
+      insert: (e) => e.chain().focus().toggleBulletList().run(),
+    },
+    {
+      key: 'numbers',
+      label: 'Numbered list',
+      hint: 'Steps in order',
+      insert: (e) => e.chain().focus().toggleOrderedList().run(),
+    },
+    {
+      key: 'rule',
+      label: 'Divider',
+      hint: 'A horizontal rule',
+      insert: (e) => e.chain().focus().setHorizontalRule().run(),
+    },
   ];
 }
 

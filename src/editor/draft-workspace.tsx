@@ -45,7 +45,10 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
   // One evaluation for the whole document, shared by every block, deferred so typing stays smooth.
   const doc = useDeferredValue(draft.document);
   const evaluation = useMemo(() => evaluate(doc, draft.params), [doc, draft.params]);
-  const warnings = useMemo(() => (evaluation.snapshot ? lintProcedure(doc, evaluation.snapshot) : []), [doc, evaluation]);
+  const warnings = useMemo(
+    () => (evaluation.snapshot ? lintProcedure(doc, evaluation.snapshot) : []),
+    [doc, evaluation],
+  );
 
   const update = (next: DraftFields) => {
     setDraft(next);
@@ -57,16 +60,17 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
     setDetailsKey((k) => k + 1);
   };
 
+  const { save } = saver;
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if ((e.ctrlKey || e.metaKey) && e.key.toLowerCase() === 's') {
         e.preventDefault();
-        void saver.save();
+        void save();
       }
     };
     window.addEventListener('keydown', onKey, true);
     return () => window.removeEventListener('keydown', onKey, true);
-  }, [saver.save]);
+  }, [save]);
 
   const state = saver.state;
   return (
@@ -82,14 +86,20 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
       </header>
 
       {localCopy && (
-        <div role="alert" className="flex flex-wrap items-center gap-3 rounded-md border border-accent bg-accent-wash px-4 py-3 text-sm">
+        <div
+          role="alert"
+          className="flex flex-wrap items-center gap-3 rounded-md border border-accent bg-accent-wash px-4 py-3 text-sm"
+        >
           <span>
             This device kept unsaved work on this draft from {new Date(localCopy.keptAt).toLocaleString()}.
           </span>
           <Button
             onClick={() => {
               replaceAll(localCopy.draft);
-              saver.adopt({ lockVersion: localCopy.lockVersion, updatedAt: localCopy.keptAt }, localCopy.draft);
+              saver.adopt(
+                { lockVersion: localCopy.lockVersion, updatedAt: localCopy.keptAt },
+                localCopy.draft,
+              );
               setLocalCopy(null);
             }}
           >
@@ -120,7 +130,9 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
           }}
         />
       )}
-      {state.kind === 'refused' && <SaveProblems message={state.message} problems={state.problems} doc={draft.document} />}
+      {state.kind === 'refused' && (
+        <SaveProblems message={state.message} problems={state.problems} doc={draft.document} />
+      )}
 
       <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-4">
@@ -143,7 +155,11 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
         <aside className="flex flex-col gap-3 lg:sticky lg:top-4" aria-label="Saving and procedure check">
           <div className="flex flex-col gap-2 rounded-lg border border-rule bg-card p-3">
             <SaveStatus state={state} />
-            <Button onClick={() => void saver.save()} disabled={state.kind === 'saving' || state.kind === 'conflict'} aria-keyshortcuts="Control+S">
+            <Button
+              onClick={() => void saver.save()}
+              disabled={state.kind === 'saving' || state.kind === 'conflict'}
+              aria-keyshortcuts="Control+S"
+            >
               Save draft
             </Button>
           </div>

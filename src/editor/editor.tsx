@@ -28,7 +28,9 @@ interface Props {
 
 /** The procedure editor: text, structured blocks with live results, an Insert block list. */
 export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props) {
-  const [menu, setMenu] = useState<{ query: string; anchor: { top: number; left: number } | null } | null>(null);
+  const [menu, setMenu] = useState<{ query: string; anchor: { top: number; left: number } | null } | null>(
+    null,
+  );
   const [uploadError, setUploadError] = useState<string | null>(null);
   const filePicker = useRef<HTMLInputElement>(null);
   const pendingUpload = useRef<'image' | 'file'>('image');
@@ -55,7 +57,7 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
 
   openMenuRef.current = (query = '') => {
     if (!editor) return;
-    let anchor = null;
+    let anchor: { top: number; left: number } | null;
     try {
       const c = editor.view.coordsAtPos(editor.state.selection.from);
       anchor = { top: c.bottom, left: c.left };
@@ -77,8 +79,14 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
   const insertUploaded = (kind: 'image' | 'file', a: AttachmentView) => {
     if (!editor) return;
     setUploadError(null);
-    if (kind === 'image') editor.chain().focus().insertImage({ attachmentId: a.id, alt: a.fileName, caption: '' }).run();
-    else editor.chain().focus().insertFile({ attachmentId: a.id, fileName: a.fileName, mediaType: a.mediaType }).run();
+    if (kind === 'image')
+      editor.chain().focus().insertImage({ attachmentId: a.id, alt: a.fileName, caption: '' }).run();
+    else
+      editor
+        .chain()
+        .focus()
+        .insertFile({ attachmentId: a.id, fileName: a.fileName, mediaType: a.mediaType })
+        .run();
   };
 
   const choose = (entry: CatalogEntry) => {
@@ -88,7 +96,10 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
     else if (entry.upload) {
       pendingUpload.current = entry.upload;
       if (filePicker.current) {
-        filePicker.current.accept = entry.upload === 'image' ? 'image/png,image/jpeg,image/webp' : 'application/pdf,image/png,image/jpeg,image/webp';
+        filePicker.current.accept =
+          entry.upload === 'image'
+            ? 'image/png,image/jpeg,image/webp'
+            : 'application/pdf,image/png,image/jpeg,image/webp';
         filePicker.current.click();
       }
     }
@@ -116,8 +127,18 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
           onInsertHazard={() => editor.chain().focus().insertHazardNote('danger').run()}
           upload={
             <>
-              <UploadButton label="Image…" accept="image/png,image/jpeg,image/webp" className="min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep" onUploaded={(a) => insertUploaded('image', a)} />
-              <UploadButton label="File…" accept="application/pdf,image/png,image/jpeg,image/webp" className="min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep" onUploaded={(a) => insertUploaded('file', a)} />
+              <UploadButton
+                label="Image…"
+                accept="image/png,image/jpeg,image/webp"
+                className="min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep"
+                onUploaded={(a) => insertUploaded('image', a)}
+              />
+              <UploadButton
+                label="File…"
+                accept="application/pdf,image/png,image/jpeg,image/webp"
+                className="min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep"
+                onUploaded={(a) => insertUploaded('file', a)}
+              />
             </>
           }
         />
@@ -145,10 +166,21 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
         )}
         <EditorContent editor={editor} />
         <p className="no-print border-t border-rule px-4 py-2 text-xs text-graphite-soft">
-          Type <kbd className="value">/</kbd> on an empty line or press <kbd className="value">Ctrl K</kbd> to insert a block. <kbd className="value">Ctrl S</kbd> saves.
+          Type <kbd className="value">/</kbd> on an empty line or press <kbd className="value">Ctrl K</kbd> to
+          insert a block. <kbd className="value">Ctrl S</kbd> saves.
         </p>
       </div>
-      {menu && <InsertMenu entries={entries} anchor={menu.anchor} onChoose={choose} onClose={() => { setMenu(null); editor.commands.focus(); }} />}
+      {menu && (
+        <InsertMenu
+          entries={entries}
+          anchor={menu.anchor}
+          onChoose={choose}
+          onClose={() => {
+            setMenu(null);
+            editor.commands.focus();
+          }}
+        />
+      )}
     </EvaluationContext.Provider>
   );
 }

@@ -19,12 +19,17 @@ export function useEvaluation(): Evaluation {
   return value;
 }
 
-export const blockResult = (e: Evaluation, id: string): BlockSnapshot | undefined => e.snapshot?.blocks.find((b) => b.id === id);
-export const readingResult = (e: Evaluation, id: string): ResolvedReading | undefined => e.snapshot?.readings.find((r) => r.id === id);
+export const blockResult = (e: Evaluation, id: string): BlockSnapshot | undefined =>
+  e.snapshot?.blocks.find((b) => b.id === id);
+export const readingResult = (e: Evaluation, id: string): ResolvedReading | undefined =>
+  e.snapshot?.readings.find((r) => r.id === id);
 
 /** Numeric outputs of other reckoners, for "from block" pickers; `unit` narrows to matching units. */
 /** Numeric outputs other blocks can refer to; with `unit` (and `measure`) only those of that quantity. */
-export function numericOutputs(e: Evaluation, opts: { exceptId?: string; unit?: string; measure?: Measure } = {}) {
+export function numericOutputs(
+  e: Evaluation,
+  opts: { exceptId?: string; unit?: string; measure?: Measure } = {},
+) {
   const list: { ref: string; label: string; formatted: string; unit: string }[] = [];
   for (const b of e.snapshot?.blocks ?? []) {
     if (b.id === opts.exceptId || !b.ok) continue;
@@ -32,7 +37,12 @@ export function numericOutputs(e: Evaluation, opts: { exceptId?: string; unit?: 
       if (typeof out.value !== 'number') continue;
       if (opts.unit !== undefined && (out.unit ?? '') !== opts.unit) continue;
       if (opts.measure !== undefined && (out.measure ?? 'scalar') !== opts.measure) continue;
-      list.push({ ref: `${b.name}.${key}`, label: `${b.name} · ${out.label}`, formatted: out.formatted, unit: out.unit ?? '' });
+      list.push({
+        ref: `${b.name}.${key}`,
+        label: `${b.name} · ${out.label}`,
+        formatted: out.formatted,
+        unit: out.unit ?? '',
+      });
     }
   }
   return list;

@@ -61,7 +61,9 @@ export function InsertMenu({ entries, anchor, onChoose, onClose }: Props) {
         }}
       />
       <ul id={listId} role="listbox" aria-label="Blocks" className="max-h-72 overflow-y-auto px-1 pb-2">
-        {shown.length === 0 && <li className="px-3 py-2 text-sm text-graphite-soft">Nothing matches “{query}”.</li>}
+        {shown.length === 0 && (
+          <li className="px-3 py-2 text-sm text-graphite-soft">Nothing matches “{query}”.</li>
+        )}
         {shown.map((entry) => (
           <li
             key={entry.key}
@@ -73,7 +75,9 @@ export function InsertMenu({ entries, anchor, onChoose, onClose }: Props) {
             onClick={() => onChoose(entry)}
           >
             <span className="block text-sm font-semibold">{entry.label}</span>
-            <span className={`block text-xs ${entry === current ? 'text-white' : 'text-graphite-soft'}`}>{entry.hint}</span>
+            <span className={`block text-xs ${entry === current ? 'text-white' : 'text-graphite-soft'}`}>
+              {entry.hint}
+            </span>
           </li>
         ))}
       </ul>

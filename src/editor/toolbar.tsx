@@ -10,10 +10,18 @@ interface Props {
   upload: ReactNode;
 }
 
-const button = 'min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep aria-pressed:bg-accent aria-pressed:text-white';
+const button =
+  'min-h-10 rounded border border-rule bg-card px-3 text-sm hover:bg-paper-deep aria-pressed:bg-accent aria-pressed:text-white';
 
 /** Formatting and block buttons above the text; every one is also reachable from the Insert block list. */
-export function Toolbar({ editor, onOpenMenu, onInsertReading, onInsertCheck, onInsertHazard, upload }: Props) {
+export function Toolbar({
+  editor,
+  onOpenMenu,
+  onInsertReading,
+  onInsertCheck,
+  onInsertHazard,
+  upload,
+}: Props) {
   const active = useEditorState({
     editor,
     selector: ({ editor: e }) => ({
@@ -26,20 +34,49 @@ export function Toolbar({ editor, onOpenMenu, onInsertReading, onInsertCheck, on
   });
   const chain = () => editor.chain().focus();
   return (
-    <div role="toolbar" aria-label="Procedure text" className="no-print sticky top-0 z-20 flex flex-wrap items-center gap-1 border-b border-rule bg-paper-deep px-2 py-2">
-      <button type="button" className={`${button} font-bold`} aria-pressed={active.bold} onClick={() => chain().toggleBold().run()}>
+    <div
+      role="toolbar"
+      aria-label="Procedure text"
+      className="no-print sticky top-0 z-20 flex flex-wrap items-center gap-1 border-b border-rule bg-paper-deep px-2 py-2"
+    >
+      <button
+        type="button"
+        className={`${button} font-bold`}
+        aria-pressed={active.bold}
+        onClick={() => chain().toggleBold().run()}
+      >
         Bold
       </button>
-      <button type="button" className={`${button} italic`} aria-pressed={active.italic} onClick={() => chain().toggleItalic().run()}>
+      <button
+        type="button"
+        className={`${button} italic`}
+        aria-pressed={active.italic}
+        onClick={() => chain().toggleItalic().run()}
+      >
         Italic
       </button>
-      <button type="button" className={button} aria-pressed={active.heading} onClick={() => chain().toggleHeading({ level: 2 }).run()}>
+      <button
+        type="button"
+        className={button}
+        aria-pressed={active.heading}
+        onClick={() => chain().toggleHeading({ level: 2 }).run()}
+      >
         Section heading
       </button>
-      <button type="button" className={button} aria-pressed={active.bullets} onClick={() => chain().toggleBulletList().run()}>
+      <button
+        type="button"
+        className={button}
+        aria-pressed={active.bullets}
+        onClick={() => chain().toggleBulletList().run()}
+      >
         Bullets
       </button>
-      <button type="button" className={button} aria-pressed={active.numbers} onClick={() => chain().toggleOrderedList().run()}>
+      <button
+        type="button"
+        className={button}
+        aria-pressed={active.numbers}
+        onClick={() => chain().toggleOrderedList().run()}
+      >
         Numbered
       </button>
       <span className="mx-1 h-8 w-px bg-rule" aria-hidden />
@@ -56,7 +93,12 @@ export function Toolbar({ editor, onOpenMenu, onInsertReading, onInsertCheck, on
         Hazard note
       </button>
       {upload}
-      <button type="button" className={`${button} ml-auto font-semibold`} onClick={() => onOpenMenu()} aria-keyshortcuts="Control+K">
+      <button
+        type="button"
+        className={`${button} ml-auto font-semibold`}
+        onClick={() => onOpenMenu()}
+        aria-keyshortcuts="Control+K"
+      >
         Insert block <kbd className="value text-xs">Ctrl K</kbd>
       </button>
     </div>

@@ -37,14 +37,24 @@ export interface WriteOptions {
   madeBy?: Person | null;
 }
 
-async function request<T>(method: string, url: string, body?: Json, opts: WriteOptions & { retried?: boolean } = {}): Promise<T> {
+async function request<T>(
+  method: string,
+  url: string,
+  body?: Json,
+  opts: WriteOptions & { retried?: boolean } = {},
+): Promise<T> {
   const madeBy = opts.madeBy === undefined ? tokenOwner : opts.madeBy;
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
   if (method !== 'GET') headers['X-CSRF-Token'] = csrfToken;
   let res: Response;
   try {
-    res = await fetch(url, { method, headers, body: body === undefined ? undefined : JSON.stringify(body), credentials: 'same-origin' });
+    res = await fetch(url, {
+      method,
+      headers,
+      body: body === undefined ? undefined : JSON.stringify(body),
+      credentials: 'same-origin',
+    });
   } catch {
     throw new ApiError(0, 'Cannot reach the Benchwright server. Check the connection and try again.');
   }
@@ -57,11 +67,16 @@ async function request<T>(method: string, url: string, body?: Json, opts: WriteO
     const session = await request<{ user: Person | null }>('GET', '/api/auth/session');
     if (madeBy && session.user && session.user.id !== madeBy.id) {
       const now = session.user.displayName;
-      throw new ApiError(403, `Signed in as ${now}; this was done by ${madeBy.displayName} — sign in as ${madeBy.displayName} to send it.`, [], {
-        code: 'session-changed',
-        signedInAs: { id: session.user.id, displayName: now },
-        madeBy,
-      });
+      throw new ApiError(
+        403,
+        `Signed in as ${now}; this was done by ${madeBy.displayName} — sign in as ${madeBy.displayName} to send it.`,
+        [],
+        {
+          code: 'session-changed',
+          signedInAs: { id: session.user.id, displayName: now },
+          madeBy,
+        },
+      );
     }
     return request<T>(method, url, body, { madeBy, retried: true });
   }

@@ -6,7 +6,8 @@ import { ApiError } from './api-client';
  * the layout sends them to their account page to set one up.
  */
 const followEnrolment = (err: unknown) => {
-  if (err instanceof ApiError && err.body.code === 'second-factor-enrolment') void queryClient.invalidateQueries({ queryKey: ['session'] });
+  if (err instanceof ApiError && err.body.code === 'second-factor-enrolment')
+    void queryClient.invalidateQueries({ queryKey: ['session'] });
 };
 
 /** The one query cache; route loaders warm it so data and code load side by side. */

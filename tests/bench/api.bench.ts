@@ -32,12 +32,14 @@ const url = await prepareDatabase(cluster, 'benchwright_bench_api');
 
 // 2,000 generated procedures as approved revisions, each with its text as paragraphs.
 // The demo procedures' approved revisions (with readings) are noted first, for the write mix.
-let demoRevisionIds: string[] = [];
+let demoRevisionIds: string[];
 {
   // Set-up as the owner (ANALYZE needs it); the app itself connects as the application role.
   const pool = createPool(cluster.urlFor('benchwright_bench_api'));
   const db = createDb(pool);
-  demoRevisionIds = (await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.state, 'approved'))).map((r) => r.id);
+  demoRevisionIds = (
+    await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.state, 'approved'))
+  ).map((r) => r.id);
   const started = Date.now();
   for (const p of generateCorpus(2_000, 7)) {
     await procedureInState(db, 'approved', {
@@ -45,7 +47,12 @@ let demoRevisionIds: string[] = [];
       equipmentFamily: p.family,
       equipmentModel: p.model,
       tags: p.tags,
-      document: { type: 'doc', content: p.body.split('\n').map((line) => ({ type: 'paragraph', content: [{ type: 'text', text: line }] })) },
+      document: {
+        type: 'doc',
+        content: p.body
+          .split('\n')
+          .map((line) => ({ type: 'paragraph', content: [{ type: 'text', text: line }] })),
+      },
     });
   }
   await pool.query('ANALYZE');
@@ -55,7 +62,11 @@ let demoRevisionIds: string[] = [];
 
 /** Starts a script in its own Node process and waits for its "READY <url>" line. */
 function startProcess(script: string, env: Record<string, string> = {}, nodeArgs: string[] = []) {
-  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], { cwd: projectRoot, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', script], {
+    cwd: projectRoot,
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   return new Promise<{ child: ChildProcess; url: string }>((resolve, reject) => {
     let out = '';
     const onData = (chunk: Buffer) => {
@@ -78,14 +89,22 @@ const stopProcess = (child: ChildProcess) =>
   });
 
 // BENCH_PROFILE=<dir> writes a V8 CPU profile of the app process there, for finding what to fix.
-const profile = process.env.BENCH_PROFILE ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`] : [];
+const profile = process.env.BENCH_PROFILE
+  ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE}`]
+  : [];
 // The app logs each request at info, as in production; the lines are read and dropped here.
-const app = await startProcess('tests/support/server-process.ts', { DATABASE_URL: url, LOG_LEVEL: 'info' }, profile);
+const app = await startProcess(
+  'tests/support/server-process.ts',
+  { DATABASE_URL: url, LOG_LEVEL: 'info' },
+  profile,
+);
 const bare = await startProcess('tests/bench/bare-server.ts');
 const tech = httpSession(app.url);
 await tech.signIn('tom@tallowcreek.example', 'tallow-bench-demo');
 const cookie = tech.cookieHeader();
-const list = (await tech.get('/api/procedures?limit=200')).body as { procedures: { approved: { id: string } | null }[] };
+const list = (await tech.get('/api/procedures?limit=200')).body as {
+  procedures: { approved: { id: string } | null }[];
+};
 const readerIds = list.procedures.flatMap((p) => (p.approved ? [p.approved.id] : []));
 const pick = <T>(xs: T[]) => xs[Math.floor(Math.random() * xs.length)]!;
 const QUERIES = ['B+ reservoir', 'slow-blow fuse', 'heater 6.3 V', 'bleeder', 'xfmr'];
@@ -105,21 +124,40 @@ type Step = { id: string; kind: string; reading?: { expected: number | null } };
 const headers = { 'content-type': 'application/json', cookie, 'x-csrf-token': tech.csrfToken() };
 const approvedWithReadings: { revisionId: string; readings: Step[]; hazards: Step[] }[] = [];
 async function startRunOn(revisionId: string) {
-  const unit = await tech.post('/api/units', { model: 'TC-30H', serial: `BENCH-${randomUUID().slice(0, 8)}`, owner: 'Bench', jobNumber: 'J-0' });
-  const started = await tech.post('/api/runs', { revisionId, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
+  const unit = await tech.post('/api/units', {
+    model: 'TC-30H',
+    serial: `BENCH-${randomUUID().slice(0, 8)}`,
+    owner: 'Bench',
+    jobNumber: 'J-0',
+  });
+  const started = await tech.post('/api/runs', {
+    revisionId,
+    unitId: (unit.body.unit as { id: string }).id,
+    mainsVoltage: 230,
+    mainsFrequency: 50,
+  });
   if (started.status !== 201) throw new Error(`bench run did not start: ${started.status}`);
   return started.body.run as { id: string; steps: Step[] };
 }
 for (const revisionId of demoRevisionIds) {
   const steps = (await startRunOn(revisionId)).steps;
-  if (steps.some((s) => s.kind === 'reading')) approvedWithReadings.push({ revisionId, readings: steps.filter((s) => s.kind === 'reading'), hazards: steps.filter((s) => s.kind === 'hazard') });
+  if (steps.some((s) => s.kind === 'reading'))
+    approvedWithReadings.push({
+      revisionId,
+      readings: steps.filter((s) => s.kind === 'reading'),
+      hazards: steps.filter((s) => s.kind === 'hazard'),
+    });
 }
 const writeTargets: { runId: string; step: Step }[] = [];
 for (let i = 0; i < WRITE_RUNS && approvedWithReadings.length; i++) {
   const proc = approvedWithReadings[i % approvedWithReadings.length]!;
   const run = await startRunOn(proc.revisionId);
   for (const h of proc.hazards) {
-    const ack = await fetch(`${app.url}/api/runs/${run.id}/entries/${h.id}`, { method: 'PUT', headers, body: JSON.stringify({ key: randomUUID(), done: true }) });
+    const ack = await fetch(`${app.url}/api/runs/${run.id}/entries/${h.id}`, {
+      method: 'PUT',
+      headers,
+      body: JSON.stringify({ key: randomUUID(), done: true }),
+    });
     if (ack.status !== 200) throw new Error(`hazard note not acknowledged: ${ack.status}`);
   }
   for (const step of proc.readings) writeTargets.push({ runId: run.id, step });
@@ -128,7 +166,10 @@ let writeN = 0;
 const nextWrite = () => {
   const t = writeTargets[writeN++ % writeTargets.length]!;
   const value = (t.step.reading?.expected ?? 10) * (1 + (writeN % 13) / 1000);
-  return { path: `/api/runs/${t.runId}/entries/${t.step.id}`, body: JSON.stringify({ key: randomUUID(), value, reason: 'bench: reading taken again' }) };
+  return {
+    path: `/api/runs/${t.runId}/entries/${t.step.id}`,
+    body: JSON.stringify({ key: randomUUID(), value, reason: 'bench: reading taken again' }),
+  };
 };
 
 // Each request alone: the median of serial calls, after a few to warm up.
@@ -144,40 +185,69 @@ async function serial(label: string, call: () => Promise<Response>) {
     if (i >= 5) times.push(performance.now() - t0);
     bytes = body.byteLength;
   }
-  console.log(`  ${label.padEnd(28)} ${median(times).toFixed(2).padStart(6)} ms   ${(bytes / 1024).toFixed(1).padStart(6)} kB`);
+  console.log(
+    `  ${label.padEnd(28)} ${median(times).toFixed(2).padStart(6)} ms   ${(bytes / 1024).toFixed(1).padStart(6)} kB`,
+  );
 }
 console.log(`\nEach request alone — median of ${SERIAL_CALLS} serial calls, response size`);
-for (const [label, path] of Object.entries(readPaths)) await serial(label, () => fetch(app.url + path(), { headers: { cookie } }));
-await serial('list filters (facets)', () => fetch(`${app.url}/api/procedures/facets`, { headers: { cookie } }));
-if (writeTargets.length) await serial('bench-run entry write', () => {
-  const w = nextWrite();
-  return fetch(app.url + w.path, { method: 'PUT', headers, body: w.body });
-});
+for (const [label, path] of Object.entries(readPaths))
+  await serial(label, () => fetch(app.url + path(), { headers: { cookie } }));
+await serial('list filters (facets)', () =>
+  fetch(`${app.url}/api/procedures/facets`, { headers: { cookie } }),
+);
+if (writeTargets.length)
+  await serial('bench-run entry write', () => {
+    const w = nextWrite();
+    return fetch(app.url + w.path, { method: 'PUT', headers, body: w.body });
+  });
 // The floor of every signed-in request: security headers, request log, session, person, CSRF.
-await serial('signed-in floor (session)', () => fetch(`${app.url}/api/auth/session`, { headers: { cookie } }));
+await serial('signed-in floor (session)', () =>
+  fetch(`${app.url}/api/auth/session`, { headers: { cookie } }),
+);
 await serial('bare Express fixed JSON', () => fetch(`${bare.url}/fixed`));
 
 type Result = autocannon.Result;
 const pgPids = () => clusterPids(cluster.dataDir);
 async function load(title: string, target: string, opts: Partial<autocannon.Options>) {
-  const meter = cpuMeter({ server: () => [target === bare.url ? bare.child.pid! : app.child.pid!], postgres: pgPids, generator: () => [process.pid] });
+  const meter = cpuMeter({
+    server: () => [target === bare.url ? bare.child.pid! : app.child.pid!],
+    postgres: pgPids,
+    generator: () => [process.pid],
+  });
   const result = await new Promise<Result>((resolve, reject) =>
-    autocannon({ url: target, connections: CONNECTIONS, duration: DURATION_S, title, ...opts } as autocannon.Options, (err, res) => (err ? reject(err) : resolve(res))),
+    autocannon(
+      { url: target, connections: CONNECTIONS, duration: DURATION_S, title, ...opts } as autocannon.Options,
+      (err, res) => (err ? reject(err) : resolve(res)),
+    ),
   );
   return { result, cpu: meter.stop() };
 }
 
 const reads = await load('reads', app.url, {
   headers: { cookie },
-  requests: Object.values(readPaths).map((path) => ({ method: 'GET' as const, setupRequest: (req: autocannon.Request) => ({ ...req, path: path() }) })),
+  requests: Object.values(readPaths).map((path) => ({
+    method: 'GET' as const,
+    setupRequest: (req: autocannon.Request) => ({ ...req, path: path() }),
+  })),
 });
 // BENCH_EACH=1 also loads each read alone, to see which one holds the mix back.
 const each: [string, Awaited<ReturnType<typeof load>>][] = [];
-for (const [label, path] of process.env.BENCH_EACH ? [...Object.entries(readPaths), ['signed-in floor (session)', () => '/api/auth/session'] as const] : []) {
-  each.push([label, await load(label, app.url, { headers: { cookie }, requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }] })]);
+for (const [label, path] of process.env.BENCH_EACH
+  ? [...Object.entries(readPaths), ['signed-in floor (session)', () => '/api/auth/session'] as const]
+  : []) {
+  each.push([
+    label,
+    await load(label, app.url, {
+      headers: { cookie },
+      requests: [{ method: 'GET', setupRequest: (req) => ({ ...req, path: path() }) }],
+    }),
+  ]);
 }
 const writes = writeTargets.length
-  ? await load('writes', app.url, { headers, requests: [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...nextWrite() }) }] })
+  ? await load('writes', app.url, {
+      headers,
+      requests: [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...nextWrite() }) }],
+    })
   : undefined;
 const ceiling = await load('bare', bare.url, { url: `${bare.url}/fixed` });
 
@@ -185,24 +255,36 @@ const line = (label: string, { result: r, cpu }: { result: Result; cpu: Record<s
   console.log(
     `  ${label.padEnd(30)} ${r.requests.average.toFixed(0).padStart(6)} req/s   p50 ${String(r.latency.p50).padStart(4)} ms   p99 ${String(r.latency.p99).padStart(4)} ms   errors ${r.errors + r.timeouts}   non-2xx ${r.non2xx}   CPU server ${cpu.server!.toFixed(0)} %, PostgreSQL ${cpu.postgres!.toFixed(0)} %, generator ${cpu.generator!.toFixed(0)} %`,
   );
-console.log(`\nUnder load — ${CONNECTIONS} connections, ${DURATION_S} s each; Node ${process.version}, ${os.cpus().length} cores, PostgreSQL on loopback (CPU: % of one core)`);
+console.log(
+  `\nUnder load — ${CONNECTIONS} connections, ${DURATION_S} s each; Node ${process.version}, ${os.cpus().length} cores, PostgreSQL on loopback (CPU: % of one core)`,
+);
 line('read mix (reader/list/search)', reads);
 for (const [label, r] of each) line(`  ${label} alone`, r);
 if (writes) line(`write mix (entries, ${WRITE_RUNS} runs)`, writes);
 else console.log('  write mix: no seeded approved procedure with readings; skipped');
 line('bare Express fixed JSON', ceiling);
 const ratio = reads.result.requests.average / ceiling.result.requests.average;
-console.log(`  read throughput / bare: ${ratio.toFixed(2)} (goal ≥ 0.5) — ${ratio >= 0.5 ? 'met' : 'NOT met'}`);
-console.log(`  read p99 ${reads.result.latency.p99} ms (goal < 50 ms) — ${reads.result.latency.p99 < 50 ? 'met' : 'NOT met'}; errors ${reads.result.errors + reads.result.non2xx} (goal 0)`);
+console.log(
+  `  read throughput / bare: ${ratio.toFixed(2)} (goal ≥ 0.5) — ${ratio >= 0.5 ? 'met' : 'NOT met'}`,
+);
+console.log(
+  `  read p99 ${reads.result.latency.p99} ms (goal < 50 ms) — ${reads.result.latency.p99 < 50 ? 'met' : 'NOT met'}; errors ${reads.result.errors + reads.result.non2xx} (goal 0)`,
+);
 if (writes) {
   const pool = createPool(url);
-  const stored = await pool.query<{ n: number }>(`SELECT count(*)::int AS n FROM run_entry_history WHERE reason = 'bench: reading taken again'`);
+  const stored = await pool.query<{ n: number }>(
+    `SELECT count(*)::int AS n FROM run_entry_history WHERE reason = 'bench: reading taken again'`,
+  );
   await pool.end();
   const w = writes.result;
-  console.log(`  write p99 ${w.latency.p99} ms (goal < 500 ms) — ${w.latency.p99 < 500 ? 'met' : 'NOT met'}; errors ${w.errors + w.timeouts + w.non2xx} (goal 0)`);
+  console.log(
+    `  write p99 ${w.latency.p99} ms (goal < 500 ms) — ${w.latency.p99 < 500 ? 'met' : 'NOT met'}; errors ${w.errors + w.timeouts + w.non2xx} (goal 0)`,
+  );
   // Stored = serial probe writes + load 2xx + answers still on the wire when the timer ended.
   const surplus = stored.rows[0]!.n - SERIAL_CALLS - 5 - w['2xx'];
-  console.log(`  entries stored ${stored.rows[0]!.n} for ${w['2xx']} counted 2xx + ${SERIAL_CALLS + 5} serial (${surplus >= 0 && surplus <= CONNECTIONS ? 'consistent' : 'INCONSISTENT'}: surplus ${surplus} ≤ ${CONNECTIONS} cut off at the end)`);
+  console.log(
+    `  entries stored ${stored.rows[0]!.n} for ${w['2xx']} counted 2xx + ${SERIAL_CALLS + 5} serial (${surplus >= 0 && surplus <= CONNECTIONS ? 'consistent' : 'INCONSISTENT'}: surplus ${surplus} ≤ ${CONNECTIONS} cut off at the end)`,
+  );
 }
 
 await Promise.all([stopProcess(app.child), stopProcess(bare.child)]);

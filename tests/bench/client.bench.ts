@@ -30,12 +30,28 @@ const output = (await build({
 })) as Rollup.RollupOutput | Rollup.RollupOutput[];
 console.log(`client built into dist/client-bench in ${((Date.now() - started) / 1000).toFixed(1)} s`);
 
-type ManifestChunk = { file: string; src?: string; isEntry?: boolean; imports?: string[]; dynamicImports?: string[] };
-const manifest = JSON.parse(readFileSync(path.join(OUT_DIR, '.vite', 'manifest.json'), 'utf8')) as Record<string, ManifestChunk>;
+type ManifestChunk = {
+  file: string;
+  src?: string;
+  isEntry?: boolean;
+  imports?: string[];
+  dynamicImports?: string[];
+};
+const manifest = JSON.parse(readFileSync(path.join(OUT_DIR, '.vite', 'manifest.json'), 'utf8')) as Record<
+  string,
+  ManifestChunk
+>;
 
 // Chunks holding TipTap code, from the bundler's own module lists (minified code has no names).
 const outputs = (Array.isArray(output) ? output : [output]).flatMap((o) => o.output);
-const editorFiles = new Set(outputs.filter((c): c is Rollup.OutputChunk => c.type === 'chunk' && c.moduleIds.some((id) => id.includes('/node_modules/@tiptap/'))).map((c) => c.fileName));
+const editorFiles = new Set(
+  outputs
+    .filter(
+      (c): c is Rollup.OutputChunk =>
+        c.type === 'chunk' && c.moduleIds.some((id) => id.includes('/node_modules/@tiptap/')),
+    )
+    .map((c) => c.fileName),
+);
 
 /** The files a manifest key loads: itself and its static imports, transitively. */
 function staticClosure(key: string, into = new Set<string>()) {
@@ -74,10 +90,15 @@ for (const [label, module, budget] of routes) {
   const total = js.reduce((a, f) => a + gzipOf(f), 0) / KB;
   const hasEditor = js.some((f) => editorFiles.has(f));
   const editingRoute = module.endsWith('edit-revision.tsx');
-  const goals = [budget ? `≤ ${budget} kB ${total <= budget ? 'ok' : 'OVER'}` : '', hasEditor !== editingRoute ? (hasEditor ? 'editor loaded here: NOT OK' : 'editor missing?') : ''].filter(Boolean);
+  const goals = [
+    budget ? `≤ ${budget} kB ${total <= budget ? 'ok' : 'OVER'}` : '',
+    hasEditor !== editingRoute ? (hasEditor ? 'editor loaded here: NOT OK' : 'editor missing?') : '',
+  ].filter(Boolean);
   if (budget && total > budget) failures.push(`${label} ${total.toFixed(1)} kB > ${budget} kB`);
   if (hasEditor && !editingRoute) failures.push(`${label} loads the editor`);
-  console.log(`  ${label.padEnd(22)} ${`${total.toFixed(1)} kB`.padStart(9)} ${`${(total - entryKb).toFixed(1)} kB`.padStart(11)}  ${(hasEditor ? 'yes' : 'no').padEnd(7)}  ${goals.join('; ')}`);
+  console.log(
+    `  ${label.padEnd(22)} ${`${total.toFixed(1)} kB`.padStart(9)} ${`${(total - entryKb).toFixed(1)} kB`.padStart(11)}  ${(hasEditor ? 'yes' : 'no').padEnd(7)}  ${goals.join('; ')}`,
+  );
 }
 
 // ── time to the reader's main content, cold cache ─────────────────────────
@@ -85,17 +106,26 @@ const cluster = startCluster({ name: 'bench-client', port: 54497, projectRoot })
 const server = await (async () => {
   await recreateDatabase(cluster.adminUrl, 'benchwright_bench_client');
   const url = await prepareDatabase(cluster, 'benchwright_bench_client');
-  return startServer({ databaseUrl: url, port: 0, logger: createLogger('warn'), config: { sessionSecret: 'bench-client'.padEnd(40, 'x'), clientDir: OUT_DIR } });
+  return startServer({
+    databaseUrl: url,
+    port: 0,
+    logger: createLogger('warn'),
+    config: { sessionSecret: 'bench-client'.padEnd(40, 'x'), clientDir: OUT_DIR },
+  });
 })();
 const browser = await launchBrowser();
 try {
   const tech = httpSession(server.url);
-  if ((await tech.signIn('tom@tallowcreek.example', 'tallow-bench-demo')).status !== 200) throw new Error('sign-in failed');
-  const list = (await tech.get('/api/procedures')).body as { procedures: { approved: { id: string } | null }[] };
+  if ((await tech.signIn('tom@tallowcreek.example', 'tallow-bench-demo')).status !== 200)
+    throw new Error('sign-in failed');
+  const list = (await tech.get('/api/procedures')).body as {
+    procedures: { approved: { id: string } | null }[];
+  };
   const revisionId = list.procedures.find((p) => p.approved)!.approved!.id;
   const revision = (await tech.get(`/api/revisions/${revisionId}`)).body as { revision?: { title: string } };
   const title = revision.revision?.title;
-  if (!title) throw new Error(`could not read the revision's title: ${JSON.stringify(revision).slice(0, 200)}`);
+  if (!title)
+    throw new Error(`could not read the revision's title: ${JSON.stringify(revision).slice(0, 200)}`);
   const [name, value] = tech.cookieHeader().split('=') as [string, string];
 
   const times: number[] = [];
@@ -107,7 +137,10 @@ try {
     await page.goto(`${server.url}/revisions/${revisionId}`, { waitUntil: 'commit', timeout: 10_000 });
     // performance.now() counts from the navigation's start, so this is navigation → heading in the page.
     const at = await page.waitForFunction(
-      (t) => ([...document.querySelectorAll('h1')].some((h) => h.textContent?.includes(t)) ? performance.now() : false),
+      (t) =>
+        [...document.querySelectorAll('h1')].some((h) => h.textContent?.includes(t))
+          ? performance.now()
+          : false,
       title,
       { polling: 'raf', timeout: 10_000 },
     );
@@ -115,20 +148,33 @@ try {
     // Where the time went, once: the page's own resource timings (the chain html → JS → API).
     if (i === LOAD_RUNS - 1) {
       const entries = await page.evaluate(() =>
-        performance.getEntriesByType('resource').map((e) => ({ name: new URL(e.name).pathname, start: e.startTime, end: (e as PerformanceResourceTiming).responseEnd })),
+        performance
+          .getEntriesByType('resource')
+          .map((e) => ({
+            name: new URL(e.name).pathname,
+            start: e.startTime,
+            end: (e as PerformanceResourceTiming).responseEnd,
+          })),
       );
-      const nav = await page.evaluate(() => (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming).responseEnd);
+      const nav = await page.evaluate(
+        () => (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming).responseEnd,
+      );
       console.log(`
 last run's timeline (ms from navigation): document ${nav.toFixed(0)}`);
-      for (const e of entries.filter((x) => /\.js$|^\/api\//.test(x.name))) console.log(`  ${e.start.toFixed(0).padStart(5)} → ${e.end.toFixed(0).padStart(5)}  ${e.name}`);
+      for (const e of entries.filter((x) => /\.js$|^\/api\//.test(x.name)))
+        console.log(`  ${e.start.toFixed(0).padStart(5)} → ${e.end.toFixed(0).padStart(5)}  ${e.name}`);
     }
     await context.close();
   }
   const sorted = [...times].sort((a, b) => a - b);
   const median = sorted[Math.floor(sorted.length / 2)]!;
-  console.log(`\nProcedure reader, cold cache, navigation → title heading visible (${LOAD_RUNS} runs, Chromium headless, loopback)`);
+  console.log(
+    `\nProcedure reader, cold cache, navigation → title heading visible (${LOAD_RUNS} runs, Chromium headless, loopback)`,
+  );
   console.log(`  runs ${times.map((t) => t.toFixed(0)).join(', ')} ms`);
-  console.log(`  median ${median.toFixed(0)} ms, max ${sorted.at(-1)!.toFixed(0)} ms (goal ≤ 1000 ms ${median <= 1000 ? 'ok' : 'OVER'})`);
+  console.log(
+    `  median ${median.toFixed(0)} ms, max ${sorted.at(-1)!.toFixed(0)} ms (goal ≤ 1000 ms ${median <= 1000 ? 'ok' : 'OVER'})`,
+  );
   if (median > 1000) failures.push(`reader median ${median.toFixed(0)} ms > 1000 ms`);
 } finally {
   await browser.close();

@@ -39,7 +39,9 @@ export function cpuMeter(groups: Record<string, () => number[]>) {
   return {
     stop(): Record<string, number> {
       const wall = (Date.now() - started) / 1000;
-      return Object.fromEntries(Object.entries(groups).map(([k, pids]) => [k, (100 * (sum(pids()) - before[k]!)) / wall]));
+      return Object.fromEntries(
+        Object.entries(groups).map(([k, pids]) => [k, (100 * (sum(pids()) - before[k]!)) / wall]),
+      );
     },
   };
 }

@@ -47,11 +47,23 @@ function procedure(i: number): ProcedureBlock[] {
   for (let c = 0; c < 5; c++) {
     const p = (s: string) => `c${c}_${s}`;
     blocks.push(
-      { name: p('peak'), kind: 'peak-no-load', inputs: { windingVoltage: 290 + c, mainsActual: { param: 'mainsVoltage' }, mainsNominal: { param: 'mainsNominal' } } },
+      {
+        name: p('peak'),
+        kind: 'peak-no-load',
+        inputs: {
+          windingVoltage: 290 + c,
+          mainsActual: { param: 'mainsVoltage' },
+          mainsNominal: { param: 'mainsNominal' },
+        },
+      },
       {
         name: p('bplus'),
         kind: 'loaded-bplus',
-        inputs: { ...loaded(i + c), windingVoltage: { ref: `${p('peak')}.windingVoltage` }, mainsFrequency: { param: 'mainsFrequency' } },
+        inputs: {
+          ...loaded(i + c),
+          windingVoltage: { ref: `${p('peak')}.windingVoltage` },
+          mainsFrequency: { param: 'mainsFrequency' },
+        },
       },
       {
         name: p('ladder'),
@@ -71,17 +83,33 @@ function procedure(i: number): ProcedureBlock[] {
         kind: 'mains-fuse',
         inputs: {
           windings: [
-            { volts: { ref: `${p('peak')}.windingVoltage` }, amps: { ref: `${p('bplus')}.windingRmsCurrent` } },
+            {
+              volts: { ref: `${p('peak')}.windingVoltage` },
+              amps: { ref: `${p('bplus')}.windingRmsCurrent` },
+            },
             { volts: '6.3 V', amps: '2.1 A' },
           ],
           mainsVoltage: { param: 'mainsVoltage' },
         },
       },
-      { name: p('bleed'), kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: `${p('peak')}.noLoadDcHigh` }, bleederResistance: '220k' } },
+      {
+        name: p('bleed'),
+        kind: 'bleeder',
+        inputs: {
+          capacitance: '47u',
+          chargedVoltage: { ref: `${p('peak')}.noLoadDcHigh` },
+          bleederResistance: '220k',
+        },
+      },
       {
         name: p('reading'),
         kind: 'reading-tolerance',
-        inputs: { unit: 'V', expected: { ref: `${p('ladder')}.stage1.nodeVoltage` }, tolerance: '±10 %', measured: 318 + (i % 3) },
+        inputs: {
+          unit: 'V',
+          expected: { ref: `${p('ladder')}.stage1.nodeVoltage` },
+          tolerance: '±10 %',
+          measured: 318 + (i % 3),
+        },
       },
     );
   }

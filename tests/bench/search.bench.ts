@@ -14,13 +14,46 @@ import { generateCorpus, PLANTED } from '../support/search-corpus';
 const CORPUS_SIZE = 10_000;
 const ROUNDS = 20;
 const QUERIES = [
-  'B+ reservoir', 'HT rail check', 'plate supply', 'heater 6.3 V', 'filament winding', 'slow-blow fuse', 'T fuse 1.6 A',
-  'time-delay fuse inrush', '47uF cap', '100 µF capacitor', 'xfmr overheating', 'transformer varnish', 'bleeder retrofit',
-  'dropping resistor 4.7 kΩ', 'ripple first filter node', 'series lamp first power-up', 'rectifier valve flashover',
-  'bias check output stage', 'hum and ripple', 'recap reservoir', 'guitar amplifier fuse', 'table radio rectifier',
-  'communications receiver heater', 'organ amplifier B+', 'discharge below 60 V', 'AB-1234', 'QX-555 bleeder', 'mains inlet',
-  'output xfmr squeal', 'restuff can capacitor', 'transfromer rewind', 'reservior capacitor', 'bleder', 'heatr winding',
-  'soft start thermistor', 'primary current', 'dropper ladder B+2', 'loaded B+ 410 V', 'fuse 800 mA', 'public address recap',
+  'B+ reservoir',
+  'HT rail check',
+  'plate supply',
+  'heater 6.3 V',
+  'filament winding',
+  'slow-blow fuse',
+  'T fuse 1.6 A',
+  'time-delay fuse inrush',
+  '47uF cap',
+  '100 µF capacitor',
+  'xfmr overheating',
+  'transformer varnish',
+  'bleeder retrofit',
+  'dropping resistor 4.7 kΩ',
+  'ripple first filter node',
+  'series lamp first power-up',
+  'rectifier valve flashover',
+  'bias check output stage',
+  'hum and ripple',
+  'recap reservoir',
+  'guitar amplifier fuse',
+  'table radio rectifier',
+  'communications receiver heater',
+  'organ amplifier B+',
+  'discharge below 60 V',
+  'AB-1234',
+  'QX-555 bleeder',
+  'mains inlet',
+  'output xfmr squeal',
+  'restuff can capacitor',
+  'transfromer rewind',
+  'reservior capacitor',
+  'bleder',
+  'heatr winding',
+  'soft start thermistor',
+  'primary current',
+  'dropper ladder B+2',
+  'loaded B+ 410 V',
+  'fuse 800 mA',
+  'public address recap',
 ];
 
 const pct = (xs: number[], p: number) => {
@@ -31,7 +64,9 @@ const mb = (bytes: number) => (bytes / 1024 / 1024).toFixed(1);
 const gc = () => (globalThis as { gc?: () => void }).gc?.();
 
 const corpus = [...generateCorpus(CORPUS_SIZE - PLANTED.length), ...PLANTED];
-console.log(`Search benchmark — ${corpus.length} procedures, ${QUERIES.length} queries × ${ROUNDS} rounds, Node ${process.version}`);
+console.log(
+  `Search benchmark — ${corpus.length} procedures, ${QUERIES.length} queries × ${ROUNDS} rounds, Node ${process.version}`,
+);
 
 // ── in-process index ────────────────────────────────────────────────────────
 gc();
@@ -102,7 +137,8 @@ await client.end();
 stopCluster(cluster.dataDir);
 
 // ── report ──────────────────────────────────────────────────────────────────
-const row = (label: string, a: string, b: string) => console.log(`  ${label.padEnd(28)} ${a.padStart(14)} ${b.padStart(16)}`);
+const row = (label: string, a: string, b: string) =>
+  console.log(`  ${label.padEnd(28)} ${a.padStart(14)} ${b.padStart(16)}`);
 console.log('');
 row('', 'in-process', 'PostgreSQL FTS');
 row('index build', `${buildMs.toFixed(0)} ms`, `${pgBuildMs.toFixed(0)} ms`);
@@ -113,5 +149,9 @@ row('queries with any result', `${memHits}/${QUERIES.length}`, `${pgHits}/${QUER
 console.log('');
 console.log(`  p50 ratio PostgreSQL / in-process: ${(pct(pgLat, 50) / pct(memLat, 50)).toFixed(1)} ×`);
 console.log(`  p95 ratio PostgreSQL / in-process: ${(pct(pgLat, 95) / pct(memLat, 95)).toFixed(1)} ×`);
-console.log(`  goals: in-process p95 < 2 ms: ${pct(memLat, 95) < 2 ? 'met' : 'NOT MET'}; build < 3 s: ${buildMs < 3000 ? 'met' : 'NOT MET'}`);
-console.log('  (PostgreSQL times include the loopback round trip; typo-tolerant matching exists only in-process.)');
+console.log(
+  `  goals: in-process p95 < 2 ms: ${pct(memLat, 95) < 2 ? 'met' : 'NOT MET'}; build < 3 s: ${buildMs < 3000 ? 'met' : 'NOT MET'}`,
+);
+console.log(
+  '  (PostgreSQL times include the loopback round trip; typo-tolerant matching exists only in-process.)',
+);

@@ -27,8 +27,14 @@ afterAll(async () => {
 });
 
 /** A structured block by its exact heading ("Reading", "Reckoner · Mains fuse"). */
-const block = (title: string) => page.locator('.bw-block', { has: page.locator('[data-drag-handle]', { hasText: new RegExp(`^${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`) }) });
-const output = (scope: ReturnType<typeof block>, key: string) => scope.locator(`[data-output="${key}"] dd.value`);
+const block = (title: string) =>
+  page.locator('.bw-block', {
+    has: page.locator('[data-drag-handle]', {
+      hasText: new RegExp(`^${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`),
+    }),
+  });
+const output = (scope: ReturnType<typeof block>, key: string) =>
+  scope.locator(`[data-output="${key}"] dd.value`);
 
 async function insertBlock(filter: string) {
   await page.keyboard.press('Control+k');
@@ -97,19 +103,28 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     await reading.getByLabel('Expected value: source').selectOption('ref');
     await reading.getByLabel('Expected value', { exact: true }).selectOption('bplus.averageDc');
     await reading.getByLabel('Tolerance').fill('±10 %');
-    await expect.poll(() => reading.locator('[data-reading-band]').textContent()).toMatch(/Expected band: 287 V … 351 V/);
+    await expect
+      .poll(() => reading.locator('[data-reading-band]').textContent())
+      .toMatch(/Expected band: 287 V … 351 V/);
   });
 
   it('saves with Ctrl+S, reloads and finds everything as it was left', async () => {
     await page.keyboard.press('Control+s');
     await page.locator('[data-save-state="saved"]').waitFor();
-    expect(await page.getByRole('status').filter({ hasText: /^Saved \d/ }).count()).toBe(1);
+    expect(
+      await page
+        .getByRole('status')
+        .filter({ hasText: /^Saved \d/ })
+        .count(),
+    ).toBe(1);
 
     await page.goto(editUrl);
     await page.getByRole('textbox', { name: 'Procedure text' }).waitFor();
     expect(await page.getByText('This device kept unsaved work').count()).toBe(0);
     const fuse = block('Reckoner · Mains fuse');
-    expect(await fuse.getByLabel('Winding current (AC rms), row 1', { exact: true }).inputValue()).toBe('500m');
+    expect(await fuse.getByLabel('Winding current (AC rms), row 1', { exact: true }).inputValue()).toBe(
+      '500m',
+    );
     await expect.poll(() => output(fuse, 'fuseDesignation').textContent()).toBe('T 800 mA');
     const bplus = block('Reckoner · Loaded B+');
     expect(await bplus.getByLabel('Block name').inputValue()).toBe('bplus');
@@ -125,7 +140,9 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     // 319 V with no hazard note in the section: the check names the loaded-B+ block.
     const warning = page.locator('[data-procedure-check] button').filter({ hasText: 'bplus' }).first();
     await warning.click();
-    const focused = await page.evaluate(() => document.activeElement?.closest('[data-block-id]')?.textContent ?? '');
+    const focused = await page.evaluate(
+      () => document.activeElement?.closest('[data-block-id]')?.textContent ?? '',
+    );
     expect(focused).toContain('Loaded B+');
   });
 
@@ -178,7 +195,9 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     expect(await block('Check step').first().getByLabel('Verified below').inputValue()).toBe('60 V');
     expect(await block('Check step').last().getByLabel('Live work (unit powered)').isChecked()).toBe(true);
     expect(await page.locator('.hazard-note').last().getByLabel('Work one hand only').isChecked()).toBe(true);
-    expect(await page.locator('.hazard-note').last().getByLabel('Current-limited', { exact: false }).isChecked()).toBe(false);
+    expect(
+      await page.locator('.hazard-note').last().getByLabel('Current-limited', { exact: false }).isChecked(),
+    ).toBe(false);
   });
 
   it('the reader shows the stored results without downloading the editor', async () => {
@@ -198,7 +217,10 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     await reader.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
     await reader.goto(revisionUrl);
     await reader.getByRole('heading', { name: 'TC-18 first power-up after recap' }).waitFor();
-    await reader.locator('[data-reckoner="mainsFuse"] [data-output="fuseDesignation"] dd').filter({ hasText: 'T 800 mA' }).waitFor();
+    await reader
+      .locator('[data-reckoner="mainsFuse"] [data-output="fuseDesignation"] dd')
+      .filter({ hasText: 'T 800 mA' })
+      .waitFor();
     await reader.getByRole('cell', { name: '287 V … 351 V' }).waitFor();
     expect(scripts.some((s) => /edit-revision/.test(s))).toBe(false);
     expect(loadedScripts.some((s) => /edit-revision/.test(s))).toBe(true);
@@ -215,7 +237,9 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     expect(await block('Reading').getByLabel('Tolerance').inputValue()).toBe('±10 %');
     await page.getByRole('button', { name: 'Restore it' }).click();
     expect(await block('Reading').getByLabel('Tolerance').inputValue()).toBe('±5 %');
-    await expect.poll(() => block('Reading').locator('[data-reading-band]').textContent()).toMatch(/303 V … 335 V/);
+    await expect
+      .poll(() => block('Reading').locator('[data-reading-band]').textContent())
+      .toMatch(/303 V … 335 V/);
     await page.locator('[data-save-state="saved"]').waitFor({ timeout: 10_000 });
   });
 

@@ -24,7 +24,9 @@ async function signOut(page: Page) {
 async function entriesOf(page: Page, runId: string) {
   const res = await page.request.get(`${app.url}/api/runs/${runId}`);
   expect(res.status()).toBe(200);
-  return ((await res.json()) as { run: { entries: { stepId: string; enteredBy: { displayName: string } }[] } }).run.entries;
+  return (
+    (await res.json()) as { run: { entries: { stepId: string; enteredBy: { displayName: string } }[] } }
+  ).run.entries;
 }
 
 let runId = '';
@@ -72,7 +74,12 @@ describe('who a bench run belongs to, in Chromium', () => {
     // The server is reachable again. Tab 1 still holds Tom's stale token; the answer is 403 (CSRF),
     // and the session is now Priya's: the entry must stay queued, saying why, and must not be sent.
     await tab1.unroute(entryUrl);
-    await tab1.getByText('Signed in as Priya Lindqvist; this entry was made by Tom Achterberg — sign in as Tom Achterberg to send it.').first().waitFor({ timeout: 15_000 });
+    await tab1
+      .getByText(
+        'Signed in as Priya Lindqvist; this entry was made by Tom Achterberg — sign in as Tom Achterberg to send it.',
+      )
+      .first()
+      .waitFor({ timeout: 15_000 });
     await tab1.waitForTimeout(5_000); // another round of the queue's retries
     expect(await entriesOf(tab2, runId)).toEqual([]);
     await tab1.getByText('this entry was made by Tom Achterberg').first().waitFor();
@@ -97,7 +104,10 @@ describe('who a bench run belongs to, in Chromium', () => {
     await handover.getByLabel('Reason for the handover').fill('End of my shift; Priya carries on.');
     await handover.getByRole('button', { name: 'Hand over the run' }).click();
     await tom.getByText('Priya Lindqvist is performing this bench run').waitFor();
-    await tom.locator('[data-handover]').getByText('Tom Achterberg handed the run over to Priya Lindqvist').waitFor();
+    await tom
+      .locator('[data-handover]')
+      .getByText('Tom Achterberg handed the run over to Priya Lindqvist')
+      .waitFor();
 
     // Priya's bench: the checklist is hers now; Tom's acknowledgement stays his on the sheet.
     const priya = await app.openPage();
@@ -112,9 +122,18 @@ describe('who a bench run belongs to, in Chromium', () => {
     const marek = httpSession(app.url);
     expect((await marek.signIn(demo.marek.email, demo.marek.password)).status).toBe(200);
     const run = (await marek.get(`/api/runs/${runId}`)).body.run as { revision: { id: string } };
-    const revision = (await marek.get(`/api/revisions/${run.revision.id}`)).body.revision as { procedureId: string };
+    const revision = (await marek.get(`/api/revisions/${run.revision.id}`)).body.revision as {
+      procedureId: string;
+    };
     const reason = 'Wrong bleeder value, do not use.';
-    expect((await marek.post(`/api/procedures/${revision.procedureId}/withdraw`, { password: demo.marek.password, reason })).status).toBe(200);
+    expect(
+      (
+        await marek.post(`/api/procedures/${revision.procedureId}/withdraw`, {
+          password: demo.marek.password,
+          reason,
+        })
+      ).status,
+    ).toBe(200);
     await priya.locator('[data-hold]').getByText(`Reason: ${reason}`).waitFor({ timeout: 10_000 });
     expect(await priya.locator('[data-step-id]').count()).toBe(0);
 

@@ -41,8 +41,12 @@ describe('a bench run in Chromium', () => {
     // 2. Start a run on the approved TC-18 procedure at the mains measured at the bench.
     await page.getByRole('link', { name: 'Start a bench run on this unit' }).click();
     const procedureSelect = page.getByLabel('Approved procedure', { exact: true });
-    await procedureSelect.locator('option', { hasText: 'TC-18 combo: first power-up' }).waitFor({ state: 'attached' });
-    const value = await procedureSelect.locator('option', { hasText: 'TC-18 combo: first power-up' }).getAttribute('value');
+    await procedureSelect
+      .locator('option', { hasText: 'TC-18 combo: first power-up' })
+      .waitFor({ state: 'attached' });
+    const value = await procedureSelect
+      .locator('option', { hasText: 'TC-18 combo: first power-up' })
+      .getAttribute('value');
     await procedureSelect.selectOption(value!);
     await page.getByLabel('Measured mains (V)').fill('236 V');
     await page.getByLabel('Mains frequency (Hz)').fill('50');
@@ -50,7 +54,12 @@ describe('a bench run in Chromium', () => {
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/);
     const runId = page.url().split('/').pop()!;
     await page.locator('[data-progress]').waitFor();
-    const steps = await page.$$eval('[data-step-id]', (els) => els.map((e) => ({ id: (e as HTMLElement).dataset.stepId!, kind: (e as HTMLElement).dataset.stepKind! })));
+    const steps = await page.$$eval('[data-step-id]', (els) =>
+      els.map((e) => ({
+        id: (e as HTMLElement).dataset.stepId!,
+        kind: (e as HTMLElement).dataset.stepKind!,
+      })),
+    );
     const total = steps.length;
     expect(total).toBeGreaterThan(10);
     expect(await progressText(page)).toBe(`0 of ${total} steps`);
@@ -96,7 +105,11 @@ describe('a bench run in Chromium', () => {
       await lastCard.getByRole('textbox', { name: /^Measured:/ }).fill('1');
       await lastCard.getByRole('button', { name: 'Record reading' }).click();
     } else {
-      await lastCard.getByRole('button', { name: last.kind === 'hazard' ? 'I have read this hazard note' : 'Mark as done' }).click();
+      await lastCard
+        .getByRole('button', {
+          name: last.kind === 'hazard' ? 'I have read this hazard note' : 'Mark as done',
+        })
+        .click();
     }
     await lastCard.locator('[data-pending="true"]').waitFor();
     await page.locator('[data-pending-count="1"]').waitFor();
@@ -122,13 +135,20 @@ describe('a bench run in Chromium', () => {
     await page.getByRole('heading', { name: /^Run sheet: TC-18 combo/ }).waitFor();
     await page.locator('[data-run-out]').waitFor();
     await page.locator(`[data-reading-row="${outReading}"] [data-mark="out"]`).waitFor();
-    expect(await page.locator('[data-reading-row]').count()).toBe(steps.filter((s) => s.kind === 'reading').length);
+    expect(await page.locator('[data-reading-row]').count()).toBe(
+      steps.filter((s) => s.kind === 'reading').length,
+    );
     await page.getByText('The stored run content matches the signed hash.').waitFor();
     await page.getByText('Lethal voltages.').first().waitFor();
-    await page.getByRole('img', { name: 'Measured against expected, as a share of each tolerance band' }).waitFor();
+    await page
+      .getByRole('img', { name: 'Measured against expected, as a share of each tolerance band' })
+      .waitFor();
 
     // 6. The PDF for the customer's file.
-    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('link', { name: 'Download PDF' }).click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/^run-sheet-TC-18-TC18-0457-.*\.pdf$/);
     const pdf = await page.request.get(`${app.url}/api/runs/${runId}/sheet.pdf`);
     expect(pdf.status()).toBe(200);

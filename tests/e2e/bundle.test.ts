@@ -37,7 +37,8 @@ function closure(start: string): string[] {
   return [...seen];
 }
 
-const kB = (names: string[]) => (names.reduce((sum, n) => sum + statSync(path.join(assets, n)).size, 0) / 1024).toFixed(1);
+const kB = (names: string[]) =>
+  (names.reduce((sum, n) => sum + statSync(path.join(assets, n)).size, 0) / 1024).toFixed(1);
 const chunkWith = (mark: string) => {
   const hits = [...files].filter(([, code]) => code.includes(mark)).map(([name]) => name);
   expect(hits, `exactly one chunk holds "${mark}"`).toHaveLength(1);
@@ -45,19 +46,26 @@ const chunkWith = (mark: string) => {
 };
 
 beforeAll(() => {
-  if (!existsSync(assets)) throw new Error(`No client build in ${testClientDir}: run the tests through "npm test", which builds it first.`);
-  files = new Map(readdirSync(assets).filter((f) => f.endsWith('.js')).map((f) => [f, readFileSync(path.join(assets, f), 'utf8')]));
+  if (!existsSync(assets))
+    throw new Error(
+      `No client build in ${testClientDir}: run the tests through "npm test", which builds it first.`,
+    );
+  files = new Map(
+    readdirSync(assets)
+      .filter((f) => f.endsWith('.js'))
+      .map((f) => [f, readFileSync(path.join(assets, f), 'utf8')]),
+  );
   const html = readFileSync(path.join(testClientDir, 'index.html'), 'utf8');
   entry = /<script type="module"[^>]*src="\/assets\/([\w.-]+\.js)"/.exec(html)![1]!;
 });
 
 describe('the editor stays out of the reader’s download', () => {
   it('the import reader sees real static imports and ignores dynamic ones', () => {
-    expect(staticImports('import{a as b}from"./one-1.js";import"./two-2.js";export{c}from"./three-3.js";const x=()=>import("./lazy-4.js")')).toEqual([
-      'one-1.js',
-      'two-2.js',
-      'three-3.js',
-    ]);
+    expect(
+      staticImports(
+        'import{a as b}from"./one-1.js";import"./two-2.js";export{c}from"./three-3.js";const x=()=>import("./lazy-4.js")',
+      ),
+    ).toEqual(['one-1.js', 'two-2.js', 'three-3.js']);
   });
 
   it('only the editor route’s static graph holds TipTap / ProseMirror code', () => {

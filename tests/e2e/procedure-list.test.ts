@@ -11,7 +11,13 @@ beforeAll(async () => {
   const db = createDb(pool);
   for (let i = 0; i < ADDED; i++) {
     const title = `Pager check ${String(i).padStart(2, '0')}`;
-    await procedureInState(db, 'approved', { title, equipmentFamily: 'Organ', equipmentModel: `PG-${i}`, tags: ['pager'], document: textDoc(`${title}: one page of the list.`) });
+    await procedureInState(db, 'approved', {
+      title,
+      equipmentFamily: 'Organ',
+      equipmentModel: `PG-${i}`,
+      tags: ['pager'],
+      document: textDoc(`${title}: one page of the list.`),
+    });
   }
   await pool.end();
 });
@@ -25,7 +31,10 @@ describe('the procedure list in Chromium', () => {
     await page.getByText(`Showing 1–50 of ${total}.`).waitFor();
     expect(await page.getByRole('table', { name: 'Procedures' }).locator('tbody tr').count()).toBe(50);
 
-    await page.getByRole('navigation', { name: 'Procedure list pages' }).getByRole('button', { name: 'Next' }).click();
+    await page
+      .getByRole('navigation', { name: 'Procedure list pages' })
+      .getByRole('button', { name: 'Next' })
+      .click();
     await page.getByText(`Showing 51–${total} of ${total}.`).waitFor();
     expect(new URL(page.url()).searchParams.get('page')).toBe('2');
 
@@ -37,9 +46,11 @@ describe('the procedure list in Chromium', () => {
     await page.waitForURL((u) => u.searchParams.get('sort') === 'title');
     const titleHeader = page.getByRole('columnheader', { name: /Title/ });
     await expect.poll(() => titleHeader.getAttribute('aria-sort')).toBe('ascending');
-    await expect.poll(() => page.getByRole('table', { name: 'Procedures' }).locator('tbody tr td:first-child').allTextContents()).toEqual(
-      [...Array(10).keys()].map((i) => `Pager check 1${i}`),
-    );
+    await expect
+      .poll(() =>
+        page.getByRole('table', { name: 'Procedures' }).locator('tbody tr td:first-child').allTextContents(),
+      )
+      .toEqual([...Array(10).keys()].map((i) => `Pager check 1${i}`));
 
     await page.reload();
     await page.getByText('Showing 1–10 of 10.').waitFor();
@@ -47,7 +58,9 @@ describe('the procedure list in Chromium', () => {
     expect(await titleHeader.getAttribute('aria-sort')).toBe('ascending');
 
     await page.getByLabel('Title contains').fill('no such title anywhere');
-    await page.getByText('No procedure title contains “no such title anywhere” with these filters.').waitFor();
+    await page
+      .getByText('No procedure title contains “no such title anywhere” with these filters.')
+      .waitFor();
 
     // From a procedure to the bench: the reader's button opens the start form with it chosen.
     await page.getByLabel('Title contains').fill('pager check 42');
@@ -56,7 +69,9 @@ describe('the procedure list in Chromium', () => {
     await page.getByRole('link', { name: 'Start a bench run on this revision' }).click();
     await page.waitForURL((u) => u.pathname === '/runs/new' && u.searchParams.has('revision'));
     const chosen = page.getByLabel('Approved procedure');
-    await expect.poll(async () => (await chosen.locator('option:checked').textContent()) ?? '').toContain('Pager check 42');
+    await expect
+      .poll(async () => (await chosen.locator('option:checked').textContent()) ?? '')
+      .toContain('Pager check 42');
     expect(app.cspViolations).toEqual([]);
     await page.context().close();
   });

@@ -23,7 +23,12 @@ afterAll(async () => {
   await server?.close();
 });
 
-const block = (title: string) => page.locator('.bw-block', { has: page.locator('[data-drag-handle]', { hasText: new RegExp(`^${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`) }) });
+const block = (title: string) =>
+  page.locator('.bw-block', {
+    has: page.locator('[data-drag-handle]', {
+      hasText: new RegExp(`^${title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}`),
+    }),
+  });
 
 async function insertBlock(filter: string) {
   await page.keyboard.press('Control+k');
@@ -51,7 +56,9 @@ describe('quantities in the editor', () => {
     } catch {
       // Say what the page showed instead, so a failure explains itself.
       const said = await page.getByRole('alert').allTextContents();
-      throw new Error(`the editor did not open (${page.url()}); the page says: ${said.join(' | ') || 'nothing'}`);
+      throw new Error(
+        `the editor did not open (${page.url()}); the page says: ${said.join(' | ') || 'nothing'}`,
+      );
     }
     await page.getByRole('textbox', { name: 'Procedure text' }).click();
 
@@ -82,12 +89,19 @@ describe('quantities in the editor', () => {
     await reading.locator('[data-reading-band]').filter({ hasText: '5.99 V … 6.62 V' }).waitFor();
     // A DC reading lists the block's DC outputs but not its rms winding figure.
     await reading.getByLabel('Expected value: source').selectOption('ref');
-    const options = await reading.getByLabel('Expected value', { exact: true }).locator('option').allTextContents();
+    const options = await reading
+      .getByLabel('Expected value', { exact: true })
+      .locator('option')
+      .allTextContents();
     expect(options.some((o) => /No-load DC at the reservoir/.test(o))).toBe(true);
     expect(options.some((o) => /Winding voltage at this mains/.test(o))).toBe(false);
     await reading.getByLabel('Measure', { exact: true }).selectOption('rms');
     await expect
-      .poll(async () => (await reading.getByLabel('Expected value', { exact: true }).locator('option').allTextContents()).some((o) => /Winding voltage at this mains/.test(o)))
+      .poll(async () =>
+        (
+          await reading.getByLabel('Expected value', { exact: true }).locator('option').allTextContents()
+        ).some((o) => /Winding voltage at this mains/.test(o)),
+      )
       .toBe(true);
   });
 });

@@ -9,7 +9,9 @@ const { cspViolations, openPage } = app;
 const approvedTc18 = (page: Page) =>
   page.evaluate(async () => {
     const list = await (await fetch('/api/procedures')).json();
-    return list.procedures.find((p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved).approved.id as string;
+    return list.procedures.find(
+      (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
+    ).approved.id as string;
   });
 
 /**
@@ -21,19 +23,37 @@ function submitEditedDraft(page: Page) {
     const session = await (await fetch('/api/auth/session')).json();
     const headers = { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken as string };
     const list = await (await fetch('/api/procedures')).json();
-    const proc = list.procedures.find((p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved);
-    const r = (await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json()).revision;
+    const proc = list.procedures.find(
+      (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
+    );
+    const r = (
+      await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json()
+    ).revision;
     const walk = (n: { type: string; attrs?: Record<string, unknown>; content?: unknown[] }) => {
       const a = n.attrs ?? {};
-      if (n.type === 'reckoner' && a.name === 'fuse') (a.inputs as Record<string, unknown>).efficiency = '80 %';
+      if (n.type === 'reckoner' && a.name === 'fuse')
+        (a.inputs as Record<string, unknown>).efficiency = '80 %';
       if (n.type === 'reckoner' && a.name === 'bleed') a.name = 'discharge';
       const expected = a.expected as { ref?: string } | undefined;
-      if (n.type === 'reading' && expected?.ref?.startsWith('bleed.')) expected.ref = expected.ref.replace('bleed.', 'discharge.');
+      if (n.type === 'reading' && expected?.ref?.startsWith('bleed.'))
+        expected.ref = expected.ref.replace('bleed.', 'discharge.');
       (n.content ?? []).forEach((c) => walk(c as never));
     };
     walk(r.document);
-    const body = { title: r.title, equipmentFamily: r.equipmentFamily, equipmentModel: r.equipmentModel, tags: r.tags, params: r.params, lockVersion: r.lockVersion, document: r.document };
-    const saved = await fetch(`/api/revisions/${r.id}`, { method: 'PUT', headers, body: JSON.stringify(body) });
+    const body = {
+      title: r.title,
+      equipmentFamily: r.equipmentFamily,
+      equipmentModel: r.equipmentModel,
+      tags: r.tags,
+      params: r.params,
+      lockVersion: r.lockVersion,
+      document: r.document,
+    };
+    const saved = await fetch(`/api/revisions/${r.id}`, {
+      method: 'PUT',
+      headers,
+      body: JSON.stringify(body),
+    });
     if (!saved.ok) throw new Error(`save failed: ${saved.status} ${await saved.text()}`);
     const submitted = await fetch(`/api/revisions/${r.id}/submit`, { method: 'POST', headers, body: '{}' });
     if (!submitted.ok) throw new Error(`submit failed: ${submitted.status} ${await submitted.text()}`);
@@ -50,11 +70,19 @@ describe('what was assumed, in Chromium', () => {
     const winding = noLoad.getByRole('row').filter({ hasText: 'Winding voltage (rms)' });
     await winding.waitFor();
     expect(await winding.innerText()).toMatch(/290 V\s*rms[\s\S]*typed/);
-    const charged = page.getByRole('table', { name: 'Inputs of bleed' }).getByRole('row').filter({ hasText: 'Charged voltage' });
-    expect(await charged.innerText()).toMatch(/436 V\s*DC[\s\S]*output “No-load DC, high end” of block “noLoad”/);
+    const charged = page
+      .getByRole('table', { name: 'Inputs of bleed' })
+      .getByRole('row')
+      .filter({ hasText: 'Charged voltage' });
+    expect(await charged.innerText()).toMatch(
+      /436 V\s*DC[\s\S]*output “No-load DC, high end” of block “noLoad”/,
+    );
     // Results stay beside the inputs, in the order the reckoner declares them.
     const results = page.locator('[data-reckoner="noLoad"] [data-output]');
-    expect((await results.allInnerTexts()).slice(0, 2).map((t) => t.split('\n')[0])).toEqual(['Winding voltage at this mains', 'Peak voltage']);
+    expect((await results.allInnerTexts()).slice(0, 2).map((t) => t.split('\n')[0])).toEqual([
+      'Winding voltage at this mains',
+      'Peak voltage',
+    ]);
     await page.context().close();
   });
 
@@ -74,10 +102,18 @@ describe('what was assumed, in Chromium', () => {
     const renamed = changes.getByRole('row').filter({ hasText: 'renamed from “bleed”' });
     expect(await renamed.count()).toBe(1);
     expect(await renamed.innerText()).toMatch(/discharge/);
-    expect(await changes.getByRole('row').filter({ hasText: /\bnew\b|\bremoved\b/ }).count()).toBe(0);
+    expect(
+      await changes
+        .getByRole('row')
+        .filter({ hasText: /\bnew\b|\bremoved\b/ })
+        .count(),
+    ).toBe(0);
 
     const calculations = reviewer.getByRole('region', { name: 'Calculations' });
-    const actual = calculations.getByRole('table', { name: 'Inputs of noLoad' }).getByRole('row').filter({ hasText: 'Actual mains' });
+    const actual = calculations
+      .getByRole('table', { name: 'Inputs of noLoad' })
+      .getByRole('row')
+      .filter({ hasText: 'Actual mains' });
     expect(await actual.innerText()).toMatch(/230 V\s*rms[\s\S]*procedure parameter “Measured mains”/);
     await reviewer.context().close();
   });

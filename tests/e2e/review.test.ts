@@ -20,8 +20,12 @@ function startEditedDraft(page: Page) {
     const session = await (await fetch('/api/auth/session')).json();
     const headers = { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken as string };
     const list = await (await fetch('/api/procedures')).json();
-    const proc = list.procedures.find((p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved);
-    const draft = await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json();
+    const proc = list.procedures.find(
+      (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
+    );
+    const draft = await (
+      await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })
+    ).json();
     const r = draft.revision;
     const walk = (n: { type: string; attrs?: Record<string, unknown>; content?: unknown[] }): boolean => {
       if (n.type === 'reading' && n.attrs?.id === 'tc18-rd-mains') {
@@ -34,7 +38,15 @@ function startEditedDraft(page: Page) {
     const saved = await fetch(`/api/revisions/${r.id}`, {
       method: 'PUT',
       headers,
-      body: JSON.stringify({ title: r.title, equipmentFamily: r.equipmentFamily, equipmentModel: r.equipmentModel, tags: r.tags, params: r.params, lockVersion: r.lockVersion, document: r.document }),
+      body: JSON.stringify({
+        title: r.title,
+        equipmentFamily: r.equipmentFamily,
+        equipmentModel: r.equipmentModel,
+        tags: r.tags,
+        params: r.params,
+        lockVersion: r.lockVersion,
+        document: r.document,
+      }),
     });
     if (!saved.ok) throw new Error(`save failed: ${saved.status} ${await saved.text()}`);
     return r.id as string;
@@ -62,7 +74,10 @@ describe('review and sign-off in Chromium', () => {
 
     // The diff table names the reading and shows the tolerance before and after.
     const changes = reviewer.getByRole('table', { name: 'Value changes' });
-    const tolerance = changes.getByRole('row').filter({ hasText: 'Mains at the bench' }).filter({ hasText: 'tolerance' });
+    const tolerance = changes
+      .getByRole('row')
+      .filter({ hasText: 'Mains at the bench' })
+      .filter({ hasText: 'tolerance' });
     await tolerance.waitFor();
     expect(await tolerance.innerText()).toMatch(/±10 %[\s\S]*±12 %/);
 

@@ -29,7 +29,9 @@ describe('signing in as each demo role in Chromium', () => {
       await signIn(page, demo[who].email, demo[who].password);
       await page.getByRole('heading', { name: panel }).waitFor();
       // Only admins get the People link.
-      expect(await page.getByRole('link', { name: 'People', exact: true }).count()).toBe(who === 'admin' ? 1 : 0);
+      expect(await page.getByRole('link', { name: 'People', exact: true }).count()).toBe(
+        who === 'admin' ? 1 : 0,
+      );
       await page.getByRole('button', { name: 'Sign out' }).click();
       await page.waitForURL(/\/sign-in/);
       await page.context().close();

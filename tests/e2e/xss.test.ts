@@ -14,7 +14,10 @@ import { EVASION_VECTORS } from '../support/xss-evasion';
 
 const blns = createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[];
 const hostile = blns.filter((s) => /<|javascript:|on\w+=/i.test(s));
-const tripwired = [...hostile.map((s) => s.replace(/alert\s*\(\s*[^)]*\)/gi, 'window.__bwTripped=1')), ...EVASION_VECTORS];
+const tripwired = [
+  ...hostile.map((s) => s.replace(/alert\s*\(\s*[^)]*\)/gi, 'window.__bwTripped=1')),
+  ...EVASION_VECTORS,
+];
 
 const app = useBrowserApp();
 const pages: string[] = [];
@@ -22,7 +25,12 @@ const pages: string[] = [];
 beforeAll(async () => {
   const hal = httpSession(app.url);
   expect((await hal.signIn(demo.hal.email, demo.hal.password)).status).toBe(200);
-  const meta = { title: `Hostile ${tripwired[0]!.slice(0, 120)}`, equipmentFamily: `<img src=x onerror=window.__bwTripped=1>`, equipmentModel: 'TC-18', tags: ['<svg onload=window.__bwTripped=1>'] };
+  const meta = {
+    title: `Hostile ${tripwired[0]!.slice(0, 120)}`,
+    equipmentFamily: `<img src=x onerror=window.__bwTripped=1>`,
+    equipmentModel: 'TC-18',
+    tags: ['<svg onload=window.__bwTripped=1>'],
+  };
   const created = await hal.post('/api/procedures', meta);
   expect(created.status).toBe(201);
   const rev = created.body.revision as { id: string; procedureId: string };
@@ -30,25 +38,51 @@ beforeAll(async () => {
     { type: 'paragraph', content: [{ type: 'text', text: s }] },
     { type: 'checkStep', attrs: { id: `xss-check-${i}`, text: s.slice(0, 500) } },
   ]);
-  const saved = await hal.call('PUT', `/api/revisions/${rev.id}`, { ...meta, params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, lockVersion: 1, document: { type: 'doc', content } });
+  const saved = await hal.call('PUT', `/api/revisions/${rev.id}`, {
+    ...meta,
+    params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+    lockVersion: 1,
+    document: { type: 'doc', content },
+  });
   expect(saved.status).toBe(200);
-  const comment = await hal.post(`/api/revisions/${rev.id}/comments`, { body: tripwired.slice(0, 20).join('\n').slice(0, 1900) });
+  const comment = await hal.post(`/api/revisions/${rev.id}/comments`, {
+    body: tripwired.slice(0, 20).join('\n').slice(0, 1900),
+  });
   expect(comment.status).toBe(201);
 
   const tom = httpSession(app.url);
   expect((await tom.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
-  const unit = await tom.post('/api/units', { model: '<script>window.__bwTripped=1</script>', serial: '"><img src=x onerror=window.__bwTripped=1>', owner: tripwired[1]!.slice(0, 100), notes: tripwired.slice(0, 10).join('\n') });
+  const unit = await tom.post('/api/units', {
+    model: '<script>window.__bwTripped=1</script>',
+    serial: '"><img src=x onerror=window.__bwTripped=1>',
+    owner: tripwired[1]!.slice(0, 100),
+    notes: tripwired.slice(0, 10).join('\n'),
+  });
   expect(unit.status).toBe(201);
   const unitId = (unit.body.unit as { id: string }).id;
 
   // An upload whose file name is hostile: the name is shown back on the unit page.
   const form = new FormData();
-  form.append('file', new Blob([tinyPng()], { type: 'image/png' }), '<img src=x onerror=window.__bwTripped=1>.png');
+  form.append(
+    'file',
+    new Blob([tinyPng()], { type: 'image/png' }),
+    '<img src=x onerror=window.__bwTripped=1>.png',
+  );
   form.append('caption', '<svg/onload=window.__bwTripped=1>');
-  const photo = await fetch(`${app.url}/api/units/${unitId}/photos`, { method: 'POST', headers: { cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() }, body: form });
+  const photo = await fetch(`${app.url}/api/units/${unitId}/photos`, {
+    method: 'POST',
+    headers: { cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() },
+    body: form,
+  });
   expect(photo.status).toBe(201);
 
-  pages.push(`/revisions/${rev.id}`, `/review/revisions/${rev.id}`, '/procedures', `/units/${unitId}`, '/units');
+  pages.push(
+    `/revisions/${rev.id}`,
+    `/review/revisions/${rev.id}`,
+    '/procedures',
+    `/units/${unitId}`,
+    '/units',
+  );
 });
 
 describe('stored hostile strings rendered in Chromium', () => {
@@ -74,17 +108,23 @@ describe('stored hostile strings rendered in Chromium', () => {
       await page.goto(app.url + path);
       await page.waitForLoadState('networkidle');
       await page.waitForTimeout(300);
-      const tripped = await page.evaluate(() => (window as unknown as { __bwTripped?: number }).__bwTripped ?? 0);
+      const tripped = await page.evaluate(
+        () => (window as unknown as { __bwTripped?: number }).__bwTripped ?? 0,
+      );
       expect(tripped, `script ran on ${path}`).toBe(0);
       // Independently of the CSP: nothing from the payloads became markup.
       const injected = await page.evaluate(() => {
         const found: string[] = [];
         for (const el of Array.from(document.querySelectorAll('body *'))) {
-          for (const a of Array.from(el.attributes)) if (/^on/i.test(a.name)) found.push(`${el.tagName} ${a.name}`);
-          if (el.tagName === 'SCRIPT' || el.tagName === 'IFRAME' || el.tagName === 'OBJECT') found.push(el.tagName);
-          if (el.tagName === 'IMG' && (el as HTMLImageElement).getAttribute('src') === 'x') found.push('IMG src=x');
+          for (const a of Array.from(el.attributes))
+            if (/^on/i.test(a.name)) found.push(`${el.tagName} ${a.name}`);
+          if (el.tagName === 'SCRIPT' || el.tagName === 'IFRAME' || el.tagName === 'OBJECT')
+            found.push(el.tagName);
+          if (el.tagName === 'IMG' && (el as HTMLImageElement).getAttribute('src') === 'x')
+            found.push('IMG src=x');
           const href = el.getAttribute('href') ?? el.getAttribute('src') ?? '';
-          if (/^\s*(javascript|vbscript|data:text)/i.test(href)) found.push(`${el.tagName} ${href.slice(0, 30)}`);
+          if (/^\s*(javascript|vbscript|data:text)/i.test(href))
+            found.push(`${el.tagName} ${href.slice(0, 30)}`);
         }
         return found;
       });

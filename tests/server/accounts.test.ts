@@ -16,24 +16,38 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 type Client = ReturnType<TestApp['client']>;
-const idOf = async (email: string) => (await t.db.select({ id: people.id }).from(people).where(eq(people.email, email)))[0]!.id;
+const idOf = async (email: string) =>
+  (await t.db.select({ id: people.id }).from(people).where(eq(people.email, email)))[0]!.id;
 const auditOf = (action: string, subject?: string) =>
   t.db
     .select()
     .from(auditLog)
-    .where(subject ? and(eq(auditLog.action, action), eq(auditLog.subject, subject)) : eq(auditLog.action, action));
+    .where(
+      subject ? and(eq(auditLog.action, action), eq(auditLog.subject, subject)) : eq(auditLog.action, action),
+    );
 const sessionsOf = async (personId: string) =>
-  (await t.ownerDb.select({ n: sql<number>`count(*)::int` }).from(sessionTable).where(sql`${sessionTable.sess}->'passport'->>'user' = ${personId}`))[0]!.n;
+  (
+    await t.ownerDb
+      .select({ n: sql<number>`count(*)::int` })
+      .from(sessionTable)
+      .where(sql`${sessionTable.sess}->'passport'->>'user' = ${personId}`)
+  )[0]!.n;
 /** The set-password link in the last message to `to` that carries one (waits for the mail to arrive). */
 async function linkMailedTo(to: string, after = 0) {
   let link = '';
   await expect
-    .poll(() => {
-      const mine = t.catcher!.received.slice(after).filter((m) => m.to.includes(to));
-      const m = mine.map((x) => /\/set-password\/([A-Za-z0-9_-]{20,})/.exec(decodedMail(x.raw))).filter(Boolean).at(-1);
-      link = m?.[1] ?? '';
-      return link;
-    }, { timeout: 5_000 })
+    .poll(
+      () => {
+        const mine = t.catcher!.received.slice(after).filter((m) => m.to.includes(to));
+        const m = mine
+          .map((x) => /\/set-password\/([A-Za-z0-9_-]{20,})/.exec(decodedMail(x.raw)))
+          .filter(Boolean)
+          .at(-1);
+        link = m?.[1] ?? '';
+        return link;
+      },
+      { timeout: 5_000 },
+    )
     .not.toBe('');
   return link;
 }
@@ -64,12 +78,16 @@ describe('the one-time code check follows RFC 6238', () => {
 describe('changing one’s password', () => {
   it('needs the current password; a wrong one changes nothing and is recorded', async () => {
     const sam = await t.as('sam');
-    const wrong = await sam.post('/api/auth/password').send({ currentPassword: 'not-sam-s-password', newPassword: 'valve rectifiers glow a dull orange' });
+    const wrong = await sam
+      .post('/api/auth/password')
+      .send({ currentPassword: 'not-sam-s-password', newPassword: 'valve rectifiers glow a dull orange' });
     expect(wrong.status).toBe(401);
     expect(wrong.body.fields[0].field).toBe('body.currentPassword');
     expect((await t.client().signIn(demo.sam.email, demo.sam.password)).status).toBe(200);
     expect((await auditOf('reauth.failed')).some((r) => r.subject === 'password change')).toBe(true);
-    const common = await sam.post('/api/auth/password').send({ currentPassword: demo.sam.password, newPassword: '1qaz2wsx3edc' });
+    const common = await sam
+      .post('/api/auth/password')
+      .send({ currentPassword: demo.sam.password, newPassword: '1qaz2wsx3edc' });
     expect(common.status).toBe(400);
     expect(common.body.fields[0].field).toBe('body.newPassword');
   });
@@ -84,7 +102,9 @@ describe('changing one’s password', () => {
     expect(others).toBeGreaterThanOrEqual(2);
     const oldCsrf = here.csrf;
     const newPassword = 'choke input filters hum at twice the mains';
-    const res = await here.post('/api/auth/password').send({ currentPassword: demo.sam.password, newPassword });
+    const res = await here
+      .post('/api/auth/password')
+      .send({ currentPassword: demo.sam.password, newPassword });
     expect(res.status).toBe(200);
     expect(res.body.csrfToken).toBeTypeOf('string');
     expect(res.body.csrfToken).not.toBe(oldCsrf);
@@ -126,7 +146,9 @@ describe('links that set a password go by mail only', () => {
   it('the invite answer shows the admin no link; the invitee’s mail has it', async () => {
     const admin = await t.as('admin');
     const before = t.catcher!.received.length;
-    const invite = await admin.post('/api/people/invitations').send({ email: 'wren@tallowcreek.example', displayName: 'Wren Abbott', roles: ['technician'] });
+    const invite = await admin
+      .post('/api/people/invitations')
+      .send({ email: 'wren@tallowcreek.example', displayName: 'Wren Abbott', roles: ['technician'] });
     expect(invite.status).toBe(201);
     expect(JSON.stringify(invite.body)).not.toMatch(/set-password|token/i);
     expect(invite.body.mailedTo).toBe('wren@tallowcreek.example');
@@ -135,8 +157,16 @@ describe('links that set a password go by mail only', () => {
     expect(JSON.stringify(outbox.body)).not.toContain(token);
     const newcomer = t.client();
     await newcomer.refreshToken();
-    expect((await newcomer.post('/api/auth/set-password').send({ token, password: 'grid leak resistors drift with age' })).status).toBe(200);
-    expect((await t.client().signIn('wren@tallowcreek.example', 'grid leak resistors drift with age')).status).toBe(200);
+    expect(
+      (
+        await newcomer
+          .post('/api/auth/set-password')
+          .send({ token, password: 'grid leak resistors drift with age' })
+      ).status,
+    ).toBe(200);
+    expect(
+      (await t.client().signIn('wren@tallowcreek.example', 'grid leak resistors drift with age')).status,
+    ).toBe(200);
   });
 
   it('an admin-started reset mails the person a one-time link the admin never sees; using it ends their sessions', async () => {
@@ -149,7 +179,12 @@ describe('links that set a password go by mail only', () => {
     expect(JSON.stringify(res.body)).not.toMatch(/set-password|token/i);
     expect(res.body.mailedTo).toBe(demo.ruth.email);
     const token = await linkMailedTo(demo.ruth.email, before);
-    expect(t.catcher!.received.slice(before).filter((m) => decodedMail(m.raw).includes(token)).flatMap((m) => m.to)).toEqual([demo.ruth.email]);
+    expect(
+      t
+        .catcher!.received.slice(before)
+        .filter((m) => decodedMail(m.raw).includes(token))
+        .flatMap((m) => m.to),
+    ).toEqual([demo.ruth.email]);
     expect(JSON.stringify((await admin.get('/api/mail/outbox')).body)).not.toContain(token);
     // Until the link is used, nothing changes: the old password still works.
     expect((await t.client().signIn(demo.ruth.email, demo.ruth.password)).status).toBe(200);
@@ -158,7 +193,9 @@ describe('links that set a password go by mail only', () => {
     const anon = t.client();
     await anon.refreshToken();
     const newPassword = 'mains transformers buzz when loose';
-    expect((await anon.post('/api/auth/set-password').send({ token, password: newPassword })).status).toBe(200);
+    expect((await anon.post('/api/auth/set-password').send({ token, password: newPassword })).status).toBe(
+      200,
+    );
     expect((await ruthBefore.get('/api/auth/me')).status).toBe(401);
     expect((await t.client().signIn(demo.ruth.email, demo.ruth.password)).status).toBe(401);
     expect((await t.client().signIn(demo.ruth.email, newPassword)).status).toBe(200);
@@ -176,9 +213,13 @@ describe('links that set a password go by mail only', () => {
 
   it('only admins may start a reset (403), and a person who does not exist is 404', async () => {
     const tom = await t.as('tom');
-    expect((await tom.post(`/api/people/${await idOf(demo.hal.email)}/password-reset`).send({})).status).toBe(403);
+    expect((await tom.post(`/api/people/${await idOf(demo.hal.email)}/password-reset`).send({})).status).toBe(
+      403,
+    );
     const admin = await t.as('admin');
-    expect((await admin.post('/api/people/00000000-0000-4000-8000-000000000000/password-reset').send({})).status).toBe(404);
+    expect(
+      (await admin.post('/api/people/00000000-0000-4000-8000-000000000000/password-reset').send({})).status,
+    ).toBe(404);
   });
 });
 
@@ -207,10 +248,14 @@ describe('authenticator codes', () => {
   let halRecoveryCodes: string[] = []; // shown once, at set-up
   it('set-up needs the password and a right code; recovery codes are shown once and stored hashed', async () => {
     const hal = await t.as('hal');
-    expect((await hal.post('/api/auth/totp/setup').send({ password: 'not-hal-s-password' })).status).toBe(401);
+    expect((await hal.post('/api/auth/totp/setup').send({ password: 'not-hal-s-password' })).status).toBe(
+      401,
+    );
     const setup = await hal.post('/api/auth/totp/setup').send({ password: demo.hal.password });
     expect(setup.status).toBe(200);
-    const wrong = await hal.post('/api/auth/totp/confirm').send({ code: totpCode(setup.body.secret, Date.now() + 10 * 60_000) });
+    const wrong = await hal
+      .post('/api/auth/totp/confirm')
+      .send({ code: totpCode(setup.body.secret, Date.now() + 10 * 60_000) });
     expect(wrong.status).toBe(400);
     expect(wrong.body.fields[0].field).toBe('body.code');
     expect((await hal.get('/api/auth/account')).body.secondFactor.enabled).toBe(false);
@@ -226,17 +271,24 @@ describe('authenticator codes', () => {
     const dump = JSON.stringify(stored);
     for (const code of codes) expect(dump).not.toContain(code.replace(/-/g, '').toUpperCase());
     for (const code of codes) expect(dump.toLowerCase()).not.toContain(code.toLowerCase());
-    expect((await hal.get('/api/auth/account')).body.secondFactor).toMatchObject({ enabled: true, recoveryCodesLeft: 10 });
+    expect((await hal.get('/api/auth/account')).body.secondFactor).toMatchObject({
+      enabled: true,
+      recoveryCodesLeft: 10,
+    });
     expect(await auditOf('person.second-factor-enabled', demo.hal.email)).toHaveLength(1);
   });
 
   it('signing in then takes the password and a code; a used code and a wrong one are refused; a recovery code works once', async () => {
     const halId = await idOf(demo.hal.email);
-    const [secret] = (await t.db.select({ s: people.totpSecret }).from(people).where(eq(people.id, halId))).map((r) => r.s!);
+    const [secret] = (
+      await t.db.select({ s: people.totpSecret }).from(people).where(eq(people.id, halId))
+    ).map((r) => r.s!);
     // The code of the next time step (allowed for clock drift), since set-up used this one.
     const next = totpCode(secret!, Date.now() + 30_000);
     const wrongCode = await passwordStep(demo.hal.email, demo.hal.password);
-    const bad = await wrongCode.post('/api/auth/sign-in/code').send({ code: next === '000000' ? '111111' : '000000' });
+    const bad = await wrongCode
+      .post('/api/auth/sign-in/code')
+      .send({ code: next === '000000' ? '111111' : '000000' });
     expect(bad.status).toBe(401);
     expect(bad.body.fields[0].field).toBe('body.code');
     expect((await wrongCode.get('/api/auth/me')).status).toBe(401);
@@ -274,11 +326,16 @@ describe('authenticator codes', () => {
     const dee = await t.as('dee');
     await enrol(dee, demo.dee.password);
     const c = await passwordStep(demo.dee.email, demo.dee.password);
-    const answers = await Promise.all(Array.from({ length: 8 }, (_, i) => c.post('/api/auth/sign-in/code').send({ code: String(100000 + i * 7) })));
+    const answers = await Promise.all(
+      Array.from({ length: 8 }, (_, i) =>
+        c.post('/api/auth/sign-in/code').send({ code: String(100000 + i * 7) }),
+      ),
+    );
     const statuses = answers.map((r) => r.status);
     expect(statuses.filter((s) => s !== 401 && s !== 429)).toEqual([]);
     expect(statuses.filter((s) => s === 401).length).toBeLessThanOrEqual(5);
-    for (const r of answers.filter((x) => x.status === 429)) expect(r.headers['retry-after']).toMatch(/^\d+$/);
+    for (const r of answers.filter((x) => x.status === 429))
+      expect(r.headers['retry-after']).toMatch(/^\d+$/);
   });
 });
 
@@ -322,12 +379,16 @@ describe('the shop can require authenticator codes for reviewers and admins', ()
 
   it('an admin can clear another person’s authenticator (lost phone and codes), not their own; it is audited', async () => {
     const admin = await passwordStep(demo.admin.email, demo.admin.password);
-    expect((await admin.post('/api/auth/sign-in/code').send({ code: adminRecoveryCodes[0] })).status).toBe(200);
+    expect((await admin.post('/api/auth/sign-in/code').send({ code: adminRecoveryCodes[0] })).status).toBe(
+      200,
+    );
     await admin.refreshToken(); // the signed-in session's token
     const deeId = await idOf(demo.dee.email);
     const res = await admin.post(`/api/people/${deeId}/second-factor-reset`).send({});
     expect(res.status).toBe(200);
-    expect((await t.client().signIn(demo.dee.email, demo.dee.password)).body.user?.email).toBe(demo.dee.email);
+    expect((await t.client().signIn(demo.dee.email, demo.dee.password)).body.user?.email).toBe(
+      demo.dee.email,
+    );
     expect(await auditOf('person.second-factor-reset', demo.dee.email)).toHaveLength(1);
     const self = await admin.post(`/api/people/${await idOf(demo.admin.email)}/second-factor-reset`).send({});
     expect(self.status).toBe(400);

@@ -52,7 +52,10 @@ async function uploadImage(c: Client, bytes: Buffer) {
 }
 
 const imageDoc = (attachmentId: string) =>
-  doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), { type: 'image', attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' } });
+  doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), {
+    type: 'image',
+    attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' },
+  });
 
 /** An approved revision showing one image; returns its id, the image's id and bytes, and the signature id. */
 async function approvedWithImage() {
@@ -72,7 +75,11 @@ async function verifiedEverywhere(revisionId: string, signatureId: string, marek
   const reader = await tom.get(`/api/revisions/${revisionId}/signatures`);
   const review = await marek.get(`/api/revisions/${revisionId}/review`);
   const check = await marek.get(`/api/signatures/${signatureId}/verify`);
-  return [reader.body.signatures[0].verified, review.body.review.signatures[0].verified, check.body.verified] as boolean[];
+  return [
+    reader.body.signatures[0].verified,
+    review.body.review.signatures[0].verified,
+    check.body.verified,
+  ] as boolean[];
 }
 
 describe('attachment rows are append-only', () => {
@@ -81,17 +88,40 @@ describe('attachment rows are append-only', () => {
     const other = await uploadImage(await t.as('hal'), uniquePng());
     // No column of the row may change, not even to itself: a row whose file name or hash could be
     // rewritten would let the approved image name other bytes.
-    const cols = (await t.db.execute<{ column_name: string }>(sql`select column_name from information_schema.columns where table_name = 'attachments' order by 1`)).rows.map((r) => r.column_name);
+    const cols = (
+      await t.db.execute<{ column_name: string }>(
+        sql`select column_name from information_schema.columns where table_name = 'attachments' order by 1`,
+      )
+    ).rows.map((r) => r.column_name);
     expect(cols.length).toBeGreaterThan(3);
     for (const col of cols) {
       const name = sql.identifier(col);
-      expect(await refusal(t.db.execute(sql`update attachments set ${name} = ${name} where id = ${attachmentId}`)), col).toMatch(/permission denied/);
+      expect(
+        await refusal(t.db.execute(sql`update attachments set ${name} = ${name} where id = ${attachmentId}`)),
+        col,
+      ).toMatch(/permission denied/);
     }
-    expect(await refusal(t.db.execute(sql`update attachments set sha256 = (select sha256 from attachments where id = ${other}) where id = ${attachmentId}`))).toMatch(/permission denied/);
-    expect(await refusal(t.db.execute(sql`delete from attachments where id = ${other}`))).toMatch(/permission denied/);
+    expect(
+      await refusal(
+        t.db.execute(
+          sql`update attachments set sha256 = (select sha256 from attachments where id = ${other}) where id = ${attachmentId}`,
+        ),
+      ),
+    ).toMatch(/permission denied/);
+    expect(await refusal(t.db.execute(sql`delete from attachments where id = ${other}`))).toMatch(
+      /permission denied/,
+    );
     // The owner is refused by the trigger.
-    expect(await refusal(t.ownerDb.execute(sql`update attachments set original_name = 'swapped.png' where id = ${attachmentId}`))).toMatch(/append-only/);
-    expect(await refusal(t.ownerDb.execute(sql`delete from attachments where id = ${other}`))).toMatch(/append-only/);
+    expect(
+      await refusal(
+        t.ownerDb.execute(
+          sql`update attachments set original_name = 'swapped.png' where id = ${attachmentId}`,
+        ),
+      ),
+    ).toMatch(/append-only/);
+    expect(await refusal(t.ownerDb.execute(sql`delete from attachments where id = ${other}`))).toMatch(
+      /append-only/,
+    );
     // Still the approved bytes, still verified.
     const served = await marek.get(`/api/attachments/${attachmentId}`);
     expect(Buffer.compare(served.body as Buffer, bytes)).toBe(0);
@@ -141,7 +171,8 @@ function pdfText(pdf: Buffer) {
     } catch {
       continue; // not a deflated stream (fonts, images)
     }
-    for (const s of text.matchAll(/<([0-9a-fA-F]+)>/g)) out.push(Buffer.from(s[1]!, 'hex').toString('latin1'));
+    for (const s of text.matchAll(/<([0-9a-fA-F]+)>/g))
+      out.push(Buffer.from(s[1]!, 'hex').toString('latin1'));
     for (const s of text.matchAll(/\(((?:\\.|[^\\)])*)\)/g)) out.push(s[1]!);
   }
   return out.join('');
@@ -154,8 +185,20 @@ describe('run photos', () => {
     const unit = await newUnit(tom);
     const run = (await startRun(tom, revision.id, unit.id)).body.run;
     const bytes = uniquePng();
-    expect((await tom.post(`/api/runs/${run.id}/photos`).field('stepId', 'rd-ht-ac').attach('file', bytes, { filename: 'tp1.png' })).status).toBe(201);
-    for (const [step, body] of [['hz-ht-live', { done: true }], ['rd-ht-ac', { value: '251 V' }], ['rd-heater', { value: '6.4' }], ['ck-discharge', { done: true }]] as const) {
+    expect(
+      (
+        await tom
+          .post(`/api/runs/${run.id}/photos`)
+          .field('stepId', 'rd-ht-ac')
+          .attach('file', bytes, { filename: 'tp1.png' })
+      ).status,
+    ).toBe(201);
+    for (const [step, body] of [
+      ['hz-ht-live', { done: true }],
+      ['rd-ht-ac', { value: '251 V' }],
+      ['rd-heater', { value: '6.4' }],
+      ['ck-discharge', { done: true }],
+    ] as const) {
       expect((await entry(tom, run.id, step, body)).status).toBe(200);
     }
     return { tom, runId: run.id as string, bytes };

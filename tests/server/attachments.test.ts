@@ -13,7 +13,9 @@ afterAll(() => t.close());
 describe('uploads', () => {
   it('stores a PNG under its SHA-256 and serves it only to signed-in people, as an attachment with nosniff', async () => {
     const c = await t.as('hal');
-    const res = await c.post('/api/attachments').attach('file', tinyPng(), { filename: '../../scope capture.png', contentType: 'image/png' });
+    const res = await c
+      .post('/api/attachments')
+      .attach('file', tinyPng(), { filename: '../../scope capture.png', contentType: 'image/png' });
     expect(res.status).toBe(201);
     expect(res.body.attachment).toMatchObject({ mediaType: 'image/png', fileName: 'scope capture.png' });
     const got = await c.get(res.body.attachment.url);
@@ -29,24 +31,36 @@ describe('uploads', () => {
   it('refuses an HTML file named .png (content decides the type) with a clear message', async () => {
     const c = await t.as('hal');
     const html = Buffer.from('<!doctype html><html><body><script>alert(1)</script></body></html>');
-    const res = await c.post('/api/attachments').attach('file', html, { filename: 'schematic.png', contentType: 'image/png' });
+    const res = await c
+      .post('/api/attachments')
+      .attach('file', html, { filename: 'schematic.png', contentType: 'image/png' });
     expect(res.status).toBe(415);
     expect(res.body.error).toMatch(/not a PNG, JPEG, WebP or PDF/);
     const svg = Buffer.from('<svg xmlns="http://www.w3.org/2000/svg" onload="alert(1)"></svg>');
-    expect((await c.post('/api/attachments').attach('file', svg, { filename: 'x.svg', contentType: 'image/svg+xml' })).status).toBe(415);
+    expect(
+      (
+        await c
+          .post('/api/attachments')
+          .attach('file', svg, { filename: 'x.svg', contentType: 'image/svg+xml' })
+      ).status,
+    ).toBe(415);
   });
 
   it('refuses a file over 15 MB with 413', async () => {
     const c = await t.as('hal');
     const big = Buffer.concat([tinyPng(), Buffer.alloc(15 * 1024 * 1024 + 1)]);
-    const res = await c.post('/api/attachments').attach('file', big, { filename: 'huge.png', contentType: 'image/png' });
+    const res = await c
+      .post('/api/attachments')
+      .attach('file', big, { filename: 'huge.png', contentType: 'image/png' });
     expect(res.status).toBe(413);
     expect(res.body.error).toMatch(/larger than 15 MB/);
   });
 
   it('a technician cannot upload', async () => {
     const tech = await t.as('tom');
-    expect((await tech.post('/api/attachments').attach('file', tinyPng(), { filename: 'a.png' })).status).toBe(403);
+    expect(
+      (await tech.post('/api/attachments').attach('file', tinyPng(), { filename: 'a.png' })).status,
+    ).toBe(403);
   });
 });
 
@@ -54,7 +68,8 @@ type Client = Awaited<ReturnType<TestApp['as']>>;
 let shade = 0;
 /** A PNG no other test stores (content-addressed files would otherwise be shared). */
 const uniquePng = () => pngOf(3, 2, ++shade);
-const upload = (c: Client, bytes: Buffer, filename: string) => c.post('/api/attachments').attach('file', bytes, { filename });
+const upload = (c: Client, bytes: Buffer, filename: string) =>
+  c.post('/api/attachments').attach('file', bytes, { filename });
 
 describe('upload names and types', () => {
   it('decodes the name as UTF-8 and normalises it to NFC (Röhre stays Röhre, not RÃ¶hre)', async () => {
@@ -76,16 +91,27 @@ describe('upload names and types', () => {
     // Control characters arrive percent-encoded in the extended form (RFC 5987 filename*).
     const boundary = 'bw-boundary-7';
     const body = Buffer.concat([
-      Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename*=UTF-8''scope%07%1B%C2%85.png\r\nContent-Type: image/png\r\n\r\n`),
+      Buffer.from(
+        `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename*=UTF-8''scope%07%1B%C2%85.png\r\nContent-Type: image/png\r\n\r\n`,
+      ),
       uniquePng(),
       Buffer.from(`\r\n--${boundary}--\r\n`),
     ]);
-    const raw = await hal.post('/api/attachments').set('Content-Type', `multipart/form-data; boundary=${boundary}`).send(body);
+    const raw = await hal
+      .post('/api/attachments')
+      .set('Content-Type', `multipart/form-data; boundary=${boundary}`)
+      .send(body);
     expect(raw.status).toBe(201);
     expect(raw.body.attachment.fileName).toBe('scope.png');
     // A raw control byte in the part header is a malformed request: 400 naming the field, not 500.
-    const bad = Buffer.from(body.toString('latin1').replace("filename*=UTF-8''scope%07%1B%C2%85.png", 'filename="scope\u0007.png"'), 'latin1');
-    const refused = await hal.post('/api/attachments').set('Content-Type', `multipart/form-data; boundary=${boundary}`).send(bad);
+    const bad = Buffer.from(
+      body.toString('latin1').replace("filename*=UTF-8''scope%07%1B%C2%85.png", 'filename="scope\u0007.png"'),
+      'latin1',
+    );
+    const refused = await hal
+      .post('/api/attachments')
+      .set('Content-Type', `multipart/form-data; boundary=${boundary}`)
+      .send(bad);
     expect(refused.status).toBe(400);
     expect(refused.body.fields).toEqual([{ field: 'body.file', reason: expect.any(String) }]);
   });
@@ -97,11 +123,15 @@ describe('upload names and types', () => {
     expect(res.body.attachment).toMatchObject({ fileName: 'evil.png', mediaType: 'image/png' });
     const got = await hal.get(res.body.attachment.url);
     expect(got.headers['content-type']).toBe('image/png');
-    expect(got.headers['content-disposition']).toBe(`attachment; filename="evil.png"; filename*=UTF-8''evil.png`);
+    expect(got.headers['content-disposition']).toBe(
+      `attachment; filename="evil.png"; filename*=UTF-8''evil.png`,
+    );
     // A name without an extension gets the type's own.
     expect((await upload(hal, uniquePng(), 'scope')).body.attachment.fileName).toBe('scope.png');
     // A JPEG may keep either of its usual endings.
-    expect((await upload(hal, jpegHeaderOf(40, 30), 'bench.jpeg')).body.attachment.fileName).toBe('bench.jpeg');
+    expect((await upload(hal, jpegHeaderOf(40, 30), 'bench.jpeg')).body.attachment.fileName).toBe(
+      'bench.jpeg',
+    );
   });
 
   it('serves a non-ASCII name with an ASCII fallback and an RFC 5987 UTF-8 form', async () => {
@@ -109,7 +139,9 @@ describe('upload names and types', () => {
     const res = await upload(hal, uniquePng(), 'Röhre (2).png');
     const got = await hal.get(res.body.attachment.url);
     // RFC 6266 §4.3 / RFC 5987 §3.2: ö is UTF-8 C3 B6; space, "(" and ")" are not attr-chars and are percent-encoded.
-    expect(got.headers['content-disposition']).toBe(`attachment; filename="R_hre (2).png"; filename*=UTF-8''R%C3%B6hre%20%282%29.png`);
+    expect(got.headers['content-disposition']).toBe(
+      `attachment; filename="R_hre (2).png"; filename*=UTF-8''R%C3%B6hre%20%282%29.png`,
+    );
   });
 });
 
@@ -118,7 +150,9 @@ describe('image dimensions', () => {
     const hal = await t.as('hal');
     const huge = await upload(hal, pngOf(30000, 30000), 'bomb.png');
     expect(huge.status).toBe(400);
-    expect(huge.body.fields).toEqual([{ field: 'body.file', reason: expect.stringMatching(/30000 × 30000 px.*8000 × 8000/) }]);
+    expect(huge.body.fields).toEqual([
+      { field: 'body.file', reason: expect.stringMatching(/30000 × 30000 px.*8000 × 8000/) },
+    ]);
     expect((await upload(hal, pngOf(8001, 1), 'wide.png')).status).toBe(400);
     expect((await upload(hal, pngOf(1, 8001), 'tall.png')).status).toBe(400);
     expect((await upload(hal, pngOf(8000, 1, 7), 'edge.png')).status).toBe(201);
@@ -128,8 +162,13 @@ describe('image dimensions', () => {
     const hal = await t.as('hal');
     const jpeg = await upload(hal, jpegHeaderOf(9000, 20), 'wide.jpg');
     expect(jpeg.status).toBe(400);
-    expect(jpeg.body.fields[0]).toMatchObject({ field: 'body.file', reason: expect.stringMatching(/9000 × 20 px/) });
-    expect((await upload(hal, jpegHeaderOf(20, 8001, 'progressive'), 'tall.jpg')).body.fields[0].reason).toMatch(/20 × 8001 px/);
+    expect(jpeg.body.fields[0]).toMatchObject({
+      field: 'body.file',
+      reason: expect.stringMatching(/9000 × 20 px/),
+    });
+    expect(
+      (await upload(hal, jpegHeaderOf(20, 8001, 'progressive'), 'tall.jpg')).body.fields[0].reason,
+    ).toMatch(/20 × 8001 px/);
     expect((await upload(hal, jpegHeaderOf(640, 480), 'ok.jpg')).status).toBe(201);
     for (const chunk of ['VP8X', 'VP8L', 'VP8 '] as const) {
       const wide = await upload(hal, webpHeaderOf(12000, 3, chunk), 'wide.webp');
@@ -144,19 +183,29 @@ describe('image dimensions', () => {
     const revision = await benchProcedure(t);
     const unit = await newUnit(tom);
     const run = (await startRun(tom, revision.id, unit.id)).body.run;
-    const huge = await tom.post(`/api/runs/${run.id}/photos`).attach('file', pngOf(30000, 30000), { filename: 'tp1.png' });
+    const huge = await tom
+      .post(`/api/runs/${run.id}/photos`)
+      .attach('file', pngOf(30000, 30000), { filename: 'tp1.png' });
     expect(huge.status).toBe(400);
     expect(huge.body.fields[0]).toMatchObject({ field: 'body.file' });
-    const named = await tom.post(`/api/runs/${run.id}/photos`).attach('file', uniquePng(), { filename: 'Prüfpunkt\u202E.html' });
+    const named = await tom
+      .post(`/api/runs/${run.id}/photos`)
+      .attach('file', uniquePng(), { filename: 'Prüfpunkt\u202E.html' });
     expect(named.status).toBe(201);
     const got = await tom.get(named.body.photo.url);
     expect(got.headers['content-type']).toBe('image/png');
-    expect(got.headers['content-disposition']).toBe(`attachment; filename="Pr_fpunkt.png"; filename*=UTF-8''Pr%C3%BCfpunkt.png`);
+    expect(got.headers['content-disposition']).toBe(
+      `attachment; filename="Pr_fpunkt.png"; filename*=UTF-8''Pr%C3%BCfpunkt.png`,
+    );
   });
 });
 
 describe('who may read an attachment', () => {
-  const imageDoc = (attachmentId: string) => doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), { type: 'image', attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' } });
+  const imageDoc = (attachmentId: string) =>
+    doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), {
+      type: 'image',
+      attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' },
+    });
 
   it('a draft’s attachment is 404 for a technician and readable by staff; once approved, technicians read it too', async () => {
     const hal = await t.as('hal');
@@ -182,7 +231,9 @@ describe('who may read an attachment', () => {
     const revision = await benchProcedure(t);
     const unit = await newUnit(tom);
     const run = (await startRun(tom, revision.id, unit.id)).body.run;
-    const photo = await tom.post(`/api/runs/${run.id}/photos`).attach('file', uniquePng(), { filename: 'tp.png' });
+    const photo = await tom
+      .post(`/api/runs/${run.id}/photos`)
+      .attach('file', uniquePng(), { filename: 'tp.png' });
     expect((await (await t.as('priya')).get(photo.body.photo.url)).status).toBe(200);
   });
 });

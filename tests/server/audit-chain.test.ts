@@ -26,7 +26,15 @@ async function aroundTheTriggers(statement: ReturnType<typeof sql>) {
 
 describe('the audit hash chain', () => {
   it('links every entry to the one before, from a genesis of zeros; concurrent writers never fork it', async () => {
-    await Promise.all(Array.from({ length: 30 }, (_, i) => recordAudit(t.db, { action: 'sign-in.failed', subject: `chain-${i}@tallowcreek.example`, details: { n: i, note: 'ünïcode ✓' } })));
+    await Promise.all(
+      Array.from({ length: 30 }, (_, i) =>
+        recordAudit(t.db, {
+          action: 'sign-in.failed',
+          subject: `chain-${i}@tallowcreek.example`,
+          details: { n: i, note: 'ünïcode ✓' },
+        }),
+      ),
+    );
     const rows = await t.db.select().from(auditLog).orderBy(auditLog.seq);
     expect(rows.length).toBeGreaterThan(30);
     expect(rows[0]!.seq).toBe(1);
@@ -37,23 +45,61 @@ describe('the audit hash chain', () => {
       expect(r.rowHash).toMatch(/^[0-9a-f]{64}$/);
     });
     const report = await verifyAuditChain(t.db);
-    expect(report).toEqual({ checked: rows.length, head: { seq: rows.length, rowHash: rows.at(-1)!.rowHash }, firstBroken: null });
+    expect(report).toEqual({
+      checked: rows.length,
+      head: { seq: rows.length, rowHash: rows.at(-1)!.rowHash },
+      firstBroken: null,
+    });
   });
 
   it('the row hash is SHA-256 of the documented text (FIPS 180-4 via node:crypto)', () => {
-    const row = { seq: 7, id: 42, at: '2026-12-02T08:00:00.000000Z', actorId: null, action: 'sign-out', subject: 'a@b', details: '{"k": 1}', ip: '127.0.0.1', prevHash: GENESIS_HASH };
-    const text = ['7', '42', '2026-12-02T08:00:00.000000Z', '\\N', 'sign-out', 'a@b', '{"k": 1}', '127.0.0.1', GENESIS_HASH].join('\u001f');
+    const row = {
+      seq: 7,
+      id: 42,
+      at: '2026-12-02T08:00:00.000000Z',
+      actorId: null,
+      action: 'sign-out',
+      subject: 'a@b',
+      details: '{"k": 1}',
+      ip: '127.0.0.1',
+      prevHash: GENESIS_HASH,
+    };
+    const text = [
+      '7',
+      '42',
+      '2026-12-02T08:00:00.000000Z',
+      '\\N',
+      'sign-out',
+      'a@b',
+      '{"k": 1}',
+      '127.0.0.1',
+      GENESIS_HASH,
+    ].join('\u001f');
     expect(auditRowHash(row)).toBe(createHash('sha256').update(text).digest('hex'));
     // A known vector, so the helper is not merely compared with itself: SHA-256("abc"), FIPS 180-2 appendix B.1.
-    expect(createHash('sha256').update('abc').digest('hex')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+    expect(createHash('sha256').update('abc').digest('hex')).toBe(
+      'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad',
+    );
   });
 
   it('a one-byte edit made around the triggers is named as the first broken link', async () => {
-    const target = (await t.db.select().from(auditLog).where(sql`subject like 'chain-%'`).orderBy(auditLog.seq).limit(1).offset(5))[0]!;
+    const target = (
+      await t.db
+        .select()
+        .from(auditLog)
+        .where(sql`subject like 'chain-%'`)
+        .orderBy(auditLog.seq)
+        .limit(1)
+        .offset(5)
+    )[0]!;
     const edited = target.subject!.replace(/.$/, (c) => (c === 'x' ? 'y' : 'x'));
     await aroundTheTriggers(sql`update audit_log set subject = ${edited} where id = ${target.id}`);
     const report = await verifyAuditChain(t.db);
-    expect(report.firstBroken).toMatchObject({ seq: target.seq, id: target.id, reason: 'its content no longer matches its hash' });
+    expect(report.firstBroken).toMatchObject({
+      seq: target.seq,
+      id: target.id,
+      reason: 'its content no longer matches its hash',
+    });
     // Put it back: the chain holds again.
     await aroundTheTriggers(sql`update audit_log set subject = ${target.subject} where id = ${target.id}`);
     expect((await verifyAuditChain(t.db)).firstBroken).toBeNull();
@@ -64,12 +110,20 @@ describe('the audit hash chain', () => {
     const victim = rows[10]!;
     // Re-hash the edited row itself: its own hash matches, the next row's link no longer does.
     await aroundTheTriggers(sql`update audit_log set subject = 'rewritten' where id = ${victim.id}`);
-    await aroundTheTriggers(sql`update audit_log set row_hash = encode(sha256(convert_to(benchwright_audit_text(audit_log), 'UTF8')), 'hex') where id = ${victim.id}`);
+    await aroundTheTriggers(
+      sql`update audit_log set row_hash = encode(sha256(convert_to(benchwright_audit_text(audit_log), 'UTF8')), 'hex') where id = ${victim.id}`,
+    );
     let report = await verifyAuditChain(t.db);
-    expect(report.firstBroken).toMatchObject({ seq: victim.seq! + 1, reason: 'does not link to the entry before it' });
+    expect(report.firstBroken).toMatchObject({
+      seq: victim.seq! + 1,
+      reason: 'does not link to the entry before it',
+    });
     await aroundTheTriggers(sql`delete from audit_log where id = ${victim.id}`);
     report = await verifyAuditChain(t.db);
-    expect(report.firstBroken).toMatchObject({ seq: victim.seq! + 1, reason: `entry ${victim.seq!} is missing` });
+    expect(report.firstBroken).toMatchObject({
+      seq: victim.seq! + 1,
+      reason: `entry ${victim.seq!} is missing`,
+    });
   });
 
   it('an admin sees the check; nobody else may run it', async () => {
@@ -77,7 +131,9 @@ describe('the audit hash chain', () => {
     const res = await admin.get('/api/audit/chain');
     expect(res.status).toBe(200);
     // The log was broken above: the check stops at the first broken entry and says which.
-    expect(res.body.chain.firstBroken).toMatchObject({ reason: expect.stringMatching(/^entry \d+ is missing$/) });
+    expect(res.body.chain.firstBroken).toMatchObject({
+      reason: expect.stringMatching(/^entry \d+ is missing$/),
+    });
     expect(res.body.chain.checked).toBeGreaterThan(0);
     expect((await (await t.as('marek')).get('/api/audit/chain')).status).toBe(403);
   });

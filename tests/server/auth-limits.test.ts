@@ -34,8 +34,14 @@ afterAll(async () => {
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 type Answer = { status: number; retryAfter: string | null };
-const onA = (res: { status: number; headers: Record<string, unknown> }): Answer => ({ status: res.status, retryAfter: (res.headers['retry-after'] as string | undefined) ?? null });
-const onB = (res: { status: number; headers: Headers }): Answer => ({ status: res.status, retryAfter: res.headers.get('retry-after') });
+const onA = (res: { status: number; headers: Record<string, unknown> }): Answer => ({
+  status: res.status,
+  retryAfter: (res.headers['retry-after'] as string | undefined) ?? null,
+});
+const onB = (res: { status: number; headers: Headers }): Answer => ({
+  status: res.status,
+  retryAfter: res.headers.get('retry-after'),
+});
 const count = (answers: Answer[], status: number) => answers.filter((x) => x.status === status).length;
 
 /** Every refused try is a 429 that says how many whole seconds to wait. */
@@ -53,7 +59,9 @@ describe('sign-off password limit, shared by two app processes', () => {
     const body = { password: 'not-marek-s-password', comment: 'Checked.' };
     const url = `/api/revisions/${revision.id}/approve`;
     const answers = await Promise.all(
-      Array.from({ length: 25 }, (_, i) => (i % 2 ? marekB.post(url, body).then(onB) : marekA.post(url).send(body).then(onA))),
+      Array.from({ length: 25 }, (_, i) =>
+        i % 2 ? marekB.post(url, body).then(onB) : marekA.post(url).send(body).then(onA),
+      ),
     );
     expectOnly401Or429WithRetryAfter(answers);
     expect(count(answers, 401)).toBeGreaterThanOrEqual(1);
@@ -61,7 +69,9 @@ describe('sign-off password limit, shared by two app processes', () => {
     const failures = await a.db
       .select()
       .from(auditLog)
-      .where(and(eq(auditLog.action, 'sign-off.failed'), sql`${auditLog.subject} like ${'%r' + revision.number}`));
+      .where(
+        and(eq(auditLog.action, 'sign-off.failed'), sql`${auditLog.subject} like ${'%r' + revision.number}`),
+      );
     expect(failures.length).toBe(count(answers, 401));
     expect(await a.db.select().from(signatures).where(eq(signatures.revisionId, revision.id))).toEqual([]);
 
@@ -83,8 +93,13 @@ describe('sign-off password limit, shared by two app processes', () => {
       ['rd-ht-ac', { value: '251 V' }],
       ['rd-heater', { value: '6.3 V' }],
       ['ck-discharge', { done: true }],
-    ] as const) expect((await entry(tom, run.id, step, body)).status).toBe(200);
-    const answers = await Promise.all(Array.from({ length: 8 }, () => tom.post(`/api/runs/${run.id}/sign`).send({ password: 'not-tom-s-password' }).then(onA)));
+    ] as const)
+      expect((await entry(tom, run.id, step, body)).status).toBe(200);
+    const answers = await Promise.all(
+      Array.from({ length: 8 }, () =>
+        tom.post(`/api/runs/${run.id}/sign`).send({ password: 'not-tom-s-password' }).then(onA),
+      ),
+    );
     expectOnly401Or429WithRetryAfter(answers);
     expect(count(answers, 401)).toBeLessThanOrEqual(SIGN_OFF_TRIES);
     expect(count(answers, 429)).toBeGreaterThanOrEqual(8 - SIGN_OFF_TRIES);
@@ -131,7 +146,11 @@ describe('progressive delay', () => {
   it('each wrong password past the free ones doubles the wait, told with 429 and Retry-After; a right one after the wait starts the count over', async () => {
     const tryWith = async (password: string) => {
       const res = await p.client().signIn(demo.ruth.email, password);
-      return { status: res.status, retryAfter: Number(res.headers['retry-after'] ?? 0), error: String(res.body.error ?? '') };
+      return {
+        status: res.status,
+        retryAfter: Number(res.headers['retry-after'] ?? 0),
+        error: String(res.body.error ?? ''),
+      };
     };
     expect((await tryWith('wrong-1-password')).status).toBe(401);
     expect((await tryWith('wrong-2-password')).status).toBe(401);
@@ -156,7 +175,8 @@ describe('progressive delay', () => {
 });
 
 describe('anonymous requests', () => {
-  const sessionRows = async () => (await a.ownerDb.select({ n: sql<number>`count(*)::int` }).from(sessionTable))[0]!.n;
+  const sessionRows = async () =>
+    (await a.ownerDb.select({ n: sql<number>`count(*)::int` }).from(sessionTable))[0]!.n;
 
   it('a cookie-less GET /api/auth/session stores no session and sets no session cookie; its token still signs in', async () => {
     const before = await sessionRows();
@@ -165,7 +185,11 @@ describe('anonymous requests', () => {
       expect(res.status).toBe(200);
       expect(res.body.user).toBeNull();
       expect(res.body.csrfToken).toMatch(/\S{20,}/);
-      expect(((res.headers['set-cookie'] as unknown as string[] | undefined) ?? []).some((c) => c.startsWith('bw.sid='))).toBe(false);
+      expect(
+        ((res.headers['set-cookie'] as unknown as string[] | undefined) ?? []).some((c) =>
+          c.startsWith('bw.sid='),
+        ),
+      ).toBe(false);
     }
     expect(await sessionRows()).toBe(before);
 
@@ -182,9 +206,15 @@ describe('anonymous requests', () => {
     await x.refreshToken();
     const y = a.client();
     await y.refreshToken();
-    const stolen = await y.agent.post('/api/auth/sign-in').set('x-csrf-token', x.csrf).send({ email: demo.tom.email, password: demo.tom.password });
+    const stolen = await y.agent
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', x.csrf)
+      .send({ email: demo.tom.email, password: demo.tom.password });
     expect(stolen.status).toBe(403);
-    const none = await request(a.app).post('/api/auth/sign-in').set('x-csrf-token', x.csrf).send({ email: demo.tom.email, password: demo.tom.password });
+    const none = await request(a.app)
+      .post('/api/auth/sign-in')
+      .set('x-csrf-token', x.csrf)
+      .send({ email: demo.tom.email, password: demo.tom.password });
     expect(none.status).toBe(403);
     expect((await x.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
   });

@@ -58,7 +58,8 @@ describe('sign-in', () => {
 
   it('rate-limits repeated failures for one account with a clear message', async () => {
     const statuses: number[] = [];
-    for (let i = 0; i < 6; i++) statuses.push((await t.client().signIn(demo.dee.email, `wrong-${i}-password`)).status);
+    for (let i = 0; i < 6; i++)
+      statuses.push((await t.client().signIn(demo.dee.email, `wrong-${i}-password`)).status);
     expect(statuses.slice(0, 4)).toEqual([401, 401, 401, 401]);
     const blocked = await t.client().signIn(demo.dee.email, demo.dee.password);
     expect(blocked.status).toBe(429);
@@ -87,15 +88,23 @@ describe('input and CSRF', () => {
 
   it('a state-changing request without the CSRF token gets 403', async () => {
     const c = await t.as('admin');
-    const res = await c.agent.post('/api/people/invitations').send({ email: 'x@tallowcreek.example', displayName: 'X', roles: ['technician'] });
+    const res = await c.agent
+      .post('/api/people/invitations')
+      .send({ email: 'x@tallowcreek.example', displayName: 'X', roles: ['technician'] });
     expect(res.status).toBe(403);
-    const sign = await t.client().agent.post('/api/auth/sign-in').send({ email: demo.hal.email, password: demo.hal.password });
+    const sign = await t
+      .client()
+      .agent.post('/api/auth/sign-in')
+      .send({ email: demo.hal.email, password: demo.hal.password });
     expect(sign.status).toBe(403);
   });
 
   it('a write from a foreign Origin is refused even with the token', async () => {
     const c = await t.as('admin');
-    const res = await c.post('/api/people/invitations').set('Origin', 'https://evil.example').send({ email: 'y@tallowcreek.example', displayName: 'Y', roles: ['technician'] });
+    const res = await c
+      .post('/api/people/invitations')
+      .set('Origin', 'https://evil.example')
+      .send({ email: 'y@tallowcreek.example', displayName: 'Y', roles: ['technician'] });
     expect(res.status).toBe(403);
     const site = await c.post('/api/auth/sign-out').set('Sec-Fetch-Site', 'cross-site');
     expect(site.status).toBe(403);

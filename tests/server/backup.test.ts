@@ -40,10 +40,14 @@ async function fingerprint(url: string) {
   const c = new pg.Client({ connectionString: url });
   await c.connect();
   try {
-    const tables = (await c.query(`select tablename from pg_tables where schemaname = 'public' order by 1`)).rows.map((r) => r.tablename as string);
+    const tables = (
+      await c.query(`select tablename from pg_tables where schemaname = 'public' order by 1`)
+    ).rows.map((r) => r.tablename as string);
     const out: Record<string, { rows: number; md5: string }> = {};
     for (const table of tables) {
-      const r = await c.query(`select count(*)::int as rows, coalesce(md5(string_agg(t::text, '|' order by t::text)), '') as md5 from "${table}" t`);
+      const r = await c.query(
+        `select count(*)::int as rows, coalesce(md5(string_agg(t::text, '|' order by t::text)), '') as md5 from "${table}" t`,
+      );
       out[table] = r.rows[0];
     }
     return out;
@@ -53,13 +57,18 @@ async function fingerprint(url: string) {
 }
 
 const imageDoc = (attachmentId: string) =>
-  doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), { type: 'image', attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' } });
+  doc(paragraph('Photograph the reservoir before power-up.'), fuseBlock('0.1 A'), reading('±5 %'), {
+    type: 'image',
+    attrs: { id: 'img-reservoir', attachmentId, alt: 'Reservoir', caption: 'Reservoir' },
+  });
 
 describe('backup and restore', () => {
   it('restores into a fresh cluster with the same rows in every table, every signature verifying and every upload intact', async () => {
     const hal = await t.as('hal');
     const image = pngOf(7, 3, 42);
-    const up = await hal.post('/api/attachments').attach('file', image, { filename: 'reservoir.png', contentType: 'image/png' });
+    const up = await hal
+      .post('/api/attachments')
+      .attach('file', image, { filename: 'reservoir.png', contentType: 'image/png' });
     expect(up.status).toBe(201);
     // An approved revision showing the image: its sign-off covers the file's bytes.
     const { revision } = await inReview(t, 'hal', imageDoc(up.body.attachment.id));
@@ -68,14 +77,27 @@ describe('backup and restore', () => {
     const legacy = pngOf(2, 9, 17);
     writeFileSync(path.join(t.uploadDir, 'a'.repeat(32)), legacy);
     const [person] = await t.db.select({ id: people.id }).from(people).limit(1);
-    await t.db.insert(attachments).values({ originalName: 'old.png', mediaType: 'image/png', size: legacy.length, sha256: sha256(legacy), uploadedBy: person!.id });
+    await t.db
+      .insert(attachments)
+      .values({
+        originalName: 'old.png',
+        mediaType: 'image/png',
+        size: legacy.length,
+        sha256: sha256(legacy),
+        uploadedBy: person!.id,
+      });
 
     const file = createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
     expect(path.basename(file)).toMatch(/^benchwright-\d{4}-\d{2}-\d{2}T.*\.tar$/);
 
     const restoredUploads = path.join(work, 'restored-uploads');
     const restoredUrl = fresh.urlFor('benchwright_restored');
-    await restoreBackup({ file, adminUrl: fresh.adminUrl, databaseUrl: restoredUrl, uploadDir: restoredUploads });
+    await restoreBackup({
+      file,
+      adminUrl: fresh.adminUrl,
+      databaseUrl: restoredUrl,
+      uploadDir: restoredUploads,
+    });
 
     const [before, after] = [await fingerprint(t.ownerUrl), await fingerprint(restoredUrl)];
     expect(Object.keys(after).length).toBeGreaterThan(5);
@@ -97,7 +119,10 @@ describe('backup and restore', () => {
       // Every reviewer signature recomputes to its content hash in the restored database.
       const sigs = await restoredDb.select().from(signatures);
       expect(sigs.length).toBeGreaterThan(0);
-      for (const sig of sigs) expect((await verifySignature(restoredDb, restoredFiles, sig)).verified, `signature ${sig.id}`).toBe(true);
+      for (const sig of sigs)
+        expect((await verifySignature(restoredDb, restoredFiles, sig)).verified, `signature ${sig.id}`).toBe(
+          true,
+        );
       // The records check says the same, for files, sign-offs and run sheets.
       const clean = await checkRecords(restoredDb, restoredFiles);
       expect(clean.files.damaged).toEqual([]);
@@ -123,7 +148,9 @@ describe('backup and restore', () => {
       // A restored file altered afterwards: the check names it and the sign-off that covers it.
       writeFileSync(path.join(restoredUploads, sha256(image)), pngOf(7, 3, 43));
       const damaged = await checkRecords(restoredDb, restoredFiles);
-      expect(damaged.files.damaged).toEqual([{ attachmentId: up.body.attachment.id, fileName: 'reservoir.png' }]);
+      expect(damaged.files.damaged).toEqual([
+        { attachmentId: up.body.attachment.id, fileName: 'reservoir.png' },
+      ]);
       const approval = sigs.find((s) => s.revisionId === revision.id)!;
       expect(damaged.revisionSignatures.unverified).toEqual([approval.id]);
       expect(describeCheck(damaged)).toContain(`  NOT VERIFIED: signature ${approval.id}`);
@@ -132,6 +159,13 @@ describe('backup and restore', () => {
     }
 
     // Restoring over an existing database is refused.
-    await expect(restoreBackup({ file, adminUrl: fresh.adminUrl, databaseUrl: restoredUrl, uploadDir: path.join(work, 'other') })).rejects.toThrow(/already exists/);
+    await expect(
+      restoreBackup({
+        file,
+        adminUrl: fresh.adminUrl,
+        databaseUrl: restoredUrl,
+        uploadDir: path.join(work, 'other'),
+      }),
+    ).rejects.toThrow(/already exists/);
   });
 });

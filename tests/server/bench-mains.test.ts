@@ -22,23 +22,53 @@ const para = (text: string) => ({ type: 'paragraph', content: [{ type: 'text', t
 const doc: ProcedureDoc = {
   type: 'doc',
   content: [
-    { type: 'hazardNote', attrs: { id: 'hz-live', level: 'danger' }, content: [para('HT live. One hand; isolation transformer.')] },
+    {
+      type: 'hazardNote',
+      attrs: { id: 'hz-live', level: 'danger' },
+      content: [para('HT live. One hand; isolation transformer.')],
+    },
     {
       type: 'reckoner',
       attrs: {
         id: 'rk-peak',
         name: 'peakNoLoad',
         kind: 'peak-no-load',
-        inputs: { windingVoltage: '245 V', windingBasis: 'nominal', mainsNominal: '230', mainsActual: '', rectifier: 'silicon-bridge', diodeDrop: '0.9', valveDrop: '', unloadedRise: '10', filterNodes: '' },
+        inputs: {
+          windingVoltage: '245 V',
+          windingBasis: 'nominal',
+          mainsNominal: '230',
+          mainsActual: '',
+          rectifier: 'silicon-bridge',
+          diodeDrop: '0.9',
+          valveDrop: '',
+          unloadedRise: '10',
+          filterNodes: '',
+        },
       },
     },
     {
       type: 'reading',
-      attrs: { id: 'rd-noload', label: 'No-load DC at the reservoir', testPoint: 'TP3', meterRange: 'DC 1000 V', unit: 'V', expected: { ref: 'peakNoLoad.noLoadDc' }, tolerance: '±10 %' },
+      attrs: {
+        id: 'rd-noload',
+        label: 'No-load DC at the reservoir',
+        testPoint: 'TP3',
+        meterRange: 'DC 1000 V',
+        unit: 'V',
+        expected: { ref: 'peakNoLoad.noLoadDc' },
+        tolerance: '±10 %',
+      },
     },
     {
       type: 'reading',
-      attrs: { id: 'rd-winding', label: 'HT winding', testPoint: 'TP1', meterRange: 'AC 750 V', unit: 'V', expected: { ref: 'peakNoLoad.windingVoltage' }, tolerance: '±5 %' },
+      attrs: {
+        id: 'rd-winding',
+        label: 'HT winding',
+        testPoint: 'TP1',
+        meterRange: 'AC 750 V',
+        unit: 'V',
+        expected: { ref: 'peakNoLoad.windingVoltage' },
+        tolerance: '±5 %',
+      },
     },
   ],
 };
@@ -79,7 +109,10 @@ describe('readings typed in the wrong measure', () => {
     await entry(tom, run.id, 'hz-live', { done: true });
     const ac = await entry(tom, run.id, 'rd-noload', { value: '350 VAC' });
     expect(ac.status).toBe(400);
-    expect(ac.body.fields[0]).toMatchObject({ field: 'body.value', reason: expect.stringMatching(/rms value, but this reading takes V DC/) });
+    expect(ac.body.fields[0]).toMatchObject({
+      field: 'body.value',
+      reason: expect.stringMatching(/rms value, but this reading takes V DC/),
+    });
     const pk = await entry(tom, run.id, 'rd-winding', { value: '424 V pk' });
     expect(pk.status).toBe(400);
     expect(pk.body.fields[0].reason).toContain('299.8 V rms');

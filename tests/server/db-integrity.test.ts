@@ -25,7 +25,10 @@ afterAll(() => t.close());
  * Runs the statements in one transaction on a session of its own (temporary tables live per
  * session); returns the database's message when any statement or the commit is refused.
  */
-async function inOneTransaction(as: 'app' | 'owner', statements: [string, unknown[]?][]): Promise<string | null> {
+async function inOneTransaction(
+  as: 'app' | 'owner',
+  statements: [string, unknown[]?][],
+): Promise<string | null> {
   const c = new pg.Client({ connectionString: as === 'app' ? t.databaseUrl : t.ownerUrl });
   await c.connect();
   try {
@@ -50,7 +53,9 @@ describe('a temporary table cannot stand in for a real one (finding 1)', () => {
       where n.nspname = 'public' order by 1`);
     // Every trigger function of drizzle/0003–0012 at least; a new one must be pinned as well.
     expect(rows.length).toBeGreaterThanOrEqual(12);
-    const unpinned = rows.filter((r) => !(r.proconfig ?? []).includes('search_path=pg_catalog, public, pg_temp')).map((r) => r.proname);
+    const unpinned = rows
+      .filter((r) => !(r.proconfig ?? []).includes('search_path=pg_catalog, public, pg_temp'))
+      .map((r) => r.proname);
     expect(unpinned).toEqual([]);
   });
 
@@ -62,7 +67,9 @@ describe('a temporary table cannot stand in for a real one (finding 1)', () => {
       [`update run_entries set raw = '999 V', measured = 999 where run_id = $1`, [run.id]],
     ]);
     expect(refused).toMatch(/permission denied to create temporary tables/);
-    const after = await one<{ n: number }>(sql`select count(*)::int as n from run_entries where run_id = ${run.id} and raw = '999 V'`);
+    const after = await one<{ n: number }>(
+      sql`select count(*)::int as n from run_entries where run_id = ${run.id} and raw = '999 V'`,
+    );
     expect(after.n).toBe(0);
   });
 
@@ -79,7 +86,9 @@ describe('a temporary table cannot stand in for a real one (finding 1)', () => {
     const { revision } = await inReview(t);
     const row = await one<{ id: string; procedure_id: string; number: number; author_id: string }>(sql`
       select id, procedure_id, number, author_id from revisions where id = ${revision.id}`);
-    const marek = await one<{ id: string }>(sql`select id from people where email = 'marek@tallowcreek.example'`);
+    const marek = await one<{ id: string }>(
+      sql`select id from people where email = 'marek@tallowcreek.example'`,
+    );
     const attack: [string, unknown[]?][] = [
       ['create temp table revisions (id uuid, procedure_id uuid, number int, state text)'],
       [`insert into revisions values ($1, $2, $3, 'approved')`, [row.id, row.procedure_id, row.number]],
@@ -90,20 +99,34 @@ describe('a temporary table cannot stand in for a real one (finding 1)', () => {
       ],
     ];
     expect(await inOneTransaction('app', attack)).toMatch(/permission denied to create temporary tables/);
-    expect(await inOneTransaction('owner', attack)).toMatch(/needs revision .* to be approved, but it is in_review/);
-    const sigs = await one<{ n: number }>(sql`select count(*)::int as n from signatures where revision_id = ${row.id}`);
+    expect(await inOneTransaction('owner', attack)).toMatch(
+      /needs revision .* to be approved, but it is in_review/,
+    );
+    const sigs = await one<{ n: number }>(
+      sql`select count(*)::int as n from signatures where revision_id = ${row.id}`,
+    );
     expect(sigs.n).toBe(0);
   });
 });
 
 describe('approval and run sign-off need their signature, in the same transaction (finding 3)', () => {
-  const personId = async (who: string) => (await one<{ id: string }>(sql`select id from people where email = ${`${who}@tallowcreek.example`}`)).id;
+  const personId = async (who: string) =>
+    (await one<{ id: string }>(sql`select id from people where email = ${`${who}@tallowcreek.example`}`)).id;
 
   /** The statements that approve `revisionId` directly, with a signature by `signer` over `signedHash`. */
-  async function approvalBy(revisionId: string, signer: string | null, signedHash?: string): Promise<[string, unknown[]?][]> {
+  async function approvalBy(
+    revisionId: string,
+    signer: string | null,
+    signedHash?: string,
+  ): Promise<[string, unknown[]?][]> {
     const [row] = await t.db.select().from(revisions).where(eq(revisions.id, revisionId));
     const hash = await revisionContentHash(t.db, t.files, row!);
-    const statements: [string, unknown[]?][] = [[`update revisions set state = 'approved', content_hash = $2, decided_at = now() where id = $1`, [revisionId, hash]]];
+    const statements: [string, unknown[]?][] = [
+      [
+        `update revisions set state = 'approved', content_hash = $2, decided_at = now() where id = $1`,
+        [revisionId, hash],
+      ],
+    ];
     if (signer) {
       statements.push([
         `insert into signatures (revision_id, procedure_id, revision_number, signer_id, signer_name, signer_email, signer_role, meaning, content_hash)
@@ -116,20 +139,30 @@ describe('approval and run sign-off need their signature, in the same transactio
 
   it('an in-review revision does not become approved by UPDATE alone', async () => {
     const { revision } = await inReview(t);
-    expect(await inOneTransaction('app', [[`update revisions set state = 'approved' where id = $1`, [revision.id]]])).toMatch(
-      /cannot be approved without a reviewer's approval signature written in the same transaction/,
+    expect(
+      await inOneTransaction('app', [
+        [`update revisions set state = 'approved' where id = $1`, [revision.id]],
+      ]),
+    ).toMatch(/cannot be approved without a reviewer's approval signature written in the same transaction/);
+    expect(await inOneTransaction('app', await approvalBy(revision.id, null))).toMatch(
+      /cannot be approved without a reviewer's approval signature/,
     );
-    expect(await inOneTransaction('app', await approvalBy(revision.id, null))).toMatch(/cannot be approved without a reviewer's approval signature/);
     const [row] = await t.db.select().from(revisions).where(eq(revisions.id, revision.id));
     expect(row!.state).toBe('in_review');
   });
 
   it('nor with a signature over another hash, by its own author, or by someone who is not a reviewer; a well-formed one passes', async () => {
     const { revision } = await inReview(t);
-    expect(await inOneTransaction('app', await approvalBy(revision.id, 'marek', 'f'.repeat(64)))).toMatch(/cannot be approved: the signature is over content hash f{64}/);
-    expect(await inOneTransaction('app', await approvalBy(revision.id, 'tom'))).toMatch(/cannot be approved: .* is not an active reviewer/);
+    expect(await inOneTransaction('app', await approvalBy(revision.id, 'marek', 'f'.repeat(64)))).toMatch(
+      /cannot be approved: the signature is over content hash f{64}/,
+    );
+    expect(await inOneTransaction('app', await approvalBy(revision.id, 'tom'))).toMatch(
+      /cannot be approved: .* is not an active reviewer/,
+    );
     const byDee = await inReview(t, 'dee');
-    expect(await inOneTransaction('app', await approvalBy(byDee.revision.id, 'dee'))).toMatch(/cannot be approved: .* wrote or edited it/);
+    expect(await inOneTransaction('app', await approvalBy(byDee.revision.id, 'dee'))).toMatch(
+      /cannot be approved: .* wrote or edited it/,
+    );
     // What the database cannot see is the password: checking that is the server's part.
     expect(await inOneTransaction('app', await approvalBy(revision.id, 'marek'))).toBeNull();
   });
@@ -160,21 +193,37 @@ describe('approval and run sign-off need their signature, in the same transactio
      select id, $2, 'x', 'technician', 'performed', $3, revision_id, revision_hash from runs where id = $1`,
     [runId, signerId, hash],
   ];
-  const markSigned = (runId: string, hash: string): [string, unknown[]] => [`update runs set status = 'signed', signed_at = now(), content_hash = $2 where id = $1`, [runId, hash]];
+  const markSigned = (runId: string, hash: string): [string, unknown[]] => [
+    `update runs set status = 'signed', signed_at = now(), content_hash = $2 where id = $1`,
+    [runId, hash],
+  ];
 
   it('a run sheet does not become signed without its signature over the same hash, written in the same transaction', async () => {
     const tom = await personId('tom');
     const hash = 'a'.repeat(64);
     const runId = await openRunAs('tom');
-    expect(await inOneTransaction('app', [markSigned(runId, hash)])).toMatch(/cannot be signed without its signature over content hash a{64}, written in the same transaction/);
-    expect(await inOneTransaction('app', [runSignature(runId, tom, 'b'.repeat(64)), markSigned(runId, hash)])).toMatch(/cannot be signed without its signature/);
+    expect(await inOneTransaction('app', [markSigned(runId, hash)])).toMatch(
+      /cannot be signed without its signature over content hash a{64}, written in the same transaction/,
+    );
+    expect(
+      await inOneTransaction('app', [runSignature(runId, tom, 'b'.repeat(64)), markSigned(runId, hash)]),
+    ).toMatch(/cannot be signed without its signature/);
     // A signature left from an earlier transaction does not count.
     expect(await inOneTransaction('app', [runSignature(runId, tom, hash)])).toBeNull();
-    expect(await inOneTransaction('app', [markSigned(runId, hash)])).toMatch(/cannot be signed without its signature/);
-    expect((await one<{ status: string }>(sql`select status from runs where id = ${runId}`)).status).toBe('in_progress');
+    expect(await inOneTransaction('app', [markSigned(runId, hash)])).toMatch(
+      /cannot be signed without its signature/,
+    );
+    expect((await one<{ status: string }>(sql`select status from runs where id = ${runId}`)).status).toBe(
+      'in_progress',
+    );
     // Signature and status together pass.
     const other = await openRunAs('priya');
-    expect(await inOneTransaction('app', [runSignature(other, await personId('priya'), hash), markSigned(other, hash)])).toBeNull();
+    expect(
+      await inOneTransaction('app', [
+        runSignature(other, await personId('priya'), hash),
+        markSigned(other, hash),
+      ]),
+    ).toBeNull();
   });
 
   it('a run is created in progress, never already signed', async () => {
@@ -208,32 +257,64 @@ describe('the audit log keeps its own time and is checked (must-exist 11)', () =
         done();
       },
     });
-    const lines = () => output.split('\n').filter(Boolean).map((l) => JSON.parse(l) as { level: number; msg: string; head?: { seq: number; rowHash: string }; firstBroken?: { seq: number } });
+    const lines = () =>
+      output
+        .split('\n')
+        .filter(Boolean)
+        .map(
+          (l) =>
+            JSON.parse(l) as {
+              level: number;
+              msg: string;
+              head?: { seq: number; rowHash: string };
+              firstBroken?: { seq: number };
+            },
+        );
     const checks = () => lines().filter((l) => /^audit chain/.test(l.msg));
     const running = await startServer({
       databaseUrl: t.databaseUrl,
       port: 0,
       logger: createLogger('info', sink),
-      config: { sessionSecret: 'chain-watch'.padEnd(40, 'x'), uploadDir: t.uploadDir, auditCheckIntervalMs: 300 },
+      config: {
+        sessionSecret: 'chain-watch'.padEnd(40, 'x'),
+        uploadDir: t.uploadDir,
+        auditCheckIntervalMs: 300,
+      },
     });
     try {
       await expect.poll(() => checks().length, { timeout: 5_000, interval: 50 }).toBeGreaterThanOrEqual(2);
     } finally {
       await running.close();
     }
-    const head = await one<{ seq: number; row_hash: string }>(sql`select seq::int, row_hash from audit_log order by seq desc limit 1`);
+    const head = await one<{ seq: number; row_hash: string }>(
+      sql`select seq::int, row_hash from audit_log order by seq desc limit 1`,
+    );
     const first = checks()[0]!;
-    expect(first).toMatchObject({ level: 30, msg: 'audit chain verified', head: { seq: head.seq, rowHash: head.row_hash } });
+    expect(first).toMatchObject({
+      level: 30,
+      msg: 'audit chain verified',
+      head: { seq: head.seq, rowHash: head.row_hash },
+    });
 
     // A row edited around the triggers (only the owner can): the next check is an error naming it.
-    const victim = await one<{ id: number; seq: number }>(sql`select id, seq::int from audit_log order by seq limit 1 offset 2`);
+    const victim = await one<{ id: number; seq: number }>(
+      sql`select id, seq::int from audit_log order by seq limit 1 offset 2`,
+    );
     await t.ownerDb.transaction(async (tx) => {
       await tx.execute(sql`alter table audit_log disable trigger audit_log_append_only`);
-      await tx.execute(sql`update audit_log set subject = coalesce(subject, '') || '!' where id = ${victim.id}`);
+      await tx.execute(
+        sql`update audit_log set subject = coalesce(subject, '') || '!' where id = ${victim.id}`,
+      );
       await tx.execute(sql`alter table audit_log enable trigger audit_log_append_only`);
     });
     output = '';
     await checkAuditChain(t.db, createLogger('info', sink));
-    expect(checks()).toEqual([expect.objectContaining({ level: 50, msg: 'audit chain broken', firstBroken: expect.objectContaining({ seq: victim.seq }) })]);
+    expect(checks()).toEqual([
+      expect.objectContaining({
+        level: 50,
+        msg: 'audit chain broken',
+        firstBroken: expect.objectContaining({ seq: victim.seq }),
+      }),
+    ]);
   });
 });

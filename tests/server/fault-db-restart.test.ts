@@ -8,7 +8,13 @@ import { promisify } from 'node:util';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PORTS, prepareDatabase, projectRoot, testClusterName } from '../../server/bootstrap/prepare';
-import { pgBinDir, recreateDatabase, startCluster, stopCluster, type Cluster } from '../../server/bootstrap/postgres';
+import {
+  pgBinDir,
+  recreateDatabase,
+  startCluster,
+  stopCluster,
+  type Cluster,
+} from '../../server/bootstrap/postgres';
 import { startServer, type RunningServer } from '../../server/index';
 import { createLogger } from '../../server/logger';
 import { httpSession } from '../support/http-session';
@@ -29,7 +35,12 @@ beforeAll(async () => {
   cluster = startCluster(options);
   await recreateDatabase(cluster.adminUrl, 'benchwright_faultdb');
   url = await prepareDatabase(cluster, 'benchwright_faultdb');
-  server = await startServer({ databaseUrl: url, port: 0, logger: createLogger(process.env.FAULT_LOG ?? 'silent'), config: { sessionSecret: 'fault-db'.padEnd(40, 'x') } });
+  server = await startServer({
+    databaseUrl: url,
+    port: 0,
+    logger: createLogger(process.env.FAULT_LOG ?? 'silent'),
+    config: { sessionSecret: 'fault-db'.padEnd(40, 'x') },
+  });
 });
 afterAll(async () => {
   await server?.close();
@@ -44,30 +55,58 @@ const pgCtl = (args: string[]) => {
   return process.getuid?.() === 0 ? run('runuser', ['-u', 'postgres', '--', bin, ...args]) : run(bin, args);
 };
 
-type Sample = { at: number; kind: 'read' | 'write'; status: number; ms: number; key?: string; error?: string };
+type Sample = {
+  at: number;
+  kind: 'read' | 'write';
+  status: number;
+  ms: number;
+  key?: string;
+  error?: string;
+};
 
 describe('PostgreSQL restart under a stream of reads and writes', () => {
   it('answers 503 while the database is away, recovers within 5 s and keeps every acknowledged write once', async () => {
     const base = server!.url;
     const tom = httpSession(base);
     expect((await tom.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
-    const headers = () => ({ 'content-type': 'application/json', cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() });
+    const headers = () => ({
+      'content-type': 'application/json',
+      cookie: tom.cookieHeader(),
+      'x-csrf-token': tom.csrfToken(),
+    });
 
     // Bench runs on a seeded approved procedure; hazard notes acknowledged so no reading is gated.
-    const list = (await tom.get('/api/procedures')).body as { procedures: { id: string; approved: { id: string } | null }[] };
+    const list = (await tom.get('/api/procedures')).body as {
+      procedures: { id: string; approved: { id: string } | null }[];
+    };
     type Step = { id: string; kind: string; reading?: { expected: number | null } };
     const runs: { id: string; readings: Step[] }[] = [];
     for (const p of list.procedures.filter((x) => x.approved)) {
-      const unit = await tom.post('/api/units', { model: 'TC-30H', serial: `PG-${randomUUID().slice(0, 8)}`, owner: 'Drill', jobNumber: 'J-7' });
+      const unit = await tom.post('/api/units', {
+        model: 'TC-30H',
+        serial: `PG-${randomUUID().slice(0, 8)}`,
+        owner: 'Drill',
+        jobNumber: 'J-7',
+      });
       expect(unit.status).toBe(201);
-      const res = await tom.post('/api/runs', { revisionId: p.approved!.id, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
+      const res = await tom.post('/api/runs', {
+        revisionId: p.approved!.id,
+        unitId: (unit.body.unit as { id: string }).id,
+        mainsVoltage: 230,
+        mainsFrequency: 50,
+      });
       expect(res.status).toBe(201);
       const r = res.body.run as { id: string; steps: Step[] };
       for (const h of r.steps.filter((s) => s.kind === 'hazard')) {
-        const ack = await fetch(`${base}/api/runs/${r.id}/entries/${h.id}`, { method: 'PUT', headers: headers(), body: JSON.stringify({ key: randomUUID(), done: true }) });
+        const ack = await fetch(`${base}/api/runs/${r.id}/entries/${h.id}`, {
+          method: 'PUT',
+          headers: headers(),
+          body: JSON.stringify({ key: randomUUID(), done: true }),
+        });
         expect(ack.status).toBe(200);
       }
-      if (r.steps.some((s) => s.kind === 'reading')) runs.push({ id: r.id, readings: r.steps.filter((s) => s.kind === 'reading') });
+      if (r.steps.some((s) => s.kind === 'reading'))
+        runs.push({ id: r.id, readings: r.steps.filter((s) => s.kind === 'reading') });
     }
     expect(runs.length).toBeGreaterThan(0);
     const procedureIds = list.procedures.map((p) => p.id);
@@ -92,7 +131,11 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
         key = randomUUID();
         const r = runs[i % runs.length]!;
         const step = r.readings[(i >> 1) % r.readings.length]!;
-        const w = { runId: r.id, stepId: step.id, value: (step.reading?.expected ?? 10) * (1 + (i % 11) / 1000) };
+        const w = {
+          runId: r.id,
+          stepId: step.id,
+          value: (step.reading?.expected ?? 10) * (1 + (i % 11) / 1000),
+        };
         writes.set(key, w);
         req = fetch(`${base}/api/runs/${w.runId}/entries/${w.stepId}`, {
           method: 'PUT',
@@ -101,7 +144,12 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
           signal,
         });
       } else {
-        const path = [`/api/procedures/${procedureIds[i % procedureIds.length]}`, `/api/runs/${runs[i % runs.length]!.id}`, '/api/procedures', '/api/health'][(i >> 1) % 4]!;
+        const path = [
+          `/api/procedures/${procedureIds[i % procedureIds.length]}`,
+          `/api/runs/${runs[i % runs.length]!.id}`,
+          '/api/procedures',
+          '/api/health',
+        ][(i >> 1) % 4]!;
         req = fetch(base + path, { headers: headers(), signal });
       }
       const sample: Sample = await req.then(
@@ -109,7 +157,14 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
           await res.arrayBuffer();
           return { at, kind, key, status: res.status, ms: performance.now() - started };
         },
-        (err: Error) => ({ at, kind, key, status: 0, ms: performance.now() - started, error: `${err.message} ${(err.cause as Error | undefined)?.message ?? ''}`.trim() }),
+        (err: Error) => ({
+          at,
+          kind,
+          key,
+          status: 0,
+          ms: performance.now() - started,
+          error: `${err.message} ${(err.cause as Error | undefined)?.message ?? ''}`.trim(),
+        }),
       );
       samples.push(sample);
     };
@@ -129,21 +184,47 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
     const stopped = Date.now() - t0;
     await new Promise((r) => setTimeout(r, DOWN_MS));
     const startBegan = Date.now() - t0;
-    await pgCtl(['start', '-D', cluster.dataDir, '-w', '-t', '60', '-l', path.join(cluster.dataDir, 'server.log'), '-o', `-p ${options.port}`]);
+    await pgCtl([
+      'start',
+      '-D',
+      cluster.dataDir,
+      '-w',
+      '-t',
+      '60',
+      '-l',
+      path.join(cluster.dataDir, 'server.log'),
+      '-o',
+      `-p ${options.port}`,
+    ]);
     const recovered = Date.now() - t0;
     stopAt = Date.now() + AFTER_MS;
     await load;
 
     // Ledger: statuses per second, with the database's phases marked.
     const seconds = Math.ceil(Math.max(...samples.map((s) => s.at)) / 1000);
-    const lines = [`ledger (PostgreSQL restart): stop ${stopBegan}–${stopped} ms, down until ${startBegan} ms, back at ${recovered} ms`];
+    const lines = [
+      `ledger (PostgreSQL restart): stop ${stopBegan}–${stopped} ms, down until ${startBegan} ms, back at ${recovered} ms`,
+    ];
     for (let s = 0; s < seconds; s++) {
       const inSecond = samples.filter((x) => Math.floor(x.at / 1000) === s);
       const byStatus = new Map<number, number>();
       for (const x of inSecond) byStatus.set(x.status, (byStatus.get(x.status) ?? 0) + 1);
-      const phase = (s + 1) * 1000 <= stopBegan ? 'up' : s * 1000 >= stopped && (s + 1) * 1000 <= startBegan ? 'down' : s * 1000 >= recovered ? 'back' : 'edge';
+      const phase =
+        (s + 1) * 1000 <= stopBegan
+          ? 'up'
+          : s * 1000 >= stopped && (s + 1) * 1000 <= startBegan
+            ? 'down'
+            : s * 1000 >= recovered
+              ? 'back'
+              : 'edge';
       const worst = Math.max(0, ...inSecond.map((x) => x.ms));
-      lines.push(`  ${String(s).padStart(2)} s ${phase.padEnd(4)} ${[...byStatus].sort(([a], [b]) => a - b).map(([k, v]) => `${k}×${v}`).join(' ').padEnd(22)} slowest ${worst.toFixed(0)} ms`);
+      lines.push(
+        `  ${String(s).padStart(2)} s ${phase.padEnd(4)} ${[...byStatus]
+          .sort(([a], [b]) => a - b)
+          .map(([k, v]) => `${k}×${v}`)
+          .join(' ')
+          .padEnd(22)} slowest ${worst.toFixed(0)} ms`,
+      );
     }
 
     // Like the client's outbox: resend every write that was not acknowledged, with its own key.
@@ -161,7 +242,10 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
             body: JSON.stringify({ key, value: w.value, reason: 'fault drill: reading taken again' }),
             signal: AbortSignal.timeout(10_000),
           });
-          resent.push({ status: res.status, replayed: ((await res.json()) as { replayed?: boolean }).replayed });
+          resent.push({
+            status: res.status,
+            replayed: ((await res.json()) as { replayed?: boolean }).replayed,
+          });
         }
       }),
     );
@@ -179,7 +263,11 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
       await db.end();
     }
     const acked = samples.filter((s) => s.kind === 'write' && s.status === 200);
-    const byStatus = (xs: Sample[]) => [...new Set(xs.map((x) => x.status))].sort().map((st) => `${st}×${xs.filter((x) => x.status === st).length}`).join(' ');
+    const byStatus = (xs: Sample[]) =>
+      [...new Set(xs.map((x) => x.status))]
+        .sort()
+        .map((st) => `${st}×${xs.filter((x) => x.status === st).length}`)
+        .join(' ');
     lines.push(
       `  totals: ${samples.length} requests (${byStatus(samples)}); writes acknowledged ${acked.length}, not acknowledged ${unacked.length} ` +
         `(resent ${resent.length}: ${resent.filter((r) => r.replayed).length} had been committed); keys in database ${counts.size}, duplicated ${[...counts.values()].filter((v) => v > 1).length}`,
@@ -191,7 +279,9 @@ describe('PostgreSQL restart under a stream of reads and writes', () => {
     expect(samples.filter((s) => s.status >= 500 && s.status !== 503)).toEqual([]);
     expect(samples.filter((s) => s.ms > CONNECT_TIMEOUT_MS + 1_000)).toEqual([]);
     // While the database was fully away, every request that reached it was a 503.
-    const duringOutage = samples.filter((s) => s.at >= stopped && s.at + s.ms < startBegan && s.kind === 'write');
+    const duringOutage = samples.filter(
+      (s) => s.at >= stopped && s.at + s.ms < startBegan && s.kind === 'write',
+    );
     expect(duringOutage.length).toBeGreaterThan(0);
     expect(duringOutage.every((s) => s.status === 503)).toBe(true);
     // From 5 s after the database is back, everything succeeds; the last 4 s have no 5xx at all.

@@ -60,26 +60,45 @@ describe('kill -9 of the server mid-stream of bench-run entries', () => {
     const put = (base: string, p: Planned) =>
       fetch(`${base}/api/runs/${p.runId}/entries/${p.stepId}`, {
         method: 'PUT',
-        headers: { 'content-type': 'application/json', cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() },
+        headers: {
+          'content-type': 'application/json',
+          cookie: tom.cookieHeader(),
+          'x-csrf-token': tom.csrfToken(),
+        },
         body: JSON.stringify({ key: p.key, value: p.value, reason: 'fault drill: reading taken again' }),
         signal: AbortSignal.timeout(10_000),
       }).then(
-        async (res): Promise<Outcome> => ({ status: res.status, replayed: ((await res.json().catch(() => ({}))) as { replayed?: boolean }).replayed }),
+        async (res): Promise<Outcome> => ({
+          status: res.status,
+          replayed: ((await res.json().catch(() => ({}))) as { replayed?: boolean }).replayed,
+        }),
         (): Outcome => ({ status: 0 }),
       );
 
     // A seeded approved procedure with readings; a few runs on it, hazard notes acknowledged up front
     // so no reading is gated.
-    const list = (await tom.get('/api/procedures')).body as { procedures: { id: string; approved: { id: string } | null }[] };
+    const list = (await tom.get('/api/procedures')).body as {
+      procedures: { id: string; approved: { id: string } | null }[];
+    };
     const approved = list.procedures.filter((p) => p.approved);
     expect(approved.length).toBeGreaterThan(0);
     type Step = { id: string; kind: string; reading?: { expected: number | null } };
     let revisionId = '';
     let steps: Step[] = [];
     for (const p of approved) {
-      const unit = await tom.post('/api/units', { model: 'TC-30H', serial: `K9-${randomUUID().slice(0, 8)}`, owner: 'Drill', jobNumber: 'J-9' });
+      const unit = await tom.post('/api/units', {
+        model: 'TC-30H',
+        serial: `K9-${randomUUID().slice(0, 8)}`,
+        owner: 'Drill',
+        jobNumber: 'J-9',
+      });
       expect(unit.status).toBe(201);
-      const res = await tom.post('/api/runs', { revisionId: p.approved!.id, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
+      const res = await tom.post('/api/runs', {
+        revisionId: p.approved!.id,
+        unitId: (unit.body.unit as { id: string }).id,
+        mainsVoltage: 230,
+        mainsFrequency: 50,
+      });
       expect(res.status).toBe(201);
       steps = (res.body.run as { steps: Step[] }).steps;
       if (steps.some((s) => s.kind === 'reading')) {
@@ -91,15 +110,29 @@ describe('kill -9 of the server mid-stream of bench-run entries', () => {
     const readings = steps.filter((s) => s.kind === 'reading');
     const runIds: string[] = [];
     for (let i = 0; i < RUNS; i++) {
-      const unit = await tom.post('/api/units', { model: 'TC-30H', serial: `K9-${randomUUID().slice(0, 8)}`, owner: 'Drill', jobNumber: 'J-9' });
-      const res = await tom.post('/api/runs', { revisionId, unitId: (unit.body.unit as { id: string }).id, mainsVoltage: 230, mainsFrequency: 50 });
+      const unit = await tom.post('/api/units', {
+        model: 'TC-30H',
+        serial: `K9-${randomUUID().slice(0, 8)}`,
+        owner: 'Drill',
+        jobNumber: 'J-9',
+      });
+      const res = await tom.post('/api/runs', {
+        revisionId,
+        unitId: (unit.body.unit as { id: string }).id,
+        mainsVoltage: 230,
+        mainsFrequency: 50,
+      });
       expect(res.status).toBe(201);
       const runId = (res.body.run as { id: string }).id;
       runIds.push(runId);
       for (const h of steps.filter((s) => s.kind === 'hazard')) {
         const ack = await fetch(`${server.url}/api/runs/${runId}/entries/${h.id}`, {
           method: 'PUT',
-          headers: { 'content-type': 'application/json', cookie: tom.cookieHeader(), 'x-csrf-token': tom.csrfToken() },
+          headers: {
+            'content-type': 'application/json',
+            cookie: tom.cookieHeader(),
+            'x-csrf-token': tom.csrfToken(),
+          },
           body: JSON.stringify({ key: randomUUID(), done: true }),
         });
         expect(ack.status).toBe(200);
@@ -109,7 +142,12 @@ describe('kill -9 of the server mid-stream of bench-run entries', () => {
     const planned: Planned[] = Array.from({ length: ENTRIES }, (_, i) => {
       const step = readings[i % readings.length]!;
       // Distinct values, so each entry is a new version of the step's reading.
-      return { key: randomUUID(), runId: runIds[i % RUNS]!, stepId: step.id, value: (step.reading?.expected ?? 10) * (1 + (i % 7) / 1000) };
+      return {
+        key: randomUUID(),
+        runId: runIds[i % RUNS]!,
+        stepId: step.id,
+        value: (step.reading?.expected ?? 10) * (1 + (i % 7) / 1000),
+      };
     });
     const first = new Map<string, Outcome>();
 

@@ -9,7 +9,11 @@ let plain: TestApp;
 let tls: TestApp;
 beforeAll(async () => {
   plain = await createTestApp();
-  tls = await createTestApp({ publicUrl: 'https://bench.tallowcreek.example', trustProxy: 1, allowedHosts: ['bench.tallowcreek.example'] });
+  tls = await createTestApp({
+    publicUrl: 'https://bench.tallowcreek.example',
+    trustProxy: 1,
+    allowedHosts: ['bench.tallowcreek.example'],
+  });
 });
 afterAll(async () => {
   await plain.close();
@@ -20,7 +24,11 @@ describe('headers', () => {
   it('over plain http there is no Strict-Transport-Security; behind TLS there is', async () => {
     const r = await plain.client().get('/api/health');
     expect(r.headers['strict-transport-security']).toBeUndefined();
-    const s = await tls.client().get('/api/health').set('X-Forwarded-Proto', 'https').set('Host', 'bench.tallowcreek.example');
+    const s = await tls
+      .client()
+      .get('/api/health')
+      .set('X-Forwarded-Proto', 'https')
+      .set('Host', 'bench.tallowcreek.example');
     expect(s.headers['strict-transport-security']).toMatch(/max-age=\d+/);
   });
 

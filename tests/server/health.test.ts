@@ -20,8 +20,21 @@ beforeAll(async () => {
   cluster = startCluster(options);
   const url = await prepareDatabase(cluster, 'benchwright_health', { seed: false });
   pool = createPool(url);
-  await createDb(pool).insert(people).values({ email: PERSON.email, displayName: 'Health Check', roles: ['technician'], passwordHash: await hashPassword(PERSON.password) }).onConflictDoNothing();
-  app = createApp({ db: createDb(pool), pool, logger: createLogger('silent'), config: defaultConfig({ sessionSecret: 'x'.repeat(40) }) });
+  await createDb(pool)
+    .insert(people)
+    .values({
+      email: PERSON.email,
+      displayName: 'Health Check',
+      roles: ['technician'],
+      passwordHash: await hashPassword(PERSON.password),
+    })
+    .onConflictDoNothing();
+  app = createApp({
+    db: createDb(pool),
+    pool,
+    logger: createLogger('silent'),
+    config: defaultConfig({ sessionSecret: 'x'.repeat(40) }),
+  });
 });
 afterAll(async () => {
   await pool.end();

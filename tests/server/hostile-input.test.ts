@@ -13,15 +13,21 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const sessions = async () => Number((await t.ownerDb.execute(sql`select count(*)::int as n from session`)).rows[0]!.n);
+const sessions = async () =>
+  Number((await t.ownerDb.execute(sql`select count(*)::int as n from session`)).rows[0]!.n);
 
 describe('control characters', () => {
   it('a NUL in the public sign-in e-mail is a 400 naming the field', async () => {
     const c = t.client();
     await c.refreshToken();
-    const res = await c.post('/api/auth/sign-in').send({ email: 'a\u0000@x.example', password: 'whatever-long-enough' });
+    const res = await c
+      .post('/api/auth/sign-in')
+      .send({ email: 'a\u0000@x.example', password: 'whatever-long-enough' });
     expect(res.status).toBe(400);
-    expect(res.body.fields[0]).toMatchObject({ field: 'body.email', reason: expect.stringContaining('U+0000') });
+    expect(res.body.fields[0]).toMatchObject({
+      field: 'body.email',
+      reason: expect.stringContaining('U+0000'),
+    });
   });
 
   it.each([
@@ -31,9 +37,14 @@ describe('control characters', () => {
     ['a line break', 'TC-18\nfirst power-up', 'one line'],
   ])('%s in a procedure title is a 400 naming body.title', async (_what, title, reason) => {
     const hal = await t.as('hal');
-    const res = await hal.post('/api/procedures').send({ title, equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
+    const res = await hal
+      .post('/api/procedures')
+      .send({ title, equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
     expect(res.status).toBe(400);
-    expect(res.body.fields[0]).toMatchObject({ field: 'body.title', reason: expect.stringContaining(reason) });
+    expect(res.body.fields[0]).toMatchObject({
+      field: 'body.title',
+      reason: expect.stringContaining(reason),
+    });
   });
 
   it('a NUL in a query string or a path parameter is a 400, not a 500', async () => {
@@ -46,7 +57,13 @@ describe('control characters', () => {
 
   it('unit notes may span lines; a unit serial may not', async () => {
     const tom = await t.as('tom');
-    const ok = await tom.post('/api/units').send({ model: 'TC-18', serial: 'TC18-LINES', notes: 'Arrived with a cracked cabinet.\nCustomer wants the old caps back.' });
+    const ok = await tom
+      .post('/api/units')
+      .send({
+        model: 'TC-18',
+        serial: 'TC18-LINES',
+        notes: 'Arrived with a cracked cabinet.\nCustomer wants the old caps back.',
+      });
     expect(ok.status).toBe(201);
     const bad = await tom.post('/api/units').send({ model: 'TC-18', serial: 'TC18\nX' });
     expect(bad.status).toBe(400);
@@ -57,12 +74,22 @@ describe('control characters', () => {
 describe('size and depth', () => {
   it('a document nested thousands deep is a 400, not a stack overflow', async () => {
     const hal = await t.as('hal');
-    const created = await hal.post('/api/procedures').send({ title: 'Deep', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
+    const created = await hal
+      .post('/api/procedures')
+      .send({ title: 'Deep', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
     let node: Record<string, unknown> = { type: 'paragraph' };
     for (let i = 0; i < 3000; i++) node = { type: 'blockquote', content: [node] };
     const res = await hal
       .put(`/api/revisions/${created.body.revision.id}`)
-      .send({ title: 'Deep', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [], params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, lockVersion: 1, document: { type: 'doc', content: [node] } });
+      .send({
+        title: 'Deep',
+        equipmentFamily: 'Guitar amplifier',
+        equipmentModel: 'TC-18',
+        tags: [],
+        params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+        lockVersion: 1,
+        document: { type: 'doc', content: [node] },
+      });
     // Refused before any validator recurses into it (too deep to parse, or beyond the depth limit).
     expect(res.status).toBe(400);
     expect(res.body.error).toMatch(/nested|not valid JSON/);
@@ -70,12 +97,22 @@ describe('size and depth', () => {
 
   it('a document 30 levels deep (within JSON limits) is refused by the document check', async () => {
     const hal = await t.as('hal');
-    const created = await hal.post('/api/procedures').send({ title: 'Deepish', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
+    const created = await hal
+      .post('/api/procedures')
+      .send({ title: 'Deepish', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
     let node: Record<string, unknown> = { type: 'paragraph' };
     for (let i = 0; i < 28; i++) node = { type: 'blockquote', content: [node] };
     const res = await hal
       .put(`/api/revisions/${created.body.revision.id}`)
-      .send({ title: 'Deepish', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [], params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, lockVersion: 1, document: { type: 'doc', content: [node] } });
+      .send({
+        title: 'Deepish',
+        equipmentFamily: 'Guitar amplifier',
+        equipmentModel: 'TC-18',
+        tags: [],
+        params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+        lockVersion: 1,
+        document: { type: 'doc', content: [node] },
+      });
     expect(res.status).toBe(400);
   });
 });
@@ -92,7 +129,8 @@ describe('dates', () => {
 describe('anonymous requests', () => {
   it('a bad anonymous request stores no session row', async () => {
     const before = await sessions();
-    for (let i = 0; i < 5; i++) await t.client().post('/api/auth/sign-in').send({ email: '\u0000', password: 'x' });
+    for (let i = 0; i < 5; i++)
+      await t.client().post('/api/auth/sign-in').send({ email: '\u0000', password: 'x' });
     expect(await sessions()).toBe(before);
   });
 });

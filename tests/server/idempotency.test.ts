@@ -20,7 +20,11 @@ describe('idempotency keys are bound to the request', () => {
     const tom = await t.as('tom');
     const revision = await benchProcedure(t);
     const unit = await newUnit(tom);
-    const run = (await tom.post('/api/runs').send({ revisionId: revision.id, unitId: unit.id, mainsVoltage: 230, mainsFrequency: 50 })).body.run;
+    const run = (
+      await tom
+        .post('/api/runs')
+        .send({ revisionId: revision.id, unitId: unit.id, mainsVoltage: 230, mainsFrequency: 50 })
+    ).body.run;
     await tom.put(`/api/runs/${run.id}/entries/hz-ht-live`).send({ key: randomUUID(), done: true });
 
     const key = randomUUID();
@@ -28,10 +32,16 @@ describe('idempotency keys are bound to the request', () => {
     expect(first.status).toBe(200);
     const again = await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '251 V' });
     expect(again.status).toBe(200);
-    const other = await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '262 V', reason: 'misread' });
+    const other = await tom
+      .put(`/api/runs/${run.id}/entries/rd-ht-ac`)
+      .send({ key, value: '262 V', reason: 'misread' });
     expect(other.status).toBe(422);
     expect(other.body.fields[0]).toMatchObject({ field: 'body.key' });
-    const [stored] = await t.db.select().from(runEntries).where(eq(runEntries.runId, run.id)).then((rows) => rows.filter((r) => r.stepId === 'rd-ht-ac'));
+    const [stored] = await t.db
+      .select()
+      .from(runEntries)
+      .where(eq(runEntries.runId, run.id))
+      .then((rows) => rows.filter((r) => r.stepId === 'rd-ht-ac'));
     expect(stored!.measured).toBe(251);
     expect(stored!.version).toBe(1);
   });

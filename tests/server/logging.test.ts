@@ -29,7 +29,11 @@ beforeAll(async () => {
   database = await createTestDatabase();
   pool = createPool(database.url);
   uploadDir = mkdtempSync(path.join(tmpdir(), 'bw-log-uploads-'));
-  const config = defaultConfig({ sessionSecret: 'logging-test-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', uploadDir });
+  const config = defaultConfig({
+    sessionSecret: 'logging-test-'.padEnd(40, 'x'),
+    publicUrl: 'http://127.0.0.1',
+    uploadDir,
+  });
   app = createApp({ db: createDb(pool), pool, logger: createLogger('info', sink), config });
 });
 afterAll(async () => {
@@ -59,7 +63,8 @@ function session() {
   return {
     secrets,
     get: async (url: string) => keep(await agent.get(url)),
-    post: async (url: string, body: object = {}) => keep(await agent.post(url).set('X-CSRF-Token', csrf).send(body)),
+    post: async (url: string, body: object = {}) =>
+      keep(await agent.post(url).set('X-CSRF-Token', csrf).send(body)),
     async signIn(email: string, password: string) {
       await this.get('/api/auth/session');
       return this.post('/api/auth/sign-in', { email, password });
@@ -75,7 +80,11 @@ describe('what reaches the log', () => {
     const admin = session();
     expect((await admin.signIn(demo.admin.email, demo.admin.password)).status).toBe(200);
     // A write carrying the CSRF header: an invitation, whose link holds a one-time token.
-    const invite = await admin.post('/api/people/invitations', { email: 'log.check@tallowcreek.example', displayName: 'Log Check', roles: ['technician'] });
+    const invite = await admin.post('/api/people/invitations', {
+      email: 'log.check@tallowcreek.example',
+      displayName: 'Log Check',
+      roles: ['technician'],
+    });
     expect(invite.status).toBe(201);
     const inviteToken = await setPasswordTokenMailedTo(createDb(pool), 'log.check@tallowcreek.example');
     // The invitee opens the link itself: the app shell is served for it, and its token must not be logged.
@@ -84,7 +93,9 @@ describe('what reaches the log', () => {
     const newPassword = 'valve heaters glow amber at dusk';
     const invitee = session();
     await invitee.get('/api/auth/session');
-    expect((await invitee.post('/api/auth/set-password', { token: inviteToken, password: newPassword })).status).toBe(200);
+    expect(
+      (await invitee.post('/api/auth/set-password', { token: inviteToken, password: newPassword })).status,
+    ).toBe(200);
     expect((await invitee.signIn('log.check@tallowcreek.example', newPassword + ' wrong')).status).toBe(401);
     expect((await invitee.signIn('log.check@tallowcreek.example', newPassword)).status).toBe(200);
     expect((await invitee.post('/api/units', { model: 'TC-18', serial: 'LOG-001' })).status).toBe(201);
@@ -98,7 +109,15 @@ describe('what reaches the log', () => {
     expect((await attacker.signIn(FORGED.replace('\n', '\r\n'), 'whatever passphrase')).status).toBe(401);
     const admin2 = session();
     await admin2.signIn(demo.admin.email, demo.admin.password);
-    expect((await admin2.post('/api/people/invitations', { email: FORGED, displayName: 'x\n{"level":50,"msg":"forged"}', roles: ['technician'] })).status).toBe(400);
+    expect(
+      (
+        await admin2.post('/api/people/invitations', {
+          email: FORGED,
+          displayName: 'x\n{"level":50,"msg":"forged"}',
+          roles: ['technician'],
+        })
+      ).status,
+    ).toBe(400);
     await attacker.get('/api/auth/invitations/' + encodeURIComponent(FORGED.padEnd(30, 'x')));
 
     const lines = output.split('\n').filter((l) => l.length > 0);
@@ -106,7 +125,9 @@ describe('what reaches the log', () => {
     expect(lines.length).toBeGreaterThan(15);
     const parsed = lines.map((line) => {
       const value: unknown = JSON.parse(line);
-      expect(value !== null && typeof value === 'object' && !Array.isArray(value), line.slice(0, 120)).toBe(true);
+      expect(value !== null && typeof value === 'object' && !Array.isArray(value), line.slice(0, 120)).toBe(
+        true,
+      );
       return value as { msg?: string; req?: { url?: string; headers?: Record<string, string> } };
     });
     expect(parsed.filter((p) => p.msg === 'forged')).toEqual([]);

@@ -17,7 +17,11 @@ const message = (subject: string) => ({
   to: ['Marek@TallowCreek.example'],
   subject,
   reason: 'test',
-  ...composeMail({ greeting: 'Hello Marek,', lines: ['Revision 2 of the TC-18 first power-up awaits your review.'], link: { url: 'http://127.0.0.1:5480/revisions/x', label: 'Open the revision' } }),
+  ...composeMail({
+    greeting: 'Hello Marek,',
+    lines: ['Revision 2 of the TC-18 first power-up awaits your review.'],
+    link: { url: 'http://127.0.0.1:5480/revisions/x', label: 'Open the revision' },
+  }),
 });
 
 describe('mail through the outbox', () => {
@@ -30,7 +34,10 @@ describe('mail through the outbox', () => {
     expect(got.raw).toMatch(/Content-Type: text\/plain/i);
     expect(got.raw).toMatch(/Content-Type: text\/html/i);
     expect(got.raw).toContain('http://127.0.0.1:5480/revisions/x');
-    const [row] = await t.db.select().from(mailOutbox).where(eq(mailOutbox.subject, 'Review requested: TC-18'));
+    const [row] = await t.db
+      .select()
+      .from(mailOutbox)
+      .where(eq(mailOutbox.subject, 'Review requested: TC-18'));
     expect(row!.sentAt).not.toBeNull();
   });
 
@@ -39,10 +46,18 @@ describe('mail through the outbox', () => {
     const probe = await startFakeSmtp(0);
     const port = probe.port;
     await probe.close();
-    const sender = new MailSender(t.db, { host: '127.0.0.1', port, from: 'bench@tallowcreek.example' }, createLogger('silent'), 60_000);
+    const sender = new MailSender(
+      t.db,
+      { host: '127.0.0.1', port, from: 'bench@tallowcreek.example' },
+      createLogger('silent'),
+      60_000,
+    );
     await enqueueMail(t.db, message('Returned: TC-30H rails'));
     await sender.flush();
-    const [pending] = await t.db.select().from(mailOutbox).where(eq(mailOutbox.subject, 'Returned: TC-30H rails'));
+    const [pending] = await t.db
+      .select()
+      .from(mailOutbox)
+      .where(eq(mailOutbox.subject, 'Returned: TC-30H rails'));
     expect(pending!.sentAt).toBeNull();
     expect(pending!.attempts).toBe(1);
     expect(pending!.lastError).toBeTruthy();

@@ -27,7 +27,13 @@ describe('people administration', () => {
 
   it('invites a person, who sets a password from the one-time link and signs in', async () => {
     const admin = await t.as('admin');
-    const invite = await admin.post('/api/people/invitations').send({ email: 'Nell@TallowCreek.example', displayName: 'Nell Harrow', roles: ['technician', 'author'] });
+    const invite = await admin
+      .post('/api/people/invitations')
+      .send({
+        email: 'Nell@TallowCreek.example',
+        displayName: 'Nell Harrow',
+        roles: ['technician', 'author'],
+      });
     expect(invite.status).toBe(201);
     expect(invite.body.person).toMatchObject({ email: 'nell@tallowcreek.example', hasPassword: false });
     expect(JSON.stringify(invite.body)).not.toContain('/set-password/');
@@ -42,11 +48,18 @@ describe('people administration', () => {
     // A common password is refused even when long enough (ASVS 6.2.4).
     const common = await newcomer.post('/api/auth/set-password').send({ token, password: '1qaz2wsx3edc' });
     expect(common.status).toBe(400);
-    expect(common.body.fields[0]).toEqual({ field: 'body.password', reason: 'is one of the most common passwords' });
+    expect(common.body.fields[0]).toEqual({
+      field: 'body.password',
+      reason: 'is one of the most common passwords',
+    });
     const passphrase = 'copper wound chokes hum at one hundred hertz';
-    expect((await newcomer.post('/api/auth/set-password').send({ token, password: passphrase })).status).toBe(200);
+    expect((await newcomer.post('/api/auth/set-password').send({ token, password: passphrase })).status).toBe(
+      200,
+    );
     // The link works once.
-    expect((await newcomer.post('/api/auth/set-password').send({ token, password: passphrase + '!' })).status).toBe(404);
+    expect(
+      (await newcomer.post('/api/auth/set-password').send({ token, password: passphrase + '!' })).status,
+    ).toBe(404);
     const signIn = await t.client().signIn('nell@tallowcreek.example', passphrase);
     expect(signIn.status).toBe(200);
     expect(signIn.body.user.roles).toEqual(['technician', 'author']);
@@ -54,7 +67,9 @@ describe('people administration', () => {
 
   it('refuses a duplicate invitation with the field named', async () => {
     const admin = await t.as('admin');
-    const res = await admin.post('/api/people/invitations').send({ email: demo.tom.email, displayName: 'Tom again', roles: ['technician'] });
+    const res = await admin
+      .post('/api/people/invitations')
+      .send({ email: demo.tom.email, displayName: 'Tom again', roles: ['technician'] });
     expect(res.status).toBe(409);
     expect(res.body.fields[0].field).toBe('body.email');
   });
@@ -78,7 +93,9 @@ describe('people administration', () => {
     const priya = await t.as('priya');
     expect((await priya.get('/api/people')).status).toBe(403);
     const id = (await priya.get('/api/auth/session')).body.user.id;
-    expect((await admin.patch(`/api/people/${id}`).send({ roles: ['technician', 'admin'] })).status).toBe(200);
+    expect((await admin.patch(`/api/people/${id}`).send({ roles: ['technician', 'admin'] })).status).toBe(
+      200,
+    );
     expect((await priya.get('/api/people')).status).toBe(200);
     expect((await admin.patch(`/api/people/${id}`).send({ roles: ['technician'] })).status).toBe(200);
     expect((await priya.get('/api/people')).status).toBe(403);

@@ -24,7 +24,15 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-type Item = { id: string; title: string; equipmentFamily: string; tags: string[]; latest: { id: string; state: string; updatedAt: string }; approved: { id: string } | null; updatedAt: string };
+type Item = {
+  id: string;
+  title: string;
+  equipmentFamily: string;
+  tags: string[];
+  latest: { id: string; state: string; updatedAt: string };
+  approved: { id: string } | null;
+  updatedAt: string;
+};
 
 /** Every page of one query, walked with the given page size. */
 async function walk(who: 'tom' | 'hal', query: string, limit: number) {
@@ -76,15 +84,29 @@ describe('the procedure list, paged on the server', () => {
 
   it('finds titles containing the words typed, in any case, with % and _ taken literally', async () => {
     const found = await walk('tom', `q=${encodeURIComponent('LISTING CHECK 1')}`, 50);
-    expect(found.items.map((p) => p.title).sort()).toEqual([...Array(10).keys()].map((i) => `Listing check 1${i}`));
+    expect(found.items.map((p) => p.title).sort()).toEqual(
+      [...Array(10).keys()].map((i) => `Listing check 1${i}`),
+    );
     expect((await walk('tom', `q=${encodeURIComponent('listing%check')}`, 50)).total).toBe(0);
     expect((await walk('tom', `q=${encodeURIComponent('check _5')}`, 50)).total).toBe(0);
-    expect((await walk('tom', `q=${encodeURIComponent('check 05')}&family=Radio`, 50)).items.map((p) => p.title)).toEqual(['Listing check 05']);
+    expect(
+      (await walk('tom', `q=${encodeURIComponent('check 05')}&family=Radio`, 50)).items.map((p) => p.title),
+    ).toEqual(['Listing check 05']);
   });
 
   it('a technician sees approved work only; staff see drafts as the latest revision, and the approved one beside it', async () => {
     const { c, revision } = await newDraft(t, 'hal');
-    const renamed = await c.put(`/api/revisions/${revision.id}`).send({ title: 'Listing draft only', equipmentFamily: 'Organ', equipmentModel: 'LD-1', tags: ['draft'], params, lockVersion: revision.lockVersion, document: goodDoc() });
+    const renamed = await c
+      .put(`/api/revisions/${revision.id}`)
+      .send({
+        title: 'Listing draft only',
+        equipmentFamily: 'Organ',
+        equipmentModel: 'LD-1',
+        tags: ['draft'],
+        params,
+        lockVersion: revision.lockVersion,
+        document: goodDoc(),
+      });
     expect(renamed.status).toBe(200);
     const staff = await walk('hal', 'family=Organ', 200);
     const mine = staff.items.find((p) => p.latest.id === revision.id);
@@ -106,14 +128,28 @@ describe('the procedure list, paged on the server', () => {
     // The next draft changes the staff row only; technicians keep seeing the approved revision.
     const next = await c.post(`/api/procedures/${revision.procedureId}/drafts`).send({});
     expect(next.status).toBe(201);
-    const staffRow = (await walk('hal', 'runnable=true', 200)).items.find((p) => p.id === revision.procedureId);
-    expect(staffRow).toMatchObject({ latest: { id: next.body.revision.id, state: 'draft' }, approved: { id: revision.id } });
-    const techRow = (await walk('tom', 'runnable=true', 200)).items.find((p) => p.id === revision.procedureId);
+    const staffRow = (await walk('hal', 'runnable=true', 200)).items.find(
+      (p) => p.id === revision.procedureId,
+    );
+    expect(staffRow).toMatchObject({
+      latest: { id: next.body.revision.id, state: 'draft' },
+      approved: { id: revision.id },
+    });
+    const techRow = (await walk('tom', 'runnable=true', 200)).items.find(
+      (p) => p.id === revision.procedureId,
+    );
     expect(techRow).toMatchObject({ latest: { id: revision.id, state: 'approved' } });
   });
 
   it('the read model matches the revisions table for every procedure (recomputed here from the raw rows)', async () => {
-    const all = await t.db.select({ procedureId: revisions.procedureId, id: revisions.id, number: revisions.number, state: revisions.state }).from(revisions);
+    const all = await t.db
+      .select({
+        procedureId: revisions.procedureId,
+        id: revisions.id,
+        number: revisions.number,
+        state: revisions.state,
+      })
+      .from(revisions);
     const listing = await t.db.select().from(procedureListing);
     const newest = (rows: typeof all) => rows.reduce((a, b) => (b.number > a.number ? b : a));
     const procedureIds = [...new Set(all.map((r) => r.procedureId))];
@@ -126,13 +162,26 @@ describe('the procedure list, paged on the server', () => {
       expect(tech?.revisionId).toBe(published.length ? newest(published).id : undefined);
       expect(staff?.approvedId ?? null).toBe(mine.find((r) => r.state === 'approved')?.id ?? null);
     }
-    expect(listing.length).toBe(procedureIds.length + new Set(all.filter((r) => r.state === 'approved' || r.state === 'superseded').map((r) => r.procedureId)).size);
+    expect(listing.length).toBe(
+      procedureIds.length +
+        new Set(
+          all.filter((r) => r.state === 'approved' || r.state === 'superseded').map((r) => r.procedureId),
+        ).size,
+    );
   });
 
   it('two transactions changing one procedure at once leave the listing as the database ends up', async () => {
-    const { procedure, revision: first } = await procedureInState(t.db, 'approved', { title: 'Listing race', equipmentFamily: 'Organ', equipmentModel: 'LR-1', tags: [], document: textDoc('Race the listing.') });
+    const { procedure, revision: first } = await procedureInState(t.db, 'approved', {
+      title: 'Listing race',
+      equipmentFamily: 'Organ',
+      equipmentModel: 'LR-1',
+      tags: [],
+      document: textDoc('Race the listing.'),
+    });
     const c = await t.as('hal');
-    const next = (await c.post(`/api/procedures/${procedure.id}/drafts`).send({})).body.revision as { id: string };
+    const next = (await c.post(`/api/procedures/${procedure.id}/drafts`).send({})).body.revision as {
+      id: string;
+    };
     const withdrawer = new pg.Client({ connectionString: t.databaseUrl });
     const saver = new pg.Client({ connectionString: t.databaseUrl });
     await Promise.all([withdrawer.connect(), saver.connect()]);
@@ -140,14 +189,20 @@ describe('the procedure list, paged on the server', () => {
       await withdrawer.query('begin');
       await withdrawer.query(`update revisions set state = 'withdrawn' where id = $1`, [first.id]);
       // A draft save lands while the withdrawal is still open; it must wait for it, then see it.
-      const save = saver.query(`update revisions set title = 'Listing race, renamed', updated_at = now() where id = $1`, [next.id]);
+      const save = saver.query(
+        `update revisions set title = 'Listing race, renamed', updated_at = now() where id = $1`,
+        [next.id],
+      );
       await new Promise((r) => setTimeout(r, 300));
       await withdrawer.query('commit');
       await save;
     } finally {
       await Promise.all([withdrawer.end(), saver.end()]);
     }
-    const rows = await t.db.select().from(procedureListing).where(eq(procedureListing.procedureId, procedure.id));
+    const rows = await t.db
+      .select()
+      .from(procedureListing)
+      .where(eq(procedureListing.procedureId, procedure.id));
     const staff = rows.find((r) => r.audience === 'staff');
     expect(staff).toMatchObject({ revisionId: next.id, title: 'Listing race, renamed', approvedId: null });
   });

@@ -11,12 +11,20 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const key = (method: string, path: string) => `${method.toUpperCase()} ${path}`;
-const fillParams = (path: string) => path.replace(/:(\w+)/g, (_m, name: string) => (name === 'token' ? 'x'.repeat(43) : '00000000-0000-4000-8000-000000000000'));
+const fillParams = (path: string) =>
+  path.replace(/:(\w+)/g, (_m, name: string) =>
+    name === 'token' ? 'x'.repeat(43) : '00000000-0000-4000-8000-000000000000',
+  );
 
 describe('the route table', () => {
   it('every route declares who may call it', () => {
     for (const r of routeTable) {
-      const ok = r.access === 'public' || r.access === 'signed-in' || (Array.isArray(r.access) && r.access.length > 0 && r.access.every((a) => (ROLES as readonly string[]).includes(a)));
+      const ok =
+        r.access === 'public' ||
+        r.access === 'signed-in' ||
+        (Array.isArray(r.access) &&
+          r.access.length > 0 &&
+          r.access.every((a) => (ROLES as readonly string[]).includes(a)));
       expect(ok, `${key(r.method, r.path)} has access ${JSON.stringify(r.access)}`).toBe(true);
       expect(r.summary.length, `${key(r.method, r.path)} needs a summary`).toBeGreaterThan(5);
     }
@@ -26,7 +34,11 @@ describe('the route table', () => {
     const router = t.app.locals.apiRouter as Router;
     const mounted = router.stack
       .filter((layer) => layer.route)
-      .flatMap((layer) => Object.keys((layer.route as unknown as { methods: Record<string, boolean> }).methods).map((m) => key(m, layer.route!.path as string)));
+      .flatMap((layer) =>
+        Object.keys((layer.route as unknown as { methods: Record<string, boolean> }).methods).map((m) =>
+          key(m, layer.route!.path as string),
+        ),
+      );
     expect(mounted.sort()).toEqual(routeTable.map((r) => key(r.method, r.path)).sort());
   });
 

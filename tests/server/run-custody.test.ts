@@ -26,9 +26,12 @@ async function runBy(who: 'tom' | 'priya' | 'sam', revisionId?: string) {
   return { c, run: res.body.run as { id: string }, revisionId: revision.id };
 }
 
-const sign = (c: Client, runId: string, password: string) => c.post(`/api/runs/${runId}/sign`).send({ password });
-const handOver = (c: Client, runId: string, body: Record<string, unknown>) => c.post(`/api/runs/${runId}/handover`).send(body);
-const abandon = (c: Client, runId: string, reason: string) => c.post(`/api/runs/${runId}/abandon`).send({ reason });
+const sign = (c: Client, runId: string, password: string) =>
+  c.post(`/api/runs/${runId}/sign`).send({ password });
+const handOver = (c: Client, runId: string, body: Record<string, unknown>) =>
+  c.post(`/api/runs/${runId}/handover`).send(body);
+const abandon = (c: Client, runId: string, reason: string) =>
+  c.post(`/api/runs/${runId}/abandon`).send({ reason });
 
 /** The database's answer to a statement run as the application role: null when it went through. */
 async function refusal(statement: ReturnType<typeof sql>) {
@@ -45,7 +48,9 @@ describe('only the run’s performer writes on it', () => {
     const tried = await entry(tom, run.id, 'hz-ht-live', { done: true });
     expect(tried.status).toBe(403);
     expect(tried.body.error).toMatch(/Priya Lindqvist is performing this run/);
-    expect((await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'x.png' })).status).toBe(403);
+    expect(
+      (await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'x.png' })).status,
+    ).toBe(403);
     for (const [id, body] of [
       ['hz-ht-live', { done: true }],
       ['rd-ht-ac', { value: '251 V' }],
@@ -56,10 +61,18 @@ describe('only the run’s performer writes on it', () => {
     }
     const signed = await sign(tom, run.id, demo.tom.password);
     expect(signed.status).toBe(403);
-    expect((await t.db.select().from(runEntries).where(eq(runEntries.runId, run.id))).every((e) => e.version === 1)).toBe(true);
+    expect(
+      (await t.db.select().from(runEntries).where(eq(runEntries.runId, run.id))).every(
+        (e) => e.version === 1,
+      ),
+    ).toBe(true);
     // Underneath: the database refuses an entry or a signature by anyone but the performer.
     const tomId = await personId(t, 'tom');
-    expect(await refusal(sql`update run_entries set measured = 999, raw = '999 V', entered_by = ${tomId} where run_id = ${run.id} and step_id = 'rd-ht-ac'`)).toMatch(/performed by another technician/);
+    expect(
+      await refusal(
+        sql`update run_entries set measured = 999, raw = '999 V', entered_by = ${tomId} where run_id = ${run.id} and step_id = 'rd-ht-ac'`,
+      ),
+    ).toMatch(/performed by another technician/);
     expect(
       await refusal(sql`insert into run_signatures (run_id, signer_id, signer_name, signer_role, meaning, content_hash, revision_id, revision_hash)
         select id, ${tomId}, 'Tom Achterberg', 'technician', 'performed', 'x', revision_id, revision_hash from runs where id = ${run.id}`),
@@ -74,7 +87,9 @@ describe('only the run’s performer writes on it', () => {
     expect(res.status).toBe(409);
     expect(res.body.error).toMatch(/made by someone else/);
     expect(await t.db.select().from(runEntries).where(eq(runEntries.runId, run.id))).toEqual([]);
-    expect((await entry(tom, run.id, 'hz-ht-live', { done: true, by: await personId(t, 'tom') })).status).toBe(200);
+    expect(
+      (await entry(tom, run.id, 'hz-ht-live', { done: true, by: await personId(t, 'tom') })).status,
+    ).toBe(200);
   });
 
   it('handing over is an explicit, audited step; the sheet (screen and PDF) names both and who did which entry', async () => {
@@ -95,9 +110,17 @@ describe('only the run’s performer writes on it', () => {
     expect(handed.status).toBe(200);
     expect(handed.body.run.performedBy.displayName).toBe('Tom Achterberg');
     expect(handed.body.run.handovers).toMatchObject([
-      { from: { displayName: 'Priya Lindqvist' }, to: { displayName: 'Tom Achterberg' }, by: { displayName: 'Priya Lindqvist' }, reason: 'End of my shift; Tom carries on.' },
+      {
+        from: { displayName: 'Priya Lindqvist' },
+        to: { displayName: 'Tom Achterberg' },
+        by: { displayName: 'Priya Lindqvist' },
+        reason: 'End of my shift; Tom carries on.',
+      },
     ]);
-    const audit = await t.db.select().from(auditLog).where(and(eq(auditLog.action, 'run.handed-over'), eq(auditLog.subject, `run ${run.id}`)));
+    const audit = await t.db
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.action, 'run.handed-over'), eq(auditLog.subject, `run ${run.id}`)));
     expect(audit).toHaveLength(1);
     expect(audit[0]!.details).toMatchObject({ from: await personId(t, 'priya'), to: tomId });
 
@@ -111,8 +134,18 @@ describe('only the run’s performer writes on it', () => {
     const sheet = signed.body.run;
     expect(sheet.startedBy.displayName).toBe('Priya Lindqvist');
     expect(sheet.signature.signer.displayName).toBe('Tom Achterberg');
-    const by = Object.fromEntries(sheet.entries.map((e: { stepId: string; enteredBy: { displayName: string } }) => [e.stepId, e.enteredBy.displayName]));
-    expect(by).toEqual({ 'hz-ht-live': 'Priya Lindqvist', 'rd-ht-ac': 'Priya Lindqvist', 'rd-heater': 'Tom Achterberg', 'ck-discharge': 'Tom Achterberg' });
+    const by = Object.fromEntries(
+      sheet.entries.map((e: { stepId: string; enteredBy: { displayName: string } }) => [
+        e.stepId,
+        e.enteredBy.displayName,
+      ]),
+    );
+    expect(by).toEqual({
+      'hz-ht-live': 'Priya Lindqvist',
+      'rd-ht-ac': 'Priya Lindqvist',
+      'rd-heater': 'Tom Achterberg',
+      'ck-discharge': 'Tom Achterberg',
+    });
 
     const pdf = await tom.get(`/api/runs/${run.id}/sheet.pdf`).buffer(true).parse(pdfBody);
     const lines = pdfText(pdf.body as Buffer);
@@ -126,7 +159,9 @@ describe('only the run’s performer writes on it', () => {
 
   it('the database refuses a change of performer with no handover recorded', async () => {
     const { run } = await runBy('priya');
-    expect(await refusal(sql`update runs set performed_by = ${await personId(t, 'tom')} where id = ${run.id}`)).toMatch(/handover/);
+    expect(
+      await refusal(sql`update runs set performed_by = ${await personId(t, 'tom')} where id = ${run.id}`),
+    ).toMatch(/handover/);
   });
 });
 
@@ -134,9 +169,13 @@ describe('a withdrawn revision puts its open runs on hold', () => {
   const reason = 'Wrong bleeder value, do not use.';
 
   async function withdraw(revisionId: string) {
-    const [row] = await t.db.execute<{ procedure_id: string }>(sql`select procedure_id from revisions where id = ${revisionId}`).then((r) => r.rows);
+    const [row] = await t.db
+      .execute<{ procedure_id: string }>(sql`select procedure_id from revisions where id = ${revisionId}`)
+      .then((r) => r.rows);
     const marek = await t.as('marek');
-    const res = await marek.post(`/api/procedures/${row!.procedure_id}/withdraw`).send({ password: demo.marek.password, reason });
+    const res = await marek
+      .post(`/api/procedures/${row!.procedure_id}/withdraw`)
+      .send({ password: demo.marek.password, reason });
     expect(res.status).toBe(200);
   }
 
@@ -155,24 +194,34 @@ describe('a withdrawn revision puts its open runs on hold', () => {
     const late = await entry(tom, run.id, 'ck-discharge', { done: true });
     expect(late.status).toBe(409);
     expect(late.body.error).toContain(reason);
-    expect((await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'x.png' })).status).toBe(409);
+    expect(
+      (await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'x.png' })).status,
+    ).toBe(409);
     const signing = await sign(tom, run.id, demo.tom.password);
     expect(signing.status).toBe(409);
     expect(signing.body.error).toContain(reason);
     // Underneath: the database refuses an entry on a run whose revision was withdrawn.
     expect(
-      await refusal(sql`insert into run_entries (run_id, step_id, kind, done, last_key, entered_by) values (${run.id}, 'ck-discharge', 'check', true, ${randomUUID()}, ${await personId(t, 'tom')})`),
+      await refusal(
+        sql`insert into run_entries (run_id, step_id, kind, done, last_key, entered_by) values (${run.id}, 'ck-discharge', 'check', true, ${randomUUID()}, ${await personId(t, 'tom')})`,
+      ),
     ).toMatch(/withdrawn/);
 
     const view = (await tom.get(`/api/runs/${run.id}`)).body.run;
     expect(view.status).toBe('in_progress');
     expect(view.hold).toMatchObject({ reason, by: 'Marek Vos', revisionNumber: 1 });
-    expect((await priya.get(`/api/runs?status=in_progress`)).body.runs.find((r: { id: string }) => r.id === second.id)).toMatchObject({ onHold: true });
+    expect(
+      (await priya.get(`/api/runs?status=in_progress`)).body.runs.find(
+        (r: { id: string }) => r.id === second.id,
+      ),
+    ).toMatchObject({ onHold: true });
 
     const mails = await mailsMatching(t, (text) => text.includes(reason) && text.includes(run.id));
     expect(mails).toHaveLength(1);
     expect(mails[0]!.to).toEqual([demo.tom.email]);
-    expect((await mailsMatching(t, (text) => text.includes(reason) && text.includes(second.id)))[0]!.to).toEqual([demo.priya.email]);
+    expect(
+      (await mailsMatching(t, (text) => text.includes(reason) && text.includes(second.id)))[0]!.to,
+    ).toEqual([demo.priya.email]);
   });
 
   it('a held run can be closed as abandoned by its performer, recorded and audited; after that nothing on it changes', async () => {
@@ -182,22 +231,41 @@ describe('a withdrawn revision puts its open runs on hold', () => {
     const priya = await t.as('priya');
     expect((await abandon(priya, run.id, 'not mine')).status).toBe(403);
     expect((await tom.post(`/api/runs/${run.id}/abandon`).send({})).status).toBe(400);
-    const closed = await abandon(tom, run.id, 'Procedure withdrawn; unit goes back on the shelf until the new revision.');
+    const closed = await abandon(
+      tom,
+      run.id,
+      'Procedure withdrawn; unit goes back on the shelf until the new revision.',
+    );
     expect(closed.status).toBe(200);
     expect(closed.body.run.status).toBe('abandoned');
-    expect(closed.body.run.closed).toMatchObject({ by: { displayName: 'Tom Achterberg' }, reason: 'Procedure withdrawn; unit goes back on the shelf until the new revision.' });
-    const audit = await t.db.select().from(auditLog).where(and(eq(auditLog.action, 'run.abandoned'), eq(auditLog.subject, `run ${run.id}`)));
+    expect(closed.body.run.closed).toMatchObject({
+      by: { displayName: 'Tom Achterberg' },
+      reason: 'Procedure withdrawn; unit goes back on the shelf until the new revision.',
+    });
+    const audit = await t.db
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.action, 'run.abandoned'), eq(auditLog.subject, `run ${run.id}`)));
     expect(audit).toHaveLength(1);
 
     expect((await abandon(tom, run.id, 'again')).status).toBe(409);
     const after = await entry(tom, run.id, 'rd-ht-ac', { value: '250 V' });
     expect(after.status).toBe(409);
     expect(after.body.error).toMatch(/abandoned/);
-    expect((await handOver(tom, run.id, { to: await personId(t, 'priya'), reason: 'Priya takes it from here.' })).status).toBe(409);
-    expect((await tom.get(`/api/runs?status=abandoned`)).body.runs.some((r: { id: string }) => r.id === run.id)).toBe(true);
+    expect(
+      (await handOver(tom, run.id, { to: await personId(t, 'priya'), reason: 'Priya takes it from here.' }))
+        .status,
+    ).toBe(409);
+    expect(
+      (await tom.get(`/api/runs?status=abandoned`)).body.runs.some((r: { id: string }) => r.id === run.id),
+    ).toBe(true);
     // The database keeps an abandoned run as it was closed.
-    expect(await refusal(sql`update runs set status = 'in_progress' where id = ${run.id}`)).toMatch(/abandoned/);
-    expect(await refusal(sql`update run_entries set note = 'later' where run_id = ${run.id}`)).toMatch(/abandoned/);
+    expect(await refusal(sql`update runs set status = 'in_progress' where id = ${run.id}`)).toMatch(
+      /abandoned/,
+    );
+    expect(await refusal(sql`update run_entries set note = 'later' where run_id = ${run.id}`)).toMatch(
+      /abandoned/,
+    );
   });
 
   it('runs already signed on the revision stay signed and verified, and their technicians get no hold mail', async () => {

@@ -14,7 +14,13 @@ export const benchDoc: ProcedureDoc = {
   type: 'doc',
   content: [
     { type: 'heading', attrs: { level: 2 }, content: [{ type: 'text', text: 'HT winding, unloaded' }] },
-    { type: 'hazardNote', attrs: { id: 'hz-ht-live', level: 'danger' }, content: [para('The HT winding is live at several hundred volts. One hand; meter clipped on before power.')] },
+    {
+      type: 'hazardNote',
+      attrs: { id: 'hz-ht-live', level: 'danger' },
+      content: [
+        para('The HT winding is live at several hundred volts. One hand; meter clipped on before power.'),
+      ],
+    },
     {
       type: 'reckoner',
       attrs: {
@@ -34,23 +40,49 @@ export const benchDoc: ProcedureDoc = {
     },
     {
       type: 'reading',
-      attrs: { id: 'rd-ht-ac', label: 'HT winding, each half', testPoint: 'TP1, end to centre tap', meterRange: 'AC 750 V', unit: 'V', expected: { ref: 'ht.windingVoltage' }, tolerance: '±5 %' },
+      attrs: {
+        id: 'rd-ht-ac',
+        label: 'HT winding, each half',
+        testPoint: 'TP1, end to centre tap',
+        meterRange: 'AC 750 V',
+        unit: 'V',
+        expected: { ref: 'ht.windingVoltage' },
+        tolerance: '±5 %',
+      },
     },
     {
       type: 'reading',
-      attrs: { id: 'rd-heater', label: 'Heater winding', testPoint: 'TP2', meterRange: 'AC 20 V', unit: 'V', expected: { literal: '6.3 V' }, tolerance: '±0.3 V' },
+      attrs: {
+        id: 'rd-heater',
+        label: 'Heater winding',
+        testPoint: 'TP2',
+        meterRange: 'AC 20 V',
+        unit: 'V',
+        expected: { literal: '6.3 V' },
+        tolerance: '±0.3 V',
+      },
     },
-    { type: 'checkStep', attrs: { id: 'ck-discharge', text: 'Reservoir discharged below 60 V and verified with a meter.' } },
+    {
+      type: 'checkStep',
+      attrs: { id: 'ck-discharge', text: 'Reservoir discharged below 60 V and verified with a meter.' },
+    },
   ],
 };
 
 export async function personId(t: TestApp, who: string) {
-  const [row] = await t.db.select({ id: people.id }).from(people).where(eq(people.email, `${who}@tallowcreek.example`));
+  const [row] = await t.db
+    .select({ id: people.id })
+    .from(people)
+    .where(eq(people.email, `${who}@tallowcreek.example`));
   return row!.id;
 }
 
 /** An approved (or other-state) revision by hal, taken there as demo content is (approved by marek). */
-export async function benchProcedure(t: TestApp, state: RevisionState = 'approved', title = 'TC-18 HT winding check') {
+export async function benchProcedure(
+  t: TestApp,
+  state: RevisionState = 'approved',
+  title = 'TC-18 HT winding check',
+) {
   const { revision } = await procedureInState(t.db, state, {
     title,
     equipmentFamily: 'Guitar amplifier',
@@ -64,13 +96,25 @@ export async function benchProcedure(t: TestApp, state: RevisionState = 'approve
 
 type Client = Awaited<ReturnType<TestApp['as']>>;
 
-export async function newUnit(c: Client, serial = `TC18-${randomUUID().slice(0, 6)}`, extra: Record<string, string> = {}) {
-  const res = await c.post('/api/units').send({ model: 'TC-18', serial, owner: 'M. Quill', jobNumber: 'J-2041', ...extra });
+export async function newUnit(
+  c: Client,
+  serial = `TC18-${randomUUID().slice(0, 6)}`,
+  extra: Record<string, string> = {},
+) {
+  const res = await c
+    .post('/api/units')
+    .send({ model: 'TC-18', serial, owner: 'M. Quill', jobNumber: 'J-2041', ...extra });
   if (res.status !== 201) throw new Error(`unit: ${res.status} ${JSON.stringify(res.body)}`);
   return res.body.unit as { id: string; lockVersion: number };
 }
 
-export async function startRun(c: Client, revisionId: string, unitId: string, mainsVoltage = 230, mainsFrequency = 50) {
+export async function startRun(
+  c: Client,
+  revisionId: string,
+  unitId: string,
+  mainsVoltage = 230,
+  mainsFrequency = 50,
+) {
   return c.post('/api/runs').send({ revisionId, unitId, mainsVoltage, mainsFrequency });
 }
 
@@ -82,13 +126,22 @@ export { tinyPng } from '../support/png';
 /** A message as text: quoted-printable soft breaks joined and =XX bytes decoded as UTF-8. */
 export function decodeMail(raw: string) {
   const joined = raw.replace(/=\r?\n/g, '');
-  return Buffer.from(joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))), 'latin1').toString('utf8');
+  return Buffer.from(
+    joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))),
+    'latin1',
+  ).toString('utf8');
 }
 
 /** The catcher's messages (as text) that `match`, waiting up to five seconds for at least `atLeast`. */
 export async function mailsMatching(t: TestApp, match: (text: string) => boolean, atLeast = 1) {
   const deadline = Date.now() + 5_000;
-  const found = () => t.catcher!.received.map((m) => ({ to: m.to.map((a: string) => a.toLowerCase()), text: decodeMail(m.raw) })).filter((m) => match(m.text));
+  const found = () =>
+    t
+      .catcher!.received.map((m) => ({
+        to: m.to.map((a: string) => a.toLowerCase()),
+        text: decodeMail(m.raw),
+      }))
+      .filter((m) => match(m.text));
   while (found().length < atLeast && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
   return found();
 }

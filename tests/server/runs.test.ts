@@ -48,9 +48,14 @@ describe('starting a bench run', () => {
     const approved = await benchProcedure(t);
     const hal = await t.as('hal');
     expect((await startRun(hal, approved.id, unit.id)).status).toBe(403);
-    const bad = await tom.post('/api/runs').send({ revisionId: approved.id, unitId: unit.id, mainsVoltage: 400, mainsFrequency: 'fifty' });
+    const bad = await tom
+      .post('/api/runs')
+      .send({ revisionId: approved.id, unitId: unit.id, mainsVoltage: 400, mainsFrequency: 'fifty' });
     expect(bad.status).toBe(400);
-    expect(bad.body.fields.map((f: { field: string }) => f.field).sort()).toEqual(['body.mainsFrequency', 'body.mainsVoltage']);
+    expect(bad.body.fields.map((f: { field: string }) => f.field).sort()).toEqual([
+      'body.mainsFrequency',
+      'body.mainsVoltage',
+    ]);
   });
 
   it('recomputes every expected value at the measured mains: a winding read at 240 V is expected higher than at 230 V', async () => {
@@ -89,7 +94,8 @@ describe('entries', () => {
     await entry(tom, run.id, 'hz-ht-live', { done: true });
     const key = randomUUID();
     const sends = [];
-    for (let i = 0; i < 3; i++) sends.push(await tom.put(`/api/runs/${run.id}/entries/rd-heater`).send({ key, value: '6.2 V' }));
+    for (let i = 0; i < 3; i++)
+      sends.push(await tom.put(`/api/runs/${run.id}/entries/rd-heater`).send({ key, value: '6.2 V' }));
     expect(sends.map((s) => s.status)).toEqual([200, 200, 200]);
     expect(sends.map((s) => s.body.replayed)).toEqual([false, true, true]);
     expect(sends[2]!.body.entry).toMatchObject({ raw: '6.2 V', measured: 6.2, version: 1, lastKey: key });
@@ -99,11 +105,17 @@ describe('entries', () => {
     expect(rows.filter((r) => r.stepId === 'rd-heater')).toHaveLength(1);
     // Parallel resends of one key also leave one row.
     const key2 = randomUUID();
-    const parallel = await Promise.all([0, 1, 2].map(() => tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key: key2, value: '250' })));
+    const parallel = await Promise.all(
+      [0, 1, 2].map(() => tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key: key2, value: '250' })),
+    );
     expect(parallel.every((p) => p.status === 200)).toBe(true);
-    expect(await t.db.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, key2))).toHaveLength(1);
+    expect(
+      await t.db.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, key2)),
+    ).toHaveLength(1);
     // A key reused for another step is refused (the key stands for one request).
-    expect((await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '250' })).status).toBe(422);
+    expect((await tom.put(`/api/runs/${run.id}/entries/rd-ht-ac`).send({ key, value: '250' })).status).toBe(
+      422,
+    );
   });
 
   it('marks an out-of-tolerance reading out whatever the client claims; client marks are refused', async () => {
@@ -115,7 +127,13 @@ describe('entries', () => {
     expect(claim.body.error).toMatch(/within/);
     const res = await entry(tom, run.id, 'rd-ht-ac', { value: '300 V' });
     expect(res.status).toBe(200);
-    expect(res.body.entry).toMatchObject({ within: false, measured: 300, expected: 250, low: 237.5, high: 262.5 });
+    expect(res.body.entry).toMatchObject({
+      within: false,
+      measured: 300,
+      expected: 250,
+      low: 237.5,
+      high: 262.5,
+    });
     expect(res.body.entry.deviation).toBeCloseTo(50, 9);
     expect(res.body.entry.deviationPercent).toBeCloseTo(20, 9);
     expect(res.body.run.outOfTolerance).toBe(true);
@@ -141,7 +159,9 @@ describe('entries', () => {
       .send(`{"key":"${randomUUID()}","value":1e309}`);
     expect(raw.status).toBe(400);
     expect(raw.body.fields[0].field).toBe('body.value');
-    expect(await t.db.select().from(runEntries).where(eq(runEntries.stepId, 'rd-ht-ac'))).toHaveLength(await countRecordedHt());
+    expect(await t.db.select().from(runEntries).where(eq(runEntries.stepId, 'rd-ht-ac'))).toHaveLength(
+      await countRecordedHt(),
+    );
     // A value accepted round-trips exactly.
     const ok = await entry(tom, run.id, 'rd-ht-ac', { value: 251.37 });
     expect(ok.body.entry.measured).toBe(251.37);
@@ -169,30 +189,61 @@ describe('entries', () => {
     expect(noReason.body.fields[0].field).toBe('body.reason');
     const priya = await t.as('priya');
     const priyaId = (await priya.get('/api/auth/session')).body.user.id;
-    expect((await tom.post(`/api/runs/${run.id}/handover`).send({ to: priyaId, reason: 'Priya finishes the heater checks.' })).status).toBe(200);
+    expect(
+      (
+        await tom
+          .post(`/api/runs/${run.id}/handover`)
+          .send({ to: priyaId, reason: 'Priya finishes the heater checks.' })
+      ).status,
+    ).toBe(200);
     const fixed = await entry(priya, run.id, 'rd-heater', { value: '6.35 V', reason: 'misread the display' });
     expect(fixed.status).toBe(200);
-    const seen = (await tom.get(`/api/runs/${run.id}`)).body.run.entries.find((e: { stepId: string }) => e.stepId === 'rd-heater');
-    expect(seen).toMatchObject({ raw: '6.35 V', version: 2, note: 'meter on 20 V range', enteredBy: { displayName: 'Priya Lindqvist' } });
+    const seen = (await tom.get(`/api/runs/${run.id}`)).body.run.entries.find(
+      (e: { stepId: string }) => e.stepId === 'rd-heater',
+    );
+    expect(seen).toMatchObject({
+      raw: '6.35 V',
+      version: 2,
+      note: 'meter on 20 V range',
+      enteredBy: { displayName: 'Priya Lindqvist' },
+    });
     expect(seen.history).toHaveLength(2);
-    expect(seen.history[0]).toMatchObject({ version: 1, raw: '6.1 V', reason: null, enteredBy: { displayName: 'Tom Achterberg' } });
-    expect(seen.history[1]).toMatchObject({ version: 2, raw: '6.35 V', reason: 'misread the display', enteredBy: { displayName: 'Priya Lindqvist' } });
+    expect(seen.history[0]).toMatchObject({
+      version: 1,
+      raw: '6.1 V',
+      reason: null,
+      enteredBy: { displayName: 'Tom Achterberg' },
+    });
+    expect(seen.history[1]).toMatchObject({
+      version: 2,
+      raw: '6.35 V',
+      reason: 'misread the display',
+      enteredBy: { displayName: 'Priya Lindqvist' },
+    });
     expect(Date.parse(seen.history[0].enteredAt)).toBeLessThanOrEqual(Date.parse(seen.history[1].enteredAt));
   });
 
   it('takes a photo for a step, judged by its content', async () => {
     const { tom, run } = await openRun();
-    const res = await tom.post(`/api/runs/${run.id}/photos`).field('stepId', 'rd-ht-ac').attach('file', tinyPng(), { filename: 'tp1.png' });
+    const res = await tom
+      .post(`/api/runs/${run.id}/photos`)
+      .field('stepId', 'rd-ht-ac')
+      .attach('file', tinyPng(), { filename: 'tp1.png' });
     expect(res.status).toBe(201);
     expect(res.body.photo.stepId).toBe('rd-ht-ac');
-    const html = await tom.post(`/api/runs/${run.id}/photos`).attach('file', Buffer.from('<html></html>'), { filename: 'x.png' });
+    const html = await tom
+      .post(`/api/runs/${run.id}/photos`)
+      .attach('file', Buffer.from('<html></html>'), { filename: 'x.png' });
     expect(html.status).toBe(415);
     expect((await tom.get(res.body.photo.url)).headers['content-type']).toBe('image/png');
   });
 });
 
 async function countRecordedHt() {
-  const rows = await t.db.select({ n: sql<number>`count(*)`.mapWith(Number) }).from(runEntries).where(eq(runEntries.stepId, 'rd-ht-ac'));
+  const rows = await t.db
+    .select({ n: sql<number>`count(*)`.mapWith(Number) })
+    .from(runEntries)
+    .where(eq(runEntries.stepId, 'rd-ht-ac'));
   return rows[0]!.n;
 }
 
@@ -202,7 +253,11 @@ describe('signing the run sheet', () => {
     await entry(tom, run.id, 'hz-ht-live', { done: true });
     const early = await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password });
     expect(early.status).toBe(409);
-    expect(early.body.unfinished.map((s: { id: string }) => s.id)).toEqual(['rd-ht-ac', 'rd-heater', 'ck-discharge']);
+    expect(early.body.unfinished.map((s: { id: string }) => s.id)).toEqual([
+      'rd-ht-ac',
+      'rd-heater',
+      'ck-discharge',
+    ]);
     expect(early.body.error).toMatch(/3 steps are not finished/);
     await finishSteps(tom, run.id);
     const wrong = await tom.post(`/api/runs/${run.id}/sign`).send({ password: 'not-my-password' });
@@ -211,19 +266,31 @@ describe('signing the run sheet', () => {
     expect(signed.status).toBe(200);
     const sheet = signed.body.run;
     expect(sheet.status).toBe('signed');
-    expect(sheet.signature).toMatchObject({ signer: { displayName: 'Tom Achterberg' }, signerRole: 'technician', meaning: 'performed', verified: true });
+    expect(sheet.signature).toMatchObject({
+      signer: { displayName: 'Tom Achterberg' },
+      signerRole: 'technician',
+      meaning: 'performed',
+      verified: true,
+    });
     expect(sheet.signature.contentHash).toMatch(/^[0-9a-f]{64}$/);
     expect(sheet.outOfTolerance).toBe(false);
-    expect((await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password })).status).toBe(409);
+    expect((await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password })).status).toBe(
+      409,
+    );
   });
 
   it('a signed run sheet cannot be changed: the API answers 409 and the database refuses direct SQL', async () => {
     const { tom, run } = await openRun();
     await finishSteps(tom, run.id);
-    expect((await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password })).status).toBe(200);
+    expect((await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password })).status).toBe(
+      200,
+    );
     const edit = await entry(tom, run.id, 'rd-heater', { value: '6.3 V', reason: 'late change' });
     expect(edit.status).toBe(409);
-    expect((await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'late.png' })).status).toBe(409);
+    expect(
+      (await tom.post(`/api/runs/${run.id}/photos`).attach('file', tinyPng(), { filename: 'late.png' }))
+        .status,
+    ).toBe(409);
     // As the owner: the triggers refuse whoever connects, even past the application role's grants.
     const refused = async (statement: ReturnType<typeof sql>) => {
       const err = await t.ownerDb.execute(statement).then(
@@ -233,18 +300,25 @@ describe('signing the run sheet', () => {
       expect(err, 'the statement should fail').not.toBeNull();
       expect(err!.cause?.message ?? err!.message).toMatch(/is signed and cannot be changed|append-only/);
     };
-    await refused(sql`update run_entries set measured = 6.3, within = true where run_id = ${run.id} and step_id = 'rd-heater'`);
+    await refused(
+      sql`update run_entries set measured = 6.3, within = true where run_id = ${run.id} and step_id = 'rd-heater'`,
+    );
     await refused(sql`delete from run_entries where run_id = ${run.id}`);
     await refused(sql`update run_signatures set signer_name = 'Someone else' where run_id = ${run.id}`);
     await refused(sql`delete from run_signatures where run_id = ${run.id}`);
     await refused(sql`update runs set out_of_tolerance = true where id = ${run.id}`);
     await refused(sql`update run_entry_history set raw = '1 V' where run_id = ${run.id}`);
-    const [row] = await t.db.select().from(runEntries).where(sql`${runEntries.runId} = ${run.id} and ${runEntries.stepId} = 'rd-heater'`);
+    const [row] = await t.db
+      .select()
+      .from(runEntries)
+      .where(sql`${runEntries.runId} = ${run.id} and ${runEntries.stepId} = 'rd-heater'`);
     expect(row!.measured).toBe(6.4);
     // A superuser-style edit that slips past (here: the trigger disabled) is caught by the hash on read.
     await t.ownerDb.transaction(async (tx) => {
       await tx.execute(sql`alter table run_entries disable trigger run_entries_signed_guard`);
-      await tx.execute(sql`update run_entries set note = 'edited' where run_id = ${run.id} and step_id = 'rd-heater'`);
+      await tx.execute(
+        sql`update run_entries set note = 'edited' where run_id = ${run.id} and step_id = 'rd-heater'`,
+      );
       await tx.execute(sql`alter table run_entries enable trigger run_entries_signed_guard`);
     });
     expect((await tom.get(`/api/runs/${run.id}`)).body.run.signature.verified).toBe(false);
@@ -259,7 +333,10 @@ describe('signing the run sheet', () => {
     const [stored] = await t.db.select().from(runs).where(eq(runs.id, run.id));
     expect(stored!.outOfTolerance).toBe(true);
     const deadline = Date.now() + 5_000;
-    const mine = () => t.catcher!.received.map((m) => ({ ...m, text: decodeMail(m.raw) })).filter((m) => m.text.includes('Out of tolerance') && m.text.includes(run.id));
+    const mine = () =>
+      t
+        .catcher!.received.map((m) => ({ ...m, text: decodeMail(m.raw) }))
+        .filter((m) => m.text.includes('Out of tolerance') && m.text.includes(run.id));
     while (!mine().length && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
     const mail = mine()[0];
     expect(mail, 'mail in the SMTP catcher').toBeTruthy();
@@ -274,11 +351,14 @@ describe('signing the run sheet', () => {
     const { tom, run } = await openRun();
     await finishSteps(tom, run.id, '290 V');
     await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password });
-    const res = await tom.get(`/api/runs/${run.id}/sheet.pdf`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await tom
+      .get(`/api/runs/${run.id}/sheet.pdf`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
@@ -305,15 +385,27 @@ describe('nothing lost', () => {
     try {
       const agent = supertest.agent(app2);
       const session = await agent.get('/api/auth/session');
-      const signIn = await agent.post('/api/auth/sign-in').set('x-csrf-token', session.body.csrfToken).send({ email: demo.tom.email, password: demo.tom.password });
+      const signIn = await agent
+        .post('/api/auth/sign-in')
+        .set('x-csrf-token', session.body.csrfToken)
+        .send({ email: demo.tom.email, password: demo.tom.password });
       expect(signIn.status).toBe(200);
       const back = await agent.get(`/api/runs/${run.id}`);
       expect(back.status).toBe(200);
       const ht = back.body.run.entries.find((e: { stepId: string }) => e.stepId === 'rd-ht-ac');
-      expect(ht).toMatchObject({ raw: '248 V', measured: 248, within: true, note: 'before restart', lastKey: acked.body.entry.lastKey });
+      expect(ht).toMatchObject({
+        raw: '248 V',
+        measured: 248,
+        within: true,
+        note: 'before restart',
+        lastKey: acked.body.entry.lastKey,
+      });
       expect(back.body.run.progress).toMatchObject({ done: 2, total: 4 });
       // The technician carries on where they were on the new process.
-      const next = await agent.put(`/api/runs/${run.id}/entries/rd-heater`).set('x-csrf-token', signIn.body.csrfToken).send({ key: randomUUID(), value: '6.3 V' });
+      const next = await agent
+        .put(`/api/runs/${run.id}/entries/rd-heater`)
+        .set('x-csrf-token', signIn.body.csrfToken)
+        .send({ key: randomUUID(), value: '6.3 V' });
       expect(next.status).toBe(200);
     } finally {
       (app2.locals.sessionStore as { close(): void }).close();
@@ -326,7 +418,10 @@ describe('nothing lost', () => {
 /** The message as text: quoted-printable soft breaks joined and =XX bytes decoded as UTF-8. */
 function decodeMail(raw: string) {
   const joined = raw.replace(/=\r?\n/g, '');
-  return Buffer.from(joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))), 'latin1').toString('utf8');
+  return Buffer.from(
+    joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))),
+    'latin1',
+  ).toString('utf8');
 }
 
 function defaultConfigOf(): Parameters<typeof createApp>[0]['config'] {

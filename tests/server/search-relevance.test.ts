@@ -15,7 +15,8 @@ beforeAll(async () => {
   t = await createTestApp();
   // The demo procedures as the server indexes them, among 2,000 generated ones and the planted set.
   index.replaceAll([...(await loadApproved(t.db)), ...generateCorpus(2_000), ...PLANTED]);
-  for (const p of await t.db.select().from(procedures).where(isNotNull(procedures.seedKey))) idOfSeed.set(p.seedKey!, p.id);
+  for (const p of await t.db.select().from(procedures).where(isNotNull(procedures.seedKey)))
+    idOfSeed.set(p.seedKey!, p.id);
 });
 afterAll(() => t.close());
 
@@ -33,7 +34,9 @@ describe('search relevance on the labelled set', () => {
     }
     const p5 = hits / LABELLED_QUERIES.length;
     // One relevant procedure per query, so this is the share of queries whose procedure is in the top 5.
-    console.log(`search relevance: ${hits}/${LABELLED_QUERIES.length} queries found their procedure in the top 5 (precision at 5 as defined in tests: ${p5.toFixed(2)})`);
+    console.log(
+      `search relevance: ${hits}/${LABELLED_QUERIES.length} queries found their procedure in the top 5 (precision at 5 as defined in tests: ${p5.toFixed(2)})`,
+    );
     if (misses.length) console.log(`misses:\n  ${misses.join('\n  ')}`);
     expect(p5).toBeGreaterThanOrEqual(0.8);
   });

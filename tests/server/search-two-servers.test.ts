@@ -21,7 +21,12 @@ afterAll(async () => {
   await a?.close();
 });
 
-const meta = { title: 'TC-5R dial lamp and rectifier check', equipmentFamily: 'Table radio', equipmentModel: 'TC-5R', tags: ['rectifier'] };
+const meta = {
+  title: 'TC-5R dial lamp and rectifier check',
+  equipmentFamily: 'Table radio',
+  equipmentModel: 'TC-5R',
+  tags: ['rectifier'],
+};
 
 describe('two server processes on one database', () => {
   it('an approval made through server A is searchable on server B within a second', async () => {
@@ -32,7 +37,15 @@ describe('two server processes on one database', () => {
       ...meta,
       params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
       lockVersion: 1,
-      document: { type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'text', text: 'The gribbleton dial lamp flickers with the rectifier.' }] }] },
+      document: {
+        type: 'doc',
+        content: [
+          {
+            type: 'paragraph',
+            content: [{ type: 'text', text: 'The gribbleton dial lamp flickers with the rectifier.' }],
+          },
+        ],
+      },
     });
     const onB = httpSession(bUrl);
     expect((await onB.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
@@ -51,6 +64,8 @@ describe('two server processes on one database', () => {
     expect(elapsed).toBeLessThan(1_000);
     // Server A's own index follows the same notification (it may land a moment after B's).
     const [row] = await a.db.select().from(revisions).where(eq(revisions.id, rev.id));
-    await expect.poll(() => a.search!.index.has(row!.procedureId), { timeout: 1_000, interval: 50 }).toBe(true);
+    await expect
+      .poll(() => a.search!.index.has(row!.procedureId), { timeout: 1_000, interval: 50 })
+      .toBe(true);
   });
 });

@@ -11,7 +11,12 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const params = { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 };
-const meta = { title: 'TC-18 reservoir swap and hum check', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: ['recap'] };
+const meta = {
+  title: 'TC-18 reservoir swap and hum check',
+  equipmentFamily: 'Guitar amplifier',
+  equipmentModel: 'TC-18',
+  tags: ['recap'],
+};
 const para = (text: string) => ({ type: 'paragraph', content: [{ type: 'text', text }] });
 
 /** Creates a draft with the given lines, returning its ids. */
@@ -19,7 +24,9 @@ async function draftWith(lines: string[]) {
   const hal = await t.as('hal');
   const created = await hal.post('/api/procedures').send(meta);
   const rev = created.body.revision;
-  const saved = await hal.put(`/api/revisions/${rev.id}`).send({ ...meta, params, lockVersion: 1, document: { type: 'doc', content: lines.map(para) } });
+  const saved = await hal
+    .put(`/api/revisions/${rev.id}`)
+    .send({ ...meta, params, lockVersion: 1, document: { type: 'doc', content: lines.map(para) } });
   expect(saved.status).toBe(200);
   return { procedureId: rev.procedureId as string, revisionId: rev.id as string };
 }
@@ -29,12 +36,14 @@ async function draftWith(lines: string[]) {
  * tested in the review tests); the state-change trigger notifies search at commit.
  */
 async function approve(revisionId: string) {
-  const procedureId = (await t.db.select().from(revisions).where(eq(revisions.id, revisionId)))[0]!.procedureId;
+  const procedureId = (await t.db.select().from(revisions).where(eq(revisions.id, revisionId)))[0]!
+    .procedureId;
   const refreshed = t.search!.nextRefreshOf(procedureId);
   await approveRevision(t.db, revisionId);
   expect(await refreshed).toBe(true);
   // The draft's own notification (at its INSERT) may be the one that arrived: wait for the approval's.
-  for (let i = 0; i < 10 && !t.search!.index.has(procedureId); i++) await t.search!.nextRefreshOf(procedureId, 500);
+  for (let i = 0; i < 10 && !t.search!.index.has(procedureId); i++)
+    await t.search!.nextRefreshOf(procedureId, 500);
   expect(t.search!.index.has(procedureId)).toBe(true);
 }
 
@@ -43,7 +52,12 @@ async function search(q: string, extra = '') {
   const tom = (tomClient ??= await t.as('tom'));
   const res = await tom.get(`/api/search?q=${encodeURIComponent(q)}${extra}`);
   expect(res.status).toBe(200);
-  return res.body as { total: number; results: { procedureId: string; title: string; snippet: { text: string; hit: boolean }[] }[]; suggestions: string[]; facets: { families: string[] } };
+  return res.body as {
+    total: number;
+    results: { procedureId: string; title: string; snippet: { text: string; hit: boolean }[] }[];
+    suggestions: string[];
+    facets: { families: string[] };
+  };
 }
 
 describe('search over approved procedures', () => {
@@ -66,7 +80,14 @@ describe('search over approved procedures', () => {
     const draft = await hal.post(`/api/procedures/${procedureId}/drafts`);
     expect(draft.status).toBe(201);
     const rev2 = draft.body.revision;
-    await hal.put(`/api/revisions/${rev2.id}`).send({ ...meta, params, lockVersion: rev2.lockVersion, document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] } });
+    await hal
+      .put(`/api/revisions/${rev2.id}`)
+      .send({
+        ...meta,
+        params,
+        lockVersion: rev2.lockVersion,
+        document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] },
+      });
     const refreshed = t.search!.nextRefreshOf(procedureId);
     await approveRevision(t.db, rev2.id); // supersedes revision 1 in the same transaction
     await refreshed;
@@ -112,7 +133,9 @@ describe('search over approved procedures', () => {
   it('a server that missed notifications while disconnected catches up when it reconnects', async () => {
     const { revisionId } = await draftWith(['The wobbleflux reading drifts when the chassis warms.']);
     // Cut the index's LISTEN connection, then approve while it is away.
-    await t.db.execute(sql`select pg_terminate_backend(pid) from pg_stat_activity where datname = current_database() and query ilike 'LISTEN%'`);
+    await t.db.execute(
+      sql`select pg_terminate_backend(pid) from pg_stat_activity where datname = current_database() and query ilike 'LISTEN%'`,
+    );
     await approveRevision(t.db, revisionId);
     let total = 0;
     for (let i = 0; i < 50 && !total; i++) {
@@ -127,7 +150,10 @@ describe('search over approved procedures', () => {
     expect(all.facets.families.length).toBeGreaterThan(1);
     const radios = await search('fuse', '&family=Table%20radio');
     expect(radios.total).toBeGreaterThan(0);
-    const [procedure] = await t.db.select().from(procedures).where(eq(procedures.seedKey, 'tc5r-rectifier-recap'));
+    const [procedure] = await t.db
+      .select()
+      .from(procedures)
+      .where(eq(procedures.seedKey, 'tc5r-rectifier-recap'));
     expect(radios.results.map((r) => r.procedureId)).toContain(procedure!.id);
     const paged = await search('fuse', '&pageSize=1&page=2');
     expect(paged.results.length).toBe(1);

@@ -14,10 +14,16 @@ let clientDir: string;
 beforeAll(async () => {
   clientDir = mkdtempSync(path.join(tmpdir(), 'bw-client-'));
   mkdirSync(path.join(clientDir, 'assets'));
-  writeFileSync(path.join(clientDir, 'index.html'), '<!doctype html><html><head><title>Benchwright</title><script type="module" src="/assets/app.js"></script></head><body><div id="root"></div></body></html>');
+  writeFileSync(
+    path.join(clientDir, 'index.html'),
+    '<!doctype html><html><head><title>Benchwright</title><script type="module" src="/assets/app.js"></script></head><body><div id="root"></div></body></html>',
+  );
   writeFileSync(path.join(clientDir, 'assets', 'app.js'), 'console.log("bench");\n');
   // Generous sign-in limits: this file signs in (and fails to) many times on purpose.
-  t = await createTestApp({ clientDir, signInLimits: { perAccount: 1000, perAddress: 1000, windowMs: 60_000 } });
+  t = await createTestApp({
+    clientDir,
+    signInLimits: { perAccount: 1000, perAddress: 1000, windowMs: 60_000 },
+  });
 });
 afterAll(async () => {
   await t.close();
@@ -28,12 +34,18 @@ type Res = { status: number; headers: Record<string, string | string[] | undefin
 
 function expectHardenedHeaders(res: Res, what: string) {
   const csp = String(res.headers['content-security-policy'] ?? '');
-  const directive = (name: string) => csp.split(';').map((d) => d.trim()).find((d) => d.startsWith(name + ' '));
+  const directive = (name: string) =>
+    csp
+      .split(';')
+      .map((d) => d.trim())
+      .find((d) => d.startsWith(name + ' '));
   expect(directive('object-src'), `${what}: CSP object-src`).toBe("object-src 'none'");
   expect(directive('base-uri'), `${what}: CSP base-uri`).toBe("base-uri 'none'");
   expect(directive('frame-ancestors'), `${what}: CSP frame-ancestors`).toBe("frame-ancestors 'none'");
   expect(res.headers['x-content-type-options'], `${what}: nosniff`).toBe('nosniff');
-  expect(res.headers['referrer-policy'], `${what}: Referrer-Policy`).toMatch(/^(no-referrer|same-origin|strict-origin(-when-cross-origin)?)$/);
+  expect(res.headers['referrer-policy'], `${what}: Referrer-Policy`).toMatch(
+    /^(no-referrer|same-origin|strict-origin(-when-cross-origin)?)$/,
+  );
   // This app is reached over plain http: HSTS is for TLS only (tests/server/headers.test.ts covers TLS).
   expect(res.headers['strict-transport-security'], `${what}: no HSTS over http`).toBeUndefined();
   expect(res.headers['permissions-policy'], `${what}: Permissions-Policy`).toMatch(/camera=\(\)/);
@@ -118,13 +130,16 @@ describe('the session cookie', () => {
   it('behind TLS: an anonymous visitor gets only the __Host-bw.csrf cookie; sign-in gives __Host-bw.sid — Secure, HttpOnly, SameSite, Path=/, no Domain', async () => {
     const tls = await createTestApp({ publicUrl: 'https://bench.tallowcreek.example', trustProxy: 1 });
     try {
-      const viaProxy = (r: request.Test) => r.set('X-Forwarded-Proto', 'https').set('Host', 'bench.tallowcreek.example');
+      const viaProxy = (r: request.Test) =>
+        r.set('X-Forwarded-Proto', 'https').set('Host', 'bench.tallowcreek.example');
       const session = await viaProxy(request(tls.app).get('/api/auth/session'));
       const setCookies = session.headers['set-cookie'] as unknown as string[];
       expect(cookieParts(setCookies, '__Host-bw.sid'), 'no session for an anonymous visitor').toBeUndefined();
       const anon = cookieParts(setCookies, '__Host-bw.csrf');
       expect(anon, 'the anonymous CSRF cookie with the __Host- prefix').toBeDefined();
-      expect(anon!.attrs).toEqual(expect.arrayContaining(['secure', 'httponly', 'samesite=strict', 'path=/']));
+      expect(anon!.attrs).toEqual(
+        expect.arrayContaining(['secure', 'httponly', 'samesite=strict', 'path=/']),
+      );
       expect(anon!.attrs.some((a) => a.startsWith('domain='))).toBe(false);
       const signIn = await viaProxy(request(tls.app).post('/api/auth/sign-in'))
         .set('Cookie', `__Host-bw.csrf=${anon!.value}`)
@@ -161,11 +176,15 @@ const costOf = (hash: string) => {
   const p = Object.fromEntries(params.split(',').map((kv) => kv.split('=') as [string, string]));
   return { m: Number(p.m), t: Number(p.t), p: Number(p.p) };
 };
-const hashOf = async (email: string) => (await t.db.select({ h: people.passwordHash }).from(people).where(eq(people.email, email)))[0]!.h!;
+const hashOf = async (email: string) =>
+  (await t.db.select({ h: people.passwordHash }).from(people).where(eq(people.email, email)))[0]!.h!;
 
 describe('password storage (argon2id)', () => {
   it('every stored hash is argon2id with m ≥ 19456 KiB and t ≥ 2', async () => {
-    const rows = await t.db.select({ email: people.email, h: people.passwordHash }).from(people).where(isNotNull(people.passwordHash));
+    const rows = await t.db
+      .select({ email: people.email, h: people.passwordHash })
+      .from(people)
+      .where(isNotNull(people.passwordHash));
     expect(rows.length).toBeGreaterThanOrEqual(8);
     for (const row of rows) {
       const cost = costOf(row.h!);
@@ -177,7 +196,12 @@ describe('password storage (argon2id)', () => {
   });
 
   it('a weaker stored hash is replaced by a strong one at sign-in', async () => {
-    const weak = await argon2.hash(demo.sam.password, { type: argon2.argon2id, memoryCost: 4096, timeCost: 1, parallelism: 1 });
+    const weak = await argon2.hash(demo.sam.password, {
+      type: argon2.argon2id,
+      memoryCost: 4096,
+      timeCost: 1,
+      parallelism: 1,
+    });
     expect(costOf(weak)).toEqual({ m: 4096, t: 1, p: 1 });
     await t.db.update(people).set({ passwordHash: weak }).where(eq(people.email, demo.sam.email));
     expect((await t.client().signIn(demo.sam.email, demo.sam.password)).status).toBe(200);
@@ -192,30 +216,40 @@ describe('password storage (argon2id)', () => {
 
 /** n characters (code points) of mixed scripts, ending in a lower-case letter with an upper-case form. */
 function passphrase(n: number) {
-  const pool = [...'Röhrenverstärker brummt leise · ламповый выпрямитель · 真空管の整流器 · ⚡🔌 ∑ŧ€ ﬁlter øre '];
+  const pool = [
+    ...'Röhrenverstärker brummt leise · ламповый выпрямитель · 真空管の整流器 · ⚡🔌 ∑ŧ€ ﬁlter øre ',
+  ];
   const chars = Array.from({ length: n - 1 }, (_, i) => pool[i % pool.length]!);
   return chars.join('') + 'ä';
 }
 
 describe('long Unicode passphrases (ASVS 6.2.8, 6.2.9)', () => {
-  it.for([64, 200])('a %i-character passphrase is set through an invitation and signs in; changing only its last character fails', async (n) => {
-    const password = passphrase(n);
-    expect([...password]).toHaveLength(n);
-    const admin = await t.as('admin');
-    const email = `passphrase-${n}@tallowcreek.example`;
-    const invite = await admin.post('/api/people/invitations').send({ email, displayName: `Passphrase ${n}`, roles: ['technician'] });
-    expect(invite.status).toBe(201);
-    const token = await setPasswordTokenMailedTo(t.db, email);
-    const anon = t.client();
-    await anon.refreshToken();
-    const set = await anon.post('/api/auth/set-password').send({ token, password });
-    expect(set.status, JSON.stringify(set.body)).toBe(200);
-    expect((await t.client().signIn(email, password)).status).toBe(200);
-    // Truncation would accept the first; case folding the second.
-    for (const last of ['b', 'Ä']) {
-      expect((await t.client().signIn(email, password.slice(0, -1) + last)).status, `ending in ${last}`).toBe(401);
-    }
-  });
+  it.for([64, 200])(
+    'a %i-character passphrase is set through an invitation and signs in; changing only its last character fails',
+    async (n) => {
+      const password = passphrase(n);
+      expect([...password]).toHaveLength(n);
+      const admin = await t.as('admin');
+      const email = `passphrase-${n}@tallowcreek.example`;
+      const invite = await admin
+        .post('/api/people/invitations')
+        .send({ email, displayName: `Passphrase ${n}`, roles: ['technician'] });
+      expect(invite.status).toBe(201);
+      const token = await setPasswordTokenMailedTo(t.db, email);
+      const anon = t.client();
+      await anon.refreshToken();
+      const set = await anon.post('/api/auth/set-password').send({ token, password });
+      expect(set.status, JSON.stringify(set.body)).toBe(200);
+      expect((await t.client().signIn(email, password)).status).toBe(200);
+      // Truncation would accept the first; case folding the second.
+      for (const last of ['b', 'Ä']) {
+        expect(
+          (await t.client().signIn(email, password.slice(0, -1) + last)).status,
+          `ending in ${last}`,
+        ).toBe(401);
+      }
+    },
+  );
 });
 
 describe('no account enumeration at sign-in (ASVS 6.3.8)', () => {
@@ -252,7 +286,9 @@ describe('no account enumeration at sign-in (ASVS 6.3.8)', () => {
     const mu = median(unknown);
     const mw = median(wrong);
     const tolerance = Math.max(10, 0.25 * Math.max(mu, mw));
-    console.log(`sign-in median latency over 15 tries: unknown e-mail ${mu.toFixed(1)} ms, wrong password ${mw.toFixed(1)} ms; difference ${Math.abs(mu - mw).toFixed(1)} ms, allowed ${tolerance.toFixed(1)} ms`);
+    console.log(
+      `sign-in median latency over 15 tries: unknown e-mail ${mu.toFixed(1)} ms, wrong password ${mw.toFixed(1)} ms; difference ${Math.abs(mu - mw).toFixed(1)} ms, allowed ${tolerance.toFixed(1)} ms`,
+    );
     expect(Math.abs(mu - mw)).toBeLessThanOrEqual(tolerance);
   });
 });

@@ -13,9 +13,17 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const unitBySerial = async (serial: string) => (await t.db.select().from(units).where(eq(units.serial, serial)))[0]!;
-const count = async (table: typeof units | typeof runs | typeof runEntries | typeof runEntryHistory | typeof runSignatures | typeof auditLog) =>
-  Number((await t.db.select({ n: sql<number>`count(*)` }).from(table))[0]!.n);
+const unitBySerial = async (serial: string) =>
+  (await t.db.select().from(units).where(eq(units.serial, serial)))[0]!;
+const count = async (
+  table:
+    | typeof units
+    | typeof runs
+    | typeof runEntries
+    | typeof runEntryHistory
+    | typeof runSignatures
+    | typeof auditLog,
+) => Number((await t.db.select({ n: sql<number>`count(*)` }).from(table))[0]!.n);
 
 describe('demo units and bench runs', () => {
   it('registers every demo unit', async () => {
@@ -30,7 +38,13 @@ describe('demo units and bench runs', () => {
     const tom = await t.as('tom');
     const page = await tom.get(`/api/units/${unit.id}`);
     expect(page.status).toBe(200);
-    const history = page.body.runs as { id: string; status: string; outOfTolerance: boolean; startedAt: string; startedBy: { displayName: string } }[];
+    const history = page.body.runs as {
+      id: string;
+      status: string;
+      outOfTolerance: boolean;
+      startedAt: string;
+      startedBy: { displayName: string };
+    }[];
     expect(history).toHaveLength(5);
     expect(history.every((r) => r.status === 'signed')).toBe(true);
     expect(new Set(history.map((r) => r.startedBy.displayName)).size).toBe(3);
@@ -60,7 +74,12 @@ describe('demo units and bench runs', () => {
 
     const trend = await tom.get(`/api/units/${unit.id}/trend?reading=tc18-rd-bplus`);
     expect(trend.status).toBe(200);
-    const points = trend.body.points as { at: string; measured: number; within: boolean; mainsVoltage: number }[];
+    const points = trend.body.points as {
+      at: string;
+      measured: number;
+      within: boolean;
+      mainsVoltage: number;
+    }[];
     expect(points).toHaveLength(5);
     const times = points.map((p) => Date.parse(p.at));
     expect(times).toEqual([...times].sort((a, b) => a - b));

@@ -10,7 +10,12 @@ import { readDemoPeople } from '../../server/db/seed';
 // Runs the very preparation `npm start` runs (migrations + demo content) twice on a fresh database.
 const name = `bw_seed_${process.pid}`;
 const { adminUrl, urlPrefix, appUrlPrefix, appPassword } = inject('testDb');
-const cluster = { adminUrl, urlFor: (db: string) => urlPrefix + db, appUrlFor: (db: string) => appUrlPrefix + db, appPassword };
+const cluster = {
+  adminUrl,
+  urlFor: (db: string) => urlPrefix + db,
+  appUrlFor: (db: string) => appUrlPrefix + db,
+  appPassword,
+};
 afterAll(() => dropDatabase(adminUrl, name));
 
 describe('start-up preparation', () => {
@@ -23,7 +28,10 @@ describe('start-up preparation', () => {
       const demo = readDemoPeople();
       const count = async () => Number((await db.select({ n: sql<number>`count(*)` }).from(people))[0]!.n);
       expect(await count()).toBe(demo.length);
-      await db.update(people).set({ displayName: 'Renamed by an admin' }).where(eq(people.email, demo[1]!.email));
+      await db
+        .update(people)
+        .set({ displayName: 'Renamed by an admin' })
+        .where(eq(people.email, demo[1]!.email));
 
       await prepareDatabase(cluster, name);
       expect(await count()).toBe(demo.length);

@@ -11,9 +11,17 @@ import { createTestApp, type TestApp } from '../support/test-app';
 
 let t: TestApp;
 beforeAll(async () => {
-  const clientDir = path.join(mkdtempSync(path.join(tmpdir(), 'bw-serve-')), '.hidden-checkout', 'dist', 'client');
+  const clientDir = path.join(
+    mkdtempSync(path.join(tmpdir(), 'bw-serve-')),
+    '.hidden-checkout',
+    'dist',
+    'client',
+  );
   mkdirSync(clientDir, { recursive: true });
-  writeFileSync(path.join(clientDir, 'index.html'), '<!doctype html><title>Benchwright</title><div id="root"></div>');
+  writeFileSync(
+    path.join(clientDir, 'index.html'),
+    '<!doctype html><title>Benchwright</title><div id="root"></div>',
+  );
   t = await createTestApp({ clientDir });
 });
 afterAll(() => t.close());

@@ -16,8 +16,10 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-const signedIn = async (c: Awaited<ReturnType<TestApp['as']>>) => (await c.get('/api/auth/session')).body.user !== null;
-const setCookie = (res: { headers: Record<string, unknown> }) => (res.headers['set-cookie'] as string[] | undefined) ?? [];
+const signedIn = async (c: Awaited<ReturnType<TestApp['as']>>) =>
+  (await c.get('/api/auth/session')).body.user !== null;
+const setCookie = (res: { headers: Record<string, unknown> }) =>
+  (res.headers['set-cookie'] as string[] | undefined) ?? [];
 
 describe('session limits', () => {
   it('activity keeps a session past the idle limit; the cookie is re-sent only when the limit moves', async () => {
@@ -64,15 +66,27 @@ describe('session limits', () => {
 
   it('a save still in flight when the session is signed out does not bring it back', async () => {
     const c = await t.as('tom');
-    const sid = decodeURIComponent(c.agent.jar.getCookie('bw.sid', { path: '/', domain: '127.0.0.1', secure: false, script: false })!.value).slice(2).split('.')[0]!;
+    const sid = decodeURIComponent(
+      c.agent.jar.getCookie('bw.sid', { path: '/', domain: '127.0.0.1', secure: false, script: false })!
+        .value,
+    )
+      .slice(2)
+      .split('.')[0]!;
     const store = t.app.locals.sessionStore as import('express-session').Store;
     // A request loaded the session (as express-session does, through load → createSession)…
-    const loaded = await new Promise<import('express-session').Session & Record<string, unknown>>((resolve, reject) => store.load(sid, (err, s) => (err || !s ? reject(err ?? new Error('no session')) : resolve(s as never))));
+    const loaded = await new Promise<import('express-session').Session & Record<string, unknown>>(
+      (resolve, reject) =>
+        store.load(sid, (err, s) =>
+          err || !s ? reject(err ?? new Error('no session')) : resolve(s as never),
+        ),
+    );
     // …the person signs out meanwhile…
     await new Promise<void>((resolve) => store.destroy(sid, () => resolve()));
     // …and that request then saves its copy (an idle-limit renewal, say).
     loaded.renewedAt = Date.now();
-    await new Promise<void>((resolve, reject) => store.set(sid, loaded as never, (err) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      store.set(sid, loaded as never, (err) => (err ? reject(err) : resolve())),
+    );
     const rows = await t.ownerDb.select().from(sessionTable).where(eq(sessionTable.sid, sid));
     expect(rows).toEqual([]);
     expect((await c.get('/api/procedures')).status).toBe(401);

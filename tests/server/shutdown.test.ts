@@ -1,5 +1,4 @@
 import { spawn } from 'node:child_process';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/bootstrap/prepare';
 import { createTestDatabase } from '../support/test-db';
@@ -27,14 +26,19 @@ describe('SIGTERM under load', () => {
         }
       });
     });
-    const exited = new Promise<{ code: number | null; at: number }>((resolve) => child.on('exit', (code) => resolve({ code, at: Date.now() })));
+    const exited = new Promise<{ code: number | null; at: number }>((resolve) =>
+      child.on('exit', (code) => resolve({ code, at: Date.now() })),
+    );
 
     // Sessions first; then twenty sign-in attempts at once, each an argon2 verification on the
     // server: real work in flight when the signal arrives.
     const sessions = await Promise.all(
       Array.from({ length: 20 }, async () => {
         const s = await fetch(`${url}/api/auth/session`);
-        return { cookie: (s.headers.getSetCookie()[0] ?? '').split(';')[0]!, csrf: ((await s.json()) as { csrfToken: string }).csrfToken };
+        return {
+          cookie: (s.headers.getSetCookie()[0] ?? '').split(';')[0]!,
+          csrf: ((await s.json()) as { csrfToken: string }).csrfToken,
+        };
       }),
     );
     const inFlight = sessions.map((s, i) =>
@@ -55,7 +59,9 @@ describe('SIGTERM under load', () => {
     const { code, at } = await exited;
 
     const answered = results.filter((r) => r.status > 0);
-    console.log(`ledger: sent ${results.length}, answered ${answered.length} (${[...new Set(answered.map((r) => r.status))].join('/')}), failed ${results.length - answered.length}; exit ${code} after ${at - signalAt} ms`);
+    console.log(
+      `ledger: sent ${results.length}, answered ${answered.length} (${[...new Set(answered.map((r) => r.status))].join('/')}), failed ${results.length - answered.length}; exit ${code} after ${at - signalAt} ms`,
+    );
     expect(code).toBe(0);
     expect(at - signalAt).toBeLessThan(10_000);
     // Every request sent before the signal is answered; none is cut off.

@@ -12,14 +12,25 @@ describe('the unit register', () => {
   it('technicians, authors, reviewers and admins register units; bad input gets 400 naming the field', async () => {
     for (const who of ['tom', 'hal', 'marek', 'admin'] as const) {
       const c = await t.as(who);
-      const res = await c.post('/api/units').send({ model: 'TC-30H', serial: `H-${who}-001`, owner: 'Tallow Creek demo', notes: 'Hum at idle' });
+      const res = await c
+        .post('/api/units')
+        .send({ model: 'TC-30H', serial: `H-${who}-001`, owner: 'Tallow Creek demo', notes: 'Hum at idle' });
       expect(res.status, who).toBe(201);
-      expect(res.body.unit).toMatchObject({ model: 'TC-30H', serial: `H-${who}-001`, jobNumber: '', lockVersion: 1 });
+      expect(res.body.unit).toMatchObject({
+        model: 'TC-30H',
+        serial: `H-${who}-001`,
+        jobNumber: '',
+        lockVersion: 1,
+      });
     }
     const tom = await t.as('tom');
     const bad = await tom.post('/api/units').send({ model: '', serial: 'x'.repeat(81), status: 'done' });
     expect(bad.status).toBe(400);
-    expect(bad.body.fields.map((f: { field: string }) => f.field).sort()).toEqual(['body', 'body.model', 'body.serial']);
+    expect(bad.body.fields.map((f: { field: string }) => f.field).sort()).toEqual([
+      'body',
+      'body.model',
+      'body.serial',
+    ]);
     const dup = await tom.post('/api/units').send({ model: 'tc-30h', serial: 'h-TOM-001' });
     expect(dup.status).toBe(409);
     expect((await t.client().get('/api/units')).status).toBe(401);
@@ -41,13 +52,29 @@ describe('the unit register', () => {
     const like = await tom.get('/api/units?q=%25');
     expect(like.body.units).toHaveLength(0);
 
-    const edit = await tom.put(`/api/units/${a.id}`).send({ model: 'TC-5R', serial: 'R5-7781', owner: 'Odile Pardoe', jobNumber: 'J-3311', notes: 'Dial lamp out', lockVersion: 1 });
+    const edit = await tom
+      .put(`/api/units/${a.id}`)
+      .send({
+        model: 'TC-5R',
+        serial: 'R5-7781',
+        owner: 'Odile Pardoe',
+        jobNumber: 'J-3311',
+        notes: 'Dial lamp out',
+        lockVersion: 1,
+      });
     expect(edit.status).toBe(200);
     expect(edit.body.unit).toMatchObject({ jobNumber: 'J-3311', lockVersion: 2 });
-    const stale = await (await t.as('priya')).put(`/api/units/${a.id}`).send({ model: 'TC-5R', serial: 'R5-7781', lockVersion: 1 });
+    const stale = await (
+      await t.as('priya')
+    )
+      .put(`/api/units/${a.id}`)
+      .send({ model: 'TC-5R', serial: 'R5-7781', lockVersion: 1 });
     expect(stale.status).toBe(409);
     expect(stale.body.current.jobNumber).toBe('J-3311');
-    const photo = await tom.post(`/api/units/${a.id}/photos`).field('caption', 'Chassis, top').attach('file', tinyPng(), { filename: 'top.png' });
+    const photo = await tom
+      .post(`/api/units/${a.id}/photos`)
+      .field('caption', 'Chassis, top')
+      .attach('file', tinyPng(), { filename: 'top.png' });
     expect(photo.status).toBe(201);
     const page = await tom.get(`/api/units/${a.id}`);
     expect(page.body.photos).toMatchObject([{ caption: 'Chassis, top' }]);
@@ -73,7 +100,9 @@ describe('the unit register', () => {
     expect(history.body.runs.filter((r: { outOfTolerance: boolean }) => r.outOfTolerance)).toHaveLength(1);
 
     const pick = await tom.get(`/api/units/${unit.id}/trend`);
-    expect(pick.body.readings).toEqual([{ id: 'rd-ht-ac', label: 'HT winding, each half', unit: 'V', count: 3 }]);
+    expect(pick.body.readings).toEqual([
+      { id: 'rd-ht-ac', label: 'HT winding, each half', unit: 'V', count: 3 },
+    ]);
     const trend = await tom.get(`/api/units/${unit.id}/trend?reading=rd-ht-ac`);
     expect(trend.body.points.map((p: { measured: number }) => p.measured)).toEqual([249, 262, 275]);
     expect(trend.body.points.map((p: { within: boolean }) => p.within)).toEqual([true, true, false]);

@@ -10,7 +10,10 @@ import { sanitizeRevisionHtml } from '../../server/modules/procedures/render-htm
 import { createTestApp, type TestApp } from '../support/test-app';
 import { EVASION_VECTORS } from '../support/xss-evasion';
 
-const blns = [...(createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[]), ...EVASION_VECTORS];
+const blns = [
+  ...(createRequire(import.meta.url)('big-list-of-naughty-strings/blns.json') as string[]),
+  ...EVASION_VECTORS,
+];
 
 let t: TestApp;
 beforeAll(async () => {
@@ -18,7 +21,36 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-const ALLOWED_TAGS = new Set(['p', 'br', 'strong', 'em', 'u', 's', 'code', 'pre', 'a', 'h1', 'h2', 'h3', 'h4', 'ul', 'ol', 'li', 'blockquote', 'hr', 'aside', 'table', 'caption', 'tbody', 'tr', 'th', 'td', 'figure', 'img', 'figcaption']);
+const ALLOWED_TAGS = new Set([
+  'p',
+  'br',
+  'strong',
+  'em',
+  'u',
+  's',
+  'code',
+  'pre',
+  'a',
+  'h1',
+  'h2',
+  'h3',
+  'h4',
+  'ul',
+  'ol',
+  'li',
+  'blockquote',
+  'hr',
+  'aside',
+  'table',
+  'caption',
+  'tbody',
+  'tr',
+  'th',
+  'td',
+  'figure',
+  'img',
+  'figcaption',
+]);
 
 /** Every tag in the HTML is allowlisted, no tag carries an event handler or a script URL. */
 function assertInert(html: string, context: string) {
@@ -32,8 +64,11 @@ function assertInert(html: string, context: string) {
       if (!['href', 'src'].includes(a[1]!.toLowerCase())) continue;
       // What a browser would take as the URL's scheme: entities decoded, controls and spaces gone.
       const url = a[2]!
-        .replace(/&#x?([0-9a-f]+);?/gi, (_s, n: string) => String.fromCharCode(parseInt(n, /^\d+$/.test(n) ? 10 : 16)))
+        .replace(/&#x?([0-9a-f]+);?/gi, (_s, n: string) =>
+          String.fromCharCode(parseInt(n, /^\d+$/.test(n) ? 10 : 16)),
+        )
         .replace(/&colon;/gi, ':')
+        // eslint-disable-next-line no-control-regex -- browsers ignore these inside a URL scheme
         .replace(/[\u0000-\u0020]/g, '');
       expect(url, `${context}: ${a[1]} of <${tag}>`).not.toMatch(/^(javascript|vbscript|data):/i);
       if (tag === 'img') expect(url, `${context}: image source`).toMatch(/^\/api\/attachments\//);
@@ -45,7 +80,12 @@ function assertInert(html: string, context: string) {
 describe('hostile text in procedures', () => {
   it('every naughty string, in the title, a paragraph, a reading and a check step, is stored inert or refused with 400', async () => {
     const hal = await t.as('hal');
-    const meta = { title: 'XSS corpus holder', equipmentFamily: 'Table radio', equipmentModel: 'TC-5R', tags: [] };
+    const meta = {
+      title: 'XSS corpus holder',
+      equipmentFamily: 'Table radio',
+      equipmentModel: 'TC-5R',
+      tags: [],
+    };
     const created = await hal.post('/api/procedures').send(meta);
     let lock = created.body.revision.lockVersion as number;
     const id = created.body.revision.id as string;
@@ -56,9 +96,28 @@ describe('hostile text in procedures', () => {
       const content = batch.flatMap((s, j) => [
         { type: 'paragraph', content: [{ type: 'text', text: s }] },
         { type: 'checkStep', attrs: { id: `check-${i + j}`, text: s.slice(0, 500) } },
-        { type: 'reading', attrs: { id: `read-${i + j}`, label: s.slice(0, 200), testPoint: s.slice(0, 120), meterRange: '1000 V DC', unit: 'V', expected: { literal: '250 V' }, tolerance: '±10 %' } },
+        {
+          type: 'reading',
+          attrs: {
+            id: `read-${i + j}`,
+            label: s.slice(0, 200),
+            testPoint: s.slice(0, 120),
+            meterRange: '1000 V DC',
+            unit: 'V',
+            expected: { literal: '250 V' },
+            tolerance: '±10 %',
+          },
+        },
       ]);
-      const res = await hal.put(`/api/revisions/${id}`).send({ ...meta, title: `Corpus ${batch[0]!.slice(0, 100)}`.trim().padEnd(3, '.'), params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 }, lockVersion: lock, document: { type: 'doc', content } });
+      const res = await hal
+        .put(`/api/revisions/${id}`)
+        .send({
+          ...meta,
+          title: `Corpus ${batch[0]!.slice(0, 100)}`.trim().padEnd(3, '.'),
+          params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+          lockVersion: lock,
+          document: { type: 'doc', content },
+        });
       statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
       expect([200, 400], `batch at ${i}: ${JSON.stringify(res.body).slice(0, 200)}`).toContain(res.status);
       if (res.status === 200) {
@@ -75,14 +134,20 @@ describe('hostile text in procedures', () => {
     for (const vector of EVASION_VECTORS) {
       const once = sanitizeRevisionHtml(vector);
       assertInert(once, vector.slice(0, 60));
-      expect(once, vector.slice(0, 60)).not.toMatch(/<(script|iframe|object|embed|meta|base|link|style|xmp|noscript|svg|math|form|input|textarea|title)\b/i);
+      expect(once, vector.slice(0, 60)).not.toMatch(
+        /<(script|iframe|object|embed|meta|base|link|style|xmp|noscript|svg|math|form|input|textarea|title)\b/i,
+      );
       expect(sanitizeRevisionHtml(once)).toBe(once);
     }
   });
 
   it('the sanitizer leaves only allowlisted markup and is idempotent, for generated strings mixed with the corpus', () => {
     const corpus = fc.constantFrom(...blns);
-    const fragment = fc.oneof(corpus, fc.string(), fc.constantFrom('<', '>', '"', "'", '=', 'on', 'javascript:', '<a href="', '<img src=x ', '</', '&#'));
+    const fragment = fc.oneof(
+      corpus,
+      fc.string(),
+      fc.constantFrom('<', '>', '"', "'", '=', 'on', 'javascript:', '<a href="', '<img src=x ', '</', '&#'),
+    );
     fc.assert(
       fc.property(fc.array(fragment, { maxLength: 8 }), (parts) => {
         const once = sanitizeRevisionHtml(parts.join(''));

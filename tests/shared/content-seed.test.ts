@@ -78,7 +78,8 @@ function refsOf(value: unknown, out: string[] = []): string[] {
   if (Array.isArray(value)) value.forEach((v) => refsOf(v, out));
   else if (value && typeof value === 'object') {
     const o = value as Record<string, unknown>;
-    if (Object.keys(o).length === 1 && typeof o.ref === 'string') out.push(o.ref.slice(0, o.ref.indexOf('.')));
+    if (Object.keys(o).length === 1 && typeof o.ref === 'string')
+      out.push(o.ref.slice(0, o.ref.indexOf('.')));
     else Object.values(o).forEach((v) => refsOf(v, out));
   }
   return out;
@@ -88,7 +89,7 @@ function refsOf(value: unknown, out: string[] = []): string[] {
 function mainsDependent(doc: ProcedureDoc): Set<string> {
   const { reckoners } = extractBlocks(doc);
   const dependent = new Set(reckoners.filter((r) => usesParam(r.inputs, 'mainsVoltage')).map((r) => r.name));
-  for (let changed = true; changed; ) {
+  for (let changed = true; changed;) {
     changed = false;
     for (const r of reckoners) {
       if (!dependent.has(r.name) && refsOf(r.inputs).some((n) => dependent.has(n))) {
@@ -113,8 +114,10 @@ function outputOf(snap: Snapshot, ref: string): number {
 /** The value a reckoner input takes in a snapshot: a reference, a parameter or a plain number. */
 function inputValue(snap: Snapshot, value: unknown): number {
   if (typeof value === 'number') return value;
-  if (value && typeof value === 'object' && 'ref' in value) return outputOf(snap, String((value as { ref: string }).ref));
-  if (value && typeof value === 'object' && 'param' in value) return snap.params[(value as { param: string }).param as keyof ProcedureParams] as number;
+  if (value && typeof value === 'object' && 'ref' in value)
+    return outputOf(snap, String((value as { ref: string }).ref));
+  if (value && typeof value === 'object' && 'param' in value)
+    return snap.params[(value as { param: string }).param as keyof ProcedureParams] as number;
   throw new Error(`cannot resolve input ${JSON.stringify(value)} in this test`);
 }
 
@@ -126,7 +129,8 @@ interface LadderStage {
 /** Findings of the procedure check that are right about the demo content (none at present). */
 const RIGHT_FINDINGS: Record<string, { code: string; blockId: string | null }[]> = {};
 
-const people = (JSON.parse(readFileSync(PEOPLE, 'utf8')) as { people: { email: string; roles: string[] }[] }).people;
+const people = (JSON.parse(readFileSync(PEOPLE, 'utf8')) as { people: { email: string; roles: string[] }[] })
+  .people;
 const rolesOf = (email: string) => people.find((p) => p.email === email)?.roles ?? [];
 
 describe('content-seed procedures', () => {
@@ -174,15 +178,24 @@ describe('content-seed procedures', () => {
 
     it('gives no procedure-check warnings beyond the reckoners’ own cautions and the findings listed as right', () => {
       const doc = validDoc(seed);
-      const findings = lintProcedure(doc, evaluateDocument(doc, seed.params)).filter((w) => w.code !== 'reckoner-caution');
-      expect(findings.map((w) => ({ code: w.code, blockId: w.blockId }))).toEqual(RIGHT_FINDINGS[seed.seedKey] ?? []);
+      const findings = lintProcedure(doc, evaluateDocument(doc, seed.params)).filter(
+        (w) => w.code !== 'reckoner-caution',
+      );
+      expect(findings.map((w) => ({ code: w.code, blockId: w.blockId }))).toEqual(
+        RIGHT_FINDINGS[seed.seedKey] ?? [],
+      );
     });
 
     it('opens with a danger note stating the live-work cautions, and verifies the discharge below 60 V', () => {
       const doc = validDoc(seed);
       expect(doc.content[0]!.type).toBe('hazardNote');
       expect(doc.content[0]!.attrs!.level).toBe('danger');
-      expect(doc.content[0]!.attrs!.flags).toEqual({ oneHand: true, isolation: true, currentLimited: true, discharge: true });
+      expect(doc.content[0]!.attrs!.flags).toEqual({
+        oneHand: true,
+        isolation: true,
+        currentLimited: true,
+        discharge: true,
+      });
       const { checkSteps } = extractBlocks(doc);
       const verified = checkSteps.filter((c) => c.kind === 'discharge-verified');
       expect(verified.length).toBeGreaterThan(0);
@@ -228,7 +241,10 @@ describe('content-seed procedures', () => {
         const h = high.readings.find((x) => x.id === r.id)!;
         const source = refOf.get(r.id);
         if (source && dependent.has(source.slice(0, source.indexOf('.')))) {
-          expect(h.expected!, `${seed.seedKey}: ${r.id} (${source}) should rise with the mains`).toBeGreaterThan(r.expected!);
+          expect(
+            h.expected!,
+            `${seed.seedKey}: ${r.id} (${source}) should rise with the mains`,
+          ).toBeGreaterThan(r.expected!);
         }
         if (h.expected !== r.expected) moved++;
       }
@@ -243,10 +259,17 @@ describe('content-seed procedures', () => {
         inputs.stages.forEach((_, i) => {
           const ref = `${ladder.name}.stage${i + 1}.nodeVoltage`;
           const rise = outputOf(high, ref) - outputOf(base, ref);
-          expect(Math.abs(rise - startRise), `${seed.seedKey}: ${ref} rises ${rise} V, start ${startRise} V`).toBeLessThan(1e-9 * Math.abs(startRise) + 1e-9);
+          expect(
+            Math.abs(rise - startRise),
+            `${seed.seedKey}: ${ref} rises ${rise} V, start ${startRise} V`,
+          ).toBeLessThan(1e-9 * Math.abs(startRise) + 1e-9);
         });
-        const ladderReadings = base.readings.filter((r) => refOf.get(r.id)?.startsWith(`${ladder.name}.`) && /\.nodeVoltage$/.test(refOf.get(r.id)!));
-        expect(ladderReadings.length, `${seed.seedKey}: readings bound to ${ladder.name} node voltages`).toBe(inputs.stages.length);
+        const ladderReadings = base.readings.filter(
+          (r) => refOf.get(r.id)?.startsWith(`${ladder.name}.`) && /\.nodeVoltage$/.test(refOf.get(r.id)!),
+        );
+        expect(ladderReadings.length, `${seed.seedKey}: readings bound to ${ladder.name} node voltages`).toBe(
+          inputs.stages.length,
+        );
         for (const r of ladderReadings) {
           const h = high.readings.find((x) => x.id === r.id)!;
           expect(h.expected! - r.expected!, `${seed.seedKey}: ${r.id}`).toBeCloseTo(startRise, 6);
@@ -258,13 +281,22 @@ describe('content-seed procedures', () => {
       const doc = validDoc(seed);
       const fuses = extractBlocks(doc).reckoners.filter((r) => r.kind === 'mains-fuse');
       for (const fuse of fuses) {
-        expect((fuse.inputs as Record<string, unknown>).mainsVoltage, `${seed.seedKey}: ${fuse.name}.mainsVoltage`).toEqual({ param: 'mainsNominal' });
+        expect(
+          (fuse.inputs as Record<string, unknown>).mainsVoltage,
+          `${seed.seedKey}: ${fuse.name}.mainsVoltage`,
+        ).toEqual({ param: 'mainsNominal' });
       }
       const base = evaluateDocument(doc, seed.params);
       for (const factor of [0.9, 1.1]) {
-        const other = evaluateDocument(doc, { ...seed.params, mainsVoltage: seed.params.mainsVoltage * factor });
+        const other = evaluateDocument(doc, {
+          ...seed.params,
+          mainsVoltage: seed.params.mainsVoltage * factor,
+        });
         for (const fuse of fuses) {
-          expect(outputOf(other, `${fuse.name}.fuseRating`), `${seed.seedKey}: ${fuse.name} at ×${factor} mains`).toBe(outputOf(base, `${fuse.name}.fuseRating`));
+          expect(
+            outputOf(other, `${fuse.name}.fuseRating`),
+            `${seed.seedKey}: ${fuse.name} at ×${factor} mains`,
+          ).toBe(outputOf(base, `${fuse.name}.fuseRating`));
         }
       }
     });
@@ -281,9 +313,13 @@ describe('content-seed procedures', () => {
           expect(typeof st.fittedResistance, `${where} fitted resistor`).toBe('string');
           const fitted = st.fittedResistance as string;
           // The part the unit description lists, e.g. "4k7 2 W to B+2".
-          expect(text, `${where}: "${fitted}" in the procedure text`).toMatch(new RegExp(`(^|[^0-9A-Za-z])${fitted}([^0-9A-Za-z]|$)`));
+          expect(text, `${where}: "${fitted}" in the procedure text`).toMatch(
+            new RegExp(`(^|[^0-9A-Za-z])${fitted}([^0-9A-Za-z]|$)`),
+          );
           // The reckoner computes the node with that part.
-          expect(outputOf(snap, `${ladder.name}.stage${i + 1}.resistance`), where).toBe(parseQuantity(fitted, 'Ω').value);
+          expect(outputOf(snap, `${ladder.name}.stage${i + 1}.resistance`), where).toBe(
+            parseQuantity(fitted, 'Ω').value,
+          );
         });
       }
     });

@@ -6,7 +6,9 @@ import type { Caution, Output } from '../../shared/reckoners/types';
 export function expectClose(actual: number, expected: number, rel = 1e-3, what = ''): void {
   const tol = Math.abs(expected) * rel;
   expect(Number.isFinite(actual), `${what} finite`).toBe(true);
-  expect(Math.abs(actual - expected), `${what}: ${actual} vs ${expected} (rel ${rel})`).toBeLessThanOrEqual(tol + 1e-15);
+  expect(Math.abs(actual - expected), `${what}: ${actual} vs ${expected} (rel ${rel})`).toBeLessThanOrEqual(
+    tol + 1e-15,
+  );
 }
 
 export function run(kind: string, inputs: unknown): { outputs: Record<string, Output>; cautions: Caution[] } {

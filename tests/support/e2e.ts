@@ -44,7 +44,9 @@ export function useBrowserApp() {
       await page.exposeFunction('__bwCspViolation', (text: string) => cspViolations.push(text));
       await page.addInitScript(() => {
         document.addEventListener('securitypolicyviolation', (e) => {
-          (window as unknown as { __bwCspViolation: (t: string) => void }).__bwCspViolation(`${e.violatedDirective} ${e.blockedURI} at ${e.sourceFile}:${e.lineNumber}`);
+          (window as unknown as { __bwCspViolation: (t: string) => void }).__bwCspViolation(
+            `${e.violatedDirective} ${e.blockedURI} at ${e.sourceFile}:${e.lineNumber}`,
+          );
         });
       });
       return page;

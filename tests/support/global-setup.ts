@@ -3,7 +3,15 @@ import { prepareTestTemplate, startTestCluster, TEMPLATE_DB } from './test-clust
 
 declare module 'vitest' {
   export interface ProvidedContext {
-    testDb: { adminUrl: string; template: string; urlPrefix: string; appUrlPrefix: string; appPassword: string; dataDir: string; port: number };
+    testDb: {
+      adminUrl: string;
+      template: string;
+      urlPrefix: string;
+      appUrlPrefix: string;
+      appPassword: string;
+      dataDir: string;
+      port: number;
+    };
   }
 }
 

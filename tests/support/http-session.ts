@@ -14,7 +14,11 @@ export function httpSession(baseUrl: string) {
   const call = async (method: string, path: string, body?: unknown) => {
     const res = await fetch(baseUrl + path, {
       method,
-      headers: { 'content-type': 'application/json', cookie: [...jar.values()].join('; '), 'x-csrf-token': csrf },
+      headers: {
+        'content-type': 'application/json',
+        cookie: [...jar.values()].join('; '),
+        'x-csrf-token': csrf,
+      },
       body: body === undefined ? undefined : JSON.stringify(body),
     });
     keep(res);

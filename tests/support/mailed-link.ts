@@ -7,7 +7,11 @@ import { mailOutbox } from '../../server/db/schema';
  * (the admin's answer never carries it).
  */
 export async function setPasswordTokenMailedTo(db: Db, email: string) {
-  const rows = await db.select().from(mailOutbox).where(sql`${email.toLowerCase()} = any(${mailOutbox.to})`).orderBy(desc(mailOutbox.createdAt));
+  const rows = await db
+    .select()
+    .from(mailOutbox)
+    .where(sql`${email.toLowerCase()} = any(${mailOutbox.to})`)
+    .orderBy(desc(mailOutbox.createdAt));
   for (const row of rows) {
     const m = /\/set-password\/([A-Za-z0-9_-]{20,})/.exec(row.text);
     if (m) return m[1]!;

@@ -31,7 +31,10 @@ export function pngOf(width: number, height: number, shade = 200) {
   ihdr.writeUInt32BE(height, 4);
   ihdr.set([8, 2, 0, 0, 0], 8); // 8 bits per sample, truecolour, deflate, no filter, no interlace
   const row = Buffer.concat([Buffer.from([0]), Buffer.alloc(width * 3, shade)]);
-  const pixels = width * height <= 1_000_000 ? Buffer.concat(Array.from({ length: height }, () => row)) : Buffer.from([0, 255, shade, 0]);
+  const pixels =
+    width * height <= 1_000_000
+      ? Buffer.concat(Array.from({ length: height }, () => row))
+      : Buffer.from([0, 255, shade, 0]);
   return Buffer.concat([
     Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
     chunk('IHDR', ihdr),
@@ -50,9 +53,34 @@ export const tinyPng = () => pngOf(1, 1);
  * EOI). Enough for type and size to be read from it; it decodes to nothing.
  */
 export function jpegHeaderOf(width: number, height: number, frame: 'baseline' | 'progressive' = 'baseline') {
-  const app0 = Buffer.from([0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00, 0x00]);
+  const app0 = Buffer.from([
+    0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00,
+    0x00,
+  ]);
   const dqt = Buffer.concat([Buffer.from([0xff, 0xdb, 0x00, 0x43, 0x00]), Buffer.alloc(64, 1)]);
-  const sof = Buffer.from([0xff, 0xff, 0xff, frame === 'baseline' ? 0xc0 : 0xc2, 0x00, 0x11, 8, height >> 8, height & 0xff, width >> 8, width & 0xff, 3, 1, 0x22, 0, 2, 0x11, 1, 3, 0x11, 1]);
+  const sof = Buffer.from([
+    0xff,
+    0xff,
+    0xff,
+    frame === 'baseline' ? 0xc0 : 0xc2,
+    0x00,
+    0x11,
+    8,
+    height >> 8,
+    height & 0xff,
+    width >> 8,
+    width & 0xff,
+    3,
+    1,
+    0x22,
+    0,
+    2,
+    0x11,
+    1,
+    3,
+    0x11,
+    1,
+  ]);
   return Buffer.concat([Buffer.from([0xff, 0xd8]), app0, dqt, sof, Buffer.from([0xff, 0xd9])]);
 }
 

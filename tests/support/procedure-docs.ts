@@ -19,11 +19,24 @@ export const LIVE_WORK = { oneHand: true, isolation: true, currentLimited: true,
 const paragraph = (text: string): DocNode => ({ type: 'paragraph', content: [{ type: 'text', text }] });
 
 export const doc = (...content: DocNode[]): ProcedureDoc => ({ type: 'doc', content });
-export const heading = (text: string): DocNode => ({ type: 'heading', attrs: { level: 2 }, content: [{ type: 'text', text }] });
+export const heading = (text: string): DocNode => ({
+  type: 'heading',
+  attrs: { level: 2 },
+  content: [{ type: 'text', text }],
+});
 export const para = paragraph;
 
-export function note(text: string, flags?: Partial<Record<keyof typeof LIVE_WORK, boolean>>, level: 'danger' | 'warning' = 'danger', id = nextId('hz')): DocNode {
-  return { type: 'hazardNote', attrs: { id, level, ...(flags ? { flags } : {}) }, content: [paragraph(text)] };
+export function note(
+  text: string,
+  flags?: Partial<Record<keyof typeof LIVE_WORK, boolean>>,
+  level: 'danger' | 'warning' = 'danger',
+  id = nextId('hz'),
+): DocNode {
+  return {
+    type: 'hazardNote',
+    attrs: { id, level, ...(flags ? { flags } : {}) },
+    content: [paragraph(text)],
+  };
 }
 
 export function check(text: string, extra: Record<string, unknown> = {}, id = nextId('ck')): DocNode {
@@ -32,7 +45,11 @@ export function check(text: string, extra: Record<string, unknown> = {}, id = ne
 
 /** A discharge-verified step: the capacitors measured below `threshold` with a meter. */
 export const verified = (threshold = '60 V', id?: string) =>
-  check(`Capacitors discharged below ${threshold}, verified with a meter at every filter node.`, { kind: 'discharge-verified', threshold }, id);
+  check(
+    `Capacitors discharged below ${threshold}, verified with a meter at every filter node.`,
+    { kind: 'discharge-verified', threshold },
+    id,
+  );
 
 export const wait = (seconds: number, drain?: 'bleeder' | 'probe' | 'none', id?: string) =>
   check(`Wait ${seconds} s before going on.`, { kind: 'wait', seconds, ...(drain ? { drain } : {}) }, id);
@@ -44,19 +61,49 @@ export function reading(
   extra: Record<string, unknown> = {},
   id = nextId('rd'),
 ): DocNode {
-  return { type: 'reading', attrs: { id, label, testPoint: 'TP3 to chassis', meterRange: '', unit, expected, tolerance: '±10 %', ...extra } };
+  return {
+    type: 'reading',
+    attrs: {
+      id,
+      label,
+      testPoint: 'TP3 to chassis',
+      meterRange: '',
+      unit,
+      expected,
+      tolerance: '±10 %',
+      ...extra,
+    },
+  };
 }
 
-export function reckoner(name: string, kind: string, inputs: Record<string, unknown>, id = nextId('rk')): DocNode {
+export function reckoner(
+  name: string,
+  kind: string,
+  inputs: Record<string, unknown>,
+  id = nextId('rk'),
+): DocNode {
   return { type: 'reckoner', attrs: { id, name, kind, inputs } };
 }
 
 /** A mains fuse sized from the windings, at the nominal mains. */
-export const fuse = (windings: { label: string; volts: string; amps: string }[], extra: Record<string, unknown> = {}, id?: string) =>
-  reckoner('fuse', 'mains-fuse', { load: 'windings', windings, mainsVoltage: { param: 'mainsNominal' }, ...extra }, id);
+export const fuse = (
+  windings: { label: string; volts: string; amps: string }[],
+  extra: Record<string, unknown> = {},
+  id?: string,
+) =>
+  reckoner(
+    'fuse',
+    'mains-fuse',
+    { load: 'windings', windings, mainsVoltage: { param: 'mainsNominal' }, ...extra },
+    id,
+  );
 
 /** Validated (as the server would), evaluated and checked. Throws if the document would be refused. */
-export function checkProcedure(d: ProcedureDoc, params: ProcedureParams, options?: number | Partial<CheckOptions>): { warnings: LintWarning[]; snapshot: Snapshot } {
+export function checkProcedure(
+  d: ProcedureDoc,
+  params: ProcedureParams,
+  options?: number | Partial<CheckOptions>,
+): { warnings: LintWarning[]; snapshot: Snapshot } {
   const v = validateDocument(structuredClone(d));
   if (!v.ok) throw new Error(`test document refused: ${JSON.stringify(v.problems)}`);
   const snapshot = evaluateDocument(v.doc, params);

@@ -12,7 +12,10 @@ import { recordDecision, recordSubmission, recordWithdrawal } from '../../server
 const COMMENT = 'Approved for a test.';
 
 async function person(db: Db, who: string) {
-  const [p] = await db.select().from(people).where(eq(people.email, `${who}@tallowcreek.example`));
+  const [p] = await db
+    .select()
+    .from(people)
+    .where(eq(people.email, `${who}@tallowcreek.example`));
   if (!p) throw new Error(`no demo person ${who}`);
   return p;
 }
@@ -23,7 +26,10 @@ export async function approveRevision(db: Db, revisionId: string, reviewer = 'ma
   return db.transaction(async (tx) => {
     const [row] = await tx.select().from(revisions).where(eq(revisions.id, revisionId));
     if (row?.state === 'draft') await recordSubmission(tx, row.authorId, revisionId);
-    return recordDecision(tx, NO_FILES, signer, revisionId, 'approved', { comment: COMMENT, reauthenticated: false });
+    return recordDecision(tx, NO_FILES, signer, revisionId, 'approved', {
+      comment: COMMENT,
+      reauthenticated: false,
+    });
   });
 }
 
@@ -31,7 +37,12 @@ export async function approveRevision(db: Db, revisionId: string, reviewer = 'ma
  * A new procedure by `author` whose revision 1 is in `state`: a draft, submitted, approved or
  * returned by `reviewer`, or approved and then withdrawn by them.
  */
-export async function procedureInState(db: Db, state: RevisionState, input: NewProcedure, opts: { author?: string; reviewer?: string } = {}) {
+export async function procedureInState(
+  db: Db,
+  state: RevisionState,
+  input: NewProcedure,
+  opts: { author?: string; reviewer?: string } = {},
+) {
   const author = await person(db, opts.author ?? 'hal');
   const reviewer = await person(db, opts.reviewer ?? 'marek');
   return db.transaction(async (tx) => {
@@ -40,10 +51,16 @@ export async function procedureInState(db: Db, state: RevisionState, input: NewP
     const submitted = await recordSubmission(tx, author.id, revision.id);
     if (state === 'in_review') return { procedure, revision: submitted };
     const decision = state === 'returned' ? 'returned' : 'approved';
-    const decided = await recordDecision(tx, NO_FILES, reviewer, revision.id, decision, { comment: decision === 'returned' ? 'Returned for a test.' : COMMENT, reauthenticated: false });
+    const decided = await recordDecision(tx, NO_FILES, reviewer, revision.id, decision, {
+      comment: decision === 'returned' ? 'Returned for a test.' : COMMENT,
+      reauthenticated: false,
+    });
     if (state === 'approved' || state === 'returned') return { procedure, revision: decided.revision };
     if (state === 'withdrawn') {
-      const withdrawn = await recordWithdrawal(tx, NO_FILES, reviewer, procedure.id, { reason: 'Withdrawn for a test.', reauthenticated: false });
+      const withdrawn = await recordWithdrawal(tx, NO_FILES, reviewer, procedure.id, {
+        reason: 'Withdrawn for a test.',
+        reauthenticated: false,
+      });
       return { procedure, revision: withdrawn.revision };
     }
     throw new Error(`a first revision cannot be made ${state}`);
@@ -51,4 +68,7 @@ export async function procedureInState(db: Db, state: RevisionState, input: NewP
 }
 
 /** A one-paragraph document, enough to be submitted. */
-export const textDoc = (text: string) => ({ type: 'doc' as const, content: [{ type: 'paragraph', content: [{ type: 'text', text }] }] });
+export const textDoc = (text: string) => ({
+  type: 'doc' as const,
+  content: [{ type: 'paragraph', content: [{ type: 'text', text }] }],
+});

@@ -16,7 +16,16 @@ function rng(seed: number) {
   };
 }
 
-const FAMILIES = ['Guitar amplifier', 'Hi-fi amplifier', 'Table radio', 'Bass amplifier', 'Organ amplifier', 'Communications receiver', 'Test oscillator', 'Public-address amplifier'];
+const FAMILIES = [
+  'Guitar amplifier',
+  'Hi-fi amplifier',
+  'Table radio',
+  'Bass amplifier',
+  'Organ amplifier',
+  'Communications receiver',
+  'Test oscillator',
+  'Public-address amplifier',
+];
 const TASKS = [
   'first power-up on a current-limited supply',
   'mains fuse and inrush check',
@@ -29,27 +38,54 @@ const TASKS = [
   'output stage bias check',
   'hum and ripple check',
 ];
-const TAGS = ['fuse', 'b+', 'heater', 'capacitor', 'rectifier', 'bleeder', 'ripple', 'bias', 'first power-up', 'recap', 'mains', 'ladder'];
+const TAGS = [
+  'fuse',
+  'b+',
+  'heater',
+  'capacitor',
+  'rectifier',
+  'bleeder',
+  'ripple',
+  'bias',
+  'first power-up',
+  'recap',
+  'mains',
+  'ladder',
+];
 const READINGS = [
-  'B+ at the reservoir', 'B+2 at the screen node', 'Heater winding unloaded', 'Primary current at switch-on', 'Ripple at the first node',
-  'Bias voltage at the grid', 'Cathode voltage', 'HT winding each half', 'Bleeder discharge time', 'Dropper resistor drop',
+  'B+ at the reservoir',
+  'B+2 at the screen node',
+  'Heater winding unloaded',
+  'Primary current at switch-on',
+  'Ripple at the first node',
+  'Bias voltage at the grid',
+  'Cathode voltage',
+  'HT winding each half',
+  'Bleeder discharge time',
+  'Dropper resistor drop',
 ];
 const SENTENCES = [
-  (r: () => number) => `Measure B+ at the reservoir capacitor: expect ${300 + Math.round(r() * 150)} V loaded.`,
-  (r: () => number) => `The heater winding supplies 6.3 V at ${(1 + Math.round(r() * 40) / 10).toFixed(1)} A to the valve line-up.`,
-  (r: () => number) => `Fit a time-delay fuse rated ${[0.5, 0.63, 0.8, 1, 1.25, 1.6, 2][Math.floor(r() * 7)]} A in the mains inlet.`,
-  (r: () => number) => `Replace the reservoir with ${[22, 32, 47, 68, 100, 220][Math.floor(r() * 6)]} µF rated at least 450 V.`,
-  (r: () => number) => `Check the dropping resistor of ${[1, 2.2, 4.7, 10, 22][Math.floor(r() * 5)]} kΩ between B+1 and B+2 for heat.`,
+  (r: () => number) =>
+    `Measure B+ at the reservoir capacitor: expect ${300 + Math.round(r() * 150)} V loaded.`,
+  (r: () => number) =>
+    `The heater winding supplies 6.3 V at ${(1 + Math.round(r() * 40) / 10).toFixed(1)} A to the valve line-up.`,
+  (r: () => number) =>
+    `Fit a time-delay fuse rated ${[0.5, 0.63, 0.8, 1, 1.25, 1.6, 2][Math.floor(r() * 7)]} A in the mains inlet.`,
+  (r: () => number) =>
+    `Replace the reservoir with ${[22, 32, 47, 68, 100, 220][Math.floor(r() * 6)]} µF rated at least 450 V.`,
+  (r: () => number) =>
+    `Check the dropping resistor of ${[1, 2.2, 4.7, 10, 22][Math.floor(r() * 5)]} kΩ between B+1 and B+2 for heat.`,
   () => 'Discharge the filter capacitors and verify below 60 V with a meter before touching.',
   () => 'Bring the unit up on a series lamp and watch the primary current.',
-  (r: () => number) => `Ripple at the first filter node should stay under ${1 + Math.round(r() * 9)} V peak to peak.`,
+  (r: () => number) =>
+    `Ripple at the first filter node should stay under ${1 + Math.round(r() * 9)} V peak to peak.`,
   () => 'Inspect the power transformer for overheating and a smell of varnish.',
   () => 'Confirm the rectifier valve glows evenly and shows no flashover.',
 ];
 
 export function generateCorpus(count: number, seed = 20261202): IndexedProcedure[] {
   const r = rng(seed);
-  const pick = <T,>(xs: readonly T[]) => xs[Math.floor(r() * xs.length)]!;
+  const pick = <T>(xs: readonly T[]) => xs[Math.floor(r() * xs.length)]!;
   const out: IndexedProcedure[] = [];
   for (let i = 0; i < count; i++) {
     const model = `${String.fromCharCode(65 + Math.floor(r() * 26))}${String.fromCharCode(65 + Math.floor(r() * 26))}-${100 + i}`;
@@ -65,7 +101,10 @@ export function generateCorpus(count: number, seed = 20261202): IndexedProcedure
       model,
       tags: [...new Set([pick(TAGS), pick(TAGS)])],
       body,
-      readings: Array.from({ length: 1 + Math.floor(r() * 3) }, () => `${pick(READINGS)} — TP${1 + Math.floor(r() * 9)}`).join('\n'),
+      readings: Array.from(
+        { length: 1 + Math.floor(r() * 3) },
+        () => `${pick(READINGS)} — TP${1 + Math.floor(r() * 9)}`,
+      ).join('\n'),
       reckoners: `fuse: recommended fuse ${pick(['800 mA', '1 A', '1.25 A', '1.6 A'])} time-delay (T)`,
     });
   }

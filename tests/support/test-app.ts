@@ -14,11 +14,20 @@ import { readDemoPeople } from '../../server/db/seed';
 import { createTestDatabase } from './test-db';
 
 export const demo = Object.fromEntries(
-  readDemoPeople().map((p) => [p.email.split('@')[0]!, { email: p.email, password: p.password, roles: p.roles }]),
-) as Record<'admin' | 'hal' | 'ruth' | 'marek' | 'dee' | 'tom' | 'priya' | 'sam', { email: string; password: string; roles: string[] }>;
+  readDemoPeople().map((p) => [
+    p.email.split('@')[0]!,
+    { email: p.email, password: p.password, roles: p.roles },
+  ]),
+) as Record<
+  'admin' | 'hal' | 'ruth' | 'marek' | 'dee' | 'tom' | 'priya' | 'sam',
+  { email: string; password: string; roles: string[] }
+>;
 
 /** The real Express app on a private, migrated and seeded database. */
-export async function createTestApp(overrides: Partial<AppConfig> = {}, options: { mail?: boolean; search?: boolean } = {}) {
+export async function createTestApp(
+  overrides: Partial<AppConfig> = {},
+  options: { mail?: boolean; search?: boolean } = {},
+) {
   const database = await createTestDatabase();
   const pool = createPool(database.url);
   const db = createDb(pool);
@@ -26,11 +35,17 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
   const ownerPool = createPool(database.ownerUrl);
   const ownerDb = createDb(ownerPool);
   const uploadDir = mkdtempSync(path.join(tmpdir(), 'bw-uploads-'));
-  const config = defaultConfig({ sessionSecret: 'test-secret-'.padEnd(40, 'x'), publicUrl: 'http://127.0.0.1', uploadDir, ...overrides });
+  const config = defaultConfig({
+    sessionSecret: 'test-secret-'.padEnd(40, 'x'),
+    publicUrl: 'http://127.0.0.1',
+    uploadDir,
+    ...overrides,
+  });
   const logger = createLogger('silent');
   // With mail: a real SMTP conversation with the local catcher; flush() delivers what is due.
   const catcher = options.mail ? await startFakeSmtp(0) : undefined;
-  if (catcher) config.smtp = { host: '127.0.0.1', port: catcher.port, from: 'Benchwright <bench@tallowcreek.example>' };
+  if (catcher)
+    config.smtp = { host: '127.0.0.1', port: catcher.port, from: 'Benchwright <bench@tallowcreek.example>' };
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger, 60_000) : undefined;
   const search = options.search ? new SearchService(db, database.url, logger) : undefined;
   await search?.start();
@@ -69,7 +84,8 @@ export async function createTestApp(overrides: Partial<AppConfig> = {}, options:
   async function as(who: keyof typeof demo) {
     const c = client();
     const res = await c.signIn(demo[who].email, demo[who].password);
-    if (res.status !== 200) throw new Error(`sign-in as ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
+    if (res.status !== 200)
+      throw new Error(`sign-in as ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
     return c;
   }
 

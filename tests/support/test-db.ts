@@ -21,5 +21,10 @@ export async function createTestDatabase() {
   }
   // A clone does not inherit the template's database privileges.
   await revokeTemporary(adminUrl, name);
-  return { name, url: appUrlPrefix + name, ownerUrl: urlPrefix + name, drop: () => dropDatabase(adminUrl, name) };
+  return {
+    name,
+    url: appUrlPrefix + name,
+    ownerUrl: urlPrefix + name,
+    drop: () => dropDatabase(adminUrl, name),
+  };
 }

@@ -28,9 +28,11 @@ export function hotp(key: Buffer, counter: number, digits = 6): string {
   msg.writeBigUInt64BE(BigInt(counter));
   const mac = createHmac('sha1', key).update(msg).digest();
   const offset = mac[mac.length - 1]! & 0x0f;
-  const binary = ((mac[offset]! & 0x7f) << 24) | (mac[offset + 1]! << 16) | (mac[offset + 2]! << 8) | mac[offset + 3]!;
+  const binary =
+    ((mac[offset]! & 0x7f) << 24) | (mac[offset + 1]! << 16) | (mac[offset + 2]! << 8) | mac[offset + 3]!;
   return String(binary % 10 ** digits).padStart(digits, '0');
 }
 
 /** The code an authenticator app shows for this base32 secret at `atMs` (default: now). */
-export const totpCode = (secretBase32: string, atMs = Date.now(), digits = 6) => hotp(base32Decode(secretBase32), Math.floor(atMs / 1000 / 30), digits);
+export const totpCode = (secretBase32: string, atMs = Date.now(), digits = 6) =>
+  hotp(base32Decode(secretBase32), Math.floor(atMs / 1000 / 30), digits);

@@ -6,7 +6,8 @@
 // of its commits). Every payload sets window.__bwTripped instead of calling alert, so a browser test
 // can see a script run even when no dialog opens.
 const TRIP = 'window.__bwTripped=1';
-const entities = (s: string, form: (c: number) => string) => [...s].map((c) => form(c.charCodeAt(0))).join('');
+const entities = (s: string, form: (c: number) => string) =>
+  [...s].map((c) => form(c.charCodeAt(0))).join('');
 const SCHEME = `javascript:${TRIP}`;
 
 export const EVASION_VECTORS: readonly string[] = [

@@ -24,5 +24,9 @@ export const auditLog = pgTable(
     /** SHA-256 (hex) of this row's content and prevHash. */
     rowHash: text(),
   },
-  (t) => [index('audit_log_at_idx').on(t.at), index('audit_log_action_idx').on(t.action), index('audit_log_actor_idx').on(t.actorId, t.at)],
+  (t) => [
+    index('audit_log_at_idx').on(t.at),
+    index('audit_log_action_idx').on(t.action),
+    index('audit_log_actor_idx').on(t.actorId, t.at),
+  ],
 );

@@ -11,7 +11,11 @@ export const people = pgTable('people', {
   displayName: text().notNull(),
   /** argon2id hash; null until an invited person sets a password. */
   passwordHash: text(),
-  roles: text().array().$type<Role[]>().notNull().default(sql`'{}'::text[]`),
+  roles: text()
+    .array()
+    .$type<Role[]>()
+    .notNull()
+    .default(sql`'{}'::text[]`),
   active: boolean().notNull().default(true),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   deactivatedAt: timestamp({ withTimezone: true }),

@@ -1,11 +1,30 @@
 import { sql } from 'drizzle-orm';
-import { bigint, check, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import {
+  bigint,
+  check,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  primaryKey,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { ProcedureDoc } from '../../../shared/document/schema';
 import type { Snapshot } from '../../../shared/document/evaluate';
 import { people } from './people';
 
-export const REVISION_STATES = ['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'] as const;
+export const REVISION_STATES = [
+  'draft',
+  'in_review',
+  'approved',
+  'returned',
+  'superseded',
+  'withdrawn',
+] as const;
 export type RevisionState = (typeof REVISION_STATES)[number];
 
 /** A procedure's stable identity; title and equipment mirror its latest revision for listing. */
@@ -16,7 +35,10 @@ export const procedures = pgTable(
     title: text().notNull(),
     equipmentFamily: text().notNull(),
     equipmentModel: text().notNull(),
-    tags: text().array().notNull().default(sql`'{}'::text[]`),
+    tags: text()
+      .array()
+      .notNull()
+      .default(sql`'{}'::text[]`),
     ownerId: uuid()
       .notNull()
       .references(() => people.id),
@@ -41,7 +63,10 @@ export const revisions = pgTable(
     title: text().notNull(),
     equipmentFamily: text().notNull(),
     equipmentModel: text().notNull(),
-    tags: text().array().notNull().default(sql`'{}'::text[]`),
+    tags: text()
+      .array()
+      .notNull()
+      .default(sql`'{}'::text[]`),
     document: jsonb().$type<ProcedureDoc>().notNull(),
     params: jsonb().$type<ProcedureParams>().notNull(),
     /** Evaluated by the server with the shared reckoners; the client's numbers are never stored. */
@@ -52,12 +77,18 @@ export const revisions = pgTable(
       .notNull()
       .references(() => people.id),
     /** Everyone who saved this revision: none of them may approve it. */
-    editorIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
+    editorIds: uuid()
+      .array()
+      .notNull()
+      .default(sql`'{}'::uuid[]`),
     /**
      * Authors and editors of every revision this one was started from (and of theirs): they count
      * as its authors for four eyes, so nobody approves their own words by way of a returned revision.
      */
-    provenanceIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
+    provenanceIds: uuid()
+      .array()
+      .notNull()
+      .default(sql`'{}'::uuid[]`),
     lockVersion: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -72,8 +103,12 @@ export const revisions = pgTable(
   (t) => [
     uniqueIndex('revisions_procedure_number_uq').on(t.procedureId, t.number),
     // At most one revision being worked on or reviewed per procedure at a time.
-    uniqueIndex('revisions_one_open_uq').on(t.procedureId).where(sql`state in ('draft', 'in_review')`),
-    uniqueIndex('revisions_one_approved_uq').on(t.procedureId).where(sql`state = 'approved'`),
+    uniqueIndex('revisions_one_open_uq')
+      .on(t.procedureId)
+      .where(sql`state in ('draft', 'in_review')`),
+    uniqueIndex('revisions_one_approved_uq')
+      .on(t.procedureId)
+      .where(sql`state = 'approved'`),
     index('revisions_state_idx').on(t.state),
   ],
 );

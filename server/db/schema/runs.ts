@@ -1,5 +1,18 @@
 import { sql } from 'drizzle-orm';
-import { bigserial, boolean, check, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import {
+  bigserial,
+  boolean,
+  check,
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { Snapshot } from '../../../shared/document/evaluate';
 import type { RunStep } from '../../../shared/schemas/runs';
@@ -23,7 +36,10 @@ export const units = pgTable(
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('units_model_idx').on(t.model), uniqueIndex('units_model_serial_uq').on(sql`lower(${t.model})`, sql`lower(${t.serial})`)],
+  (t) => [
+    index('units_model_idx').on(t.model),
+    uniqueIndex('units_model_serial_uq').on(sql`lower(${t.model})`, sql`lower(${t.serial})`),
+  ],
 );
 
 export const unitPhotos = pgTable(
@@ -91,14 +107,23 @@ export const runs = pgTable(
     closeReason: text(),
     contentHash: text(),
     /** The unit as it was when the run sheet was signed (the register itself stays editable). */
-    unitRecord: jsonb().$type<{ id: string; model: string; serial: string; owner: string; jobNumber: string }>(),
+    unitRecord: jsonb().$type<{
+      id: string;
+      model: string;
+      serial: string;
+      owner: string;
+      jobNumber: string;
+    }>(),
   },
   (t) => [
     index('runs_unit_idx').on(t.unitId),
     index('runs_revision_idx').on(t.revisionId),
     index('runs_status_idx').on(t.status),
     check('runs_status_ck', sql`${t.status} in ('in_progress', 'signed', 'abandoned')`),
-    check('runs_abandoned_ck', sql`${t.status} <> 'abandoned' or (${t.closedAt} is not null and ${t.closedBy} is not null and ${t.closeReason} is not null)`),
+    check(
+      'runs_abandoned_ck',
+      sql`${t.status} <> 'abandoned' or (${t.closedAt} is not null and ${t.closedBy} is not null and ${t.closeReason} is not null)`,
+    ),
   ],
 );
 

@@ -22,7 +22,10 @@ export const ALLOWED_TYPES = Object.keys(EXTENSIONS) as AllowedType[];
 /** What each upload accepts: any attachment of a procedure, or a photo (runs, units). */
 const KINDS = {
   file: { types: ALLOWED_TYPES, words: 'a PNG, JPEG, WebP or PDF file' },
-  photo: { types: ['image/png', 'image/jpeg', 'image/webp'] as AllowedType[], words: 'a PNG, JPEG or WebP photo' },
+  photo: {
+    types: ['image/png', 'image/jpeg', 'image/webp'] as AllowedType[],
+    words: 'a PNG, JPEG or WebP photo',
+  },
 };
 export type UploadKind = keyof typeof KINDS;
 export const MAX_UPLOAD_BYTES = 15 * 1024 * 1024;
@@ -46,15 +49,26 @@ export const receiveFile = (what: UploadKind): RequestHandler[] => [
   (req, res, next) =>
     upload.single('file')(req, res, (err: unknown) => {
       if (!err) return next();
-      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, `The ${what} is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB; nothing was stored.`));
+      if (err instanceof multer.MulterError && err.code === 'LIMIT_FILE_SIZE')
+        return next(
+          new HttpError(
+            413,
+            `The ${what} is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB; nothing was stored.`,
+          ),
+        );
       // The rest are malformed requests (busboy: "Malformed part header", "Unexpected end of form").
       const reason = err instanceof Error ? err.message : 'unreadable multipart body';
-      next(new HttpError(400, `The upload was refused: ${reason}.`, { fields: [{ field: 'body.file', reason }] }));
+      next(
+        new HttpError(400, `The upload was refused: ${reason}.`, {
+          fields: [{ field: 'body.file', reason }],
+        }),
+      );
     }),
 ];
 
 // Control characters (C0, DEL, C1) and the bidi controls that reorder how a name is shown
 // (Unicode UAX #9: LRM, RLM, ALM, embeddings, overrides and isolates).
+// eslint-disable-next-line no-control-regex -- control characters are what this matches
 const HIDING = /[\u0000-\u001f\u007f-\u009f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g;
 
 /** A display name safe for headers and pages: NFC, no path, no control or bidi characters, bounded. */
@@ -76,26 +90,48 @@ export function nameForType(name: string, mediaType: AllowedType) {
 /** Content-Disposition for a download: an ASCII fallback and the exact name in RFC 5987 form (RFC 6266 §4.3). */
 export function attachmentDisposition(name: string) {
   const fallback = name.replace(/[^\x20-\x7e]|["\\]/g, '_');
-  const exact = encodeURIComponent(name).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+  const exact = encodeURIComponent(name).replace(
+    /['()*]/g,
+    (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`,
+  );
   return `attachment; filename="${fallback}"; filename*=UTF-8''${exact}`;
 }
 
-const refused = (reason: string, message: string) => new HttpError(400, message, { fields: [{ field: 'body.file', reason }] });
+const refused = (reason: string, message: string) =>
+  new HttpError(400, message, { fields: [{ field: 'body.file', reason }] });
 
 /** Checks an uploaded file against the rules, stores its bytes and records its attachment row. */
-export async function storeUpload(deps: AppDeps, file: Express.Multer.File | undefined, uploadedBy: string, what: UploadKind) {
-  if (!file) throw new HttpError(400, `Choose a ${what} to upload.`, { fields: [{ field: 'body.file', reason: 'required' }] });
+export async function storeUpload(
+  deps: AppDeps,
+  file: Express.Multer.File | undefined,
+  uploadedBy: string,
+  what: UploadKind,
+) {
+  if (!file)
+    throw new HttpError(400, `Choose a ${what} to upload.`, {
+      fields: [{ field: 'body.file', reason: 'required' }],
+    });
   const mediaType = await sniffType(file.buffer);
   const shown = cleanFileName(file.originalname);
   if (!mediaType || !KINDS[what].types.includes(mediaType)) {
-    throw new HttpError(415, `“${shown}” is not ${KINDS[what].words} (judged by its content, not its name); nothing was stored.`);
+    throw new HttpError(
+      415,
+      `“${shown}” is not ${KINDS[what].words} (judged by its content, not its name); nothing was stored.`,
+    );
   }
   if (mediaType !== 'application/pdf') {
     const size = imageSize(file.buffer, mediaType);
-    if (!size) throw refused('the image size could not be read from its header', `“${shown}” looks like ${mediaType} but its size cannot be read; nothing was stored.`);
+    if (!size)
+      throw refused(
+        'the image size could not be read from its header',
+        `“${shown}” looks like ${mediaType} but its size cannot be read; nothing was stored.`,
+      );
     if (size.width > MAX_IMAGE_SIDE || size.height > MAX_IMAGE_SIDE) {
       const reason = `image is ${size.width} × ${size.height} px; the limit is ${MAX_IMAGE_SIDE} × ${MAX_IMAGE_SIDE} px`;
-      throw refused(reason, `“${shown}” is ${size.width} × ${size.height} px; images may be at most ${MAX_IMAGE_SIDE} × ${MAX_IMAGE_SIDE} px. Nothing was stored.`);
+      throw refused(
+        reason,
+        `“${shown}” is ${size.width} × ${size.height} px; images may be at most ${MAX_IMAGE_SIDE} × ${MAX_IMAGE_SIDE} px. Nothing was stored.`,
+      );
     }
   }
   const sha256 = await deps.files.put(file.buffer);

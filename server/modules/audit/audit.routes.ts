@@ -10,9 +10,15 @@ import { defineRoute } from '../../http/route';
 const when = z
   .string()
   .max(40)
-  .refine((s) => /^\d{4}-\d{2}-\d{2}(T[\d:.]+(Z|[+-]\d{2}:\d{2})?)?$/.test(s) && !Number.isNaN(Date.parse(s)), { error: 'must be a date (YYYY-MM-DD) or an ISO date-time', abort: true })
+  .refine(
+    (s) => /^\d{4}-\d{2}-\d{2}(T[\d:.]+(Z|[+-]\d{2}:\d{2})?)?$/.test(s) && !Number.isNaN(Date.parse(s)),
+    { error: 'must be a date (YYYY-MM-DD) or an ISO date-time', abort: true },
+  )
   // PostgreSQL has no year 0 and the log starts long after 1970: anything outside is a typo, not a 500.
-  .refine((s) => Date.parse(s) >= Date.UTC(1970, 0, 1) && Date.parse(s) < Date.UTC(10000, 0, 1), 'must be a date between 1970 and 9999');
+  .refine(
+    (s) => Date.parse(s) >= Date.UTC(1970, 0, 1) && Date.parse(s) < Date.UTC(10000, 0, 1),
+    'must be a date between 1970 and 9999',
+  );
 
 export const auditQuery = z
   .object({
@@ -25,9 +31,13 @@ export const auditQuery = z
     pageSize: z.coerce.number().int().min(1).max(200).default(50),
   })
   .strict()
-  .refine((q) => !q.from || !q.to || Date.parse(q.from) <= Date.parse(q.to), { message: 'must not be after "to"', path: ['from'] });
+  .refine((q) => !q.from || !q.to || Date.parse(q.from) <= Date.parse(q.to), {
+    message: 'must not be after "to"',
+    path: ['from'],
+  });
 
-const endOf = (to: string) => (/^\d{4}-\d{2}-\d{2}$/.test(to) ? new Date(Date.parse(to) + 86_400_000) : new Date(Date.parse(to) + 1));
+const endOf = (to: string) =>
+  /^\d{4}-\d{2}-\d{2}$/.test(to) ? new Date(Date.parse(to) + 86_400_000) : new Date(Date.parse(to) + 1);
 
 export const auditRoutes = [
   defineRoute({
@@ -69,7 +79,13 @@ export const auditRoutes = [
         details: a.details,
         ip: a.ip,
       }));
-      return { entries, total: total?.n ?? 0, page: query.page, pageSize: query.pageSize, actions: AUDIT_ACTIONS };
+      return {
+        entries,
+        total: total?.n ?? 0,
+        page: query.page,
+        pageSize: query.pageSize,
+        actions: AUDIT_ACTIONS,
+      };
     },
   }),
 ];

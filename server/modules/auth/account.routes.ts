@@ -13,7 +13,6 @@ import { conflict, HttpError } from '../../http/errors';
 import { defineRoute, type SessionUser } from '../../http/route';
 import { destroySession, logIn, refuseCommonPassword } from './session-steps';
 
-
 const forgetPerson = (req: { app: { locals: Record<string, unknown> } }, id: string) =>
   (req.app.locals.passport as { forgetPerson(id: string): void }).forgetPerson(id);
 
@@ -26,8 +25,14 @@ async function replaceRecoveryCodes(tx: Tx, personId: string) {
 }
 
 async function secondFactorView(db: Db, user: SessionUser) {
-  const [person] = await db.select({ secret: people.totpSecret, pending: people.totpPendingSecret }).from(people).where(eq(people.id, user.id));
-  const [left] = await db.select({ n: count() }).from(recoveryCodes).where(and(eq(recoveryCodes.personId, user.id), isNull(recoveryCodes.usedAt)));
+  const [person] = await db
+    .select({ secret: people.totpSecret, pending: people.totpPendingSecret })
+    .from(people)
+    .where(eq(people.id, user.id));
+  const [left] = await db
+    .select({ n: count() })
+    .from(recoveryCodes)
+    .where(and(eq(recoveryCodes.personId, user.id), isNull(recoveryCodes.usedAt)));
   return {
     enabled: !!person?.secret,
     required: await secondFactorRequired(db, user),
@@ -56,23 +61,37 @@ export const accountRoutes = [
     summary: 'Change one’s password (the current one is required); ends every other session of the person',
     body: changePasswordBody,
     handler: async ({ req, res, body, user, deps }) => {
-      await confirmPassword(deps.db, user!, body.currentPassword, req, { ...reauth('password change'), field: 'body.currentPassword' });
+      await confirmPassword(deps.db, user!, body.currentPassword, req, {
+        ...reauth('password change'),
+        field: 'body.currentPassword',
+      });
       if (body.newPassword === body.currentPassword) {
-        throw new HttpError(400, 'The new password is the same as the current one.', { fields: [{ field: 'body.newPassword', reason: 'is the current password' }] });
+        throw new HttpError(400, 'The new password is the same as the current one.', {
+          fields: [{ field: 'body.newPassword', reason: 'is the current password' }],
+        });
       }
       refuseCommonPassword(body.newPassword, 'body.newPassword');
       const hash = await hashPassword(body.newPassword);
       await deps.db.transaction(async (tx) => {
         await tx.update(people).set({ passwordHash: hash }).where(eq(people.id, user!.id));
         // A reset link still out would undo the change: spend it.
-        await tx.update(invitations).set({ usedAt: new Date() }).where(and(eq(invitations.personId, user!.id), isNull(invitations.usedAt)));
+        await tx
+          .update(invitations)
+          .set({ usedAt: new Date() })
+          .where(and(eq(invitations.personId, user!.id), isNull(invitations.usedAt)));
       });
       const otherSessionsEnded = await endSessionsOf(deps.db, req, user!.id, req.sessionID);
       // This session goes on under a new id (ASVS 7.2.4), keeping its absolute limit.
       const startedAt = req.session.startedAt;
       await logIn(req, user!);
       req.session.startedAt = startedAt ?? Date.now();
-      await recordAudit(deps.db, { action: 'person.password-changed', actorId: user!.id, subject: user!.email, details: { otherSessionsEnded }, req });
+      await recordAudit(deps.db, {
+        action: 'person.password-changed',
+        actorId: user!.id,
+        subject: user!.email,
+        details: { otherSessionsEnded },
+        req,
+      });
       return { user, csrfToken: csrfToken(req, res, true) };
     },
   }),
@@ -87,7 +106,13 @@ export const accountRoutes = [
       const sessionsEnded = await endSessionsOf(deps.db, req, user!.id);
       await destroySession(req);
       res.clearCookie(req.app.locals.sessionCookieName as string, { path: '/' });
-      await recordAudit(deps.db, { action: 'sign-out.everywhere', actorId: user!.id, subject: user!.email, details: { sessionsEnded }, req });
+      await recordAudit(deps.db, {
+        action: 'sign-out.everywhere',
+        actorId: user!.id,
+        subject: user!.email,
+        details: { sessionsEnded },
+        req,
+      });
       return { ok: true, sessionsEnded };
     },
   }),
@@ -97,12 +122,17 @@ export const accountRoutes = [
     path: '/auth/totp/setup',
     access: 'signed-in',
     beforeEnrolment: true,
-    summary: 'Start setting up an authenticator (password again): a new secret and its otpauth:// address for the QR code',
+    summary:
+      'Start setting up an authenticator (password again): a new secret and its otpauth:// address for the QR code',
     body: passwordBody,
     handler: async ({ req, body, user, deps }) => {
       await confirmPassword(deps.db, user!, body.password, req, reauth('authenticator set-up'));
-      const [person] = await deps.db.select({ secret: people.totpSecret }).from(people).where(eq(people.id, user!.id));
-      if (person?.secret) throw conflict('An authenticator is already set up. Turn it off first to set up another.');
+      const [person] = await deps.db
+        .select({ secret: people.totpSecret })
+        .from(people)
+        .where(eq(people.id, user!.id));
+      if (person?.secret)
+        throw conflict('An authenticator is already set up. Turn it off first to set up another.');
       const secret = newTotpSecret();
       await deps.db.update(people).set({ totpPendingSecret: secret }).where(eq(people.id, user!.id));
       return { secret, otpauthUrl: otpauthUrl(secret, user!.email) };
@@ -117,22 +147,41 @@ export const accountRoutes = [
     summary: 'Finish setting up the authenticator with a code from it; answers the recovery codes, once',
     body: codeBody,
     handler: async ({ req, body, user, deps }) => {
-      const [person] = await deps.db.select({ pending: people.totpPendingSecret }).from(people).where(eq(people.id, user!.id));
-      if (!person?.pending) throw conflict('Start the set-up first: there is no new authenticator waiting for a code.');
+      const [person] = await deps.db
+        .select({ pending: people.totpPendingSecret })
+        .from(people)
+        .where(eq(people.id, user!.id));
+      if (!person?.pending)
+        throw conflict('Start the set-up first: there is no new authenticator waiting for a code.');
       const step = matchTotp(person.pending, body.code);
       if (step === null) {
-        throw new HttpError(400, 'That code does not match. Check that the phone’s clock is right and type the code it shows now.', {
-          fields: [{ field: 'body.code', reason: 'does not match the new authenticator' }],
-        });
+        throw new HttpError(
+          400,
+          'That code does not match. Check that the phone’s clock is right and type the code it shows now.',
+          {
+            fields: [{ field: 'body.code', reason: 'does not match the new authenticator' }],
+          },
+        );
       }
       const codes = await deps.db.transaction(async (tx) => {
         const [done] = await tx
           .update(people)
           .set({ totpSecret: person.pending, totpPendingSecret: null, totpLastStep: step })
-          .where(and(eq(people.id, user!.id), eq(people.totpPendingSecret, person.pending!), isNull(people.totpSecret)))
+          .where(
+            and(
+              eq(people.id, user!.id),
+              eq(people.totpPendingSecret, person.pending!),
+              isNull(people.totpSecret),
+            ),
+          )
           .returning({ id: people.id });
         if (!done) throw conflict('The set-up changed meanwhile (another tab?). Start it again.');
-        await recordAudit(tx, { action: 'person.second-factor-enabled', actorId: user!.id, subject: user!.email, req });
+        await recordAudit(tx, {
+          action: 'person.second-factor-enabled',
+          actorId: user!.id,
+          subject: user!.email,
+          req,
+        });
         return replaceRecoveryCodes(tx, user!.id);
       });
       forgetPerson(req, user!.id);
@@ -149,9 +198,18 @@ export const accountRoutes = [
     handler: async ({ req, body, user, deps }) => {
       await confirmPassword(deps.db, user!, body.password, req, reauth('new recovery codes'));
       const codes = await deps.db.transaction(async (tx) => {
-        const [person] = await tx.select({ secret: people.totpSecret }).from(people).where(eq(people.id, user!.id)).for('update');
+        const [person] = await tx
+          .select({ secret: people.totpSecret })
+          .from(people)
+          .where(eq(people.id, user!.id))
+          .for('update');
         if (!person?.secret) throw conflict('Set up an authenticator first.');
-        await recordAudit(tx, { action: 'person.recovery-codes-renewed', actorId: user!.id, subject: user!.email, req });
+        await recordAudit(tx, {
+          action: 'person.recovery-codes-renewed',
+          actorId: user!.id,
+          subject: user!.email,
+          req,
+        });
         return replaceRecoveryCodes(tx, user!.id);
       });
       return { recoveryCodes: codes };
@@ -162,17 +220,28 @@ export const accountRoutes = [
     method: 'post',
     path: '/auth/totp/disable',
     access: 'signed-in',
-    summary: 'Turn authenticator codes off (password again); refused while the shop requires them for one’s role',
+    summary:
+      'Turn authenticator codes off (password again); refused while the shop requires them for one’s role',
     body: passwordBody,
     handler: async ({ req, body, user, deps }) => {
       if (await secondFactorRequired(deps.db, user!)) {
-        throw conflict('The shop requires authenticator codes for your role, so they cannot be turned off. Ask an admin if you lost your authenticator.');
+        throw conflict(
+          'The shop requires authenticator codes for your role, so they cannot be turned off. Ask an admin if you lost your authenticator.',
+        );
       }
       await confirmPassword(deps.db, user!, body.password, req, reauth('turning codes off'));
       await deps.db.transaction(async (tx) => {
-        await tx.update(people).set({ totpSecret: null, totpPendingSecret: null, totpLastStep: null }).where(eq(people.id, user!.id));
+        await tx
+          .update(people)
+          .set({ totpSecret: null, totpPendingSecret: null, totpLastStep: null })
+          .where(eq(people.id, user!.id));
         await tx.delete(recoveryCodes).where(eq(recoveryCodes.personId, user!.id));
-        await recordAudit(tx, { action: 'person.second-factor-disabled', actorId: user!.id, subject: user!.email, req });
+        await recordAudit(tx, {
+          action: 'person.second-factor-disabled',
+          actorId: user!.id,
+          subject: user!.email,
+          req,
+        });
       });
       forgetPerson(req, user!.id);
       return { ok: true };

@@ -38,7 +38,11 @@ export const authRoutes = [
     path: '/auth/session',
     access: 'public',
     summary: 'Who is signed in, and the CSRF token for writes',
-    handler: async ({ req, res, user, deps }) => ({ user, csrfToken: csrfToken(req, res), ...(await sessionFlags(deps, user)) }),
+    handler: async ({ req, res, user, deps }) => ({
+      user,
+      csrfToken: csrfToken(req, res),
+      ...(await sessionFlags(deps, user)),
+    }),
   }),
 
   defineRoute({
@@ -64,7 +68,11 @@ export const authRoutes = [
         deps.db,
         res,
         [
-          { key: `sign-in:account:${body.email.trim().toLowerCase()}`, rule: rules.account, onSuccess: 'reset' },
+          {
+            key: `sign-in:account:${body.email.trim().toLowerCase()}`,
+            rule: rules.account,
+            onSuccess: 'reset',
+          },
           { key: `sign-in:address:${req.ip ?? 'unknown'}`, rule: rules.address, onSuccess: 'give-back' },
         ],
         tooMany,
@@ -101,20 +109,40 @@ export const authRoutes = [
       if (!pending || Date.now() - pending.at > CODE_STEP_MS) {
         throw new HttpError(401, 'Sign in with your e-mail and password first; then type the code.');
       }
-      const tries = await claimTry(deps.db, res, [{ key: `code:${pending.personId}`, rule: PERSON_RULE, onSuccess: 'reset' }], (wait) => `Too many wrong codes. Wait ${wait} and try again.`);
+      const tries = await claimTry(
+        deps.db,
+        res,
+        [{ key: `code:${pending.personId}`, rule: PERSON_RULE, onSuccess: 'reset' }],
+        (wait) => `Too many wrong codes. Wait ${wait} and try again.`,
+      );
       const kind = await useSecondFactor(deps.db, pending.personId, body.code);
       const [person] = await deps.db.select().from(people).where(eq(people.id, pending.personId));
       if (!kind || !person?.active) {
-        await recordAudit(deps.db, { action: 'sign-in.code-failed', actorId: pending.personId, subject: person?.email, req });
-        throw new HttpError(401, 'That code is not right, or it was used already. Type the code your authenticator shows now, or a recovery code.', {
-          fields: [{ field: 'body.code', reason: 'does not match' }],
+        await recordAudit(deps.db, {
+          action: 'sign-in.code-failed',
+          actorId: pending.personId,
+          subject: person?.email,
+          req,
         });
+        throw new HttpError(
+          401,
+          'That code is not right, or it was used already. Type the code your authenticator shows now, or a recovery code.',
+          {
+            fields: [{ field: 'body.code', reason: 'does not match' }],
+          },
+        );
       }
       await tries.succeeded();
       const user = toSessionUser(person);
       await logIn(req, user);
       req.session.startedAt = Date.now();
-      await recordAudit(deps.db, { action: 'sign-in', actorId: user.id, subject: user.email, details: { secondFactor: kind }, req });
+      await recordAudit(deps.db, {
+        action: 'sign-in',
+        actorId: user.id,
+        subject: user.email,
+        details: { secondFactor: kind },
+        req,
+      });
       return { user, csrfToken: csrfToken(req, res, true), ...(await sessionFlags(deps, user)) };
     },
   }),
@@ -127,7 +155,9 @@ export const authRoutes = [
     beforeEnrolment: true,
     handler: async ({ req, res, user, deps }) => {
       await new Promise<void>((resolve, reject) => req.logOut((err) => (err ? reject(err) : resolve())));
-      await new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve, reject) =>
+        req.session.destroy((err) => (err ? reject(err) : resolve())),
+      );
       await recordAudit(deps.db, { action: 'sign-out', actorId: user?.id, req });
       res.clearCookie(req.app.locals.sessionCookieName as string, { path: '/' });
       return { ok: true };
@@ -145,7 +175,13 @@ export const authRoutes = [
         .select({ email: people.email, displayName: people.displayName, purpose: invitations.purpose })
         .from(invitations)
         .innerJoin(people, eq(people.id, invitations.personId))
-        .where(and(eq(invitations.tokenHash, tokenHash(params.token)), isNull(invitations.usedAt), gt(invitations.expiresAt, new Date())));
+        .where(
+          and(
+            eq(invitations.tokenHash, tokenHash(params.token)),
+            isNull(invitations.usedAt),
+            gt(invitations.expiresAt, new Date()),
+          ),
+        );
       if (!row) throw new HttpError(404, linkGone);
       return row;
     },
@@ -164,17 +200,31 @@ export const authRoutes = [
         const [used] = await tx
           .update(invitations)
           .set({ usedAt: new Date() })
-          .where(and(eq(invitations.tokenHash, tokenHash(body.token)), isNull(invitations.usedAt), gt(invitations.expiresAt, new Date())))
+          .where(
+            and(
+              eq(invitations.tokenHash, tokenHash(body.token)),
+              isNull(invitations.usedAt),
+              gt(invitations.expiresAt, new Date()),
+            ),
+          )
           .returning();
         if (!used) throw new HttpError(404, linkGone);
         await tx.update(people).set({ passwordHash: hash }).where(eq(people.id, used.personId));
         // Any other link still out for this person is spent too.
-        await tx.update(invitations).set({ usedAt: new Date() }).where(and(eq(invitations.personId, used.personId), isNull(invitations.usedAt)));
+        await tx
+          .update(invitations)
+          .set({ usedAt: new Date() })
+          .where(and(eq(invitations.personId, used.personId), isNull(invitations.usedAt)));
         return used;
       });
       // A new password ends whatever sessions the person had (a reset is often for a suspected leak).
       const sessionsEnded = await endSessionsOf(deps.db, req, invite.personId);
-      await recordAudit(deps.db, { action: 'person.password-set', actorId: invite.personId, details: { purpose: invite.purpose, sessionsEnded }, req });
+      await recordAudit(deps.db, {
+        action: 'person.password-set',
+        actorId: invite.personId,
+        details: { purpose: invite.purpose, sessionsEnded },
+        req,
+      });
       return { ok: true };
     },
   }),

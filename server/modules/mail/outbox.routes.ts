@@ -5,7 +5,8 @@ import { mailOutbox } from '../../db/schema';
 import { defineRoute } from '../../http/route';
 
 /** Set-password links are secrets meant for the invitee alone; the outbox page shows them cut. */
-const redact = (text: string) => text.replace(/(\/set-password\/)[A-Za-z0-9_-]+/g, '$1[link sent to the invitee]');
+const redact = (text: string) =>
+  text.replace(/(\/set-password\/)[A-Za-z0-9_-]+/g, '$1[link sent to the invitee]');
 
 const outboxQuery = z
   .object({
@@ -20,12 +21,21 @@ export const outboxRoutes = [
     method: 'get',
     path: '/mail/outbox',
     access: ['admin'],
-    summary: 'Mail queued by Benchwright, newest first: recipients, reason, delivery state, attempts, last error, text',
+    summary:
+      'Mail queued by Benchwright, newest first: recipients, reason, delivery state, attempts, last error, text',
     query: outboxQuery,
     handler: async ({ query, deps }) => {
-      const filter = query.status === 'sent' ? isNotNull(mailOutbox.sentAt) : query.status === 'pending' ? isNull(mailOutbox.sentAt) : undefined;
+      const filter =
+        query.status === 'sent'
+          ? isNotNull(mailOutbox.sentAt)
+          : query.status === 'pending'
+            ? isNull(mailOutbox.sentAt)
+            : undefined;
       const [total] = await deps.db.select({ n: count() }).from(mailOutbox).where(filter);
-      const [pending] = await deps.db.select({ n: count() }).from(mailOutbox).where(isNull(mailOutbox.sentAt));
+      const [pending] = await deps.db
+        .select({ n: count() })
+        .from(mailOutbox)
+        .where(isNull(mailOutbox.sentAt));
       const rows = await deps.db
         .select()
         .from(mailOutbox)
@@ -46,7 +56,13 @@ export const outboxRoutes = [
         nextAttemptAt: m.nextAttemptAt.toISOString(),
         text: redact(m.text),
       }));
-      return { items, total: total?.n ?? 0, pending: pending?.n ?? 0, page: query.page, pageSize: query.pageSize };
+      return {
+        items,
+        total: total?.n ?? 0,
+        pending: pending?.n ?? 0,
+        page: query.page,
+        pageSize: query.pageSize,
+      };
     },
   }),
 ];

@@ -7,13 +7,12 @@ import { inviteBody, updatePersonBody, type PersonView } from '../../../shared/s
 import { recordAudit } from '../../audit/record';
 import { endSessionsOf } from '../../auth/end-sessions';
 import { forgetShopSettings } from '../../auth/second-factor';
-import type { Db, Tx } from '../../db/client';
+import type { Tx } from '../../db/client';
 import { invitations, people, recoveryCodes, session, shopSettings } from '../../db/schema';
 import { conflict, badRequest, notFound } from '../../http/errors';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import { defineRoute } from '../../http/route';
 import { tokenHash } from '../auth/auth.routes';
-
 
 const INVITE_DAYS = 7;
 const RESET_HOURS = 24;
@@ -33,8 +32,19 @@ async function mailSetPasswordLink(
 ) {
   const token = randomBytes(32).toString('base64url');
   const lifetimeMs = purpose === 'reset' ? RESET_HOURS * 3_600_000 : INVITE_DAYS * 86_400_000;
-  await tx.update(invitations).set({ usedAt: new Date() }).where(and(eq(invitations.personId, person.id), isNull(invitations.usedAt)));
-  await tx.insert(invitations).values({ tokenHash: tokenHash(token), personId: person.id, createdBy, purpose, expiresAt: new Date(Date.now() + lifetimeMs) });
+  await tx
+    .update(invitations)
+    .set({ usedAt: new Date() })
+    .where(and(eq(invitations.personId, person.id), isNull(invitations.usedAt)));
+  await tx
+    .insert(invitations)
+    .values({
+      tokenHash: tokenHash(token),
+      personId: person.id,
+      createdBy,
+      purpose,
+      expiresAt: new Date(Date.now() + lifetimeMs),
+    });
   await enqueueMail(tx, compose(`${publicUrl.replace(/\/$/, '')}${paths.setPassword.href(token)}`));
 }
 
@@ -66,7 +76,11 @@ const view = (p: typeof people.$inferSelect): PersonView => ({
 });
 
 /** The invitee's mail: the one-time set-password link, as text and HTML. */
-const invitationMail = (person: { email: string; displayName: string; roles: string[] }, invitedBy: string, url: string) => ({
+const invitationMail = (
+  person: { email: string; displayName: string; roles: string[] },
+  invitedBy: string,
+  url: string,
+) => ({
   to: [person.email],
   subject: 'Your Benchwright account',
   reason: 'invitation',
@@ -107,12 +121,23 @@ export const peopleRoutes = [
           .values({ email: body.email, displayName: body.displayName, roles: body.roles })
           .onConflictDoNothing({ target: people.email })
           .returning();
-        if (!person) throw conflict(`${body.email} already has an account.`, { fields: [{ field: 'body.email', reason: 'already has an account' }] });
-        await mailSetPasswordLink(tx, deps.config.publicUrl, person, user!.id, 'invitation', (url) => invitationMail(person, user!.displayName, url));
+        if (!person)
+          throw conflict(`${body.email} already has an account.`, {
+            fields: [{ field: 'body.email', reason: 'already has an account' }],
+          });
+        await mailSetPasswordLink(tx, deps.config.publicUrl, person, user!.id, 'invitation', (url) =>
+          invitationMail(person, user!.displayName, url),
+        );
         return person;
       });
       void deps.mailer?.flush();
-      await recordAudit(deps.db, { action: 'person.invited', actorId: user!.id, subject: created.email, details: { roles: created.roles }, req });
+      await recordAudit(deps.db, {
+        action: 'person.invited',
+        actorId: user!.id,
+        subject: created.email,
+        details: { roles: created.roles },
+        req,
+      });
       res.status(201);
       return { person: view(created), mailedTo: created.email, expiresInDays: INVITE_DAYS };
     },
@@ -132,14 +157,25 @@ export const peopleRoutes = [
         // Someone who never chose a password gets a fresh invitation instead.
         const purpose = p.passwordHash ? 'reset' : 'invitation';
         await mailSetPasswordLink(tx, deps.config.publicUrl, p, user!.id, purpose, (url) =>
-          purpose === 'reset' ? resetMail(p, user!.displayName, url) : invitationMail(p, user!.displayName, url),
+          purpose === 'reset'
+            ? resetMail(p, user!.displayName, url)
+            : invitationMail(p, user!.displayName, url),
         );
         return { ...p, purpose };
       });
       void deps.mailer?.flush();
-      await recordAudit(deps.db, { action: 'person.password-reset-sent', actorId: user!.id, subject: person.email, details: { purpose: person.purpose }, req });
+      await recordAudit(deps.db, {
+        action: 'person.password-reset-sent',
+        actorId: user!.id,
+        subject: person.email,
+        details: { purpose: person.purpose },
+        req,
+      });
       res.status(202);
-      return { mailedTo: person.email, expiresInHours: person.purpose === 'reset' ? RESET_HOURS : INVITE_DAYS * 24 };
+      return {
+        mailedTo: person.email,
+        expiresInHours: person.purpose === 'reset' ? RESET_HOURS : INVITE_DAYS * 24,
+      };
     },
   }),
 
@@ -151,7 +187,10 @@ export const peopleRoutes = [
     params: idParams,
     handler: async ({ req, params, user, deps }) => {
       if (params.id === user!.id) {
-        throw badRequest('You cannot clear your own authenticator here; use your account page, or ask another admin.', [{ field: 'params.id', reason: 'is you' }]);
+        throw badRequest(
+          'You cannot clear your own authenticator here; use your account page, or ask another admin.',
+          [{ field: 'params.id', reason: 'is you' }],
+        );
       }
       const person = await deps.db.transaction(async (tx) => {
         const [p] = await tx
@@ -165,7 +204,13 @@ export const peopleRoutes = [
       });
       // Their sessions end: whoever holds one now must sign in again.
       const sessionsEnded = await endSessionsOf(deps.db, req, person.id);
-      await recordAudit(deps.db, { action: 'person.second-factor-reset', actorId: user!.id, subject: person.email, details: { sessionsEnded }, req });
+      await recordAudit(deps.db, {
+        action: 'person.second-factor-reset',
+        actorId: user!.id,
+        subject: person.email,
+        details: { sessionsEnded },
+        req,
+      });
       return { person: view(person) };
     },
   }),
@@ -177,7 +222,10 @@ export const peopleRoutes = [
     summary: 'The shop’s sign-in settings',
     handler: async ({ deps }) => {
       const [row] = await deps.db.select().from(shopSettings);
-      return { requireSecondFactor: row?.requireSecondFactor ?? false, updatedAt: row?.updatedAt.toISOString() ?? null };
+      return {
+        requireSecondFactor: row?.requireSecondFactor ?? false,
+        updatedAt: row?.updatedAt.toISOString() ?? null,
+      };
     },
   }),
 
@@ -189,17 +237,32 @@ export const peopleRoutes = [
     body: signInSettingsBody,
     handler: async ({ req, body, user, deps }) => {
       if (body.requireSecondFactor && !user!.totp) {
-        throw conflict('Set up your own authenticator on your account page first, so turning this on cannot lock you out.');
+        throw conflict(
+          'Set up your own authenticator on your account page first, so turning this on cannot lock you out.',
+        );
       }
       const from = await deps.db.transaction(async (tx) => {
         const [before] = await tx.select().from(shopSettings).for('update');
         await tx
           .insert(shopSettings)
           .values({ id: true, requireSecondFactor: body.requireSecondFactor, updatedBy: user!.id })
-          .onConflictDoUpdate({ target: shopSettings.id, set: { requireSecondFactor: body.requireSecondFactor, updatedBy: user!.id, updatedAt: sql`now()` } });
+          .onConflictDoUpdate({
+            target: shopSettings.id,
+            set: {
+              requireSecondFactor: body.requireSecondFactor,
+              updatedBy: user!.id,
+              updatedAt: sql`now()`,
+            },
+          });
         const was = before?.requireSecondFactor ?? false;
         if (was !== body.requireSecondFactor) {
-          await recordAudit(tx, { action: 'settings.changed', actorId: user!.id, subject: 'sign-in', details: { requireSecondFactor: { from: was, to: body.requireSecondFactor } }, req });
+          await recordAudit(tx, {
+            action: 'settings.changed',
+            actorId: user!.id,
+            subject: 'sign-in',
+            details: { requireSecondFactor: { from: was, to: body.requireSecondFactor } },
+            req,
+          });
         }
         return was;
       });
@@ -216,7 +279,10 @@ export const peopleRoutes = [
     params: idParams,
     body: updatePersonBody,
     handler: async ({ req, params, body, user, deps }) => {
-      if (params.id === user!.id && (body.active === false || (body.roles && !body.roles.includes('admin')))) {
+      if (
+        params.id === user!.id &&
+        (body.active === false || (body.roles && !body.roles.includes('admin')))
+      ) {
         throw badRequest('You cannot remove your own admin role or deactivate yourself; ask another admin.', [
           { field: body.active === false ? 'body.active' : 'body.roles', reason: 'would lock you out' },
         ]);
@@ -229,7 +295,10 @@ export const peopleRoutes = [
           .set({
             ...(body.displayName !== undefined && { displayName: body.displayName }),
             ...(body.roles !== undefined && { roles: body.roles }),
-            ...(body.active !== undefined && { active: body.active, deactivatedAt: body.active ? null : new Date() }),
+            ...(body.active !== undefined && {
+              active: body.active,
+              deactivatedAt: body.active ? null : new Date(),
+            }),
           })
           .where(eq(people.id, params.id))
           .returning();
@@ -243,10 +312,21 @@ export const peopleRoutes = [
       (req.app.locals.passport as { forgetPerson(id: string): void }).forgetPerson(after.id);
       if (body.active === false) (req.app.locals.forgetSessionsOf as (id: string) => void)(after.id);
       if (body.roles && before.roles.join() !== after.roles.join()) {
-        await recordAudit(deps.db, { action: 'person.roles-changed', actorId: user!.id, subject: after.email, details: { from: before.roles, to: after.roles }, req });
+        await recordAudit(deps.db, {
+          action: 'person.roles-changed',
+          actorId: user!.id,
+          subject: after.email,
+          details: { from: before.roles, to: after.roles },
+          req,
+        });
       }
       if (body.active !== undefined && before.active !== after.active) {
-        await recordAudit(deps.db, { action: after.active ? 'person.reactivated' : 'person.deactivated', actorId: user!.id, subject: after.email, req });
+        await recordAudit(deps.db, {
+          action: after.active ? 'person.reactivated' : 'person.deactivated',
+          actorId: user!.id,
+          subject: after.email,
+          req,
+        });
       }
       return { person: view(after) };
     },

@@ -1,6 +1,10 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { createProcedureBody, procedureListQuery, saveRevisionBody } from '../../../shared/schemas/procedures';
+import {
+  createProcedureBody,
+  procedureListQuery,
+  saveRevisionBody,
+} from '../../../shared/schemas/procedures';
 import { people, procedures, revisions } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
 import { defineRoute } from '../../http/route';
@@ -28,7 +32,8 @@ export const procedureRoutes = [
     method: 'get',
     path: '/procedures',
     access: 'signed-in',
-    summary: 'One page of the procedures the caller may see, filtered and sorted (technicians: approved only)',
+    summary:
+      'One page of the procedures the caller may see, filtered and sorted (technicians: approved only)',
     query: procedureListQuery,
     handler: ({ query, user, deps }) => listProcedures(deps.db, user!, query),
   }),
@@ -50,7 +55,10 @@ export const procedureRoutes = [
     handler: async ({ res, body, user, deps }) => {
       const created = await deps.db.transaction((tx) => createProcedure(tx, user!.id, body));
       res.status(201);
-      return { procedure: { id: created.procedure.id }, revision: await revisionView(deps.db, created.revision) };
+      return {
+        procedure: { id: created.procedure.id },
+        revision: await revisionView(deps.db, created.revision),
+      };
     },
   }),
 
@@ -64,7 +72,13 @@ export const procedureRoutes = [
       const [procedure] = await deps.db.select().from(procedures).where(eq(procedures.id, params.id));
       if (!procedure) throw notFound('No such procedure.');
       const rows = await deps.db
-        .select({ id: revisions.id, number: revisions.number, state: revisions.state, updatedAt: revisions.updatedAt, author: { id: people.id, displayName: people.displayName } })
+        .select({
+          id: revisions.id,
+          number: revisions.number,
+          state: revisions.state,
+          updatedAt: revisions.updatedAt,
+          author: { id: people.id, displayName: people.displayName },
+        })
         .from(revisions)
         .innerJoin(people, eq(people.id, revisions.authorId))
         .where(eq(revisions.procedureId, params.id))
@@ -72,7 +86,13 @@ export const procedureRoutes = [
       const visible = rows.filter((r) => seesDrafts(user!) || PUBLISHED.has(r.state));
       if (!visible.length) throw notFound('No such procedure.');
       return {
-        procedure: { id: procedure.id, title: procedure.title, equipmentFamily: procedure.equipmentFamily, equipmentModel: procedure.equipmentModel, tags: procedure.tags },
+        procedure: {
+          id: procedure.id,
+          title: procedure.title,
+          equipmentFamily: procedure.equipmentFamily,
+          equipmentModel: procedure.equipmentModel,
+          tags: procedure.tags,
+        },
         revisions: visible.map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() })),
       };
     },
@@ -90,10 +110,17 @@ export const procedureRoutes = [
         const open = await tx
           .select({ id: revisions.id, number: revisions.number, state: revisions.state })
           .from(revisions)
-          .where(and(eq(revisions.procedureId, params.id), sql`${revisions.state} in ('draft', 'in_review')`));
-        if (open[0]) throw conflict(`Revision ${open[0].number} is already ${open[0].state === 'draft' ? 'a draft' : 'in review'}; continue that one.`, { revisionId: open[0].id });
+          .where(
+            and(eq(revisions.procedureId, params.id), sql`${revisions.state} in ('draft', 'in_review')`),
+          );
+        if (open[0])
+          throw conflict(
+            `Revision ${open[0].number} is already ${open[0].state === 'draft' ? 'a draft' : 'in review'}; continue that one.`,
+            { revisionId: open[0].id },
+          );
         // From the approved revision; when none was ever approved, from the latest returned one.
-        const base = (await latestApproved(tx, params.id)) ?? (await latestInState(tx, params.id, 'returned'));
+        const base =
+          (await latestApproved(tx, params.id)) ?? (await latestInState(tx, params.id, 'returned'));
         if (!base) throw notFound('This procedure has no approved or returned revision to start from.');
         const [created] = await tx
           .insert(revisions)
@@ -111,7 +138,9 @@ export const procedureRoutes = [
             authorId: user!.id,
             editorIds: [user!.id],
             // Whoever wrote the revision this starts from still counts as its author for four eyes.
-            provenanceIds: [...new Set([base.authorId, ...base.editorIds, ...base.provenanceIds])].filter((id) => id !== user!.id),
+            provenanceIds: [...new Set([base.authorId, ...base.editorIds, ...base.provenanceIds])].filter(
+              (id) => id !== user!.id,
+            ),
           })
           .returning();
         return created!;
@@ -129,7 +158,8 @@ export const procedureRoutes = [
     params: revisionParams,
     handler: async ({ params, user, deps }) => {
       const revision = await loadRevisionView(deps.db, params.id);
-      if (!revision || (!seesDrafts(user!) && !PUBLISHED.has(revision.state))) throw notFound('No such revision.');
+      if (!revision || (!seesDrafts(user!) && !PUBLISHED.has(revision.state)))
+        throw notFound('No such revision.');
       return { revision };
     },
   }),
@@ -144,11 +174,20 @@ export const procedureRoutes = [
     handler: async ({ req, params, body, user, deps }) => {
       const ifMatch = req.get('if-match');
       if (ifMatch && ifMatch.replace(/"/g, '') !== String(body.lockVersion)) {
-        throw badRequest('If-Match and lockVersion disagree.', [{ field: 'body.lockVersion', reason: 'does not match the If-Match header' }]);
+        throw badRequest('If-Match and lockVersion disagree.', [
+          { field: 'body.lockVersion', reason: 'does not match the If-Match header' },
+        ]);
       }
       const checked = checkDocument(body.document);
       if (!checked.ok) {
-        throw new HttpError(400, `The document was refused: ${checked.problems.slice(0, 3).map((p) => `${p.field}: ${p.reason}`).join('; ')}`, { fields: checked.problems });
+        throw new HttpError(
+          400,
+          `The document was refused: ${checked.problems
+            .slice(0, 3)
+            .map((p) => `${p.field}: ${p.reason}`)
+            .join('; ')}`,
+          { fields: checked.problems },
+        );
       }
       const derived = derive(checked.doc, body.params);
       const [saved] = await deps.db
@@ -165,18 +204,37 @@ export const procedureRoutes = [
           editorIds: sql`case when ${user!.id}::uuid = any(${revisions.editorIds}) then ${revisions.editorIds} else array_append(${revisions.editorIds}, ${user!.id}::uuid) end`,
           updatedAt: new Date(),
         })
-        .where(and(eq(revisions.id, params.id), eq(revisions.lockVersion, body.lockVersion), eq(revisions.state, 'draft')))
+        .where(
+          and(
+            eq(revisions.id, params.id),
+            eq(revisions.lockVersion, body.lockVersion),
+            eq(revisions.state, 'draft'),
+          ),
+        )
         .returning();
       if (!saved) {
         const current = await getRevisionRow(deps.db, params.id);
         if (!current) throw notFound('No such revision.');
         const view = await revisionView(deps.db, current);
-        if (current.state !== 'draft') throw conflict(`Revision ${current.number} is ${current.state.replace('_', ' ')}; only drafts can be edited.`, { state: current.state, current: view });
-        throw conflict('Someone saved this draft after you opened it. Compare the two versions and choose which to keep.', { current: view });
+        if (current.state !== 'draft')
+          throw conflict(
+            `Revision ${current.number} is ${current.state.replace('_', ' ')}; only drafts can be edited.`,
+            { state: current.state, current: view },
+          );
+        throw conflict(
+          'Someone saved this draft after you opened it. Compare the two versions and choose which to keep.',
+          { current: view },
+        );
       }
       await deps.db
         .update(procedures)
-        .set({ title: saved.title, equipmentFamily: saved.equipmentFamily, equipmentModel: saved.equipmentModel, tags: saved.tags, updatedAt: new Date() })
+        .set({
+          title: saved.title,
+          equipmentFamily: saved.equipmentFamily,
+          equipmentModel: saved.equipmentModel,
+          tags: saved.tags,
+          updatedAt: new Date(),
+        })
         .where(eq(procedures.id, saved.procedureId));
       return { revision: await revisionView(deps.db, saved) };
     },

@@ -6,9 +6,22 @@ import { lintProcedure } from '../../../shared/document/lint';
 import { defaultParams, type ProcedureParams } from '../../../shared/document/params';
 import { emptyDoc, type ProcedureDoc } from '../../../shared/document/schema';
 import { plainText } from '../../../shared/document/extract';
-import type { ProcedureFacets, ProcedurePage, ProcedureSort, procedureListQuery, RevisionView } from '../../../shared/schemas/procedures';
+import type {
+  ProcedureFacets,
+  ProcedurePage,
+  ProcedureSort,
+  procedureListQuery,
+  RevisionView,
+} from '../../../shared/schemas/procedures';
 import type { Db, Tx } from '../../db/client';
-import { people, procedureListing, procedures, revisions, type ListingAudience, type RevisionState } from '../../db/schema';
+import {
+  people,
+  procedureListing,
+  procedures,
+  revisions,
+  type ListingAudience,
+  type RevisionState,
+} from '../../db/schema';
 import type { SessionUser } from '../../http/route';
 import { renderRevisionHtml } from './render-html';
 
@@ -28,7 +41,10 @@ export function derive(doc: ProcedureDoc, params: ProcedureParams) {
 type Author = { id: string; displayName: string };
 
 export async function revisionView(db: Db | Tx, row: RevisionRow): Promise<RevisionView> {
-  const [author] = await db.select({ id: people.id, displayName: people.displayName }).from(people).where(eq(people.id, row.authorId));
+  const [author] = await db
+    .select({ id: people.id, displayName: people.displayName })
+    .from(people)
+    .where(eq(people.id, row.authorId));
   return toRevisionView(row, author);
 }
 
@@ -94,7 +110,14 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
   const document = input.document ?? emptyDoc();
   const [procedure] = await db
     .insert(procedures)
-    .values({ title: input.title, equipmentFamily: input.equipmentFamily, equipmentModel: input.equipmentModel, tags: input.tags, ownerId: authorId, seedKey: input.seedKey })
+    .values({
+      title: input.title,
+      equipmentFamily: input.equipmentFamily,
+      equipmentModel: input.equipmentModel,
+      tags: input.tags,
+      ownerId: authorId,
+      seedKey: input.seedKey,
+    })
     .returning();
   const [revision] = await db
     .insert(revisions)
@@ -120,8 +143,13 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
 const audienceOf = (user: SessionUser): ListingAudience => (seesDrafts(user) ? 'staff' : 'published');
 
 const SORT_COLUMNS: Record<ProcedureSort, (dir: 'asc' | 'desc') => SQL[]> = {
-  title: (d) => [d === 'asc' ? asc(sql`lower(${procedureListing.title})`) : desc(sql`lower(${procedureListing.title})`)],
-  equipment: (d) => (d === 'asc' ? [asc(procedureListing.equipmentFamily), asc(procedureListing.equipmentModel)] : [desc(procedureListing.equipmentFamily), desc(procedureListing.equipmentModel)]),
+  title: (d) => [
+    d === 'asc' ? asc(sql`lower(${procedureListing.title})`) : desc(sql`lower(${procedureListing.title})`),
+  ],
+  equipment: (d) =>
+    d === 'asc'
+      ? [asc(procedureListing.equipmentFamily), asc(procedureListing.equipmentModel)]
+      : [desc(procedureListing.equipmentFamily), desc(procedureListing.equipmentModel)],
   state: (d) => [d === 'asc' ? asc(procedureListing.state) : desc(procedureListing.state)],
   updatedAt: (d) => [d === 'asc' ? asc(procedureListing.updatedAt) : desc(procedureListing.updatedAt)],
 };
@@ -137,7 +165,13 @@ const containing = (text: string) => `%${text.toLowerCase().replace(/[\\%_]/g, (
  * The page and the count of all matches come back in one round trip (the count as an
  * uncorrelated subquery); the procedure id breaks ties, so paging never skips or repeats a row.
  */
-function buildListQuery(db: Db, sort: ProcedureSort, dir: 'asc' | 'desc', used: Set<(typeof FILTERS)[number]>, name: string) {
+function buildListQuery(
+  db: Db,
+  sort: ProcedureSort,
+  dir: 'asc' | 'desc',
+  used: Set<(typeof FILTERS)[number]>,
+  name: string,
+) {
   const p = (key: string) => sql.placeholder(key);
   const where = and(
     eq(procedureListing.audience, p('audience')),
@@ -147,9 +181,16 @@ function buildListQuery(db: Db, sort: ProcedureSort, dir: 'asc' | 'desc', used: 
     used.has('state') ? eq(procedureListing.state, p('state')) : undefined,
     used.has('runnable') ? isNotNull(procedureListing.approvedId) : undefined,
   );
-  const order = [...SORT_COLUMNS[sort](dir), dir === 'asc' ? asc(procedureListing.procedureId) : desc(procedureListing.procedureId)];
+  const order = [
+    ...SORT_COLUMNS[sort](dir),
+    dir === 'asc' ? asc(procedureListing.procedureId) : desc(procedureListing.procedureId),
+  ];
   return db
-    .select({ l: procedureListing, owner: { id: people.id, displayName: people.displayName }, total: sql<number>`(select count(*)::int from ${procedureListing} where ${where})` })
+    .select({
+      l: procedureListing,
+      owner: { id: people.id, displayName: people.displayName },
+      total: sql<number>`(select count(*)::int from ${procedureListing} where ${where})`,
+    })
     .from(procedureListing)
     .innerJoin(people, eq(people.id, procedureListing.ownerId))
     .where(where)
@@ -175,10 +216,20 @@ export async function listProcedures(db: Db, user: SessionUser, q: ListQuery): P
   if (!byName) preparedLists.set(db, (byName = new Map()));
   let prepared = byName.get(name);
   if (!prepared) byName.set(name, (prepared = buildListQuery(db, q.sort, dir, used, name)));
-  const values = { audience: audienceOf(user), q: q.q ? containing(q.q) : undefined, family: q.family, tag: q.tag?.toLowerCase(), state: q.state, limit: q.limit, offset: q.offset };
+  const values = {
+    audience: audienceOf(user),
+    q: q.q ? containing(q.q) : undefined,
+    family: q.family,
+    tag: q.tag?.toLowerCase(),
+    state: q.state,
+    limit: q.limit,
+    offset: q.offset,
+  };
   const rows = await prepared.execute(values);
   // Past the last page there is no row to carry the count: ask for the first row's.
-  const counted = rows[0]?.total ?? (q.offset > 0 ? ((await prepared.execute({ ...values, offset: 0, limit: 1 }))[0]?.total ?? 0) : 0);
+  const counted =
+    rows[0]?.total ??
+    (q.offset > 0 ? ((await prepared.execute({ ...values, offset: 0, limit: 1 }))[0]?.total ?? 0) : 0);
   return {
     procedures: rows.map(({ l, owner }) => ({
       id: l.procedureId,

@@ -1,12 +1,29 @@
 import sanitizeHtml from 'sanitize-html';
 import type { Snapshot } from '../../../shared/document/evaluate';
 import { checkStepHeading, hazardFlagWords } from '../../../shared/document/extract';
-import { checkKindOf, isLiveReading, type CheckStepAttrs, type DocNode, type HazardNoteAttrs, type ProcedureDoc, type ReadingAttrs } from '../../../shared/document/schema';
+import {
+  checkKindOf,
+  isLiveReading,
+  type CheckStepAttrs,
+  type DocNode,
+  type HazardNoteAttrs,
+  type ProcedureDoc,
+  type ReadingAttrs,
+} from '../../../shared/document/schema';
 
 const esc = (s: unknown) =>
-  String(s ?? '').replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+  String(s ?? '').replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!,
+  );
 
-const MARK_TAGS: Record<string, string> = { bold: 'strong', italic: 'em', underline: 'u', strike: 's', code: 'code' };
+const MARK_TAGS: Record<string, string> = {
+  bold: 'strong',
+  italic: 'em',
+  underline: 'u',
+  strike: 's',
+  code: 'code',
+};
 
 /**
  * A static HTML render of a revision (for search snippets, diffs, print and PDF), with reckoner
@@ -57,7 +74,8 @@ export function renderRevisionHtml(doc: ProcedureDoc, snapshot: Snapshot): strin
       case 'checkStep': {
         const c = a as CheckStepAttrs;
         // A plain confirmation prints as it always has; a structured step leads with what it asks for.
-        const head = checkKindOf(c) === 'confirm' && !c.live ? '' : `<strong>${esc(checkStepHeading(c))}:</strong> `;
+        const head =
+          checkKindOf(c) === 'confirm' && !c.live ? '' : `<strong>${esc(checkStepHeading(c))}:</strong> `;
         return `<p class="check-step">☐ ${head}${esc(a.text)}</p>`;
       }
       case 'reading': {
@@ -107,14 +125,54 @@ export function sanitizeRevisionHtml(html: string): string {
 
 function sanitizeOnce(html: string): string {
   return sanitizeHtml(html, {
-    allowedTags: ['p', 'br', 'strong', 'em', 'u', 's', 'code', 'pre', 'a', 'h1', 'h2', 'h3', 'h4', 'ul', 'ol', 'li', 'blockquote', 'hr', 'aside', 'table', 'caption', 'tbody', 'tr', 'th', 'td', 'figure', 'img', 'figcaption'],
-    allowedAttributes: { a: ['href', 'rel'], img: ['src', 'alt'], aside: ['class'], p: ['class'], table: ['class'] },
-    allowedClasses: { aside: ['hazard-note', 'hazard-danger', 'hazard-warning'], p: ['check-step'], table: ['reading', 'reckoner'] },
+    allowedTags: [
+      'p',
+      'br',
+      'strong',
+      'em',
+      'u',
+      's',
+      'code',
+      'pre',
+      'a',
+      'h1',
+      'h2',
+      'h3',
+      'h4',
+      'ul',
+      'ol',
+      'li',
+      'blockquote',
+      'hr',
+      'aside',
+      'table',
+      'caption',
+      'tbody',
+      'tr',
+      'th',
+      'td',
+      'figure',
+      'img',
+      'figcaption',
+    ],
+    allowedAttributes: {
+      a: ['href', 'rel'],
+      img: ['src', 'alt'],
+      aside: ['class'],
+      p: ['class'],
+      table: ['class'],
+    },
+    allowedClasses: {
+      aside: ['hazard-note', 'hazard-danger', 'hazard-warning'],
+      p: ['check-step'],
+      table: ['reading', 'reckoner'],
+    },
     allowedSchemes: ['http', 'https', 'mailto'],
     allowedSchemesByTag: { img: [] },
     allowProtocolRelative: false,
     disallowedTagsMode: 'discard',
     // Images only ever come from our own attachment store.
-    exclusiveFilter: (frame) => frame.tag === 'img' && !/^\/api\/attachments\/[0-9a-f-]{36}$/.test(frame.attribs.src ?? ''),
+    exclusiveFilter: (frame) =>
+      frame.tag === 'img' && !/^\/api\/attachments\/[0-9a-f-]{36}$/.test(frame.attribs.src ?? ''),
   });
 }

@@ -7,7 +7,8 @@ import { createHash } from 'node:crypto';
  */
 export function canonicalJson(value: unknown): string {
   if (value === null || typeof value !== 'object') {
-    if (typeof value === 'number' && !Number.isFinite(value)) throw new TypeError('canonicalJson: non-finite number');
+    if (typeof value === 'number' && !Number.isFinite(value))
+      throw new TypeError('canonicalJson: non-finite number');
     if (value === undefined || typeof value === 'function' || typeof value === 'symbol') return 'null';
     return JSON.stringify(value);
   }

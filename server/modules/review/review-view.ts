@@ -27,13 +27,18 @@ export function blockRefs(doc: ProcedureDoc): BlockRef[] {
   ];
 }
 
-
 /** The last approved revision before this one: the one a reviewer compares against. */
 export async function baseRevision(db: Db, row: RevisionRow) {
   const [base] = await db
     .select()
     .from(revisions)
-    .where(and(eq(revisions.procedureId, row.procedureId), lt(revisions.number, row.number), inArray(revisions.state, ['approved', 'superseded', 'withdrawn'])))
+    .where(
+      and(
+        eq(revisions.procedureId, row.procedureId),
+        lt(revisions.number, row.number),
+        inArray(revisions.state, ['approved', 'superseded', 'withdrawn']),
+      ),
+    )
     .orderBy(desc(revisions.number))
     .limit(1);
   return base;
@@ -58,9 +63,21 @@ export async function commentsOf(db: Db, row: RevisionRow): Promise<ReviewCommen
   }));
 }
 
-export async function buildReviewView(db: Db, files: FileStore, user: SessionUser, row: RevisionRow): Promise<ReviewView> {
+export async function buildReviewView(
+  db: Db,
+  files: FileStore,
+  user: SessionUser,
+  row: RevisionRow,
+): Promise<ReviewView> {
   const ids = [...new Set([row.authorId, ...row.editorIds])];
-  const names = new Map((await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, ids))).map((p) => [p.id, p]));
+  const names = new Map(
+    (
+      await db
+        .select({ id: people.id, displayName: people.displayName })
+        .from(people)
+        .where(inArray(people.id, ids))
+    ).map((p) => [p.id, p]),
+  );
   const base = await baseRevision(db, row);
   const figures = describeRevision(row.document, row.snapshot);
   const own = countsAsAuthor(user.id, row);
@@ -83,7 +100,9 @@ export async function buildReviewView(db: Db, files: FileStore, user: SessionUse
       equipmentFamily: row.equipmentFamily,
       equipmentModel: row.equipmentModel,
       author: names.get(row.authorId) ?? { id: row.authorId, displayName: 'unknown' },
-      editors: row.editorIds.filter((id) => id !== row.authorId).map((id) => names.get(id) ?? { id, displayName: 'unknown' }),
+      editors: row.editorIds
+        .filter((id) => id !== row.authorId)
+        .map((id) => names.get(id) ?? { id, displayName: 'unknown' }),
       submittedAt: row.submittedAt?.toISOString() ?? null,
       decidedAt: row.decidedAt?.toISOString() ?? null,
       html: row.html,

@@ -1,6 +1,12 @@
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { approveBody, commentBody, returnBody, submitBody, withdrawBody } from '../../../shared/schemas/review';
+import {
+  approveBody,
+  commentBody,
+  returnBody,
+  submitBody,
+  withdrawBody,
+} from '../../../shared/schemas/review';
 import { recordAudit } from '../../audit/record';
 import type { AppDeps } from '../../deps';
 import { reviewComments, signatures } from '../../db/schema';
@@ -22,7 +28,10 @@ const canSee = (user: SessionUser, state: string) => seesDrafts(user) || PUBLISH
 async function decisionResponse(deps: AppDeps, result: Awaited<ReturnType<typeof decideRevision>>) {
   return {
     revision: await revisionView(deps.db, result.revision),
-    signature: signatureView(result.signature, (await verifySignature(deps.db, deps.files, result.signature)).verified),
+    signature: signatureView(
+      result.signature,
+      (await verifySignature(deps.db, deps.files, result.signature)).verified,
+    ),
     superseded: result.superseded ? { id: result.superseded.id, number: result.superseded.number } : null,
   };
 }
@@ -40,7 +49,8 @@ export const reviewRoutes = [
     method: 'get',
     path: '/revisions/:id/review',
     access: ['author', 'reviewer', 'admin'],
-    summary: 'A revision for review: text diff and value changes against the last approved revision, comments, signatures',
+    summary:
+      'A revision for review: text diff and value changes against the last approved revision, comments, signatures',
     params: revisionParams,
     handler: async ({ params, user, deps }) => {
       const row = await getRevisionRow(deps.db, params.id);
@@ -53,7 +63,8 @@ export const reviewRoutes = [
     method: 'post',
     path: '/revisions/:id/submit',
     access: ['author'],
-    summary: 'Submit a draft for review (its author or an editor); refused while reckoners have errors or readings are unresolved',
+    summary:
+      'Submit a draft for review (its author or an editor); refused while reckoners have errors or readings are unresolved',
     params: revisionParams,
     body: submitBody,
     handler: async ({ req, params, body, user, deps }) => {
@@ -69,17 +80,20 @@ export const reviewRoutes = [
     summary: 'Approve a revision in review with a signed decision (password re-entered; never one’s own)',
     params: revisionParams,
     body: approveBody,
-    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps, await decideRevision(deps, user!, params.id, 'approved', body, req)),
+    handler: async ({ req, params, body, user, deps }) =>
+      decisionResponse(deps, await decideRevision(deps, user!, params.id, 'approved', body, req)),
   }),
 
   defineRoute({
     method: 'post',
     path: '/revisions/:id/return',
     access: ['reviewer'],
-    summary: 'Return a revision in review to its author with comments, signed (password re-entered; never one’s own)',
+    summary:
+      'Return a revision in review to its author with comments, signed (password re-entered; never one’s own)',
     params: revisionParams,
     body: returnBody,
-    handler: async ({ req, params, body, user, deps }) => decisionResponse(deps, await decideRevision(deps, user!, params.id, 'returned', body, req)),
+    handler: async ({ req, params, body, user, deps }) =>
+      decisionResponse(deps, await decideRevision(deps, user!, params.id, 'returned', body, req)),
   }),
 
   defineRoute({
@@ -93,7 +107,10 @@ export const reviewRoutes = [
       const result = await withdrawProcedure(deps, user!, params.id, body, req);
       return {
         revision: await revisionView(deps.db, result.revision),
-        signature: signatureView(result.signature, (await verifySignature(deps.db, deps.files, result.signature)).verified),
+        signature: signatureView(
+          result.signature,
+          (await verifySignature(deps.db, deps.files, result.signature)).verified,
+        ),
       };
     },
   }),
@@ -110,11 +127,22 @@ export const reviewRoutes = [
       if (!row) throw notFound('No such revision.');
       const blockId = body.blockId ?? null;
       if (blockId && !blockRefs(row.document).some((b) => b.id === blockId)) {
-        throw badRequest(`Revision ${row.number} has no block ${blockId}.`, [{ field: 'body.blockId', reason: `no block with this id in revision ${row.number}` }]);
+        throw badRequest(`Revision ${row.number} has no block ${blockId}.`, [
+          { field: 'body.blockId', reason: `no block with this id in revision ${row.number}` },
+        ]);
       }
       const [created] = await deps.db.transaction(async (tx) => {
-        const inserted = await tx.insert(reviewComments).values({ revisionId: row.id, blockId, authorId: user!.id, body: body.body }).returning();
-        await recordAudit(tx, { action: 'review.commented', actorId: user!.id, subject: `${row.title} r${row.number}`, details: { revisionId: row.id, commentId: inserted[0]!.id, blockId }, req });
+        const inserted = await tx
+          .insert(reviewComments)
+          .values({ revisionId: row.id, blockId, authorId: user!.id, body: body.body })
+          .returning();
+        await recordAudit(tx, {
+          action: 'review.commented',
+          actorId: user!.id,
+          subject: `${row.title} r${row.number}`,
+          details: { revisionId: row.id, commentId: inserted[0]!.id, blockId },
+          req,
+        });
         return inserted;
       });
       res.status(201);
@@ -146,7 +174,12 @@ export const reviewRoutes = [
       const row = sig && (await getRevisionRow(deps.db, sig.revisionId));
       if (!sig || !row || !canSee(user!, row.state)) throw notFound('No such signature.');
       const check = await verifySignature(deps.db, deps.files, sig);
-      return { signature: signatureView(sig, check.verified), storedHash: sig.contentHash, currentHash: check.currentHash, verified: check.verified };
+      return {
+        signature: signatureView(sig, check.verified),
+        storedHash: sig.contentHash,
+        currentHash: check.currentHash,
+        verified: check.verified,
+      };
     },
   }),
 ];

@@ -23,11 +23,21 @@ export interface Signer {
 export async function signRevision(
   tx: Tx,
   files: FileStore,
-  opts: { row: RevisionRow; signer: Signer; role: string; meaning: SignatureMeaning; comment: string; reauthAuditId?: number; requestId?: string },
+  opts: {
+    row: RevisionRow;
+    signer: Signer;
+    role: string;
+    meaning: SignatureMeaning;
+    comment: string;
+    reauthAuditId?: number;
+    requestId?: string;
+  },
 ) {
   const content = await checkRevisionContent(tx, files, opts.row);
   if (opts.meaning === 'approved' && !content.intact) {
-    throw conflict('A file this revision shows is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); it cannot be approved. Tell an admin.');
+    throw conflict(
+      'A file this revision shows is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); it cannot be approved. Tell an admin.',
+    );
   }
   const [sig] = await tx
     .insert(signatures)
@@ -49,12 +59,14 @@ export async function signRevision(
   return sig!;
 }
 
-
 /** Recomputes the content hash of the signed revision as it is stored now, re-hashing its files. */
 export async function verifySignature(db: Db | Tx, files: FileStore, sig: SignatureRow) {
   const [row] = await db.select().from(revisions).where(eq(revisions.id, sig.revisionId));
   const current = row ? await checkRevisionContent(db, files, row) : null;
-  return { verified: !!current?.intact && current.hash === sig.contentHash, currentHash: current?.hash ?? null };
+  return {
+    verified: !!current?.intact && current.hash === sig.contentHash,
+    currentHash: current?.hash ?? null,
+  };
 }
 
 export const signatureView = (sig: SignatureRow, verified: boolean): SignatureView => ({
@@ -71,7 +83,11 @@ export const signatureView = (sig: SignatureRow, verified: boolean): SignatureVi
 
 /** A revision's signatures, oldest first, each verified against the stored revision and its files. */
 export async function verifiedSignatures(db: Db, files: FileStore, revisionId: string) {
-  const rows = await db.select().from(signatures).where(eq(signatures.revisionId, revisionId)).orderBy(asc(signatures.signedAt));
+  const rows = await db
+    .select()
+    .from(signatures)
+    .where(eq(signatures.revisionId, revisionId))
+    .orderBy(asc(signatures.signedAt));
   if (!rows.length) return [];
   const [revision] = await db.select().from(revisions).where(eq(revisions.id, revisionId));
   const current = revision ? await checkRevisionContent(db, files, revision) : null;

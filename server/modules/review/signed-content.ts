@@ -19,7 +19,12 @@ export const HASH_VERSION = 1;
 export async function signedContent(db: Db | Tx, store: FileStore, row: RevisionRow) {
   const { images, files } = extractBlocks(row.document);
   const ids = [...new Set([...images, ...files].map((a) => a.attachmentId))].sort();
-  const stored = ids.length ? await db.select({ id: attachments.id, sha256: attachments.sha256 }).from(attachments).where(inArray(attachments.id, ids)) : [];
+  const stored = ids.length
+    ? await db
+        .select({ id: attachments.id, sha256: attachments.sha256 })
+        .from(attachments)
+        .where(inArray(attachments.id, ids))
+    : [];
   const byId = new Map(stored.map((a) => [a.id, a.sha256]));
   const intactHash = async (id: string) => {
     const recorded = byId.get(id);
@@ -28,7 +33,12 @@ export async function signedContent(db: Db | Tx, store: FileStore, row: Revision
   return {
     hashVersion: HASH_VERSION,
     revision: { id: row.id, procedureId: row.procedureId, number: row.number },
-    metadata: { title: row.title, equipmentFamily: row.equipmentFamily, equipmentModel: row.equipmentModel, tags: row.tags },
+    metadata: {
+      title: row.title,
+      equipmentFamily: row.equipmentFamily,
+      equipmentModel: row.equipmentModel,
+      tags: row.tags,
+    },
     params: row.params,
     document: row.document,
     snapshot: row.snapshot,
@@ -41,7 +51,10 @@ export async function signedContent(db: Db | Tx, store: FileStore, row: Revision
 /** The hash a sign-off covers, as the revision and its files are stored now; intact is false when an attached file is missing or altered. */
 export async function checkRevisionContent(db: Db | Tx, store: FileStore, row: RevisionRow) {
   const content = await signedContent(db, store, row);
-  return { hash: sha256Hex(canonicalJson(content)), intact: content.attachments.every((a) => a.sha256 !== null) };
+  return {
+    hash: sha256Hex(canonicalJson(content)),
+    intact: content.attachments.every((a) => a.sha256 !== null),
+  };
 }
 
 export async function revisionContentHash(db: Db | Tx, store: FileStore, row: RevisionRow) {

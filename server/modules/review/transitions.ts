@@ -44,11 +44,19 @@ export function submitBlockers(snapshot: Snapshot) {
   for (const b of snapshot.blocks) {
     if (!b.ok) {
       const fields = getReckoner(b.kind)?.fields ?? [];
-      for (const e of b.errors) problems.push({ blockId: b.id, message: `${b.label ?? 'Reckoner'} “${b.name}”: ${fieldLabel(fields, e.field)}: ${e.reason}` });
+      for (const e of b.errors)
+        problems.push({
+          blockId: b.id,
+          message: `${b.label ?? 'Reckoner'} “${b.name}”: ${fieldLabel(fields, e.field)}: ${e.reason}`,
+        });
     }
   }
   for (const r of snapshot.readings) {
-    if (r.error) problems.push({ blockId: r.id, message: `Reading “${r.label || 'untitled'}” is unresolved: ${r.error}` });
+    if (r.error)
+      problems.push({
+        blockId: r.id,
+        message: `Reading “${r.label || 'untitled'}” is unresolved: ${r.error}`,
+      });
   }
   for (const e of snapshot.errors) problems.push({ blockId: null, message: e.message });
   return problems;
@@ -61,7 +69,10 @@ const fourEyesRefusal = (userId: string, row: RevisionRow) =>
 
 /** Locks the procedure then the revision, in that order everywhere (no deadlocks between transitions). */
 async function lockRevision(tx: Tx, revisionId: string) {
-  const [peek] = await tx.select({ procedureId: revisions.procedureId }).from(revisions).where(eq(revisions.id, revisionId));
+  const [peek] = await tx
+    .select({ procedureId: revisions.procedureId })
+    .from(revisions)
+    .where(eq(revisions.id, revisionId));
   if (!peek) throw notFound('No such revision.');
   await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${peek.procedureId} for update`);
   const [row] = await tx.select().from(revisions).where(eq(revisions.id, revisionId)).for('update');
@@ -72,29 +83,60 @@ async function lockRevision(tx: Tx, revisionId: string) {
  * A draft goes to review, inside the caller's transaction: author or editor only, the draft as it
  * was opened (lockVersion), nothing blocking; audited. The one path to in_review.
  */
-export async function recordSubmission(tx: Tx, userId: string, revisionId: string, opts: { lockVersion?: number; req?: Request } = {}) {
+export async function recordSubmission(
+  tx: Tx,
+  userId: string,
+  revisionId: string,
+  opts: { lockVersion?: number; req?: Request } = {},
+) {
   const current = await lockRevision(tx, revisionId);
-  if (!wroteOrEdited(userId, current)) throw new HttpError(403, `Only the author or an editor of revision ${current.number} can submit it.`);
+  if (!wroteOrEdited(userId, current))
+    throw new HttpError(403, `Only the author or an editor of revision ${current.number} can submit it.`);
   if (current.state !== 'draft') throw illegal(current, 'only a draft can be submitted for review');
   if (opts.lockVersion !== undefined && opts.lockVersion !== current.lockVersion) {
-    throw conflict('This draft was saved again after you opened it; reload and check it before submitting.', { state: current.state, lockVersion: current.lockVersion });
+    throw conflict('This draft was saved again after you opened it; reload and check it before submitting.', {
+      state: current.state,
+      lockVersion: current.lockVersion,
+    });
   }
   const problems = submitBlockers(current.snapshot);
   if (problems.length) {
-    throw conflict(`Revision ${current.number} cannot go to review yet: ${problems.slice(0, 3).map((p) => p.message).join('; ')}`, { state: current.state, problems });
+    throw conflict(
+      `Revision ${current.number} cannot go to review yet: ${problems
+        .slice(0, 3)
+        .map((p) => p.message)
+        .join('; ')}`,
+      { state: current.state, problems },
+    );
   }
-  if (!current.plainText.trim() && !current.snapshot.blocks.length) throw conflict(`Revision ${current.number} is empty; write the procedure before submitting it.`, { state: current.state, problems: [] });
+  if (!current.plainText.trim() && !current.snapshot.blocks.length)
+    throw conflict(`Revision ${current.number} is empty; write the procedure before submitting it.`, {
+      state: current.state,
+      problems: [],
+    });
   const [updated] = await tx
     .update(revisions)
     .set({ state: 'in_review', submittedAt: sql`now()`, updatedAt: sql`now()` })
     .where(and(eq(revisions.id, revisionId), eq(revisions.state, 'draft')))
     .returning();
   if (!updated) throw illegal(current, 'only a draft can be submitted for review');
-  await recordAudit(tx, { action: 'revision.submitted', actorId: userId, subject: `${updated.title} r${updated.number}`, details: { revisionId, from: 'draft', to: 'in_review' }, req: opts.req });
+  await recordAudit(tx, {
+    action: 'revision.submitted',
+    actorId: userId,
+    subject: `${updated.title} r${updated.number}`,
+    details: { revisionId, from: 'draft', to: 'in_review' },
+    req: opts.req,
+  });
   return updated;
 }
 
-export async function submitRevision(deps: AppDeps, user: SessionUser, revisionId: string, lockVersion: number | undefined, req: Request) {
+export async function submitRevision(
+  deps: AppDeps,
+  user: SessionUser,
+  revisionId: string,
+  lockVersion: number | undefined,
+  req: Request,
+) {
   const row = await deps.db.transaction(async (tx) => {
     const updated = await recordSubmission(tx, user.id, revisionId, { lockVersion, req });
     await queueReviewRequested(tx, deps.config.publicUrl, updated, user.displayName);
@@ -130,20 +172,37 @@ export async function recordDecision(
     [superseded] = await tx
       .update(revisions)
       .set({ state: 'superseded', updatedAt: sql`now()` })
-      .where(and(eq(revisions.procedureId, current.procedureId), eq(revisions.state, 'approved'), ne(revisions.id, current.id)))
+      .where(
+        and(
+          eq(revisions.procedureId, current.procedureId),
+          eq(revisions.state, 'approved'),
+          ne(revisions.id, current.id),
+        ),
+      )
       .returning();
   }
   // The signed content leaves out state and times, so the row as locked hashes as it will be stored.
   const contentHash = decision === 'approved' ? await revisionContentHash(tx, files, current) : undefined;
   const [updated] = await tx
     .update(revisions)
-    .set({ state: decision, decidedAt: sql`now()`, updatedAt: sql`now()`, ...(contentHash ? { contentHash } : {}) })
+    .set({
+      state: decision,
+      decidedAt: sql`now()`,
+      updatedAt: sql`now()`,
+      ...(contentHash ? { contentHash } : {}),
+    })
     .where(and(eq(revisions.id, revisionId), eq(revisions.state, 'in_review')))
     .returning();
   if (!updated) throw illegal(current, `only a revision in review can be ${verb}`);
   const subject = `${updated.title} r${updated.number}`;
   const reauthAuditId = opts.reauthenticated
-    ? await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: signer.id, subject, details: { revisionId, meaning: decision }, req: opts.req })
+    ? await recordAudit(tx, {
+        action: 'sign-off.reauthenticated',
+        actorId: signer.id,
+        subject,
+        details: { revisionId, meaning: decision },
+        req: opts.req,
+      })
     : undefined;
   const signature = await signRevision(tx, files, {
     row: updated,
@@ -158,7 +217,14 @@ export async function recordDecision(
     action: decision === 'approved' ? 'revision.approved' : 'revision.returned',
     actorId: signer.id,
     subject,
-    details: { revisionId, from: 'in_review', to: decision, signatureId: signature.id, contentHash: signature.contentHash, comment: opts.comment.slice(0, 500) },
+    details: {
+      revisionId,
+      from: 'in_review',
+      to: decision,
+      signatureId: signature.id,
+      contentHash: signature.contentHash,
+      comment: opts.comment.slice(0, 500),
+    },
     req: opts.req,
   });
   if (superseded) {
@@ -188,8 +254,19 @@ export async function decideRevision(
   await confirmSignerPassword(deps.db, user, input.password, req, `${before.title} r${before.number}`);
 
   const result = await deps.db.transaction(async (tx) => {
-    const decided = await recordDecision(tx, deps.files, user, revisionId, decision, { comment: input.comment, reauthenticated: true, req });
-    await queueDecision(tx, deps.config.publicUrl, decided.revision, decision, user.displayName, input.comment);
+    const decided = await recordDecision(tx, deps.files, user, revisionId, decision, {
+      comment: input.comment,
+      reauthenticated: true,
+      req,
+    });
+    await queueDecision(
+      tx,
+      deps.config.publicUrl,
+      decided.revision,
+      decision,
+      user.displayName,
+      input.comment,
+    );
     return decided;
   });
   void deps.mailer?.flush();
@@ -202,10 +279,20 @@ export async function decideRevision(
  * reviewer. For demo content and tests; no password is asked here, so the signature links no
  * re-authentication, and no mail is queued.
  */
-export async function createApprovedProcedure(tx: Tx, files: FileStore, author: Signer, reviewer: Signer, input: NewProcedure, comment: string) {
+export async function createApprovedProcedure(
+  tx: Tx,
+  files: FileStore,
+  author: Signer,
+  reviewer: Signer,
+  input: NewProcedure,
+  comment: string,
+) {
   const { procedure, revision } = await createProcedure(tx, author.id, input);
   await recordSubmission(tx, author.id, revision.id);
-  const decided = await recordDecision(tx, files, reviewer, revision.id, 'approved', { comment, reauthenticated: false });
+  const decided = await recordDecision(tx, files, reviewer, revision.id, 'approved', {
+    comment,
+    reauthenticated: false,
+  });
   return { procedure, ...decided };
 }
 
@@ -213,7 +300,13 @@ export async function createApprovedProcedure(tx: Tx, files: FileStore, author: 
  * The withdrawal itself, inside the caller's transaction: the approved revision becomes withdrawn,
  * signed by the reviewer or admin with the reason; audited.
  */
-export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer & { roles: string[] }, procedureId: string, opts: { reason: string; reauthenticated: boolean; req?: Request }) {
+export async function recordWithdrawal(
+  tx: Tx,
+  files: FileStore,
+  signer: Signer & { roles: string[] },
+  procedureId: string,
+  opts: { reason: string; reauthenticated: boolean; req?: Request },
+) {
   await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
   const [approved] = await tx
     .select()
@@ -221,9 +314,16 @@ export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer 
     .where(and(eq(revisions.procedureId, procedureId), eq(revisions.state, 'approved')))
     .for('update');
   if (!approved) {
-    const [latest] = await tx.select().from(revisions).where(eq(revisions.procedureId, procedureId)).orderBy(sql`${revisions.number} desc`).limit(1);
+    const [latest] = await tx
+      .select()
+      .from(revisions)
+      .where(eq(revisions.procedureId, procedureId))
+      .orderBy(sql`${revisions.number} desc`)
+      .limit(1);
     throw conflict(
-      latest ? `This procedure has no approved revision to withdraw; its latest, revision ${latest.number}, is ${STATE_WORDS[latest.state]}.` : 'This procedure has no revisions.',
+      latest
+        ? `This procedure has no approved revision to withdraw; its latest, revision ${latest.number}, is ${STATE_WORDS[latest.state]}.`
+        : 'This procedure has no revisions.',
       { state: latest?.state ?? null },
     );
   }
@@ -235,7 +335,13 @@ export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer 
   if (!updated) throw illegal(approved, 'only an approved revision can be withdrawn');
   const subject = `${updated.title} r${updated.number}`;
   const reauthAuditId = opts.reauthenticated
-    ? await recordAudit(tx, { action: 'sign-off.reauthenticated', actorId: signer.id, subject, details: { revisionId: updated.id, meaning: 'withdrawn' }, req: opts.req })
+    ? await recordAudit(tx, {
+        action: 'sign-off.reauthenticated',
+        actorId: signer.id,
+        subject,
+        details: { revisionId: updated.id, meaning: 'withdrawn' },
+        req: opts.req,
+      })
     : undefined;
   const role = signer.roles.includes('reviewer') ? 'reviewer' : 'admin';
   const signature = await signRevision(tx, files, {
@@ -251,7 +357,13 @@ export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer 
     action: 'revision.withdrawn',
     actorId: signer.id,
     subject,
-    details: { revisionId: updated.id, from: 'approved', to: 'withdrawn', signatureId: signature.id, reason: opts.reason.slice(0, 500) },
+    details: {
+      revisionId: updated.id,
+      from: 'approved',
+      to: 'withdrawn',
+      signatureId: signature.id,
+      reason: opts.reason.slice(0, 500),
+    },
     req: opts.req,
   });
   return { revision: updated, signature };
@@ -261,13 +373,29 @@ export async function recordWithdrawal(tx: Tx, files: FileStore, signer: Signer 
  * Takes a procedure's approved revision out of use: reviewer or admin, signed, with a reason. Open
  * bench runs on it go on hold (refused from then on, see runs/run-hold.ts); their technicians are mailed.
  */
-export async function withdrawProcedure(deps: AppDeps, user: SessionUser, procedureId: string, input: { password: string; reason: string }, req: Request) {
+export async function withdrawProcedure(
+  deps: AppDeps,
+  user: SessionUser,
+  procedureId: string,
+  input: { password: string; reason: string },
+  req: Request,
+) {
   const [proc] = await deps.db.select().from(procedures).where(eq(procedures.id, procedureId));
   if (!proc) throw notFound('No such procedure.');
   await confirmSignerPassword(deps.db, user, input.password, req, `${proc.title} (withdraw)`);
   const result = await deps.db.transaction(async (tx) => {
-    const withdrawn = await recordWithdrawal(tx, deps.files, user, procedureId, { reason: input.reason, reauthenticated: true, req });
-    await tellTechniciansOnHold(tx, deps.config.publicUrl, withdrawn.revision, input.reason, user.displayName);
+    const withdrawn = await recordWithdrawal(tx, deps.files, user, procedureId, {
+      reason: input.reason,
+      reauthenticated: true,
+      req,
+    });
+    await tellTechniciansOnHold(
+      tx,
+      deps.config.publicUrl,
+      withdrawn.revision,
+      input.reason,
+      user.displayName,
+    );
     return withdrawn;
   });
   await deps.mailer?.flush();

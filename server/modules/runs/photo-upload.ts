@@ -6,4 +6,5 @@ import { receiveFile, storeUpload } from '../attachments/upload';
 export const receivePhoto = (): RequestHandler[] => receiveFile('photo');
 
 /** Stores a photo judged by its bytes (PNG, JPEG, WebP, at most 8000 × 8000 px); returns its attachment row. */
-export const storePhoto = (deps: AppDeps, file: Express.Multer.File | undefined, uploadedBy: string) => storeUpload(deps, file, uploadedBy, 'photo');
+export const storePhoto = (deps: AppDeps, file: Express.Multer.File | undefined, uploadedBy: string) =>
+  storeUpload(deps, file, uploadedBy, 'photo');

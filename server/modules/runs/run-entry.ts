@@ -25,22 +25,50 @@ export function readMeasurement(step: RunStep, value: string | number): { raw: s
 export function decideReading(step: RunStep, value: string | number): DecidedReading {
   const r = step.reading!;
   const { raw, measured } = readMeasurement(step, value);
-  const base = { raw, measured, unit: r.unit, expected: r.expected, low: r.low, high: r.high, within: null, deviation: null, deviationPercent: null };
+  const base = {
+    raw,
+    measured,
+    unit: r.unit,
+    expected: r.expected,
+    low: r.low,
+    high: r.high,
+    within: null,
+    deviation: null,
+    deviationPercent: null,
+  };
   if (r.expected === null || r.error) return base;
   const check = checkStepReading({ ...r, expected: r.expected }, measured);
-  return { ...base, low: check.low, high: check.high, within: check.within, deviation: check.deviation, deviationPercent: check.deviationPercent };
+  return {
+    ...base,
+    low: check.low,
+    high: check.high,
+    within: check.within,
+    deviation: check.deviation,
+    deviationPercent: check.deviationPercent,
+  };
 }
 
 /** Which fields a step kind takes; anything else is a 400 naming it. */
 export function checkEntryShape(step: RunStep, body: EntryBody, hasEntry: boolean) {
   const problems: { field: string; reason: string }[] = [];
   if (step.kind === 'reading') {
-    if (body.done !== undefined) problems.push({ field: 'body.done', reason: 'a reading takes a value, not a tick' });
-    if (body.value === undefined && !hasEntry) problems.push({ field: 'body.value', reason: 'enter the reading' });
+    if (body.done !== undefined)
+      problems.push({ field: 'body.done', reason: 'a reading takes a value, not a tick' });
+    if (body.value === undefined && !hasEntry)
+      problems.push({ field: 'body.value', reason: 'enter the reading' });
   } else {
-    if (body.value !== undefined) problems.push({ field: 'body.value', reason: `a ${step.kind === 'check' ? 'check step' : 'hazard note'} takes no value` });
-    if (body.done === undefined && !hasEntry) problems.push({ field: 'body.done', reason: step.kind === 'check' ? 'tick the step' : 'acknowledge the hazard note' });
-    if (step.kind === 'hazard' && body.done === false) problems.push({ field: 'body.done', reason: 'a hazard note cannot be un-acknowledged' });
+    if (body.value !== undefined)
+      problems.push({
+        field: 'body.value',
+        reason: `a ${step.kind === 'check' ? 'check step' : 'hazard note'} takes no value`,
+      });
+    if (body.done === undefined && !hasEntry)
+      problems.push({
+        field: 'body.done',
+        reason: step.kind === 'check' ? 'tick the step' : 'acknowledge the hazard note',
+      });
+    if (step.kind === 'hazard' && body.done === false)
+      problems.push({ field: 'body.done', reason: 'a hazard note cannot be un-acknowledged' });
   }
   if (problems.length) throw badRequest(problems.map((p) => `${p.field}: ${p.reason}`).join('; '), problems);
 }

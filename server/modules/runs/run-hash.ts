@@ -7,7 +7,20 @@ export interface RunContent {
   unit: { id: string; model: string; serial: string; owner: string; jobNumber: string };
   params: unknown;
   steps: unknown;
-  entries: Pick<EntryView, 'stepId' | 'raw' | 'measured' | 'unit' | 'expected' | 'low' | 'high' | 'within' | 'done' | 'note' | 'version'>[];
+  entries: Pick<
+    EntryView,
+    | 'stepId'
+    | 'raw'
+    | 'measured'
+    | 'unit'
+    | 'expected'
+    | 'low'
+    | 'high'
+    | 'within'
+    | 'done'
+    | 'note'
+    | 'version'
+  >[];
   /** Each photo's SHA-256 as re-hashed from its stored bytes; null when missing or altered. */
   photos: { id: string; stepId: string | null; sha256: string | null }[];
 }

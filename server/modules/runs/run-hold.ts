@@ -15,7 +15,11 @@ import type { RunRow, Tx } from './runs.service';
 type RevisionRow = typeof revisions.$inferSelect;
 
 /** The hold on an open run whose revision was withdrawn, or null. `lock` waits for a withdrawal in progress. */
-export async function holdOf(db: Db | Tx, run: Pick<RunRow, 'status' | 'revisionId' | 'revisionNumber'>, lock = false): Promise<RunHold | null> {
+export async function holdOf(
+  db: Db | Tx,
+  run: Pick<RunRow, 'status' | 'revisionId' | 'revisionNumber'>,
+  lock = false,
+): Promise<RunHold | null> {
   if (run.status !== 'in_progress') return null;
   const query = db.select({ state: revisions.state }).from(revisions).where(eq(revisions.id, run.revisionId));
   const [revision] = lock ? await query.for('share') : await query;
@@ -24,7 +28,12 @@ export async function holdOf(db: Db | Tx, run: Pick<RunRow, 'status' | 'revision
     .select({ comment: signatures.comment, signerName: signatures.signerName, signedAt: signatures.signedAt })
     .from(signatures)
     .where(and(eq(signatures.revisionId, run.revisionId), eq(signatures.meaning, 'withdrawn')));
-  return { reason: signed?.comment ?? 'no reason recorded', by: signed?.signerName ?? 'unknown', at: (signed?.signedAt ?? new Date(0)).toISOString(), revisionNumber: run.revisionNumber };
+  return {
+    reason: signed?.comment ?? 'no reason recorded',
+    by: signed?.signerName ?? 'unknown',
+    at: (signed?.signedAt ?? new Date(0)).toISOString(),
+    revisionNumber: run.revisionNumber,
+  };
 }
 
 export const onHold = (hold: RunHold) =>
@@ -37,17 +46,35 @@ export const onHold = (hold: RunHold) =>
  * Called in the withdrawal's transaction: every technician on an open run of the revision (who
  * started it, performs it, took part in a handover or made an entry) gets one mail listing their runs.
  */
-export async function tellTechniciansOnHold(tx: Tx, publicUrl: string, revision: RevisionRow, reason: string, withdrawnBy: string) {
+export async function tellTechniciansOnHold(
+  tx: Tx,
+  publicUrl: string,
+  revision: RevisionRow,
+  reason: string,
+  withdrawnBy: string,
+) {
   const open = await tx
-    .select({ id: runs.id, startedBy: runs.startedBy, performedBy: runs.performedBy, model: units.model, serial: units.serial })
+    .select({
+      id: runs.id,
+      startedBy: runs.startedBy,
+      performedBy: runs.performedBy,
+      model: units.model,
+      serial: units.serial,
+    })
     .from(runs)
     .innerJoin(units, eq(units.id, runs.unitId))
     .where(and(eq(runs.revisionId, revision.id), eq(runs.status, 'in_progress')));
   if (!open.length) return [];
   const ids = open.map((r) => r.id);
   const [entries, handovers] = await Promise.all([
-    tx.selectDistinct({ runId: runEntries.runId, who: runEntries.enteredBy }).from(runEntries).where(inArray(runEntries.runId, ids)),
-    tx.select({ runId: runHandovers.runId, from: runHandovers.fromId, to: runHandovers.toId }).from(runHandovers).where(inArray(runHandovers.runId, ids)),
+    tx
+      .selectDistinct({ runId: runEntries.runId, who: runEntries.enteredBy })
+      .from(runEntries)
+      .where(inArray(runEntries.runId, ids)),
+    tx
+      .select({ runId: runHandovers.runId, from: runHandovers.fromId, to: runHandovers.toId })
+      .from(runHandovers)
+      .where(inArray(runHandovers.runId, ids)),
   ]);
   const onRun = new Map<string, Set<string>>(open.map((r) => [r.id, new Set([r.startedBy, r.performedBy])]));
   for (const e of entries) onRun.get(e.runId)!.add(e.who);
@@ -68,7 +95,9 @@ export async function tellTechniciansOnHold(tx: Tx, publicUrl: string, revision:
         lines: [
           `${withdrawnBy} withdrew revision ${revision.number} of “${revision.title}”: ${reason}`,
           `${theirs.length === 1 ? 'This bench run' : 'These bench runs'} of yours ${theirs.length === 1 ? 'is' : 'are'} on hold: nothing more can be recorded or signed. Close ${theirs.length === 1 ? 'it' : 'each'} as abandoned, and start again when a new revision is approved.`,
-          ...theirs.map((r) => `• ${r.model} ${r.serial}: ${new URL(paths.run.href(r.id), publicUrl).toString()}`),
+          ...theirs.map(
+            (r) => `• ${r.model} ${r.serial}: ${new URL(paths.run.href(r.id), publicUrl).toString()}`,
+          ),
         ],
         link: { url: new URL('/runs', publicUrl).toString(), label: 'Open the bench runs' },
       }),

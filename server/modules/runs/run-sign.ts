@@ -4,7 +4,16 @@ import { formatQuantity } from '../../../shared/units/format';
 import type { AppDeps } from '../../deps';
 import { paths } from '../../../shared/paths';
 import { recordAudit } from '../../audit/record';
-import { people, procedures, revisions, runEntries, runs, runSignatures, signatures, units } from '../../db/schema';
+import {
+  people,
+  procedures,
+  revisions,
+  runEntries,
+  runs,
+  runSignatures,
+  signatures,
+  units,
+} from '../../db/schema';
 import { conflict, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
@@ -22,7 +31,13 @@ export const runSheetPath = (runId: string) => paths.run.href(runId);
  * The technician signs the run sheet: password again, meaning "performed", database time, and the
  * SHA-256 of the canonical run content. From then on triggers refuse any change to it.
  */
-export async function signRun(deps: AppDeps, user: SessionUser, runId: string, body: { password: string; meaning: 'performed'; reason?: string }, req: Request) {
+export async function signRun(
+  deps: AppDeps,
+  user: SessionUser,
+  runId: string,
+  body: { password: string; meaning: 'performed'; reason?: string },
+  req: Request,
+) {
   const { db } = deps;
   const [exists] = await db.select().from(runs).where(eq(runs.id, runId));
   if (!exists) throw notFound('No such bench run.');
@@ -39,20 +54,30 @@ export async function signRun(deps: AppDeps, user: SessionUser, runId: string, b
     const byStep = new Map(entries.map((e) => [e.stepId, e]));
     const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
     if (unfinished.length) {
-      const list = unfinished.slice(0, 5).map((s) => `${s.position}. ${s.text.slice(0, 60)}`).join('; ');
-      throw conflict(`${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`, {
-        unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
-      });
+      const list = unfinished
+        .slice(0, 5)
+        .map((s) => `${s.position}. ${s.text.slice(0, 60)}`)
+        .join('; ');
+      throw conflict(
+        `${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`,
+        {
+          unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
+        },
+      );
     }
     const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
     if ((await revisionContentHash(tx, deps.files, revision!)) !== run.revisionHash) {
-      throw conflict('The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.');
+      throw conflict(
+        'The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.',
+      );
     }
     const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
     const unitRecord = unitRecordOf(unit!);
     const content = await runContent(tx, deps.files, run, unitRecord);
     if (content.photos.some((p) => p.sha256 === null)) {
-      throw conflict('A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.');
+      throw conflict(
+        'A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.',
+      );
     }
     const contentHash = runContentHash(content);
     const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
@@ -84,7 +109,8 @@ export async function signRun(deps: AppDeps, user: SessionUser, runId: string, b
       details: { contentHash, revisionId: run.revisionId, meaning: body.meaning, outOfTolerance },
       req,
     });
-    if (outOfTolerance) await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, person?.name ?? user.displayName);
+    if (outOfTolerance)
+      await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, person?.name ?? user.displayName);
     return { signature: signature!, outOfTolerance };
   });
   await deps.mailer?.flush();
@@ -93,15 +119,30 @@ export async function signRun(deps: AppDeps, user: SessionUser, runId: string, b
 
 /** Who hears about an out-of-tolerance run: the procedure's author and the revision's approvers. */
 async function recipients(tx: Tx, run: RunRow) {
-  const [revision] = await tx.select({ authorId: revisions.authorId }).from(revisions).where(eq(revisions.id, run.revisionId));
-  const [procedure] = await tx.select({ ownerId: procedures.ownerId }).from(procedures).where(eq(procedures.id, run.procedureId));
-  const approvers = await tx.select({ id: signatures.signerId }).from(signatures).where(and(eq(signatures.revisionId, run.revisionId), eq(signatures.meaning, 'approved')));
+  const [revision] = await tx
+    .select({ authorId: revisions.authorId })
+    .from(revisions)
+    .where(eq(revisions.id, run.revisionId));
+  const [procedure] = await tx
+    .select({ ownerId: procedures.ownerId })
+    .from(procedures)
+    .where(eq(procedures.id, run.procedureId));
+  const approvers = await tx
+    .select({ id: signatures.signerId })
+    .from(signatures)
+    .where(and(eq(signatures.revisionId, run.revisionId), eq(signatures.meaning, 'approved')));
   const ids = [revision!.authorId, procedure!.ownerId, ...approvers.map((a) => a.id)];
-  const byId = await tx.select({ email: people.email }).from(people).where(and(inArray(people.id, ids), eq(people.active, true)));
+  const byId = await tx
+    .select({ email: people.email })
+    .from(people)
+    .where(and(inArray(people.id, ids), eq(people.active, true)));
   // No recorded approval (demo content): the shop's reviewers hear instead.
   const reviewers = approvers.length
     ? []
-    : await tx.select({ email: people.email }).from(people).where(and(eq(people.active, true), sql`'reviewer' = any(${people.roles})`));
+    : await tx
+        .select({ email: people.email })
+        .from(people)
+        .where(and(eq(people.active, true), sql`'reviewer' = any(${people.roles})`));
   return [...byId, ...reviewers].map((p) => p.email);
 }
 
@@ -116,7 +157,10 @@ async function queueOutOfToleranceMail(
   const out = entries.filter((e) => e.within === false);
   const lines = out.map((e) => {
     const step = run.steps.find((s) => s.id === e.stepId);
-    const band = e.low !== null && e.high !== null ? `${formatQuantity(e.low, e.unit ?? '')} … ${formatQuantity(e.high, e.unit ?? '')}` : 'no band';
+    const band =
+      e.low !== null && e.high !== null
+        ? `${formatQuantity(e.low, e.unit ?? '')} … ${formatQuantity(e.high, e.unit ?? '')}`
+        : 'no band';
     return `• ${step?.text ?? e.stepId}: measured ${e.raw} (${formatQuantity(e.measured ?? 0, e.unit ?? '')}), expected ${band}.`;
   });
   const { text, html } = composeMail({
@@ -126,7 +170,10 @@ async function queueOutOfToleranceMail(
       ...lines,
       'Check whether the unit or the procedure needs attention.',
     ],
-    link: { url: new URL(runSheetPath(run.id), deps.config.publicUrl).toString(), label: 'Open the run sheet' },
+    link: {
+      url: new URL(runSheetPath(run.id), deps.config.publicUrl).toString(),
+      label: 'Open the run sheet',
+    },
   });
   await enqueueMail(tx, {
     to: await recipients(tx, run),

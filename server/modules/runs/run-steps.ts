@@ -56,14 +56,36 @@ export function buildSteps(doc: ProcedureDoc, snapshot: Snapshot): RunStep[] {
         const check =
           kind === 'confirm' && !a.live
             ? {}
-            : { check: { kind, heading: checkStepHeading(a), ...(a.threshold ? { threshold: a.threshold } : {}), ...(a.seconds ? { seconds: a.seconds } : {}) } };
-        steps.push({ id: a.id, kind: 'check', position, section, text: a.text, ...check, ...(isLiveCheck(a) ? { live: true } : {}) });
+            : {
+                check: {
+                  kind,
+                  heading: checkStepHeading(a),
+                  ...(a.threshold ? { threshold: a.threshold } : {}),
+                  ...(a.seconds ? { seconds: a.seconds } : {}),
+                },
+              };
+        steps.push({
+          id: a.id,
+          kind: 'check',
+          position,
+          section,
+          text: a.text,
+          ...check,
+          ...(isLiveCheck(a) ? { live: true } : {}),
+        });
       } else if (node.type === 'hazardNote') {
         const a = node.attrs as HazardNoteAttrs;
         // One line per paragraph, so the note reads as written.
         const text = (node.content ?? []).map(textOf).join('\n').trim();
         const flags = HAZARD_FLAGS.filter((f) => a.flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f]);
-        steps.push({ id: a.id, kind: 'hazard', position, section, text, hazard: { level: a.level, ...(flags.length ? { flags } : {}) } });
+        steps.push({
+          id: a.id,
+          kind: 'hazard',
+          position,
+          section,
+          text,
+          hazard: { level: a.level, ...(flags.length ? { flags } : {}) },
+        });
       }
     });
   }
@@ -86,7 +108,10 @@ export function isFinished(step: RunStep, entry: EntryState | undefined): boolea
 /** The first hazard note not yet acknowledged, and every step after it (locked until it is). */
 export function lockedSteps(steps: RunStep[], entries: Map<string, EntryState>) {
   const gate = steps.find((s) => s.kind === 'hazard' && !entries.get(s.id)?.done);
-  return { gate: gate ?? null, locked: gate ? steps.filter((s) => s.position > gate.position).map((s) => s.id) : [] };
+  return {
+    gate: gate ?? null,
+    locked: gate ? steps.filter((s) => s.position > gate.position).map((s) => s.id) : [],
+  };
 }
 
 export function progressOf(steps: RunStep[], entries: Map<string, EntryState>) {

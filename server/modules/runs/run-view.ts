@@ -1,7 +1,25 @@
 import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
-import type { EntryView, RevisionRecord, RunListItem, RunStatus, RunView } from '../../../shared/schemas/runs';
+import type {
+  EntryView,
+  RevisionRecord,
+  RunListItem,
+  RunStatus,
+  RunView,
+} from '../../../shared/schemas/runs';
 import type { Db } from '../../db/client';
-import { attachments, people, revisions, runEntries, runEntryHistory, runHandovers, runPhotos, runs, runSignatures, signatures, units } from '../../db/schema';
+import {
+  attachments,
+  people,
+  revisions,
+  runEntries,
+  runEntryHistory,
+  runHandovers,
+  runPhotos,
+  runs,
+  runSignatures,
+  signatures,
+  units,
+} from '../../db/schema';
 import { notFound } from '../../http/errors';
 import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
@@ -13,7 +31,12 @@ const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
 async function names(db: Db | Tx, ids: string[]) {
   const unique = [...new Set(ids)];
-  const rows = unique.length ? await db.select({ id: people.id, displayName: people.displayName }).from(people).where(inArray(people.id, unique)) : [];
+  const rows = unique.length
+    ? await db
+        .select({ id: people.id, displayName: people.displayName })
+        .from(people)
+        .where(inArray(people.id, unique))
+    : [];
   const map = new Map(rows.map((r) => [r.id, r]));
   return (id: string) => map.get(id) ?? { id, displayName: 'unknown' };
 }
@@ -22,11 +45,25 @@ type EntryRow = typeof runEntries.$inferSelect;
 type PhotoHash = RunContent['photos'][number];
 
 /** Photos with the SHA-256 their rows recorded, kept only where the stored bytes still hash to it. */
-const rehashed = (files: FileStore, photos: { id: string; stepId: string | null; sha256: string }[]): Promise<PhotoHash[]> =>
-  Promise.all(photos.map(async (p) => ({ id: p.id, stepId: p.stepId, sha256: (await files.exists(p.sha256)) ? p.sha256 : null })));
+const rehashed = (
+  files: FileStore,
+  photos: { id: string; stepId: string | null; sha256: string }[],
+): Promise<PhotoHash[]> =>
+  Promise.all(
+    photos.map(async (p) => ({
+      id: p.id,
+      stepId: p.stepId,
+      sha256: (await files.exists(p.sha256)) ? p.sha256 : null,
+    })),
+  );
 
 /** The canonical content a technician's signature covers, from what is stored now (photos re-hashed). */
-export async function runContent(db: Db | Tx, files: FileStore, run: RunRow, unit: RunContent['unit']): Promise<RunContent> {
+export async function runContent(
+  db: Db | Tx,
+  files: FileStore,
+  run: RunRow,
+  unit: RunContent['unit'],
+): Promise<RunContent> {
   const [entries, photos] = await Promise.all([
     db.select().from(runEntries).where(eq(runEntries.runId, run.id)),
     db
@@ -39,7 +76,12 @@ export async function runContent(db: Db | Tx, files: FileStore, run: RunRow, uni
 }
 
 /** The same, from entries and photos already read. */
-function contentOf(run: RunRow, unit: RunContent['unit'], entries: EntryRow[], photos: PhotoHash[]): RunContent {
+function contentOf(
+  run: RunRow,
+  unit: RunContent['unit'],
+  entries: EntryRow[],
+  photos: PhotoHash[],
+): RunContent {
   return {
     runId: run.id,
     revision: { id: run.revisionId, number: run.revisionNumber, hash: run.revisionHash },
@@ -63,14 +105,27 @@ function contentOf(run: RunRow, unit: RunContent['unit'], entries: EntryRow[], p
   };
 }
 
-export const unitRecordOf = (u: typeof units.$inferSelect) => ({ id: u.id, model: u.model, serial: u.serial, owner: u.owner, jobNumber: u.jobNumber });
+export const unitRecordOf = (u: typeof units.$inferSelect) => ({
+  id: u.id,
+  model: u.model,
+  serial: u.serial,
+  owner: u.owner,
+  jobNumber: u.jobNumber,
+});
 
 /** The revision a run followed, with its approval record (reviewer sign-offs when recorded). */
 export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<RevisionRecord> {
   // Only the record's columns: the revision's document, snapshot and HTML stay in the database.
   const [[rev], signOffs] = await Promise.all([
     db
-      .select({ id: revisions.id, number: revisions.number, state: revisions.state, title: revisions.title, decidedAt: revisions.decidedAt, author: { id: people.id, displayName: people.displayName } })
+      .select({
+        id: revisions.id,
+        number: revisions.number,
+        state: revisions.state,
+        title: revisions.title,
+        decidedAt: revisions.decidedAt,
+        author: { id: people.id, displayName: people.displayName },
+      })
       .from(revisions)
       .innerJoin(people, eq(people.id, revisions.authorId))
       .where(eq(revisions.id, run.revisionId)),
@@ -93,23 +148,43 @@ export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<Revision
 }
 
 /** A run as the client shows it; pass the run row when it was just read (under its lock) to save reading it again. */
-export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, known?: RunRow): Promise<RunView> {
+export async function loadRunView(
+  db: Db | Tx,
+  files: FileStore,
+  runId: string,
+  known?: RunRow,
+): Promise<RunView> {
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
   const [[unit], entries, history, photos, [signature], revision, handovers, hold] = await Promise.all([
     db.select().from(units).where(eq(units.id, run.unitId)),
     db.select().from(runEntries).where(eq(runEntries.runId, runId)),
-    db.select().from(runEntryHistory).where(eq(runEntryHistory.runId, runId)).orderBy(asc(runEntryHistory.id)),
     db
-      .select({ id: runPhotos.id, stepId: runPhotos.stepId, attachmentId: runPhotos.attachmentId, addedBy: runPhotos.addedBy, addedAt: runPhotos.addedAt, sha256: attachments.sha256 })
+      .select()
+      .from(runEntryHistory)
+      .where(eq(runEntryHistory.runId, runId))
+      .orderBy(asc(runEntryHistory.id)),
+    db
+      .select({
+        id: runPhotos.id,
+        stepId: runPhotos.stepId,
+        attachmentId: runPhotos.attachmentId,
+        addedBy: runPhotos.addedBy,
+        addedAt: runPhotos.addedAt,
+        sha256: attachments.sha256,
+      })
       .from(runPhotos)
       .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
       .where(eq(runPhotos.runId, runId))
       .orderBy(asc(runPhotos.addedAt)),
     db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
     revisionRecord(db, run),
-    db.select().from(runHandovers).where(eq(runHandovers.runId, runId)).orderBy(asc(runHandovers.at), asc(runHandovers.id)),
+    db
+      .select()
+      .from(runHandovers)
+      .where(eq(runHandovers.runId, runId))
+      .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
     holdOf(db, run),
   ]);
   const who = await names(db, [
@@ -160,14 +235,16 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
   const unitNow = unitRecordOf(unit!);
   let verified = false;
   // Signed since the given row was read: read the run again, as signed.
-  if (signature && run.status !== 'signed') [run] = (await db.select().from(runs).where(eq(runs.id, runId))) as [RunRow];
+  if (signature && run.status !== 'signed')
+    [run] = (await db.select().from(runs).where(eq(runs.id, runId))) as [RunRow];
   if (signature) {
     // A signed run's entries and photos cannot change (triggers), so the ones read above are what was
     // signed; the photos' bytes are hashed again, so a file altered or gone shows here.
     const photoHashes = await rehashed(files, photos);
     verified =
       photoHashes.every((p) => p.sha256 !== null) &&
-      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes)) === signature.contentHash &&
+      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes)) ===
+        signature.contentHash &&
       signature.contentHash === run.contentHash;
   }
   return {
@@ -181,7 +258,13 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
     snapshot: run.snapshot,
     steps: run.steps,
     entries: entryViews,
-    photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, url: `/api/attachments/${p.attachmentId}`, addedBy: who(p.addedBy), addedAt: p.addedAt.toISOString() })),
+    photos: photos.map((p) => ({
+      id: p.id,
+      stepId: p.stepId,
+      url: `/api/attachments/${p.attachmentId}`,
+      addedBy: who(p.addedBy),
+      addedAt: p.addedAt.toISOString(),
+    })),
     signature: signature
       ? {
           signer: { id: signature.signerId, displayName: signature.signerName },
@@ -204,7 +287,10 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
       at: h.at.toISOString(),
     })),
     hold,
-    closed: run.status === 'abandoned' && run.closedBy ? { by: who(run.closedBy), reason: run.closeReason ?? '', at: iso(run.closedAt)! } : null,
+    closed:
+      run.status === 'abandoned' && run.closedBy
+        ? { by: who(run.closedBy), reason: run.closeReason ?? '', at: iso(run.closedAt)! }
+        : null,
     startedAt: run.startedAt.toISOString(),
     signedAt: iso(run.signedAt),
     progress: progressOf(run.steps, state),
@@ -212,13 +298,20 @@ export async function loadRunView(db: Db | Tx, files: FileStore, runId: string, 
   };
 }
 
-export async function listRuns(db: Db, filter: { status?: RunStatus; unitId?: string; performedBy?: string }): Promise<RunListItem[]> {
+export async function listRuns(
+  db: Db,
+  filter: { status?: RunStatus; unitId?: string; performedBy?: string },
+): Promise<RunListItem[]> {
   const where: SQL[] = [];
   if (filter.status) where.push(eq(runs.status, filter.status));
   if (filter.unitId) where.push(eq(runs.unitId, filter.unitId));
   if (filter.performedBy) where.push(eq(runs.performedBy, filter.performedBy));
   const rows = await db
-    .select({ run: runs, unit: { id: units.id, model: units.model, serial: units.serial }, revisionState: revisions.state })
+    .select({
+      run: runs,
+      unit: { id: units.id, model: units.model, serial: units.serial },
+      revisionState: revisions.state,
+    })
     .from(runs)
     .innerJoin(units, eq(units.id, runs.unitId))
     .innerJoin(revisions, eq(revisions.id, runs.revisionId))
@@ -227,9 +320,21 @@ export async function listRuns(db: Db, filter: { status?: RunStatus; unitId?: st
     .limit(200);
   const ids = rows.map((r) => r.run.id);
   const entries = ids.length
-    ? await db.select({ runId: runEntries.runId, stepId: runEntries.stepId, measured: runEntries.measured, done: runEntries.done, within: runEntries.within }).from(runEntries).where(inArray(runEntries.runId, ids))
+    ? await db
+        .select({
+          runId: runEntries.runId,
+          stepId: runEntries.stepId,
+          measured: runEntries.measured,
+          done: runEntries.done,
+          within: runEntries.within,
+        })
+        .from(runEntries)
+        .where(inArray(runEntries.runId, ids))
     : [];
-  const who = await names(db, rows.flatMap((r) => [r.run.startedBy, r.run.performedBy]));
+  const who = await names(
+    db,
+    rows.flatMap((r) => [r.run.startedBy, r.run.performedBy]),
+  );
   return rows.map(({ run, unit, revisionState }) => {
     const state = new Map(entries.filter((e) => e.runId === run.id).map((e) => [e.stepId, e]));
     const p = progressOf(run.steps, state);

@@ -1,7 +1,14 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { BLOCK_ID } from '../../../shared/document/schema';
-import { abandonBody, entryBody, handoverBody, runListQuery, signRunBody, startRunBody } from '../../../shared/schemas/runs';
+import {
+  abandonBody,
+  entryBody,
+  handoverBody,
+  runListQuery,
+  signRunBody,
+  startRunBody,
+} from '../../../shared/schemas/runs';
 import { people, runPhotos, runs } from '../../db/schema';
 import { badRequest, notFound } from '../../http/errors';
 import { defineRoute } from '../../http/route';
@@ -13,7 +20,9 @@ import { listRuns, loadRunView } from './run-view';
 import { recordEntry, startRun } from './runs.service';
 
 const runParams = z.object({ id: z.uuid('not a valid run id') }).strict();
-const entryParams = z.object({ id: z.uuid('not a valid run id'), stepId: z.string().regex(BLOCK_ID, 'not a valid step id') }).strict();
+const entryParams = z
+  .object({ id: z.uuid('not a valid run id'), stepId: z.string().regex(BLOCK_ID, 'not a valid step id') })
+  .strict();
 
 export const runRoutes = [
   defineRoute({
@@ -23,7 +32,11 @@ export const runRoutes = [
     summary: 'Bench runs, newest first (filter by status, unit, or mine=1)',
     query: runListQuery,
     handler: async ({ query, user, deps }) => ({
-      runs: await listRuns(deps.db, { status: query.status, unitId: query.unitId, performedBy: query.mine ? user!.id : undefined }),
+      runs: await listRuns(deps.db, {
+        status: query.status,
+        unitId: query.unitId,
+        performedBy: query.mine ? user!.id : undefined,
+      }),
     }),
   }),
 
@@ -46,7 +59,8 @@ export const runRoutes = [
     method: 'post',
     path: '/runs',
     access: ['technician'],
-    summary: 'Start a bench run on an approved revision and a unit, with the measured mains (409 unless approved)',
+    summary:
+      'Start a bench run on an approved revision and a unit, with the measured mains (409 unless approved)',
     body: startRunBody,
     handler: async ({ res, body, user, deps }) => {
       const { run, created } = await startRun(deps.db, deps.files, user!, body);
@@ -68,7 +82,8 @@ export const runRoutes = [
     method: 'put',
     path: '/runs/:id/entries/:stepId',
     access: ['technician'],
-    summary: 'Record a reading, tick a check step or acknowledge a hazard note (idempotent by key; the server decides within/out)',
+    summary:
+      'Record a reading, tick a check step or acknowledge a hazard note (idempotent by key; the server decides within/out)',
     params: entryParams,
     body: entryBody,
     handler: async ({ params, body, user, deps }) => {
@@ -90,11 +105,25 @@ export const runRoutes = [
       const [run] = await deps.db.select().from(runs).where(eq(runs.id, params.id));
       if (!run) throw notFound('No such bench run.');
       await assertWritable(deps.db, run, user!);
-      if (stepId !== null && !run.steps.some((s) => s.id === stepId)) throw badRequest('body.stepId: no such step in this run', [{ field: 'body.stepId', reason: 'no such step in this run' }]);
+      if (stepId !== null && !run.steps.some((s) => s.id === stepId))
+        throw badRequest('body.stepId: no such step in this run', [
+          { field: 'body.stepId', reason: 'no such step in this run' },
+        ]);
       const attachment = await storePhoto(deps, req.file, user!.id);
-      const [photo] = await deps.db.insert(runPhotos).values({ runId: params.id, stepId, attachmentId: attachment.id, addedBy: user!.id }).returning();
+      const [photo] = await deps.db
+        .insert(runPhotos)
+        .values({ runId: params.id, stepId, attachmentId: attachment.id, addedBy: user!.id })
+        .returning();
       res.status(201);
-      return { photo: { id: photo!.id, stepId, url: `/api/attachments/${attachment.id}`, addedBy: { id: user!.id, displayName: user!.displayName }, addedAt: photo!.addedAt.toISOString() } };
+      return {
+        photo: {
+          id: photo!.id,
+          stepId,
+          url: `/api/attachments/${attachment.id}`,
+          addedBy: { id: user!.id, displayName: user!.displayName },
+          addedAt: photo!.addedAt.toISOString(),
+        },
+      };
     },
   }),
 
@@ -102,7 +131,8 @@ export const runRoutes = [
     method: 'post',
     path: '/runs/:id/sign',
     access: ['technician'],
-    summary: 'Sign the run sheet as performed (password again; 409 naming unfinished steps); then it is immutable',
+    summary:
+      'Sign the run sheet as performed (password again; 409 naming unfinished steps); then it is immutable',
     params: runParams,
     body: signRunBody,
     handler: async ({ req, params, body, user, deps }) => {
@@ -115,7 +145,8 @@ export const runRoutes = [
     method: 'post',
     path: '/runs/:id/handover',
     access: ['technician', 'admin'],
-    summary: 'Hand an open run over to another technician, with a reason (its performer, or an admin); recorded, audited and named on the sheet',
+    summary:
+      'Hand an open run over to another technician, with a reason (its performer, or an admin); recorded, audited and named on the sheet',
     params: runParams,
     body: handoverBody,
     handler: async ({ req, params, body, user, deps }) => {
@@ -128,7 +159,8 @@ export const runRoutes = [
     method: 'post',
     path: '/runs/:id/abandon',
     access: ['technician', 'admin'],
-    summary: 'Close an open run as abandoned, with a reason (its performer, or an admin); audited, then nothing on it changes',
+    summary:
+      'Close an open run as abandoned, with a reason (its performer, or an admin); audited, then nothing on it changes',
     params: runParams,
     body: abandonBody,
     handler: async ({ req, params, body, user, deps }) => {
@@ -141,12 +173,16 @@ export const runRoutes = [
     method: 'get',
     path: '/runs/:id/sheet.pdf',
     access: 'signed-in',
-    summary: 'The run sheet as a PDF for the customer’s file, with the safety caution and the revision’s approval record',
+    summary:
+      'The run sheet as a PDF for the customer’s file, with the safety caution and the revision’s approval record',
     params: runParams,
     handler: async ({ res, params, deps }) => {
       const run = await loadRunView(deps.db, deps.files, params.id);
       const pdf = await renderRunSheetPdf(run);
-      const name = `run-sheet-${run.unit.model}-${run.unit.serial}-${run.id.slice(0, 8)}.pdf`.replace(/[^A-Za-z0-9._-]/g, '_');
+      const name = `run-sheet-${run.unit.model}-${run.unit.serial}-${run.id.slice(0, 8)}.pdf`.replace(
+        /[^A-Za-z0-9._-]/g,
+        '_',
+      );
       res.set({
         'Content-Type': 'application/pdf',
         'Content-Length': String(pdf.length),

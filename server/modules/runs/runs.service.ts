@@ -33,21 +33,37 @@ export async function startRun(db: Db, files: FileStore, user: SessionUser, body
           existing.params.mainsVoltage === body.mainsVoltage &&
           existing.params.mainsFrequency === body.mainsFrequency;
         if (!same) {
-          throw new HttpError(422, 'This start key was already used for a different run; nothing was started. Start again with a new key.', {
-            fields: [{ field: 'body.key', reason: 'already used with a different request' }],
-          });
+          throw new HttpError(
+            422,
+            'This start key was already used for a different run; nothing was started. Start again with a new key.',
+            {
+              fields: [{ field: 'body.key', reason: 'already used with a different request' }],
+            },
+          );
         }
         return { run: existing, created: false };
       }
     }
-    const [revision] = await tx.select().from(revisions).where(eq(revisions.id, body.revisionId)).for('share');
+    const [revision] = await tx
+      .select()
+      .from(revisions)
+      .where(eq(revisions.id, body.revisionId))
+      .for('share');
     if (!revision) throw notFound('No such revision.');
     if (revision.state !== 'approved') {
-      throw conflict(`Revision ${revision.number} of “${short(revision.title)}” is ${revision.state.replace('_', ' ')}; bench runs follow approved revisions only.`, { state: revision.state });
+      throw conflict(
+        `Revision ${revision.number} of “${short(revision.title)}” is ${revision.state.replace('_', ' ')}; bench runs follow approved revisions only.`,
+        { state: revision.state },
+      );
     }
     const [unit] = await tx.select().from(units).where(eq(units.id, body.unitId));
-    if (!unit) throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);
-    const params = { ...revision.params, mainsVoltage: body.mainsVoltage, mainsFrequency: body.mainsFrequency };
+    if (!unit)
+      throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);
+    const params = {
+      ...revision.params,
+      mainsVoltage: body.mainsVoltage,
+      mainsFrequency: body.mainsFrequency,
+    };
     const snapshot = evaluateDocument(revision.document, params);
     const [run] = await tx
       .insert(runs)
@@ -72,7 +88,16 @@ export async function startRun(db: Db, files: FileStore, user: SessionUser, body
 
 /** What an idempotency key stands for: the step and everything the body asks for. */
 const entryRequestHash = (runId: string, stepId: string, body: EntryBody) =>
-  sha256Hex(canonicalJson({ runId, stepId, value: body.value, done: body.done, note: body.note, reason: body.reason }));
+  sha256Hex(
+    canonicalJson({
+      runId,
+      stepId,
+      value: body.value,
+      done: body.done,
+      note: body.note,
+      reason: body.reason,
+    }),
+  );
 
 const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) => [e.stepId, e]));
 
@@ -83,19 +108,33 @@ const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) =
 export async function recordEntry(db: Db, user: SessionUser, runId: string, stepId: string, body: EntryBody) {
   // An entry carries who made it on the tablet; it is never recorded in another person's name.
   if (body.by !== undefined && body.by !== user.id) {
-    throw conflict('This entry was made by someone else; it can only be sent from their own session.', { code: 'not-the-maker', fields: [{ field: 'body.by', reason: 'not the signed-in person' }] });
+    throw conflict('This entry was made by someone else; it can only be sent from their own session.', {
+      code: 'not-the-maker',
+      fields: [{ field: 'body.by', reason: 'not the signed-in person' }],
+    });
   }
   return db.transaction(async (tx) => {
     const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
     if (!run) throw notFound('No such bench run.');
-    const [seen] = await tx.select().from(runEntryHistory).where(eq(runEntryHistory.idempotencyKey, body.key));
+    const [seen] = await tx
+      .select()
+      .from(runEntryHistory)
+      .where(eq(runEntryHistory.idempotencyKey, body.key));
     const requestHash = entryRequestHash(runId, stepId, body);
     if (seen) {
       // A resend is the same request; the same key with anything else would silently drop the new value.
-      if (seen.runId !== runId || seen.stepId !== stepId || (seen.requestHash !== null && seen.requestHash !== requestHash)) {
-        throw new HttpError(422, 'This idempotency key was already used for a different entry; nothing was recorded. Send the entry again with a new key.', {
-          fields: [{ field: 'body.key', reason: 'already used with a different request' }],
-        });
+      if (
+        seen.runId !== runId ||
+        seen.stepId !== stepId ||
+        (seen.requestHash !== null && seen.requestHash !== requestHash)
+      ) {
+        throw new HttpError(
+          422,
+          'This idempotency key was already used for a different entry; nothing was recorded. Send the entry again with a new key.',
+          {
+            fields: [{ field: 'body.key', reason: 'already used with a different request' }],
+          },
+        );
       }
       return { replayed: true, run };
     }
@@ -105,7 +144,10 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
     const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
     const { gate, locked } = lockedSteps(run.steps, stateOf(rows));
     if (gate && locked.includes(stepId)) {
-      throw conflict(`Acknowledge the hazard note “${short(gate.text)}” (step ${gate.position}) before the steps after it.`, { hazardNoteId: gate.id });
+      throw conflict(
+        `Acknowledge the hazard note “${short(gate.text)}” (step ${gate.position}) before the steps after it.`,
+        { hazardNoteId: gate.id },
+      );
     }
     const existing = rows.find((r) => r.stepId === stepId);
     checkEntryShape(step, body, !!existing);
@@ -114,9 +156,13 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
     if (step.kind === 'reading' && body.value !== undefined) reading = decideReading(step, body.value);
     const done = step.kind === 'reading' ? false : (body.done ?? existing?.done ?? false);
     const changesMeasurement =
-      !!existing && ((reading && existing.measured !== null && reading.measured !== existing.measured) || (existing.done && !done));
+      !!existing &&
+      ((reading && existing.measured !== null && reading.measured !== existing.measured) ||
+        (existing.done && !done));
     if (changesMeasurement && !body.reason) {
-      throw badRequest('body.reason: say why a recorded entry is being changed', [{ field: 'body.reason', reason: 'required when changing a recorded entry' }]);
+      throw badRequest('body.reason: say why a recorded entry is being changed', [
+        { field: 'body.reason', reason: 'required when changing a recorded entry' },
+      ]);
     }
     const values = {
       ...(reading ?? {}),
@@ -133,7 +179,10 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
         .where(and(eq(runEntries.id, existing.id)))
         .returning()) as [EntryRow];
     } else {
-      [entry] = (await tx.insert(runEntries).values({ ...values, runId, stepId, kind: step.kind }).returning()) as [EntryRow];
+      [entry] = (await tx
+        .insert(runEntries)
+        .values({ ...values, runId, stepId, kind: step.kind })
+        .returning()) as [EntryRow];
     }
     await tx.insert(runEntryHistory).values({
       runId,
@@ -153,7 +202,8 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
     });
     // The run row is locked, so its entries are exactly `rows` with this one put in.
     const outOfTolerance = [...rows.filter((r) => r.id !== entry.id), entry].some((r) => r.within === false);
-    if (outOfTolerance !== run.outOfTolerance) await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
+    if (outOfTolerance !== run.outOfTolerance)
+      await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
     return { replayed: false, run: { ...run, outOfTolerance } };
   });
 }

@@ -19,7 +19,12 @@ export const searchRoutes = [
     query: searchQuery,
     handler: ({ query, deps }) => {
       if (!deps.search) throw new HttpError(503, 'Search is starting up; try again in a moment.');
-      return deps.search.index.search(query.q, { family: query.family, tag: query.tag?.toLowerCase(), page: query.page, pageSize: query.pageSize });
+      return deps.search.index.search(query.q, {
+        family: query.family,
+        tag: query.tag?.toLowerCase(),
+        page: query.page,
+        pageSize: query.pageSize,
+      });
     },
   }),
 ];

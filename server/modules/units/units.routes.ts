@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { unitBody, unitListQuery, updateUnitBody } from '../../../shared/schemas/units';
 import { people, unitPhotos, units } from '../../db/schema';
 import { conflict, notFound } from '../../http/errors';
+import { oneLine } from '../../http/clean-text';
 import { defineRoute } from '../../http/route';
 import { receivePhoto, storePhoto } from '../runs/photo-upload';
 import { listUnits, unitRuns, unitTrend, unitView } from './units.service';
@@ -11,11 +12,20 @@ import { listUnits, unitRuns, unitTrend, unitView } from './units.service';
 const KEEPERS = ['technician', 'author', 'reviewer', 'admin'] as const;
 const unitParams = z.object({ id: z.uuid('not a valid unit id') }).strict();
 
-const isUniqueViolation = (err: unknown) => (err as { code?: string; cause?: { code?: string } })?.code === '23505' || (err as { cause?: { code?: string } })?.cause?.code === '23505';
-const duplicate = () => conflict('A unit with this model and serial is already in the register.', { fields: [{ field: 'body.serial', reason: 'already registered for this model' }] });
+const isUniqueViolation = (err: unknown) =>
+  (err as { code?: string; cause?: { code?: string } })?.code === '23505' ||
+  (err as { cause?: { code?: string } })?.cause?.code === '23505';
+const duplicate = () =>
+  conflict('A unit with this model and serial is already in the register.', {
+    fields: [{ field: 'body.serial', reason: 'already registered for this model' }],
+  });
 
 async function byId(db: Parameters<typeof listUnits>[0], id: string) {
-  const [row] = await db.select({ unit: units, by: { id: people.id, displayName: people.displayName } }).from(units).innerJoin(people, eq(people.id, units.createdBy)).where(eq(units.id, id));
+  const [row] = await db
+    .select({ unit: units, by: { id: people.id, displayName: people.displayName } })
+    .from(units)
+    .innerJoin(people, eq(people.id, units.createdBy))
+    .where(eq(units.id, id));
   if (!row) throw notFound('No such unit.');
   return unitView(row.unit, row.by);
 }
@@ -38,7 +48,10 @@ export const unitRoutes = [
     body: unitBody,
     handler: async ({ res, body, user, deps }) => {
       try {
-        const [row] = await deps.db.insert(units).values({ ...body, createdBy: user!.id }).returning();
+        const [row] = await deps.db
+          .insert(units)
+          .values({ ...body, createdBy: user!.id })
+          .returning();
         res.status(201);
         return { unit: await byId(deps.db, row!.id) };
       } catch (err) {
@@ -56,10 +69,20 @@ export const unitRoutes = [
     params: unitParams,
     handler: async ({ params, deps }) => {
       const unit = await byId(deps.db, params.id);
-      const photos = await deps.db.select().from(unitPhotos).where(eq(unitPhotos.unitId, params.id)).orderBy(asc(unitPhotos.addedAt));
+      const photos = await deps.db
+        .select()
+        .from(unitPhotos)
+        .where(eq(unitPhotos.unitId, params.id))
+        .orderBy(asc(unitPhotos.addedAt));
       return {
         unit,
-        photos: photos.map((p) => ({ id: p.id, attachmentId: p.attachmentId, url: `/api/attachments/${p.attachmentId}`, caption: p.caption, addedAt: p.addedAt.toISOString() })),
+        photos: photos.map((p) => ({
+          id: p.id,
+          attachmentId: p.attachmentId,
+          url: `/api/attachments/${p.attachmentId}`,
+          caption: p.caption,
+          addedAt: p.addedAt.toISOString(),
+        })),
         runs: await unitRuns(deps.db, params.id),
       };
     },
@@ -82,7 +105,9 @@ export const unitRoutes = [
           .returning();
         if (!row) {
           const current = await byId(deps.db, params.id);
-          throw conflict('Someone changed this unit after you opened it; here is the current record.', { current });
+          throw conflict('Someone changed this unit after you opened it; here is the current record.', {
+            current,
+          });
         }
         return { unit: await byId(deps.db, row.id) };
       } catch (err) {
@@ -101,11 +126,22 @@ export const unitRoutes = [
     before: receivePhoto,
     handler: async ({ req, res, params, user, deps }) => {
       await byId(deps.db, params.id);
-      const caption = typeof req.body?.caption === 'string' ? req.body.caption.replace(/[\u0000-\u001f\u007f]/g, ' ').slice(0, 200) : '';
+      const caption = typeof req.body?.caption === 'string' ? oneLine(req.body.caption, 200) : '';
       const attachment = await storePhoto(deps, req.file, user!.id);
-      const [photo] = await deps.db.insert(unitPhotos).values({ unitId: params.id, attachmentId: attachment.id, caption, addedBy: user!.id }).returning();
+      const [photo] = await deps.db
+        .insert(unitPhotos)
+        .values({ unitId: params.id, attachmentId: attachment.id, caption, addedBy: user!.id })
+        .returning();
       res.status(201);
-      return { photo: { id: photo!.id, attachmentId: attachment.id, url: `/api/attachments/${attachment.id}`, caption, addedAt: photo!.addedAt.toISOString() } };
+      return {
+        photo: {
+          id: photo!.id,
+          attachmentId: attachment.id,
+          url: `/api/attachments/${attachment.id}`,
+          caption,
+          addedAt: photo!.addedAt.toISOString(),
+        },
+      };
     },
   }),
 

@@ -23,28 +23,58 @@ export function unitView(row: UnitRow, createdBy: { id: string; displayName: str
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
 /** The register: search over model, serial, owner, job number and notes; filter by model and run state. */
-export async function listUnits(db: Db, filter: { q?: string; model?: string; state?: 'open-run' | 'out' | 'never-run' }) {
+export async function listUnits(
+  db: Db,
+  filter: { q?: string; model?: string; state?: 'open-run' | 'out' | 'never-run' },
+) {
   const where: SQL[] = [];
   if (filter.q) {
     const like = `%${escapeLike(filter.q)}%`;
-    where.push(or(ilike(units.model, like), ilike(units.serial, like), ilike(units.owner, like), ilike(units.jobNumber, like), ilike(units.notes, like))!);
+    where.push(
+      or(
+        ilike(units.model, like),
+        ilike(units.serial, like),
+        ilike(units.owner, like),
+        ilike(units.jobNumber, like),
+        ilike(units.notes, like),
+      )!,
+    );
   }
   if (filter.model) where.push(eq(units.model, filter.model));
-  const runCount = sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id})`.mapWith(Number);
-  const openRuns = sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id} and ${runs.status} = 'in_progress')`.mapWith(Number);
-  const outRuns = sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id} and ${runs.outOfTolerance})`.mapWith(Number);
-  const lastRunAt = sql<string | null>`(select max(${runs.startedAt}) from ${runs} where ${runs.unitId} = ${units.id})`;
+  const runCount = sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id})`.mapWith(
+    Number,
+  );
+  const openRuns =
+    sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id} and ${runs.status} = 'in_progress')`.mapWith(
+      Number,
+    );
+  const outRuns =
+    sql<number>`(select count(*) from ${runs} where ${runs.unitId} = ${units.id} and ${runs.outOfTolerance})`.mapWith(
+      Number,
+    );
+  const lastRunAt = sql<
+    string | null
+  >`(select max(${runs.startedAt}) from ${runs} where ${runs.unitId} = ${units.id})`;
   if (filter.state === 'open-run') where.push(sql`${openRuns} > 0`);
   if (filter.state === 'out') where.push(sql`${outRuns} > 0`);
   if (filter.state === 'never-run') where.push(sql`${runCount} = 0`);
   const rows = await db
-    .select({ unit: units, by: { id: people.id, displayName: people.displayName }, runCount, openRuns, outRuns, lastRunAt })
+    .select({
+      unit: units,
+      by: { id: people.id, displayName: people.displayName },
+      runCount,
+      openRuns,
+      outRuns,
+      lastRunAt,
+    })
     .from(units)
     .innerJoin(people, eq(people.id, units.createdBy))
     .where(where.length ? and(...where) : undefined)
     .orderBy(desc(units.updatedAt))
     .limit(500);
-  const models = (await db.selectDistinct({ model: units.model }).from(units).orderBy(asc(units.model))).map((m) => m.model);
+  const models = (await db.selectDistinct({ model: units.model }).from(units).orderBy(asc(units.model))).map(
+    (m) => m.model,
+  );
   const list: UnitListItem[] = rows.map((r) => ({
     ...unitView(r.unit, r.by),
     runCount: r.runCount,
@@ -78,15 +108,31 @@ export async function unitRuns(db: Db, unitId: string): Promise<UnitRunSummary[]
 /** One reading (by its id in the procedure) across every run on this unit, oldest first. */
 export async function unitTrend(db: Db, unitId: string, readingId: string | undefined): Promise<TrendView> {
   const rows = await db
-    .select({ run: { id: runs.id, startedAt: runs.startedAt, revisionNumber: runs.revisionNumber, params: runs.params, steps: runs.steps }, entry: runEntries })
+    .select({
+      run: {
+        id: runs.id,
+        startedAt: runs.startedAt,
+        revisionNumber: runs.revisionNumber,
+        params: runs.params,
+        steps: runs.steps,
+      },
+      entry: runEntries,
+    })
     .from(runEntries)
     .innerJoin(runs, eq(runs.id, runEntries.runId))
-    .where(and(eq(runs.unitId, unitId), eq(runEntries.kind, 'reading'), sql`${runEntries.measured} is not null`))
+    .where(
+      and(eq(runs.unitId, unitId), eq(runEntries.kind, 'reading'), sql`${runEntries.measured} is not null`),
+    )
     .orderBy(asc(runs.startedAt));
   const readings = new Map<string, { id: string; label: string; unit: string; count: number }>();
   for (const { run, entry } of rows) {
     const step = run.steps.find((s) => s.id === entry.stepId);
-    const item = readings.get(entry.stepId) ?? { id: entry.stepId, label: step?.text ?? entry.stepId, unit: entry.unit ?? '', count: 0 };
+    const item = readings.get(entry.stepId) ?? {
+      id: entry.stepId,
+      label: step?.text ?? entry.stepId,
+      unit: entry.unit ?? '',
+      count: 0,
+    };
     item.count++;
     readings.set(entry.stepId, item);
   }

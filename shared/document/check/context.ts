@@ -13,11 +13,13 @@ export function buildContext(doc: ProcedureDoc, snapshot: Snapshot, options: Che
     ...blocks.readings.map((step) => ({ type: 'reading' as const, step })),
   ].sort((a, b) => a.step.order - b.step.order);
 
-  const notesBefore = (at: Placed): CheckedNote[] => blocks.hazardNotes.filter((n) => n.section === at.section && n.order < at.order);
+  const notesBefore = (at: Placed): CheckedNote[] =>
+    blocks.hazardNotes.filter((n) => n.section === at.section && n.order < at.order);
   const flagsInScope = (at: Placed) => {
     const opening = blocks.hazardNotes.filter((n) => n.section === OPENING && n.order < at.order);
     const flags = new Set<HazardFlag>();
-    for (const n of [...opening, ...notesBefore(at)]) for (const f of HAZARD_FLAGS) if (n.flags?.[f]) flags.add(f);
+    for (const n of [...opening, ...notesBefore(at)])
+      for (const f of HAZARD_FLAGS) if (n.flags?.[f]) flags.add(f);
     return flags;
   };
 

@@ -46,8 +46,15 @@ export const RULES: readonly Rule[] = [
 ];
 
 /** Runs every rule. A bare number as the third argument is the safe voltage (the older call). */
-export function lintProcedure(doc: ProcedureDoc, snapshot: Snapshot, options: number | Partial<CheckOptions> = {}): LintWarning[] {
-  const opts: CheckOptions = { ...DEFAULT_CHECK_OPTIONS, ...(typeof options === 'number' ? { safeVoltage: options } : options) };
+export function lintProcedure(
+  doc: ProcedureDoc,
+  snapshot: Snapshot,
+  options: number | Partial<CheckOptions> = {},
+): LintWarning[] {
+  const opts: CheckOptions = {
+    ...DEFAULT_CHECK_OPTIONS,
+    ...(typeof options === 'number' ? { safeVoltage: options } : options),
+  };
   const ctx = buildContext(doc, snapshot, opts);
   return RULES.flatMap((rule): LintWarning[] => {
     let findings;
@@ -56,7 +63,14 @@ export function lintProcedure(doc: ProcedureDoc, snapshot: Snapshot, options: nu
     } catch (e) {
       // The editor runs the check on every keystroke: one rule tripping over a half-typed value must
       // not take the editor down, nor pass silently.
-      return [{ code: 'procedure-error', level: 'warning', blockId: null, message: `The check for ${rule.code} could not run: ${e instanceof Error ? e.message : String(e)}` }];
+      return [
+        {
+          code: 'procedure-error',
+          level: 'warning',
+          blockId: null,
+          message: `The check for ${rule.code} could not run: ${e instanceof Error ? e.message : String(e)}`,
+        },
+      ];
     }
     return findings.map((f) => ({
       code: rule.code,

@@ -32,7 +32,10 @@ export function fieldLabel(kind: string, path: string, input?: Record<string, un
 }
 
 /** Every declared field of a block with its dotted path and value in the block's input (rows expanded). */
-export function fieldsOf(kind: string, input: Record<string, unknown>): { spec: FieldSpec; path: string; value: unknown }[] {
+export function fieldsOf(
+  kind: string,
+  input: Record<string, unknown>,
+): { spec: FieldSpec; path: string; value: unknown }[] {
   const out: { spec: FieldSpec; path: string; value: unknown }[] = [];
   eachField(getReckoner(kind)?.fields ?? [], input, (spec, path, value) => out.push({ spec, path, value }));
   return out;

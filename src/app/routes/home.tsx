@@ -5,7 +5,13 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 
 /** What each role comes here to do; a person with several roles sees each of their panels. */
-const PANELS: { role: Role; title: string; body: string; link?: { to: string; label: string }; more?: { to: string; label: string }[] }[] = [
+const PANELS: {
+  role: Role;
+  title: string;
+  body: string;
+  link?: { to: string; label: string };
+  more?: { to: string; label: string }[];
+}[] = [
   {
     role: 'technician',
     title: 'Bench work',
@@ -50,7 +56,11 @@ export default function Home() {
       <h1 className="text-2xl font-semibold">Good to see you, {user.displayName.split(' ')[0]}</h1>
       <div className="mt-6 grid gap-4 md:grid-cols-2">
         {panels.map((p) => (
-          <article key={p.role} data-role-panel={p.role} className="rounded-lg border border-rule bg-card p-5">
+          <article
+            key={p.role}
+            data-role-panel={p.role}
+            className="rounded-lg border border-rule bg-card p-5"
+          >
             <h2 className="text-lg font-semibold text-accent-deep">{p.title}</h2>
             <p className="mt-2 text-sm leading-relaxed">{p.body}</p>
             {p.link && (
@@ -59,7 +69,11 @@ export default function Home() {
               </Link>
             )}
             {p.more?.map((l) => (
-              <Link key={l.to} to={l.to} className="ml-4 mt-4 inline-block font-semibold text-accent underline">
+              <Link
+                key={l.to}
+                to={l.to}
+                className="ml-4 mt-4 inline-block font-semibold text-accent underline"
+              >
                 {l.label}
               </Link>
             ))}

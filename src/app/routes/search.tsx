@@ -15,7 +15,13 @@ export default function SearchPage() {
   const tag = params.get('tag') ?? '';
   const page = Math.max(1, Number(params.get('page') ?? 1) || 1);
   const [text, setText] = useState(q);
-  const search = useSearch({ q, family: family || undefined, tag: tag || undefined, page, pageSize: PAGE_SIZE });
+  const search = useSearch({
+    q,
+    family: family || undefined,
+    tag: tag || undefined,
+    page,
+    pageSize: PAGE_SIZE,
+  });
 
   useEffect(() => {
     setText(q);
@@ -45,7 +51,14 @@ export default function SearchPage() {
         <label htmlFor="search-page-q" className="sr-only">
           Search words
         </label>
-        <input id="search-page-q" type="search" value={text} onChange={(e) => setText(e.target.value)} className="min-h-11 flex-1 rounded-md border border-rule bg-card px-3" placeholder="e.g. TC-18 HT fuse, 47 µF cap, heater 6.3 V" />
+        <input
+          id="search-page-q"
+          type="search"
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          className="min-h-11 flex-1 rounded-md border border-rule bg-card px-3"
+          placeholder="e.g. TC-18 HT fuse, 47 µF cap, heater 6.3 V"
+        />
         <button type="submit" className="min-h-11 rounded-md bg-accent px-4 font-semibold text-white">
           Search
         </button>
@@ -54,7 +67,11 @@ export default function SearchPage() {
         <div className="flex flex-wrap gap-4 text-sm">
           <label className="flex items-center gap-2">
             Equipment
-            <select className="min-h-11 rounded-md border border-rule bg-card px-2" value={family} onChange={(e) => update({ family: e.target.value })}>
+            <select
+              className="min-h-11 rounded-md border border-rule bg-card px-2"
+              value={family}
+              onChange={(e) => update({ family: e.target.value })}
+            >
               <option value="">all</option>
               {data.facets.families.map((f) => (
                 <option key={f}>{f}</option>
@@ -63,7 +80,11 @@ export default function SearchPage() {
           </label>
           <label className="flex items-center gap-2">
             Tag
-            <select className="min-h-11 rounded-md border border-rule bg-card px-2" value={tag} onChange={(e) => update({ tag: e.target.value })}>
+            <select
+              className="min-h-11 rounded-md border border-rule bg-card px-2"
+              value={tag}
+              onChange={(e) => update({ tag: e.target.value })}
+            >
               <option value="">all</option>
               {data.facets.tags.map((t) => (
                 <option key={t}>{t}</option>
@@ -73,10 +94,17 @@ export default function SearchPage() {
         </div>
       )}
       {search.isError && <Notice tone="error">{search.error.message}</Notice>}
-      {!q && <p className="text-graphite-soft">Type what you are looking for. Trade words work: HT or B+, heater or filament, slow-blow or T fuse, 47uF or 47 µF.</p>}
+      {!q && (
+        <p className="text-graphite-soft">
+          Type what you are looking for. Trade words work: HT or B+, heater or filament, slow-blow or T fuse,
+          47uF or 47 µF.
+        </p>
+      )}
       {data && q && (
         <p className="text-sm text-graphite-soft" aria-live="polite">
-          {data.total === 0 ? 'No approved procedure matches.' : `${data.total} approved procedure${data.total === 1 ? '' : 's'}`}
+          {data.total === 0
+            ? 'No approved procedure matches.'
+            : `${data.total} approved procedure${data.total === 1 ? '' : 's'}`}
           {data.total === 0 && data.suggestions.length > 0 && (
             <>
               {' '}
@@ -84,7 +112,11 @@ export default function SearchPage() {
               {data.suggestions.slice(0, 4).map((s, i) => (
                 <span key={s}>
                   {i > 0 && ', '}
-                  <button type="button" className="font-semibold text-accent underline" onClick={() => update({ q: s })}>
+                  <button
+                    type="button"
+                    className="font-semibold text-accent underline"
+                    onClick={() => update({ q: s })}
+                  >
                     {s}
                   </button>
                 </span>
@@ -97,7 +129,10 @@ export default function SearchPage() {
       <ol className={`flex flex-col gap-3 ${search.isFetching ? 'opacity-70' : ''}`}>
         {data?.results.map((h) => (
           <li key={h.procedureId} className="rounded-lg border border-rule bg-card p-4">
-            <Link to={paths.revision.href(h.revisionId)} className="text-lg font-semibold text-accent-deep underline-offset-2 hover:underline">
+            <Link
+              to={paths.revision.href(h.revisionId)}
+              className="text-lg font-semibold text-accent-deep underline-offset-2 hover:underline"
+            >
               {h.title}
             </Link>
             <div className="text-xs text-graphite-soft">

@@ -27,20 +27,52 @@ export default function SetPassword() {
       {invitation.isError && <Notice tone="error">{invitation.error.message}</Notice>}
       {setPassword.isSuccess ? (
         <Notice tone="success">
-          Your password is set. <Link to="/sign-in" className="underline">Sign in</Link>.
+          Your password is set.{' '}
+          <Link to="/sign-in" className="underline">
+            Sign in
+          </Link>
+          .
         </Notice>
       ) : (
         invitation.data && (
-          <form onSubmit={submit} className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6" noValidate>
-            <h2 className="text-xl font-semibold">{invitation.data.purpose === 'reset' ? `A new password, ${invitation.data.displayName}` : `Welcome, ${invitation.data.displayName}`}</h2>
+          <form
+            onSubmit={submit}
+            className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6"
+            noValidate
+          >
+            <h2 className="text-xl font-semibold">
+              {invitation.data.purpose === 'reset'
+                ? `A new password, ${invitation.data.displayName}`
+                : `Welcome, ${invitation.data.displayName}`}
+            </h2>
             <p className="text-sm">
-              Choose a {invitation.data.purpose === 'reset' ? 'new ' : ''}password for {invitation.data.email}. A long passphrase is best; there are no other rules.
-              {invitation.data.purpose === 'reset' && ' Setting it signs you out everywhere you were signed in.'}
+              Choose a {invitation.data.purpose === 'reset' ? 'new ' : ''}password for {invitation.data.email}
+              . A long passphrase is best; there are no other rules.
+              {invitation.data.purpose === 'reset' &&
+                ' Setting it signs you out everywhere you were signed in.'}
             </p>
             {setPassword.error && <Notice tone="error">{setPassword.error.message}</Notice>}
-            <Field label="New password" type="password" autoComplete="new-password" value={password} minLength={PASSWORD_MIN} onChange={(e) => setPw(e.target.value)} hint={`At least ${PASSWORD_MIN} characters.`} />
-            <Field label="Repeat it" type="password" autoComplete="new-password" value={repeat} onChange={(e) => setRepeat(e.target.value)} error={mismatch ? 'The two entries differ.' : undefined} />
-            <Button type="submit" disabled={setPassword.isPending || password.length < PASSWORD_MIN || mismatch}>
+            <Field
+              label="New password"
+              type="password"
+              autoComplete="new-password"
+              value={password}
+              minLength={PASSWORD_MIN}
+              onChange={(e) => setPw(e.target.value)}
+              hint={`At least ${PASSWORD_MIN} characters.`}
+            />
+            <Field
+              label="Repeat it"
+              type="password"
+              autoComplete="new-password"
+              value={repeat}
+              onChange={(e) => setRepeat(e.target.value)}
+              error={mismatch ? 'The two entries differ.' : undefined}
+            />
+            <Button
+              type="submit"
+              disabled={setPassword.isPending || password.length < PASSWORD_MIN || mismatch}
+            >
               Set password
             </Button>
           </form>

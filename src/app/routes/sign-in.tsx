@@ -42,10 +42,19 @@ export default function SignIn() {
         <p className="mt-1 text-graphite-soft">The shop’s reviewed power-supply procedures.</p>
       </div>
       {codeStep ? (
-        <form onSubmit={submitCode} className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6 shadow-sm" noValidate>
+        <form
+          onSubmit={submitCode}
+          className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6 shadow-sm"
+          noValidate
+        >
           <h2 className="text-xl font-semibold">Authenticator code</h2>
-          <p className="text-sm">Type the six-digit code your authenticator app shows for Benchwright now, or one of your recovery codes.</p>
-          {withCode.error && !withCode.error.fields.length && <Notice tone="error">{withCode.error.message}</Notice>}
+          <p className="text-sm">
+            Type the six-digit code your authenticator app shows for Benchwright now, or one of your recovery
+            codes.
+          </p>
+          {withCode.error && !withCode.error.fields.length && (
+            <Notice tone="error">{withCode.error.message}</Notice>
+          )}
           <Field
             label="Code"
             autoComplete="one-time-code"
@@ -59,16 +68,47 @@ export default function SignIn() {
           <Button type="submit" disabled={withCode.isPending || code.trim().length < 6}>
             {withCode.isPending ? 'Checking…' : 'Continue'}
           </Button>
-          <button type="button" className="self-start text-sm underline" onClick={() => { signIn.reset(); withCode.reset(); setCode(''); }}>
+          <button
+            type="button"
+            className="self-start text-sm underline"
+            onClick={() => {
+              signIn.reset();
+              withCode.reset();
+              setCode('');
+            }}
+          >
             Start again with the password
           </button>
         </form>
       ) : (
-        <form onSubmit={submit} className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6 shadow-sm" noValidate>
+        <form
+          onSubmit={submit}
+          className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-6 shadow-sm"
+          noValidate
+        >
           <h2 className="text-xl font-semibold">Sign in</h2>
-          {signIn.error && !signIn.error.fields.length && <Notice tone="error">{signIn.error.message}</Notice>}
-          <Field label="E-mail" type="email" autoComplete="username" required value={email} onChange={(e) => setEmail(e.target.value)} error={fieldError('email')} autoFocus />
-          <Field label="Password" type="password" autoComplete="current-password" required value={password} onChange={(e) => setPassword(e.target.value)} error={fieldError('password')} />
+          {signIn.error && !signIn.error.fields.length && (
+            <Notice tone="error">{signIn.error.message}</Notice>
+          )}
+          <Field
+            label="E-mail"
+            type="email"
+            autoComplete="username"
+            required
+            value={email}
+            onChange={(e) => setEmail(e.target.value)}
+            error={fieldError('email')}
+            autoFocus
+          />
+          <Field
+            label="Password"
+            type="password"
+            autoComplete="current-password"
+            required
+            value={password}
+            onChange={(e) => setPassword(e.target.value)}
+            error={fieldError('password')}
+          />
           <Button type="submit" disabled={signIn.isPending}>
             {signIn.isPending ? 'Signing in…' : 'Sign in'}
           </Button>

@@ -37,12 +37,16 @@ export function AppLayout() {
   const user = session.data.user;
   if (!user) return <Navigate to={paths.signIn.href(location.pathname + location.search)} replace />;
   // The shop requires an authenticator for this role: the account page is the only way on.
-  if (session.data.enrolmentRequired && location.pathname !== paths.account.href()) return <Navigate to={paths.account.href()} replace />;
+  if (session.data.enrolmentRequired && location.pathname !== paths.account.href())
+    return <Navigate to={paths.account.href()} replace />;
 
   const links = NAV.filter((n) => n.roles === 'all' || hasRole(user, ...n.roles));
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-card focus:p-2"
+      >
         Skip to content
       </a>
       <header className="no-print border-b border-rule bg-paper-deep">
@@ -66,7 +70,11 @@ export function AppLayout() {
           </nav>
           <SearchBox />
           <div className="ml-auto flex items-center gap-3 text-sm">
-            <NavLink to={paths.account.href()} className="rounded-md px-2 py-2 hover:bg-paper" title="Your account: password, authenticator, sessions">
+            <NavLink
+              to={paths.account.href()}
+              className="rounded-md px-2 py-2 hover:bg-paper"
+              title="Your account: password, authenticator, sessions"
+            >
               {user.displayName}{' '}
               <span className="text-graphite-soft">({user.roles.map((r) => ROLE_LABELS[r]).join(', ')})</span>
             </NavLink>

@@ -4,7 +4,15 @@ import type { ReactNode } from 'react';
  * The app's plain table: a bordered card, a header row of column names, and the rows given as
  * children. Dense but calm; scrolls sideways on a narrow screen instead of squeezing.
  */
-export function DataTable({ columns, children, label }: { columns: ReactNode[]; children: ReactNode; label?: string }) {
+export function DataTable({
+  columns,
+  children,
+  label,
+}: {
+  columns: ReactNode[];
+  children: ReactNode;
+  label?: string;
+}) {
   return (
     <div className="overflow-x-auto rounded-lg border border-rule bg-card">
       <table aria-label={label} className="w-full text-left text-sm">

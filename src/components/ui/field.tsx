@@ -1,7 +1,12 @@
 import { useId, type InputHTMLAttributes } from 'react';
 
 /** A labelled input with its error underneath, announced to screen readers. */
-export function Field({ label, error, hint, ...input }: InputHTMLAttributes<HTMLInputElement> & { label: string; error?: string; hint?: string }) {
+export function Field({
+  label,
+  error,
+  hint,
+  ...input
+}: InputHTMLAttributes<HTMLInputElement> & { label: string; error?: string; hint?: string }) {
   const id = useId();
   return (
     <div className="flex flex-col gap-1">

@@ -13,18 +13,34 @@ interface Props {
 }
 
 /** The common frame of a structured block: a heading row with a remove button, then the block's form. */
-export function BlockFrame({ blockId, title, selected, onRemove, className = '', headerExtra, children }: Props) {
+export function BlockFrame({
+  blockId,
+  title,
+  selected,
+  onRemove,
+  className = '',
+  headerExtra,
+  children,
+}: Props) {
   return (
     <NodeViewWrapper
       data-block-id={blockId}
       className={`bw-block not-prose my-4 rounded-lg border p-3 ${selected ? 'ring-2 ring-accent' : ''} ${className || 'border-rule bg-card'}`}
     >
       <div className="mb-2 flex flex-wrap items-center gap-2" contentEditable={false}>
-        <span data-drag-handle className="cursor-grab select-none text-xs font-semibold uppercase tracking-wide" aria-hidden="false">
+        <span
+          data-drag-handle
+          className="cursor-grab select-none text-xs font-semibold uppercase tracking-wide"
+          aria-hidden="false"
+        >
           {title}
         </span>
         {headerExtra}
-        <button type="button" className="ml-auto min-h-9 rounded border border-rule bg-card px-2 text-xs hover:bg-out-wash" onClick={onRemove}>
+        <button
+          type="button"
+          className="ml-auto min-h-9 rounded border border-rule bg-card px-2 text-xs hover:bg-out-wash"
+          onClick={onRemove}
+        >
           Remove block
         </button>
       </div>

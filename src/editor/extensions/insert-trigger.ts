@@ -19,7 +19,13 @@ export const InsertTrigger = Extension.create<InsertTriggerOptions>({
         props: {
           handleTextInput: (view, _from, _to, text) => {
             const { $from, empty } = view.state.selection;
-            if (text !== '/' || !empty || $from.parent.type.name !== 'paragraph' || $from.parent.content.size > 0) return false;
+            if (
+              text !== '/' ||
+              !empty ||
+              $from.parent.type.name !== 'paragraph' ||
+              $from.parent.content.size > 0
+            )
+              return false;
             this.options.onOpen();
             return true;
           },

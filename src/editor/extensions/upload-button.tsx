@@ -29,8 +29,21 @@ export function UploadButton({ label, accept, onUploaded, className = '' }: Prop
   };
   return (
     <span className="inline-flex items-center gap-2">
-      <input ref={input} type="file" accept={accept} className="sr-only" tabIndex={-1} aria-hidden onChange={(e) => void upload(e.target.files?.[0])} />
-      <button type="button" className={className || 'min-h-9 rounded border border-rule bg-card px-2 text-xs hover:bg-paper-deep'} disabled={busy} onClick={() => input.current?.click()}>
+      <input
+        ref={input}
+        type="file"
+        accept={accept}
+        className="sr-only"
+        tabIndex={-1}
+        aria-hidden
+        onChange={(e) => void upload(e.target.files?.[0])}
+      />
+      <button
+        type="button"
+        className={className || 'min-h-9 rounded border border-rule bg-card px-2 text-xs hover:bg-paper-deep'}
+        disabled={busy}
+        onClick={() => input.current?.click()}
+      >
         {busy ? 'Uploading…' : label}
       </button>
       {error && (

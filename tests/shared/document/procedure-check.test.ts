@@ -64,7 +64,17 @@ function soundNodes(o: Sound): DocNode[] {
   const ht = o.mains === 230 ? '290 V' : '280 V';
   const drain = o.bleeder
     ? [
-        reckoner('bleed', 'bleeder', { capacitance: '80 µF', chargedVoltage: { ref: 'noLoad.noLoadDcHigh' }, bleederResistance: o.bleeder, targetTime: '60 s' }, 'rk-bleed'),
+        reckoner(
+          'bleed',
+          'bleeder',
+          {
+            capacitance: '80 µF',
+            chargedVoltage: { ref: 'noLoad.noLoadDcHigh' },
+            bleederResistance: o.bleeder,
+            targetTime: '60 s',
+          },
+          'rk-bleed',
+        ),
         wait(120, 'bleeder', 'ck-wait-bleeder'),
       ]
     : [wait(10, 'probe', 'ck-wait-probe')];
@@ -72,7 +82,12 @@ function soundNodes(o: Sound): DocNode[] {
     opening(),
     para('Use after any repair to the power supply.'),
     heading('1. Cold checks and mains fuse'),
-    note('Unplugged for this whole section. The filter may still hold charge: measure it first.', undefined, 'warning', 'hz-cold'),
+    note(
+      'Unplugged for this whole section. The filter may still hold charge: measure it first.',
+      undefined,
+      'warning',
+      'hz-cold',
+    ),
     verified('60 V', 'ck-cold-verified'),
     fuse(
       [
@@ -85,22 +100,51 @@ function soundNodes(o: Sound): DocNode[] {
     check('Fitted fuse matches the reckoner (type T), in the live conductor.', {}, 'ck-fuse'),
     reading('Primary winding resistance', 'Ω', { literal: '22 Ω' }, {}, 'rd-primary'),
     heading('2. No-load DC, valves out'),
-    note('Every filter node charges to the full no-load DC, over 400 V. Clip on, switch on, read, switch off.', undefined, 'danger', 'hz-noload'),
+    note(
+      'Every filter node charges to the full no-load DC, over 400 V. Clip on, switch on, read, switch off.',
+      undefined,
+      'danger',
+      'hz-noload',
+    ),
     reckoner(
       'noLoad',
       'peak-no-load',
-      { windingVoltage: ht, mainsNominal: { param: 'mainsNominal' }, mainsActual: { param: 'mainsVoltage' }, rectifier: o.rectifier, ...drop, filterNodes: 3 },
+      {
+        windingVoltage: ht,
+        mainsNominal: { param: 'mainsNominal' },
+        mainsActual: { param: 'mainsVoltage' },
+        rectifier: o.rectifier,
+        ...drop,
+        filterNodes: 3,
+      },
       'rk-noload',
     ),
     check('Series lamp glows then dims; no arcing in the rectifier.', { live: true }, 'ck-lamp'),
-    reading('Mains at the bench', 'V', { literal: mainsText }, { measure: 'rms', followsMains: false }, 'rd-mains'),
-    reading('Heater winding, unloaded', 'V', { literal: '6.9 V' }, { measure: 'rms', followsMains: true }, 'rd-heater'),
+    reading(
+      'Mains at the bench',
+      'V',
+      { literal: mainsText },
+      { measure: 'rms', followsMains: false },
+      'rd-mains',
+    ),
+    reading(
+      'Heater winding, unloaded',
+      'V',
+      { literal: '6.9 V' },
+      { measure: 'rms', followsMains: true },
+      'rd-heater',
+    ),
     reading('No-load DC at the reservoir', 'V', { ref: 'noLoad.noLoadDc' }, { measure: 'dc' }, 'rd-noload'),
     check('Unit switched off and unplugged.', {}, 'ck-off-1'),
     ...drain,
     verified('60 V', 'ck-noload-verified'),
     heading('3. Loaded B+'),
-    note('All rails live at over 300 V with the valves fitted. Keep the speaker or a dummy load connected.', { oneHand: true }, 'danger', 'hz-loaded'),
+    note(
+      'All rails live at over 300 V with the valves fitted. Keep the speaker or a dummy load connected.',
+      { oneHand: true },
+      'danger',
+      'hz-loaded',
+    ),
     reckoner(
       'bplus',
       'loaded-bplus',
@@ -121,16 +165,41 @@ function soundNodes(o: Sound): DocNode[] {
       {
         startVoltage: { ref: 'bplus.averageDc' },
         stages: [
-          { label: 'B+2', targetVoltage: '280 V', current: '6 mA', capacitance: '22 µF', ...(o.rating ? { capacitorRating: o.rating } : {}), fittedResistance: '4k7' },
-          { label: 'B+3', targetVoltage: '250 V', current: '3 mA', capacitance: '22 µF', ...(o.rating ? { capacitorRating: o.rating } : {}), fittedResistance: '10k' },
+          {
+            label: 'B+2',
+            targetVoltage: '280 V',
+            current: '6 mA',
+            capacitance: '22 µF',
+            ...(o.rating ? { capacitorRating: o.rating } : {}),
+            fittedResistance: '4k7',
+          },
+          {
+            label: 'B+3',
+            targetVoltage: '250 V',
+            current: '3 mA',
+            capacitance: '22 µF',
+            ...(o.rating ? { capacitorRating: o.rating } : {}),
+            fittedResistance: '10k',
+          },
         ],
       },
       'rk-ladder',
     ),
     reading('Loaded B+ at the reservoir', 'V', { ref: 'bplus.averageDc' }, { measure: 'dc' }, 'rd-bplus'),
-    reading('Cathode voltage', 'V', { literal: '10.5 V' }, { measure: 'dc', followsMains: true }, 'rd-cathode'),
+    reading(
+      'Cathode voltage',
+      'V',
+      { literal: '10.5 V' },
+      { measure: 'dc', followsMains: true },
+      'rd-cathode',
+    ),
     heading('4. Switch-off and discharge'),
-    note('The filter stays charged after switch-off; never rely on the bleeder.', { discharge: true }, 'danger', 'hz-off'),
+    note(
+      'The filter stays charged after switch-off; never rely on the bleeder.',
+      { discharge: true },
+      'danger',
+      'hz-off',
+    ),
     check('Unit switched off and unplugged.', {}, 'ck-off-2'),
     wait(5, 'probe', 'ck-probe-final'),
     verified('60 V', 'ck-final-verified'),
@@ -138,11 +207,25 @@ function soundNodes(o: Sound): DocNode[] {
 }
 
 const SOUND: Record<string, Sound> = {
-  '230 V, valve rectifier, bleeder, capacitors rated 500 V': { mains: 230, rectifier: 'valve', bleeder: '220k', rating: '500 V' },
+  '230 V, valve rectifier, bleeder, capacitors rated 500 V': {
+    mains: 230,
+    rectifier: 'valve',
+    bleeder: '220k',
+    rating: '500 V',
+  },
   '230 V, silicon bridge, no bleeder': { mains: 230, rectifier: 'silicon-bridge' },
-  '120 V, silicon bridge, bleeder, capacitors rated 500 V': { mains: 120, rectifier: 'silicon-bridge', bleeder: '100k', rating: '500 V' },
+  '120 V, silicon bridge, bleeder, capacitors rated 500 V': {
+    mains: 120,
+    rectifier: 'silicon-bridge',
+    bleeder: '100k',
+    rating: '500 V',
+  },
   '120 V, valve rectifier, no bleeder': { mains: 120, rectifier: 'valve' },
-  '230 V, silicon centre-tap, bleeder, no ratings stated': { mains: 230, rectifier: 'silicon-centre-tap', bleeder: '150k' },
+  '230 V, silicon centre-tap, bleeder, no ratings stated': {
+    mains: 230,
+    rectifier: 'silicon-centre-tap',
+    bleeder: '150k',
+  },
 };
 
 const paramsOf = (o: Sound): ProcedureParams => (o.mains === 230 ? mains230 : mains120);
@@ -153,15 +236,25 @@ function plant(change: (nodes: DocNode[]) => DocNode[], o: Sound = BASE) {
   return checkProcedure(doc(...change(soundNodes(o))), paramsOf(o));
 }
 const idOf = (n: DocNode) => n.attrs?.id;
-const replace = (id: string, by: DocNode | DocNode[]) => (nodes: DocNode[]) => nodes.flatMap((n) => (idOf(n) === id ? by : [n]));
+const replace = (id: string, by: DocNode | DocNode[]) => (nodes: DocNode[]) =>
+  nodes.flatMap((n) => (idOf(n) === id ? by : [n]));
 const remove = (id: string) => replace(id, []);
 const editAttrs = (id: string, patch: Record<string, unknown>) => (nodes: DocNode[]) =>
   nodes.map((n) => (idOf(n) === id ? { ...n, attrs: { ...n.attrs, ...patch } } : n));
-const editInputs = (id: string, patch: (inputs: Record<string, unknown>) => Record<string, unknown>) => (nodes: DocNode[]) =>
-  nodes.map((n) => (idOf(n) === id ? { ...n, attrs: { ...n.attrs, inputs: patch(n.attrs!.inputs as Record<string, unknown>) } } : n));
+const editInputs =
+  (id: string, patch: (inputs: Record<string, unknown>) => Record<string, unknown>) => (nodes: DocNode[]) =>
+    nodes.map((n) =>
+      idOf(n) === id
+        ? { ...n, attrs: { ...n.attrs, inputs: patch(n.attrs!.inputs as Record<string, unknown>) } }
+        : n,
+    );
 
 /** Exactly one finding, of this code, on this block. */
-function expectOnly(warnings: ReturnType<typeof checkProcedure>['warnings'], code: string, blockId: string | null) {
+function expectOnly(
+  warnings: ReturnType<typeof checkProcedure>['warnings'],
+  code: string,
+  blockId: string | null,
+) {
   const findings = findingsOf(warnings);
   expect(findings.map((w) => [w.code, w.blockId])).toEqual([[code, blockId]]);
   const message = findings[0]!.message;
@@ -173,7 +266,8 @@ function expectOnly(warnings: ReturnType<typeof checkProcedure>['warnings'], cod
 describe('sound procedures give no finding of the check’s own', () => {
   it.each(Object.entries(SOUND))('%s', (_, o) => {
     const { warnings, snapshot } = checkProcedure(doc(...soundNodes(o)), paramsOf(o));
-    for (const b of snapshot.blocks) expect(b.ok, `${b.name}: ${b.ok ? '' : JSON.stringify(b.errors)}`).toBe(true);
+    for (const b of snapshot.blocks)
+      expect(b.ok, `${b.name}: ${b.ok ? '' : JSON.stringify(b.errors)}`).toBe(true);
     expect(findingsOf(warnings)).toEqual([]);
   });
 });
@@ -182,7 +276,13 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
   it('a live reading after the last discharge verification, the only later step saying "do not discharge the caps yet" (discharge-check-missing)', () => {
     const { warnings } = plant((nodes) => [
       ...remove('ck-final-verified')(nodes),
-      reading('Bias after warm-up', 'V', { literal: '-40 V' }, { measure: 'dc', followsMains: true }, 'rd-late'),
+      reading(
+        'Bias after warm-up',
+        'V',
+        { literal: '-40 V' },
+        { measure: 'dc', followsMains: true },
+        'rd-late',
+      ),
       check('Do not discharge the caps yet: leave the meter clipped on.', {}, 'ck-words'),
     ]);
     const message = expectOnly(warnings, 'discharge-check-missing', 'rd-late');
@@ -196,7 +296,11 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
         heading('Capacitor check, unplugged'),
         note('The reservoir may hold 400 V after switch-off.', { discharge: true }),
         fuse([{ label: 'HT', volts: '290 V', amps: '150 mA' }]),
-        reckoner('noLoad', 'peak-no-load', { windingVoltage: '290 V', mainsNominal: { param: 'mainsNominal' }, rectifier: 'silicon-bridge' }),
+        reckoner('noLoad', 'peak-no-load', {
+          windingVoltage: '290 V',
+          mainsNominal: { param: 'mainsNominal' },
+          rectifier: 'silicon-bridge',
+        }),
         check('Capacitors discharged — tick when done.'),
         reading('Reservoir capacitance', 'F', { literal: '47 µF' }),
       ),
@@ -206,7 +310,9 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
   });
 
   it('a discharge verified only below 100 V (discharge-threshold-high)', () => {
-    const { warnings } = plant(editAttrs('ck-final-verified', { threshold: '100 V', text: 'Capacitors below 100 V on the meter.' }));
+    const { warnings } = plant(
+      editAttrs('ck-final-verified', { threshold: '100 V', text: 'Capacitors below 100 V on the meter.' }),
+    );
     // The text states 100 V, so the step also needs a note before it in its section: it has one (hz-off).
     const message = expectOnly(warnings, 'discharge-threshold-high', 'ck-final-verified');
     expect(message).toContain('100 V');
@@ -218,9 +324,20 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     const C = 100e-6;
     const R = 443 / Math.log(500 / 60) / C;
     const { warnings } = plant((nodes) =>
-      replace('rk-bleed', reckoner('bleed', 'bleeder', { capacitance: '100 µF', chargedVoltage: '500 V', bleederResistance: `${Math.round(R)} Ω`, targetTime: '600 s' }, 'rk-bleed'))(
-        replace('ck-wait-bleeder', wait(10, 'bleeder', 'ck-wait-bleeder'))(nodes),
-      ),
+      replace(
+        'rk-bleed',
+        reckoner(
+          'bleed',
+          'bleeder',
+          {
+            capacitance: '100 µF',
+            chargedVoltage: '500 V',
+            bleederResistance: `${Math.round(R)} Ω`,
+            targetTime: '600 s',
+          },
+          'rk-bleed',
+        ),
+      )(replace('ck-wait-bleeder', wait(10, 'bleeder', 'ck-wait-bleeder'))(nodes)),
     );
     const message = expectOnly(warnings, 'wait-shorter-than-bleeder', 'ck-wait-bleeder');
     const t = Math.round(R) * C * Math.log(500 / 60);
@@ -257,16 +374,37 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
   });
 
   it('a live check step after an opening note flagged one hand only, with no isolated or current-limited bring-up (live-step-unguarded)', () => {
-    const { warnings } = plant(replace('hz-opening', note('Lethal voltages. Work one hand only.', { oneHand: true, discharge: true }, 'danger', 'hz-opening')));
+    const { warnings } = plant(
+      replace(
+        'hz-opening',
+        note(
+          'Lethal voltages. Work one hand only.',
+          { oneHand: true, discharge: true },
+          'danger',
+          'hz-opening',
+        ),
+      ),
+    );
     const findings = findingsOf(warnings);
     expect(new Set(findings.map((w) => w.code))).toEqual(new Set(['live-step-unguarded']));
     // Every live step of the base procedure: the lamp check and the powered readings.
-    expect(findings.map((w) => w.blockId)).toEqual(['ck-lamp', 'rd-mains', 'rd-heater', 'rd-noload', 'rd-bplus', 'rd-cathode']);
+    expect(findings.map((w) => w.blockId)).toEqual([
+      'ck-lamp',
+      'rd-mains',
+      'rd-heater',
+      'rd-noload',
+      'rd-bplus',
+      'rd-cathode',
+    ]);
     for (const w of findings) expect(w.message).not.toMatch(/one hand only;/);
   });
 
   it('a B+ of 495 V mentioned only in a check step, in a section without a note (hazard-note-missing)', () => {
-    const { warnings } = plant((nodes) => [...nodes, heading('5. Paperwork'), check('Record on the job card that B+ read 495 V at high mains.', {}, 'ck-495')]);
+    const { warnings } = plant((nodes) => [
+      ...nodes,
+      heading('5. Paperwork'),
+      check('Record on the job card that B+ read 495 V at high mains.', {}, 'ck-495'),
+    ]);
     const message = expectOnly(warnings, 'hazard-note-missing', 'ck-495');
     expect(message).toContain('495 V');
   });
@@ -310,7 +448,12 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     // 280 V winding, 10 % rise, mains +10 %, two bridge diodes of 0.9 V.
     const high = Math.SQRT2 * 280 * 1.1 * 1.1 - 1.8;
     const { warnings } = plant(
-      editInputs('rk-ladder', (i) => ({ ...i, stages: (i.stages as Record<string, unknown>[]).map((s, k) => (k === 1 ? { ...s, capacitorRating: '400 V' } : s)) })),
+      editInputs('rk-ladder', (i) => ({
+        ...i,
+        stages: (i.stages as Record<string, unknown>[]).map((s, k) =>
+          k === 1 ? { ...s, capacitorRating: '400 V' } : s,
+        ),
+      })),
       o,
     );
     const message = expectOnly(warnings, 'capacitor-rating-low', 'rk-ladder');
@@ -361,7 +504,12 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
 
   it('a winding voltage that is not a number, named by its label, not its path (reckoner-input-error)', () => {
     const { warnings } = plant(
-      editInputs('rk-fuse', (i) => ({ ...i, windings: (i.windings as Record<string, unknown>[]).map((w, k) => (k === 0 ? { ...w, volts: 'lots' } : w)) })),
+      editInputs('rk-fuse', (i) => ({
+        ...i,
+        windings: (i.windings as Record<string, unknown>[]).map((w, k) =>
+          k === 0 ? { ...w, volts: 'lots' } : w,
+        ),
+      })),
     );
     const message = expectOnly(warnings, 'reckoner-input-error', 'rk-fuse');
     expect(message).toContain('Secondary windings, row 1 (HT): Winding voltage');
@@ -373,12 +521,24 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
       ...nodes,
       heading('5. Spare'),
       note('Cold bench only.', undefined, 'warning'),
-      reckoner('a', 'bleeder', { capacitance: '1 µF', chargedVoltage: '10 V', bleederResistance: { ref: 'b.maxBleeder' } }),
-      reckoner('b', 'bleeder', { capacitance: '1 µF', chargedVoltage: '10 V', bleederResistance: { ref: 'a.maxBleeder' } }),
+      reckoner('a', 'bleeder', {
+        capacitance: '1 µF',
+        chargedVoltage: '10 V',
+        bleederResistance: { ref: 'b.maxBleeder' },
+      }),
+      reckoner('b', 'bleeder', {
+        capacitance: '1 µF',
+        chargedVoltage: '10 V',
+        bleederResistance: { ref: 'a.maxBleeder' },
+      }),
     ]);
     const findings = findingsOf(warnings);
-    expect(findings.some((w) => w.code === 'procedure-error' && w.blockId === null && /cycle/.test(w.message))).toBe(true);
-    expect(new Set(findings.map((w) => w.code))).toEqual(new Set(['procedure-error', 'reckoner-input-error']));
+    expect(
+      findings.some((w) => w.code === 'procedure-error' && w.blockId === null && /cycle/.test(w.message)),
+    ).toBe(true);
+    expect(new Set(findings.map((w) => w.code))).toEqual(
+      new Set(['procedure-error', 'reckoner-input-error']),
+    );
   });
 });
 
@@ -389,7 +549,9 @@ describe('reckoner cautions reach the check', () => {
     for (const block of snapshot.blocks) {
       if (!block.ok) continue;
       for (const c of block.cautions) {
-        expect(cautions.some((w) => w.caution === c.code && w.level === c.level && w.message.endsWith(c.message))).toBe(true);
+        expect(
+          cautions.some((w) => w.caution === c.code && w.level === c.level && w.message.endsWith(c.message)),
+        ).toBe(true);
       }
     }
     expect(cautions.filter((w) => w.caution === 'local-codes')).toHaveLength(1);
@@ -409,7 +571,11 @@ describe('shop options and the rules’ edges', () => {
   it('a shop safe voltage of 50 V flags the 60 V verifications', () => {
     const { warnings } = checkProcedure(doc(...soundNodes(BASE)), mains230, { safeVoltage: 50 });
     const high = findingsOf(warnings).filter((w) => w.code === 'discharge-threshold-high');
-    expect(high.map((w) => w.blockId)).toEqual(['ck-cold-verified', 'ck-noload-verified', 'ck-final-verified']);
+    expect(high.map((w) => w.blockId)).toEqual([
+      'ck-cold-verified',
+      'ck-noload-verified',
+      'ck-final-verified',
+    ]);
   });
 
   it('a bare number as the third argument is still the safe voltage', () => {
@@ -436,7 +602,12 @@ describe('shop options and the rules’ edges', () => {
         heading('Residual check'),
         note('The filter may hold charge.', { discharge: true }),
         fuse([{ label: 'HT', volts: '50 V', amps: '20 mA' }]),
-        reading('Residual at the reservoir', 'V', { literal: '5 V' }, { measure: 'dc', followsMains: false, live: false }),
+        reading(
+          'Residual at the reservoir',
+          'V',
+          { literal: '5 V' },
+          { measure: 'dc', followsMains: false, live: false },
+        ),
       ),
       mains230,
     );
@@ -444,7 +615,9 @@ describe('shop options and the rules’ edges', () => {
   });
 
   it('reads voltages written in running text with the one parser', () => {
-    expect(voltagesIn('B+ of 495 V, bias −42 V, heaters 6V3, HT 300 VAC, 0.5 kV, 2k2 10 W, 0.1 µF 630 V, 60 s')).toEqual([495, 42, 6.3, 300, 500, 630]);
+    expect(
+      voltagesIn('B+ of 495 V, bias −42 V, heaters 6V3, HT 300 VAC, 0.5 kV, 2k2 10 W, 0.1 µF 630 V, 60 s'),
+    ).toEqual([495, 42, 6.3, 300, 500, 630]);
   });
 });
 
@@ -455,13 +628,29 @@ describe('the new attributes are validated with a field message', () => {
   };
   it.each([
     [check('x', { kind: 'discharge-verified' }), 'content.0.attrs.threshold', /needs the voltage/],
-    [check('x', { kind: 'discharge-verified', threshold: 'sixty' }), 'content.0.attrs.threshold', /not a voltage/],
-    [check('x', { kind: 'discharge-verified', threshold: '60 V rms' }), 'content.0.attrs.threshold', /DC voltage/],
-    [check('x', { kind: 'discharge-verified', threshold: '5 kV' }), 'content.0.attrs.threshold', /at most 1000 V/],
+    [
+      check('x', { kind: 'discharge-verified', threshold: 'sixty' }),
+      'content.0.attrs.threshold',
+      /not a voltage/,
+    ],
+    [
+      check('x', { kind: 'discharge-verified', threshold: '60 V rms' }),
+      'content.0.attrs.threshold',
+      /DC voltage/,
+    ],
+    [
+      check('x', { kind: 'discharge-verified', threshold: '5 kV' }),
+      'content.0.attrs.threshold',
+      /at most 1000 V/,
+    ],
     [check('x', { kind: 'wait' }), 'content.0.attrs.seconds', /duration in seconds/],
     [check('x', { kind: 'wait', seconds: 0 }), 'content.0.attrs.seconds', /more than 0 s/],
     [check('x', { kind: 'wait', seconds: '10 s' }), 'content.0.attrs.seconds', /number of seconds/],
-    [check('x', { kind: 'confirm', threshold: '60 V' }), 'content.0.attrs.threshold', /only a discharge-verified step/],
+    [
+      check('x', { kind: 'confirm', threshold: '60 V' }),
+      'content.0.attrs.threshold',
+      /only a discharge-verified step/,
+    ],
     [check('x', { drain: 'probe' }), 'content.0.attrs.drain', /only a wait step/],
     [check('x', { kind: 'later' }), 'content.0.attrs.kind', /one of: confirm, discharge-verified, wait/],
     [check('x', { live: 'yes' }), 'content.0.attrs.live', /true|false/],
@@ -474,9 +663,14 @@ describe('the new attributes are validated with a field message', () => {
   });
 
   it('keeps documents stored before the attributes existed, and reads the editor’s nulls as absent', () => {
-    const old = doc(check('Capacitors discharged.', {}, 'ck-old-1'), note('Danger.', undefined, 'danger', 'hz-old-1'));
+    const old = doc(
+      check('Capacitors discharged.', {}, 'ck-old-1'),
+      note('Danger.', undefined, 'danger', 'hz-old-1'),
+    );
     expect(validateDocument(old).ok).toBe(true);
-    const fromEditor = validateDocument(doc(check('x', { kind: null, threshold: null, seconds: null, drain: null, live: null }, 'ck-null-1')));
+    const fromEditor = validateDocument(
+      doc(check('x', { kind: null, threshold: null, seconds: null, drain: null, live: null }, 'ck-null-1')),
+    );
     expect(fromEditor.ok && fromEditor.doc.content[0]!.attrs).toEqual({ id: 'ck-null-1', text: 'x' });
   });
 });

@@ -15,13 +15,27 @@ const params = { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 };
 function reading(attrs: Partial<ReadingAttrs>): ProcedureDoc['content'][number] {
   return {
     type: 'reading',
-    attrs: { id: 'reading-1', label: 'Heater winding, unloaded', testPoint: 'pins 2–7', meterRange: 'AC 20 V', unit: 'V', expected: { literal: '6.9 V' }, tolerance: '±0.4 V', ...attrs },
+    attrs: {
+      id: 'reading-1',
+      label: 'Heater winding, unloaded',
+      testPoint: 'pins 2–7',
+      meterRange: 'AC 20 V',
+      unit: 'V',
+      expected: { literal: '6.9 V' },
+      tolerance: '±0.4 V',
+      ...attrs,
+    },
   };
 }
 
 const peakBlock = (inputs: Record<string, unknown>) => ({
   type: 'reckoner',
-  attrs: { id: 'block-peak', name: 'pk', kind: 'peak-no-load', inputs: { windingVoltage: '280 V', rectifier: 'silicon-bridge', ...inputs } },
+  attrs: {
+    id: 'block-peak',
+    name: 'pk',
+    kind: 'peak-no-load',
+    inputs: { windingVoltage: '280 V', rectifier: 'silicon-bridge', ...inputs },
+  },
 });
 
 const doc = (...content: ProcedureDoc['content']): ProcedureDoc => ({ type: 'doc', content });
@@ -45,7 +59,10 @@ describe('typed expected values and the mains', () => {
 describe('a block inserted with empty mains fields follows the bench mains', () => {
   it('236 V at the bench on a 230 V design moves the no-load DC with it [derived: √2 × 280 × 236/230 − 2 × 0.9]', () => {
     // The shape the editor used to insert: nominal typed, actual left empty.
-    const d = doc(peakBlock({ mainsNominal: '230 V', mainsActual: '' }), reading({ meterRange: 'DC 1000 V', expected: { ref: 'pk.noLoadDc' }, tolerance: '±10 %' }));
+    const d = doc(
+      peakBlock({ mainsNominal: '230 V', mainsActual: '' }),
+      reading({ meterRange: 'DC 1000 V', expected: { ref: 'pk.noLoadDc' }, tolerance: '±10 %' }),
+    );
     const atDesign = evaluateDocument(d, params).readings[0]!.expected!;
     const atBench = evaluateDocument(d, { ...params, mainsVoltage: 236 }).readings[0]!.expected!;
     expect(atDesign).toBeCloseTo(Math.SQRT2 * 280 - 1.8, 6);
@@ -63,13 +80,34 @@ describe('a block inserted with empty mains fields follows the bench mains', () 
 
 describe('measures between readings and outputs', () => {
   it('a DC reading cannot take its expected value from an rms output', () => {
-    const s = evaluateDocument(doc(peakBlock({}), reading({ meterRange: 'DC 1000 V', measure: 'dc', expected: { ref: 'pk.windingVoltage' }, tolerance: '±5 %' })), params);
+    const s = evaluateDocument(
+      doc(
+        peakBlock({}),
+        reading({
+          meterRange: 'DC 1000 V',
+          measure: 'dc',
+          expected: { ref: 'pk.windingVoltage' },
+          tolerance: '±5 %',
+        }),
+      ),
+      params,
+    );
     expect(s.readings[0]!.expected).toBeNull();
     expect(s.readings[0]!.error).toMatch(/V rms.*V DC/);
   });
 
   it('a typed "350 VAC" on a DC reading is refused', () => {
-    const s = evaluateDocument(doc(reading({ meterRange: 'DC 1000 V', measure: 'dc', expected: { literal: '350 VAC' }, tolerance: '±5 %' })), params);
+    const s = evaluateDocument(
+      doc(
+        reading({
+          meterRange: 'DC 1000 V',
+          measure: 'dc',
+          expected: { literal: '350 VAC' },
+          tolerance: '±5 %',
+        }),
+      ),
+      params,
+    );
     expect(s.readings[0]!.error).toMatch(/rms value/);
   });
 
@@ -93,7 +131,10 @@ describe('tolerances carry a unit or a percentage', () => {
   });
 
   it('"±150 %" on a 350 V reading is refused: the band would reach −175 V', () => {
-    const s = evaluateDocument(doc(reading({ meterRange: 'DC 1000 V', expected: { literal: '350 V' }, tolerance: '±150 %' })), params);
+    const s = evaluateDocument(
+      doc(reading({ meterRange: 'DC 1000 V', expected: { literal: '350 V' }, tolerance: '±150 %' })),
+      params,
+    );
     expect(s.readings[0]!.bandText).toBeNull();
     expect(s.readings[0]!.error).toMatch(/past zero/);
   });

@@ -5,7 +5,8 @@ import { valueChanges } from '../../../server/modules/review/diff/value-changes'
 import { bleedBlock, doc, fuseBlock, htBlock, params, reading, stored, withoutInputs } from './figures';
 
 const figures = (d: ProcedureDoc, p = params) => describeRevision(d, stored(d, p));
-const rows = (before: ProcedureDoc | null, after: ProcedureDoc, p = params) => valueChanges(before && figures(before), figures(after, p));
+const rows = (before: ProcedureDoc | null, after: ProcedureDoc, p = params) =>
+  valueChanges(before && figures(before), figures(after, p));
 const brief = (c: { kind: string; subject: string; label: string }) => `${c.kind} ${c.subject}: ${c.label}`;
 
 describe('the review’s value changes', () => {
@@ -13,13 +14,31 @@ describe('the review’s value changes', () => {
     const before = doc(htBlock('ht'), bleedBlock('ht'));
     const after = doc(htBlock('hv'), bleedBlock('hv'));
     const changes = rows(before, after);
-    expect(changes).toEqual([{ kind: 'block', subject: 'hv', blockId: 'blk-ht', blockLabel: 'Peak and no-load DC', label: 'name', before: 'ht', after: 'hv', renamedFrom: 'ht' }]);
+    expect(changes).toEqual([
+      {
+        kind: 'block',
+        subject: 'hv',
+        blockId: 'blk-ht',
+        blockLabel: 'Peak and no-load DC',
+        label: 'name',
+        before: 'ht',
+        after: 'hv',
+        renamedFrom: 'ht',
+      },
+    ]);
   });
 
   it('lists a changed input with its before and after value and source, beside the outputs that moved', () => {
     const changes = rows(doc(fuseBlock('85 %')), doc(fuseBlock('80 %')));
     const eff = changes.find((c) => c.kind === 'input' && c.label === 'Transformer efficiency');
-    expect(eff).toMatchObject({ subject: 'fuse', blockLabel: 'Mains fuse', before: '85 %', after: '80 %', sourceBefore: 'typed', sourceAfter: 'typed' });
+    expect(eff).toMatchObject({
+      subject: 'fuse',
+      blockLabel: 'Mains fuse',
+      before: '85 %',
+      after: '80 %',
+      sourceBefore: 'typed',
+      sourceAfter: 'typed',
+    });
     // 80 % instead of 85 % raises the primary current by 85/80 [derived: P_primary = VA ÷ η; docs/references.md §1].
     const primary = changes.find((c) => c.kind === 'output' && c.label === 'Primary current');
     expect(primary).toBeDefined();
@@ -30,7 +49,14 @@ describe('the review’s value changes', () => {
   it('lists an input whose value stayed but whose source changed', () => {
     const changes = rows(doc(fuseBlock('85 %', '230 V')), doc(fuseBlock('85 %', { param: 'mainsNominal' })));
     expect(changes).toEqual([
-      expect.objectContaining({ kind: 'input', label: 'Mains voltage', before: '230 V rms', after: '230 V rms', sourceBefore: 'typed', sourceAfter: 'procedure parameter “Nominal mains”' }),
+      expect.objectContaining({
+        kind: 'input',
+        label: 'Mains voltage',
+        before: '230 V rms',
+        after: '230 V rms',
+        sourceBefore: 'typed',
+        sourceAfter: 'procedure parameter “Nominal mains”',
+      }),
     ]);
   });
 
@@ -80,9 +106,14 @@ describe('the review’s value changes', () => {
       'output ht: No-load DC, high end',
     ]);
     const inputs = changes.filter((c) => c.kind === 'input');
-    expect(inputs.find((c) => c.label === 'Actual mains')).toMatchObject({ after: '240 V rms', sourceAfter: expect.stringMatching(/Measured mains.*left empty/) });
+    expect(inputs.find((c) => c.label === 'Actual mains')).toMatchObject({
+      after: '240 V rms',
+      sourceAfter: expect.stringMatching(/Measured mains.*left empty/),
+    });
     expect(inputs.some((c) => c.label === 'Valve rectifier drop')).toBe(false); // not given: nothing assumed
-    expect(changes.filter((c) => c.kind === 'reading')).toEqual([expect.objectContaining({ subject: 'B+1', label: 'expected', after: expect.stringMatching(/±5 %/) })]);
+    expect(changes.filter((c) => c.kind === 'reading')).toEqual([
+      expect.objectContaining({ subject: 'B+1', label: 'expected', after: expect.stringMatching(/±5 %/) }),
+    ]);
     const all = figures(d).blocks.reduce((n, b) => n + b.outputs.length, 0);
     expect(outputs.length).toBeLessThan(all / 2);
   });

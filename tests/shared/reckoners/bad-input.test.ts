@@ -6,12 +6,24 @@ import { describe, expect, it } from 'vitest';
 import { runReckoner, validateInputs } from '../../../shared/reckoners/validate';
 import { RECKONER_KINDS } from '../../../shared/reckoners/registry';
 
-type Case = { kind: string; valid: Record<string, unknown>; required: string[]; positive: string[]; nonNegative?: string[] };
+type Case = {
+  kind: string;
+  valid: Record<string, unknown>;
+  required: string[];
+  positive: string[];
+  nonNegative?: string[];
+};
 
 const cases: Case[] = [
   {
     kind: 'mains-fuse',
-    valid: { windings: [{ volts: 250, amps: 0.1 }, { volts: 6.3, amps: 3 }], mainsVoltage: 230 },
+    valid: {
+      windings: [
+        { volts: 250, amps: 0.1 },
+        { volts: 6.3, amps: 3 },
+      ],
+      mainsVoltage: 230,
+    },
     required: ['windings.0.volts', 'windings.1.amps'],
     positive: ['windings.0.volts', 'windings.1.amps', 'mainsVoltage', 'efficiency', 'margin'],
   },
@@ -97,12 +109,15 @@ describe('bad input, every reckoner', () => {
       it.each(c.positive)('zero %s → field error', (field) => {
         expectFieldError(c.kind, setPath(c.valid, field, 0), field);
       });
-      it.each([...c.positive, ...(c.nonNegative ?? []), ...c.required.filter((f) => f !== 'tolerance')])('non-numeric %s → field error', (field) => {
-        expectFieldError(c.kind, setPath(c.valid, field, 'lots'), field, /not a number|cannot read/);
-        expectFieldError(c.kind, setPath(c.valid, field, Number.NaN), field, /finite/);
-        expectFieldError(c.kind, setPath(c.valid, field, Infinity), field, /finite/);
-        expectFieldError(c.kind, setPath(c.valid, field, true), field);
-      });
+      it.each([...c.positive, ...(c.nonNegative ?? []), ...c.required.filter((f) => f !== 'tolerance')])(
+        'non-numeric %s → field error',
+        (field) => {
+          expectFieldError(c.kind, setPath(c.valid, field, 'lots'), field, /not a number|cannot read/);
+          expectFieldError(c.kind, setPath(c.valid, field, Number.NaN), field, /finite/);
+          expectFieldError(c.kind, setPath(c.valid, field, Infinity), field, /finite/);
+          expectFieldError(c.kind, setPath(c.valid, field, true), field);
+        },
+      );
       it('rejects a non-object', () => {
         const r = validateInputs(c.kind, 42);
         expect(r.ok).toBe(false);
@@ -111,23 +126,58 @@ describe('bad input, every reckoner', () => {
   }
 
   it('names an unknown select option and lists the choices', () => {
-    expectFieldError('loaded-bplus', { windingVoltage: 300, sourceResistance: 80, reservoir: 47e-6, loadCurrent: 0.08, rectifier: 'selenium' }, 'rectifier', /one of/);
+    expectFieldError(
+      'loaded-bplus',
+      {
+        windingVoltage: 300,
+        sourceResistance: 80,
+        reservoir: 47e-6,
+        loadCurrent: 0.08,
+        rectifier: 'selenium',
+      },
+      'rectifier',
+      /one of/,
+    );
   });
 
   it('rejects an out-of-range value instead of clamping it', () => {
-    expectFieldError('mains-fuse', { windings: [{ volts: 250, amps: 0.1 }], mainsVoltage: '2 kV' }, 'mainsVoltage', /at most/);
-    expectFieldError('heater-budget', { windingCurrent: 3, heaters: [{ volts: 6.3, amps: 0.3, count: 1.5 }] }, 'heaters.0.count', /whole/);
+    expectFieldError(
+      'mains-fuse',
+      { windings: [{ volts: 250, amps: 0.1 }], mainsVoltage: '2 kV' },
+      'mainsVoltage',
+      /at most/,
+    );
+    expectFieldError(
+      'heater-budget',
+      { windingCurrent: 3, heaters: [{ volts: 6.3, amps: 0.3, count: 1.5 }] },
+      'heaters.0.count',
+      /whole/,
+    );
   });
 
   it('rejects a wrong unit in a typed value', () => {
-    expectFieldError('bleeder', { capacitance: '100 V', chargedVoltage: 450 }, 'capacitance', /expected a value in F/);
+    expectFieldError(
+      'bleeder',
+      { capacitance: '100 V', chargedVoltage: 450 },
+      'capacitance',
+      /expected a value in F/,
+    );
   });
 
   it('rejects a tolerance that is neither text nor a tolerance object', () => {
     expectFieldError('reading-tolerance', { expected: 325, tolerance: 'lots' }, 'tolerance');
     expectFieldError('reading-tolerance', { expected: 325, tolerance: 5 }, 'tolerance');
-    expectFieldError('reading-tolerance', { expected: 325, tolerance: { kind: 'percent' } }, 'tolerance.percent', /required/);
-    expectFieldError('reading-tolerance', { expected: 325, tolerance: { kind: 'roughly', percent: 5 } }, 'tolerance.kind');
+    expectFieldError(
+      'reading-tolerance',
+      { expected: 325, tolerance: { kind: 'percent' } },
+      'tolerance.percent',
+      /required/,
+    );
+    expectFieldError(
+      'reading-tolerance',
+      { expected: 325, tolerance: { kind: 'roughly', percent: 5 } },
+      'tolerance.kind',
+    );
   });
 
   it('rejects values below a sensible floor (no tiny-but-positive underflow)', () => {
@@ -135,6 +185,9 @@ describe('bad input, every reckoner', () => {
   });
 
   it('reports an unknown kind', () => {
-    expect(validateInputs('flux-capacitor', {})).toEqual({ ok: false, errors: [{ field: 'kind', reason: 'unknown reckoner "flux-capacitor"' }] });
+    expect(validateInputs('flux-capacitor', {})).toEqual({
+      ok: false,
+      errors: [{ field: 'kind', reason: 'unknown reckoner "flux-capacitor"' }],
+    });
   });
 });

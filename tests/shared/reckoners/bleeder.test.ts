@@ -40,7 +40,11 @@ describe('bleeder', () => {
   });
 
   it('the stored energy is what a bleeder dissipates over a full discharge [derived: energy conservation, docs/references.md §5]', () => {
-    const { outputs } = run('bleeder', { capacitance: '100 µF', chargedVoltage: 450, bleederResistance: '22k' });
+    const { outputs } = run('bleeder', {
+      capacitance: '100 µF',
+      chargedVoltage: 450,
+      bleederResistance: '22k',
+    });
     expectClose(num(outputs, 'storedEnergy'), dischargeByRk4(22e3, 100e-6, 450, 60).energy, 1e-4);
   });
 
@@ -52,7 +56,11 @@ describe('bleeder', () => {
   });
 
   it('time constant (kΩ × µF → s by mathjs) and time to threshold (step-by-step discharge) [derived, docs/references.md §5, §7]', () => {
-    const { outputs, cautions } = run('bleeder', { capacitance: '100 µF', chargedVoltage: 450, bleederResistance: '22k' });
+    const { outputs, cautions } = run('bleeder', {
+      capacitance: '100 µF',
+      chargedVoltage: 450,
+      bleederResistance: '22k',
+    });
     const tau = multiply(unit('22 kohm'), unit('100 uF')) as Unit;
     expectClose(num(outputs, 'timeConstant'), tau.toNumber('s'), 1e-12);
     const t = dischargeByRk4(22e3, 100e-6, 450, 60).crossing;
@@ -65,26 +73,54 @@ describe('bleeder', () => {
   });
 
   it('flags a bleeder that is too slow for the target time: 220 kΩ × 100 µF takes 44 s [derived; std: IEC 60204-1 6.2.4, docs/references.md §8]', () => {
-    const { cautions } = run('bleeder', { capacitance: '100 µF', chargedVoltage: 450, bleederResistance: '220k' });
+    const { cautions } = run('bleeder', {
+      capacitance: '100 µF',
+      chargedVoltage: 450,
+      bleederResistance: '220k',
+    });
     expect(cautions.find((c) => c.code === 'slow-discharge')?.source).toMatch(/IEC 60204-1/);
   });
 
   it('uses the threshold the author sets (50 V: NFPA 70E / OSHA 1910.333 [std, docs/references.md §8])', () => {
-    const at60 = num(run('bleeder', { capacitance: '100u', chargedVoltage: 450, bleederResistance: '22k' }).outputs, 'timeToThreshold');
-    const at50 = num(run('bleeder', { capacitance: '100u', chargedVoltage: 450, bleederResistance: '22k', threshold: '50 V' }).outputs, 'timeToThreshold');
+    const at60 = num(
+      run('bleeder', { capacitance: '100u', chargedVoltage: 450, bleederResistance: '22k' }).outputs,
+      'timeToThreshold',
+    );
+    const at50 = num(
+      run('bleeder', {
+        capacitance: '100u',
+        chargedVoltage: 450,
+        bleederResistance: '22k',
+        threshold: '50 V',
+      }).outputs,
+      'timeToThreshold',
+    );
     // Falling on from 60 V to 50 V takes the step-by-step discharge's extra time [derived, docs/references.md §5].
-    const extra = dischargeByRk4(22e3, 100e-6, 450, 50).crossing - dischargeByRk4(22e3, 100e-6, 450, 60).crossing;
+    const extra =
+      dischargeByRk4(22e3, 100e-6, 450, 50).crossing - dischargeByRk4(22e3, 100e-6, 450, 60).crossing;
     expectClose(at50 - at60, extra, 1e-3);
   });
 
   it('needs no bleeder when already at or below the threshold [derived]', () => {
-    const { outputs } = run('bleeder', { capacitance: '100u', chargedVoltage: 50, bleederResistance: '100k' });
+    const { outputs } = run('bleeder', {
+      capacitance: '100u',
+      chargedVoltage: 50,
+      bleederResistance: '100k',
+    });
     expect(num(outputs, 'timeToThreshold')).toBe(0);
     expect(typeof outputs.suggestedBleeder!.value).toBe('string');
   });
 
   it('warns above the 45 µC charge limit: 1 µF × 100 V = 100 µC warns, 100 nF × 100 V = 10 µC does not [std: IEC 61010-1, partly from memory; docs/references.md §8]', () => {
-    expect(run('bleeder', { capacitance: '1u', chargedVoltage: 100 }).cautions.some((c) => c.code === 'stored-charge-limit')).toBe(true);
-    expect(run('bleeder', { capacitance: '100n', chargedVoltage: 100 }).cautions.some((c) => c.code === 'stored-charge-limit')).toBe(false);
+    expect(
+      run('bleeder', { capacitance: '1u', chargedVoltage: 100 }).cautions.some(
+        (c) => c.code === 'stored-charge-limit',
+      ),
+    ).toBe(true);
+    expect(
+      run('bleeder', { capacitance: '100n', chargedVoltage: 100 }).cautions.some(
+        (c) => c.code === 'stored-charge-limit',
+      ),
+    ).toBe(false);
   });
 });

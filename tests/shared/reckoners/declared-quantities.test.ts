@@ -37,7 +37,11 @@ describe('field declarations', () => {
     for (const kind of RECKONER_KINDS) {
       const r = runReckoner(kind, TYPICAL_INPUTS[kind]);
       expect(r.ok, `${kind}: ${JSON.stringify(!r.ok && r.errors)}`).toBe(true);
-      if (r.ok) expect(r.cautions.filter((c) => c.code.startsWith('implausible')), kind).toEqual([]);
+      if (r.ok)
+        expect(
+          r.cautions.filter((c) => c.code.startsWith('implausible')),
+          kind,
+        ).toEqual([]);
     }
   });
 
@@ -47,7 +51,8 @@ describe('field declarations', () => {
         for (const f of fields) {
           if (f.kind === 'rows') walk(f.columns ?? []);
           if (f.kind !== 'quantity' || !f.unit) continue;
-          if (f.unit === 'V' || f.unit === 'A') expect(f.measure, `${def.kind}.${f.key}`).toMatch(/^(rms|peak|peak-to-peak|dc)$/);
+          if (f.unit === 'V' || f.unit === 'A')
+            expect(f.measure, `${def.kind}.${f.key}`).toMatch(/^(rms|peak|peak-to-peak|dc)$/);
           else expect(f.measure, `${def.kind}.${f.key}`).toBeUndefined();
           expect(f.plausible, `${def.kind}.${f.key} has a shop range`).toBeDefined();
           if (f.min !== undefined) expect(f.plausible!.min).toBeGreaterThanOrEqual(f.min);
@@ -100,7 +105,8 @@ describe('measures', () => {
           const input = clone(TYPICAL_INPUTS[kind]!);
           setPath(input, path, `${value} ${spec.unit}${word}`);
           const r = runReckoner(kind, input);
-          const fieldError = !r.ok && r.errors.some((e) => e.field === path && /this field takes/.test(e.reason));
+          const fieldError =
+            !r.ok && r.errors.some((e) => e.field === path && /this field takes/.test(e.reason));
           expect(fieldError, `${kind}.${path} given ${measure}`).toBe(measure !== spec.measure);
           checked++;
         }
@@ -127,7 +133,11 @@ describe('unknown input names are refused, with the nearest name', () => {
   ])('%s: "%s" → did you mean "%s"', (kind, typo, meant) => {
     const r = runReckoner(kind, { ...TYPICAL_INPUTS[kind], [typo]: '1' });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.errors).toContainEqual({ field: typo, reason: expect.stringContaining(`did you mean "${meant}"`) });
+    if (!r.ok)
+      expect(r.errors).toContainEqual({
+        field: typo,
+        reason: expect.stringContaining(`did you mean "${meant}"`),
+      });
   });
 
   it('inside rows too: a ladder stage with "fitted" is refused', () => {
@@ -135,14 +145,22 @@ describe('unknown input names are refused, with the nearest name', () => {
     (input.stages as Record<string, unknown>[])[1]!.fitted = '4k7';
     const r = runReckoner('dropper-ladder', input);
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.errors).toContainEqual({ field: 'stages.1.fitted', reason: expect.stringContaining('"fittedResistance"') });
+    if (!r.ok)
+      expect(r.errors).toContainEqual({
+        field: 'stages.1.fitted',
+        reason: expect.stringContaining('"fittedResistance"'),
+      });
   });
 
   it('every reckoner refuses a made-up key', () => {
     for (const kind of RECKONER_KINDS) {
       const r = runReckoner(kind, { ...TYPICAL_INPUTS[kind], zzExtra: 1 });
       expect(r.ok, kind).toBe(false);
-      if (!r.ok) expect(r.errors.map((e) => e.field), kind).toContain('zzExtra');
+      if (!r.ok)
+        expect(
+          r.errors.map((e) => e.field),
+          kind,
+        ).toContain('zzExtra');
     }
   });
 });
@@ -158,11 +176,17 @@ describe('unit slips through every reckoner', () => {
     const down = spec.plausible!.min > 0;
     switch (spec.unit) {
       case 'V':
-        return [...(down ? [{ name: 'mV for V', factor: 1e-3 }] : []), ...(spec.measure === 'rms' ? [{ name: 'peak for rms', factor: 1, suffix: 'pk' }] : [])];
+        return [
+          ...(down ? [{ name: 'mV for V', factor: 1e-3 }] : []),
+          ...(spec.measure === 'rms' ? [{ name: 'peak for rms', factor: 1, suffix: 'pk' }] : []),
+        ];
       case 'A':
         return down ? [{ name: 'mA for A', factor: 1e-3 }] : [];
       case 'F':
-        return [{ name: 'nF for µF', factor: 1e-3 }, { name: 'mF for µF', factor: 1e3 }];
+        return [
+          { name: 'nF for µF', factor: 1e-3 },
+          { name: 'mF for µF', factor: 1e3 },
+        ];
       case 'Ω':
         return [...(down ? [{ name: 'k for M', factor: 1e-3 }] : []), { name: 'M for k', factor: 1e3 }];
       default:
@@ -180,14 +204,27 @@ describe('unit slips through every reckoner', () => {
       if (typeof intended !== 'number' || intended === 0) continue;
       for (const s of slipsFor(spec)) {
         const v = intended * s.factor;
-        table.push({ kind, path, slip: s.name, typed: `${Number(v.toPrecision(6))} ${spec.unit}${s.suffix ?? ''}` });
+        table.push({
+          kind,
+          path,
+          slip: s.name,
+          typed: `${Number(v.toPrecision(6))} ${spec.unit}${s.suffix ?? ''}`,
+        });
       }
     }
   }
 
   it('covers every reckoner with a volt, ampere, farad or ohm field', () => {
     const kinds = new Set(table.map((t) => t.kind));
-    for (const k of ['mains-fuse', 'peak-no-load', 'loaded-bplus', 'dropper-ladder', 'bleeder', 'heater-budget']) expect(kinds).toContain(k);
+    for (const k of [
+      'mains-fuse',
+      'peak-no-load',
+      'loaded-bplus',
+      'dropper-ladder',
+      'bleeder',
+      'heater-budget',
+    ])
+      expect(kinds).toContain(k);
     expect(table.length).toBeGreaterThan(25);
   });
 
@@ -196,27 +233,48 @@ describe('unit slips through every reckoner', () => {
     setPath(input, path, typed);
     const r = runReckoner(kind, input);
     if (r.ok) {
-      expect(r.cautions.some((c) => c.code === 'implausible-input' && c.field === path), JSON.stringify(r.cautions.map((c) => c.code))).toBe(true);
+      expect(
+        r.cautions.some((c) => c.code === 'implausible-input' && c.field === path),
+        JSON.stringify(r.cautions.map((c) => c.code)),
+      ).toBe(true);
     } else {
-      expect(r.errors.some((e) => e.field === path || e.field.startsWith(`${path}`) || e.field === path.split('.')[0])).toBe(true);
+      expect(
+        r.errors.some(
+          (e) => e.field === path || e.field.startsWith(`${path}`) || e.field === path.split('.')[0],
+        ),
+      ).toBe(true);
     }
   });
 });
 
 function readPath(obj: unknown, path: string): unknown {
-  return path.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined), obj);
+  return path
+    .split('.')
+    .reduce<unknown>(
+      (o, k) => (o && typeof o === 'object' ? (o as Record<string, unknown>)[k] : undefined),
+      obj,
+    );
 }
 
 describe('no silent fallbacks', () => {
   it('a 300 mV winding is refused or cautioned, never a 0 V no-load DC', () => {
     const r = runReckoner('peak-no-load', { ...TYPICAL_INPUTS['peak-no-load'], windingVoltage: '300 mV' });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.errors[0]).toMatchObject({ field: 'windingVoltage', reason: expect.stringMatching(/no more than the rectifier drop/) });
+    if (!r.ok)
+      expect(r.errors[0]).toMatchObject({
+        field: 'windingVoltage',
+        reason: expect.stringMatching(/no more than the rectifier drop/),
+      });
   });
 
   it('a peak below a valve rectifier’s drop is refused [derived: no-load DC = V_peak − drop, docs/references.md §2]', () => {
     // 10 V rms → 14.1 V peak, below a 20 V valve drop.
-    const r = runReckoner('peak-no-load', { ...TYPICAL_INPUTS['peak-no-load'], windingVoltage: '10 V', rectifier: 'valve', valveDrop: '20 V' });
+    const r = runReckoner('peak-no-load', {
+      ...TYPICAL_INPUTS['peak-no-load'],
+      windingVoltage: '10 V',
+      rectifier: 'valve',
+      valveDrop: '20 V',
+    });
     expect(r.ok).toBe(false);
   });
 
@@ -234,7 +292,9 @@ describe('no silent fallbacks', () => {
     if (!r.ok) return;
     expect(r.cautions.map((c) => c.code)).toContain('implausible-input');
     // 450² / 1e-3 = 2.0e8 W
-    expect(r.cautions.some((c) => c.code === 'implausible-result' && /Bleeder dissipation/.test(c.message))).toBe(true);
+    expect(
+      r.cautions.some((c) => c.code === 'implausible-result' && /Bleeder dissipation/.test(c.message)),
+    ).toBe(true);
   });
 
   it('a ladder drawing 10 A is cautioned', () => {
@@ -259,7 +319,11 @@ describe('no silent fallbacks', () => {
 describe('parameters and references', () => {
   it('an empty field that follows the measured mains follows it: 280 V at 236 V on 230 V mains → 287.3 V [derived: V × actual ÷ nominal, docs/references.md §2]', () => {
     const inputs = { ...TYPICAL_INPUTS['peak-no-load'], mainsNominal: '', mainsActual: '' };
-    const r = evaluateProcedure([{ name: 'pk', kind: 'peak-no-load', inputs }], { mainsNominal: 230, mainsVoltage: 236, mainsFrequency: 50 });
+    const r = evaluateProcedure([{ name: 'pk', kind: 'peak-no-load', inputs }], {
+      mainsNominal: 230,
+      mainsVoltage: 236,
+      mainsFrequency: 50,
+    });
     const b = r.blocks[0]!;
     if (!b.ok) throw new Error(JSON.stringify(b.errors));
     expect(b.outputs.windingVoltage!.value).toBeCloseTo((280 * 236) / 230, 6);
@@ -268,11 +332,17 @@ describe('parameters and references', () => {
 
   it('a measured-mains field typed by hand stays put on the bench, and the block says so', () => {
     const inputs = { ...TYPICAL_INPUTS['peak-no-load'], mainsNominal: '', mainsActual: '230 V' };
-    const r = evaluateProcedure([{ name: 'pk', kind: 'peak-no-load', inputs }], { mainsNominal: 230, mainsVoltage: 236, mainsFrequency: 50 });
+    const r = evaluateProcedure([{ name: 'pk', kind: 'peak-no-load', inputs }], {
+      mainsNominal: 230,
+      mainsVoltage: 236,
+      mainsFrequency: 50,
+    });
     const b = r.blocks[0]!;
     if (!b.ok) throw new Error(JSON.stringify(b.errors));
     expect(b.outputs.windingVoltage!.value).toBeCloseTo(280, 9);
-    expect(b.cautions).toContainEqual(expect.objectContaining({ code: 'parameter-typed', field: 'mainsActual', level: 'warning' }));
+    expect(b.cautions).toContainEqual(
+      expect.objectContaining({ code: 'parameter-typed', field: 'mainsActual', level: 'warning' }),
+    );
   });
 
   it('every field that declares a parameter names one that exists, with the same unit and measure', () => {
@@ -289,27 +359,52 @@ describe('parameters and references', () => {
   it('a reference from an ampere output into a volt field is refused', () => {
     const r = evaluateProcedure([
       { name: 'bplus', kind: 'loaded-bplus', inputs: TYPICAL_INPUTS['loaded-bplus']! },
-      { name: 'bleed', kind: 'bleeder', inputs: { ...TYPICAL_INPUTS.bleeder, chargedVoltage: { ref: 'bplus.windingRmsCurrent' } } },
+      {
+        name: 'bleed',
+        kind: 'bleeder',
+        inputs: { ...TYPICAL_INPUTS.bleeder, chargedVoltage: { ref: 'bplus.windingRmsCurrent' } },
+      },
     ]);
     const b = r.blocks[1]!;
     expect(b.ok).toBe(false);
-    if (!b.ok) expect(b.errors[0]).toMatchObject({ field: 'chargedVoltage', reason: expect.stringMatching(/A rms.*takes V DC/) });
+    if (!b.ok)
+      expect(b.errors[0]).toMatchObject({
+        field: 'chargedVoltage',
+        reason: expect.stringMatching(/A rms.*takes V DC/),
+      });
   });
 
   it('a peak output into an rms field is refused; a DC output into a DC field is accepted', () => {
     const r = evaluateProcedure([
       { name: 'bplus', kind: 'loaded-bplus', inputs: TYPICAL_INPUTS['loaded-bplus']! },
-      { name: 'again', kind: 'loaded-bplus', inputs: { ...TYPICAL_INPUTS['loaded-bplus'], windingVoltage: { ref: 'bplus.peakVoltage' } } },
-      { name: 'bleed', kind: 'bleeder', inputs: { ...TYPICAL_INPUTS.bleeder, chargedVoltage: { ref: 'bplus.noLoadDc' } } },
+      {
+        name: 'again',
+        kind: 'loaded-bplus',
+        inputs: { ...TYPICAL_INPUTS['loaded-bplus'], windingVoltage: { ref: 'bplus.peakVoltage' } },
+      },
+      {
+        name: 'bleed',
+        kind: 'bleeder',
+        inputs: { ...TYPICAL_INPUTS.bleeder, chargedVoltage: { ref: 'bplus.noLoadDc' } },
+      },
     ]);
     expect(r.blocks[1]!.ok).toBe(false);
     expect(r.blocks[2]!.ok).toBe(true);
   });
 
   it('a procedure parameter in volts cannot feed a field in hertz', () => {
-    const r = evaluateProcedure([{ name: 'b', kind: 'loaded-bplus', inputs: { ...TYPICAL_INPUTS['loaded-bplus'], mainsFrequency: { param: 'mainsVoltage' } } }], {
-      mainsVoltage: 230,
-    });
+    const r = evaluateProcedure(
+      [
+        {
+          name: 'b',
+          kind: 'loaded-bplus',
+          inputs: { ...TYPICAL_INPUTS['loaded-bplus'], mainsFrequency: { param: 'mainsVoltage' } },
+        },
+      ],
+      {
+        mainsVoltage: 230,
+      },
+    );
     expect(r.blocks[0]!.ok).toBe(false);
   });
 });

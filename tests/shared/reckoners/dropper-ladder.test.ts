@@ -4,13 +4,20 @@ import { rcAttenuation, suggestedPowerRating } from '../../../shared/reckoners/d
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
 /** IEC 60063 E24, typed literally from the standard's table [std; docs/references.md §4]. */
-const E24_TABLE = [1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1];
+const E24_TABLE = [
+  1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6, 6.2, 6.8,
+  7.5, 8.2, 9.1,
+];
 
 /** Nearest E24 value on a logarithmic scale (the series is geometric) [derived]. */
 function nearestE24(r: number): number {
   const decade = Math.floor(Math.log10(r));
-  const candidates = [decade - 1, decade, decade + 1].flatMap((d) => E24_TABLE.map((m) => Math.round(m * 10 ** d * 1e6) / 1e6));
-  return candidates.reduce((best, c) => (Math.abs(Math.log(c / r)) < Math.abs(Math.log(best / r)) ? c : best));
+  const candidates = [decade - 1, decade, decade + 1].flatMap((d) =>
+    E24_TABLE.map((m) => Math.round(m * 10 ** d * 1e6) / 1e6),
+  );
+  return candidates.reduce((best, c) =>
+    Math.abs(Math.log(c / r)) < Math.abs(Math.log(best / r)) ? c : best,
+  );
 }
 
 describe('dropper-ladder', () => {
@@ -85,11 +92,16 @@ describe('dropper-ladder', () => {
         { targetVoltage: 320, current: 0.01, capacitance: '47u' },
       ],
     });
-    expect(errs).toEqual([{ field: 'stages.1.targetVoltage', reason: expect.stringMatching(/below the node before it/) }]);
+    expect(errs).toEqual([
+      { field: 'stages.1.targetVoltage', reason: expect.stringMatching(/below the node before it/) },
+    ]);
   });
 
   it('rejects a chain where no current flows through a resistor', () => {
-    const errs = fieldErrors('dropper-ladder', { startVoltage: 350, stages: [{ targetVoltage: 300, current: 0, capacitance: '47u' }] });
+    const errs = fieldErrors('dropper-ladder', {
+      startVoltage: 350,
+      stages: [{ targetVoltage: 300, current: 0, capacitance: '47u' }],
+    });
     expect(errs[0]!.field).toBe('stages.0.current');
   });
 
@@ -98,8 +110,20 @@ describe('dropper-ladder', () => {
     const chain = (start: number, fitted: [string | undefined, string | undefined]) => ({
       startVoltage: start,
       stages: [
-        { label: 'B+2', targetVoltage: 300, current: '10 mA', capacitance: '47u', fittedResistance: fitted[0] },
-        { label: 'B+3', targetVoltage: 250, current: '10 mA', capacitance: '22u', fittedResistance: fitted[1] },
+        {
+          label: 'B+2',
+          targetVoltage: 300,
+          current: '10 mA',
+          capacitance: '47u',
+          fittedResistance: fitted[0],
+        },
+        {
+          label: 'B+3',
+          targetVoltage: 250,
+          current: '10 mA',
+          capacitance: '22u',
+          fittedResistance: fitted[1],
+        },
       ],
     });
 
@@ -155,7 +179,9 @@ describe('dropper-ladder', () => {
       expectClose(num(outputs, 'stage2.resistanceExact'), 5000);
       expect(num(outputs, 'stage2.resistance')).toBe(4700);
       expectClose(num(outputs, 'stage2.nodeVoltage'), 294);
-      expect(outputs.finalVoltage!.explanation).toBe('With the fitted resistors where given, E12 values elsewhere.');
+      expect(outputs.finalVoltage!.explanation).toBe(
+        'With the fitted resistors where given, E12 values elsewhere.',
+      );
     });
 
     it('property: with fitted values, raising the start voltage by 10 % raises every node voltage (by exactly the rise of the start) [derived: R = ΔV / I, P = I² R; docs/references.md §4]', () => {
@@ -180,7 +206,8 @@ describe('dropper-ladder', () => {
               targetVoltage: targets[i]!,
               current: r.current,
               capacitance: 47e-6,
-              fittedResistance: (((i === 0 ? start : targets[i - 1]!) - targets[i]!) / through[i]!) * r.misfit,
+              fittedResistance:
+                (((i === 0 ? start : targets[i - 1]!) - targets[i]!) / through[i]!) * r.misfit,
             }));
             const base = run('dropper-ladder', { startVoltage: start, stages }).outputs;
             const high = run('dropper-ladder', { startVoltage: start * 1.1, stages }).outputs;
@@ -204,12 +231,20 @@ describe('dropper-ladder', () => {
     it('reports a node at or below zero as an error on the fitted value, never clamping', () => {
       // 350 V − 2k2 × 20 mA = 306 V; 306 V − 33k × 10 mA = −24 V
       const errs = fieldErrors('dropper-ladder', chain(350, ['2k2', '33k']));
-      expect(errs).toEqual([{ field: 'stages.1.fittedResistance', reason: expect.stringMatching(/fitted 33 kΩ carrying 10 mA, this node falls to -24 V from 306 V/) }]);
+      expect(errs).toEqual([
+        {
+          field: 'stages.1.fittedResistance',
+          reason: expect.stringMatching(/fitted 33 kΩ carrying 10 mA, this node falls to -24 V from 306 V/),
+        },
+      ]);
     });
 
     it('reports a chain whose standard values drive a node to zero or below as an error on the target', () => {
       // 360 V → 1 mV at 10 mA: exact 36 kΩ, nearest E12 39 kΩ drops 390 V
-      const errs = fieldErrors('dropper-ladder', { startVoltage: 360, stages: [{ targetVoltage: '1 mV', current: '10 mA', capacitance: '1u' }] });
+      const errs = fieldErrors('dropper-ladder', {
+        startVoltage: 360,
+        stages: [{ targetVoltage: '1 mV', current: '10 mA', capacitance: '1u' }],
+      });
       expect(errs.map((e) => e.field)).toEqual(['stages.0.targetVoltage']);
     });
 

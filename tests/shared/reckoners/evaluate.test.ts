@@ -8,7 +8,10 @@ const tc18: ProcedureBlock[] = [
   {
     name: 'screen',
     kind: 'dropper-ladder',
-    inputs: { startVoltage: { ref: 'bplus.averageDc' }, stages: [{ targetVoltage: 330, current: '12 mA', capacitance: '47u' }] },
+    inputs: {
+      startVoltage: { ref: 'bplus.averageDc' },
+      stages: [{ targetVoltage: 330, current: '12 mA', capacitance: '47u' }],
+    },
   },
   {
     name: 'bplus',
@@ -21,7 +24,15 @@ const tc18: ProcedureBlock[] = [
       mainsFrequency: { param: 'mainsFrequency' },
     },
   },
-  { name: 'ht', kind: 'peak-no-load', inputs: { windingVoltage: '275 V', mainsActual: { param: 'mainsVoltage' }, mainsNominal: { param: 'mainsNominal' } } },
+  {
+    name: 'ht',
+    kind: 'peak-no-load',
+    inputs: {
+      windingVoltage: '275 V',
+      mainsActual: { param: 'mainsVoltage' },
+      mainsNominal: { param: 'mainsNominal' },
+    },
+  },
   {
     name: 'b_plus_reading',
     kind: 'reading-tolerance',
@@ -55,7 +66,16 @@ describe('evaluateProcedure', () => {
   });
 
   it('names the block and reference when a block is missing', () => {
-    const r = evaluateProcedure([{ name: 'ladder', kind: 'dropper-ladder', inputs: { startVoltage: { ref: 'nowhere.averageDc' }, stages: [] } }], {});
+    const r = evaluateProcedure(
+      [
+        {
+          name: 'ladder',
+          kind: 'dropper-ladder',
+          inputs: { startVoltage: { ref: 'nowhere.averageDc' }, stages: [] },
+        },
+      ],
+      {},
+    );
     const b = r.blocks[0]!;
     expect(b.ok).toBe(false);
     if (b.ok) return;
@@ -80,10 +100,26 @@ describe('evaluateProcedure', () => {
 
   it('reports a cycle as a procedure error naming the blocks, without throwing', () => {
     const blocks: ProcedureBlock[] = [
-      { name: 'a', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'c.storedEnergy' } } },
-      { name: 'b', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'a.storedEnergy' } } },
-      { name: 'c', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'b.storedEnergy' } } },
-      { name: 'd', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'c.storedEnergy' } } },
+      {
+        name: 'a',
+        kind: 'bleeder',
+        inputs: { capacitance: '47u', chargedVoltage: { ref: 'c.storedEnergy' } },
+      },
+      {
+        name: 'b',
+        kind: 'bleeder',
+        inputs: { capacitance: '47u', chargedVoltage: { ref: 'a.storedEnergy' } },
+      },
+      {
+        name: 'c',
+        kind: 'bleeder',
+        inputs: { capacitance: '47u', chargedVoltage: { ref: 'b.storedEnergy' } },
+      },
+      {
+        name: 'd',
+        kind: 'bleeder',
+        inputs: { capacitance: '47u', chargedVoltage: { ref: 'c.storedEnergy' } },
+      },
       { name: 'free', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: 300 } },
     ];
     const r = evaluateProcedure(blocks, {});
@@ -98,8 +134,16 @@ describe('evaluateProcedure', () => {
   it('reports a self-reference, an unset parameter, an unknown kind and a duplicate name', () => {
     const r = evaluateProcedure(
       [
-        { name: 'self', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'self.storedEnergy' } } },
-        { name: 'p', kind: 'peak-no-load', inputs: { windingVoltage: 6.3, mainsActual: { param: 'mainsVoltage' } } },
+        {
+          name: 'self',
+          kind: 'bleeder',
+          inputs: { capacitance: '47u', chargedVoltage: { ref: 'self.storedEnergy' } },
+        },
+        {
+          name: 'p',
+          kind: 'peak-no-load',
+          inputs: { windingVoltage: 6.3, mainsActual: { param: 'mainsVoltage' } },
+        },
         { name: 'k', kind: 'flux', inputs: {} },
         { name: 'dup', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: 300 } },
         { name: 'dup', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: 300 } },
@@ -107,7 +151,9 @@ describe('evaluateProcedure', () => {
       ],
       {},
     );
-    const reasons = r.blocks.map((b) => (b.ok ? '' : b.errors.map((e) => `${e.field}: ${e.reason}`).join('; ')));
+    const reasons = r.blocks.map((b) =>
+      b.ok ? '' : b.errors.map((e) => `${e.field}: ${e.reason}`).join('; '),
+    );
     expect(reasons[0]).toMatch(/chargedVoltage: .*same block/);
     expect(reasons[1]).toMatch(/mainsActual: .*"mainsVoltage", which is not set/);
     expect(reasons[2]).toMatch(/kind: unknown reckoner "flux"/);
@@ -121,7 +167,11 @@ describe('evaluateProcedure', () => {
     const r = evaluateProcedure(
       [
         { name: 'ht', kind: 'peak-no-load', inputs: { windingVoltage: -5 } },
-        { name: 'b', kind: 'bleeder', inputs: { capacitance: '47u', chargedVoltage: { ref: 'ht.peakVoltage' } } },
+        {
+          name: 'b',
+          kind: 'bleeder',
+          inputs: { capacitance: '47u', chargedVoltage: { ref: 'ht.peakVoltage' } },
+        },
       ],
       {},
     );
@@ -135,17 +185,31 @@ describe('evaluateProcedure', () => {
   it('resolves references inside rows', () => {
     const r = evaluateProcedure(
       [
-        { name: 'bplus', kind: 'loaded-bplus', inputs: { windingVoltage: 300, sourceResistance: 80, reservoir: '47u', loadCurrent: '80 mA' } },
+        {
+          name: 'bplus',
+          kind: 'loaded-bplus',
+          inputs: { windingVoltage: 300, sourceResistance: 80, reservoir: '47u', loadCurrent: '80 mA' },
+        },
         {
           name: 'fuse',
           kind: 'mains-fuse',
-          inputs: { windings: [{ volts: 300, amps: { ref: 'bplus.windingRmsCurrent' } }, { volts: 6.3, amps: 2 }], mainsVoltage: { param: 'mainsVoltage' } },
+          inputs: {
+            windings: [
+              { volts: 300, amps: { ref: 'bplus.windingRmsCurrent' } },
+              { volts: 6.3, amps: 2 },
+            ],
+            mainsVoltage: { param: 'mainsVoltage' },
+          },
         },
       ],
       { mainsVoltage: 230 },
     );
     const [bplus, fuse] = r.blocks;
     if (!bplus?.ok || !fuse?.ok) throw new Error(JSON.stringify(r));
-    expectClose(fuse.outputs.totalVA!.value as number, 300 * (bplus.outputs.windingRmsCurrent!.value as number) + 12.6, 1e-12);
+    expectClose(
+      fuse.outputs.totalVA!.value as number,
+      300 * (bplus.outputs.windingRmsCurrent!.value as number) + 12.6,
+      1e-12,
+    );
   });
 });

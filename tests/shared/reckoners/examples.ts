@@ -19,18 +19,35 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
       mainsVoltage: '120 V',
       efficiency: '85 %',
     },
-    check: { key: 'primaryCurrent', value: 0.5284, source: '53.9 VA ÷ (0.85 × 120 V), docs/references.md §1' },
+    check: {
+      key: 'primaryCurrent',
+      value: 0.5284,
+      source: '53.9 VA ÷ (0.85 × 120 V), docs/references.md §1',
+    },
   },
   'peak-no-load': {
     inputs: { windingVoltage: '120 V', mainsNominal: '120 V', rectifier: 'silicon-bridge', diodeDrop: '1 V' },
     check: { key: 'peakVoltage', value: 169.71, source: '√2 × 120 V, docs/references.md §2' },
   },
   'loaded-bplus': {
-    inputs: { windingVoltage: '300 V', sourceResistance: '50 Ω', reservoir: '47 µF', mainsFrequency: '50 Hz', loadCurrent: '100 mA' },
-    check: { key: 'noLoadDc', value: Math.SQRT2 * 300 - 1.8, source: '√2 × 300 V less two 0.9 V diode drops, docs/references.md §2' },
+    inputs: {
+      windingVoltage: '300 V',
+      sourceResistance: '50 Ω',
+      reservoir: '47 µF',
+      mainsFrequency: '50 Hz',
+      loadCurrent: '100 mA',
+    },
+    check: {
+      key: 'noLoadDc',
+      value: Math.SQRT2 * 300 - 1.8,
+      source: '√2 × 300 V less two 0.9 V diode drops, docs/references.md §2',
+    },
   },
   'dropper-ladder': {
-    inputs: { startVoltage: '350 V', stages: [{ label: 'B+2', targetVoltage: '300 V', current: '20 mA', capacitance: '47 µF' }] },
+    inputs: {
+      startVoltage: '350 V',
+      stages: [{ label: 'B+2', targetVoltage: '300 V', current: '20 mA', capacitance: '47 µF' }],
+    },
     check: { key: 'stage1.resistanceExact', value: 2500, source: '50 V ÷ 20 mA, docs/references.md §4' },
   },
   bleeder: {
@@ -95,7 +112,14 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
   'dropper-ladder': {
     startVoltage: '350 V',
     stages: [
-      { label: 'B+2', targetVoltage: '300 V', current: '20 mA', capacitance: '47 µF', capacitorRating: '450 V', fittedResistance: '2k7' },
+      {
+        label: 'B+2',
+        targetVoltage: '300 V',
+        current: '20 mA',
+        capacitance: '47 µF',
+        capacitorRating: '450 V',
+        fittedResistance: '2k7',
+      },
       { label: 'B+3', targetVoltage: '250 V', current: '5 mA', capacitance: '22 µF' },
     ],
     series: 'E12',

@@ -27,7 +27,8 @@ function solveByRk4(p: Circuit) {
   const n = p.stepsPerHalfCycle ?? 20000;
   const w = 2 * Math.PI * p.f;
   const h = 1 / (2 * p.f) / n;
-  const diode = (t: number, v: number) => Math.max(0, (p.vPeak * Math.abs(Math.sin(w * t)) - p.drop - v) / p.rs);
+  const diode = (t: number, v: number) =>
+    Math.max(0, (p.vPeak * Math.abs(Math.sin(w * t)) - p.drop - v) / p.rs);
   const loadI = (v: number) => ('current' in p.load ? p.load.current : v / p.load.resistance);
   const slope = (t: number, v: number) => (diode(t, v) - loadI(v)) / p.c;
   const rk4 = (t: number, v: number) => {
@@ -76,10 +77,55 @@ function solveByRk4(p: Circuit) {
 describe('loaded-bplus against an independent RK4 solution of the circuit [derived: docs/references.md §3]', () => {
   // Silicon bridge: drop 2 × 0.9 V (the default); centre-tap: 0.9 V; valve: the author's fixed drop.
   const cases = [
-    { name: 'light ripple: 300 V, 2.2 Ω, 470 µF, 50 Hz, 100 mA, bridge', inputs: { windingVoltage: 300, sourceResistance: 2.2, reservoir: 470e-6, mainsFrequency: 50, loadCurrent: 0.1, rectifier: 'silicon-bridge' }, drop: 1.8 },
-    { name: 'heavy ripple: 250 V, 60 Ω, 47 µF, 50 Hz, 120 mA, bridge', inputs: { windingVoltage: 250, sourceResistance: 60, reservoir: 47e-6, mainsFrequency: 50, loadCurrent: 0.12, rectifier: 'silicon-bridge' }, drop: 1.8 },
-    { name: 'valve: 350 V, 200 Ω, 32 µF, 60 Hz, 80 mA, 15 V fixed drop', inputs: { windingVoltage: 350, sourceResistance: 200, reservoir: 32e-6, mainsFrequency: 60, loadCurrent: 0.08, rectifier: 'valve', valveDrop: 15 }, drop: 15 },
-    { name: 'centre-tap: 300 V, 100 Ω, 100 µF, 60 Hz, 150 mA', inputs: { windingVoltage: 300, sourceResistance: 100, reservoir: 100e-6, mainsFrequency: 60, loadCurrent: 0.15, rectifier: 'silicon-centre-tap' }, drop: 0.9 },
+    {
+      name: 'light ripple: 300 V, 2.2 Ω, 470 µF, 50 Hz, 100 mA, bridge',
+      inputs: {
+        windingVoltage: 300,
+        sourceResistance: 2.2,
+        reservoir: 470e-6,
+        mainsFrequency: 50,
+        loadCurrent: 0.1,
+        rectifier: 'silicon-bridge',
+      },
+      drop: 1.8,
+    },
+    {
+      name: 'heavy ripple: 250 V, 60 Ω, 47 µF, 50 Hz, 120 mA, bridge',
+      inputs: {
+        windingVoltage: 250,
+        sourceResistance: 60,
+        reservoir: 47e-6,
+        mainsFrequency: 50,
+        loadCurrent: 0.12,
+        rectifier: 'silicon-bridge',
+      },
+      drop: 1.8,
+    },
+    {
+      name: 'valve: 350 V, 200 Ω, 32 µF, 60 Hz, 80 mA, 15 V fixed drop',
+      inputs: {
+        windingVoltage: 350,
+        sourceResistance: 200,
+        reservoir: 32e-6,
+        mainsFrequency: 60,
+        loadCurrent: 0.08,
+        rectifier: 'valve',
+        valveDrop: 15,
+      },
+      drop: 15,
+    },
+    {
+      name: 'centre-tap: 300 V, 100 Ω, 100 µF, 60 Hz, 150 mA',
+      inputs: {
+        windingVoltage: 300,
+        sourceResistance: 100,
+        reservoir: 100e-6,
+        mainsFrequency: 60,
+        loadCurrent: 0.15,
+        rectifier: 'silicon-centre-tap',
+      },
+      drop: 0.9,
+    },
   ] as const;
 
   it.each(cases)('$name', ({ inputs, drop }) => {
@@ -110,7 +156,12 @@ describe('loaded-bplus against an independent RK4 solution of the circuit [deriv
     // centre-tapped winding, on alternate half-cycles: rms ÷ √2 [derived].
     const winding = inputs.rectifier === 'silicon-bridge' ? ref.halfCycleRms : ref.halfCycleRms / Math.SQRT2;
     expectClose(num(outputs, 'windingRmsCurrent'), winding, 1e-3, 'winding rms current');
-    expectClose(num(outputs, 'rectifierRmsCurrent'), ref.halfCycleRms / Math.SQRT2, 1e-3, 'rectifier rms current');
+    expectClose(
+      num(outputs, 'rectifierRmsCurrent'),
+      ref.halfCycleRms / Math.SQRT2,
+      1e-3,
+      'rectifier rms current',
+    );
   });
 });
 
@@ -126,11 +177,24 @@ describe('loaded-bplus', () => {
     // 470 µF, 100 mA, 50 Hz: I/(2fC) = 2.128 V. While the rectifier is off the reservoir falls at
     // exactly I/C for t_off = (1 − conduction)/(2f); crest and trough lie inside the conduction time
     // (where the rectifier current equals I), so the ripple is at least I·t_off/C and at most I/(2fC).
-    const inputs = { windingVoltage: '300 V', sourceResistance: '2R2', reservoir: '470 µF', mainsFrequency: '50 Hz', loadCurrent: '100 mA' };
+    const inputs = {
+      windingVoltage: '300 V',
+      sourceResistance: '2R2',
+      reservoir: '470 µF',
+      mainsFrequency: '50 Hz',
+      loadCurrent: '100 mA',
+    };
     const { outputs } = run('loaded-bplus', inputs);
     const approx = 0.1 / (2 * 50 * 470e-6);
     const ripple = num(outputs, 'ripplePeakToPeak');
-    const ref = solveByRk4({ vPeak: Math.SQRT2 * 300, drop: 1.8, rs: 2.2, c: 470e-6, f: 50, load: { current: 0.1 } });
+    const ref = solveByRk4({
+      vPeak: Math.SQRT2 * 300,
+      drop: 1.8,
+      rs: 2.2,
+      c: 470e-6,
+      f: 50,
+      load: { current: 0.1 },
+    });
     const offTimeDrop = approx * (1 - ref.conduction);
     expect(ripple).toBeLessThanOrEqual(approx);
     expect(ripple).toBeGreaterThanOrEqual(offTimeDrop * (1 - 1e-4));
@@ -165,7 +229,15 @@ describe('loaded-bplus', () => {
     // The reckoner takes a constant-current load: iterate I = E_dc / R_L to the resistive operating point.
     let Edc = Epk;
     for (let i = 0; i < 30; i++) {
-      const out = run('loaded-bplus', { windingVoltage: Epk / Math.SQRT2, sourceResistance: RL * 1e-4, reservoir: C, mainsFrequency: f, loadCurrent: Edc / RL, rectifier: 'silicon-bridge', diodeDrop: 0 }).outputs;
+      const out = run('loaded-bplus', {
+        windingVoltage: Epk / Math.SQRT2,
+        sourceResistance: RL * 1e-4,
+        reservoir: C,
+        mainsFrequency: f,
+        loadCurrent: Edc / RL,
+        rectifier: 'silicon-bridge',
+        diodeDrop: 0,
+      }).outputs;
       Edc = num(out, 'averageDc');
     }
     honest(Edc / Epk, 'reckoner');
@@ -174,21 +246,44 @@ describe('loaded-bplus', () => {
   });
 
   it('with no load the reservoir sits at the peak less the drop, with no ripple [derived, docs/references.md §2]', () => {
-    const { outputs } = run('loaded-bplus', { windingVoltage: 300, sourceResistance: 50, reservoir: '47u', loadCurrent: 0 });
+    const { outputs } = run('loaded-bplus', {
+      windingVoltage: 300,
+      sourceResistance: 50,
+      reservoir: '47u',
+      loadCurrent: 0,
+    });
     expectClose(num(outputs, 'averageDc'), Math.SQRT2 * 300 - 1.8, 1e-9);
     expect(num(outputs, 'ripplePeakToPeak')).toBe(0);
   });
 
   it('reports an overload as an error on loadCurrent, not NaN', () => {
     // 2 A from a 100 V winding through 100 Ω: even a short across the reservoir gives only 1.4 A peak.
-    const errs = fieldErrors('loaded-bplus', { windingVoltage: 100, sourceResistance: 100, reservoir: '1u', loadCurrent: 2 });
+    const errs = fieldErrors('loaded-bplus', {
+      windingVoltage: 100,
+      sourceResistance: 100,
+      reservoir: '1u',
+      loadCurrent: 2,
+    });
     expect(errs[0]!.field).toBe('loadCurrent');
   });
 
   it('cautions about hazard (above 60 V DC, docs/references.md §8), stored charge, ripple current and rectifier peaks', () => {
-    const { cautions } = run('loaded-bplus', { windingVoltage: 300, sourceResistance: 50, reservoir: '47u', loadCurrent: '0.1', rectifier: 'valve' });
+    const { cautions } = run('loaded-bplus', {
+      windingVoltage: 300,
+      sourceResistance: 50,
+      reservoir: '47u',
+      loadCurrent: '0.1',
+      rectifier: 'valve',
+    });
     expect(cautions.map((c) => c.code)).toEqual(
-      expect.arrayContaining(['hazardous-voltage', 'stored-charge', 'ripple-current', 'rectifier-peak', 'valve-rectifier-limits', 'local-codes']),
+      expect.arrayContaining([
+        'hazardous-voltage',
+        'stored-charge',
+        'ripple-current',
+        'rectifier-peak',
+        'valve-rectifier-limits',
+        'local-codes',
+      ]),
     );
   });
 });

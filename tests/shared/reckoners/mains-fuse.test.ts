@@ -15,7 +15,8 @@ const VA = 53.9;
 
 /** IEC 60127-2 rated currents, the R10 preferred numbers of ISO 3, typed from docs/references.md §1. */
 const IEC_RATINGS = [
-  0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2, 2.5, 3.15, 4, 5, 6.3,
+  0.032, 0.04, 0.05, 0.063, 0.08, 0.1, 0.125, 0.16, 0.2, 0.25, 0.315, 0.4, 0.5, 0.63, 0.8, 1, 1.25, 1.6, 2,
+  2.5, 3.15, 4, 5, 6.3,
 ];
 /**
  * IEC 60127-2 standard sheet 3, time-lag (T) low breaking capacity, pre-arcing time gates
@@ -36,8 +37,17 @@ describe('mains-fuse', () => {
   });
 
   it('primary current at η 0.85: 120 V → 0.5284 A, 230 V → 0.2757 A [derived, docs/references.md §1]', () => {
-    expectClose(num(run('mains-fuse', { windings, mainsVoltage: '120 V', efficiency: '85 %' }).outputs, 'primaryCurrent'), 0.5284);
-    expectClose(num(run('mains-fuse', { windings, mainsVoltage: '230 V', efficiency: 85 }).outputs, 'primaryCurrent'), 0.2757);
+    expectClose(
+      num(
+        run('mains-fuse', { windings, mainsVoltage: '120 V', efficiency: '85 %' }).outputs,
+        'primaryCurrent',
+      ),
+      0.5284,
+    );
+    expectClose(
+      num(run('mains-fuse', { windings, mainsVoltage: '230 V', efficiency: 85 }).outputs, 'primaryCurrent'),
+      0.2757,
+    );
   });
 
   it('primary current from windings given in mixed units, by mathjs unit arithmetic (V × mA → VA; VA ÷ kV → mA) [derived, docs/references.md §1, §7]', () => {
@@ -47,8 +57,19 @@ describe('mains-fuse', () => {
     ) as Unit;
     expectClose(secondary.toNumber('VA'), VA, 1e-9);
     const primary = divide(secondary, multiply(0.85, unit('0.12 kV')) as Unit) as Unit;
-    const inputs = { windings: [{ volts: '250 V', amps: '100 mA' }, { volts: '6V3', amps: '3 A' }, { volts: '5 V', amps: '2000 mA' }], mainsVoltage: '120 V' };
-    expectClose(num(run('mains-fuse', inputs).outputs, 'primaryCurrent') * 1000, primary.toNumber('mA'), 1e-9);
+    const inputs = {
+      windings: [
+        { volts: '250 V', amps: '100 mA' },
+        { volts: '6V3', amps: '3 A' },
+        { volts: '5 V', amps: '2000 mA' },
+      ],
+      mainsVoltage: '120 V',
+    };
+    expectClose(
+      num(run('mains-fuse', inputs).outputs, 'primaryCurrent') * 1000,
+      primary.toNumber('mA'),
+      1e-9,
+    );
   });
 
   it('chooses the next IEC 60127-2 rating at or above primary × margin [std: IEC 60127-2 R10 values, docs/references.md §1]', () => {
@@ -60,13 +81,21 @@ describe('mains-fuse', () => {
     ] as const) {
       const required = (VA / (0.85 * mainsVoltage)) * margin;
       const expected = IEC_RATINGS.find((r) => r >= required)!;
-      expect(num(run('mains-fuse', { windings, mainsVoltage, margin }).outputs, 'fuseRating'), `${mainsVoltage} V × ${margin}`).toBe(expected);
+      expect(
+        num(run('mains-fuse', { windings, mainsVoltage, margin }).outputs, 'fuseRating'),
+        `${mainsVoltage} V × ${margin}`,
+      ).toBe(expected);
     }
     // Worked by hand: 0.5284 A × 1.0 → 630 mA; 0.2757 A × 1.25 = 0.345 A → 400 mA.
     expect(IEC_RATINGS.find((r) => r >= 0.5284)).toBe(0.63);
     expect(IEC_RATINGS.find((r) => r >= 0.2757 * 1.25)).toBe(0.4);
     // North American sizes [common practice, no source]: 0.5284 A → 3/4 A
-    expect(num(run('mains-fuse', { windings, mainsVoltage: 120, margin: 1, series: 'north-american' }).outputs, 'fuseRating')).toBe(0.75);
+    expect(
+      num(
+        run('mains-fuse', { windings, mainsVoltage: 120, margin: 1, series: 'north-american' }).outputs,
+        'fuseRating',
+      ),
+    ).toBe(0.75);
   });
 
   it('estimates the switch-on surge as ten times running current, marked as a rule of thumb [common practice, no source; docs/references.md §1]', () => {
@@ -95,12 +124,48 @@ describe('mains-fuse', () => {
 
     // 53.9 VA at 230 V, η 0.85: primary 0.2757 A. `holds` is worked by hand; the test also derives it.
     const scenarios = [
-      { name: 'defaults: 10 × running for 0.2 s on 400 mA = 6.9 × In → 10 × In gate, 10 ms < 0.2 s', margin: 1.25, multiple: 10, duration: 0.2, holds: false },
-      { name: '2 × running for 0.2 s on 400 mA = 1.38 × In → 2.75 × In gate, 0.2 s ≥ 0.2 s', margin: 1.25, multiple: 2, duration: 0.2, holds: true },
-      { name: '4 × running for 30 ms on 400 mA = 2.76 × In → 4 × In gate, 40 ms ≥ 30 ms', margin: 1.25, multiple: 4, duration: 0.03, holds: true },
-      { name: '4 × running for 50 ms on 400 mA = 2.76 × In → 4 × In gate, 40 ms < 50 ms', margin: 1.25, multiple: 4, duration: 0.05, holds: false },
-      { name: '10 × running for 5 ms on 400 mA = 6.9 × In → 10 × In gate, 10 ms ≥ 5 ms', margin: 1.25, multiple: 10, duration: 0.005, holds: true },
-      { name: '20 × running on 315 mA (margin 1) = 17.5 × In → beyond the table', margin: 1, multiple: 20, duration: 0.2, holds: false },
+      {
+        name: 'defaults: 10 × running for 0.2 s on 400 mA = 6.9 × In → 10 × In gate, 10 ms < 0.2 s',
+        margin: 1.25,
+        multiple: 10,
+        duration: 0.2,
+        holds: false,
+      },
+      {
+        name: '2 × running for 0.2 s on 400 mA = 1.38 × In → 2.75 × In gate, 0.2 s ≥ 0.2 s',
+        margin: 1.25,
+        multiple: 2,
+        duration: 0.2,
+        holds: true,
+      },
+      {
+        name: '4 × running for 30 ms on 400 mA = 2.76 × In → 4 × In gate, 40 ms ≥ 30 ms',
+        margin: 1.25,
+        multiple: 4,
+        duration: 0.03,
+        holds: true,
+      },
+      {
+        name: '4 × running for 50 ms on 400 mA = 2.76 × In → 4 × In gate, 40 ms < 50 ms',
+        margin: 1.25,
+        multiple: 4,
+        duration: 0.05,
+        holds: false,
+      },
+      {
+        name: '10 × running for 5 ms on 400 mA = 6.9 × In → 10 × In gate, 10 ms ≥ 5 ms',
+        margin: 1.25,
+        multiple: 10,
+        duration: 0.005,
+        holds: true,
+      },
+      {
+        name: '20 × running on 315 mA (margin 1) = 17.5 × In → beyond the table',
+        margin: 1,
+        multiple: 20,
+        duration: 0.2,
+        holds: false,
+      },
     ];
 
     it.each(scenarios)('$name', ({ margin, multiple, duration, holds }) => {
@@ -112,7 +177,13 @@ describe('mains-fuse', () => {
       const derived = gate !== undefined && gate.min >= duration;
       expect(derived, 'hand-worked verdict').toBe(holds);
 
-      const { outputs, cautions } = run('mains-fuse', { windings, mainsVoltage: 230, margin, inrushMultiple: multiple, inrushDuration: duration });
+      const { outputs, cautions } = run('mains-fuse', {
+        windings,
+        mainsVoltage: 230,
+        margin,
+        inrushMultiple: multiple,
+        inrushDuration: duration,
+      });
       expectClose(num(outputs, 'inrushMultipleOfRating'), surgeMultiple);
       expect(outputs.inrushWithinGate!.value).toBe(holds);
       const inrush = cautions.find((c) => c.code === 'inrush');
@@ -170,6 +241,8 @@ describe('mains-fuse', () => {
 
   it('requires a VA figure or windings according to the choice', () => {
     expect(fieldErrors('mains-fuse', { load: 'va', mainsVoltage: 230 })[0]!.field).toBe('va');
-    expect(fieldErrors('mains-fuse', { load: 'windings', windings: [], mainsVoltage: 230 })[0]!.field).toBe('windings');
+    expect(fieldErrors('mains-fuse', { load: 'windings', windings: [], mainsVoltage: 230 })[0]!.field).toBe(
+      'windings',
+    );
   });
 });

@@ -15,15 +15,37 @@ describe('peak-no-load', () => {
     const rmsOfUnitSine = sqrt(mean(dotPow(samples, 2) as Matrix) as number) as number;
     for (const v of [6.3, 120, 230, 300]) {
       const peak = divide(unit(v, 'V'), rmsOfUnitSine) as Unit;
-      expectClose(num(run('peak-no-load', { windingVoltage: v }).outputs, 'peakVoltage'), peak.toNumber('V'), 1e-9);
+      expectClose(
+        num(run('peak-no-load', { windingVoltage: v }).outputs, 'peakVoltage'),
+        peak.toNumber('V'),
+        1e-9,
+      );
     }
   });
 
   it('no-load DC = peak − n × V_F: bridge n = 2, centre-tap n = 1 [common practice, docs/references.md §2]', () => {
     const pk = Math.SQRT2 * 300;
-    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-bridge', diodeDrop: 1 }).outputs, 'noLoadDc'), pk - 2);
-    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-centre-tap', diodeDrop: 0.7 }).outputs, 'noLoadDc'), pk - 0.7);
-    expectClose(num(run('peak-no-load', { windingVoltage: 300, rectifier: 'valve', valveDrop: '25 V' }).outputs, 'noLoadDc'), pk - 25);
+    expectClose(
+      num(
+        run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-bridge', diodeDrop: 1 }).outputs,
+        'noLoadDc',
+      ),
+      pk - 2,
+    );
+    expectClose(
+      num(
+        run('peak-no-load', { windingVoltage: 300, rectifier: 'silicon-centre-tap', diodeDrop: 0.7 }).outputs,
+        'noLoadDc',
+      ),
+      pk - 0.7,
+    );
+    expectClose(
+      num(
+        run('peak-no-load', { windingVoltage: 300, rectifier: 'valve', valveDrop: '25 V' }).outputs,
+        'noLoadDc',
+      ),
+      pk - 25,
+    );
   });
 
   it('scales a rated winding with the mains: V × actual ÷ nominal [derived, docs/references.md §2]', () => {
@@ -33,7 +55,12 @@ describe('peak-no-load', () => {
   });
 
   it('does not scale a measured winding [derived: a measured figure is already at the actual mains; docs/references.md §2]', () => {
-    const { outputs } = run('peak-no-load', { windingVoltage: 300, windingBasis: 'measured', mainsNominal: 230, mainsActual: 253 });
+    const { outputs } = run('peak-no-load', {
+      windingVoltage: 300,
+      windingBasis: 'measured',
+      mainsNominal: 230,
+      mainsActual: 253,
+    });
     expectClose(num(outputs, 'windingVoltage'), 300);
     expectClose(num(outputs, 'windingUnloadedHigh'), 300);
   });
@@ -47,7 +74,9 @@ describe('peak-no-load', () => {
 
   it('warns of the hazardous node and capacitor rating above 60 V [std: IEC 62368-1 ES1, from memory; docs/references.md §8]', () => {
     const { cautions } = run('peak-no-load', { windingVoltage: 300, filterNodes: 3 });
-    expect(cautions.map((c) => c.code)).toEqual(expect.arrayContaining(['hazardous-voltage', 'capacitor-rating', 'local-codes']));
+    expect(cautions.map((c) => c.code)).toEqual(
+      expect.arrayContaining(['hazardous-voltage', 'capacitor-rating', 'local-codes']),
+    );
     expect(cautions.find((c) => c.code === 'hazardous-voltage')!.message).toMatch(/3 filter nodes/);
     const low = run('peak-no-load', { windingVoltage: 6.3 });
     expect(low.cautions.some((c) => c.code === 'hazardous-voltage')).toBe(false);

@@ -29,21 +29,28 @@ function expectFiniteOrNamedError(kind: string, input: unknown): boolean {
 
 describe('every registered reckoner evaluates its worked example [docs/references.md §1–§6]', () => {
   it('has a worked example for every kind in the registry', () => {
-    expect(Object.keys(WORKED_EXAMPLES).sort()).toEqual(listReckoners().map((d) => d.kind).sort());
+    expect(Object.keys(WORKED_EXAMPLES).sort()).toEqual(
+      listReckoners()
+        .map((d) => d.kind)
+        .sort(),
+    );
   });
 
-  it.each(listReckoners().map((d) => d.kind))('%s: ok, finite numeric outputs, and the hand-worked value', (kind) => {
-    const example = WORKED_EXAMPLES[kind];
-    expect(example, `a worked example for ${kind}`).toBeDefined();
-    const r = runReckoner(kind, example!.inputs);
-    if (!r.ok) throw new Error(`${kind} refused its worked example: ${JSON.stringify(r.errors)}`);
-    const numeric = Object.values(r.outputs).filter((o) => typeof o.value === 'number');
-    expect(numeric.length).toBeGreaterThan(0);
-    expect(allFinite(r.outputs)).toBe(true);
-    const { key, value, source } = example!.check;
-    expect(typeof r.outputs[key]?.value, `${kind}.${key}`).toBe('number');
-    expectClose(r.outputs[key]!.value as number, value, 1e-3, `${kind}.${key} (${source})`);
-  });
+  it.each(listReckoners().map((d) => d.kind))(
+    '%s: ok, finite numeric outputs, and the hand-worked value',
+    (kind) => {
+      const example = WORKED_EXAMPLES[kind];
+      expect(example, `a worked example for ${kind}`).toBeDefined();
+      const r = runReckoner(kind, example!.inputs);
+      if (!r.ok) throw new Error(`${kind} refused its worked example: ${JSON.stringify(r.errors)}`);
+      const numeric = Object.values(r.outputs).filter((o) => typeof o.value === 'number');
+      expect(numeric.length).toBeGreaterThan(0);
+      expect(allFinite(r.outputs)).toBe(true);
+      const { key, value, source } = example!.check;
+      expect(typeof r.outputs[key]?.value, `${kind}.${key}`).toBe('number');
+      expectClose(r.outputs[key]!.value as number, value, 1e-3, `${kind}.${key} (${source})`);
+    },
+  );
 });
 
 const range = (min: number, max: number) => fc.double({ min, max, noNaN: true });
@@ -57,7 +64,10 @@ const MIN_OK = 0.9;
 
 const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
   'mains-fuse': fc.record({
-    windings: fc.array(fc.record({ volts: range(5, 450), amps: range(0.01, 0.5) }), { minLength: 1, maxLength: 4 }),
+    windings: fc.array(fc.record({ volts: range(5, 450), amps: range(0.01, 0.5) }), {
+      minLength: 1,
+      maxLength: 4,
+    }),
     mainsVoltage: range(100, 250),
     efficiency: range(70, 95),
     margin: range(1, 2),
@@ -91,11 +101,18 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
       start: range(100, 600),
       series: fc.constantFrom('E12', 'E24'),
       startRipple: range(0, 10),
-      rows: fc.array(fc.record({ frac: range(0.7, 0.97), current: range(1e-3, 0.03), capacitance: range(1e-6, 100e-6) }), { minLength: 1, maxLength: 4 }),
+      rows: fc.array(
+        fc.record({ frac: range(0.7, 0.97), current: range(1e-3, 0.03), capacitance: range(1e-6, 100e-6) }),
+        { minLength: 1, maxLength: 4 },
+      ),
     })
     .map(({ start, series, startRipple, rows }) => {
       let v = start;
-      const stages = rows.map((r) => ({ targetVoltage: (v *= r.frac), current: r.current, capacitance: r.capacitance }));
+      const stages = rows.map((r) => ({
+        targetVoltage: (v *= r.frac),
+        current: r.current,
+        capacitance: r.capacitance,
+      }));
       return { startVoltage: start, series, startRipple, stages };
     }),
   bleeder: fc.record({
@@ -109,7 +126,14 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
     windingVoltage: fc.constantFrom(6.3, 12.6, 120, 230),
     windingCurrent: range(1, 10),
     arrangement: fc.constantFrom('parallel', 'series'),
-    heaters: fc.array(fc.record({ volts: fc.constantFrom(6.3, 12.6, 35, 50), amps: range(0.15, 2), count: fc.integer({ min: 1, max: 6 }) }), { minLength: 1, maxLength: 5 }),
+    heaters: fc.array(
+      fc.record({
+        volts: fc.constantFrom(6.3, 12.6, 35, 50),
+        amps: range(0.15, 2),
+        count: fc.integer({ min: 1, max: 6 }),
+      }),
+      { minLength: 1, maxLength: 5 },
+    ),
   }),
   'reading-tolerance': fc
     .record({
@@ -117,7 +141,13 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
       expected: range(0.1, 1000),
       negative: fc.boolean(),
       // An absolute tolerance below the smallest expected value: a wider one reaching past zero is refused by design.
-      tolerance: fc.constantFrom('±5 %', '±10 %', '+10 % / -5 %', { kind: 'percent', percent: 2 }, { kind: 'absolute', amount: 0.05 }),
+      tolerance: fc.constantFrom(
+        '±5 %',
+        '±10 %',
+        '+10 % / -5 %',
+        { kind: 'percent', percent: 2 },
+        { kind: 'absolute', amount: 0.05 },
+      ),
       off: range(0.8, 1.2),
     })
     .map(({ unit, expected, negative, tolerance, off }) => {
@@ -128,7 +158,11 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
 
 describe('properties: outputs are finite or a named error, and most realistic inputs evaluate', () => {
   it('has an arbitrary for every kind in the registry', () => {
-    expect(Object.keys(arbitraries).sort()).toEqual(listReckoners().map((d) => d.kind).sort());
+    expect(Object.keys(arbitraries).sort()).toEqual(
+      listReckoners()
+        .map((d) => d.kind)
+        .sort(),
+    );
   });
 
   it.each(listReckoners().map((d) => d.kind))('%s', (kind) => {
@@ -146,18 +180,59 @@ describe('properties: outputs are finite or a named error, and most realistic in
 
   it('wide and extreme inputs still give finite outputs or named errors', () => {
     const wide: [string, fc.Arbitrary<Record<string, unknown>>][] = [
-      ['loaded-bplus', fc.record({ windingVoltage: range(5, 1000), sourceResistance: range(0.1, 2000), reservoir: range(1e-6, 4.7e-3), mainsFrequency: fc.constantFrom(50, 60), loadCurrent: range(0, 0.5), rectifier, diodeDrop: range(0, 1.2), valveDrop: range(0, 30) })],
-      ['peak-no-load', fc.record({ windingVoltage: range(0.1, 3000), mainsNominal: range(50, 300), mainsActual: range(50, 300), rectifier, valveDrop: range(0, 200) })],
-      ['bleeder', fc.record({ capacitance: range(1e-9, 1), chargedVoltage: range(0.1, 5000), bleederResistance: range(1, 1e9), threshold: range(1, 1000) })],
-      ['reading-tolerance', fc.record({ expected: range(-1e4, 1e4), tolerance: fc.record({ kind: fc.constant('percent'), percent: range(0, 100) }), measured: range(-1e4, 1e4) })],
+      [
+        'loaded-bplus',
+        fc.record({
+          windingVoltage: range(5, 1000),
+          sourceResistance: range(0.1, 2000),
+          reservoir: range(1e-6, 4.7e-3),
+          mainsFrequency: fc.constantFrom(50, 60),
+          loadCurrent: range(0, 0.5),
+          rectifier,
+          diodeDrop: range(0, 1.2),
+          valveDrop: range(0, 30),
+        }),
+      ],
+      [
+        'peak-no-load',
+        fc.record({
+          windingVoltage: range(0.1, 3000),
+          mainsNominal: range(50, 300),
+          mainsActual: range(50, 300),
+          rectifier,
+          valveDrop: range(0, 200),
+        }),
+      ],
+      [
+        'bleeder',
+        fc.record({
+          capacitance: range(1e-9, 1),
+          chargedVoltage: range(0.1, 5000),
+          bleederResistance: range(1, 1e9),
+          threshold: range(1, 1000),
+        }),
+      ],
+      [
+        'reading-tolerance',
+        fc.record({
+          expected: range(-1e4, 1e4),
+          tolerance: fc.record({ kind: fc.constant('percent'), percent: range(0, 100) }),
+          measured: range(-1e4, 1e4),
+        }),
+      ],
     ];
     for (const [kind, arb] of wide) {
-      fc.assert(fc.property(arb, (input) => void expectFiniteOrNamedError(kind, input)), { numRuns: kind === 'loaded-bplus' ? 100 : 200 });
+      fc.assert(
+        fc.property(arb, (input) => void expectFiniteOrNamedError(kind, input)),
+        { numRuns: kind === 'loaded-bplus' ? 100 : 200 },
+      );
     }
   });
 });
 
-const loadedArb = arbitraries['loaded-bplus']! as fc.Arbitrary<{ loadCurrent: number; reservoir: number } & Record<string, unknown>>;
+const loadedArb = arbitraries['loaded-bplus']! as fc.Arbitrary<
+  { loadCurrent: number; reservoir: number } & Record<string, unknown>
+>;
 
 function bplus(inp: Record<string, unknown>) {
   const r = runReckoner('loaded-bplus', inp);
@@ -172,7 +247,9 @@ describe('physical monotonicity', () => {
         const a = bplus({ ...inp, loadCurrent: lo });
         const b = bplus({ ...inp, loadCurrent: hi });
         fc.pre(a !== null && b !== null);
-        expect(b!.averageDc!.value as number).toBeLessThanOrEqual((a!.averageDc!.value as number) * (1 + 1e-9));
+        expect(b!.averageDc!.value as number).toBeLessThanOrEqual(
+          (a!.averageDc!.value as number) * (1 + 1e-9),
+        );
       }),
       { numRuns: 120 },
     );

@@ -10,7 +10,10 @@ describe('toleranceBand / checkReading', () => {
 
   it('ANSI C84.1 Range A 114–126 V and Range B 110–127 V on 120 V [std, from memory; docs/references.md §2]', () => {
     expect(toleranceBand(120, { kind: 'percent', percent: 5 })).toEqual({ low: 114, high: 126 });
-    expect(toleranceBand(120, { kind: 'asymmetric', below: 10, above: 7, basis: 'absolute' })).toEqual({ low: 110, high: 127 });
+    expect(toleranceBand(120, { kind: 'asymmetric', below: 10, above: 7, basis: 'absolute' })).toEqual({
+      low: 110,
+      high: 127,
+    });
   });
 
   it('limits are inclusive; just outside is out [product rule: a reading on the limit is accepted]', () => {
@@ -38,17 +41,24 @@ describe('toleranceBand / checkReading', () => {
   });
 
   it('asymmetric percent band: 300 V −5 % / +10 % → 285–330 V [derived]', () => {
-    expect(toleranceBand(300, { kind: 'asymmetric', below: 5, above: 10, basis: 'percent' })).toEqual({ low: 285, high: 330 });
+    expect(toleranceBand(300, { kind: 'asymmetric', below: 5, above: 10, basis: 'percent' })).toEqual({
+      low: 285,
+      high: 330,
+    });
   });
 
   it('throws a field-named error for bad tolerances', () => {
     expect(() => toleranceBand(230, { kind: 'percent', percent: -1 })).toThrow(ReckonerInputError);
     expect(() => toleranceBand(0, { kind: 'percent', percent: 5 })).toThrow(/non-zero expected/);
-    expect(() => checkReading({ expected: 1, tolerance: { kind: 'absolute', amount: 1 }, measured: Number.NaN })).toThrow(/measured/);
+    expect(() =>
+      checkReading({ expected: 1, tolerance: { kind: 'absolute', amount: 1 }, measured: Number.NaN }),
+    ).toThrow(/measured/);
     const infinite = thrownBy(() => toleranceBand(230, { kind: 'absolute', amount: Infinity }));
     expect(infinite).toBeInstanceOf(ReckonerInputError);
     expect(infinite).toMatchObject({ field: 'tolerance.amount', reason: 'must be a finite number' });
-    const negative = thrownBy(() => toleranceBand(230, { kind: 'asymmetric', below: -1, above: 5, basis: 'percent' }));
+    const negative = thrownBy(() =>
+      toleranceBand(230, { kind: 'asymmetric', below: -1, above: 5, basis: 'percent' }),
+    );
     expect(negative).toBeInstanceOf(ReckonerInputError);
     expect(negative).toMatchObject({ field: 'tolerance.below', reason: 'must not be negative' });
   });
@@ -77,7 +87,12 @@ describe('reading-tolerance reckoner', () => {
     expectClose(num(a.outputs, 'low'), 308.75);
     expectClose(num(a.outputs, 'high'), 341.25);
     expect(a.outputs.within).toBeUndefined();
-    const b = run('reading-tolerance', { unit: 'V', expected: 325, tolerance: { kind: 'percent', percent: 5 }, measured: '350 V' });
+    const b = run('reading-tolerance', {
+      unit: 'V',
+      expected: 325,
+      tolerance: { kind: 'percent', percent: 5 },
+      measured: '350 V',
+    });
     expect(b.outputs.within!.value).toBe(false);
     expect(b.outputs.verdict!.value).toBe('out');
     expectClose(num(b.outputs, 'deviation'), 25);
@@ -96,17 +111,33 @@ describe('reading-tolerance reckoner', () => {
       const r = run('reading-tolerance', { unit: 'V', expected: 100, tolerance: '±10 %', measured }).outputs;
       expect(r.within!.value, `${measured} V`).toBe(within);
       // The one place the decision is made: the reckoner and checkReading must agree.
-      expect(checkReading({ expected: 100, tolerance: { kind: 'percent', percent: 10 }, measured }).within, `${measured} V`).toBe(within);
+      expect(
+        checkReading({ expected: 100, tolerance: { kind: 'percent', percent: 10 }, measured }).within,
+        `${measured} V`,
+      ).toBe(within);
     }
   });
 
   it('reads expected and measured in the chosen unit and rejects other units', () => {
-    const r = run('reading-tolerance', { unit: 'A', expected: '100 mA', tolerance: '± 5 mA', measured: '0.104' });
+    const r = run('reading-tolerance', {
+      unit: 'A',
+      expected: '100 mA',
+      tolerance: '± 5 mA',
+      measured: '0.104',
+    });
     expect(r.outputs.within!.value).toBe(true);
-    expect(fieldErrors('reading-tolerance', { unit: 'A', expected: '100 V', tolerance: '±5 %' })[0]!.field).toBe('expected');
-    expect(fieldErrors('reading-tolerance', { unit: 'V', expected: 0, tolerance: '±5 %' })[0]!.field).toBe('tolerance');
-    expect(fieldErrors('reading-tolerance', { unit: 'V', expected: 10, tolerance: { kind: 'percent', percent: -3 } })[0]!.field).toBe(
-      'tolerance.percent',
+    expect(
+      fieldErrors('reading-tolerance', { unit: 'A', expected: '100 V', tolerance: '±5 %' })[0]!.field,
+    ).toBe('expected');
+    expect(fieldErrors('reading-tolerance', { unit: 'V', expected: 0, tolerance: '±5 %' })[0]!.field).toBe(
+      'tolerance',
     );
+    expect(
+      fieldErrors('reading-tolerance', {
+        unit: 'V',
+        expected: 10,
+        tolerance: { kind: 'percent', percent: -3 },
+      })[0]!.field,
+    ).toBe('tolerance.percent');
   });
 });

@@ -5,7 +5,15 @@ import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
   it('holds the seven reckoners under their stable kind ids', () => {
-    expect(RECKONER_KINDS).toEqual(['mains-fuse', 'peak-no-load', 'loaded-bplus', 'dropper-ladder', 'bleeder', 'heater-budget', 'reading-tolerance']);
+    expect(RECKONER_KINDS).toEqual([
+      'mains-fuse',
+      'peak-no-load',
+      'loaded-bplus',
+      'dropper-ladder',
+      'bleeder',
+      'heater-budget',
+      'reading-tolerance',
+    ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
@@ -25,8 +33,10 @@ describe('registry', () => {
       expect(f.label.length).toBeGreaterThan(1);
       if (f.kind === 'select') expect(f.options?.length).toBeGreaterThan(0);
       if (f.kind === 'rows') expect(f.columns?.length).toBeGreaterThan(0);
-      if (f.default !== undefined && f.min !== undefined) expect(f.default as number).toBeGreaterThanOrEqual(f.min);
-      if (f.default !== undefined && f.max !== undefined) expect(f.default as number).toBeLessThanOrEqual(f.max);
+      if (f.default !== undefined && f.min !== undefined)
+        expect(f.default as number).toBeGreaterThanOrEqual(f.min);
+      if (f.default !== undefined && f.max !== undefined)
+        expect(f.default as number).toBeLessThanOrEqual(f.max);
     }
   });
 
@@ -35,7 +45,9 @@ describe('registry', () => {
     const declared = new Set(def.fields.map((f) => f.key));
     // Whatever an empty input lacks is a declared field (nothing needed is invisible in forms).
     const empty = validateInputs(kind, {});
-    if (!empty.ok) for (const e of empty.errors) expect(declared.has(e.field.split('.')[0]!), `${kind}: ${e.field}`).toBe(true);
+    if (!empty.ok)
+      for (const e of empty.errors)
+        expect(declared.has(e.field.split('.')[0]!), `${kind}: ${e.field}`).toBe(true);
     // The worked example parses to declared keys only, and every field that is neither optional nor
     // defaulted is present.
     const example = validateInputs(kind, WORKED_EXAMPLES[kind]!.inputs);
@@ -47,7 +59,11 @@ describe('registry', () => {
     for (const f of def.fields) {
       const r = validateInputs(kind, { ...WORKED_EXAMPLES[kind]!.inputs, [f.key]: { wrong: true } });
       expect(r.ok, `${kind}: ${f.key} = { wrong: true }`).toBe(false);
-      if (!r.ok) expect(r.errors.map((e) => e.field.split('.')[0]), `${kind}: ${f.key}`).toContain(f.key);
+      if (!r.ok)
+        expect(
+          r.errors.map((e) => e.field.split('.')[0]),
+          `${kind}: ${f.key}`,
+        ).toContain(f.key);
     }
     // A key no field declares is refused by name (a misspelt input is never dropped silently).
     const extra = validateInputs(kind, { ...WORKED_EXAMPLES[kind]!.inputs, notAField: 1 });

@@ -45,7 +45,9 @@ describe('IEC 60127-2 rated currents', () => {
     // so every value lies within 1.5 % of some 10^(i/10), and consecutive values are one step apart.
     const steps = IEC_60127_RATED_CURRENTS.map((v) => Math.log10(v) * 10);
     for (const [i, st] of steps.entries()) {
-      expect(Math.abs(st - Math.round(st)), `${IEC_60127_RATED_CURRENTS[i]} near an R10 number`).toBeLessThan(0.065);
+      expect(Math.abs(st - Math.round(st)), `${IEC_60127_RATED_CURRENTS[i]} near an R10 number`).toBeLessThan(
+        0.065,
+      );
       if (i > 0) expect(Math.round(st) - Math.round(steps[i - 1]!)).toBe(1);
     }
     expect(IEC_60127_RATED_CURRENTS).toContain(0.315);

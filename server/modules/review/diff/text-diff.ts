@@ -34,14 +34,20 @@ export function diffTokens(a: readonly string[], b: readonly string[]): { op: Di
   const m = midB.length;
   let middle: { op: DiffOp; token: string }[];
   if ((n + 1) * (m + 1) > MAX_CELLS) {
-    middle = [...midA.map((token) => ({ op: 'del' as const, token })), ...midB.map((token) => ({ op: 'add' as const, token }))];
+    middle = [
+      ...midA.map((token) => ({ op: 'del' as const, token })),
+      ...midB.map((token) => ({ op: 'add' as const, token })),
+    ];
   } else {
     // lcs[i][j] = LCS length of midA[i..] and midB[j..], flattened.
     const w = m + 1;
     const lcs = new Uint32Array((n + 1) * w);
     for (let i = n - 1; i >= 0; i--) {
       for (let j = m - 1; j >= 0; j--) {
-        lcs[i * w + j] = midA[i] === midB[j] ? lcs[(i + 1) * w + j + 1]! + 1 : Math.max(lcs[(i + 1) * w + j]!, lcs[i * w + j + 1]!);
+        lcs[i * w + j] =
+          midA[i] === midB[j]
+            ? lcs[(i + 1) * w + j + 1]! + 1
+            : Math.max(lcs[(i + 1) * w + j]!, lcs[i * w + j + 1]!);
       }
     }
     middle = [];
@@ -96,8 +102,10 @@ export function diffText(before: string, after: string): DiffLine[] {
       k++;
     }
     const pairs = Math.min(removed.length, added.length);
-    for (let p = 0; p < pairs; p++) lines.push({ kind: 'changed', parts: merge(diffTokens(words(removed[p]!), words(added[p]!))) });
-    for (const line of removed.slice(pairs)) lines.push({ kind: 'removed', parts: [{ op: 'del', text: line }] });
+    for (let p = 0; p < pairs; p++)
+      lines.push({ kind: 'changed', parts: merge(diffTokens(words(removed[p]!), words(added[p]!))) });
+    for (const line of removed.slice(pairs))
+      lines.push({ kind: 'removed', parts: [{ op: 'del', text: line }] });
     for (const line of added.slice(pairs)) lines.push({ kind: 'added', parts: [{ op: 'add', text: line }] });
   }
   return lines;

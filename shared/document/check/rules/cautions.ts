@@ -17,7 +17,12 @@ export const reckonerCautions: Rule = {
         const key = `${c.code}\u0000${c.message}`;
         if (seen.has(key)) continue;
         seen.add(key);
-        out.push({ blockId: block.id, level: c.level, caution: c.code, message: `${reckonerName(block)}: ${c.message}` });
+        out.push({
+          blockId: block.id,
+          level: c.level,
+          caution: c.code,
+          message: `${reckonerName(block)}: ${c.message}`,
+        });
       }
     }
     return out;

@@ -5,7 +5,8 @@ import type { CheckContext, Finding, Rule } from '../types';
 import { capitalise, checkStepName, readingName, reckonerName, volts } from '../words';
 import { voltagesIn } from './hazard';
 
-const dischargeSteps = (ctx: CheckContext) => ctx.blocks.checkSteps.filter((c) => checkKindOf(c) === 'discharge-verified');
+const dischargeSteps = (ctx: CheckContext) =>
+  ctx.blocks.checkSteps.filter((c) => checkKindOf(c) === 'discharge-verified');
 /** The threshold in volts; NaN while the editor holds one that is not a voltage yet (the validation names it). */
 function thresholdOf(threshold: string | null | undefined): number {
   try {
@@ -20,10 +21,18 @@ function thresholdOf(threshold: string | null | undefined): number {
 function anyHazardousVoltage(ctx: CheckContext): boolean {
   const limit = ctx.options.safeVoltage;
   const blockHigh = ctx.snapshot.blocks.some(
-    (b) => b.ok && Object.values(b.outputs).some((o) => o.unit === 'V' && typeof o.value === 'number' && Math.abs(o.value) > limit),
+    (b) =>
+      b.ok &&
+      Object.values(b.outputs).some(
+        (o) => o.unit === 'V' && typeof o.value === 'number' && Math.abs(o.value) > limit,
+      ),
   );
-  const readingHigh = ctx.snapshot.readings.some((r) => r.unit === 'V' && r.expected !== null && Math.abs(r.expected) > limit);
-  return blockHigh || readingHigh || ctx.blocks.checkSteps.some((c) => voltagesIn(c.text).some((v) => v > limit));
+  const readingHigh = ctx.snapshot.readings.some(
+    (r) => r.unit === 'V' && r.expected !== null && Math.abs(r.expected) > limit,
+  );
+  return (
+    blockHigh || readingHigh || ctx.blocks.checkSteps.some((c) => voltagesIn(c.text).some((v) => v > limit))
+  );
 }
 
 /**

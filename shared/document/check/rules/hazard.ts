@@ -5,7 +5,8 @@ import type { Finding, Rule } from '../types';
 import { capitalise, checkStepName, readingName, reckonerName, volts } from '../words';
 
 /** Voltages written in running text: "495 V", "0.4 kV", "300 VAC", "6V3". Each read by the one parser. */
-const VOLTAGE = /(?<![\w.,])[-\u2212]?\d+(?:\.\d+)?\s?(?:k|m)?V(?:\d+)?(?:\s?(?:AC|DC|ac|dc|rms|pk|peak|pp|p-p))?(?![\w])/g;
+const VOLTAGE =
+  /(?<![\w.,])[-\u2212]?\d+(?:\.\d+)?\s?(?:k|m)?V(?:\d+)?(?:\s?(?:AC|DC|ac|dc|rms|pk|peak|pp|p-p))?(?![\w])/g;
 
 export function voltagesIn(text: string): number[] {
   const out: number[] = [];
@@ -22,7 +23,9 @@ export function voltagesIn(text: string): number[] {
 /** Highest voltage a reckoner block gives (outputs in V), 0 for a block with errors. */
 function blockVolts(block: BlockSnapshot): number {
   let max = 0;
-  if (block.ok) for (const out of Object.values(block.outputs)) if (out.unit === 'V' && typeof out.value === 'number') max = Math.max(max, Math.abs(out.value));
+  if (block.ok)
+    for (const out of Object.values(block.outputs))
+      if (out.unit === 'V' && typeof out.value === 'number') max = Math.max(max, Math.abs(out.value));
   return max;
 }
 
@@ -39,7 +42,10 @@ export const hazardNoteMissing: Rule = {
     const out: Finding[] = [];
     const need = (at: { id: string; section: string; order: number }, says: string, v: number) => {
       if (v > limit && ctx.notesBefore(at).length === 0) {
-        out.push({ blockId: at.id, message: `${capitalise(says)} ${volts(v)}, above the ${volts(limit)} DC safe voltage, but no hazard note comes before it in its section.` });
+        out.push({
+          blockId: at.id,
+          message: `${capitalise(says)} ${volts(v)}, above the ${volts(limit)} DC safe voltage, but no hazard note comes before it in its section.`,
+        });
       }
     };
     const placed = new Map(ctx.blocks.reckoners.map((r) => [r.id, r]));
@@ -52,7 +58,8 @@ export const hazardNoteMissing: Rule = {
       const e = expected.get(r.id);
       if (r.unit === 'V' && e?.expected != null) need(r, `${readingName(r)} expects`, Math.abs(e.expected));
     }
-    for (const c of ctx.blocks.checkSteps) need(c, `${checkStepName(c)} states`, Math.max(0, ...voltagesIn(c.text)));
+    for (const c of ctx.blocks.checkSteps)
+      need(c, `${checkStepName(c)} states`, Math.max(0, ...voltagesIn(c.text)));
     return out;
   },
 };
@@ -77,7 +84,8 @@ export const liveStepUnguarded: Rule = {
       const flags = ctx.flagsInScope(s.step);
       const missing = [
         !ONE_HAND.some((f) => flags.has(f)) && 'work one hand only',
-        !BRING_UP.some((f) => flags.has(f)) && 'bring the unit up through an isolation transformer or current-limited',
+        !BRING_UP.some((f) => flags.has(f)) &&
+          'bring the unit up through an isolation transformer or current-limited',
       ].filter(Boolean);
       if (!missing.length) continue;
       const name = s.type === 'check' ? checkStepName(s.step) : readingName(s.step);

@@ -10,8 +10,15 @@ export const reckonerInputErrors: Rule = {
       block.ok
         ? []
         : block.errors.map((e) => {
-            const label = fieldLabel(block.kind, e.field, blocks.reckoners.find((r) => r.id === block.id)?.inputs);
-            return { blockId: block.id, message: `${reckonerName(block)}: ${label}: ${e.reason}${/[.?!]$/.test(e.reason) ? '' : '.'}` };
+            const label = fieldLabel(
+              block.kind,
+              e.field,
+              blocks.reckoners.find((r) => r.id === block.id)?.inputs,
+            );
+            return {
+              blockId: block.id,
+              message: `${reckonerName(block)}: ${label}: ${e.reason}${/[.?!]$/.test(e.reason) ? '' : '.'}`,
+            };
           }),
     ),
 };
@@ -20,7 +27,11 @@ export const reckonerInputErrors: Rule = {
 export const procedureErrors: Rule = {
   code: 'procedure-error',
   level: 'warning',
-  run: ({ snapshot }) => snapshot.errors.map((e) => ({ blockId: null, message: `${e.message.charAt(0).toUpperCase()}${e.message.slice(1)}.` })),
+  run: ({ snapshot }) =>
+    snapshot.errors.map((e) => ({
+      blockId: null,
+      message: `${e.message.charAt(0).toUpperCase()}${e.message.slice(1)}.`,
+    })),
 };
 
 /** A procedure that powers a unit from the mains (it has reckoners or readings) sizes its fuse. */

@@ -29,7 +29,10 @@ export const partValuesDiffer: Rule = {
       if (!block.ok) continue;
       for (const f of fieldsOf(block.kind, block.input)) {
         if (!f.spec.part || typeof f.value !== 'number' || block.sources[f.path]?.kind !== 'typed') continue;
-        byPart.set(f.spec.part, [...(byPart.get(f.spec.part) ?? []), { block, path: f.path, value: f.value, unit: f.spec.unit ?? '' }]);
+        byPart.set(f.spec.part, [
+          ...(byPart.get(f.spec.part) ?? []),
+          { block, path: f.path, value: f.value, unit: f.spec.unit ?? '' },
+        ]);
       }
     }
     const out: Finding[] = [];

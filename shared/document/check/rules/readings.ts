@@ -5,7 +5,9 @@ export const readingWithoutTolerance: Rule = {
   code: 'reading-without-tolerance',
   level: 'warning',
   run: ({ snapshot }) =>
-    snapshot.readings.filter((r) => !r.toleranceText.trim()).map((r) => ({ blockId: r.id, message: `${capitalise(readingName(r))} has no tolerance.` })),
+    snapshot.readings
+      .filter((r) => !r.toleranceText.trim())
+      .map((r) => ({ blockId: r.id, message: `${capitalise(readingName(r))} has no tolerance.` })),
 };
 
 export const readingUnresolved: Rule = {

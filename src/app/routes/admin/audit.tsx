@@ -17,17 +17,26 @@ export default function AuditPage() {
     document.title = 'Audit log · Benchwright';
   }, []);
   if (!isAdmin) return <Notice tone="error">This page is for admins.</Notice>;
-  const set = (patch: Partial<AuditFilters>) => setFilters((f) => ({ ...f, ...patch, page: patch.page ?? 1 }));
+  const set = (patch: Partial<AuditFilters>) =>
+    setFilters((f) => ({ ...f, ...patch, page: patch.page ?? 1 }));
   const pages = log.data ? Math.max(1, Math.ceil(log.data.total / log.data.pageSize)) : 1;
   return (
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">Audit log</h1>
-      <p className="text-sm text-graphite-soft">Every state change, sign-off, sign-in failure, role change and deactivation. Entries can be added, never changed; each is chained to the one before by its SHA-256, so a change made around the database's guards shows up in the check.</p>
+      <p className="text-sm text-graphite-soft">
+        Every state change, sign-off, sign-in failure, role change and deactivation. Entries can be added,
+        never changed; each is chained to the one before by its SHA-256, so a change made around the
+        database's guards shows up in the check.
+      </p>
       <ChainCheck />
       <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Action
-          <select className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal" value={filters.action ?? ''} onChange={(e) => set({ action: e.target.value || undefined })}>
+          <select
+            className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal"
+            value={filters.action ?? ''}
+            onChange={(e) => set({ action: e.target.value || undefined })}
+          >
             <option value="">All actions</option>
             {(log.data?.actions ?? []).map((a) => (
               <option key={a} value={a}>
@@ -38,7 +47,11 @@ export default function AuditPage() {
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Person
-          <select className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal" value={filters.personId ?? ''} onChange={(e) => set({ personId: e.target.value || undefined })}>
+          <select
+            className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal"
+            value={filters.personId ?? ''}
+            onChange={(e) => set({ personId: e.target.value || undefined })}
+          >
             <option value="">Everyone</option>
             {(people.data?.people ?? []).map((p) => (
               <option key={p.id} value={p.id}>
@@ -49,11 +62,21 @@ export default function AuditPage() {
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           From
-          <input type="date" className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal" value={filters.from ?? ''} onChange={(e) => set({ from: e.target.value || undefined })} />
+          <input
+            type="date"
+            className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal"
+            value={filters.from ?? ''}
+            onChange={(e) => set({ from: e.target.value || undefined })}
+          />
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           To
-          <input type="date" className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal" value={filters.to ?? ''} onChange={(e) => set({ to: e.target.value || undefined })} />
+          <input
+            type="date"
+            className="min-h-11 rounded-md border border-rule bg-card px-3 font-normal"
+            value={filters.to ?? ''}
+            onChange={(e) => set({ to: e.target.value || undefined })}
+          />
         </label>
       </form>
       {log.isError && <Notice tone="error">{log.error.message}</Notice>}
@@ -61,13 +84,22 @@ export default function AuditPage() {
         <>
           <AuditTable entries={log.data.entries} />
           <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
-            <Button variant="quiet" disabled={filters.page <= 1} onClick={() => set({ page: filters.page - 1 })}>
+            <Button
+              variant="quiet"
+              disabled={filters.page <= 1}
+              onClick={() => set({ page: filters.page - 1 })}
+            >
               Newer
             </Button>
             <span>
-              Page <span className="value">{filters.page}</span> of <span className="value">{pages}</span> (<span className="value">{log.data.total}</span> entries)
+              Page <span className="value">{filters.page}</span> of <span className="value">{pages}</span> (
+              <span className="value">{log.data.total}</span> entries)
             </span>
-            <Button variant="quiet" disabled={filters.page >= pages} onClick={() => set({ page: filters.page + 1 })}>
+            <Button
+              variant="quiet"
+              disabled={filters.page >= pages}
+              onClick={() => set({ page: filters.page + 1 })}
+            >
               Older
             </Button>
           </nav>

@@ -20,7 +20,8 @@ export default function OutboxPage() {
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">Mail outbox</h1>
       <p className="text-sm text-graphite-soft">
-        Mail Benchwright has queued. Messages are kept until the mail server accepts them and retried while it is unreachable.
+        Mail Benchwright has queued. Messages are kept until the mail server accepts them and retried while it
+        is unreachable.
         {outbox.data && (
           <>
             {' '}

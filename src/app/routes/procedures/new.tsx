@@ -8,7 +8,8 @@ export default function NewProcedurePage() {
   useEffect(() => {
     document.title = 'New procedure · Benchwright';
   }, []);
-  if (!hasRole(session.data?.user, 'author')) return <Notice tone="error">Only authors create procedures.</Notice>;
+  if (!hasRole(session.data?.user, 'author'))
+    return <Notice tone="error">Only authors create procedures.</Notice>;
   return (
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">New procedure</h1>

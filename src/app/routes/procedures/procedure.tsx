@@ -21,10 +21,13 @@ export default function ProcedurePage() {
   return (
     <section className="flex flex-col gap-4">
       <p className="text-sm text-graphite-soft">
-        {procedure.equipmentFamily} · <span className="font-semibold text-graphite">{procedure.equipmentModel}</span>
+        {procedure.equipmentFamily} ·{' '}
+        <span className="font-semibold text-graphite">{procedure.equipmentModel}</span>
       </p>
       <h1 className="text-2xl font-semibold">{procedure.title}</h1>
-      {procedure.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {procedure.tags.join(', ')}</p>}
+      {procedure.tags.length > 0 && (
+        <p className="text-xs text-graphite-soft">Tags: {procedure.tags.join(', ')}</p>
+      )}
       <h2 className="text-lg font-semibold">Revisions</h2>
       <ul className="flex flex-col divide-y divide-rule rounded-lg border border-rule bg-card">
         {[...revisions].reverse().map((r) => (
@@ -38,7 +41,10 @@ export default function ProcedurePage() {
               {new Date(r.updatedAt).toLocaleString()}
             </time>
             {isAuthor && r.state === 'draft' && (
-              <Link to={paths.editRevision.href(r.id)} className="ml-auto rounded-md border border-accent-deep bg-accent px-3 py-2 text-sm font-semibold text-white">
+              <Link
+                to={paths.editRevision.href(r.id)}
+                className="ml-auto rounded-md border border-accent-deep bg-accent px-3 py-2 text-sm font-semibold text-white"
+              >
                 Edit
               </Link>
             )}

@@ -41,14 +41,18 @@ export default function RevisionPage() {
             last changed <time dateTime={r.updatedAt}>{new Date(r.updatedAt).toLocaleString()}</time>
           </span>
           <span className="text-graphite-soft">
-            mains <span className="value">{r.params.mainsNominal} V</span>, <span className="value">{r.params.mainsFrequency} Hz</span>
+            mains <span className="value">{r.params.mainsNominal} V</span>,{' '}
+            <span className="value">{r.params.mainsFrequency} Hz</span>
           </span>
         </p>
         {r.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {r.tags.join(', ')}</p>}
         <RevisionActions revision={r} isAuthor={hasRole(session.data?.user, 'author')} />
         {r.state === 'approved' && hasRole(session.data?.user, 'technician') && (
           <p>
-            <Link to={paths.newRun.href(undefined, r.id)} className="inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white hover:bg-accent-deep">
+            <Link
+              to={paths.newRun.href(undefined, r.id)}
+              className="inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white hover:bg-accent-deep"
+            >
               Start a bench run on this revision
             </Link>
           </p>
@@ -56,7 +60,10 @@ export default function RevisionPage() {
         <RevisionReviewPanel revision={r} />
       </header>
       {r.state !== 'approved' && (
-        <Notice tone="info">This revision is {REVISION_STATE_LABELS[r.state].toLowerCase()}, not the approved procedure: do not use it at the bench.</Notice>
+        <Notice tone="info">
+          This revision is {REVISION_STATE_LABELS[r.state].toLowerCase()}, not the approved procedure: do not
+          use it at the bench.
+        </Notice>
       )}
       <div className="rounded-md border-2 border-hazard-ink bg-card p-3">
         <SafetyCaution />

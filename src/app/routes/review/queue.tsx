@@ -15,7 +15,9 @@ export default function ReviewQueuePage() {
   return (
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">Review queue</h1>
-      <p className="text-sm text-graphite-soft">Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.</p>
+      <p className="text-sm text-graphite-soft">
+        Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.
+      </p>
       {queue.isPending && <p>Loading…</p>}
       {queue.isError && <Notice tone="error">{queue.error.message}</Notice>}
       {queue.data && <QueueTable items={queue.data.items} />}

@@ -39,7 +39,8 @@ export default function ReviewRevisionPage() {
     <article className="mx-auto flex max-w-5xl flex-col gap-6">
       <header className="flex flex-col gap-2 border-b border-rule pb-4">
         <p className="text-sm text-graphite-soft">
-          Review · {r.equipmentFamily} · <span className="font-semibold text-graphite">{r.equipmentModel}</span>
+          Review · {r.equipmentFamily} ·{' '}
+          <span className="font-semibold text-graphite">{r.equipmentModel}</span>
         </p>
         <h1 className="text-3xl font-semibold">{r.title}</h1>
         <p className="flex flex-wrap gap-x-4 gap-y-1 text-sm">
@@ -71,15 +72,27 @@ export default function ReviewRevisionPage() {
         </p>
       </header>
 
-      <RevisionReviewPanel revision={{ id: r.id, procedureId: r.procedureId, number: r.number, state: r.state, lockVersion: r.lockVersion }} />
+      <RevisionReviewPanel
+        revision={{
+          id: r.id,
+          procedureId: r.procedureId,
+          number: r.number,
+          state: r.state,
+          lockVersion: r.lockVersion,
+        }}
+      />
 
       {hasRole(user, 'reviewer') && (
-        <section aria-label="Decision" className="flex flex-col gap-2 rounded-lg border border-rule bg-paper-deep p-4">
+        <section
+          aria-label="Decision"
+          className="flex flex-col gap-2 rounded-lg border border-rule bg-paper-deep p-4"
+        >
           <h2 className="text-lg font-semibold">Decision</h2>
           {v.canDecide ? (
             <>
               <p className="text-sm">
-                Approving records that you, a qualified reviewer, checked this revision. It does not make the procedure safe; the bench cautions still apply.
+                Approving records that you, a qualified reviewer, checked this revision. It does not make the
+                procedure safe; the bench cautions still apply.
               </p>
               <div className="flex flex-wrap gap-2">
                 <Button onClick={() => setDeciding('approve')}>Approve…</Button>
@@ -102,7 +115,10 @@ export default function ReviewRevisionPage() {
       ) : (
         <section className="flex flex-col gap-2">
           <h2 className="text-xl font-semibold">What this revision assumes</h2>
-          <p className="text-sm text-graphite-soft">Every input given and where it came from, then each calculation’s key results, in the author’s order.</p>
+          <p className="text-sm text-graphite-soft">
+            Every input given and where it came from, then each calculation’s key results, in the author’s
+            order.
+          </p>
           <FirstRevisionTable rows={v.valueChanges} />
         </section>
       )}
@@ -110,7 +126,9 @@ export default function ReviewRevisionPage() {
       {v.reckoners.length > 0 && (
         <section className="flex flex-col gap-2" aria-label="Calculations">
           <h2 className="text-xl font-semibold">Calculations</h2>
-          <p className="text-sm text-graphite-soft">Each reckoner of this revision: what it assumes beside what it gives.</p>
+          <p className="text-sm text-graphite-soft">
+            Each reckoner of this revision: what it assumes beside what it gives.
+          </p>
           {v.reckoners.map((b) => (
             <ReckonerCard key={b.id} name={b.name} view={b} />
           ))}
@@ -131,7 +149,11 @@ export default function ReviewRevisionPage() {
       {user && (
         <SignOffDialog
           open={deciding !== null}
-          title={deciding === 'approve' ? `Approve revision ${r.number}` : `Return revision ${r.number} to ${r.author.displayName}`}
+          title={
+            deciding === 'approve'
+              ? `Approve revision ${r.number}`
+              : `Return revision ${r.number} to ${r.author.displayName}`
+          }
           meaning={deciding === 'approve' ? 'approved for use at the bench' : 'returned for changes'}
           signerName={user.displayName}
           commentLabel={deciding === 'approve' ? 'Comment' : 'What needs to change'}
@@ -139,7 +161,10 @@ export default function ReviewRevisionPage() {
           confirmLabel={deciding === 'approve' ? 'Sign and approve' : 'Sign and return'}
           pending={decide.isPending}
           error={decide.error}
-          onConfirm={({ password, comment }) => deciding && decide.mutate({ decision: deciding, password, comment }, { onSuccess: () => setDeciding(null) })}
+          onConfirm={({ password, comment }) =>
+            deciding &&
+            decide.mutate({ decision: deciding, password, comment }, { onSuccess: () => setDeciding(null) })
+          }
           onClose={closeDialog}
         />
       )}

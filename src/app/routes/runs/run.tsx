@@ -17,7 +17,8 @@ export default function RunPage() {
   const run = useRun(runId);
   const pending = usePendingEntries(runId);
   useEffect(() => {
-    if (run.data) document.title = `${run.data.run.unit.model} ${run.data.run.unit.serial}: bench run · Benchwright`;
+    if (run.data)
+      document.title = `${run.data.run.unit.model} ${run.data.run.unit.serial}: bench run · Benchwright`;
   }, [run.data]);
   if (run.isPending) return <p>Loading…</p>;
   if (!run.data) return <Notice tone="error">{run.error?.message ?? 'Cannot load this run.'}</Notice>;
@@ -38,11 +39,18 @@ export default function RunPage() {
           </p>
           <h1 className="text-2xl font-semibold">{r.title}</h1>
         </div>
-        <Link to={paths.runSheet.href(r.id)} className="ml-auto inline-flex min-h-12 items-center rounded-md border border-rule bg-card px-4 font-semibold">
+        <Link
+          to={paths.runSheet.href(r.id)}
+          className="ml-auto inline-flex min-h-12 items-center rounded-md border border-rule bg-card px-4 font-semibold"
+        >
           Run sheet
         </Link>
       </header>
-      {run.isError && <Notice tone="error">Cannot reach the server right now; entries are kept on this tablet and sent when it is back.</Notice>}
+      {run.isError && (
+        <Notice tone="error">
+          Cannot reach the server right now; entries are kept on this tablet and sent when it is back.
+        </Notice>
+      )}
       {open && r.hold && <HoldBanner hold={r.hold} />}
       <WaitingEntries items={pending.others} steps={r.steps} />
       {performing ? (
@@ -50,7 +58,10 @@ export default function RunPage() {
       ) : (
         <>
           {open && !r.hold && r.performedBy.id !== user?.id && (
-            <Notice>{r.performedBy.displayName} is performing this bench run; only they record its entries and sign it, unless they hand it over.</Notice>
+            <Notice>
+              {r.performedBy.displayName} is performing this bench run; only they record its entries and sign
+              it, unless they hand it over.
+            </Notice>
           )}
           <RunSheet run={r} />
         </>

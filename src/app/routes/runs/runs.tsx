@@ -20,7 +20,10 @@ export default function RunsPage() {
       <div className="flex flex-wrap items-center gap-4">
         <h1 className="text-2xl font-semibold">Bench runs</h1>
         {hasRole(session.data?.user, 'technician') && (
-          <Link to={paths.newRun.href()} className="ml-auto inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white">
+          <Link
+            to={paths.newRun.href()}
+            className="ml-auto inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white"
+          >
             Start a bench run
           </Link>
         )}

@@ -52,18 +52,27 @@ export default function UnitPage() {
         </div>
         <div className="ml-auto flex gap-2">
           {hasRole(user, 'technician') && (
-            <Link to={paths.newRun.href(unit.id)} className="inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white">
+            <Link
+              to={paths.newRun.href(unit.id)}
+              className="inline-flex min-h-12 items-center rounded-md border border-accent-deep bg-accent px-4 font-semibold text-white"
+            >
               Start a bench run on this unit
             </Link>
           )}
           {canKeep && (
-            <button type="button" onClick={() => setEditing(!editing)} className="min-h-12 rounded-md border border-rule bg-card px-4 font-semibold">
+            <button
+              type="button"
+              onClick={() => setEditing(!editing)}
+              className="min-h-12 rounded-md border border-rule bg-card px-4 font-semibold"
+            >
               {editing ? 'Close editing' : 'Edit unit'}
             </button>
           )}
         </div>
       </header>
-      {unit.notes && <p className="whitespace-pre-line rounded-md border border-rule bg-card p-3 text-sm">{unit.notes}</p>}
+      {unit.notes && (
+        <p className="whitespace-pre-line rounded-md border border-rule bg-card p-3 text-sm">{unit.notes}</p>
+      )}
       {editing && <UnitForm key={unit.lockVersion} unit={unit} onSaved={() => setEditing(false)} />}
 
       <section>
@@ -79,7 +88,10 @@ export default function UnitPage() {
               <tr key={r.id} className="border-b border-rule last:border-0">
                 <td className="px-3 py-2">{new Date(r.startedAt).toLocaleString()}</td>
                 <td className="px-3 py-2">
-                  <Link to={r.status === 'signed' ? paths.runSheet.href(r.id) : paths.run.href(r.id)} className="font-semibold text-accent-deep underline">
+                  <Link
+                    to={r.status === 'signed' ? paths.runSheet.href(r.id) : paths.run.href(r.id)}
+                    className="font-semibold text-accent-deep underline"
+                  >
                     {r.title}
                   </Link>{' '}
                   <span className="text-graphite-soft">rev. {r.revisionNumber}</span>
@@ -89,8 +101,14 @@ export default function UnitPage() {
                 </td>
                 <td className="px-3 py-2">{r.startedBy.displayName}</td>
                 <td className="px-3 py-2">
-                  {{ signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[r.status]}
-                  {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
+                  {
+                    { signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[
+                      r.status
+                    ]
+                  }
+                  {r.outOfTolerance && (
+                    <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>
+                  )}
                 </td>
               </tr>
             ))}
@@ -106,7 +124,11 @@ export default function UnitPage() {
           <div className="flex flex-col gap-3">
             <label className="flex flex-col gap-1 text-sm font-semibold">
               Reading
-              <select value={reading ?? ''} onChange={(e) => setReading(e.target.value)} className="min-h-12 max-w-md rounded-md border border-rule bg-card px-3 font-normal">
+              <select
+                value={reading ?? ''}
+                onChange={(e) => setReading(e.target.value)}
+                className="min-h-12 max-w-md rounded-md border border-rule bg-card px-3 font-normal"
+              >
                 {trend.data.readings.map((r) => (
                   <option key={r.id} value={r.id}>
                     {r.label} ({r.count} visit{r.count === 1 ? '' : 's'})
@@ -114,10 +136,18 @@ export default function UnitPage() {
                 ))}
               </select>
             </label>
-            {trend.data.reading && <TrendPlot points={trend.data.points} unit={trend.data.reading.unit} label={trend.data.reading.label} />}
+            {trend.data.reading && (
+              <TrendPlot
+                points={trend.data.points}
+                unit={trend.data.reading.unit}
+                label={trend.data.reading.label}
+              />
+            )}
           </div>
         ) : (
-          <p className="text-sm text-graphite-soft">Readings appear here once they are recorded in bench runs.</p>
+          <p className="text-sm text-graphite-soft">
+            Readings appear here once they are recorded in bench runs.
+          </p>
         )}
       </section>
     </section>

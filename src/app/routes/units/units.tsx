@@ -25,11 +25,21 @@ export default function UnitsPage() {
       <div className="flex flex-wrap items-end gap-3">
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Search
-          <input type="search" value={text} onChange={(e) => setText(e.target.value)} placeholder="Model, serial, owner, job, notes" className="min-h-12 w-72 rounded-md border border-rule bg-card px-3 font-normal" />
+          <input
+            type="search"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            placeholder="Model, serial, owner, job, notes"
+            className="min-h-12 w-72 rounded-md border border-rule bg-card px-3 font-normal"
+          />
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Model
-          <select value={filter.model ?? ''} onChange={(e) => setFilter({ ...filter, model: e.target.value || undefined })} className="min-h-12 rounded-md border border-rule bg-card px-3 font-normal">
+          <select
+            value={filter.model ?? ''}
+            onChange={(e) => setFilter({ ...filter, model: e.target.value || undefined })}
+            className="min-h-12 rounded-md border border-rule bg-card px-3 font-normal"
+          >
             <option value="">All models</option>
             {units.data?.models.map((m) => (
               <option key={m}>{m}</option>
@@ -38,7 +48,13 @@ export default function UnitsPage() {
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Runs
-          <select value={filter.state ?? ''} onChange={(e) => setFilter({ ...filter, state: (e.target.value || undefined) as UnitFilter['state'] })} className="min-h-12 rounded-md border border-rule bg-card px-3 font-normal">
+          <select
+            value={filter.state ?? ''}
+            onChange={(e) =>
+              setFilter({ ...filter, state: (e.target.value || undefined) as UnitFilter['state'] })
+            }
+            className="min-h-12 rounded-md border border-rule bg-card px-3 font-normal"
+          >
             <option value="">Any</option>
             <option value="open-run">With a run in progress</option>
             <option value="out">With an out-of-tolerance run</option>
@@ -47,7 +63,11 @@ export default function UnitsPage() {
         </label>
       </div>
       {units.isError && <Notice tone="error">{units.error.message}</Notice>}
-      {units.isPending ? <p>Loading…</p> : units.data && <UnitsTable units={units.data.units} unitPath={paths.unit.href} />}
+      {units.isPending ? (
+        <p>Loading…</p>
+      ) : (
+        units.data && <UnitsTable units={units.data.units} unitPath={paths.unit.href} />
+      )}
       {canKeep && <UnitForm />}
     </section>
   );

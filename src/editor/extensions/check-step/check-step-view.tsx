@@ -1,6 +1,12 @@
 import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
-import { checkKindOf, checkStepAttrs, type CheckKind, type CheckStepAttrs, type WaitDrain } from '@shared/document/schema';
+import {
+  checkKindOf,
+  checkStepAttrs,
+  type CheckKind,
+  type CheckStepAttrs,
+  type WaitDrain,
+} from '@shared/document/schema';
 import { BlockFrame } from '../block-frame';
 import { DEFAULT_DISCHARGE_THRESHOLD } from './check-step';
 
@@ -21,7 +27,9 @@ const DEFAULT_WAIT_S = 60;
 
 /** A schema message as a sentence: "must be …" reads after the field's name, the others stand alone. */
 const sentence = (subject: string, message: string) =>
-  /^(must|is) /.test(message) ? `${subject} ${message}.` : `${message.charAt(0).toUpperCase()}${message.slice(1)}.`;
+  /^(must|is) /.test(message)
+    ? `${subject} ${message}.`
+    : `${message.charAt(0).toUpperCase()}${message.slice(1)}.`;
 
 /** Attributes a kind does not take, cleared when the author switches to it. */
 function switchTo(kind: CheckKind, attrs: CheckStepAttrs): Partial<Record<keyof CheckStepAttrs, unknown>> {
@@ -36,10 +44,18 @@ function switchTo(kind: CheckKind, attrs: CheckStepAttrs): Partial<Record<keyof 
 export function CheckStepView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
   const attrs = node.attrs as CheckStepAttrs;
   const kind = checkKindOf(attrs);
-  const ids = { text: useId(), kind: useId(), threshold: useId(), seconds: useId(), drain: useId(), live: useId() };
+  const ids = {
+    text: useId(),
+    kind: useId(),
+    threshold: useId(),
+    seconds: useId(),
+    drain: useId(),
+    live: useId(),
+  };
   // The same validation the server applies, so a bad threshold or duration is named here first.
   const parsed = checkStepAttrs.safeParse(attrs);
-  const problem = (key: keyof CheckStepAttrs) => (parsed.success ? undefined : parsed.error.issues.find((i) => i.path[0] === key)?.message);
+  const problem = (key: keyof CheckStepAttrs) =>
+    parsed.success ? undefined : parsed.error.issues.find((i) => i.path[0] === key)?.message;
   const thresholdProblem = problem('threshold');
   const secondsProblem = problem('seconds');
 
@@ -54,7 +70,12 @@ export function CheckStepView({ node, updateAttributes, deleteNode, selected }: 
               <label htmlFor={ids.kind} className="text-xs font-semibold">
                 Kind of step
               </label>
-              <select id={ids.kind} className={control} value={kind} onChange={(e) => updateAttributes(switchTo(e.target.value as CheckKind, attrs))}>
+              <select
+                id={ids.kind}
+                className={control}
+                value={kind}
+                onChange={(e) => updateAttributes(switchTo(e.target.value as CheckKind, attrs))}
+              >
                 {KINDS.map((k) => (
                   <option key={k.value} value={k.value}>
                     {k.label}
@@ -94,14 +115,21 @@ export function CheckStepView({ node, updateAttributes, deleteNode, selected }: 
                     value={attrs.seconds ?? ''}
                     aria-invalid={!!secondsProblem}
                     aria-describedby={secondsProblem ? `${ids.seconds}-problem` : undefined}
-                    onChange={(e) => updateAttributes({ seconds: e.target.value === '' ? null : Number(e.target.value) })}
+                    onChange={(e) =>
+                      updateAttributes({ seconds: e.target.value === '' ? null : Number(e.target.value) })
+                    }
                   />
                 </div>
                 <div className="flex flex-col gap-1">
                   <label htmlFor={ids.drain} className="text-xs font-semibold">
                     Meanwhile the charge drains through
                   </label>
-                  <select id={ids.drain} className={control} value={attrs.drain ?? 'bleeder'} onChange={(e) => updateAttributes({ drain: e.target.value })}>
+                  <select
+                    id={ids.drain}
+                    className={control}
+                    value={attrs.drain ?? 'bleeder'}
+                    onChange={(e) => updateAttributes({ drain: e.target.value })}
+                  >
                     {DRAINS.map((d) => (
                       <option key={d.value} value={d.value}>
                         {d.label}
@@ -112,7 +140,13 @@ export function CheckStepView({ node, updateAttributes, deleteNode, selected }: 
               </>
             )}
             <label htmlFor={ids.live} className="flex min-h-9 items-center gap-2 text-sm">
-              <input id={ids.live} type="checkbox" className="size-5" checked={attrs.live === true} onChange={(e) => updateAttributes({ live: e.target.checked ? true : null })} />
+              <input
+                id={ids.live}
+                type="checkbox"
+                className="size-5"
+                checked={attrs.live === true}
+                onChange={(e) => updateAttributes({ live: e.target.checked ? true : null })}
+              />
               Live work (unit powered)
             </label>
           </div>

@@ -23,14 +23,23 @@ export function FileView({ node, updateAttributes, deleteNode, selected }: NodeV
         <UploadButton
           label="Replace file"
           accept="application/pdf,image/png,image/jpeg,image/webp"
-          onUploaded={(a) => updateAttributes({ attachmentId: a.id, fileName: a.fileName, mediaType: a.mediaType })}
+          onUploaded={(a) =>
+            updateAttributes({ attachmentId: a.id, fileName: a.fileName, mediaType: a.mediaType })
+          }
         />
       }
     >
-      <a href={attachmentUrl(attrs.attachmentId)} className="text-accent underline" target="_blank" rel="noopener">
+      <a
+        href={attachmentUrl(attrs.attachmentId)}
+        className="text-accent underline"
+        target="_blank"
+        rel="noopener"
+      >
         {attrs.fileName}
       </a>{' '}
-      <span className="text-xs text-graphite-soft">({MEDIA_TYPE_LABELS[attrs.mediaType] ?? attrs.mediaType})</span>
+      <span className="text-xs text-graphite-soft">
+        ({MEDIA_TYPE_LABELS[attrs.mediaType] ?? attrs.mediaType})
+      </span>
     </BlockFrame>
   );
 }

@@ -27,13 +27,10 @@ export const FileNode = Node.create({
     };
   },
 
-
   addCommands() {
     return {
-      insertFile:
-        (attrs) =>
-        (props) =>
-          insertBlock(props, { type: this.name, attrs: { id: newBlockId(), ...attrs } }),
+      insertFile: (attrs) => (props) =>
+        insertBlock(props, { type: this.name, attrs: { id: newBlockId(), ...attrs } }),
     };
   },
 });

@@ -1,6 +1,11 @@
 import { NodeViewContent, NodeViewWrapper, type NodeViewProps } from '@tiptap/react';
 import { useId } from 'react';
-import { HAZARD_FLAG_LABELS, HAZARD_FLAGS, type HazardFlag, type HazardNoteAttrs } from '@shared/document/schema';
+import {
+  HAZARD_FLAG_LABELS,
+  HAZARD_FLAGS,
+  type HazardFlag,
+  type HazardNoteAttrs,
+} from '@shared/document/schema';
 import { HazardTriangle } from '@/features/procedures/components/hazard-triangle';
 
 export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewProps) {
@@ -12,7 +17,10 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
     updateAttributes({ flags: next.length ? Object.fromEntries(next.map((f) => [f, true])) : null });
   };
   return (
-    <NodeViewWrapper data-block-id={attrs.id} className="hazard-note not-prose my-4 flex gap-3 rounded-md border-4 border-hazard-ink bg-hazard p-3 text-hazard-ink">
+    <NodeViewWrapper
+      data-block-id={attrs.id}
+      className="hazard-note not-prose my-4 flex gap-3 rounded-md border-4 border-hazard-ink bg-hazard p-3 text-hazard-ink"
+    >
       <HazardTriangle className="size-10 shrink-0" />
       <div className="flex flex-1 flex-col gap-1">
         <div className="flex items-center gap-2" contentEditable={false}>
@@ -25,19 +33,32 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
             <option value="danger">Danger</option>
             <option value="warning">Warning</option>
           </select>
-          <button type="button" className="ml-auto min-h-9 rounded border-2 border-hazard-ink px-2 text-xs font-semibold" onClick={deleteNode}>
+          <button
+            type="button"
+            className="ml-auto min-h-9 rounded border-2 border-hazard-ink px-2 text-xs font-semibold"
+            onClick={deleteNode}
+          >
             Remove block
           </button>
         </div>
-        <fieldset className="flex flex-wrap gap-x-4 gap-y-1 text-sm" contentEditable={false} aria-describedby={`${groupId}-help`}>
+        <fieldset
+          className="flex flex-wrap gap-x-4 gap-y-1 text-sm"
+          contentEditable={false}
+          aria-describedby={`${groupId}-help`}
+        >
           <legend className="sr-only">Live-work cautions this note states</legend>
           <span id={`${groupId}-help`} className="w-full text-xs font-semibold">
-            This note states (the procedure check relies on these, not on the wording; current-limited
-            covers a series lamp, a limiter or a variable supply):
+            This note states (the procedure check relies on these, not on the wording; current-limited covers
+            a series lamp, a limiter or a variable supply):
           </span>
           {HAZARD_FLAGS.map((f) => (
             <label key={f} className="flex min-h-9 items-center gap-2">
-              <input type="checkbox" className="size-5 accent-hazard-ink" checked={attrs.flags?.[f] === true} onChange={(e) => setFlag(f, e.target.checked)} />
+              <input
+                type="checkbox"
+                className="size-5 accent-hazard-ink"
+                checked={attrs.flags?.[f] === true}
+                onChange={(e) => setFlag(f, e.target.checked)}
+              />
               {HAZARD_FLAG_LABELS[f]}
             </label>
           ))}

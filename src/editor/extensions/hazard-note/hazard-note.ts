@@ -8,7 +8,11 @@ declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     hazardNote: {
       /** Insert a hazard note (danger or warning) holding one paragraph of text, with the live-work cautions it states. */
-      insertHazardNote: (level?: HazardNoteAttrs['level'], text?: string, flags?: HazardNoteAttrs['flags']) => ReturnType;
+      insertHazardNote: (
+        level?: HazardNoteAttrs['level'],
+        text?: string,
+        flags?: HazardNoteAttrs['flags'],
+      ) => ReturnType;
     };
   }
 }
@@ -46,7 +50,9 @@ export const HazardNote = Node.create({
           insertBlock(props, {
             type: this.name,
             attrs: { id: newBlockId(), level, flags: flags ?? null },
-            content: [text ? { type: 'paragraph', content: [{ type: 'text', text }] } : { type: 'paragraph' }],
+            content: [
+              text ? { type: 'paragraph', content: [{ type: 'text', text }] } : { type: 'paragraph' },
+            ],
           }),
     };
   },

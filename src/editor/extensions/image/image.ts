@@ -28,7 +28,6 @@ export const ImageNode = Node.create({
     };
   },
 
-
   addCommands() {
     return {
       insertImage:

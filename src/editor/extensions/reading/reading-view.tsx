@@ -21,14 +21,32 @@ const LIVE_CHOICES = [
 ] as const;
 const control = 'min-h-9 rounded border border-rule bg-card px-2 py-1 text-sm';
 
-function TextInput({ label, value, onChange, mono, placeholder }: { label: string; value: string; onChange: (v: string) => void; mono?: boolean; placeholder?: string }) {
+function TextInput({
+  label,
+  value,
+  onChange,
+  mono,
+  placeholder,
+}: {
+  label: string;
+  value: string;
+  onChange: (v: string) => void;
+  mono?: boolean;
+  placeholder?: string;
+}) {
   const id = useId();
   return (
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="text-xs font-semibold">
         {label}
       </label>
-      <input id={id} className={`${control} ${mono ? 'value' : ''}`} value={value} placeholder={placeholder} onChange={(e) => onChange(e.target.value)} />
+      <input
+        id={id}
+        className={`${control} ${mono ? 'value' : ''}`}
+        value={value}
+        placeholder={placeholder}
+        onChange={(e) => onChange(e.target.value)}
+      />
     </div>
   );
 }
@@ -36,7 +54,14 @@ function TextInput({ label, value, onChange, mono, placeholder }: { label: strin
 export function ReadingView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
   const attrs = node.attrs as ReadingAttrs;
   const evaluation = useEvaluation();
-  const ids = { unit: useId(), measure: useId(), source: useId(), expected: useId(), mains: useId(), live: useId() };
+  const ids = {
+    unit: useId(),
+    measure: useId(),
+    source: useId(),
+    expected: useId(),
+    mains: useId(),
+    live: useId(),
+  };
   const resolved = readingResult(evaluation, attrs.id);
   const fromBlock = 'ref' in attrs.expected;
   const measure = readingMeasure(attrs);
@@ -48,9 +73,25 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
   return (
     <BlockFrame blockId={attrs.id} selected={selected} onRemove={deleteNode} title="Reading">
       <div className="grid gap-3 sm:grid-cols-3">
-        <TextInput label="What to measure" value={attrs.label} onChange={(label) => set({ label })} placeholder="B+ at the reservoir" />
-        <TextInput label="Where (test point)" value={attrs.testPoint} onChange={(testPoint) => set({ testPoint })} placeholder="TP3 to chassis" />
-        <TextInput label="Meter range" value={attrs.meterRange} onChange={(meterRange) => set({ meterRange })} mono placeholder="1000 V DC" />
+        <TextInput
+          label="What to measure"
+          value={attrs.label}
+          onChange={(label) => set({ label })}
+          placeholder="B+ at the reservoir"
+        />
+        <TextInput
+          label="Where (test point)"
+          value={attrs.testPoint}
+          onChange={(testPoint) => set({ testPoint })}
+          placeholder="TP3 to chassis"
+        />
+        <TextInput
+          label="Meter range"
+          value={attrs.meterRange}
+          onChange={(meterRange) => set({ meterRange })}
+          mono
+          placeholder="1000 V DC"
+        />
         <div className="flex flex-col gap-1">
           <label htmlFor={ids.unit} className="text-xs font-semibold">
             Unit
@@ -98,16 +139,25 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
               aria-label="Expected value: source"
               className="min-h-7 rounded border border-rule bg-paper px-1 text-xs"
               value={fromBlock ? 'ref' : 'literal'}
-              onChange={(e) => set({ expected: e.target.value === 'ref' ? { ref: outputs[0]?.ref ?? '' } : { literal: '' } })}
+              onChange={(e) =>
+                set({ expected: e.target.value === 'ref' ? { ref: outputs[0]?.ref ?? '' } : { literal: '' } })
+              }
             >
               <option value="literal">value</option>
               <option value="ref">from block</option>
             </select>
           </div>
           {'ref' in attrs.expected ? (
-            <select id={ids.expected} className={`${control} value`} value={attrs.expected.ref} onChange={(e) => set({ expected: { ref: e.target.value } })}>
+            <select
+              id={ids.expected}
+              className={`${control} value`}
+              value={attrs.expected.ref}
+              onChange={(e) => set({ expected: { ref: e.target.value } })}
+            >
               {!outputs.some((o) => o.ref === (attrs.expected as { ref: string }).ref) && (
-                <option value={attrs.expected.ref}>{attrs.expected.ref || `choose an output in ${attrs.unit}`} (not available)</option>
+                <option value={attrs.expected.ref}>
+                  {attrs.expected.ref || `choose an output in ${attrs.unit}`} (not available)
+                </option>
               )}
               {outputs.map((o) => (
                 <option key={o.ref} value={o.ref}>
@@ -116,10 +166,22 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
               ))}
             </select>
           ) : (
-            <input id={ids.expected} className={`${control} value`} value={attrs.expected.literal} placeholder={`350 ${attrs.unit}`} onChange={(e) => set({ expected: { literal: e.target.value } })} />
+            <input
+              id={ids.expected}
+              className={`${control} value`}
+              value={attrs.expected.literal}
+              placeholder={`350 ${attrs.unit}`}
+              onChange={(e) => set({ expected: { literal: e.target.value } })}
+            />
           )}
         </div>
-        <TextInput label="Tolerance (% or a unit)" value={attrs.tolerance} onChange={(tolerance) => set({ tolerance })} mono placeholder="±5 %" />
+        <TextInput
+          label="Tolerance (% or a unit)"
+          value={attrs.tolerance}
+          onChange={(tolerance) => set({ tolerance })}
+          mono
+          placeholder="±5 %"
+        />
         {!fromBlock && attrs.unit === 'V' && (
           <div className="flex flex-col gap-1">
             <label htmlFor={ids.mains} className="text-xs font-semibold">
@@ -129,7 +191,9 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
               id={ids.mains}
               className={control}
               value={mainsChoice}
-              onChange={(e) => set({ followsMains: e.target.value === 'unset' ? null : e.target.value === 'scales' })}
+              onChange={(e) =>
+                set({ followsMains: e.target.value === 'unset' ? null : e.target.value === 'scales' })
+              }
             >
               {MAINS_CHOICES.map((c) => (
                 <option key={c.value} value={c.value}>
@@ -147,7 +211,9 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
             id={ids.live}
             className={control}
             value={liveChoice}
-            onChange={(e) => updateAttributes({ live: e.target.value === 'unset' ? null : e.target.value === 'live' })}
+            onChange={(e) =>
+              updateAttributes({ live: e.target.value === 'unset' ? null : e.target.value === 'live' })
+            }
           >
             {LIVE_CHOICES.map((c) => (
               <option key={c.value} value={c.value}>

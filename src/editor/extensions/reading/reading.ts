@@ -35,7 +35,6 @@ export const Reading = Node.create({
     };
   },
 
-
   addCommands() {
     return {
       insertReading:

@@ -9,12 +9,20 @@ import { numericOutputs, useEvaluation } from '../../evaluation-context';
 type Mode = 'value' | 'param' | 'ref';
 
 const modeOf = (v: InputValue): Mode =>
-  v && typeof v === 'object' && !Array.isArray(v) ? ('param' in v ? 'param' : 'ref' in v ? 'ref' : 'value') : 'value';
+  v && typeof v === 'object' && !Array.isArray(v)
+    ? 'param' in v
+      ? 'param'
+      : 'ref' in v
+        ? 'ref'
+        : 'value'
+    : 'value';
 
-const isNumeric = (spec: FieldSpec) => spec.kind === 'quantity' || spec.kind === 'number' || spec.kind === 'integer';
+const isNumeric = (spec: FieldSpec) =>
+  spec.kind === 'quantity' || spec.kind === 'number' || spec.kind === 'integer';
 
 function placeholder(spec: FieldSpec): string {
-  if (typeof spec.default === 'number') return spec.unit ? formatQuantity(spec.default, spec.unit, 4) : String(spec.default);
+  if (typeof spec.default === 'number')
+    return spec.unit ? formatQuantity(spec.default, spec.unit, 4) : String(spec.default);
   return spec.optional ? 'optional' : '';
 }
 
@@ -53,7 +61,13 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   let editor;
   if (spec.kind === 'select') {
     editor = (
-      <select id={id} aria-label={label} className={`${control} w-full min-w-0`} value={typeof value === 'string' ? value : ''} onChange={(e) => onChange(e.target.value)}>
+      <select
+        id={id}
+        aria-label={label}
+        className={`${control} w-full min-w-0`}
+        value={typeof value === 'string' ? value : ''}
+        onChange={(e) => onChange(e.target.value)}
+      >
         {spec.options?.map((o) => (
           <option key={o.value} value={o.value}>
             {o.label}
@@ -64,8 +78,18 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   } else if (mode === 'param') {
     const current = (value as { param: string }).param;
     editor = (
-      <select id={id} aria-label={label} className={control} value={current} onChange={(e) => onChange({ param: e.target.value })}>
-        {!params.some((p) => p.key === current) && <option value={current}>{current} (not a {unit || 'plain'} parameter)</option>}
+      <select
+        id={id}
+        aria-label={label}
+        className={control}
+        value={current}
+        onChange={(e) => onChange({ param: e.target.value })}
+      >
+        {!params.some((p) => p.key === current) && (
+          <option value={current}>
+            {current} (not a {unit || 'plain'} parameter)
+          </option>
+        )}
         {params.map((p) => (
           <option key={p.key} value={p.key}>
             {p.label} ({evaluation.params[p.key]} {p.unit})
@@ -76,8 +100,16 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   } else if (mode === 'ref') {
     const current = (value as { ref: string }).ref;
     editor = (
-      <select id={id} aria-label={label} className={`${control} value`} value={current} onChange={(e) => onChange({ ref: e.target.value })}>
-        {!outputs.some((o) => o.ref === current) && <option value={current}>{current || 'choose an output'} (not available)</option>}
+      <select
+        id={id}
+        aria-label={label}
+        className={`${control} value`}
+        value={current}
+        onChange={(e) => onChange({ ref: e.target.value })}
+      >
+        {!outputs.some((o) => o.ref === current) && (
+          <option value={current}>{current || 'choose an output'} (not available)</option>
+        )}
         {outputs.map((o) => (
           <option key={o.ref} value={o.ref}>
             {o.label} = {o.formatted}
@@ -106,7 +138,12 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
       {!compact && (
         <label htmlFor={id} className="text-xs font-semibold">
           {spec.label}
-          {spec.unit ? <span className="value font-normal text-graphite-soft"> ({unitWithMeasure(spec.unit, spec.measure)})</span> : null}
+          {spec.unit ? (
+            <span className="value font-normal text-graphite-soft">
+              {' '}
+              ({unitWithMeasure(spec.unit, spec.measure)})
+            </span>
+          ) : null}
         </label>
       )}
       <div className="flex items-center gap-1">

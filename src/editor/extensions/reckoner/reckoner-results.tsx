@@ -10,7 +10,12 @@ interface Props {
 
 /** The live outputs of a reckoner (value + unit, explanation) and its cautions, or why there are none. */
 export function ReckonerResults({ result, unclaimed, failure }: Props) {
-  if (failure) return <p className="mt-3 text-sm text-out" role="alert">Could not evaluate the procedure: {failure}</p>;
+  if (failure)
+    return (
+      <p className="mt-3 text-sm text-out" role="alert">
+        Could not evaluate the procedure: {failure}
+      </p>
+    );
   if (!result) return <p className="mt-3 text-sm text-graphite-soft">Not evaluated yet.</p>;
   if (!result.ok) {
     return (
@@ -30,11 +35,17 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
   }
   return (
     <div className="mt-3 flex flex-col gap-3">
-      <dl className="grid gap-x-4 gap-y-2 rounded border border-rule bg-paper px-3 py-2 sm:grid-cols-2" aria-label={`Results of ${result.name}`}>
+      <dl
+        className="grid gap-x-4 gap-y-2 rounded border border-rule bg-paper px-3 py-2 sm:grid-cols-2"
+        aria-label={`Results of ${result.name}`}
+      >
         {Object.entries(result.outputs).map(([key, out]) => (
           <div key={key} data-output={key} className="flex flex-col">
             <dt className="text-xs text-graphite-soft">
-              {out.label} <span className="value">({result.name}.{key})</span>
+              {out.label}{' '}
+              <span className="value">
+                ({result.name}.{key})
+              </span>
             </dt>
             <dd className="value text-base font-semibold">{out.formatted}</dd>
             <dd className="text-xs text-graphite-soft">{out.explanation}</dd>

@@ -33,15 +33,30 @@ export function ReckonerView({ node, updateAttributes, deleteNode, selected }: N
   const errorsAt = (path: string) => errors.filter((e) => e.field === path).map((e) => e.reason);
   const setInput = (key: string, value: InputValue | Record<string, InputValue>[]) =>
     updateAttributes({ inputs: { ...attrs.inputs, [key]: value } });
-  const nameProblem = BLOCK_NAME.test(attrs.name) ? null : 'A name starts with a letter and holds only letters, digits, - or _ (at most 32).';
+  const nameProblem = BLOCK_NAME.test(attrs.name)
+    ? null
+    : 'A name starts with a letter and holds only letters, digits, - or _ (at most 32).';
 
   const form = fields.map((f) =>
     f.kind === 'rows' ? (
       <div key={f.key} className="sm:col-span-2">
-        <RowsField spec={f} value={attrs.inputs[f.key] ?? []} onChange={(rows) => setInput(f.key, rows)} errorsAt={errorsAt} blockId={attrs.id} />
+        <RowsField
+          spec={f}
+          value={attrs.inputs[f.key] ?? []}
+          onChange={(rows) => setInput(f.key, rows)}
+          errorsAt={errorsAt}
+          blockId={attrs.id}
+        />
       </div>
     ) : (
-      <InputSource key={f.key} spec={f} value={attrs.inputs[f.key] ?? ''} onChange={(v) => setInput(f.key, v)} errors={errorsAt(f.key)} blockId={attrs.id} />
+      <InputSource
+        key={f.key}
+        spec={f}
+        value={attrs.inputs[f.key] ?? ''}
+        onChange={(v) => setInput(f.key, v)}
+        errors={errorsAt(f.key)}
+        blockId={attrs.id}
+      />
     ),
   );
   const unclaimed = errors.filter((e) => !claimed.has(e.field) && !(e.field === 'name' && nameProblem));

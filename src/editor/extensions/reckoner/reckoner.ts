@@ -35,7 +35,11 @@ export function initialInputs(fields: FieldSpec[]): Record<string, InputValue> {
 
 /** A short block name not yet used in the document ("fuse", "fuse2", …). */
 export function freshName(kind: string, taken: Set<string>): string {
-  const base = kind.split('-').map((w, i) => (i ? w[0]!.toUpperCase() + w.slice(1) : w)).join('').slice(0, 28);
+  const base = kind
+    .split('-')
+    .map((w, i) => (i ? w[0]!.toUpperCase() + w.slice(1) : w))
+    .join('')
+    .slice(0, 28);
   if (!taken.has(base)) return base;
   for (let i = 2; ; i++) if (!taken.has(`${base}${i}`)) return `${base}${i}`;
 }
@@ -54,22 +58,24 @@ export const Reckoner = Node.create({
     };
   },
 
-
   addCommands() {
     return {
-      insertReckoner:
-        (kind) =>
-        (props) => {
-          const { state } = props;
-          const def = getReckoner(kind);
-          if (!def) return false;
-          const taken = new Set<string>();
-          state.doc.descendants((n) => {
-            if (n.type.name === 'reckoner') taken.add(String(n.attrs.name));
-          });
-          const attrs: ReckonerAttrs = { id: newBlockId(), name: freshName(kind, taken), kind, inputs: initialInputs(def.fields) };
-          return insertBlock(props, { type: this.name, attrs });
-        },
+      insertReckoner: (kind) => (props) => {
+        const { state } = props;
+        const def = getReckoner(kind);
+        if (!def) return false;
+        const taken = new Set<string>();
+        state.doc.descendants((n) => {
+          if (n.type.name === 'reckoner') taken.add(String(n.attrs.name));
+        });
+        const attrs: ReckonerAttrs = {
+          id: newBlockId(),
+          name: freshName(kind, taken),
+          kind,
+          inputs: initialInputs(def.fields),
+        };
+        return insertBlock(props, { type: this.name, attrs });
+      },
     };
   },
 });

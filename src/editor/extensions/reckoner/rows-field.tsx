@@ -18,7 +18,8 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
   const rows: Row[] = Array.isArray(value) ? (value as Row[]) : [];
   const columns = spec.columns ?? [];
   const max = spec.maxRows ?? 50;
-  const setCell = (i: number, key: string, v: InputValue) => onChange(rows.map((r, j) => (j === i ? { ...r, [key]: v } : r)));
+  const setCell = (i: number, key: string, v: InputValue) =>
+    onChange(rows.map((r, j) => (j === i ? { ...r, [key]: v } : r)));
   const tableErrors = errorsAt(spec.key);
 
   return (

@@ -8,7 +8,8 @@ export interface AccountInfo {
   secondFactor: { enabled: boolean; required: boolean; setupStarted: boolean; recoveryCodesLeft: number };
 }
 
-export const accountQueryOptions = () => queryOptions({ queryKey: ['account'], queryFn: () => api.get<AccountInfo>('/api/auth/account') });
+export const accountQueryOptions = () =>
+  queryOptions({ queryKey: ['account'], queryFn: () => api.get<AccountInfo>('/api/auth/account') });
 export const useAccount = () => useQuery(accountQueryOptions());
 
 /** After a change to the account, what the session and account page show is read again. */
@@ -42,7 +43,8 @@ export function useSignOutEverywhere() {
 export function useStartTotpSetup() {
   const refresh = useRefreshAccount();
   return useMutation({
-    mutationFn: (body: { password: string }) => api.post<{ secret: string; otpauthUrl: string }>('/api/auth/totp/setup', body),
+    mutationFn: (body: { password: string }) =>
+      api.post<{ secret: string; otpauthUrl: string }>('/api/auth/totp/setup', body),
     onSuccess: refresh,
   });
 }
@@ -50,7 +52,8 @@ export function useStartTotpSetup() {
 export function useConfirmTotp() {
   const refresh = useRefreshAccount();
   return useMutation({
-    mutationFn: (body: { code: string }) => api.post<{ recoveryCodes: string[] }>('/api/auth/totp/confirm', body),
+    mutationFn: (body: { code: string }) =>
+      api.post<{ recoveryCodes: string[] }>('/api/auth/totp/confirm', body),
     onSuccess: refresh,
   });
 }
@@ -58,7 +61,8 @@ export function useConfirmTotp() {
 export function useNewRecoveryCodes() {
   const refresh = useRefreshAccount();
   return useMutation({
-    mutationFn: (body: { password: string }) => api.post<{ recoveryCodes: string[] }>('/api/auth/totp/recovery-codes', body),
+    mutationFn: (body: { password: string }) =>
+      api.post<{ recoveryCodes: string[] }>('/api/auth/totp/recovery-codes', body),
     onSuccess: refresh,
   });
 }

@@ -2,7 +2,13 @@ import { useEffect, useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
-import { useConfirmTotp, useDisableTotp, useNewRecoveryCodes, useStartTotpSetup, type AccountInfo } from '../api/account';
+import {
+  useConfirmTotp,
+  useDisableTotp,
+  useNewRecoveryCodes,
+  useStartTotpSetup,
+  type AccountInfo,
+} from '../api/account';
 
 /** The otpauth:// address as an SVG QR code in a data: URL (allowed by the page's img-src). */
 function useQrImage(text: string | undefined) {
@@ -26,9 +32,13 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
   return (
     <div className="flex flex-col gap-3">
       <Notice tone="success">
-        Keep these recovery codes somewhere safe, away from your phone. Each one signs you in once if you lose the authenticator. They are shown only now.
+        Keep these recovery codes somewhere safe, away from your phone. Each one signs you in once if you lose
+        the authenticator. They are shown only now.
       </Notice>
-      <ol aria-label="Recovery codes" className="value grid gap-1 rounded-md border border-rule bg-paper p-3 sm:grid-cols-2">
+      <ol
+        aria-label="Recovery codes"
+        className="value grid gap-1 rounded-md border border-rule bg-paper p-3 sm:grid-cols-2"
+      >
         {codes.map((c) => (
           <li key={c}>{c}</li>
         ))}
@@ -41,7 +51,19 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
 }
 
 /** A password field and a button, for the steps that ask for the password again. */
-function PasswordStep({ label, pending, error, onSubmit, variant = 'primary' }: { label: string; pending: boolean; error?: string; onSubmit: (password: string) => void; variant?: 'primary' | 'danger' | 'quiet' }) {
+function PasswordStep({
+  label,
+  pending,
+  error,
+  onSubmit,
+  variant = 'primary',
+}: {
+  label: string;
+  pending: boolean;
+  error?: string;
+  onSubmit: (password: string) => void;
+  variant?: 'primary' | 'danger' | 'quiet';
+}) {
   const [password, setPassword] = useState('');
   const submit = (e: FormEvent) => {
     e.preventDefault();
@@ -49,7 +71,14 @@ function PasswordStep({ label, pending, error, onSubmit, variant = 'primary' }: 
   };
   return (
     <form onSubmit={submit} aria-label={label} className="flex flex-col gap-3" noValidate>
-      <Field label="Your password" type="password" autoComplete="current-password" value={password} onChange={(e) => setPassword(e.target.value)} error={error} />
+      <Field
+        label="Your password"
+        type="password"
+        autoComplete="current-password"
+        value={password}
+        onChange={(e) => setPassword(e.target.value)}
+        error={error}
+      />
       <Button type="submit" variant={variant} className="self-start" disabled={pending || !password}>
         {label}
       </Button>
@@ -83,19 +112,28 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
   };
 
   return (
-    <section aria-label="Authenticator codes" className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-5">
+    <section
+      aria-label="Authenticator codes"
+      className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-5"
+    >
       <h2 className="text-lg font-semibold">Authenticator codes</h2>
       <p className="text-sm">
-        With an authenticator app on your phone, signing in takes your password and a six-digit code that changes every 30 seconds, so a leaked password alone is not enough.
+        With an authenticator app on your phone, signing in takes your password and a six-digit code that
+        changes every 30 seconds, so a leaked password alone is not enough.
       </p>
-      {required && !enabled && <Notice tone="error">The shop requires authenticator codes for your role. Set one up to go on using Benchwright.</Notice>}
+      {required && !enabled && (
+        <Notice tone="error">
+          The shop requires authenticator codes for your role. Set one up to go on using Benchwright.
+        </Notice>
+      )}
 
       {shownCodes ? (
         <RecoveryCodes codes={shownCodes} onDone={() => setShownCodes(undefined)} />
       ) : enabled ? (
         <>
           <p className="text-sm">
-            <strong>On.</strong> {recoveryCodesLeft} of 10 recovery codes left{recoveryCodesLeft <= 3 ? ' — make new ones soon.' : '.'}
+            <strong>On.</strong> {recoveryCodesLeft} of 10 recovery codes left
+            {recoveryCodesLeft <= 3 ? ' — make new ones soon.' : '.'}
           </p>
           {action === 'renew' ? (
             <PasswordStep
@@ -136,19 +174,36 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
           )}
         </>
       ) : start.data ? (
-        <form onSubmit={confirmCode} aria-label="Finish setting up the authenticator" className="flex flex-col gap-4" noValidate>
+        <form
+          onSubmit={confirmCode}
+          aria-label="Finish setting up the authenticator"
+          className="flex flex-col gap-4"
+          noValidate
+        >
           <ol className="list-decimal space-y-1 pl-5 text-sm">
             <li>Open your authenticator app and add an account by scanning this code.</li>
             <li>Type the six-digit code the app then shows for Benchwright.</li>
           </ol>
-          {qr ? <img src={qr} alt="QR code to scan with the authenticator app" width={200} height={200} className="rounded border border-rule bg-white p-2" /> : <p>Drawing the QR code…</p>}
+          {qr ? (
+            <img
+              src={qr}
+              alt="QR code to scan with the authenticator app"
+              width={200}
+              height={200}
+              className="rounded border border-rule bg-white p-2"
+            />
+          ) : (
+            <p>Drawing the QR code…</p>
+          )}
           <p className="text-sm">
             Cannot scan? Enter this key by hand (time-based, 6 digits):{' '}
             <code data-testid="totp-key" className="value break-all rounded bg-paper px-1">
               {start.data.secret}
             </code>
           </p>
-          {confirm.error && !confirm.error.fields.length && <Notice tone="error">{confirm.error.message}</Notice>}
+          {confirm.error && !confirm.error.fields.length && (
+            <Notice tone="error">{confirm.error.message}</Notice>
+          )}
           <Field
             label="Code from the app"
             autoComplete="one-time-code"
@@ -162,7 +217,12 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
           </Button>
         </form>
       ) : (
-        <PasswordStep label="Set up an authenticator" pending={start.isPending} error={start.error?.message} onSubmit={(password) => start.mutate({ password })} />
+        <PasswordStep
+          label="Set up an authenticator"
+          pending={start.isPending}
+          error={start.error?.message}
+          onSubmit={(password) => start.mutate({ password })}
+        />
       )}
     </section>
   );

@@ -13,11 +13,18 @@ export function SignOutEverywhere() {
   return (
     <section className="flex flex-col gap-3 rounded-lg border border-rule bg-card p-5">
       <h2 className="text-lg font-semibold">Where you are signed in</h2>
-      <p className="text-sm">If you left Benchwright open on a shared computer, or think someone else has used your account, sign out everywhere. You will sign in again here.</p>
+      <p className="text-sm">
+        If you left Benchwright open on a shared computer, or think someone else has used your account, sign
+        out everywhere. You will sign in again here.
+      </p>
       {everywhere.error && <Notice tone="error">{everywhere.error.message}</Notice>}
       {asked ? (
         <div className="flex flex-wrap gap-3">
-          <Button variant="danger" disabled={everywhere.isPending} onClick={() => everywhere.mutate(undefined, { onSuccess: () => navigate(paths.signIn.href()) })}>
+          <Button
+            variant="danger"
+            disabled={everywhere.isPending}
+            onClick={() => everywhere.mutate(undefined, { onSuccess: () => navigate(paths.signIn.href()) })}
+          >
             Yes, sign out everywhere
           </Button>
           <Button variant="quiet" onClick={() => setAsked(false)}>

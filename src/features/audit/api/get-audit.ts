@@ -21,7 +21,11 @@ export interface AuditPage {
 export function useAuditLog(filters: AuditFilters) {
   const qs = new URLSearchParams();
   for (const [k, v] of Object.entries(filters)) if (v !== undefined && v !== '') qs.set(k, String(v));
-  return useQuery({ queryKey: ['audit', qs.toString()], queryFn: () => api.get<AuditPage>(`/api/audit?${qs}`), placeholderData: keepPreviousData });
+  return useQuery({
+    queryKey: ['audit', qs.toString()],
+    queryFn: () => api.get<AuditPage>(`/api/audit?${qs}`),
+    placeholderData: keepPreviousData,
+  });
 }
 
 export interface ChainReport {
@@ -31,4 +35,9 @@ export interface ChainReport {
 }
 
 /** Runs the hash-chain check on demand (it reads the whole log). */
-export const useAuditChainCheck = () => useQuery({ queryKey: ['audit', 'chain'], queryFn: async () => (await api.get<{ chain: ChainReport }>('/api/audit/chain')).chain, enabled: false });
+export const useAuditChainCheck = () =>
+  useQuery({
+    queryKey: ['audit', 'chain'],
+    queryFn: async () => (await api.get<{ chain: ChainReport }>('/api/audit/chain')).chain,
+    enabled: false,
+  });

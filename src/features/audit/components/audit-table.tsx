@@ -19,7 +19,9 @@ export function AuditTable({ entries }: { entries: AuditEntryView[] }) {
             </time>
           </td>
           <td className="px-3 py-2 font-semibold">{e.action}</td>
-          <td className="px-3 py-2">{e.actor?.displayName ?? <span className="text-graphite-soft">—</span>}</td>
+          <td className="px-3 py-2">
+            {e.actor?.displayName ?? <span className="text-graphite-soft">—</span>}
+          </td>
           <td className="px-3 py-2">{e.subject}</td>
           <td className="max-w-md break-words px-3 py-2 text-xs text-graphite-soft">
             {detailText(e.details)}

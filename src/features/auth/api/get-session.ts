@@ -22,7 +22,8 @@ export interface SessionInfo {
 
 export const getSession = () => api.get<SessionInfo>('/api/auth/session');
 
-export const sessionQueryOptions = () => queryOptions({ queryKey: ['session'], queryFn: getSession, staleTime: 60_000 });
+export const sessionQueryOptions = () =>
+  queryOptions({ queryKey: ['session'], queryFn: getSession, staleTime: 60_000 });
 
 export const useSession = () => useQuery(sessionQueryOptions());
 

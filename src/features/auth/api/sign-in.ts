@@ -4,7 +4,8 @@ import { api } from '@/lib/api-client';
 import type { SessionInfo } from './get-session';
 
 export const signIn = (body: SignInBody) => api.post<SessionInfo>('/api/auth/sign-in', body);
-export const signInWithCode = (body: { code: string }) => api.post<SessionInfo>('/api/auth/sign-in/code', body);
+export const signInWithCode = (body: { code: string }) =>
+  api.post<SessionInfo>('/api/auth/sign-in/code', body);
 
 /** Once someone is signed in, nothing cached for the previous visitor may show. */
 function useSignedIn() {

@@ -13,5 +13,10 @@ export interface OutboxPage {
 export function useOutbox(status: '' | 'sent' | 'pending', page: number) {
   const qs = new URLSearchParams({ page: String(page) });
   if (status) qs.set('status', status);
-  return useQuery({ queryKey: ['outbox', status, page], queryFn: () => api.get<OutboxPage>(`/api/mail/outbox?${qs}`), placeholderData: keepPreviousData, refetchInterval: 10_000 });
+  return useQuery({
+    queryKey: ['outbox', status, page],
+    queryFn: () => api.get<OutboxPage>(`/api/mail/outbox?${qs}`),
+    placeholderData: keepPreviousData,
+    refetchInterval: 10_000,
+  });
 }

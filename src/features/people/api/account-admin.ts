@@ -5,7 +5,8 @@ import { api } from '@/lib/api-client';
 /** Mails the person a one-time link to choose a new password; the admin never sees the link. */
 export function usePasswordReset() {
   return useMutation({
-    mutationFn: (id: string) => api.post<{ mailedTo: string; expiresInHours: number }>(`/api/people/${id}/password-reset`),
+    mutationFn: (id: string) =>
+      api.post<{ mailedTo: string; expiresInHours: number }>(`/api/people/${id}/password-reset`),
   });
 }
 
@@ -22,13 +23,18 @@ export interface SignInSettings {
   updatedAt: string | null;
 }
 
-export const signInSettingsQueryOptions = () => queryOptions({ queryKey: ['settings', 'sign-in'], queryFn: () => api.get<SignInSettings>('/api/settings/sign-in') });
+export const signInSettingsQueryOptions = () =>
+  queryOptions({
+    queryKey: ['settings', 'sign-in'],
+    queryFn: () => api.get<SignInSettings>('/api/settings/sign-in'),
+  });
 export const useSignInSettings = () => useQuery(signInSettingsQueryOptions());
 
 export function useSaveSignInSettings() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: { requireSecondFactor: boolean }) => api.put<SignInSettings>('/api/settings/sign-in', body),
+    mutationFn: (body: { requireSecondFactor: boolean }) =>
+      api.put<SignInSettings>('/api/settings/sign-in', body),
     onSuccess: async () => {
       await queryClient.invalidateQueries({ queryKey: ['settings', 'sign-in'] });
       await queryClient.invalidateQueries({ queryKey: ['session'] });

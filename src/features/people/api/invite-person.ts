@@ -12,7 +12,8 @@ export interface InviteResult {
 export function useInvitePerson() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: { email: string; displayName: string; roles: Role[] }) => api.post<InviteResult>('/api/people/invitations', body),
+    mutationFn: (body: { email: string; displayName: string; roles: Role[] }) =>
+      api.post<InviteResult>('/api/people/invitations', body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['people'] }),
   });
 }

@@ -5,7 +5,8 @@ import { api } from '@/lib/api-client';
 export function useUpdatePerson() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, ...body }: UpdatePersonBody & { id: string }) => api.patch<{ person: PersonView }>(`/api/people/${id}`, body),
+    mutationFn: ({ id, ...body }: UpdatePersonBody & { id: string }) =>
+      api.patch<{ person: PersonView }>(`/api/people/${id}`, body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['people'] }),
   });
 }

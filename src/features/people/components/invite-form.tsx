@@ -26,18 +26,34 @@ export function InviteForm() {
   };
 
   return (
-    <form onSubmit={submit} className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-5" noValidate>
+    <form
+      onSubmit={submit}
+      className="flex flex-col gap-4 rounded-lg border border-rule bg-card p-5"
+      noValidate
+    >
       <h2 className="text-lg font-semibold">Invite a person</h2>
       {invite.error && <Notice tone="error">{invite.error.message}</Notice>}
       {invite.data && (
         <Notice tone="success">
-          {invite.data.person.displayName} is invited. An e-mail with a one-time link to choose a password went to {invite.data.mailedTo} (valid{' '}
-          {invite.data.expiresInDays} days). The link is sent to them only.
+          {invite.data.person.displayName} is invited. An e-mail with a one-time link to choose a password
+          went to {invite.data.mailedTo} (valid {invite.data.expiresInDays} days). The link is sent to them
+          only.
         </Notice>
       )}
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field label="Name" value={displayName} onChange={(e) => setDisplayName(e.target.value)} error={fieldError('displayName')} />
-        <Field label="E-mail" type="email" value={email} onChange={(e) => setEmail(e.target.value)} error={fieldError('email')} />
+        <Field
+          label="Name"
+          value={displayName}
+          onChange={(e) => setDisplayName(e.target.value)}
+          error={fieldError('displayName')}
+        />
+        <Field
+          label="E-mail"
+          type="email"
+          value={email}
+          onChange={(e) => setEmail(e.target.value)}
+          error={fieldError('email')}
+        />
       </div>
       <fieldset>
         <legend className="text-sm font-semibold">Roles</legend>

@@ -19,10 +19,15 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
       {clearCodes.error && <Notice tone="error">{clearCodes.error.message}</Notice>}
       {reset.data && (
         <Notice tone="success">
-          A one-time link to choose a new password went to {reset.data.mailedTo} (valid {reset.data.expiresInHours} hours). Their current password works until they use it.
+          A one-time link to choose a new password went to {reset.data.mailedTo} (valid{' '}
+          {reset.data.expiresInHours} hours). Their current password works until they use it.
         </Notice>
       )}
-      {clearCodes.data && <Notice tone="success">{clearCodes.data.person.displayName}’s authenticator is cleared; they are signed out everywhere.</Notice>}
+      {clearCodes.data && (
+        <Notice tone="success">
+          {clearCodes.data.person.displayName}’s authenticator is cleared; they are signed out everywhere.
+        </Notice>
+      )}
       <div className="overflow-x-auto rounded-lg border border-rule bg-card">
         <table className="w-full text-left text-sm">
           <thead className="border-b border-rule bg-paper-deep">
@@ -43,7 +48,10 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
           </thead>
           <tbody>
             {people.map((p) => (
-              <tr key={p.id} className={`border-b border-rule last:border-0 ${p.active ? '' : 'text-graphite-soft'}`}>
+              <tr
+                key={p.id}
+                className={`border-b border-rule last:border-0 ${p.active ? '' : 'text-graphite-soft'}`}
+              >
                 <td className="px-3 py-2 font-semibold">{p.displayName}</td>
                 <td className="px-3 py-2">{p.email}</td>
                 {ROLES.map((r) => (
@@ -58,7 +66,9 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                     />
                   </td>
                 ))}
-                <td className="px-3 py-2">{!p.active ? 'Deactivated' : p.hasPassword ? 'Active' : 'Invited'}</td>
+                <td className="px-3 py-2">
+                  {!p.active ? 'Deactivated' : p.hasPassword ? 'Active' : 'Invited'}
+                </td>
                 <td className="px-3 py-2">{p.totp ? 'On' : '—'}</td>
                 <td className="flex flex-wrap justify-end gap-2 px-3 py-2 text-right">
                   {p.active && (

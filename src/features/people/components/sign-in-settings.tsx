@@ -6,7 +6,10 @@ export function SignInSettingsPanel() {
   const settings = useSignInSettings();
   const save = useSaveSignInSettings();
   return (
-    <section aria-label="Sign-in rules" className="flex flex-col gap-3 rounded-lg border border-rule bg-card p-5">
+    <section
+      aria-label="Sign-in rules"
+      className="flex flex-col gap-3 rounded-lg border border-rule bg-card p-5"
+    >
       <h2 className="text-lg font-semibold">Sign-in rules</h2>
       {settings.isError && <Notice tone="error">{settings.error.message}</Notice>}
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
@@ -23,7 +26,8 @@ export function SignInSettingsPanel() {
         </label>
       )}
       <p className="text-sm text-graphite-soft">
-        Those without an authenticator are asked to set one up before they can do anything else. Turn this on only after setting up your own on your account page. Each change is recorded in the audit log.
+        Those without an authenticator are asked to set one up before they can do anything else. Turn this on
+        only after setting up your own on your account page. Each change is recorded in the audit log.
       </p>
     </section>
   );

@@ -7,7 +7,8 @@ export interface CreatedProcedure {
   revision: RevisionView;
 }
 
-export const createProcedure = (body: CreateProcedureBody) => api.post<CreatedProcedure>('/api/procedures', body);
+export const createProcedure = (body: CreateProcedureBody) =>
+  api.post<CreatedProcedure>('/api/procedures', body);
 
 export function useCreateProcedure() {
   const queryClient = useQueryClient();

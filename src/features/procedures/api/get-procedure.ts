@@ -4,11 +4,19 @@ import { api } from '@/lib/api-client';
 
 export interface ProcedureDetail {
   procedure: { id: string; title: string; equipmentFamily: string; equipmentModel: string; tags: string[] };
-  revisions: { id: string; number: number; state: RevisionStateName; author: { id: string; displayName: string }; updatedAt: string }[];
+  revisions: {
+    id: string;
+    number: number;
+    state: RevisionStateName;
+    author: { id: string; displayName: string };
+    updatedAt: string;
+  }[];
 }
 
-export const getProcedure = (id: string) => api.get<ProcedureDetail>(`/api/procedures/${encodeURIComponent(id)}`);
+export const getProcedure = (id: string) =>
+  api.get<ProcedureDetail>(`/api/procedures/${encodeURIComponent(id)}`);
 
-export const procedureQueryOptions = (id: string) => queryOptions({ queryKey: ['procedures', id], queryFn: () => getProcedure(id) });
+export const procedureQueryOptions = (id: string) =>
+  queryOptions({ queryKey: ['procedures', id], queryFn: () => getProcedure(id) });
 
 export const useProcedure = (id: string) => useQuery(procedureQueryOptions(id));

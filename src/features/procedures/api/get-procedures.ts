@@ -8,13 +8,20 @@ const queryString = (q: ProcedureListQuery) => {
   return qs.size ? `?${qs}` : '';
 };
 
-export const getProcedures = (q: ProcedureListQuery = {}) => api.get<ProcedurePage>(`/api/procedures${queryString(q)}`);
+export const getProcedures = (q: ProcedureListQuery = {}) =>
+  api.get<ProcedurePage>(`/api/procedures${queryString(q)}`);
 
 /** One page of the list; filtering, sorting and paging happen on the server. */
-export const proceduresQueryOptions = (q: ProcedureListQuery) => queryOptions({ queryKey: ['procedures', 'list', q], queryFn: () => getProcedures(q) });
+export const proceduresQueryOptions = (q: ProcedureListQuery) =>
+  queryOptions({ queryKey: ['procedures', 'list', q], queryFn: () => getProcedures(q) });
 
 /** Keeps the current page on screen while the next one loads. */
-export const useProcedures = (q: ProcedureListQuery) => useQuery({ ...proceduresQueryOptions(q), placeholderData: keepPreviousData });
+export const useProcedures = (q: ProcedureListQuery) =>
+  useQuery({ ...proceduresQueryOptions(q), placeholderData: keepPreviousData });
 
 export const useProcedureFacets = () =>
-  useQuery({ queryKey: ['procedures', 'facets'], queryFn: async () => (await api.get<{ facets: ProcedureFacets }>('/api/procedures/facets')).facets, staleTime: 60_000 });
+  useQuery({
+    queryKey: ['procedures', 'facets'],
+    queryFn: async () => (await api.get<{ facets: ProcedureFacets }>('/api/procedures/facets')).facets,
+    staleTime: 60_000,
+  });

@@ -2,8 +2,10 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
 
-export const getRevision = (id: string) => api.get<{ revision: RevisionView }>(`/api/revisions/${encodeURIComponent(id)}`);
+export const getRevision = (id: string) =>
+  api.get<{ revision: RevisionView }>(`/api/revisions/${encodeURIComponent(id)}`);
 
-export const revisionQueryOptions = (id: string) => queryOptions({ queryKey: ['revisions', id], queryFn: () => getRevision(id) });
+export const revisionQueryOptions = (id: string) =>
+  queryOptions({ queryKey: ['revisions', id], queryFn: () => getRevision(id) });
 
 export const useRevision = (id: string) => useQuery(revisionQueryOptions(id));

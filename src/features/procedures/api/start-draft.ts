@@ -3,7 +3,8 @@ import type { RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
 
 /** Starts the next draft from the approved revision; 409 names the open revision to continue instead. */
-export const startDraft = (procedureId: string) => api.post<{ revision: RevisionView }>(`/api/procedures/${encodeURIComponent(procedureId)}/drafts`);
+export const startDraft = (procedureId: string) =>
+  api.post<{ revision: RevisionView }>(`/api/procedures/${encodeURIComponent(procedureId)}/drafts`);
 
 export function useStartDraft() {
   const queryClient = useQueryClient();

@@ -22,7 +22,12 @@ export async function uploadAttachment(file: File): Promise<AttachmentView> {
   }
   const data = (await res.json().catch(() => ({}))) as { attachment?: AttachmentView; error?: string };
   if (!res.ok || !data.attachment) {
-    const fallback = res.status === 413 ? 'The file is too large.' : res.status === 415 ? 'That type of file is not accepted.' : `Upload failed (${res.status}).`;
+    const fallback =
+      res.status === 413
+        ? 'The file is too large.'
+        : res.status === 415
+          ? 'That type of file is not accepted.'
+          : `Upload failed (${res.status}).`;
     throw new ApiError(res.status, data.error ?? fallback, [], data as Record<string, unknown>);
   }
   return data.attachment;

@@ -15,7 +15,11 @@ export function CautionList({ cautions }: { cautions: Caution[] }) {
   return (
     <ul className="flex flex-col gap-2" aria-label="Cautions">
       {sorted.map((c) => (
-        <li key={c.code + c.message} data-caution={c.level} className={`rounded border-2 px-3 py-2 text-sm ${LEVEL[c.level].style}`}>
+        <li
+          key={c.code + c.message}
+          data-caution={c.level}
+          className={`rounded border-2 px-3 py-2 text-sm ${LEVEL[c.level].style}`}
+        >
           <strong>{LEVEL[c.level].word}:</strong> {c.message}
           {c.source && <span className="block text-xs opacity-80">Source: {c.source}</span>}
         </li>

@@ -13,7 +13,15 @@ interface Props {
 
 const input = 'min-h-10 rounded border bg-card px-2 py-1 text-sm';
 
-function Labelled({ label, error, children }: { label: string; error?: string; children: (id: string) => React.ReactNode }) {
+function Labelled({
+  label,
+  error,
+  children,
+}: {
+  label: string;
+  error?: string;
+  children: (id: string) => React.ReactNode;
+}) {
   const id = useId();
   return (
     <div className="flex flex-col gap-1">
@@ -32,21 +40,43 @@ function Labelled({ label, error, children }: { label: string; error?: string; c
 
 /** Title, equipment, tags and the procedure's mains parameters, above the text. */
 export function DraftDetails({ value, onChange, problems }: Props) {
-  const err = (field: string) => problems.find((p) => p.field === `body.${field}` || p.field.startsWith(`body.${field}.`))?.reason;
+  const err = (field: string) =>
+    problems.find((p) => p.field === `body.${field}` || p.field.startsWith(`body.${field}.`))?.reason;
   const set = (patch: Partial<Details>) => onChange({ ...value, ...patch });
   return (
     <fieldset className="grid gap-3 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2 lg:grid-cols-4">
       <legend className="px-1 text-sm font-semibold">Procedure details</legend>
       <div className="sm:col-span-2">
         <Labelled label="Title" error={err('title')}>
-          {(id) => <input id={id} className={`${input} w-full border-rule`} value={value.title} onChange={(e) => set({ title: e.target.value })} />}
+          {(id) => (
+            <input
+              id={id}
+              className={`${input} w-full border-rule`}
+              value={value.title}
+              onChange={(e) => set({ title: e.target.value })}
+            />
+          )}
         </Labelled>
       </div>
       <Labelled label="Equipment family" error={err('equipmentFamily')}>
-        {(id) => <input id={id} className={`${input} border-rule`} value={value.equipmentFamily} onChange={(e) => set({ equipmentFamily: e.target.value })} />}
+        {(id) => (
+          <input
+            id={id}
+            className={`${input} border-rule`}
+            value={value.equipmentFamily}
+            onChange={(e) => set({ equipmentFamily: e.target.value })}
+          />
+        )}
       </Labelled>
       <Labelled label="Model" error={err('equipmentModel')}>
-        {(id) => <input id={id} className={`${input} border-rule`} value={value.equipmentModel} onChange={(e) => set({ equipmentModel: e.target.value })} />}
+        {(id) => (
+          <input
+            id={id}
+            className={`${input} border-rule`}
+            value={value.equipmentModel}
+            onChange={(e) => set({ equipmentModel: e.target.value })}
+          />
+        )}
       </Labelled>
       <div className="sm:col-span-2">
         <Labelled label="Tags (comma-separated)" error={err('tags')}>
@@ -55,7 +85,14 @@ export function DraftDetails({ value, onChange, problems }: Props) {
               id={id}
               className={`${input} w-full border-rule`}
               defaultValue={value.tags.join(', ')}
-              onChange={(e) => set({ tags: e.target.value.split(',').map((t) => t.trim()).filter(Boolean) })}
+              onChange={(e) =>
+                set({
+                  tags: e.target.value
+                    .split(',')
+                    .map((t) => t.trim())
+                    .filter(Boolean),
+                })
+              }
             />
           )}
         </Labelled>

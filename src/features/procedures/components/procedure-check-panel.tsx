@@ -3,14 +3,25 @@ import { LEVEL } from './caution-list';
 
 const ORDER = { danger: 0, warning: 1, note: 2 } as const;
 
-function WarningList({ warnings, onSelect, label }: { warnings: LintWarning[]; onSelect: (blockId: string) => void; label: string }) {
+function WarningList({
+  warnings,
+  onSelect,
+  label,
+}: {
+  warnings: LintWarning[];
+  onSelect: (blockId: string) => void;
+  label: string;
+}) {
   const sorted = [...warnings].sort((a, b) => ORDER[a.level] - ORDER[b.level]);
   return (
     <ul className="mt-2 flex flex-col gap-2" data-procedure-check aria-label={label}>
       {sorted.map((w, i) => {
         const body = (
           <>
-            <strong className={`mr-1 rounded border px-1 text-xs uppercase ${LEVEL[w.level].style}`}>{LEVEL[w.level].word}</strong> {w.message}
+            <strong className={`mr-1 rounded border px-1 text-xs uppercase ${LEVEL[w.level].style}`}>
+              {LEVEL[w.level].word}
+            </strong>{' '}
+            {w.message}
           </>
         );
         return (
@@ -37,7 +48,13 @@ function WarningList({ warnings, onSelect, label }: { warnings: LintWarning[]; o
  * The procedure check beside the editor: its own findings first, then the reckoners' cautions it
  * passes on; each jumps to its block. Warnings never stop a save, and none does not mean safe.
  */
-export function ProcedureCheckPanel({ warnings, onSelect }: { warnings: LintWarning[]; onSelect: (blockId: string) => void }) {
+export function ProcedureCheckPanel({
+  warnings,
+  onSelect,
+}: {
+  warnings: LintWarning[];
+  onSelect: (blockId: string) => void;
+}) {
   const findings = warnings.filter((w) => w.code !== 'reckoner-caution');
   const cautions = warnings.filter((w) => w.code === 'reckoner-caution');
   return (
@@ -56,7 +73,8 @@ export function ProcedureCheckPanel({ warnings, onSelect }: { warnings: LintWarn
       {cautions.length > 0 && (
         <details className="mt-3" open>
           <summary className="cursor-pointer text-sm font-semibold">
-            Reckoner cautions <span className="value font-normal text-graphite-soft">({cautions.length})</span>
+            Reckoner cautions{' '}
+            <span className="value font-normal text-graphite-soft">({cautions.length})</span>
           </summary>
           <WarningList warnings={cautions} onSelect={onSelect} label="Reckoner cautions" />
         </details>

@@ -1,5 +1,11 @@
 import { Link } from 'react-router-dom';
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
 import type { ProcedureListItem } from '@shared/schemas/procedures';
 import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
 import { paths } from '@/config/paths';
@@ -11,7 +17,10 @@ const columns = [
   col.accessor('title', {
     header: 'Title',
     cell: (c) => (
-      <Link className="font-semibold text-accent-deep underline" to={paths.revision.href(c.row.original.approved?.id ?? c.row.original.latest.id)}>
+      <Link
+        className="font-semibold text-accent-deep underline"
+        to={paths.revision.href(c.row.original.approved?.id ?? c.row.original.latest.id)}
+      >
         {c.getValue()}
       </Link>
     ),
@@ -21,11 +30,17 @@ const columns = [
     header: 'Equipment',
     cell: (c) => (
       <>
-        {c.row.original.equipmentFamily} <span className="font-semibold">{c.row.original.equipmentModel}</span>
+        {c.row.original.equipmentFamily}{' '}
+        <span className="font-semibold">{c.row.original.equipmentModel}</span>
       </>
     ),
   }),
-  col.accessor((p) => p.tags.join(', '), { id: 'tags', header: 'Tags', enableSorting: false, cell: (c) => <span className="text-graphite-soft">{c.getValue()}</span> }),
+  col.accessor((p) => p.tags.join(', '), {
+    id: 'tags',
+    header: 'Tags',
+    enableSorting: false,
+    cell: (c) => <span className="text-graphite-soft">{c.getValue()}</span>,
+  }),
   col.accessor((p) => REVISION_STATE_LABELS[p.latest.state], {
     id: 'state',
     header: 'Latest revision',
@@ -46,7 +61,15 @@ const columns = [
  * One page of the procedure list. Sorting happens on the server: the table shows the sort it is
  * given and reports header clicks; column ids are the API's sort names.
  */
-export function ProcedureTable({ procedures, sorting, onSortingChange }: { procedures: ProcedureListItem[]; sorting: SortingState; onSortingChange: (s: SortingState) => void }) {
+export function ProcedureTable({
+  procedures,
+  sorting,
+  onSortingChange,
+}: {
+  procedures: ProcedureListItem[];
+  sorting: SortingState;
+  onSortingChange: (s: SortingState) => void;
+}) {
   const table = useReactTable({
     data: procedures,
     columns,
@@ -65,16 +88,35 @@ export function ProcedureTable({ procedures, sorting, onSortingChange }: { proce
               {hg.headers.map((h) => {
                 const sorted = h.column.getIsSorted();
                 return (
-                  <th key={h.id} scope="col" aria-sort={h.column.getCanSort() ? (sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none') : undefined} className="px-3 py-1">
+                  <th
+                    key={h.id}
+                    scope="col"
+                    aria-sort={
+                      h.column.getCanSort()
+                        ? sorted === 'asc'
+                          ? 'ascending'
+                          : sorted === 'desc'
+                            ? 'descending'
+                            : 'none'
+                        : undefined
+                    }
+                    className="px-3 py-1"
+                  >
                     {h.column.getCanSort() ? (
-                      <button type="button" className="flex min-h-10 items-center gap-1 font-semibold" onClick={h.column.getToggleSortingHandler()}>
+                      <button
+                        type="button"
+                        className="flex min-h-10 items-center gap-1 font-semibold"
+                        onClick={h.column.getToggleSortingHandler()}
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <span aria-hidden className="text-xs text-graphite-soft">
                           {sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}
                         </span>
                       </button>
                     ) : (
-                      <span className="flex min-h-10 items-center font-semibold">{flexRender(h.column.columnDef.header, h.getContext())}</span>
+                      <span className="flex min-h-10 items-center font-semibold">
+                        {flexRender(h.column.columnDef.header, h.getContext())}
+                      </span>
                     )}
                   </th>
                 );

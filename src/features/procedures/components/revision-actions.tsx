@@ -13,19 +13,29 @@ export function RevisionActions({ revision, isAuthor }: { revision: RevisionView
   return (
     <div className="no-print flex flex-wrap items-center gap-2">
       {isAuthor && revision.state === 'draft' && (
-        <Link to={paths.editRevision.href(revision.id)} className="inline-flex min-h-11 items-center rounded-md border border-accent-deep bg-accent px-4 text-sm font-semibold text-white hover:bg-accent-deep">
+        <Link
+          to={paths.editRevision.href(revision.id)}
+          className="inline-flex min-h-11 items-center rounded-md border border-accent-deep bg-accent px-4 text-sm font-semibold text-white hover:bg-accent-deep"
+        >
           Edit
         </Link>
       )}
       {isAuthor && revision.state === 'approved' && (
         <Button
           disabled={startDraft.isPending}
-          onClick={() => startDraft.mutate(revision.procedureId, { onSuccess: (d) => navigate(paths.editRevision.href(d.revision.id)) })}
+          onClick={() =>
+            startDraft.mutate(revision.procedureId, {
+              onSuccess: (d) => navigate(paths.editRevision.href(d.revision.id)),
+            })
+          }
         >
           Start a new draft
         </Button>
       )}
-      <Link to={paths.procedure.href(revision.procedureId)} className="inline-flex min-h-11 items-center rounded-md border border-rule bg-card px-4 text-sm hover:bg-paper-deep">
+      <Link
+        to={paths.procedure.href(revision.procedureId)}
+        className="inline-flex min-h-11 items-center rounded-md border border-rule bg-card px-4 text-sm hover:bg-paper-deep"
+      >
         All revisions
       </Link>
       <Button variant="quiet" onClick={() => window.print()}>

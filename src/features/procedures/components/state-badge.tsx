@@ -10,5 +10,9 @@ const TONE: Record<RevisionStateName, string> = {
 };
 
 export function StateBadge({ state }: { state: RevisionStateName }) {
-  return <span className={`inline-block rounded border px-2 py-0.5 text-xs font-semibold ${TONE[state]}`}>{REVISION_STATE_LABELS[state]}</span>;
+  return (
+    <span className={`inline-block rounded border px-2 py-0.5 text-xs font-semibold ${TONE[state]}`}>
+      {REVISION_STATE_LABELS[state]}
+    </span>
+  );
 }

@@ -30,13 +30,17 @@ export function ConflictPanel({ message, mine, current, editable, onKeepMine, on
     </div>
   );
   return (
-    <section role="alertdialog" aria-labelledby="conflict-title" className="rounded-lg border-2 border-out bg-out-wash p-4">
+    <section
+      role="alertdialog"
+      aria-labelledby="conflict-title"
+      className="rounded-lg border-2 border-out bg-out-wash p-4"
+    >
       <h2 id="conflict-title" className="text-lg font-semibold text-out">
         Two versions of this draft
       </h2>
       <p className="mt-1 text-sm">
-        {message} The saved version is from {new Date(current.updatedAt).toLocaleString()}. Your version is kept on this device until you
-        choose.
+        {message} The saved version is from {new Date(current.updatedAt).toLocaleString()}. Your version is
+        kept on this device until you choose.
       </p>
       <ul className="mt-2 list-disc pl-5 text-sm">
         {cmp.summary.map((s) => (
@@ -45,7 +49,10 @@ export function ConflictPanel({ message, mine, current, editable, onKeepMine, on
       </ul>
       <div className="mt-3 flex flex-col gap-3 md:flex-row">
         {column('Your version', cmp.mine)}
-        {column(`Saved version (revision ${current.number}, ${current.state === 'draft' ? 'draft' : current.state.replace('_', ' ')})`, cmp.theirs)}
+        {column(
+          `Saved version (revision ${current.number}, ${current.state === 'draft' ? 'draft' : current.state.replace('_', ' ')})`,
+          cmp.theirs,
+        )}
       </div>
       <p className="mt-2 text-xs text-graphite-soft">Lines marked » appear only on that side.</p>
       <div className="mt-3 flex flex-wrap gap-2">

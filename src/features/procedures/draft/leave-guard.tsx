@@ -4,7 +4,9 @@ import { Button } from '@/components/ui/button';
 
 /** Warns before leaving with unsaved changes: the browser's prompt on unload, our own on in-app links. */
 export function LeaveGuard({ unsaved, onSave }: { unsaved: boolean; onSave: () => Promise<void> }) {
-  const blocker = useBlocker(({ currentLocation, nextLocation }) => unsaved && currentLocation.pathname !== nextLocation.pathname);
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) => unsaved && currentLocation.pathname !== nextLocation.pathname,
+  );
 
   useEffect(() => {
     if (!unsaved) return;
@@ -18,7 +20,11 @@ export function LeaveGuard({ unsaved, onSave }: { unsaved: boolean; onSave: () =
 
   if (blocker.state !== 'blocked') return null;
   return (
-    <div role="alertdialog" aria-labelledby="leave-title" className="fixed inset-x-0 bottom-4 z-40 mx-auto w-full max-w-lg rounded-lg border-2 border-graphite bg-card p-4 shadow-xl">
+    <div
+      role="alertdialog"
+      aria-labelledby="leave-title"
+      className="fixed inset-x-0 bottom-4 z-40 mx-auto w-full max-w-lg rounded-lg border-2 border-graphite bg-card p-4 shadow-xl"
+    >
       <h2 id="leave-title" className="font-semibold">
         This draft has unsaved changes
       </h2>

@@ -27,7 +27,8 @@ export function keepLocalCopy(revisionId: string, lockVersion: number, draft: Dr
 export function dropLocalCopy(revisionId: string, lockVersion?: number) {
   try {
     if (lockVersion !== undefined) return localStorage.removeItem(keyFor(revisionId, lockVersion));
-    for (const key of Object.keys(localStorage)) if (key.startsWith(`${PREFIX}${revisionId}.`)) localStorage.removeItem(key);
+    for (const key of Object.keys(localStorage))
+      if (key.startsWith(`${PREFIX}${revisionId}.`)) localStorage.removeItem(key);
   } catch {
     /* nothing kept, nothing to drop */
   }

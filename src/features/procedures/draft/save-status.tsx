@@ -15,7 +15,12 @@ const TEXT: { [K in SaveState['kind']]: (s: Extract<SaveState, { kind: K }>) => 
 /** The one line that says where the author's work is. */
 export function SaveStatus({ state }: { state: SaveState }) {
   const text = (TEXT[state.kind] as (s: SaveState) => string)(state);
-  const tone = state.kind === 'saved' ? 'text-ok' : state.kind === 'saving' || state.kind === 'unsaved' ? 'text-graphite-soft' : 'text-out font-semibold';
+  const tone =
+    state.kind === 'saved'
+      ? 'text-ok'
+      : state.kind === 'saving' || state.kind === 'unsaved'
+        ? 'text-graphite-soft'
+        : 'text-out font-semibold';
   return (
     <p role="status" aria-live="polite" data-save-state={state.kind} className={`text-sm ${tone}`}>
       {text}

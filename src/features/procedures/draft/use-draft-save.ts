@@ -48,7 +48,10 @@ export function useDraftSave(revision: RevisionView, draft: DraftFields) {
     const basedOn = lockVersion.current;
     setState({ kind: 'saving' });
     try {
-      const { revision: saved } = await saveRevision(revision.id, { ...latest.current, lockVersion: basedOn });
+      const { revision: saved } = await saveRevision(revision.id, {
+        ...latest.current,
+        lockVersion: basedOn,
+      });
       queryClient.setQueryData(['revisions', revision.id], { revision: saved });
       void queryClient.invalidateQueries({ queryKey: ['procedures'] });
       dropLocalCopy(revision.id, basedOn);

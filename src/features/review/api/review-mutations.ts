@@ -17,7 +17,8 @@ function useInvalidateAll() {
 export function useSubmitRevision(revisionId: string) {
   const invalidate = useInvalidateAll();
   return useMutation({
-    mutationFn: (body: { lockVersion?: number }) => api.post<{ revision: RevisionView }>(`/api/revisions/${revisionId}/submit`, body),
+    mutationFn: (body: { lockVersion?: number }) =>
+      api.post<{ revision: RevisionView }>(`/api/revisions/${revisionId}/submit`, body),
     onSuccess: invalidate,
   });
 }
@@ -27,8 +28,19 @@ export type Decision = 'approve' | 'return';
 export function useDecideRevision(revisionId: string) {
   const invalidate = useInvalidateAll();
   return useMutation({
-    mutationFn: ({ decision, password, comment }: { decision: Decision; password: string; comment: string }) =>
-      api.post<{ revision: RevisionView; signature: SignatureView }>(`/api/revisions/${revisionId}/${decision}`, { password, comment }),
+    mutationFn: ({
+      decision,
+      password,
+      comment,
+    }: {
+      decision: Decision;
+      password: string;
+      comment: string;
+    }) =>
+      api.post<{ revision: RevisionView; signature: SignatureView }>(
+        `/api/revisions/${revisionId}/${decision}`,
+        { password, comment },
+      ),
     onSuccess: invalidate,
   });
 }
@@ -37,7 +49,10 @@ export function useWithdrawProcedure(procedureId: string) {
   const invalidate = useInvalidateAll();
   return useMutation({
     mutationFn: ({ password, reason }: { password: string; reason: string }) =>
-      api.post<{ revision: RevisionView; signature: SignatureView }>(`/api/procedures/${procedureId}/withdraw`, { password, reason }),
+      api.post<{ revision: RevisionView; signature: SignatureView }>(
+        `/api/procedures/${procedureId}/withdraw`,
+        { password, reason },
+      ),
     onSuccess: invalidate,
   });
 }
@@ -45,7 +60,8 @@ export function useWithdrawProcedure(procedureId: string) {
 export function useAddComment(revisionId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: { body: string; blockId?: string | null }) => api.post<{ comment: ReviewCommentView }>(`/api/revisions/${revisionId}/comments`, body),
+    mutationFn: (body: { body: string; blockId?: string | null }) =>
+      api.post<{ comment: ReviewCommentView }>(`/api/revisions/${revisionId}/comments`, body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['review', 'revision', revisionId] }),
   });
 }

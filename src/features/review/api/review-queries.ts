@@ -9,7 +9,12 @@ export const reviewKeys = {
 };
 
 export const useReviewQueue = () =>
-  useQuery(queryOptions({ queryKey: reviewKeys.queue, queryFn: () => api.get<{ items: QueueItem[] }>('/api/review/queue') }));
+  useQuery(
+    queryOptions({
+      queryKey: reviewKeys.queue,
+      queryFn: () => api.get<{ items: QueueItem[] }>('/api/review/queue'),
+    }),
+  );
 
 export const useRevisionReview = (revisionId: string, enabled = true) =>
   useQuery(
@@ -31,4 +36,6 @@ export const useSignatures = (revisionId: string) =>
   );
 
 export const verifySignature = (signatureId: string) =>
-  api.get<{ verified: boolean; storedHash: string; currentHash: string | null; signature: SignatureView }>(`/api/signatures/${signatureId}/verify`);
+  api.get<{ verified: boolean; storedHash: string; currentHash: string | null; signature: SignatureView }>(
+    `/api/signatures/${signatureId}/verify`,
+  );

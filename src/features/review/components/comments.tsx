@@ -10,9 +10,14 @@ export function CommentList({ comments }: { comments: ReviewCommentView[] }) {
   return (
     <ol className="flex flex-col gap-2">
       {comments.map((c) => (
-        <li key={c.id} className="rounded-md border border-rule bg-card px-3 py-2 text-sm" data-block-id={c.blockId ?? undefined}>
+        <li
+          key={c.id}
+          className="rounded-md border border-rule bg-card px-3 py-2 text-sm"
+          data-block-id={c.blockId ?? undefined}
+        >
           <p className="text-xs text-graphite-soft">
-            <strong className="text-graphite">{c.author.displayName}</strong> · <time dateTime={c.createdAt}>{formatUtc(c.createdAt)}</time>
+            <strong className="text-graphite">{c.author.displayName}</strong> ·{' '}
+            <time dateTime={c.createdAt}>{formatUtc(c.createdAt)}</time>
             {c.blockLabel && <> · on {c.blockLabel}</>}
           </p>
           <p className="mt-1 whitespace-pre-wrap">{c.body}</p>
@@ -37,7 +42,12 @@ export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks
       <label htmlFor={`${id}-block`} className="text-sm font-semibold">
         Comment on
       </label>
-      <select id={`${id}-block`} className="min-h-11 rounded-md border border-rule bg-card px-3" value={blockId} onChange={(e) => setBlockId(e.target.value)}>
+      <select
+        id={`${id}-block`}
+        className="min-h-11 rounded-md border border-rule bg-card px-3"
+        value={blockId}
+        onChange={(e) => setBlockId(e.target.value)}
+      >
         <option value="">The whole revision</option>
         {blocks.map((b) => (
           <option key={b.id} value={b.id}>
@@ -48,7 +58,13 @@ export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks
       <label htmlFor={`${id}-body`} className="text-sm font-semibold">
         Comment
       </label>
-      <textarea id={`${id}-body`} className="min-h-20 rounded-md border border-rule bg-card px-3 py-2" value={body} maxLength={4000} onChange={(e) => setBody(e.target.value)} />
+      <textarea
+        id={`${id}-body`}
+        className="min-h-20 rounded-md border border-rule bg-card px-3 py-2"
+        value={body}
+        maxLength={4000}
+        onChange={(e) => setBody(e.target.value)}
+      />
       {add.error && <Notice tone="error">{add.error.message}</Notice>}
       <div>
         <Button type="submit" variant="quiet" disabled={add.isPending || !body.trim()}>

@@ -12,11 +12,18 @@ export function QueueTable({ items }: { items: QueueItem[] }) {
       {items.map((i) => (
         <tr key={i.revisionId} className="border-b border-rule last:border-0">
           <td className="px-3 py-2">
-            <Link to={paths.reviewRevision.href(i.revisionId)} className="font-semibold text-accent-deep underline">
+            <Link
+              to={paths.reviewRevision.href(i.revisionId)}
+              className="font-semibold text-accent-deep underline"
+            >
               {i.title}
             </Link>{' '}
             <span className="text-graphite-soft">{i.equipmentModel}</span>
-            {i.ownWork && <span className="ml-2 rounded border border-rule px-1 text-xs">your work — another reviewer decides</span>}
+            {i.ownWork && (
+              <span className="ml-2 rounded border border-rule px-1 text-xs">
+                your work — another reviewer decides
+              </span>
+            )}
           </td>
           <td className="px-3 py-2">
             <span className="value">{i.number}</span>

@@ -20,7 +20,8 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
   const submit = useSubmitRevision(revision.id);
   const withdraw = useWithdrawProcedure(revision.procedureId);
   const [withdrawing, setWithdrawing] = useState(false);
-  const problems = (submit.error?.body.problems as { blockId: string | null; message: string }[] | undefined) ?? [];
+  const problems =
+    (submit.error?.body.problems as { blockId: string | null; message: string }[] | undefined) ?? [];
   const reviewLink = paths.reviewRevision.href(revision.id);
   const seesReview = hasRole(user, 'author', 'reviewer', 'admin');
 
@@ -29,7 +30,10 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
       <SignatureList revisionId={revision.id} />
       <div className="flex flex-wrap items-center gap-3">
         {revision.state === 'draft' && hasRole(user, 'author') && (
-          <Button onClick={() => submit.mutate({ lockVersion: revision.lockVersion })} disabled={submit.isPending}>
+          <Button
+            onClick={() => submit.mutate({ lockVersion: revision.lockVersion })}
+            disabled={submit.isPending}
+          >
             {submit.isPending ? 'Submitting…' : 'Submit for review'}
           </Button>
         )}
@@ -73,7 +77,12 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
           confirmLabel="Sign and withdraw"
           pending={withdraw.isPending}
           error={withdraw.error}
-          onConfirm={(v) => withdraw.mutate({ password: v.password, reason: v.comment }, { onSuccess: () => setWithdrawing(false) })}
+          onConfirm={(v) =>
+            withdraw.mutate(
+              { password: v.password, reason: v.comment },
+              { onSuccess: () => setWithdrawing(false) },
+            )
+          }
           onClose={() => {
             setWithdrawing(false);
             withdraw.reset();

@@ -36,14 +36,20 @@ export function SignOffDialog(props: {
     props.onConfirm({ password, comment });
   };
   return (
-    <dialog ref={ref} aria-labelledby={`${id}-title`} onClose={props.onClose} className="m-auto w-full max-w-lg rounded-lg border border-rule bg-card p-0 text-graphite backdrop:bg-graphite/40">
+    <dialog
+      ref={ref}
+      aria-labelledby={`${id}-title`}
+      onClose={props.onClose}
+      className="m-auto w-full max-w-lg rounded-lg border border-rule bg-card p-0 text-graphite backdrop:bg-graphite/40"
+    >
       <form onSubmit={submit} className="flex flex-col gap-4 p-5">
         <h2 id={`${id}-title`} className="text-lg font-semibold">
           {props.title}
         </h2>
         <p className="text-sm">
-          You are signing as <strong>{props.signerName}</strong>. Meaning of this signature: <strong>{props.meaning}</strong>. Benchwright records your name,
-          role, the time and a hash of the exact content you signed.
+          You are signing as <strong>{props.signerName}</strong>. Meaning of this signature:{' '}
+          <strong>{props.meaning}</strong>. Benchwright records your name, role, the time and a hash of the
+          exact content you signed.
         </p>
         <div className="flex flex-col gap-1">
           <label htmlFor={`${id}-comment`} className="text-sm font-semibold">
@@ -78,7 +84,10 @@ export function SignOffDialog(props: {
           <Button variant="quiet" onClick={() => ref.current?.close()}>
             Cancel
           </Button>
-          <Button type="submit" disabled={props.pending || !password || (props.commentRequired && !comment.trim())}>
+          <Button
+            type="submit"
+            disabled={props.pending || !password || (props.commentRequired && !comment.trim())}
+          >
             {props.pending ? 'Signing…' : props.confirmLabel}
           </Button>
         </div>

@@ -21,7 +21,10 @@ export function SignatureBadge({ signature }: { signature: SignatureView }) {
     }
   };
   return (
-    <div data-signature={signature.meaning} className={`rounded-md border px-3 py-2 text-sm ${verified ? 'border-ok bg-card' : 'border-out bg-out-wash'}`}>
+    <div
+      data-signature={signature.meaning}
+      className={`rounded-md border px-3 py-2 text-sm ${verified ? 'border-ok bg-card' : 'border-out bg-out-wash'}`}
+    >
       <p>
         <strong>
           {MEANING_LABELS[signature.meaning]} by {signature.signer.displayName}

@@ -10,7 +10,8 @@ const MARK: Record<DiffLine['kind'], string> = { same: ' ', changed: '~', added:
 
 /** The plain text of the revision against the base, changed words marked inline. Unchanged runs fold. */
 export function TextDiffView({ lines }: { lines: DiffLine[] }) {
-  if (!lines.some((l) => l.kind !== 'same')) return <p className="text-sm text-graphite-soft">The text is unchanged.</p>;
+  if (!lines.some((l) => l.kind !== 'same'))
+    return <p className="text-sm text-graphite-soft">The text is unchanged.</p>;
   // Keep two lines of context around each change; fold the rest.
   const keep = lines.map((_, i) => lines.slice(Math.max(0, i - 2), i + 3).some((l) => l.kind !== 'same'));
   const rows: (DiffLine | { fold: number })[] = [];
@@ -23,7 +24,10 @@ export function TextDiffView({ lines }: { lines: DiffLine[] }) {
     }
   });
   return (
-    <div aria-label="Text changes" className="overflow-x-auto rounded-lg border border-rule bg-card font-serif text-sm">
+    <div
+      aria-label="Text changes"
+      className="overflow-x-auto rounded-lg border border-rule bg-card font-serif text-sm"
+    >
       {rows.map((row, i) =>
         'fold' in row ? (
           <p key={i} className="border-y border-rule px-3 py-1 text-xs text-graphite-soft">

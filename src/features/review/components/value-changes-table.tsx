@@ -1,11 +1,23 @@
 import type { ValueChange } from '@shared/schemas/review';
 import { DataTable } from '@/components/ui/data-table';
 
-const KIND_LABELS: Record<ValueChange['kind'], string> = { parameter: 'Parameter', input: 'Input', output: 'Result', block: 'Reckoner', reading: 'Reading' };
-const BLOCK_ROWS: Record<string, string> = { name: 'Name', added: 'Added', removed: 'Removed', problems: 'Input problems' };
+const KIND_LABELS: Record<ValueChange['kind'], string> = {
+  parameter: 'Parameter',
+  input: 'Input',
+  output: 'Result',
+  block: 'Reckoner',
+  reading: 'Reading',
+};
+const BLOCK_ROWS: Record<string, string> = {
+  name: 'Name',
+  added: 'Added',
+  removed: 'Removed',
+  problems: 'Input problems',
+};
 
 /** The block is named once for its run of rows: a calm table, not a column of repeats. */
-const continues = (rows: ValueChange[], i: number) => i > 0 && rows[i - 1]!.subject === rows[i]!.subject && rows[i - 1]!.blockId === rows[i]!.blockId;
+const continues = (rows: ValueChange[], i: number) =>
+  i > 0 && rows[i - 1]!.subject === rows[i]!.subject && rows[i - 1]!.blockId === rows[i]!.blockId;
 
 function Subject({ c, repeat }: { c: ValueChange; repeat: boolean }) {
   if (repeat) return <span className="sr-only">{c.subject}</span>;
@@ -23,7 +35,17 @@ function What({ c }: { c: ValueChange }) {
   return <em>{BLOCK_ROWS[c.label] ?? c.label}</em>;
 }
 
-function Value({ value, source, empty, strong }: { value: string | null; source?: string | null; empty: string; strong?: boolean }) {
+function Value({
+  value,
+  source,
+  empty,
+  strong,
+}: {
+  value: string | null;
+  source?: string | null;
+  empty: string;
+  strong?: boolean;
+}) {
   if (value === null) return <em className="text-graphite-soft">{empty}</em>;
   return (
     <>
@@ -35,7 +57,10 @@ function Value({ value, source, empty, strong }: { value: string | null; source?
 
 /** Every figure that moved since the compared revision: parameters, each block's inputs (with their sources) and results, readings. */
 export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
-  if (!changes.length) return <p className="text-sm text-graphite-soft">No input, calculated value, reading or parameter changed.</p>;
+  if (!changes.length)
+    return (
+      <p className="text-sm text-graphite-soft">No input, calculated value, reading or parameter changed.</p>
+    );
   return (
     <DataTable columns={['Kind', 'Block', 'Figure', 'Before', 'After']} label="Value changes">
       {changes.map((c, i) => (
@@ -61,7 +86,10 @@ export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
 
 /** A first revision: what it assumes (every input given, with where it came from) and what follows (key results). */
 export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
-  if (!rows.length) return <p className="text-sm text-graphite-soft">This revision has no parameters, calculations or readings.</p>;
+  if (!rows.length)
+    return (
+      <p className="text-sm text-graphite-soft">This revision has no parameters, calculations or readings.</p>
+    );
   return (
     <DataTable columns={['Block', 'Figure', 'Value', 'From']} label="What this revision assumes">
       {rows.map((c, i) => (
@@ -75,7 +103,15 @@ export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
           <td className="px-3 py-2">
             <Value value={c.after} empty="—" strong={c.kind === 'output'} />
           </td>
-          <td className="px-3 py-2 text-graphite-soft">{c.kind === 'input' ? c.sourceAfter : c.kind === 'output' ? 'calculated' : c.kind === 'parameter' ? 'procedure parameter' : ''}</td>
+          <td className="px-3 py-2 text-graphite-soft">
+            {c.kind === 'input'
+              ? c.sourceAfter
+              : c.kind === 'output'
+                ? 'calculated'
+                : c.kind === 'parameter'
+                  ? 'procedure parameter'
+                  : ''}
+          </td>
         </tr>
       ))}
     </DataTable>

@@ -2,7 +2,11 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RunView } from '@shared/schemas/runs';
 import { api } from '@/lib/api-client';
 
-export const runQueryOptions = (id: string) => queryOptions({ queryKey: ['runs', 'one', id], queryFn: () => api.get<{ run: RunView }>(`/api/runs/${id}`) });
+export const runQueryOptions = (id: string) =>
+  queryOptions({
+    queryKey: ['runs', 'one', id],
+    queryFn: () => api.get<{ run: RunView }>(`/api/runs/${id}`),
+  });
 
 /** While a run is open, poll every 3 s so technicians on the same run see each other's entries. */
 export const useRun = (id: string) =>

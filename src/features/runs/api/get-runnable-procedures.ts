@@ -10,13 +10,22 @@ const RUNNABLE_LIMIT = 200;
 export const runnableProceduresQueryOptions = (q = '') =>
   queryOptions({
     queryKey: ['procedures', 'runnable', q],
-    queryFn: () => getProcedures({ runnable: 'true', q: q || undefined, sort: 'title', dir: 'asc', limit: RUNNABLE_LIMIT }),
+    queryFn: () =>
+      getProcedures({
+        runnable: 'true',
+        q: q || undefined,
+        sort: 'title',
+        dir: 'asc',
+        limit: RUNNABLE_LIMIT,
+      }),
   });
-export const useRunnableProcedures = (q = '') => useQuery({ ...runnableProceduresQueryOptions(q), placeholderData: keepPreviousData });
+export const useRunnableProcedures = (q = '') =>
+  useQuery({ ...runnableProceduresQueryOptions(q), placeholderData: keepPreviousData });
 
 export const useRevisionParams = (revisionId: string | undefined) =>
   useQuery({
     queryKey: ['revisions', revisionId, 'params'],
     enabled: !!revisionId,
-    queryFn: async () => (await api.get<{ revision: RevisionView }>(`/api/revisions/${revisionId}`)).revision.params,
+    queryFn: async () =>
+      (await api.get<{ revision: RevisionView }>(`/api/revisions/${revisionId}`)).revision.params,
   });

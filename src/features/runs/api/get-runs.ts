@@ -13,4 +13,5 @@ export const runsQueryOptions = (filter: { status?: RunStatus; mine?: boolean } 
     },
   });
 
-export const useRuns = (filter: { status?: RunStatus; mine?: boolean } = {}) => useQuery(runsQueryOptions(filter));
+export const useRuns = (filter: { status?: RunStatus; mine?: boolean } = {}) =>
+  useQuery(runsQueryOptions(filter));

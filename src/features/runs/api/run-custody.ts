@@ -4,7 +4,11 @@ import { api, type Person } from '@/lib/api-client';
 
 /** Technicians a run can be handed over to. */
 export const useTechnicians = (enabled: boolean) =>
-  useQuery({ queryKey: ['runs', 'technicians'], enabled, queryFn: () => api.get<{ technicians: Person[] }>('/api/runs/technicians') });
+  useQuery({
+    queryKey: ['runs', 'technicians'],
+    enabled,
+    queryFn: () => api.get<{ technicians: Person[] }>('/api/runs/technicians'),
+  });
 
 function useRunAction<B extends Record<string, unknown>>(runId: string, action: 'handover' | 'abandon') {
   const queryClient = useQueryClient();

@@ -5,7 +5,8 @@ import { api } from '@/lib/api-client';
 export function useSignRun(runId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: { password: string }) => api.post<{ run: RunView }>(`/api/runs/${runId}/sign`, { ...body, meaning: 'performed' }),
+    mutationFn: (body: { password: string }) =>
+      api.post<{ run: RunView }>(`/api/runs/${runId}/sign`, { ...body, meaning: 'performed' }),
     onSuccess: (data) => {
       queryClient.setQueryData(['runs', 'one', runId], data);
       return queryClient.invalidateQueries({ queryKey: ['runs', 'list'] });

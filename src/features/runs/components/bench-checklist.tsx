@@ -14,16 +14,30 @@ function effectiveState(run: RunView, pending: PendingEntry[]) {
   for (const e of run.entries) state.set(e.stepId, { done: e.done, measured: e.measured !== null });
   for (const p of pending.filter((x) => !x.refused)) {
     const cur = state.get(p.stepId) ?? { done: false, measured: false };
-    state.set(p.stepId, { done: p.body.done ?? cur.done, measured: cur.measured || p.body.value !== undefined });
+    state.set(p.stepId, {
+      done: p.body.done ?? cur.done,
+      measured: cur.measured || p.body.value !== undefined,
+    });
   }
-  const finished = (s: RunStep) => (s.kind === 'reading' ? !!state.get(s.id)?.measured : !!state.get(s.id)?.done);
+  const finished = (s: RunStep) =>
+    s.kind === 'reading' ? !!state.get(s.id)?.measured : !!state.get(s.id)?.done;
   const gate = run.steps.find((s) => s.kind === 'hazard' && !state.get(s.id)?.done);
   const locked = new Set(gate ? run.steps.filter((s) => s.position > gate.position).map((s) => s.id) : []);
   return { finished, locked, done: run.steps.filter(finished).length };
 }
 
-export function BenchChecklist({ run, pending, onSigned }: { run: RunView; pending: PendingEntry[]; onSigned: () => void }) {
-  const [mode, setModeState] = useState<Mode>(() => (localStorage.getItem(MODE_KEY) === 'one' ? 'one' : 'all'));
+export function BenchChecklist({
+  run,
+  pending,
+  onSigned,
+}: {
+  run: RunView;
+  pending: PendingEntry[];
+  onSigned: () => void;
+}) {
+  const [mode, setModeState] = useState<Mode>(() =>
+    localStorage.getItem(MODE_KEY) === 'one' ? 'one' : 'all',
+  );
   const setMode = (m: Mode) => {
     localStorage.setItem(MODE_KEY, m);
     setModeState(m);
@@ -56,20 +70,33 @@ export function BenchChecklist({ run, pending, onSigned }: { run: RunView; pendi
           <div className="h-3 min-w-32 flex-1 overflow-hidden rounded bg-paper-deep" aria-hidden>
             <div className="h-full bg-accent" style={{ width: `${total ? (done / total) * 100 : 0}%` }} />
           </div>
-          {run.progress.outOfTolerance > 0 && <span className="font-semibold text-out">{run.progress.outOfTolerance} out of tolerance</span>}
+          {run.progress.outOfTolerance > 0 && (
+            <span className="font-semibold text-out">{run.progress.outOfTolerance} out of tolerance</span>
+          )}
           {waiting > 0 && (
-            <span data-pending-count={waiting} className="rounded bg-hazard px-2 py-1 text-sm font-semibold text-hazard-ink">
+            <span
+              data-pending-count={waiting}
+              className="rounded bg-hazard px-2 py-1 text-sm font-semibold text-hazard-ink"
+            >
               {waiting} waiting to be sent
             </span>
           )}
         </div>
         <div className="flex flex-wrap items-center gap-2 text-sm">
           <span className="text-graphite-soft">
-            Mains at the bench <span className="value">{formatQuantity(run.params.mainsVoltage, 'V', 4)}</span>, <span className="value">{formatQuantity(run.params.mainsFrequency, 'Hz', 3)}</span>
+            Mains at the bench{' '}
+            <span className="value">{formatQuantity(run.params.mainsVoltage, 'V', 4)}</span>,{' '}
+            <span className="value">{formatQuantity(run.params.mainsFrequency, 'Hz', 3)}</span>
           </span>
           <div role="group" aria-label="Checklist mode" className="ml-auto flex gap-1">
             {(['one', 'all'] as const).map((m) => (
-              <button key={m} type="button" aria-pressed={mode === m} onClick={() => setMode(m)} className={`min-h-12 rounded-md border px-4 font-semibold ${mode === m ? 'border-accent-deep bg-accent text-white' : 'border-rule bg-card'}`}>
+              <button
+                key={m}
+                type="button"
+                aria-pressed={mode === m}
+                onClick={() => setMode(m)}
+                className={`min-h-12 rounded-md border px-4 font-semibold ${mode === m ? 'border-accent-deep bg-accent text-white' : 'border-rule bg-card'}`}
+              >
                 {m === 'one' ? 'One step at a time' : 'Whole list'}
               </button>
             ))}
@@ -79,10 +106,20 @@ export function BenchChecklist({ run, pending, onSigned }: { run: RunView; pendi
       {visible.map(card)}
       {mode === 'one' && (
         <div className="flex gap-3">
-          <button type="button" disabled={index === 0} onClick={() => setIndex(index - 1)} className="min-h-14 flex-1 rounded-md border border-rule bg-card text-lg font-semibold disabled:opacity-40">
+          <button
+            type="button"
+            disabled={index === 0}
+            onClick={() => setIndex(index - 1)}
+            className="min-h-14 flex-1 rounded-md border border-rule bg-card text-lg font-semibold disabled:opacity-40"
+          >
             ← Previous
           </button>
-          <button type="button" disabled={index >= total - 1} onClick={() => setIndex(index + 1)} className="min-h-14 flex-1 rounded-md border border-accent-deep bg-accent text-lg font-semibold text-white disabled:opacity-40">
+          <button
+            type="button"
+            disabled={index >= total - 1}
+            onClick={() => setIndex(index + 1)}
+            className="min-h-14 flex-1 rounded-md border border-accent-deep bg-accent text-lg font-semibold text-white disabled:opacity-40"
+          >
             Next step →
           </button>
         </div>

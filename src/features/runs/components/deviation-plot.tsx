@@ -17,21 +17,44 @@ export function DeviationPlot({ steps, entries }: { steps: RunStep[]; entries: E
   const rows = steps
     .filter((s) => s.kind === 'reading')
     .map((s) => ({ step: s, entry: byStep.get(s.id) }))
-    .filter((r) => r.entry?.measured != null && r.entry.expected != null && r.entry.low != null && r.entry.high != null);
-  if (!rows.length) return <p className="text-sm text-graphite-soft">No readings with a band recorded yet.</p>;
+    .filter(
+      (r) =>
+        r.entry?.measured != null && r.entry.expected != null && r.entry.low != null && r.entry.high != null,
+    );
+  if (!rows.length)
+    return <p className="text-sm text-graphite-soft">No readings with a band recorded yet.</p>;
   const rowH = 26;
   const labelW = 230;
   const plotW = 420;
   const width = labelW + plotW + 20;
   const height = rows.length * rowH + 40;
-  const x = (pct: number) => labelW + ((Math.max(-LIMIT, Math.min(LIMIT, pct)) + LIMIT) / (2 * LIMIT)) * plotW;
+  const x = (pct: number) =>
+    labelW + ((Math.max(-LIMIT, Math.min(LIMIT, pct)) + LIMIT) / (2 * LIMIT)) * plotW;
   return (
     <figure className="overflow-x-auto">
-      <svg role="img" aria-label="Measured against expected, as a share of each tolerance band" viewBox={`0 0 ${width} ${height}`} className="w-full max-w-3xl font-mono text-[11px]">
-        <rect x={x(-100)} y={10} width={x(100) - x(-100)} height={rows.length * rowH} className="fill-accent-wash" />
+      <svg
+        role="img"
+        aria-label="Measured against expected, as a share of each tolerance band"
+        viewBox={`0 0 ${width} ${height}`}
+        className="w-full max-w-3xl font-mono text-[11px]"
+      >
+        <rect
+          x={x(-100)}
+          y={10}
+          width={x(100) - x(-100)}
+          height={rows.length * rowH}
+          className="fill-accent-wash"
+        />
         {[-200, -100, 0, 100, 200].map((t) => (
           <g key={t}>
-            <line x1={x(t)} x2={x(t)} y1={10} y2={10 + rows.length * rowH} className={t === 0 ? 'stroke-accent' : 'stroke-rule'} strokeDasharray={t === 0 ? undefined : '3 3'} />
+            <line
+              x1={x(t)}
+              x2={x(t)}
+              y1={10}
+              y2={10 + rows.length * rowH}
+              className={t === 0 ? 'stroke-accent' : 'stroke-rule'}
+              strokeDasharray={t === 0 ? undefined : '3 3'}
+            />
             <text x={x(t)} y={rows.length * rowH + 26} textAnchor="middle" className="fill-graphite-soft">
               {t > 0 ? `+${t}` : t} %
             </text>
@@ -48,7 +71,12 @@ export function DeviationPlot({ steps, entries }: { steps: RunStep[]; entries: E
               </text>
               <circle cx={x(share)} cy={cy} r={6} className={entry!.within ? 'fill-ok' : 'fill-out'} />
               {clipped && (
-                <text x={x(share) + (share > 0 ? -10 : 10)} y={cy - 8} textAnchor="middle" className="fill-out">
+                <text
+                  x={x(share) + (share > 0 ? -10 : 10)}
+                  y={cy - 8}
+                  textAnchor="middle"
+                  className="fill-out"
+                >
                   {share > 0 ? '→' : '←'}
                 </text>
               )}
@@ -58,7 +86,9 @@ export function DeviationPlot({ steps, entries }: { steps: RunStep[]; entries: E
         })}
       </svg>
       <figcaption className="mt-1 text-xs text-graphite-soft">
-        Each reading placed within its own band: the shaded region is the tolerance band (−100 % at the low limit, +100 % at the high limit), the centre line the expected value. Points beyond ±200 % sit at the edge with an arrow.
+        Each reading placed within its own band: the shaded region is the tolerance band (−100 % at the low
+        limit, +100 % at the high limit), the centre line the expected value. Points beyond ±200 % sit at the
+        edge with an arrow.
       </figcaption>
     </figure>
   );

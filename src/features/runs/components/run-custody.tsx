@@ -11,19 +11,33 @@ export function HoldBanner({ hold }: { hold: RunHold }) {
   return (
     <div data-hold role="alert" className="rounded-md border-2 border-out bg-out-wash px-4 py-3 text-out">
       <p className="font-semibold">
-        On hold: revision {hold.revisionNumber} was withdrawn by {hold.by}, <span className="value">{utc(hold.at)}</span>.
+        On hold: revision {hold.revisionNumber} was withdrawn by {hold.by},{' '}
+        <span className="value">{utc(hold.at)}</span>.
       </p>
       <p>Reason: {hold.reason}</p>
-      <p className="text-sm">Nothing more can be recorded or signed on this run. Close it as abandoned, and start again when a new revision is approved.</p>
+      <p className="text-sm">
+        Nothing more can be recorded or signed on this run. Close it as abandoned, and start again when a new
+        revision is approved.
+      </p>
     </div>
   );
 }
 
 /** Entries someone else made on this tablet: they wait for that person, and are never sent as anyone else. */
-export function WaitingEntries({ items, steps }: { items: (PendingEntry & { waiting: string })[]; steps: RunStep[] }) {
+export function WaitingEntries({
+  items,
+  steps,
+}: {
+  items: (PendingEntry & { waiting: string })[];
+  steps: RunStep[];
+}) {
   if (!items.length) return null;
   return (
-    <div role="alert" data-waiting-count={items.length} className="rounded-md border-2 border-hazard-ink bg-hazard/30 px-4 py-3 text-sm">
+    <div
+      role="alert"
+      data-waiting-count={items.length}
+      className="rounded-md border-2 border-hazard-ink bg-hazard/30 px-4 py-3 text-sm"
+    >
       <p className="font-semibold">
         {items.length} {items.length === 1 ? 'entry is' : 'entries are'} waiting on this tablet, not sent:
       </p>
@@ -54,7 +68,9 @@ function HandoverForm({ run }: { run: RunView }) {
   return (
     <form aria-label="Hand over this run" onSubmit={submit} className="flex flex-col gap-2" noValidate>
       <h3 className="font-semibold">Hand over to another technician</h3>
-      <p className="text-sm text-graphite-soft">They record the remaining steps and sign; the run sheet names you both and who recorded what.</p>
+      <p className="text-sm text-graphite-soft">
+        They record the remaining steps and sign; the run sheet names you both and who recorded what.
+      </p>
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Technician
         <select value={to} onChange={(e) => setTo(e.target.value)} className={input}>
@@ -71,7 +87,11 @@ function HandoverForm({ run }: { run: RunView }) {
         <input value={reason} onChange={(e) => setReason(e.target.value)} maxLength={500} className={input} />
       </label>
       {handOver.error && <Notice tone="error">{handOver.error.message}</Notice>}
-      <button type="submit" disabled={!to || reason.trim().length < 3 || handOver.isPending} className={`${button} border-accent-deep bg-accent text-white`}>
+      <button
+        type="submit"
+        disabled={!to || reason.trim().length < 3 || handOver.isPending}
+        className={`${button} border-accent-deep bg-accent text-white`}
+      >
         Hand over the run
       </button>
     </form>
@@ -86,15 +106,26 @@ function AbandonForm({ run }: { run: RunView }) {
     abandon.mutate({ reason: reason.trim() });
   };
   return (
-    <form aria-label="Close this run as abandoned" onSubmit={submit} className="flex flex-col gap-2" noValidate>
+    <form
+      aria-label="Close this run as abandoned"
+      onSubmit={submit}
+      className="flex flex-col gap-2"
+      noValidate
+    >
       <h3 className="font-semibold">Close as abandoned</h3>
-      <p className="text-sm text-graphite-soft">The run is kept as it is, not signed; nothing on it can change afterwards.</p>
+      <p className="text-sm text-graphite-soft">
+        The run is kept as it is, not signed; nothing on it can change afterwards.
+      </p>
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Reason for closing
         <input value={reason} onChange={(e) => setReason(e.target.value)} maxLength={500} className={input} />
       </label>
       {abandon.error && <Notice tone="error">{abandon.error.message}</Notice>}
-      <button type="submit" disabled={reason.trim().length < 3 || abandon.isPending} className={`${button} border-out bg-card text-out`}>
+      <button
+        type="submit"
+        disabled={reason.trim().length < 3 || abandon.isPending}
+        className={`${button} border-out bg-card text-out`}
+      >
         Close as abandoned
       </button>
     </form>
@@ -104,7 +135,10 @@ function AbandonForm({ run }: { run: RunView }) {
 /** For the run's performer (or an admin): hand the run over, or close it as abandoned. */
 export function RunCustody({ run }: { run: RunView }) {
   return (
-    <section aria-label="Hand over or close" className="grid gap-6 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2">
+    <section
+      aria-label="Hand over or close"
+      className="grid gap-6 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2"
+    >
       {!run.hold && <HandoverForm run={run} />}
       <AbandonForm run={run} />
     </section>

@@ -11,7 +11,8 @@ function HandoverRow({ h }: { h: RunView['handovers'][number] }) {
     <>
       <dt className="text-graphite-soft">Handed over</dt>
       <dd data-handover>
-        <span className="value">{utc(h.at)}</span>: {h.from.displayName} handed the run over to {h.to.displayName}
+        <span className="value">{utc(h.at)}</span>: {h.from.displayName} handed the run over to{' '}
+        {h.to.displayName}
         {h.by.id !== h.from.id && ` (reassigned by ${h.by.displayName})`}. Reason: {h.reason}
       </dd>
     </>
@@ -42,14 +43,29 @@ export function RunSheet({ run }: { run: RunView }) {
           {run.status === 'signed' ? (
             <span className="rounded border border-ok px-2 py-0.5 text-sm font-semibold text-ok">Signed</span>
           ) : run.status === 'abandoned' ? (
-            <span data-run-abandoned className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">Closed as abandoned, not signed</span>
+            <span
+              data-run-abandoned
+              className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out"
+            >
+              Closed as abandoned, not signed
+            </span>
           ) : (
-            <span className="rounded border border-hazard-ink bg-hazard px-2 py-0.5 text-sm font-semibold text-hazard-ink">Not signed: bench run in progress</span>
+            <span className="rounded border border-hazard-ink bg-hazard px-2 py-0.5 text-sm font-semibold text-hazard-ink">
+              Not signed: bench run in progress
+            </span>
           )}
-          {run.hold && <span className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">On hold: revision withdrawn</span>}
+          {run.hold && (
+            <span className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">
+              On hold: revision withdrawn
+            </span>
+          )}
           {run.outOfTolerance && (
-            <span data-run-out="true" className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out">
-              ▲ {run.progress.outOfTolerance} reading{run.progress.outOfTolerance === 1 ? '' : 's'} out of tolerance
+            <span
+              data-run-out="true"
+              className="rounded border border-out bg-out-wash px-2 py-0.5 text-sm font-semibold text-out"
+            >
+              ▲ {run.progress.outOfTolerance} reading{run.progress.outOfTolerance === 1 ? '' : 's'} out of
+              tolerance
             </span>
           )}
         </div>
@@ -113,7 +129,8 @@ export function RunSheet({ run }: { run: RunView }) {
               <>
                 <dt className="text-graphite-soft">Closed</dt>
                 <dd>
-                  <span className="value">{utc(run.closed.at)}</span> by {run.closed.by.displayName}, as abandoned: {run.closed.reason}
+                  <span className="value">{utc(run.closed.at)}</span> by {run.closed.by.displayName}, as
+                  abandoned: {run.closed.reason}
                 </dd>
               </>
             )}
@@ -121,7 +138,8 @@ export function RunSheet({ run }: { run: RunView }) {
               <>
                 <dt className="text-graphite-soft">On hold</dt>
                 <dd className="text-out">
-                  revision {run.hold.revisionNumber} withdrawn by {run.hold.by}, <span className="value">{utc(run.hold.at)}</span>: {run.hold.reason}
+                  revision {run.hold.revisionNumber} withdrawn by {run.hold.by},{' '}
+                  <span className="value">{utc(run.hold.at)}</span>: {run.hold.reason}
                 </dd>
               </>
             )}
@@ -148,7 +166,11 @@ export function RunSheet({ run }: { run: RunView }) {
                 const e = entries.get(s.id);
                 const r = s.reading!;
                 return (
-                  <tr key={s.id} data-reading-row={s.id} className={`border-b border-rule last:border-0 print:break-inside-avoid ${e?.within === false ? 'bg-out-wash' : ''}`}>
+                  <tr
+                    key={s.id}
+                    data-reading-row={s.id}
+                    className={`border-b border-rule last:border-0 print:break-inside-avoid ${e?.within === false ? 'bg-out-wash' : ''}`}
+                  >
                     <td className="px-3 py-2">
                       <span className="value text-graphite-soft">{s.position}.</span> {s.text}
                       <span className="block text-xs text-graphite-soft">{r.testPoint}</span>
@@ -162,10 +184,20 @@ export function RunSheet({ run }: { run: RunView }) {
                       {e?.raw && <span className="block text-xs text-graphite-soft">as typed: {e.raw}</span>}
                     </td>
                     <td className="value px-3 py-2">
-                      {e?.deviation != null ? `${e.deviation >= 0 ? '+' : ''}${formatQuantity(e.deviation, r.unit, 3)}` : '—'}
-                      {e?.deviationPercent != null && <span className="block">{`${e.deviationPercent >= 0 ? '+' : ''}${formatNumber(e.deviationPercent, 2)} %`}</span>}
+                      {e?.deviation != null
+                        ? `${e.deviation >= 0 ? '+' : ''}${formatQuantity(e.deviation, r.unit, 3)}`
+                        : '—'}
+                      {e?.deviationPercent != null && (
+                        <span className="block">{`${e.deviationPercent >= 0 ? '+' : ''}${formatNumber(e.deviationPercent, 2)} %`}</span>
+                      )}
                     </td>
-                    <td className="px-3 py-2">{e?.measured != null ? <Mark within={e.within} /> : <span className="text-graphite-soft">not recorded</span>}</td>
+                    <td className="px-3 py-2">
+                      {e?.measured != null ? (
+                        <Mark within={e.within} />
+                      ) : (
+                        <span className="text-graphite-soft">not recorded</span>
+                      )}
+                    </td>
                     <td className="px-3 py-2" data-recorded-by>
                       {e ? (
                         <>
@@ -198,12 +230,14 @@ export function RunSheet({ run }: { run: RunView }) {
               <li key={s.id} className="flex gap-2 print:break-inside-avoid">
                 <span className={`value ${e?.done ? 'text-ok' : 'text-out'}`}>{e?.done ? '✓' : '✗'}</span>
                 <span>
-                  <span className="value text-graphite-soft">{s.position}.</span> {s.kind === 'hazard' && <strong>Hazard note: </strong>}
+                  <span className="value text-graphite-soft">{s.position}.</span>{' '}
+                  {s.kind === 'hazard' && <strong>Hazard note: </strong>}
                   {s.text}
                   {e?.done && (
                     <span className="text-graphite-soft">
                       {' '}
-                      — {s.kind === 'hazard' ? 'acknowledged' : 'done'} by {e.enteredBy.displayName}, <span className="value">{utc(e.enteredAt)}</span>
+                      — {s.kind === 'hazard' ? 'acknowledged' : 'done'} by {e.enteredBy.displayName},{' '}
+                      <span className="value">{utc(e.enteredAt)}</span>
                     </span>
                   )}
                   {e?.note && <span className="block italic">Note: {e.note}</span>}
@@ -224,7 +258,8 @@ export function RunSheet({ run }: { run: RunView }) {
                 <ol className="ml-5 list-decimal">
                   {e.history.map((h) => (
                     <li key={h.version}>
-                      <span className="value">{h.raw ?? (h.done ? 'ticked' : 'un-ticked')}</span> by {h.enteredBy.displayName}, <span className="value">{utc(h.enteredAt)}</span>
+                      <span className="value">{h.raw ?? (h.done ? 'ticked' : 'un-ticked')}</span> by{' '}
+                      {h.enteredBy.displayName}, <span className="value">{utc(h.enteredAt)}</span>
                       {h.reason && <> — why: {h.reason}</>}
                     </li>
                   ))}
@@ -241,9 +276,14 @@ export function RunSheet({ run }: { run: RunView }) {
           <div className="flex flex-wrap gap-3">
             {run.photos.map((p) => (
               <figure key={p.id} className="w-40 print:break-inside-avoid">
-                <img src={p.url} alt={`Bench photo${p.stepId ? ` for step ${run.steps.find((s) => s.id === p.stepId)?.position}` : ''}`} className="h-32 w-40 rounded border border-rule object-cover" />
+                <img
+                  src={p.url}
+                  alt={`Bench photo${p.stepId ? ` for step ${run.steps.find((s) => s.id === p.stepId)?.position}` : ''}`}
+                  className="h-32 w-40 rounded border border-rule object-cover"
+                />
                 <figcaption className="text-xs text-graphite-soft">
-                  {p.stepId ? `Step ${run.steps.find((s) => s.id === p.stepId)?.position}` : 'Run'} · {p.addedBy.displayName}
+                  {p.stepId ? `Step ${run.steps.find((s) => s.id === p.stepId)?.position}` : 'Run'} ·{' '}
+                  {p.addedBy.displayName}
                 </figcaption>
               </figure>
             ))}
@@ -267,7 +307,9 @@ export function RunSheet({ run }: { run: RunView }) {
             <dd className="value break-all text-xs">{run.signature.contentHash}</dd>
             <dt className="text-graphite-soft">Check</dt>
             <dd className={run.signature.verified ? 'text-ok' : 'font-semibold text-out'}>
-              {run.signature.verified ? 'The stored run content matches the signed hash.' : 'The stored run content does NOT match the signed hash.'}
+              {run.signature.verified
+                ? 'The stored run content matches the signed hash.'
+                : 'The stored run content does NOT match the signed hash.'}
             </dd>
           </dl>
         ) : (

@@ -63,14 +63,15 @@ export function StartRunForm({
       approved: { id: r.id, number: r.number },
       updatedAt: r.updatedAt,
     });
-  }, [opened.data]);
+  }, [opened.data, procedureId]);
   const [unitId, setUnitId] = useState(initialUnitId ?? '');
   const [mains, setMains] = useState('');
   const [frequency, setFrequency] = useState('');
   const [key] = useState(() => crypto.randomUUID());
   const listed = procedures.data?.procedures ?? [];
   // The freshest copy when listed (a re-approval moves its revision), else the one chosen.
-  const procedure = listed.find((p) => p.id === procedureId) ?? (chosen?.id === procedureId ? chosen : undefined);
+  const procedure =
+    listed.find((p) => p.id === procedureId) ?? (chosen?.id === procedureId ? chosen : undefined);
   const options = procedure && !listed.some((p) => p.id === procedure.id) ? [procedure, ...listed] : listed;
   const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
@@ -82,25 +83,44 @@ export function StartRunForm({
   const submit = (e: FormEvent) => {
     e.preventDefault();
     setTouched(true);
-    if (!procedure?.approved || !unitId || mainsRead.value === undefined || freqRead.value === undefined) return;
+    if (!procedure?.approved || !unitId || mainsRead.value === undefined || freqRead.value === undefined)
+      return;
     start.mutate(
-      { revisionId: procedure.approved.id, unitId, mainsVoltage: mainsRead.value, mainsFrequency: freqRead.value, key },
+      {
+        revisionId: procedure.approved.id,
+        unitId,
+        mainsVoltage: mainsRead.value,
+        mainsFrequency: freqRead.value,
+        key,
+      },
       { onSuccess: (data) => navigate(runPath(data.run.id)) },
     );
   };
 
   return (
-    <form onSubmit={submit} className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5" noValidate>
+    <form
+      onSubmit={submit}
+      className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5"
+      noValidate
+    >
       {start.error && <Notice tone="error">{start.error.message}</Notice>}
       {opened.data && opened.data.revision.state !== 'approved' && (
         <Notice>
-          Revision {opened.data.revision.number} of “{opened.data.revision.title}” is {opened.data.revision.state.replace('_', ' ')}, not approved: choose the approved procedure below.
+          Revision {opened.data.revision.number} of “{opened.data.revision.title}” is{' '}
+          {opened.data.revision.state.replace('_', ' ')}, not approved: choose the approved procedure below.
         </Notice>
       )}
       {many && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Find an approved procedure by title
-          <input type="search" placeholder="Words in the title…" className={`${select} font-normal`} value={find} onChange={(e) => setFind(e.target.value)} maxLength={160} />
+          <input
+            type="search"
+            placeholder="Words in the title…"
+            className={`${select} font-normal`}
+            value={find}
+            onChange={(e) => setFind(e.target.value)}
+            maxLength={160}
+          />
         </label>
       )}
       <label className="flex flex-col gap-1 text-sm font-semibold">
@@ -123,15 +143,25 @@ export function StartRunForm({
         </select>
         {procedures.data && procedures.data.total > procedures.data.procedures.length && (
           <span className="font-normal text-graphite-soft">
-            Showing the first {procedures.data.procedures.length} of {procedures.data.total} approved procedures{q ? ` whose title contains “${q}”` : ''}, by title; type more of the title to narrow.
+            Showing the first {procedures.data.procedures.length} of {procedures.data.total} approved
+            procedures{q ? ` whose title contains “${q}”` : ''}, by title; type more of the title to narrow.
           </span>
         )}
-        {q && procedures.data?.total === 0 && <span className="font-normal text-graphite-soft">No approved procedure’s title contains “{q}”.</span>}
+        {q && procedures.data?.total === 0 && (
+          <span className="font-normal text-graphite-soft">
+            No approved procedure’s title contains “{q}”.
+          </span>
+        )}
         {touched && !procedure && <span className="text-out">choose a procedure</span>}
       </label>
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Unit on the bench
-        <select aria-label="Unit on the bench" className={select} value={unitId} onChange={(e) => setUnitId(e.target.value)}>
+        <select
+          aria-label="Unit on the bench"
+          className={select}
+          value={unitId}
+          onChange={(e) => setUnitId(e.target.value)}
+        >
           <option value="">Choose…</option>
           {units.map((u) => (
             <option key={u.id} value={u.id}>
@@ -154,8 +184,12 @@ export function StartRunForm({
             placeholder={params.data ? `nominal ${params.data.mainsNominal} V` : 'e.g. 236 V'}
             autoComplete="off"
           />
-          <span className="font-normal text-graphite-soft">Measure it at the bench outlet: every expected value is worked out again at this mains.</span>
-          {(touched || mains) && (mainsRead.error || serverError('mainsVoltage')) && <span className="text-out">{serverError('mainsVoltage') ?? mainsRead.error}</span>}
+          <span className="font-normal text-graphite-soft">
+            Measure it at the bench outlet: every expected value is worked out again at this mains.
+          </span>
+          {(touched || mains) && (mainsRead.error || serverError('mainsVoltage')) && (
+            <span className="text-out">{serverError('mainsVoltage') ?? mainsRead.error}</span>
+          )}
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Mains frequency (Hz)
@@ -167,10 +201,16 @@ export function StartRunForm({
             placeholder={params.data ? String(params.data.mainsFrequency) : '50'}
             autoComplete="off"
           />
-          {(touched || frequency) && (freqRead.error || serverError('mainsFrequency')) && <span className="text-out">{serverError('mainsFrequency') ?? freqRead.error}</span>}
+          {(touched || frequency) && (freqRead.error || serverError('mainsFrequency')) && (
+            <span className="text-out">{serverError('mainsFrequency') ?? freqRead.error}</span>
+          )}
         </label>
       </div>
-      <button type="submit" disabled={start.isPending} className="min-h-12 self-start rounded-md border border-accent-deep bg-accent px-5 text-base font-semibold text-white disabled:opacity-50">
+      <button
+        type="submit"
+        disabled={start.isPending}
+        className="min-h-12 self-start rounded-md border border-accent-deep bg-accent px-5 text-base font-semibold text-white disabled:opacity-50"
+      >
         {start.isPending ? 'Starting…' : 'Start the bench run'}
       </button>
     </form>

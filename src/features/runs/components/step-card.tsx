@@ -37,7 +37,11 @@ function Status({ entry, pending }: { entry: EntryView | undefined; pending: Pen
       {refused.map((p) => (
         <p key={p.body.key} role="alert" className="flex flex-wrap items-center gap-2 text-out">
           Not recorded: {p.refused}
-          <button type="button" className="min-h-10 rounded border border-out px-2" onClick={() => dismissRefused(p.body.key)}>
+          <button
+            type="button"
+            className="min-h-10 rounded border border-out px-2"
+            onClick={() => dismissRefused(p.body.key)}
+          >
             Dismiss
           </button>
         </p>
@@ -60,12 +64,17 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
   const live = liveCheck(step, text);
   const last = [...pending].reverse().find((p) => !p.refused && p.body.value !== undefined);
   const recorded = entry?.measured ?? null;
-  const changing = recorded !== null && (live.state === 'checked' || live.state === 'no-band') && live.measured !== recorded;
+  const changing =
+    recorded !== null && (live.state === 'checked' || live.state === 'no-band') && live.measured !== recorded;
   const submit = (e: FormEvent) => {
     e.preventDefault();
     if (live.state === 'empty' || live.state === 'error') return;
     if (changing && !reason.trim()) return;
-    queueEntry(runId, step.id, { value: text.trim(), ...(note.trim() ? { note: note.trim() } : {}), ...(changing ? { reason: reason.trim() } : {}) });
+    queueEntry(runId, step.id, {
+      value: text.trim(),
+      ...(note.trim() ? { note: note.trim() } : {}),
+      ...(changing ? { reason: reason.trim() } : {}),
+    });
     setText('');
     setNote('');
     setReason('');
@@ -86,7 +95,10 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
           <dd data-band={r.low !== null ? `${r.low}:${r.high}` : ''}>
             {r.expected !== null ? (
               <>
-                <span className="value font-semibold">{formatQuantity(r.expected, r.unit, 4)}</span> <span className="value text-graphite-soft">({r.bandText}, {r.toleranceText})</span>
+                <span className="value font-semibold">{formatQuantity(r.expected, r.unit, 4)}</span>{' '}
+                <span className="value text-graphite-soft">
+                  ({r.bandText}, {r.toleranceText})
+                </span>
               </>
             ) : (
               <span className="text-out">{r.error ?? 'no expected value'}</span>
@@ -100,10 +112,13 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
           {last ? (
             <>
               <span className="value text-lg">{String(last.body.value)}</span>
-              <Mark within={(() => {
-                const c = liveCheck(step, String(last.body.value));
-                return c.state === 'checked' ? c.within : null;
-              })()} pending />
+              <Mark
+                within={(() => {
+                  const c = liveCheck(step, String(last.body.value));
+                  return c.state === 'checked' ? c.within : null;
+                })()}
+                pending
+              />
             </>
           ) : (
             <>
@@ -113,7 +128,8 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
                 <span className="value text-sm text-graphite-soft">
                   {entry!.deviation >= 0 ? '+' : ''}
                   {formatQuantity(entry!.deviation, r.unit, 3)}
-                  {entry!.deviationPercent !== null && ` (${entry!.deviationPercent >= 0 ? '+' : ''}${formatNumber(entry!.deviationPercent, 2)} %)`}
+                  {entry!.deviationPercent !== null &&
+                    ` (${entry!.deviationPercent >= 0 ? '+' : ''}${formatNumber(entry!.deviationPercent, 2)} %)`}
                 </span>
               )}
             </>
@@ -141,7 +157,8 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
               <span className="value text-sm">
                 {live.deviation >= 0 ? '+' : ''}
                 {formatQuantity(live.deviation, r.unit, 3)}
-                {live.deviationPercent !== null && ` (${live.deviationPercent >= 0 ? '+' : ''}${formatNumber(live.deviationPercent, 2)} %)`}
+                {live.deviationPercent !== null &&
+                  ` (${live.deviationPercent >= 0 ? '+' : ''}${formatNumber(live.deviationPercent, 2)} %)`}
               </span>
             </span>
           )}
@@ -152,14 +169,27 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
       {changing && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Why is the recorded reading being changed? (kept with the original)
-          <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+          <input
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
+          />
         </label>
       )}
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Note (optional)
-        <input value={note} onChange={(e) => setNote(e.target.value)} placeholder={entry?.note || ''} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+        <input
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          placeholder={entry?.note || ''}
+          className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
+        />
       </label>
-      <button type="submit" disabled={live.state === 'empty' || live.state === 'error' || (changing && !reason.trim())} className={`${big} self-start border-accent-deep bg-accent text-white disabled:opacity-50`}>
+      <button
+        type="submit"
+        disabled={live.state === 'empty' || live.state === 'error' || (changing && !reason.trim())}
+        className={`${big} self-start border-accent-deep bg-accent text-white disabled:opacity-50`}
+      >
         {recorded !== null ? 'Record correction' : 'Record reading'}
       </button>
     </form>
@@ -178,23 +208,38 @@ function TickStep({ runId, step, entry, pending }: Props) {
     if (done && !unticking) return setUnticking(true);
     if (done && !reason.trim()) return;
     setUnticking(false);
-    queueEntry(runId, step.id, { done: !done, ...(note.trim() ? { note: note.trim() } : {}), ...(done ? { reason: reason.trim() } : {}) });
+    queueEntry(runId, step.id, {
+      done: !done,
+      ...(note.trim() ? { note: note.trim() } : {}),
+      ...(done ? { reason: reason.trim() } : {}),
+    });
     setNote('');
     setReason('');
   };
   return (
     <div className="flex flex-col gap-3">
-      <p className={hazard ? 'whitespace-pre-line text-base font-semibold text-hazard-ink' : 'text-base'}>{step.text}</p>
+      <p className={hazard ? 'whitespace-pre-line text-base font-semibold text-hazard-ink' : 'text-base'}>
+        {step.text}
+      </p>
       {!hazard && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Note (optional)
-          <input value={note} onChange={(e) => setNote(e.target.value)} placeholder={entry?.note || ''} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+          <input
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            placeholder={entry?.note || ''}
+            className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
+          />
         </label>
       )}
       {done && !hazard && unticking && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Reason, if you are un-ticking it
-          <input value={reason} onChange={(e) => setReason(e.target.value)} className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal" />
+          <input
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
+          />
         </label>
       )}
       <button
@@ -204,7 +249,15 @@ function TickStep({ runId, step, entry, pending }: Props) {
         disabled={(hazard && done) || (!hazard && done && unticking && !reason.trim())}
         className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-hazard-ink bg-hazard text-hazard-ink' : 'border-accent-deep bg-card text-accent-deep'} disabled:opacity-90`}
       >
-        {hazard ? (done ? '✓ Hazard note acknowledged' : 'I have read this hazard note') : done ? (unticking ? 'Un-tick with this reason' : '✓ Done (tap to un-tick)') : 'Mark as done'}
+        {hazard
+          ? done
+            ? '✓ Hazard note acknowledged'
+            : 'I have read this hazard note'
+          : done
+            ? unticking
+              ? 'Un-tick with this reason'
+              : '✓ Done (tap to un-tick)'
+            : 'Mark as done'}
       </button>
     </div>
   );
@@ -249,7 +302,11 @@ export function StepCard(props: Props) {
           {step.text}
         </h3>
       )}
-      {step.kind !== 'reading' && <h3 id={`step-${step.id}-title`} className="sr-only">{kindLabel}</h3>}
+      {step.kind !== 'reading' && (
+        <h3 id={`step-${step.id}-title`} className="sr-only">
+          {kindLabel}
+        </h3>
+      )}
       {locked ? (
         <>
           {step.kind !== 'reading' && <p>{step.text}</p>}

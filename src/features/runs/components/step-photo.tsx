@@ -4,22 +4,40 @@ import type { RunPhotoView } from '@shared/schemas/runs';
 import { uploadPhoto } from '../api/upload-photo';
 
 /** A photo for one step, taken with the tablet's camera where it has one. */
-export function StepPhoto({ runId, stepId, photos, disabled }: { runId: string; stepId: string; photos: RunPhotoView[]; disabled?: boolean }) {
+export function StepPhoto({
+  runId,
+  stepId,
+  photos,
+  disabled,
+}: {
+  runId: string;
+  stepId: string;
+  photos: RunPhotoView[];
+  disabled?: boolean;
+}) {
   const id = useId();
   const queryClient = useQueryClient();
   const upload = useMutation({
-    mutationFn: (file: File) => uploadPhoto<{ photo: RunPhotoView }>(`/api/runs/${runId}/photos`, file, { stepId }),
+    mutationFn: (file: File) =>
+      uploadPhoto<{ photo: RunPhotoView }>(`/api/runs/${runId}/photos`, file, { stepId }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['runs', 'one', runId] }),
   });
   return (
     <div className="flex flex-wrap items-center gap-3">
       {photos.map((p) => (
         <a key={p.id} href={p.url} target="_blank" rel="noreferrer" className="block">
-          <img src={p.url} alt={`Photo for this step by ${p.addedBy.displayName}`} className="size-16 rounded border border-rule object-cover" />
+          <img
+            src={p.url}
+            alt={`Photo for this step by ${p.addedBy.displayName}`}
+            className="size-16 rounded border border-rule object-cover"
+          />
         </a>
       ))}
       {!disabled && (
-        <label htmlFor={id} className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep">
+        <label
+          htmlFor={id}
+          className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep"
+        >
           {upload.isPending ? 'Sending photo…' : 'Add photo'}
           <input
             id={id}

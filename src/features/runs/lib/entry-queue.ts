@@ -72,7 +72,11 @@ export const setSessionCheck = (fn: typeof checkSession) => {
 
 /** The server could not be reached, the session ended or asked us to wait: keep the entry and try later. */
 const worthRetrying = (err: unknown) =>
-  err instanceof ApiError && (err.status === 0 || err.status >= 500 || [401, 408, 429].includes(err.status) || (err.status === 403 && err.body.code === 'csrf'));
+  err instanceof ApiError &&
+  (err.status === 0 ||
+    err.status >= 500 ||
+    [401, 408, 429].includes(err.status) ||
+    (err.status === 403 && err.body.code === 'csrf'));
 
 let running = false;
 let again = false;
@@ -90,18 +94,32 @@ export async function flushPending(): Promise<void> {
       for (const item of cache.filter(mine)) {
         const maker = { id: item.userId, displayName: item.userName ?? 'another person' };
         try {
-          const res = await api.put<{ run: RunView }>(`/api/runs/${item.runId}/entries/${item.stepId}`, item.body, { madeBy: maker });
+          const res = await api.put<{ run: RunView }>(
+            `/api/runs/${item.runId}/entries/${item.stepId}`,
+            item.body,
+            { madeBy: maker },
+          );
           save(cache.filter((p) => p.body.key !== item.body.key));
           onStored?.(item.runId, res.run);
         } catch (err) {
           if (err instanceof ApiError && err.body.code === 'session-changed') {
             const now = (err.body.signedInAs as Person).displayName;
-            save(cache.map((p) => (p.body.key === item.body.key ? { ...p, waiting: waitingMessage(now, maker.displayName) } : p)));
+            save(
+              cache.map((p) =>
+                p.body.key === item.body.key ? { ...p, waiting: waitingMessage(now, maker.displayName) } : p,
+              ),
+            );
             checkSession?.();
             return;
           }
           if (worthRetrying(err)) return;
-          save(cache.map((p) => (p.body.key === item.body.key ? { ...p, refused: err instanceof Error ? err.message : String(err) } : p)));
+          save(
+            cache.map((p) =>
+              p.body.key === item.body.key
+                ? { ...p, refused: err instanceof Error ? err.message : String(err) }
+                : p,
+            ),
+          );
         }
       }
     } while (again);

@@ -1,7 +1,16 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
 import { useSession } from '@/features/auth/api/get-session';
-import { flushPending, pendingSnapshot, setQueueUser, setSessionCheck, setStoredHandler, subscribePending, waitingMessage, type PendingEntry } from './entry-queue';
+import {
+  flushPending,
+  pendingSnapshot,
+  setQueueUser,
+  setSessionCheck,
+  setStoredHandler,
+  subscribePending,
+  waitingMessage,
+  type PendingEntry,
+} from './entry-queue';
 
 /**
  * This run's unacknowledged entries: `mine` (sent from this session) and `others` (made by someone
@@ -23,7 +32,10 @@ export function usePendingEntries(runId: string) {
     const here = all.filter((p) => p.runId === runId);
     const others: (PendingEntry & { waiting: string })[] = here
       .filter((p) => p.userId !== user?.id && !p.refused)
-      .map((p) => ({ ...p, waiting: waitingMessage(user?.displayName ?? 'nobody', p.userName ?? 'another person') }));
+      .map((p) => ({
+        ...p,
+        waiting: waitingMessage(user?.displayName ?? 'nobody', p.userName ?? 'another person'),
+      }));
     return { mine: here.filter((p) => p.userId === user?.id), others };
   }, [all, runId, user?.id, user?.displayName]);
 }

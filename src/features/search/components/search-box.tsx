@@ -91,10 +91,17 @@ export function SearchBox() {
           {search.data && hits.length === 0 && (
             <p className="p-3 text-sm text-graphite-soft">
               Nothing approved matches “{q}”.
-              {search.data.suggestions.length > 0 && <> Try: {search.data.suggestions.slice(0, 3).join(', ')}.</>}
+              {search.data.suggestions.length > 0 && (
+                <> Try: {search.data.suggestions.slice(0, 3).join(', ')}.</>
+              )}
             </p>
           )}
-          <ul id={listId} role="listbox" aria-label="Search results" className={search.isFetching ? 'opacity-70' : ''}>
+          <ul
+            id={listId}
+            role="listbox"
+            aria-label="Search results"
+            className={search.isFetching ? 'opacity-70' : ''}
+          >
             {hits.map((h, i) => (
               <li
                 key={h.procedureId}
@@ -116,7 +123,12 @@ export function SearchBox() {
             ))}
           </ul>
           {search.data && search.data.total > hits.length && (
-            <button type="button" className="w-full px-3 py-2 text-left text-sm font-semibold text-accent underline" onMouseDown={(e) => e.preventDefault()} onClick={() => go(paths.search.href(q))}>
+            <button
+              type="button"
+              className="w-full px-3 py-2 text-left text-sm font-semibold text-accent underline"
+              onMouseDown={(e) => e.preventDefault()}
+              onClick={() => go(paths.search.href(q))}
+            >
               All {search.data.total} results
             </button>
           )}

@@ -8,6 +8,7 @@ export interface UnitPage {
   runs: UnitRunSummary[];
 }
 
-export const unitQueryOptions = (id: string) => queryOptions({ queryKey: ['units', 'one', id], queryFn: () => api.get<UnitPage>(`/api/units/${id}`) });
+export const unitQueryOptions = (id: string) =>
+  queryOptions({ queryKey: ['units', 'one', id], queryFn: () => api.get<UnitPage>(`/api/units/${id}`) });
 
 export const useUnit = (id: string) => useQuery(unitQueryOptions(id));

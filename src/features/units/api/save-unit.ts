@@ -7,7 +7,9 @@ export function useSaveUnit() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ id, lockVersion, ...body }: UnitBody & { id?: string; lockVersion?: number }) =>
-      id ? api.put<{ unit: UnitView }>(`/api/units/${id}`, { ...body, lockVersion }) : api.post<{ unit: UnitView }>('/api/units', body),
+      id
+        ? api.put<{ unit: UnitView }>(`/api/units/${id}`, { ...body, lockVersion })
+        : api.post<{ unit: UnitView }>('/api/units', body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: ['units'] }),
   });
 }

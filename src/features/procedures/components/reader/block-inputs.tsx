@@ -7,9 +7,15 @@ export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string
     <table aria-label={`Inputs of ${name}`} className="w-full text-left text-sm">
       <thead className="border-b border-rule text-xs text-graphite-soft">
         <tr>
-          <th scope="col" className="w-1/2 py-1 pr-3 font-normal">Input</th>
-          <th scope="col" className="py-1 pr-3 font-normal">Value</th>
-          <th scope="col" className="py-1 font-normal">From</th>
+          <th scope="col" className="w-1/2 py-1 pr-3 font-normal">
+            Input
+          </th>
+          <th scope="col" className="py-1 pr-3 font-normal">
+            Value
+          </th>
+          <th scope="col" className="py-1 font-normal">
+            From
+          </th>
         </tr>
       </thead>
       <tbody>

@@ -44,7 +44,11 @@ function renderChildren(nodes: DocNode[] | undefined, stored: Stored): ReactNode
           <ReadingsTable
             key={i}
             readings={run.map((n) => snapshot.readings.find((r) => r.id === n.attrs?.id)).filter((r) => !!r)}
-            live={new Set(run.filter((n) => isLiveReading(n.attrs as ReadingAttrs)).map((n) => String(n.attrs?.id)))}
+            live={
+              new Set(
+                run.filter((n) => isLiveReading(n.attrs as ReadingAttrs)).map((n) => String(n.attrs?.id)),
+              )
+            }
           />
         ) : (
           <Checklist key={i} steps={run.map((n) => n.attrs as CheckStepAttrs)} />
@@ -66,7 +70,9 @@ function Checklist({ steps }: { steps: CheckStepAttrs[] }) {
           <label className="flex min-h-11 items-start gap-3 rounded border border-rule bg-card px-3 py-2">
             <input type="checkbox" className="mt-1 size-5 shrink-0" />
             <span>
-              {(checkKindOf(s) !== 'confirm' || s.live) && <strong className="block text-sm">{checkStepHeading(s)}</strong>}
+              {(checkKindOf(s) !== 'confirm' || s.live) && (
+                <strong className="block text-sm">{checkStepHeading(s)}</strong>
+              )}
               {s.text}
             </span>
           </label>
@@ -120,7 +126,9 @@ function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
         <HazardBox
           key={key}
           level={a.level === 'warning' ? 'warning' : 'danger'}
-          flags={HAZARD_FLAGS.filter((f) => (a as HazardNoteAttrs).flags?.[f]).map((f) => HAZARD_FLAG_LABELS[f])}
+          flags={HAZARD_FLAGS.filter((f) => (a as HazardNoteAttrs).flags?.[f]).map(
+            (f) => HAZARD_FLAG_LABELS[f],
+          )}
         >
           {kids()}
         </HazardBox>
@@ -129,7 +137,11 @@ function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
       const img = a as unknown as ImageAttrs;
       return (
         <figure key={key}>
-          <img src={attachmentUrl(img.attachmentId)} alt={img.alt} className="max-w-full rounded border border-rule" />
+          <img
+            src={attachmentUrl(img.attachmentId)}
+            alt={img.alt}
+            className="max-w-full rounded border border-rule"
+          />
           {img.caption && <figcaption>{img.caption}</figcaption>}
         </figure>
       );
@@ -138,7 +150,10 @@ function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
       const f = a as unknown as FileAttrs;
       return (
         <p key={key}>
-          <a href={attachmentUrl(f.attachmentId)}>{f.fileName}</a> <span className="text-sm text-graphite-soft">({f.mediaType === 'application/pdf' ? 'PDF' : 'image'})</span>
+          <a href={attachmentUrl(f.attachmentId)}>{f.fileName}</a>{' '}
+          <span className="text-sm text-graphite-soft">
+            ({f.mediaType === 'application/pdf' ? 'PDF' : 'image'})
+          </span>
         </p>
       );
     }
@@ -148,7 +163,19 @@ function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
 }
 
 /** A stored revision's document as plain React: no editor code is loaded to read a procedure. */
-export function DocumentView({ doc, snapshot, reckoners }: { doc: ProcedureDoc; snapshot: Snapshot; reckoners: BlockView[] }) {
+export function DocumentView({
+  doc,
+  snapshot,
+  reckoners,
+}: {
+  doc: ProcedureDoc;
+  snapshot: Snapshot;
+  reckoners: BlockView[];
+}) {
   const stored = { snapshot, reckoners: new Map(reckoners.map((b) => [b.id, b])) };
-  return <div className="procedure-text prose prose-stone max-w-none font-serif">{renderChildren(doc.content, stored)}</div>;
+  return (
+    <div className="procedure-text prose prose-stone max-w-none font-serif">
+      {renderChildren(doc.content, stored)}
+    </div>
+  );
 }

@@ -5,7 +5,15 @@ import { MEASURE_WORDS } from '@shared/reckoners/measures';
  * A number with its unit in the monospace value face, and its measure (rms, peak, DC) beside it.
  * A figure stays on one line; a sentence (a long text result) wraps like text.
  */
-export function Figure({ formatted, measure, strong }: { formatted: string; measure: Measure | null; strong?: boolean }) {
+export function Figure({
+  formatted,
+  measure,
+  strong,
+}: {
+  formatted: string;
+  measure: Measure | null;
+  strong?: boolean;
+}) {
   const word = measure ? MEASURE_WORDS[measure] : '';
   const sentence = formatted.length > 24 && /\s\S+\s/.test(formatted);
   return (

@@ -1,18 +1,34 @@
 import type { ResolvedReading } from '@shared/document/evaluate';
 
 /** Consecutive readings as one table: what, where, meter range, expected band; live ones say so. */
-export function ReadingsTable({ readings, live = new Set() }: { readings: ResolvedReading[]; live?: ReadonlySet<string> }) {
+export function ReadingsTable({
+  readings,
+  live = new Set(),
+}: {
+  readings: ResolvedReading[];
+  live?: ReadonlySet<string>;
+}) {
   return (
     <div className="not-prose my-4 overflow-x-auto rounded-lg border border-rule bg-card">
       <table className="readings-table w-full text-left text-sm">
         <caption className="sr-only">Readings to take</caption>
         <thead className="border-b border-rule bg-paper-deep">
           <tr>
-            <th scope="col" className="px-3 py-2">Measure</th>
-            <th scope="col" className="px-3 py-2">Where</th>
-            <th scope="col" className="px-3 py-2">Meter range</th>
-            <th scope="col" className="px-3 py-2">Expected</th>
-            <th scope="col" className="px-3 py-2">Band</th>
+            <th scope="col" className="px-3 py-2">
+              Measure
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Where
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Meter range
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Expected
+            </th>
+            <th scope="col" className="px-3 py-2">
+              Band
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -20,16 +36,26 @@ export function ReadingsTable({ readings, live = new Set() }: { readings: Resolv
             <tr key={r.id} data-reading={r.id} className="border-b border-rule align-top last:border-0">
               <td className="px-3 py-2 font-semibold">
                 {r.label || 'Untitled reading'}
-                {live.has(r.id) && <span className="block text-xs font-normal text-graphite-soft">Live work: unit powered</span>}
+                {live.has(r.id) && (
+                  <span className="block text-xs font-normal text-graphite-soft">
+                    Live work: unit powered
+                  </span>
+                )}
               </td>
               <td className="px-3 py-2">{r.testPoint}</td>
               <td className="value px-3 py-2">{r.meterRange}</td>
               <td className="px-3 py-2">
                 <span className="value">{r.expectedSource}</span>
-                <span className="block text-xs text-graphite-soft">tolerance <span className="value">{r.toleranceText || 'none'}</span></span>
+                <span className="block text-xs text-graphite-soft">
+                  tolerance <span className="value">{r.toleranceText || 'none'}</span>
+                </span>
               </td>
               <td className="px-3 py-2">
-                {r.bandText ? <span className="value font-semibold">{r.bandText}</span> : <span className="text-out">No band: {r.error}</span>}
+                {r.bandText ? (
+                  <span className="value font-semibold">{r.bandText}</span>
+                ) : (
+                  <span className="text-out">No band: {r.error}</span>
+                )}
               </td>
             </tr>
           ))}

@@ -28,7 +28,15 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
               <>
                 <dl className="mt-1 grid gap-x-6 gap-y-2 sm:grid-cols-2 md:grid-cols-3">
                   {view.outputs.map((out) => (
-                    <div key={out.key} data-output={out.key} className={typeof out.value === 'string' && out.formatted.length > 24 ? 'col-span-full' : undefined}>
+                    <div
+                      key={out.key}
+                      data-output={out.key}
+                      className={
+                        typeof out.value === 'string' && out.formatted.length > 24
+                          ? 'col-span-full'
+                          : undefined
+                      }
+                    >
                       <dt className="text-xs text-graphite-soft">{out.label}</dt>
                       <dd className="text-base">
                         <Figure formatted={out.formatted} measure={out.measure} strong />
