@@ -1,5 +1,5 @@
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll } from 'vitest';
+import { afterAll, afterEach, beforeAll, expect } from 'vitest';
 import { launchBrowser } from './browser';
 import { demo } from './test-app';
 import { startTestServer } from './test-server';
@@ -7,6 +7,7 @@ import { startTestServer } from './test-server';
 /**
  * One browser test file's setup: the built app on a private database, Debian's Chromium, pages in
  * fresh contexts that record any Content-Security-Policy violation, and a sign-in through the form.
+ * Every test is checked for violations on its own pages as it ends, so no test depends on another.
  */
 export function useBrowserApp() {
   let server: Awaited<ReturnType<typeof startTestServer>> | undefined;
@@ -16,6 +17,10 @@ export function useBrowserApp() {
   beforeAll(async () => {
     server = await startTestServer();
     browser = await launchBrowser();
+  });
+  afterEach(() => {
+    const seen = cspViolations.splice(0);
+    expect(seen, 'Content-Security-Policy violations during this test').toEqual([]);
   });
   afterAll(async () => {
     await browser?.close();
