@@ -1,0 +1,83 @@
+/**
+ * Every route at a phone, tablet, small laptop and desktop width: the document is never wider than
+ * the window (long results wrap or truncate). At 1366 and 390 px each page is also saved as a
+ * screenshot in .data/screens/ (git-ignored) — `npm run screenshots` runs only this file.
+ */
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
+import type { BrowserContext, Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { projectRoot } from '../../server/bootstrap/prepare';
+import { useBrowserApp } from '../support/e2e';
+import { routeTour, type Visit, type Visitor } from '../support/route-tour';
+
+const app = useBrowserApp();
+const WIDTHS = [390, 768, 1024, 1366] as const;
+const HEIGHT: Record<(typeof WIDTHS)[number], number> = { 390: 844, 768: 1024, 1024: 768, 1366: 900 };
+const SCREENS = path.join(projectRoot, '.data', 'screens');
+
+let tour: Visit[] = [];
+beforeAll(async () => {
+  tour = await routeTour(app.databaseUrl);
+});
+
+/** What sticks out past the right edge: a few elements, named so a person can find them. */
+function overflowAt(page: Page) {
+  return page.evaluate(() => {
+    const width = document.documentElement.clientWidth;
+    const wide = document.documentElement.scrollWidth;
+    const culprits: string[] = [];
+    if (wide > width + 1) {
+      for (const el of Array.from(document.body.querySelectorAll<HTMLElement>('*'))) {
+        const r = el.getBoundingClientRect();
+        if (r.right > width + 1 && r.width > 0) {
+          // Only the outermost offender of each branch.
+          const parent = el.parentElement?.getBoundingClientRect();
+          if (parent && parent.right > width + 1) continue;
+          const text = (el.innerText || '').trim().slice(0, 40);
+          culprits.push(`${el.tagName.toLowerCase()}.${el.className.toString().slice(0, 60)} “${text}”`);
+          if (culprits.length >= 4) break;
+        }
+      }
+    }
+    return { width, wide, culprits };
+  });
+}
+
+describe('no page is wider than the window', () => {
+  for (const width of WIDTHS) {
+    it(`at ${width} px`, async () => {
+      const contexts = new Map<Visitor, BrowserContext>();
+      const pageFor = async (who: Visitor) => {
+        let context = contexts.get(who);
+        if (!context) {
+          context = await app.browser.newContext({ viewport: { width, height: HEIGHT[width] } });
+          contexts.set(who, context);
+          const page = await context.newPage();
+          if (who !== 'anonymous') await app.signIn(page, who);
+          return page;
+        }
+        return context.pages()[0]!;
+      };
+      const shots = path.join(SCREENS, String(width));
+      if (width === 390 || width === 1366) mkdirSync(shots, { recursive: true });
+      try {
+        for (const visit of tour) {
+          const page = await pageFor(visit.who);
+          await page.goto(app.url + visit.url);
+          await page.waitForLoadState('networkidle');
+          await page.locator('h1').first().waitFor();
+          const { wide, culprits } = await overflowAt(page);
+          expect
+            .soft(wide, `${visit.route} as ${visit.who} at ${width} px: ${culprits.join('; ')}`)
+            .toBeLessThanOrEqual(width + 1);
+          if (width === 390 || width === 1366) {
+            await page.screenshot({ path: path.join(shots, `${visit.route}-${visit.who}.png`), fullPage: true });
+          }
+        }
+      } finally {
+        for (const c of contexts.values()) await c.close();
+      }
+    });
+  }
+});
