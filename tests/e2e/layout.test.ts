@@ -78,6 +78,6 @@ describe('no page is wider than the window', () => {
       } finally {
         for (const c of contexts.values()) await c.close();
       }
-    });
+    }, 300_000);
   }
 });

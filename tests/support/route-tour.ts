@@ -4,7 +4,7 @@
 import { and, desc, eq } from 'drizzle-orm';
 import { paths } from '../../shared/paths';
 import { createDb, createPool } from '../../server/db/client';
-import { procedures, revisions, runs, units } from '../../server/db/schema';
+import { people, procedures, revisions, runs, units } from '../../server/db/schema';
 import { procedureInState } from './review-path';
 import type { demo } from './test-app';
 
@@ -41,8 +41,9 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
     });
     const [unit] = await db.select({ id: units.id }).from(units).limit(1);
     const [open] = await db
-      .select({ id: runs.id })
+      .select({ id: runs.id, performer: people.email })
       .from(runs)
+      .innerJoin(people, eq(people.id, runs.performedBy))
       .where(eq(runs.status, 'in_progress'))
       .limit(1);
     const [signed] = await db
@@ -52,6 +53,8 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       .orderBy(desc(runs.startedAt))
       .limit(1);
     if (!unit || !open || !signed) throw new Error('the demo data needs a unit, an open run and a signed run');
+    // The open run is seen by the technician doing it, with every step still to enter.
+    const performer = open.performer.split('@')[0] as Visitor;
 
     const visits: Record<keyof typeof paths, Visit[]> = {
       home: (['tom', 'hal', 'marek', 'admin'] as const).map((who) => ({ route: 'home', url: '/', who })),
@@ -75,7 +78,7 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       unit: [{ route: 'unit', url: paths.unit.href(unit.id), who: 'tom' }],
       runs: [{ route: 'runs', url: paths.runs.href(), who: 'tom' }],
       newRun: [{ route: 'newRun', url: paths.newRun.href(), who: 'tom' }],
-      run: [{ route: 'run', url: paths.run.href(open.id), who: 'tom' }],
+      run: [{ route: 'run', url: paths.run.href(open.id), who: performer }],
       runSheet: [{ route: 'runSheet', url: paths.runSheet.href(signed.id), who: 'tom' }],
     };
     return Object.values(visits).flat();

@@ -31,7 +31,7 @@ export function DeviationPlot({ steps, entries }: { steps: RunStep[]; entries: E
   const x = (pct: number) =>
     labelW + ((Math.max(-LIMIT, Math.min(LIMIT, pct)) + LIMIT) / (2 * LIMIT)) * plotW;
   return (
-    <figure className="overflow-x-auto">
+    <figure>
       <svg
         role="img"
         aria-label="Measured against expected, as a share of each tolerance band"

@@ -34,7 +34,7 @@ export function TrendPlot({ points, unit, label }: { points: TrendPoint[]; unit:
   const expected = points.map((p, i) => ({ ...p, i })).filter((p) => p.expected !== null);
   const ticks = [lo + (hi - lo) * 0.1, (lo + hi) / 2, hi - (hi - lo) * 0.1];
   return (
-    <figure className="overflow-x-auto">
+    <figure>
       <svg
         role="img"
         aria-label={`${label} across visits`}
