@@ -281,7 +281,7 @@ export function StepCard(props: Props) {
       data-step-id={step.id}
       data-step-kind={step.kind}
       aria-labelledby={`step-${step.id}-title`}
-      className={`flex flex-col gap-3 rounded-lg border-2 p-4 ${hazard ? 'border-hazard-ink bg-hazard/25 [border-style:dashed]' : 'border-rule bg-card'} ${locked ? 'opacity-60' : ''}`}
+      className={`flex flex-col gap-3 rounded-lg border-2 p-4 ${hazard ? 'border-hazard-ink bg-hazard/25 [border-style:dashed]' : locked ? 'border-dashed border-rule bg-paper' : 'border-rule bg-card'}`}
     >
       <header className="flex flex-wrap items-baseline gap-x-3">
         <span className="value text-sm text-graphite-soft">Step {step.position}</span>
