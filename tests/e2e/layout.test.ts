@@ -27,16 +27,23 @@ function overflowAt(page: Page) {
     const width = document.documentElement.clientWidth;
     const wide = document.documentElement.scrollWidth;
     const culprits: string[] = [];
+    // Content inside a scrolling or clipping box does not widen the page.
+    const clipped = (el: HTMLElement) => {
+      for (let a = el.parentElement; a && a !== document.body; a = a.parentElement) {
+        if (getComputedStyle(a).overflowX !== 'visible') return true;
+      }
+      return false;
+    };
     if (wide > width + 1) {
       for (const el of Array.from(document.body.querySelectorAll<HTMLElement>('*'))) {
         const r = el.getBoundingClientRect();
-        if (r.right > width + 1 && r.width > 0) {
-          // Only the outermost offender of each branch.
-          const parent = el.parentElement?.getBoundingClientRect();
-          if (parent && parent.right > width + 1) continue;
+        if (r.right > width + 1 && r.width > 0 && !clipped(el)) {
+          // The innermost offender of each branch: the content that does not fit.
+          const child = Array.from(el.children).some((c) => c.getBoundingClientRect().right > width + 1);
+          if (child) continue;
           const text = (el.innerText || '').trim().slice(0, 40);
           culprits.push(`${el.tagName.toLowerCase()}.${el.className.toString().slice(0, 60)} “${text}”`);
-          if (culprits.length >= 4) break;
+          if (culprits.length >= 6) break;
         }
       }
     }

@@ -28,9 +28,10 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
           {clearCodes.data.person.displayName}’s authenticator is cleared; they are signed out everywhere.
         </Notice>
       )}
-      <div className="overflow-x-auto rounded-lg border border-rule bg-card">
-        <table className="w-full text-left text-sm">
-          <thead className="border-b border-rule bg-paper-deep">
+      {/* Below 1024 px each person is a card: the table's rows and cells stack. */}
+      <div className="rounded-lg border border-rule bg-card">
+        <table className="w-full text-left text-sm max-lg:block">
+          <thead className="border-b border-rule bg-paper-deep max-lg:sr-only">
             <tr>
               <th className="px-3 py-2">Name</th>
               <th className="px-3 py-2">E-mail</th>
@@ -46,16 +47,16 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
               </th>
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-lg:block">
             {people.map((p) => (
               <tr
                 key={p.id}
-                className={`border-b border-rule last:border-0 ${p.active ? '' : 'text-graphite-soft'}`}
+                className={`border-b border-rule last:border-0 max-lg:flex max-lg:flex-wrap max-lg:gap-x-4 max-lg:py-2 ${p.active ? '' : 'text-graphite-soft'}`}
               >
-                <td className="px-3 py-2 font-semibold">{p.displayName}</td>
-                <td className="px-3 py-2">{p.email}</td>
+                <td className="px-3 py-2 font-semibold max-lg:w-full max-lg:pb-0">{p.displayName}</td>
+                <td className="px-3 py-2 break-all max-lg:w-full max-lg:pt-0">{p.email}</td>
                 {ROLES.map((r) => (
-                  <td key={r} className="px-3 py-2 text-center">
+                  <td key={r} className="px-3 py-2 text-center max-lg:flex max-lg:items-center max-lg:gap-2">
                     <input
                       type="checkbox"
                       className="size-5"
@@ -64,44 +65,50 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                       disabled={update.isPending || (p.id === selfId && r === 'admin')}
                       onChange={(e) => toggleRole(p, r, e.target.checked)}
                     />
+                    <span className="lg:sr-only" aria-hidden="true">
+                      {ROLE_LABELS[r]}
+                    </span>
                   </td>
                 ))}
-                <td className="px-3 py-2">
+                <td className="px-3 py-2 max-lg:w-full">
                   {!p.active ? 'Deactivated' : p.hasPassword ? 'Active' : 'Invited'}
+                  <span className="lg:hidden">{p.totp ? ' · authenticator on' : ''}</span>
                 </td>
-                <td className="px-3 py-2">{p.totp ? 'On' : '—'}</td>
-                <td className="flex flex-wrap justify-end gap-2 px-3 py-2 text-right">
-                  {p.active && (
-                    <button
-                      type="button"
-                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
-                      aria-label={`Mail ${p.displayName} a password link`}
-                      disabled={reset.isPending}
-                      onClick={() => reset.mutate(p.id)}
-                    >
-                      {p.hasPassword ? 'Mail reset link' : 'Mail new invitation link'}
-                    </button>
-                  )}
-                  {p.totp && p.id !== selfId && (
-                    <button
-                      type="button"
-                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
-                      aria-label={`Clear ${p.displayName}’s authenticator`}
-                      disabled={clearCodes.isPending}
-                      onClick={() => clearCodes.mutate(p.id)}
-                    >
-                      Clear authenticator
-                    </button>
-                  )}
-                  {p.id !== selfId && (
-                    <button
-                      type="button"
-                      className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
-                      onClick={() => update.mutate({ id: p.id, active: !p.active })}
-                    >
-                      {p.active ? 'Deactivate' : 'Reactivate'}
-                    </button>
-                  )}
+                <td className="px-3 py-2 max-lg:hidden">{p.totp ? 'On' : '—'}</td>
+                <td className="px-3 py-2 max-lg:w-full">
+                  <div className="flex flex-wrap justify-end gap-2 max-lg:justify-start">
+                    {p.active && (
+                      <button
+                        type="button"
+                        className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                        aria-label={`Mail ${p.displayName} a password link`}
+                        disabled={reset.isPending}
+                        onClick={() => reset.mutate(p.id)}
+                      >
+                        {p.hasPassword ? 'Mail reset link' : 'Mail new invitation link'}
+                      </button>
+                    )}
+                    {p.totp && p.id !== selfId && (
+                      <button
+                        type="button"
+                        className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                        aria-label={`Clear ${p.displayName}’s authenticator`}
+                        disabled={clearCodes.isPending}
+                        onClick={() => clearCodes.mutate(p.id)}
+                      >
+                        Clear authenticator
+                      </button>
+                    )}
+                    {p.id !== selfId && (
+                      <button
+                        type="button"
+                        className="min-h-11 rounded-md border border-rule px-3 hover:bg-paper"
+                        onClick={() => update.mutate({ id: p.id, active: !p.active })}
+                      >
+                        {p.active ? 'Deactivate' : 'Reactivate'}
+                      </button>
+                    )}
+                  </div>
                 </td>
               </tr>
             ))}

@@ -15,7 +15,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
       {!view ? (
         <p className="mt-2 text-sm text-out">This calculation is missing from the stored results.</p>
       ) : (
-        <div className="mt-2 grid gap-4">
+        <div className="mt-2 grid grid-cols-1 gap-4">
           {view.inputs.length > 0 && (
             <div>
               <h4 className={heading}>Assumed</h4>
@@ -26,7 +26,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
             <h4 className={heading}>Results</h4>
             {view.ok ? (
               <>
-                <dl className="mt-1 grid gap-x-6 gap-y-2 sm:grid-cols-2 md:grid-cols-3">
+                <dl className="mt-1 grid grid-cols-1 gap-x-6 gap-y-2 sm:grid-cols-2 md:grid-cols-3">
                   {view.outputs.map((out) => (
                     <div
                       key={out.key}
