@@ -143,7 +143,7 @@ function readingRow(step: RunStep, e: EntryView | undefined): SheetReading {
     expected: r.expected !== null ? formatQuantity(r.expected, r.unit, 4) : NONE,
     band: r.bandText ?? r.error ?? NONE,
     measured,
-    asTyped: e?.raw && e.raw.trim() !== measured ? e.raw : null,
+    asTyped: e?.raw && ![measured, measured.split(' ')[0]].includes(e.raw.trim()) ? e.raw : null,
     corrected: (e?.version ?? 1) > 1,
     deviation: e ? deviationText(e.deviation, e.deviationPercent, r.unit) : NONE,
     mark,

@@ -10,8 +10,8 @@ import type { RunView } from '../../../shared/schemas/runs';
 
 // The built-in PDF fonts speak WinAnsi only: spell out what they cannot draw.
 const SPELLED: Record<string, string> = {
-  Ω: ' ohm',
-  '\u2126': ' ohm',
+  Ω: 'ohm',
+  '\u2126': 'ohm',
   '…': '...',
   '−': '-',
   '≥': '>=',
@@ -24,7 +24,8 @@ const SPELLED: Record<string, string> = {
 };
 const WIN_ANSI_EXTRA = new Set('€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ');
 export const pdfText = (s: string) =>
-  [...s.replace(/ ?Ω/g, ' ohm')]
+  // "22 Ω" → "22 ohm", "300 mΩ" → "300 mohm"
+  [...s.replace(/(\d) ?[Ω\u2126]/g, '$1 ohm')]
     .map(
       (c) =>
         SPELLED[c] ??
@@ -42,7 +43,7 @@ const NOTICE_INK: Record<SheetNotice['kind'], string> = {
   out: OUT,
 };
 /** Share of the table width per column, in READING_COLUMNS order. */
-const COLUMN_SHARES = [0.25, 0.17, 0.15, 0.16, 0.12, 0.15];
+const COLUMN_SHARES = [0.23, 0.17, 0.14, 0.18, 0.11, 0.17];
 
 /** A run sheet for the customer's file, drawn from the same model as the page (shared/runs/run-sheet-model). */
 export function renderRunSheetPdf(run: RunView): Promise<Buffer> {

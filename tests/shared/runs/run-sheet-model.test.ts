@@ -160,6 +160,14 @@ describe('run sheet model', () => {
     });
   });
 
+  it('keeps what was typed when it reads differently from the value shown', () => {
+    const row = (raw: string) =>
+      runSheetModel(runView({ entries: [{ ...measured(steps[0]!, 290), raw }] })).readings[0]!;
+    expect(row('0.29 kV').asTyped).toBe('0.29 kV');
+    expect(row('290').asTyped).toBeNull();
+    expect(row('290 V').asTyped).toBeNull();
+  });
+
   it('says a negative deviation with its sign and an exact one with none', () => {
     const low = measured(steps[0]!, 240);
     const exact = measured(steps[0]!, 250);

@@ -13,7 +13,7 @@ export function Mark({ within, pending = false }: { within: boolean | null | und
   return (
     <span
       data-mark={kind}
-      className={`inline-flex items-center gap-1 rounded border px-2 py-0.5 text-sm font-semibold ${tone}`}
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded border px-2 py-0.5 text-sm font-semibold ${tone}`}
     >
       {within === false ? '▲' : within ? '●' : '○'} {MARK_WORDS[kind]}
       {pending && <span className="font-normal">(on this tablet)</span>}

@@ -28,6 +28,7 @@ function Fields({ fields }: { fields: SheetField[] }) {
           <dd
             {...(f.tag ? { [`data-${f.tag}`]: '' } : {})}
             className={[
+              'min-w-0 break-words',
               f.mono && 'value break-all',
               f.tone === 'ok' && 'text-ok',
               f.tone === 'out' && 'font-semibold text-out',
@@ -43,9 +44,11 @@ function Fields({ fields }: { fields: SheetField[] }) {
   );
 }
 
-function Card({ title, fields }: { title: string; fields: SheetField[] }) {
+function Card({ title, fields, wide = false }: { title: string; fields: SheetField[]; wide?: boolean }) {
   return (
-    <div className="rounded-lg border border-rule bg-card p-4 print:break-inside-avoid">
+    <div
+      className={`min-w-0 rounded-lg border border-rule bg-card p-4 print:break-inside-avoid ${wide ? 'sm:col-span-2 print:col-span-2' : ''}`}
+    >
       <h2 className="font-semibold">{title}</h2>
       <Fields fields={fields} />
     </div>
@@ -81,10 +84,10 @@ export function RunSheet({ run }: { run: RunView }) {
         <SafetyCaution caution={sheet.caution} />
       </section>
 
-      <section className="grid gap-4 lg:grid-cols-3 print:grid-cols-3">
+      <section className="grid gap-4 sm:grid-cols-2 print:grid-cols-2">
         <Card title={SHEET_HEADINGS.unit} fields={sheet.unit} />
-        <Card title={SHEET_HEADINGS.procedure} fields={sheet.procedure} />
         <Card title={SHEET_HEADINGS.bench} fields={sheet.bench} />
+        <Card title={SHEET_HEADINGS.procedure} fields={sheet.procedure} wide />
       </section>
 
       <section>
