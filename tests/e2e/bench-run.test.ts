@@ -70,6 +70,7 @@ describe('a bench run in Chromium', () => {
     await second.getByText('Acknowledge the hazard note above before this step.').waitFor();
 
     let outReading = '';
+    const outNote = 'Reservoir capacitor bulging; replaced after this run.';
     const last = steps[steps.length - 1]!;
     for (const step of steps.slice(0, -1)) {
       const card = page.locator(`[data-step-id="${step.id}"]`);
@@ -88,6 +89,7 @@ describe('a bench run in Chromium', () => {
           outReading = step.id;
           await input.fill(`${(high * 1.3).toPrecision(4)}`);
           await card.locator('[data-mark="out"]').first().waitFor();
+          await card.getByRole('textbox', { name: 'Note (optional)' }).fill(outNote);
         } else {
           await input.fill(`${((low + high) / 2).toPrecision(5)}`);
         }
@@ -135,6 +137,8 @@ describe('a bench run in Chromium', () => {
     await page.getByRole('heading', { name: /^Run sheet: TC-18 combo/ }).waitFor();
     await page.locator('[data-run-out]').waitFor();
     await page.locator(`[data-reading-row="${outReading}"] [data-mark="out"]`).waitFor();
+    // The technician's note on the out-of-band reading is on the sheet, in its row (as in the PDF).
+    await page.locator(`[data-reading-row="${outReading}"] [data-reading-note]`).getByText(outNote).waitFor();
     expect(await page.locator('[data-reading-row]').count()).toBe(
       steps.filter((s) => s.kind === 'reading').length,
     );

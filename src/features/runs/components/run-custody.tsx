@@ -1,10 +1,9 @@
 import { useState, type FormEvent } from 'react';
+import { formatUtc } from '@shared/runs/run-sheet-model';
 import type { RunHold, RunStep, RunView } from '@shared/schemas/runs';
 import { Notice } from '@/components/ui/notice';
 import { useAbandon, useHandOver, useTechnicians } from '../api/run-custody';
 import type { PendingEntry } from '../lib/entry-queue';
-
-const utc = (iso: string) => `${iso.slice(0, 16).replace('T', ' ')} UTC`;
 
 /** The revision this run follows was withdrawn: said at the top of the bench and of the sheet. */
 export function HoldBanner({ hold }: { hold: RunHold }) {
@@ -12,7 +11,7 @@ export function HoldBanner({ hold }: { hold: RunHold }) {
     <div data-hold role="alert" className="rounded-md border-2 border-out bg-out-wash px-4 py-3 text-out">
       <p className="font-semibold">
         On hold: revision {hold.revisionNumber} was withdrawn by {hold.by},{' '}
-        <span className="value">{utc(hold.at)}</span>.
+        <span className="value">{formatUtc(hold.at)}</span>.
       </p>
       <p>Reason: {hold.reason}</p>
       <p className="text-sm">
