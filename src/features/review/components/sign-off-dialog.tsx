@@ -43,7 +43,7 @@ export function SignOffDialog(props: {
   const id = useId();
   const form = useZodForm(props.schema, { defaultValues: { password: '', comment: '' } });
   const { errors } = form.formState;
-  const { resetField } = form;
+  const { resetField, clearErrors } = form;
   const empty = props.schema.safeParse({ password: 'x', comment: '' });
   const commentRequired = !empty.success && empty.error.issues.some((i) => i.path[0] === 'comment');
   useEffect(() => {
@@ -51,8 +51,11 @@ export function SignOffDialog(props: {
     if (!d) return;
     if (props.open && !d.open) d.showModal();
     if (!props.open && d.open) d.close();
-    if (!props.open) resetField('password');
-  }, [props.open, resetField]);
+    if (!props.open) {
+      resetField('password');
+      clearErrors();
+    }
+  }, [props.open, resetField, clearErrors]);
   const { error, commentField = 'comment' } = props;
   useEffect(() => {
     if (error) showServerError(form, error, { [commentField]: 'comment' });
