@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm, type FieldValues, type Path, type UseFormProps, type UseFormReturn } from 'react-hook-form';
 import type { z } from 'zod';
-import type { ApiError } from './api-client';
+import type { ApiError, FieldProblem } from './api-client';
 
 /** A form whose state lives in react-hook-form and whose rules are a zod schema (the server's, where one exists). */
 export function useZodForm<S extends z.ZodType<FieldValues, FieldValues>>(
@@ -16,9 +16,30 @@ export function useZodForm<S extends z.ZodType<FieldValues, FieldValues>>(
 type AnyForm<T extends FieldValues> = UseFormReturn<T, any, any>;
 
 /**
- * Puts a refusal on the form: each field problem of a 400 beside its field (the server's `body.model`
- * is the form's `model`, or `rename[...]` of it); a message written for people, and any problem with no
- * field on this form, as the form's own error (`root.server`, shown by FormProblem).
+ * Puts each field problem beside its field (the server's `body.model` is the form's `model`, or
+ * `rename[...]` of it, "body.tags.2" is `tags`); returns those with no field on this form, readably.
+ */
+export function setFieldProblems<T extends FieldValues>(
+  form: AnyForm<T>,
+  problems: readonly FieldProblem[],
+  rename: Record<string, string> = {},
+  /** One message written for people, to show beside the one field instead of its reason. */
+  written = '',
+): string[] {
+  const elsewhere: string[] = [];
+  for (const problem of problems) {
+    const path = problem.field.replace(/^body\./, '').replace(/(\.\d+)+$/, '');
+    const name = (rename[path] ?? path) as Path<T>;
+    if (form.getValues(name) === undefined) elsewhere.push(`${path.split('.').pop()}: ${problem.reason}`);
+    else form.setError(name, { type: 'server', message: written || problem.reason });
+  }
+  return elsewhere;
+}
+
+/**
+ * Puts a refusal on the form: its field problems beside their fields; a message written for people
+ * beside the one field it is about, or else (with any problem this form has no field for) as the
+ * form's own error (`root.server`, shown by FormProblem).
  */
 export function showServerError<T extends FieldValues>(
   form: AnyForm<T>,
@@ -28,17 +49,8 @@ export function showServerError<T extends FieldValues>(
   // The server joins zod's field problems into its message ("body.model: required"): not for people.
   const generated = error.fields.map((f) => `${f.field}: ${f.reason}`).join('; ');
   const written = error.message === generated ? '' : error.message;
-  const elsewhere: string[] = [];
-  for (const problem of error.fields) {
-    // "body.tags.2" is about the tags field (a list typed as one line, or checkboxes).
-    const path = problem.field.replace(/^body\./, '').replace(/(\.\d+)+$/, '');
-    const name = (rename[path] ?? path) as Path<T>;
-    if (form.getValues(name) === undefined) elsewhere.push(`${path.split('.').pop()}: ${problem.reason}`);
-    // One field refused with a message written for people: that message, beside the field.
-    else if (written && error.fields.length === 1)
-      return form.setError(name, { type: 'server', message: written });
-    else form.setError(name, { type: 'server', message: problem.reason });
-  }
-  const message = [written, ...elsewhere].filter(Boolean).join(' ');
+  const one = written && error.fields.length === 1;
+  const elsewhere = setFieldProblems(form, error.fields, rename, one ? written : '');
+  const message = [one && !elsewhere.length ? '' : written, ...elsewhere].filter(Boolean).join(' ');
   if (message) form.setError('root.server', { type: String(error.status), message });
 }
