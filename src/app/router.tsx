@@ -80,6 +80,10 @@ const router = createBrowserRouter([
         lazy: async () => ({ Component: (await import('./routes/admin/outbox')).default }),
       },
       {
+        path: paths.apiReference.pattern,
+        lazy: async () => ({ Component: (await import('./routes/admin/api-reference')).default }),
+      },
+      {
         path: paths.units.pattern,
         lazy: async () => ({ Component: (await import('./routes/units/units')).default }),
       },

@@ -47,6 +47,11 @@ describe('a bench run in Chromium', () => {
     const value = await procedureSelect
       .locator('option', { hasText: 'TC-18 combo: first power-up' })
       .getAttribute('value');
+    // Started too soon, the form says beside each field what is missing or out of range.
+    await page.getByLabel('Measured mains (V)').fill('500 V');
+    await page.getByRole('button', { name: 'Start the bench run' }).click();
+    await page.getByRole('alert').filter({ hasText: 'choose a procedure' }).waitFor();
+    await page.getByRole('alert').filter({ hasText: 'must be at most' }).waitFor();
     await procedureSelect.selectOption(value!);
     await page.getByLabel('Measured mains (V)').fill('236 V');
     await page.getByLabel('Mains frequency (Hz)').fill('50');
@@ -87,6 +92,8 @@ describe('a bench run in Chromium', () => {
         if (!outReading && band) {
           // One reading well above its band: the mark shows before it is sent.
           outReading = step.id;
+          await card.getByRole('button', { name: 'Record reading' }).click();
+          await card.getByText('type the reading first').waitFor();
           await input.fill(`${(high * 1.3).toPrecision(4)}`);
           await card.locator('[data-mark="out"]').first().waitFor();
           await card.getByRole('textbox', { name: 'Note (optional)' }).fill(outNote);

@@ -18,6 +18,7 @@ const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
   { to: paths.people.href(), label: 'People', roles: ['admin'] },
   { to: paths.audit.href(), label: 'Audit log', roles: ['admin'] },
   { to: paths.outbox.href(), label: 'Mail outbox', roles: ['admin'] },
+  { to: paths.apiReference.href(), label: 'API', roles: ['admin'] },
 ];
 
 /** The signed-in shell: header with the role's navigation, the page, the standing safety caution. */

@@ -10,7 +10,7 @@ import { useDecideRevision, type Decision } from '@/features/review/api/review-m
 import { CommentForm, CommentList } from '@/features/review/components/comments';
 import { formatUtc } from '@/features/review/components/format';
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
-import { SignOffDialog } from '@/features/review/components/sign-off-dialog';
+import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
 import { ReckonerCard } from '@/features/procedures/components/reader/reckoner-card';
@@ -157,7 +157,7 @@ export default function ReviewRevisionPage() {
           meaning={deciding === 'approve' ? 'approved for use at the bench' : 'returned for changes'}
           signerName={user.displayName}
           commentLabel={deciding === 'approve' ? 'Comment' : 'What needs to change'}
-          commentRequired={deciding === 'return'}
+          schema={signOffSchemas[deciding ?? 'approve']}
           confirmLabel={deciding === 'approve' ? 'Sign and approve' : 'Sign and return'}
           pending={decide.isPending}
           error={decide.error}

@@ -7,7 +7,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useSubmitRevision, useWithdrawProcedure } from '../api/review-mutations';
 import { SignatureList } from './signature-list';
-import { SignOffDialog } from './sign-off-dialog';
+import { SignOffDialog, signOffSchemas } from './sign-off-dialog';
 
 type PanelRevision = Pick<RevisionView, 'id' | 'procedureId' | 'number' | 'state' | 'lockVersion'>;
 
@@ -73,7 +73,8 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
           meaning="withdrawn — technicians can no longer run it"
           signerName={user.displayName}
           commentLabel="Reason"
-          commentRequired
+          schema={signOffSchemas.withdraw}
+          commentField="reason"
           confirmLabel="Sign and withdraw"
           pending={withdraw.isPending}
           error={withdraw.error}
