@@ -2,7 +2,6 @@ import type { CommandProps, JSONContent } from '@tiptap/core';
 import { NodeSelection, TextSelection } from '@tiptap/pm/state';
 import type { NodeDef } from '@shared/document/nodes';
 import { newBlockId } from '../block-id';
-import { htmlName as kebab } from './atom-block';
 import { jsonAttribute, textAttribute } from './json-attr';
 
 /**
@@ -14,8 +13,8 @@ export function nodeAttributes(def: NodeDef) {
     Object.entries(def.defaults ?? {}).map(([key, value]) => [
       key,
       typeof value === 'string'
-        ? textAttribute(kebab(key), value)
-        : jsonAttribute(kebab(key), () => structuredClone(value)),
+        ? textAttribute(key, value)
+        : jsonAttribute(key, () => structuredClone(value)),
     ]),
   );
 }
@@ -45,13 +44,15 @@ export function insertBlock(
       : commands.insertContent(nodes);
   if (!ok || land === 'after') return ok;
   let at = -1;
+  let end = -1;
   tr.doc.descendants((n, pos) => {
-    if (at < 0 && n.attrs.id === full.id) at = pos;
+    if (at < 0 && n.attrs.id === full.id) [at, end] = [pos, pos + n.nodeSize - 1];
     return at < 0;
   });
   if (at < 0) return ok;
+  // Inside: at the end of the block's text, where typing goes on from what was given.
   tr.setSelection(
-    land === 'block' ? NodeSelection.create(tr.doc, at) : TextSelection.near(tr.doc.resolve(at + 1)),
+    land === 'block' ? NodeSelection.create(tr.doc, at) : TextSelection.near(tr.doc.resolve(end), -1),
   );
   return ok;
 }
