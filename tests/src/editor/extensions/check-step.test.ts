@@ -1,9 +1,12 @@
 import { NodeSelection } from '@tiptap/pm/state';
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
+import { checkStep } from '@shared/document/nodes';
 import { doc, findNode, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
+// Every attribute the node module declares, so one it gains is round-tripped too.
 const wait = {
+  ...checkStep.defaults,
   id: 'check-wait-1',
   text: 'Switched off: wait for the bleeder.',
   kind: 'wait',

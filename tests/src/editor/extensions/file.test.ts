@@ -1,8 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
+import { file } from '@shared/document/nodes';
 import { doc, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
+// Every attribute the node module declares, so one it gains is round-tripped too.
 const stored = {
+  ...file.defaults,
   id: 'file-0001',
   attachmentId: '0e1d2c3b-4a59-4687-9a8b-7c6d5e4f3a2b',
   fileName: 'schematic.pdf',

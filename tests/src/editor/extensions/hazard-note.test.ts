@@ -1,9 +1,16 @@
 import { TextSelection } from '@tiptap/pm/state';
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
+import { hazardNote } from '@shared/document/nodes';
 import { doc, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
-const note = { id: 'hazard-1a', level: 'warning', flags: { oneHand: true, isolation: true } };
+// Every attribute the node module declares, so one it gains is round-tripped too.
+const note = {
+  ...hazardNote.defaults,
+  id: 'hazard-1a',
+  level: 'warning',
+  flags: { oneHand: true, isolation: true },
+};
 
 describe('hazard-note extension (headless editor)', () => {
   it('insertHazardNote puts the cursor in the new note, where typing writes its text', () => {

@@ -1,8 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
+import { image } from '@shared/document/nodes';
 import { doc, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
+// Every attribute the node module declares, so one it gains is round-tripped too.
 const stored = {
+  ...image.defaults,
   id: 'image-01',
   attachmentId: '3f2b8a4e-9c1d-4e5f-8a7b-6c5d4e3f2a1b',
   alt: 'Underside of the chassis',

@@ -1,8 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
+import { reading } from '@shared/document/nodes';
 import { doc, findNode, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
+// Every attribute the node module declares, so one it gains is round-tripped too.
 const stated = {
+  ...reading.defaults,
   id: 'reading-b1',
   label: 'B+ at the reservoir',
   testPoint: 'C1 +',

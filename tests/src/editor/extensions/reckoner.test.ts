@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { validateDocument } from '@shared/document/schema';
 import { getReckoner } from '@shared/reckoners';
+import { reckoner } from '@shared/document/nodes';
 import { doc, headlessEditor, para, reloaded, throughHtml } from '../headless';
 
+// Every attribute the node module declares, so one it gains is round-tripped too.
 const stored = {
+  ...reckoner.defaults,
   id: 'reckoner-1',
   name: 'fuse',
   kind: 'mains-fuse',
