@@ -1,9 +1,11 @@
 import { z } from 'zod';
-import { READING_MEASURES, READING_UNITS, takesMeasure } from '../../reckoners/reading-units';
+import {
+  READING_MEASURES,
+  READING_UNITS,
+  readingUnitSpec,
+  takesMeasure,
+} from '../../reckoners/reading-units';
 import { blockId, defineNode, esc, shortText, yesNo } from './define';
-
-/** Readings in these units are taken on a powered unit unless marked `live: false`. */
-export const LIVE_READING_UNITS: readonly string[] = ['V', 'A', 'W', 'Hz'];
 
 /** A measurement step: what, where, meter range, unit, expected value and tolerance. */
 export const readingAttrs = z
@@ -48,7 +50,7 @@ export type ReadingAttrs = z.infer<typeof readingAttrs>;
  * unit); resistance, capacitance, time and percentages are read cold unless marked live.
  */
 export const isLiveReading = (r: Pick<ReadingAttrs, 'unit' | 'live'>): boolean =>
-  r.live ?? LIVE_READING_UNITS.includes(r.unit);
+  r.live ?? readingUnitSpec(r.unit)?.live ?? false;
 
 export const reading = defineNode({
   attrs: readingAttrs,

@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import type { ResolvedReading } from '../../../../shared/document/evaluate';
-import { reading, readingAttrs, type ReadingAttrs } from '../../../../shared/document/nodes/reading';
+import {
+  isLiveReading,
+  reading,
+  readingAttrs,
+  type ReadingAttrs,
+} from '../../../../shared/document/nodes/reading';
 
 const attrs: ReadingAttrs = {
   id: 'reading-01',
@@ -36,6 +41,22 @@ describe('reading node', () => {
     expect(readingAttrs.safeParse({ ...attrs, unit: 'parsec' }).success).toBe(false);
     const ohms = readingAttrs.safeParse({ ...attrs, unit: 'Ω' });
     expect(ohms.success ? [] : ohms.error.issues.map((i) => i.path.join('.'))).toEqual(['measure']);
+  });
+
+  it('live work: volts, amps, watts and hertz unless marked otherwise; ohms, farads, seconds, percent if marked', () => {
+    const live = (unit: ReadingAttrs['unit'], mark?: boolean) => isLiveReading({ unit, live: mark });
+    expect(['V', 'A', 'W', 'Hz', 'Ω', 'F', 's', '%'].map((u) => live(u as ReadingAttrs['unit']))).toEqual([
+      true,
+      true,
+      true,
+      true,
+      false,
+      false,
+      false,
+      false,
+    ]);
+    expect(live('V', false)).toBe(false);
+    expect(live('Ω', true)).toBe(true);
   });
 
   it('plain text: one line with label, test point, meter range and tolerance; "(live)" only when marked', () => {
