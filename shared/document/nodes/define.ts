@@ -35,6 +35,11 @@ export interface StepContext {
   reading: (id: string) => ResolvedReading | undefined;
 }
 
+export interface UpgradeOptions {
+  /** Point empty reckoner fields at the procedure parameter they follow. */
+  reckoners: boolean;
+}
+
 type AttrsSchema = z.ZodType<Record<string, unknown>, Record<string, unknown>>;
 type Input<S> = S extends z.ZodTypeAny ? z.input<S> : Record<string, never>;
 type Output<S> = S extends z.ZodTypeAny ? z.output<S> : Record<string, never>;
@@ -59,6 +64,11 @@ export interface NodeDef<S extends AttrsSchema | null = AttrsSchema | null> {
   text?(a: Output<S>, node: DocNode, inner: () => string[]): string[];
   /** Static HTML, escaped (see esc); sanitized by the server afterwards. Without it: the children. */
   html?(a: Output<S>, ctx: HtmlContext): string;
+  /**
+   * Load-time upgrade of attributes stored before the node declared what they hold (see
+   * ../upgrade.ts); undefined when nothing changes.
+   */
+  upgrade?(a: Output<S>, opts: UpgradeOptions): Record<string, unknown> | undefined;
   /** The node as a bench-run step; null when it is not one (or cannot be one). */
   step?(a: Output<S>, ctx: StepContext): RunStep | null;
 }

@@ -52,6 +52,19 @@ export type ReadingAttrs = z.infer<typeof readingAttrs>;
 export const isLiveReading = (r: Pick<ReadingAttrs, 'unit' | 'live'>): boolean =>
   r.live ?? readingUnitSpec(r.unit)?.live ?? false;
 
+type ReadingMeasure = NonNullable<ReadingAttrs['measure']>;
+
+/** The measure a reading states, or the one its meter range implies. Undefined for units without one. */
+export function readingMeasure(
+  r: Pick<ReadingAttrs, 'unit' | 'measure' | 'meterRange'>,
+): ReadingMeasure | undefined {
+  if (!takesMeasure(r.unit)) return undefined;
+  if (r.measure) return r.measure;
+  if (/\bAC\b|~|\brms\b/i.test(r.meterRange)) return 'rms';
+  if (/\bp-?p\b/i.test(r.meterRange)) return 'peak-to-peak';
+  return 'dc';
+}
+
 export const reading = defineNode({
   attrs: readingAttrs,
   content: 'none',
@@ -80,6 +93,11 @@ export const reading = defineNode({
     const live = isLiveReading(a) ? '<tr><th>Live work</th><td>yes</td></tr>' : '';
     const row = (th: string, td: string) => `<tr><th>${th}</th><td>${td}</td></tr>`;
     return `<table class="reading"><tbody>${row('Measure', esc(a.label))}${row('At', esc(a.testPoint))}${row('Meter range', esc(a.meterRange))}${row('Expected', `${esc(band)} (${esc(a.tolerance)})`)}${live}</tbody></table>`;
+  },
+  // A reading in volts or amps saved before measures existed gets one from its meter range, else DC.
+  upgrade: (a) => {
+    const measure = readingMeasure(a);
+    return measure && a.measure !== measure ? { ...a, measure } : undefined;
   },
   step: (a, { reading, section, position }) => {
     const r = reading(a.id);

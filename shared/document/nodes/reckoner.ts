@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { BLOCK_NAME, BLOCK_NAME_RULE } from '../../reckoners/field-paths';
+import { BLOCK_NAME, BLOCK_NAME_RULE, withFollowedParams } from '../../reckoners/field-paths';
+import { getReckoner } from '../../reckoners/registry';
 import { blockId, defineNode, esc, shortText } from './define';
 
 // ── values inside reckoner inputs: literals, rows, references ─────────────────
@@ -44,6 +45,14 @@ export const reckoner = defineNode({
   defaults: { id: '', name: '', kind: '', inputs: {} },
   // Summarised from the snapshot by whoever needs it.
   text: () => [],
+  // An empty field that follows a procedure parameter is pointed at it, so a block inserted before
+  // the declarations follows the bench's measured mains.
+  upgrade: (a, { reckoners }) => {
+    const def = reckoners ? getReckoner(String(a.kind)) : undefined;
+    if (!def || !a.inputs || typeof a.inputs !== 'object') return undefined;
+    const up = withFollowedParams(a.inputs, def.fields);
+    return up.followed.size ? { ...a, inputs: up.inputs } : undefined;
+  },
   html: (a, { block }) => {
     const b = block(a.id);
     if (!b) return '';

@@ -59,6 +59,16 @@ describe('reading node', () => {
     expect(live('Ω', true)).toBe(true);
   });
 
+  it('upgrade: a volts reading stored without a measure takes it from its meter range, else DC', () => {
+    const stored = (meterRange: string, unit: ReadingAttrs['unit'] = 'V') =>
+      reading.upgrade({ ...attrs, unit, measure: undefined, meterRange })?.measure;
+    expect(stored('AC 20 V')).toBe('rms');
+    expect(stored('200 V p-p')).toBe('peak-to-peak');
+    expect(stored('DC 1000 V')).toBe('dc');
+    expect(stored('2 kΩ', 'Ω')).toBeUndefined();
+    expect(reading.upgrade(attrs)).toBeUndefined();
+  });
+
   it('plain text: one line with label, test point, meter range and tolerance; "(live)" only when marked', () => {
     expect(reading.text(attrs)).toEqual(['Reading: Heater <AC> at V1 pins 4–5 (AC 20 V), tolerance ±10 %']);
     expect(reading.text({ ...attrs, live: true })[0]).toMatch(/^Reading \(live\): /);
