@@ -1,17 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { QueueItem, ReviewView, SignatureView } from '@shared/schemas/review';
 import { api } from '@/lib/api-client';
-
-export const reviewKeys = {
-  queue: ['review', 'queue'] as const,
-  review: (revisionId: string) => ['review', 'revision', revisionId] as const,
-  signatures: (revisionId: string) => ['review', 'signatures', revisionId] as const,
-};
+import { reviewKeys } from './keys';
 
 export const useReviewQueue = () =>
   useQuery(
     queryOptions({
-      queryKey: reviewKeys.queue,
+      queryKey: reviewKeys.queue(),
       queryFn: () => api.get<{ items: QueueItem[] }>('/api/review/queue'),
     }),
   );

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId } from 'react';
 import type { RunPhotoView } from '@shared/schemas/runs';
 import { uploadPhoto } from '../api/upload-photo';
+import { runKeys } from '../api/keys';
 
 /** A photo for one step, taken with the tablet's camera where it has one. */
 export function StepPhoto({
@@ -20,7 +21,7 @@ export function StepPhoto({
   const upload = useMutation({
     mutationFn: (file: File) =>
       uploadPhoto<{ photo: RunPhotoView }>(`/api/runs/${runId}/photos`, file, { stepId }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['runs', 'one', runId] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: runKeys.detail(runId) }),
   });
   return (
     <div className="flex flex-wrap items-center gap-3">

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { SearchPage } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
+import { searchKeys } from './keys';
 
 export type { SearchHit, SearchPage } from '@shared/schemas/search';
 
@@ -22,7 +23,7 @@ export const searchProcedures = (p: SearchParams) => {
 };
 
 export const searchQueryOptions = (p: SearchParams) =>
-  queryOptions({ queryKey: ['search', p], queryFn: () => searchProcedures(p), staleTime: 10_000 });
+  queryOptions({ queryKey: searchKeys.results(p), queryFn: () => searchProcedures(p), staleTime: 10_000 });
 
 /** Results as you type: previous results stay on screen while the next ones load. */
 export const useSearch = (p: SearchParams) =>

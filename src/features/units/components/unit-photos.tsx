@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import type { UnitPhotoView } from '@shared/schemas/units';
 import { ApiError, getCsrfToken } from '@/lib/api-client';
+import { unitKeys } from '../api/keys';
 
 async function upload(unitId: string, file: File, caption: string) {
   const form = new FormData();
@@ -36,7 +37,7 @@ export function UnitPhotos({
     mutationFn: (file: File) => upload(unitId, file, caption),
     onSuccess: () => {
       setCaption('');
-      return queryClient.invalidateQueries({ queryKey: ['units', 'one', unitId] });
+      return queryClient.invalidateQueries({ queryKey: unitKeys.detail(unitId) });
     },
   });
   return (
