@@ -4,7 +4,7 @@ import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevision } from '@/features/procedures/api/get-revision';
-import { DraftWorkspace } from '@/editor/draft-workspace';
+import { DraftWorkspace } from '@/features/procedures/draft/draft-workspace';
 
 /** The only route that loads the editor (and with it TipTap): readers never download it. */
 export default function EditRevisionPage() {
