@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId } from 'react';
 import type { RunPhotoView } from '@shared/schemas/runs';
-import { uploadPhoto } from '../api/upload-photo';
+import { uploadStepPhoto } from '../api/upload-photo';
 import { runKeys } from '../api/keys';
 
 /** A photo for one step, taken with the tablet's camera where it has one. */
@@ -19,8 +19,7 @@ export function StepPhoto({
   const id = useId();
   const queryClient = useQueryClient();
   const upload = useMutation({
-    mutationFn: (file: File) =>
-      uploadPhoto<{ photo: RunPhotoView }>(`/api/runs/${runId}/photos`, file, { stepId }),
+    mutationFn: (file: File) => uploadStepPhoto(runId, stepId, file),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: runKeys.detail(runId) }),
   });
   return (
