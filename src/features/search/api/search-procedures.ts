@@ -22,6 +22,17 @@ export const searchProcedures = (p: SearchParams) => {
   return api.get<SearchPage>(`/api/search?${qs}`);
 };
 
+const PAGE_SIZE = 10;
+
+/** The search as the address holds it (read by the page and by its route loader). */
+export const searchFromUrl = (params: URLSearchParams): SearchParams => ({
+  q: params.get('q') ?? '',
+  family: params.get('family') || undefined,
+  tag: params.get('tag') || undefined,
+  page: Math.max(1, Number(params.get('page') ?? 1) || 1),
+  pageSize: PAGE_SIZE,
+});
+
 export const searchQueryOptions = (p: SearchParams) =>
   queryOptions({ queryKey: searchKeys.results(p), queryFn: () => searchProcedures(p), staleTime: 10_000 });
 
