@@ -1,4 +1,5 @@
 import { useEffect } from 'react';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Notice } from '@/components/ui/notice';
 import { useAccount } from '@/features/account/api/account';
 import { AuthenticatorPanel } from '@/features/account/components/authenticator-panel';
@@ -20,7 +21,9 @@ export default function AccountPage() {
           <p className="text-sm">
             Signed in as <strong>{account.data.user.displayName}</strong> ({account.data.user.email}).
           </p>
-          <AuthenticatorPanel account={account.data} />
+          <RegionBoundary label="Authenticator">
+            <AuthenticatorPanel account={account.data} />
+          </RegionBoundary>
           <ChangePasswordForm />
           <SignOutEverywhere />
         </>

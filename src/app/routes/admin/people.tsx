@@ -1,4 +1,5 @@
 import { useEffect } from 'react';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { usePeople } from '@/features/people/api/get-people';
@@ -21,7 +22,9 @@ export default function PeoplePage() {
       {people.isError && <Notice tone="error">{people.error.message}</Notice>}
       {people.data && <PeopleTable people={people.data.people} selfId={session.data!.user!.id} />}
       <InviteForm />
-      <SignInSettingsPanel />
+      <RegionBoundary label="Sign-in settings">
+        <SignInSettingsPanel />
+      </RegionBoundary>
     </section>
   );
 }

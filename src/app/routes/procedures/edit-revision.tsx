@@ -18,8 +18,10 @@ export default function EditRevisionPage() {
   }, [data?.revision.title]);
 
   if (!hasRole(session.data?.user, 'author')) return <Notice tone="error">Only authors edit drafts.</Notice>;
-  if (revision.isError) return <Notice tone="error">{revision.error.message}</Notice>;
-  if (!data) return <p className="text-graphite-soft">Loading the draft…</p>;
+  if (!data) {
+    if (revision.isError) throw revision.error;
+    return <p className="text-graphite-soft">Loading the draft…</p>;
+  }
   const r = data.revision;
   if (r.state !== 'draft') {
     return (

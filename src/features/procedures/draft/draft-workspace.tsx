@@ -5,6 +5,7 @@ import { lintProcedure } from '@shared/document/lint';
 import type { ProcedureParams } from '@shared/document/params';
 import type { ProcedureDoc } from '@shared/document/schema';
 import type { RevisionView } from '@shared/schemas/procedures';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Button } from '@/components/ui/button';
 import { paths } from '@/config/paths';
 import { DraftDetails } from '@/features/procedures/components/draft-details';
@@ -163,7 +164,9 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
               Save draft
             </Button>
           </div>
-          <ProcedureCheckPanel warnings={warnings} onSelect={(id) => editor.current?.focusBlock(id)} />
+          <RegionBoundary label="Procedure check">
+            <ProcedureCheckPanel warnings={warnings} onSelect={(id) => editor.current?.focusBlock(id)} />
+          </RegionBoundary>
         </aside>
       </div>
       <LeaveGuard unsaved={state.kind !== 'saved'} onSave={saver.save} />
