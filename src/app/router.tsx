@@ -20,7 +20,6 @@ import { peopleQueryOptions } from '@/features/people/api/get-people';
 import { procedureQueryOptions } from '@/features/procedures/api/get-procedure';
 import {
   procedureFacetsQueryOptions,
-  procedureListFromUrl,
   proceduresQueryOptions,
 } from '@/features/procedures/api/get-procedures';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
@@ -37,7 +36,8 @@ import { unitsQueryOptions } from '@/features/units/api/get-units';
 void queryClient.prefetchQuery(sessionQueryOptions());
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- each page's queries have their own data types
-type Queries = (args: LoaderFunctionArgs) => FetchQueryOptions<any, any, any, any>[];
+type AnyQuery = FetchQueryOptions<any, any, any, any>;
+type Queries = (args: LoaderFunctionArgs) => AnyQuery[] | Promise<AnyQuery[]>;
 
 /**
  * A route loader that starts the page's queries alongside its code, so data does not wait for the
@@ -49,8 +49,10 @@ const prefetch =
   (args: LoaderFunctionArgs) => {
     // Nobody signed in: the layout sends them to sign in; asking for the page's data would only be refused.
     if (signedIn && queryClient.getQueryData(sessionQueryOptions().queryKey)?.user === null) return null;
-    for (const options of queries(args))
-      void queryClient.ensureQueryData({ ...options, revalidateIfStale: true }).catch(() => undefined);
+    void (async () => {
+      for (const options of await queries(args))
+        void queryClient.ensureQueryData({ ...options, revalidateIfStale: true }).catch(() => undefined);
+    })().catch(() => undefined);
     return null;
   };
 
@@ -99,10 +101,15 @@ const router = createBrowserRouter([
       page(
         paths.procedures.pattern,
         () => import('./routes/procedures/list'),
-        (a) => [
-          proceduresQueryOptions(procedureListFromUrl(searchOf(a)).query),
-          procedureFacetsQueryOptions(),
-        ],
+        // The list's address rules sit beside zod schemas: imported lazily, so no schema is built in the
+        // entry before zod is told not to probe for eval (the CSP forbids it; see lib/zod-config.ts).
+        async (a) => {
+          const { procedureListFromUrl } = await import('@/features/procedures/api/list-from-url');
+          return [
+            proceduresQueryOptions(procedureListFromUrl(searchOf(a)).query),
+            procedureFacetsQueryOptions(),
+          ];
+        },
       ),
       page(paths.newProcedure.pattern, () => import('./routes/procedures/new'), undefined, toProcedures),
       page(

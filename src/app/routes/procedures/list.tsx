@@ -7,11 +7,8 @@ import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
 import { useDebounced } from '@/hooks/use-debounced';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
-import {
-  procedureListFromUrl,
-  useProcedureFacets,
-  useProcedures,
-} from '@/features/procedures/api/get-procedures';
+import { useProcedureFacets, useProcedures } from '@/features/procedures/api/get-procedures';
+import { procedureListFromUrl } from '@/features/procedures/api/list-from-url';
 import { ProcedureFilters } from '@/features/procedures/components/procedure-filters';
 import { ProcedureTable } from '@/features/procedures/components/procedure-table';
 
