@@ -4,6 +4,7 @@ import { PASSWORD_MIN } from '@shared/schemas/limits';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
 import { useInvitation, useSetPassword } from '@/features/auth/api/set-password';
 
 export default function SetPassword() {
@@ -28,7 +29,7 @@ export default function SetPassword() {
       {setPassword.isSuccess ? (
         <Notice tone="success">
           Your password is set.{' '}
-          <Link to="/sign-in" className="underline">
+          <Link to={paths.signIn.href()} className="underline">
             Sign in
           </Link>
           .
