@@ -1,7 +1,7 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { Problem } from '@/components/errors/problem';
 import { Pager } from '@/components/ui/pager';
-import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { searchFromUrl, useSearch } from '@/features/search/api/search-procedures';
 import { Snippet } from '@/features/search/components/snippet';
@@ -83,7 +83,7 @@ export default function SearchPage() {
           </label>
         </div>
       )}
-      {search.isError && <Notice tone="error">{search.error.message}</Notice>}
+      {search.isError && <Problem error={search.error} heading="h2" onRetry={() => void search.refetch()} />}
       {!q && (
         <p className="text-graphite-soft">
           Type what you are looking for. Trade words work: HT or B+, heater or filament, slow-blow or T fuse,

@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { SortingState } from '@tanstack/react-table';
 import { PROCEDURE_PAGE_SIZES } from '@shared/schemas/procedures';
+import { Problem } from '@/components/errors/problem';
 import { Notice } from '@/components/ui/notice';
 import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
@@ -85,7 +86,7 @@ export default function ProceduresPage() {
         <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
       </div>
       {query.isPending && <p className="text-graphite-soft">Loading…</p>}
-      {query.isError && <Notice tone="error">{query.error.message}</Notice>}
+      {query.isError && <Problem error={query.error} heading="h2" onRetry={() => void query.refetch()} />}
       {data && (
         <>
           <div className="flex flex-wrap items-center gap-3 text-sm text-graphite-soft">
