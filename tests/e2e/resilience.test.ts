@@ -41,6 +41,40 @@ describe('a page that cannot load its data, and an upload after the token moved 
     await page.context().close();
   });
 
+  it('a panel that cannot load (the sign-offs) says so in its own region; the rest of the revision stays, and a retry brings it back', async () => {
+    const page = await app.openPage();
+    await app.signIn(page, 'tom');
+    const revisionId = await page.evaluate(async () => {
+      const list = await (await fetch('/api/procedures')).json();
+      return list.procedures.find(
+        (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
+      ).approved.id as string;
+    });
+    const signatures = '**/api/revisions/*/signatures';
+    await page.route(signatures, (route) =>
+      route.fulfill({
+        status: 503,
+        contentType: 'application/json',
+        body: JSON.stringify({ error: 'Sign-offs are being checked; try again in a minute.' }),
+      }),
+    );
+    await page.goto(`${app.url}/revisions/${revisionId}`);
+    const region = page.getByRole('region', { name: 'Sign-offs' });
+    await region.getByRole('heading', { name: 'Sign-offs ran into a problem' }).waitFor();
+    expect(await region.textContent()).toContain('Sign-offs are being checked; try again in a minute.');
+    // The rest of the page is still there: the procedure's title and the way to start a bench run.
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toMatch(/\S/);
+    expect(await page.getByRole('link', { name: 'Start a bench run on this revision' }).count()).toBe(1);
+    await page.unroute(signatures);
+    await region.getByRole('button', { name: 'Try again' }).click();
+    await page
+      .getByText(/Approved by /)
+      .first()
+      .waitFor();
+    expect(await page.getByRole('heading', { name: 'Sign-offs ran into a problem' }).count()).toBe(0);
+    await page.context().close();
+  });
+
   it('a unit photo sent with a stale token (signed out and in again in another tab) is sent again and kept', async () => {
     const first = await app.openPage();
     await app.signIn(first, 'priya');

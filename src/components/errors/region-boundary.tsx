@@ -23,6 +23,7 @@ export class RegionBoundary extends Component<{ label: string; children: ReactNo
       <div aria-label={this.props.label} role="region">
         <Problem
           error={this.state.error}
+          subject={this.props.label}
           heading="h2"
           onRetry={() => this.setState({ failed: false, error: null })}
         />
