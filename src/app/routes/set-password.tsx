@@ -6,6 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
 import { useInvitation, useSetPassword } from '@/features/auth/api/set-password';
 import { showServerError, useZodForm } from '@/lib/form';
 
@@ -33,7 +34,7 @@ export default function SetPassword() {
       {setPassword.isSuccess ? (
         <Notice tone="success">
           Your password is set.{' '}
-          <Link to="/sign-in" className="underline">
+          <Link to={paths.signIn.href()} className="underline">
             Sign in
           </Link>
           .

@@ -52,7 +52,7 @@ export function AppLayout() {
       </a>
       <header className="no-print border-b border-rule bg-paper-deep">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
-          <NavLink to="/" className="text-lg font-semibold tracking-tight text-accent-deep">
+          <NavLink to={paths.home.href()} className="text-lg font-semibold tracking-tight text-accent-deep">
             Benchwright
           </NavLink>
           <nav aria-label="Main" className="flex flex-wrap gap-1">

@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { openApiKeys } from './keys';
 
 /** The parts of an OpenAPI 3.1 schema object the reference page shows. */
 export interface SchemaObject {
@@ -43,7 +44,7 @@ export interface OpenApiDocument {
 
 export const openApiQueryOptions = () =>
   queryOptions({
-    queryKey: ['openapi'],
+    queryKey: openApiKeys.document(),
     queryFn: () => api.get<OpenApiDocument>('/api/openapi.json'),
     staleTime: Infinity,
   });

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { RevisionView } from '@shared/schemas/procedures';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
@@ -27,7 +28,9 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
 
   return (
     <section aria-label="Review and sign-off" className="flex flex-col gap-3">
-      <SignatureList revisionId={revision.id} />
+      <RegionBoundary label="Sign-offs">
+        <SignatureList revisionId={revision.id} />
+      </RegionBoundary>
       <div className="flex flex-wrap items-center gap-3">
         {revision.state === 'draft' && hasRole(user, 'author') && (
           <Button
