@@ -30,7 +30,12 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
+        test: {
+          name: 'unit',
+          // src/ tests run headless: no browser, no DOM (the editor's TipTap runs without one).
+          include: ['tests/shared/**/*.test.ts', 'tests/src/**/*.test.ts'],
+          environment: 'node',
+        },
       },
       {
         extends: true,

@@ -1,3 +1,4 @@
+import { openApiRoute } from './http/openapi';
 import type { RouteDef } from './http/route';
 import { attachmentRoutes } from './modules/attachments/attachments.routes';
 import { accountRoutes } from './modules/auth/account.routes';
@@ -26,4 +27,5 @@ export const routeTable: readonly RouteDef[] = [
   ...outboxRoutes,
   ...unitRoutes,
   ...runRoutes,
+  openApiRoute(() => routeTable),
 ];

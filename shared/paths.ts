@@ -24,6 +24,7 @@ export const paths = {
   },
   audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
   outbox: { pattern: '/admin/outbox', href: () => '/admin/outbox' },
+  apiReference: { pattern: '/admin/api', href: () => '/admin/api' },
   units: { pattern: '/units', href: () => '/units' },
   unit: { pattern: '/units/:unitId', href: (id: string) => `/units/${id}` },
   runs: { pattern: '/runs', href: () => '/runs' },

@@ -77,12 +77,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   const e = err as { type?: string; status?: number; code?: string; message?: string };
   if (e.type === 'entity.parse.failed') {
-    res
-      .status(400)
-      .json({
-        error: 'The request body is not valid JSON.',
-        fields: [{ field: 'body', reason: 'invalid JSON' }],
-      });
+    res.status(400).json({
+      error: 'The request body is not valid JSON.',
+      fields: [{ field: 'body', reason: 'invalid JSON' }],
+    });
     return;
   }
   if (e.type === 'entity.too.large') {
@@ -91,12 +89,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (e.code === 'EBADCSRFTOKEN') {
     req.log?.warn({ path: req.path }, 'refused: missing or wrong CSRF token');
-    res
-      .status(403)
-      .json({
-        error: 'This form has expired or did not come from Benchwright; reload the page and try again.',
-        code: 'csrf',
-      });
+    res.status(403).json({
+      error: 'This form has expired or did not come from Benchwright; reload the page and try again.',
+      code: 'csrf',
+    });
     return;
   }
   if (isDatabaseUnavailable(err)) {

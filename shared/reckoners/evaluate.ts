@@ -5,7 +5,7 @@
  */
 import { runReckoner } from './validate';
 import { getReckoner } from './registry';
-import { isParam, isRef, specAt, withFollowedParams } from './field-paths';
+import { BLOCK_NAME, BLOCK_NAME_RULE, isParam, isRef, specAt, withFollowedParams } from './field-paths';
 import { unitWithMeasure } from './measures';
 import { paramSpec } from './params';
 import type { Caution, FieldError, FieldSpec, Measure, Output, ParamKey } from './types';
@@ -47,8 +47,6 @@ export interface ProcedureResult {
   /** Evaluation order actually used. */
   order: string[];
 }
-
-const BLOCK_NAME = /^[A-Za-z][A-Za-z0-9_-]*$/;
 
 interface Reference {
   field: string;
@@ -174,12 +172,7 @@ export function evaluateProcedure(
   const duplicates = new Set<string>();
   blocks.forEach((b, i) => {
     if (typeof b?.name !== 'string' || !BLOCK_NAME.test(b.name)) {
-      fail(i, [
-        {
-          field: 'name',
-          reason: 'a block name must start with a letter and use only letters, digits, "-" and "_"',
-        },
-      ]);
+      fail(i, [{ field: 'name', reason: `a block name ${BLOCK_NAME_RULE}` }]);
       return;
     }
     if (byName.has(b.name)) duplicates.add(b.name);

@@ -11,6 +11,13 @@ export function specAt(fields: readonly FieldSpec[], path: readonly string[]): F
   return undefined;
 }
 
+/**
+ * The one rule for a block's name, which references to its outputs use ("bplus" in "bplus.averageDc"):
+ * the document schema and the evaluator both apply it.
+ */
+export const BLOCK_NAME = /^[A-Za-z][A-Za-z0-9_-]{0,31}$/;
+export const BLOCK_NAME_RULE = 'must start with a letter and hold only letters, digits, - or _ (at most 32)';
+
 /** A reference to another block's output: { ref: "block.output" }. */
 export function isRef(v: unknown): v is { ref: string } {
   return (

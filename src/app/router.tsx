@@ -1,13 +1,81 @@
-import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import type { ComponentType } from 'react';
+import {
+  createBrowserRouter,
+  RouterProvider,
+  type LoaderFunctionArgs,
+  type RouteObject,
+} from 'react-router-dom';
+import type { FetchQueryOptions } from '@tanstack/react-query';
 import { paths } from '@/config/paths';
 import { AppLayout } from '@/components/layouts/app-layout';
-import { RouteError } from './routes/route-error';
+import { RouteError, type WayBack } from './routes/route-error';
 import { queryClient } from '@/lib/query-client';
+import { accountQueryOptions } from '@/features/account/api/account';
+import { auditLogQueryOptions } from '@/features/audit/api/get-audit';
 import { sessionQueryOptions } from '@/features/auth/api/get-session';
+import { invitationQueryOptions } from '@/features/auth/api/set-password';
+import { outboxQueryOptions } from '@/features/outbox/api/get-outbox';
+import { signInSettingsQueryOptions } from '@/features/people/api/account-admin';
+import { peopleQueryOptions } from '@/features/people/api/get-people';
+import { procedureQueryOptions } from '@/features/procedures/api/get-procedure';
+import {
+  procedureFacetsQueryOptions,
+  proceduresQueryOptions,
+} from '@/features/procedures/api/get-procedures';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
+import { reviewQueueQueryOptions, revisionReviewQueryOptions } from '@/features/review/api/review-queries';
+import { runQueryOptions } from '@/features/runs/api/get-run';
+import { runnableProceduresQueryOptions } from '@/features/runs/api/get-runnable-procedures';
+import { runsQueryOptions } from '@/features/runs/api/get-runs';
+import { searchFromUrl, searchQueryOptions } from '@/features/search/api/search-procedures';
+import { unitQueryOptions } from '@/features/units/api/get-unit';
+import { unitTrendQueryOptions } from '@/features/units/api/get-unit-trend';
+import { unitsQueryOptions } from '@/features/units/api/get-units';
 
 // Who is signed in is needed by every page: ask at once, while the first route's code loads.
 void queryClient.prefetchQuery(sessionQueryOptions());
+
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- each page's queries have their own data types
+type AnyQuery = FetchQueryOptions<any, any, any, any>;
+type Queries = (args: LoaderFunctionArgs) => AnyQuery[] | Promise<AnyQuery[]>;
+
+/**
+ * A route loader that starts the page's queries alongside its code, so data does not wait for the
+ * chunk. Not awaited: the page shows its own loading state, keeps working from cache when the
+ * server is away (bench runs), and a failure reaches the page's error boundary through its query.
+ */
+const prefetch =
+  (queries: Queries, { signedIn = true } = {}) =>
+  (args: LoaderFunctionArgs) => {
+    // Nobody signed in: the layout sends them to sign in; asking for the page's data would only be refused.
+    if (signedIn && queryClient.getQueryData(sessionQueryOptions().queryKey)?.user === null) return null;
+    void (async () => {
+      for (const options of await queries(args))
+        void queryClient.ensureQueryData({ ...options, revalidateIfStale: true }).catch(() => undefined);
+    })().catch(() => undefined);
+    return null;
+  };
+
+/** A page in the signed-in frame: lazy code, an optional prefetching loader, its own error boundary. */
+const page = (
+  path: string,
+  load: () => Promise<{ default: ComponentType }>,
+  queries?: Queries,
+  back?: WayBack,
+): RouteObject => ({
+  path,
+  lazy: async () => ({ Component: (await load()).default }),
+  ...(queries && { loader: prefetch(queries) }),
+  errorElement: <RouteError back={back} />,
+});
+
+const id = (args: LoaderFunctionArgs, name: string) => args.params[name] ?? '';
+const searchOf = (args: LoaderFunctionArgs) => new URL(args.request.url).searchParams;
+
+const toProcedures: WayBack = { to: paths.procedures.href(), label: 'All procedures' };
+const toQueue: WayBack = { to: paths.reviewQueue.href(), label: 'Review queue' };
+const toRuns: WayBack = { to: paths.runs.href(), label: 'All bench runs' };
+const toUnits: WayBack = { to: paths.units.href(), label: 'All units' };
 
 const router = createBrowserRouter([
   {
@@ -18,92 +86,133 @@ const router = createBrowserRouter([
   {
     path: paths.setPassword.pattern,
     lazy: async () => ({ Component: (await import('./routes/set-password')).default }),
+    loader: prefetch((a) => [invitationQueryOptions(id(a, 'token'))], { signedIn: false }),
     errorElement: <RouteError />,
   },
   {
     Component: AppLayout,
     errorElement: <RouteError />,
     children: [
-      { index: true, lazy: async () => ({ Component: (await import('./routes/home')).default }) },
       {
-        path: paths.procedures.pattern,
-        lazy: async () => ({ Component: (await import('./routes/procedures/list')).default }),
+        index: true,
+        lazy: async () => ({ Component: (await import('./routes/home')).default }),
+        errorElement: <RouteError />,
       },
-      {
-        path: paths.newProcedure.pattern,
-        lazy: async () => ({ Component: (await import('./routes/procedures/new')).default }),
-      },
-      {
-        path: paths.procedure.pattern,
-        lazy: async () => ({ Component: (await import('./routes/procedures/procedure')).default }),
-      },
-      {
-        path: paths.revision.pattern,
-        // Fetch the revision alongside the page's code, not after it.
-        loader: ({ params }) => {
-          void queryClient.prefetchQuery(revisionQueryOptions(params.revisionId!));
-          return null;
+      page(
+        paths.procedures.pattern,
+        () => import('./routes/procedures/list'),
+        // The list's address rules sit beside zod schemas: imported lazily, so no schema is built in the
+        // entry before zod is told not to probe for eval (the CSP forbids it; see lib/zod-config.ts).
+        async (a) => {
+          const { procedureListFromUrl } = await import('@/features/procedures/api/list-from-url');
+          return [
+            proceduresQueryOptions(procedureListFromUrl(searchOf(a)).query),
+            procedureFacetsQueryOptions(),
+          ];
         },
-        lazy: async () => ({ Component: (await import('./routes/procedures/revision')).default }),
-      },
+      ),
+      page(paths.newProcedure.pattern, () => import('./routes/procedures/new'), undefined, toProcedures),
+      page(
+        paths.procedure.pattern,
+        () => import('./routes/procedures/procedure'),
+        (a) => [procedureQueryOptions(id(a, 'procedureId'))],
+        toProcedures,
+      ),
+      page(
+        paths.revision.pattern,
+        () => import('./routes/procedures/revision'),
+        (a) => [revisionQueryOptions(id(a, 'revisionId'))],
+        toProcedures,
+      ),
       // The editor chunk: the only importer of @tiptap/*.
-      {
-        path: paths.editRevision.pattern,
-        lazy: async () => ({ Component: (await import('./routes/procedures/edit-revision')).default }),
-      },
-      {
-        path: paths.search.pattern,
-        lazy: async () => ({ Component: (await import('./routes/search')).default }),
-      },
-      {
-        path: paths.account.pattern,
-        lazy: async () => ({ Component: (await import('./routes/account')).default }),
-      },
-      {
-        path: paths.people.pattern,
-        lazy: async () => ({ Component: (await import('./routes/admin/people')).default }),
-      },
-      {
-        path: paths.reviewQueue.pattern,
-        lazy: async () => ({ Component: (await import('./routes/review/queue')).default }),
-      },
-      {
-        path: paths.reviewRevision.pattern,
-        lazy: async () => ({ Component: (await import('./routes/review/revision')).default }),
-      },
-      {
-        path: paths.audit.pattern,
-        lazy: async () => ({ Component: (await import('./routes/admin/audit')).default }),
-      },
-      {
-        path: paths.outbox.pattern,
-        lazy: async () => ({ Component: (await import('./routes/admin/outbox')).default }),
-      },
-      {
-        path: paths.units.pattern,
-        lazy: async () => ({ Component: (await import('./routes/units/units')).default }),
-      },
-      {
-        path: paths.unit.pattern,
-        lazy: async () => ({ Component: (await import('./routes/units/unit')).default }),
-      },
-      {
-        path: paths.runs.pattern,
-        lazy: async () => ({ Component: (await import('./routes/runs/runs')).default }),
-      },
-      {
-        path: paths.newRun.pattern,
-        lazy: async () => ({ Component: (await import('./routes/runs/new-run')).default }),
-      },
-      {
-        path: paths.run.pattern,
-        lazy: async () => ({ Component: (await import('./routes/runs/run')).default }),
-      },
-      {
-        path: paths.runSheet.pattern,
-        lazy: async () => ({ Component: (await import('./routes/runs/run-sheet')).default }),
-      },
-      { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).default }) },
+      page(
+        paths.editRevision.pattern,
+        () => import('./routes/procedures/edit-revision'),
+        (a) => [revisionQueryOptions(id(a, 'revisionId'))],
+        toProcedures,
+      ),
+      page(
+        paths.search.pattern,
+        () => import('./routes/search'),
+        (a) => {
+          const search = searchFromUrl(searchOf(a));
+          return search.q.trim() ? [searchQueryOptions(search)] : [];
+        },
+      ),
+      page(
+        paths.account.pattern,
+        () => import('./routes/account'),
+        () => [accountQueryOptions()],
+      ),
+      page(
+        paths.people.pattern,
+        () => import('./routes/admin/people'),
+        () => [peopleQueryOptions(), signInSettingsQueryOptions()],
+      ),
+      page(
+        paths.reviewQueue.pattern,
+        () => import('./routes/review/queue'),
+        () => [reviewQueueQueryOptions()],
+      ),
+      page(
+        paths.reviewRevision.pattern,
+        () => import('./routes/review/revision'),
+        (a) => [revisionReviewQueryOptions(id(a, 'revisionId'))],
+        toQueue,
+      ),
+      page(
+        paths.audit.pattern,
+        () => import('./routes/admin/audit'),
+        () => [auditLogQueryOptions({ page: 1 }), peopleQueryOptions()],
+      ),
+      page(
+        paths.outbox.pattern,
+        () => import('./routes/admin/outbox'),
+        () => [outboxQueryOptions('', 1)],
+      ),
+      page(paths.apiReference.pattern, () => import('./routes/admin/api-reference')),
+      page(
+        paths.units.pattern,
+        () => import('./routes/units/units'),
+        () => [unitsQueryOptions()],
+      ),
+      page(
+        paths.unit.pattern,
+        () => import('./routes/units/unit'),
+        (a) => [unitQueryOptions(id(a, 'unitId')), unitTrendQueryOptions(id(a, 'unitId'))],
+        toUnits,
+      ),
+      page(
+        paths.runs.pattern,
+        () => import('./routes/runs/runs'),
+        () => (['in_progress', 'signed', 'abandoned'] as const).map((status) => runsQueryOptions({ status })),
+      ),
+      page(
+        paths.newRun.pattern,
+        () => import('./routes/runs/new-run'),
+        (a) => {
+          const revision = searchOf(a).get('revision');
+          return [
+            unitsQueryOptions(),
+            runnableProceduresQueryOptions(),
+            ...(revision ? [revisionQueryOptions(revision)] : []),
+          ];
+        },
+        toRuns,
+      ),
+      page(
+        paths.run.pattern,
+        () => import('./routes/runs/run'),
+        (a) => [runQueryOptions(id(a, 'runId'))],
+        toRuns,
+      ),
+      page(
+        paths.runSheet.pattern,
+        () => import('./routes/runs/run-sheet'),
+        (a) => [runQueryOptions(id(a, 'runId'))],
+        toRuns,
+      ),
+      page('*', () => import('./routes/not-found')),
     ],
   },
 ]);

@@ -1,6 +1,8 @@
 import type { Editor } from '@tiptap/core';
+import { NodeSelection } from '@tiptap/pm/state';
 import { listReckoners } from '@shared/reckoners';
 import { DEFAULT_DISCHARGE_THRESHOLD } from './extensions/check-step/check-step';
+import { focusBlock } from './focus-block';
 
 export interface CatalogEntry {
   key: string;
@@ -9,6 +11,16 @@ export interface CatalogEntry {
   /** Runs at the current selection; upload entries instead ask for a file first. */
   insert?: (editor: Editor) => boolean;
   upload?: 'image' | 'file';
+}
+
+/** A check step's command selects the new step; the caret then goes to its text, once its form is drawn. */
+function intoStepText(editor: Editor, inserted: boolean): boolean {
+  const sel = editor.state.selection;
+  if (inserted && sel instanceof NodeSelection) {
+    const id = String(sel.node.attrs.id);
+    requestAnimationFrame(() => focusBlock(editor, id, 'textarea'));
+  }
+  return inserted;
 }
 
 /** Everything the "Insert block" list offers, in the order shown. */
@@ -30,38 +42,41 @@ export function blockCatalog(): CatalogEntry[] {
       key: 'check',
       label: 'Check step',
       hint: 'Something the technician confirms by ticking',
-      insert: (e) => e.chain().focus().insertCheckStep().run(),
+      insert: (e) => intoStepText(e, e.chain().focus().insertCheckStep().run()),
     },
     {
       key: 'check:discharge',
       label: 'Discharge verified',
       hint: 'A check step: capacitors measured below the safe voltage before touching',
       insert: (e) =>
-        e
-          .chain()
-          .focus()
-          .insertCheckStep(
-            'Capacitors discharged below 60 V, verified with a meter at every filter node before touching anything inside.',
-            {
-              kind: 'discharge-verified',
-              threshold: DEFAULT_DISCHARGE_THRESHOLD,
-            },
-          )
-          .run(),
+        intoStepText(
+          e,
+          e
+            .chain()
+            .focus()
+            .insertCheckStep(
+              'Capacitors discharged below 60 V, verified with a meter at every filter node before touching anything inside.',
+              { kind: 'discharge-verified', threshold: DEFAULT_DISCHARGE_THRESHOLD },
+            )
+            .run(),
+        ),
     },
     {
       key: 'check:wait',
       label: 'Wait step',
       hint: 'A check step: wait a stated time, for the bleeder or the discharge probe',
       insert: (e) =>
-        e
-          .chain()
-          .focus()
-          .insertCheckStep('Switched off: wait for the bleeder before touching.', {
-            kind: 'wait',
-            seconds: 60,
-          })
-          .run(),
+        intoStepText(
+          e,
+          e
+            .chain()
+            .focus()
+            .insertCheckStep('Switched off: wait for the bleeder before touching.', {
+              kind: 'wait',
+              seconds: 60,
+            })
+            .run(),
+        ),
     },
     {
       key: 'hazard',

@@ -1,4 +1,5 @@
 import { MutationCache, QueryCache, QueryClient } from '@tanstack/react-query';
+import { authKeys } from '@/features/auth/api/keys';
 import { ApiError } from './api-client';
 
 /**
@@ -7,7 +8,7 @@ import { ApiError } from './api-client';
  */
 const followEnrolment = (err: unknown) => {
   if (err instanceof ApiError && err.body.code === 'second-factor-enrolment')
-    void queryClient.invalidateQueries({ queryKey: ['session'] });
+    void queryClient.invalidateQueries({ queryKey: authKeys.session });
 };
 
 /** The one query cache; route loaders warm it so data and code load side by side. */

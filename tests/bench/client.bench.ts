@@ -148,13 +148,11 @@ try {
     // Where the time went, once: the page's own resource timings (the chain html → JS → API).
     if (i === LOAD_RUNS - 1) {
       const entries = await page.evaluate(() =>
-        performance
-          .getEntriesByType('resource')
-          .map((e) => ({
-            name: new URL(e.name).pathname,
-            start: e.startTime,
-            end: (e as PerformanceResourceTiming).responseEnd,
-          })),
+        performance.getEntriesByType('resource').map((e) => ({
+          name: new URL(e.name).pathname,
+          start: e.startTime,
+          end: (e as PerformanceResourceTiming).responseEnd,
+        })),
       );
       const nav = await page.evaluate(
         () => (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming).responseEnd,

@@ -171,14 +171,24 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     await toEnd();
     await insertBlock('hazard note');
     const note = page.locator('.hazard-note').last();
-    await note.locator('.hazard-note-text').click();
+    // The cursor lands in the new note's text: no click needed to write it.
     await page.keyboard.type('Live from here: one hand, isolation transformer.');
+    expect(await note.locator('.hazard-note-text').textContent()).toBe(
+      'Live from here: one hand, isolation transformer.',
+    );
     await note.getByLabel('Work one hand only').check();
     await note.getByLabel('Isolation transformer').check();
     await toEnd();
     await insertBlock('check step');
     const live = block('Check step').last();
-    await live.getByLabel('The technician confirms').fill('Series lamp dims within 30 s.');
+    // The caret goes to the new step's text.
+    await expect
+      .poll(() => live.getByLabel('The technician confirms').evaluate((e) => e === document.activeElement))
+      .toBe(true);
+    await page.keyboard.type('Series lamp dims within 30 s.');
+    expect(await live.getByLabel('The technician confirms').inputValue()).toBe(
+      'Series lamp dims within 30 s.',
+    );
     await live.getByLabel('Live work (unit powered)').check();
     // Now a live step follows the only discharge verification; the reading before the note stays unguarded.
     await expect.poll(() => check('discharge-check-missing').count()).toBe(1);

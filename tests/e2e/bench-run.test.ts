@@ -47,6 +47,11 @@ describe('a bench run in Chromium', () => {
     const value = await procedureSelect
       .locator('option', { hasText: 'TC-18 combo: first power-up' })
       .getAttribute('value');
+    // Started too soon, the form says beside each field what is missing or out of range.
+    await page.getByLabel('Measured mains (V)').fill('500 V');
+    await page.getByRole('button', { name: 'Start the bench run' }).click();
+    await page.getByRole('alert').filter({ hasText: 'choose a procedure' }).waitFor();
+    await page.getByRole('alert').filter({ hasText: 'must be at most' }).waitFor();
     await procedureSelect.selectOption(value!);
     await page.getByLabel('Measured mains (V)').fill('236 V');
     await page.getByLabel('Mains frequency (Hz)').fill('50');
@@ -70,6 +75,7 @@ describe('a bench run in Chromium', () => {
     await second.getByText('Acknowledge the hazard note above before this step.').waitFor();
 
     let outReading = '';
+    const outNote = 'Reservoir capacitor bulging; replaced after this run.';
     const last = steps[steps.length - 1]!;
     for (const step of steps.slice(0, -1)) {
       const card = page.locator(`[data-step-id="${step.id}"]`);
@@ -86,8 +92,11 @@ describe('a bench run in Chromium', () => {
         if (!outReading && band) {
           // One reading well above its band: the mark shows before it is sent.
           outReading = step.id;
+          await card.getByRole('button', { name: 'Record reading' }).click();
+          await card.getByText('type the reading first').waitFor();
           await input.fill(`${(high * 1.3).toPrecision(4)}`);
           await card.locator('[data-mark="out"]').first().waitFor();
+          await card.getByRole('textbox', { name: 'Note (optional)' }).fill(outNote);
         } else {
           await input.fill(`${((low + high) / 2).toPrecision(5)}`);
         }
@@ -135,6 +144,8 @@ describe('a bench run in Chromium', () => {
     await page.getByRole('heading', { name: /^Run sheet: TC-18 combo/ }).waitFor();
     await page.locator('[data-run-out]').waitFor();
     await page.locator(`[data-reading-row="${outReading}"] [data-mark="out"]`).waitFor();
+    // The technician's note on the out-of-band reading is on the sheet, in its row (as in the PDF).
+    await page.locator(`[data-reading-row="${outReading}"] [data-reading-note]`).getByText(outNote).waitFor();
     expect(await page.locator('[data-reading-row]').count()).toBe(
       steps.filter((s) => s.kind === 'reading').length,
     );

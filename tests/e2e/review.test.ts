@@ -81,6 +81,15 @@ describe('review and sign-off in Chromium', () => {
     await tolerance.waitFor();
     expect(await tolerance.innerText()).toMatch(/±10 %[\s\S]*±12 %/);
 
+    // Returning needs a comment: signing without one says so beside the field.
+    await reviewer.getByRole('button', { name: 'Return with comments…' }).click();
+    const returning = reviewer.getByRole('dialog');
+    await returning.getByLabel('Your password').fill(demo.marek.password);
+    await returning.getByRole('button', { name: 'Sign and return' }).click();
+    await returning.getByRole('alert').filter({ hasText: 'say what needs to change' }).waitFor();
+    await returning.getByRole('button', { name: 'Cancel' }).click();
+    await returning.waitFor({ state: 'hidden' });
+
     // A wrong password is refused and nothing is signed.
     await reviewer.getByRole('button', { name: 'Approve…' }).click();
     const dialog = reviewer.getByRole('dialog');

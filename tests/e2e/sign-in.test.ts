@@ -52,6 +52,17 @@ describe('signing in as each demo role in Chromium', () => {
     await page.getByRole('link', { name: 'People', exact: true }).first().click();
     await page.getByRole('heading', { name: 'People' }).waitFor();
     await page.getByLabel('Name').fill('Ada Fenwick');
+    // Checked in the page with the server's rules, beside the field: nothing is sent.
+    await page.getByLabel('E-mail').fill('ada at tallowcreek');
+    await page.getByRole('button', { name: 'Create invitation' }).click();
+    await page.getByRole('alert').filter({ hasText: 'not a valid e-mail address' }).waitFor();
+    // A refusal the server alone can make lands beside the field it is about.
+    await page.getByLabel('E-mail').fill(demo.tom.email);
+    await page.getByRole('button', { name: 'Create invitation' }).click();
+    await page
+      .getByRole('alert')
+      .filter({ hasText: `${demo.tom.email} already has an account.` })
+      .waitFor();
     await page.getByLabel('E-mail').fill('ada@tallowcreek.example');
     await page.getByRole('button', { name: 'Create invitation' }).click();
     await page.getByText('went to ada@tallowcreek.example').waitFor();

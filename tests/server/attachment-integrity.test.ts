@@ -4,10 +4,10 @@
 import { createHash } from 'node:crypto';
 import { readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { inflateSync } from 'node:zlib';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
+import { pdfBody, pdfText } from '../support/pdf-text';
 import { pngOf } from '../support/png';
 import { approve, doc, fuseBlock, inReview, paragraph, reading } from './review-support';
 import { benchProcedure, entry, newUnit, startRun } from './runs-fixtures';
@@ -158,26 +158,6 @@ describe('a stored file altered or removed on disk', () => {
   });
 });
 
-/** The text a PDF shows, from its deflated content streams (ISO 32000-1 §7.3.8, §9.4.3: hex strings shown by Tj/TJ). */
-function pdfText(pdf: Buffer) {
-  const out: string[] = [];
-  const raw = pdf.toString('latin1');
-  for (const m of raw.matchAll(/stream\r?\n/g)) {
-    const start = m.index! + m[0].length;
-    const end = raw.indexOf('endstream', start);
-    let text: string;
-    try {
-      text = inflateSync(pdf.subarray(start, end)).toString('latin1');
-    } catch {
-      continue; // not a deflated stream (fonts, images)
-    }
-    for (const s of text.matchAll(/<([0-9a-fA-F]+)>/g))
-      out.push(Buffer.from(s[1]!, 'hex').toString('latin1'));
-    for (const s of text.matchAll(/\(((?:\\.|[^\\)])*)\)/g)) out.push(s[1]!);
-  }
-  return out.join('');
-}
-
 describe('run photos', () => {
   async function signedRunWithPhoto() {
     const tom = await t.as('tom');
@@ -205,26 +185,19 @@ describe('run photos', () => {
   }
 
   const pdfOf = async (c: Client, runId: string) =>
-    (
-      await c
-        .get(`/api/runs/${runId}/sheet.pdf`)
-        .buffer(true)
-        .parse((r, cb) => {
-          const chunks: Buffer[] = [];
-          r.on('data', (c: Buffer) => chunks.push(c));
-          r.on('end', () => cb(null, Buffer.concat(chunks)));
-        })
-    ).body as Buffer;
+    pdfText((await c.get(`/api/runs/${runId}/sheet.pdf`).buffer(true).parse(pdfBody)).body as Buffer).join(
+      ' ',
+    );
 
   it('a photo altered after signing shows the run sheet and its PDF as not verified', async () => {
     const { tom, runId, bytes } = await signedRunWithPhoto();
     const signed = await tom.post(`/api/runs/${runId}/sign`).send({ password: demo.tom.password });
     expect(signed.status).toBe(200);
     expect(signed.body.run.signature.verified).toBe(true);
-    expect(pdfText(await pdfOf(tom, runId))).toMatch(/yes, the stored content matches the signed hash/);
+    expect(await pdfOf(tom, runId)).toContain('Yes: the stored run content matches the signed hash.');
     writeFileSync(storedFileOf(bytes), uniquePng());
     expect((await tom.get(`/api/runs/${runId}`)).body.run.signature.verified).toBe(false);
-    expect(pdfText(await pdfOf(tom, runId))).toMatch(/NO: the content does not match the signed hash/);
+    expect(await pdfOf(tom, runId)).toContain('NO: the stored run content does not match the signed hash.');
   });
 
   it('a run whose photo is missing cannot be signed (409)', async () => {

@@ -4,7 +4,7 @@
 //   author     — writes and edits drafts, submits them, sees and writes review comments;
 //   reviewer   — reviews submitted revisions, approves or returns them (signed), withdraws from use;
 //   admin      — invites and deactivates people, assigns roles, mails password resets, sets the shop's sign-in
-//                rules, reads the audit log and the mail outbox.
+//                rules, reads the audit log, the mail outbox and the API description.
 // Everyone manages their own password, sessions and authenticator.
 // Everyone signed in reads what has been approved, the unit register and bench runs.
 //
@@ -325,6 +325,12 @@ export const MATRIX: readonly MatrixRow[] = [
   {
     method: 'get',
     path: '/mail/outbox',
+    probe: {},
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: '/openapi.json',
     probe: {},
     expect: { anonymous: 401, technician: 403, author: 403, reviewer: 403, admin: 200 },
   },

@@ -243,15 +243,13 @@ describe('fields a caller may not set', () => {
       ],
       [
         'save a draft as approved',
-        hal
-          .put(`/api/revisions/${d.revision.id}`)
-          .send({
-            ...d.meta,
-            params,
-            lockVersion: d.revision.lockVersion,
-            document: { type: 'doc', content: [] },
-            state: 'approved',
-          }),
+        hal.put(`/api/revisions/${d.revision.id}`).send({
+          ...d.meta,
+          params,
+          lockVersion: d.revision.lockVersion,
+          document: { type: 'doc', content: [] },
+          state: 'approved',
+        }),
       ],
       [
         'submit straight to approved',
@@ -277,27 +275,23 @@ describe('fields a caller may not set', () => {
       ],
       [
         'a run with a state',
-        tom
-          .post('/api/runs')
-          .send({
-            revisionId: targets.approvedRevision,
-            unitId: targets.unit,
-            mainsVoltage: 230,
-            mainsFrequency: 50,
-            state: 'signed',
-          }),
+        tom.post('/api/runs').send({
+          revisionId: targets.approvedRevision,
+          unitId: targets.unit,
+          mainsVoltage: 230,
+          mainsFrequency: 50,
+          state: 'signed',
+        }),
       ],
       ['a person patched with role (singular)', admin.patch(`/api/people/${tomId}`).send({ role: 'admin' })],
       [
         'an invitation with a state',
-        admin
-          .post('/api/people/invitations')
-          .send({
-            email: 'overpost@tallowcreek.example',
-            displayName: 'Over Post',
-            roles: ['technician'],
-            state: 'active',
-          }),
+        admin.post('/api/people/invitations').send({
+          email: 'overpost@tallowcreek.example',
+          displayName: 'Over Post',
+          roles: ['technician'],
+          state: 'active',
+        }),
       ],
       [
         'a sign-in claiming roles',

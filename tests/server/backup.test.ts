@@ -77,15 +77,13 @@ describe('backup and restore', () => {
     const legacy = pngOf(2, 9, 17);
     writeFileSync(path.join(t.uploadDir, 'a'.repeat(32)), legacy);
     const [person] = await t.db.select({ id: people.id }).from(people).limit(1);
-    await t.db
-      .insert(attachments)
-      .values({
-        originalName: 'old.png',
-        mediaType: 'image/png',
-        size: legacy.length,
-        sha256: sha256(legacy),
-        uploadedBy: person!.id,
-      });
+    await t.db.insert(attachments).values({
+      originalName: 'old.png',
+      mediaType: 'image/png',
+      size: legacy.length,
+      sha256: sha256(legacy),
+      uploadedBy: person!.id,
+    });
 
     const file = createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
     expect(path.basename(file)).toMatch(/^benchwright-\d{4}-\d{2}-\d{2}T.*\.tar$/);

@@ -57,13 +57,11 @@ describe('control characters', () => {
 
   it('unit notes may span lines; a unit serial may not', async () => {
     const tom = await t.as('tom');
-    const ok = await tom
-      .post('/api/units')
-      .send({
-        model: 'TC-18',
-        serial: 'TC18-LINES',
-        notes: 'Arrived with a cracked cabinet.\nCustomer wants the old caps back.',
-      });
+    const ok = await tom.post('/api/units').send({
+      model: 'TC-18',
+      serial: 'TC18-LINES',
+      notes: 'Arrived with a cracked cabinet.\nCustomer wants the old caps back.',
+    });
     expect(ok.status).toBe(201);
     const bad = await tom.post('/api/units').send({ model: 'TC-18', serial: 'TC18\nX' });
     expect(bad.status).toBe(400);
@@ -79,17 +77,15 @@ describe('size and depth', () => {
       .send({ title: 'Deep', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
     let node: Record<string, unknown> = { type: 'paragraph' };
     for (let i = 0; i < 3000; i++) node = { type: 'blockquote', content: [node] };
-    const res = await hal
-      .put(`/api/revisions/${created.body.revision.id}`)
-      .send({
-        title: 'Deep',
-        equipmentFamily: 'Guitar amplifier',
-        equipmentModel: 'TC-18',
-        tags: [],
-        params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
-        lockVersion: 1,
-        document: { type: 'doc', content: [node] },
-      });
+    const res = await hal.put(`/api/revisions/${created.body.revision.id}`).send({
+      title: 'Deep',
+      equipmentFamily: 'Guitar amplifier',
+      equipmentModel: 'TC-18',
+      tags: [],
+      params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+      lockVersion: 1,
+      document: { type: 'doc', content: [node] },
+    });
     // Refused before any validator recurses into it (too deep to parse, or beyond the depth limit).
     expect(res.status).toBe(400);
     expect(res.body.error).toMatch(/nested|not valid JSON/);
@@ -102,17 +98,15 @@ describe('size and depth', () => {
       .send({ title: 'Deepish', equipmentFamily: 'Guitar amplifier', equipmentModel: 'TC-18', tags: [] });
     let node: Record<string, unknown> = { type: 'paragraph' };
     for (let i = 0; i < 28; i++) node = { type: 'blockquote', content: [node] };
-    const res = await hal
-      .put(`/api/revisions/${created.body.revision.id}`)
-      .send({
-        title: 'Deepish',
-        equipmentFamily: 'Guitar amplifier',
-        equipmentModel: 'TC-18',
-        tags: [],
-        params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
-        lockVersion: 1,
-        document: { type: 'doc', content: [node] },
-      });
+    const res = await hal.put(`/api/revisions/${created.body.revision.id}`).send({
+      title: 'Deepish',
+      equipmentFamily: 'Guitar amplifier',
+      equipmentModel: 'TC-18',
+      tags: [],
+      params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+      lockVersion: 1,
+      document: { type: 'doc', content: [node] },
+    });
     expect(res.status).toBe(400);
   });
 });

@@ -27,13 +27,11 @@ describe('people administration', () => {
 
   it('invites a person, who sets a password from the one-time link and signs in', async () => {
     const admin = await t.as('admin');
-    const invite = await admin
-      .post('/api/people/invitations')
-      .send({
-        email: 'Nell@TallowCreek.example',
-        displayName: 'Nell Harrow',
-        roles: ['technician', 'author'],
-      });
+    const invite = await admin.post('/api/people/invitations').send({
+      email: 'Nell@TallowCreek.example',
+      displayName: 'Nell Harrow',
+      roles: ['technician', 'author'],
+    });
     expect(invite.status).toBe(201);
     expect(invite.body.person).toMatchObject({ email: 'nell@tallowcreek.example', hasPassword: false });
     expect(JSON.stringify(invite.body)).not.toContain('/set-password/');

@@ -96,17 +96,15 @@ describe('the procedure list, paged on the server', () => {
 
   it('a technician sees approved work only; staff see drafts as the latest revision, and the approved one beside it', async () => {
     const { c, revision } = await newDraft(t, 'hal');
-    const renamed = await c
-      .put(`/api/revisions/${revision.id}`)
-      .send({
-        title: 'Listing draft only',
-        equipmentFamily: 'Organ',
-        equipmentModel: 'LD-1',
-        tags: ['draft'],
-        params,
-        lockVersion: revision.lockVersion,
-        document: goodDoc(),
-      });
+    const renamed = await c.put(`/api/revisions/${revision.id}`).send({
+      title: 'Listing draft only',
+      equipmentFamily: 'Organ',
+      equipmentModel: 'LD-1',
+      tags: ['draft'],
+      params,
+      lockVersion: revision.lockVersion,
+      document: goodDoc(),
+    });
     expect(renamed.status).toBe(200);
     const staff = await walk('hal', 'family=Organ', 200);
     const mine = staff.items.find((p) => p.latest.id === revision.id);

@@ -2,8 +2,10 @@ import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mailOutbox } from '../../server/db/schema';
 import { startFakeSmtp } from '../../server/mail/fake-smtp';
+import type { ReceivedMail } from '../../server/mail/fake-smtp';
+import { parseMails } from '../support/parsed-mail';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
-import { approve, decodedMail, goodDoc, inReview, newDraft, params } from './review-support';
+import { approve, goodDoc, inReview, newDraft, params } from './review-support';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -21,14 +23,18 @@ async function deliverAll() {
   await t.mailer!.flush();
 }
 
-/** Messages the catcher got whose raw text mentions `needle`, by recipient. */
-const recipientsOf = (received: { to: string[]; raw: string }[], needle: string) =>
-  received
-    .filter((m) => decodedMail(m.raw).includes(needle))
-    .flatMap((m) => m.to)
-    .sort();
-const withText = (received: { to: string[]; raw: string }[], ...needles: string[]) =>
-  received.filter((m) => needles.every((n) => decodedMail(m.raw).includes(n)));
+const link = (revisionId: string) => `http://127.0.0.1/review/revisions/${revisionId}`;
+/** Messages the catcher got that link to the revision, with the subject starting `subject`. */
+const about = async (received: ReceivedMail[], revisionId: string, subject = '') =>
+  (await parseMails(received)).filter(
+    (m) => m.links.includes(link(revisionId)) && m.subject.startsWith(subject),
+  );
+/** Who was sent mail about the revision (the To headers, as the envelope delivered them). */
+const recipientsOf = async (received: ReceivedMail[], revisionId: string) => {
+  const mails = await about(received, revisionId);
+  for (const m of mails) expect(m.envelopeTo).toEqual(m.to);
+  return mails.flatMap((m) => m.to).sort();
+};
 
 describe('review mail through the outbox and a real SMTP conversation', () => {
   it('review requested reaches every active reviewer except the author and editors', async () => {
@@ -45,21 +51,20 @@ describe('review mail through the outbox and a real SMTP conversation', () => {
     ).toBe(200);
     expect((await d.c.post(`/api/revisions/${d.revision.id}/submit`).send({})).status).toBe(200);
     await deliverAll();
-    const got = recipientsOf(t.catcher!.received, `/review/revisions/${d.revision.id}`);
+    const got = await recipientsOf(t.catcher!.received, d.revision.id);
     expect(got).toEqual([demo.marek.email]);
 
     // Hal's own draft, untouched by Dee: both reviewers, never Hal, never a technician or admin.
     const solo = await inReview(t, 'hal');
     await deliverAll();
-    const soloTo = recipientsOf(t.catcher!.received, `/review/revisions/${solo.revision.id}`);
+    const soloTo = await recipientsOf(t.catcher!.received, solo.revision.id);
     expect(soloTo).toEqual([demo.dee.email, demo.marek.email].sort());
-    const msg = withText(t.catcher!.received, `/review/revisions/${solo.revision.id}`)[0]!;
-    expect(msg.raw).toMatch(/Subject: Review requested/);
-    expect(msg.raw).toMatch(/Content-Type: text\/plain/i);
-    expect(msg.raw).toMatch(/Content-Type: text\/html/i);
-    expect(decodedMail(msg.raw)).toContain(
-      `<a href="http://127.0.0.1/review/revisions/${solo.revision.id}">`,
-    );
+    const msg = (await about(t.catcher!.received, solo.revision.id))[0]!;
+    expect(msg.subject).toMatch(/^Review requested: /);
+    expect(msg.from).toBe('bench@tallowcreek.example');
+    // Plain text and HTML, each with the one link to the review.
+    expect(msg.links).toEqual([link(solo.revision.id)]);
+    expect(msg.html).toContain(`<a href="${link(solo.revision.id)}">`);
   });
 
   it('approved and returned reach the author, with the reviewer’s comment', async () => {
@@ -77,14 +82,12 @@ describe('review mail through the outbox and a real SMTP conversation', () => {
       ).status,
     ).toBe(200);
     await deliverAll();
-    const approved = withText(t.catcher!.received, 'Subject: Approved', `/review/revisions/${a.revision.id}`);
+    const approved = await about(t.catcher!.received, a.revision.id, 'Approved');
     expect(approved.map((m) => m.to)).toEqual([[demo.ruth.email]]);
-    expect(decodedMail(approved[0]!.raw)).toContain('Comment: Bleeder value confirmed on the bench.');
-    const returned = withText(t.catcher!.received, 'Subject: Returned', `/review/revisions/${r.revision.id}`);
+    expect(approved[0]!.text).toContain('Comment: Bleeder value confirmed on the bench.');
+    const returned = await about(t.catcher!.received, r.revision.id, 'Returned');
     expect(returned.map((m) => m.to)).toEqual([[demo.ruth.email]]);
-    expect(decodedMail(returned[0]!.raw)).toContain(
-      'Comment: Add the discharge check before the HT reading.',
-    );
+    expect(returned[0]!.text).toContain('Comment: Add the discharge check before the HT reading.');
   });
 
   it('with the mail server down the approval still succeeds, and the mail goes out once it is back', async () => {
@@ -110,8 +113,11 @@ describe('review mail through the outbox and a real SMTP conversation', () => {
     try {
       await t.db.update(mailOutbox).set({ nextAttemptAt: new Date() }).where(eq(mailOutbox.id, pending!.id));
       await deliverAll();
-      const delivered = withText(back.received, 'Approved while mail was down.');
+      const delivered = (await parseMails(back.received)).filter((m) =>
+        m.text.includes('Approved while mail was down.'),
+      );
       expect(delivered.map((m) => m.to)).toEqual([[demo.hal.email]]);
+      expect(delivered[0]!.links).toEqual([link(a.revision.id)]);
       const [sent] = await t.db.select().from(mailOutbox).where(eq(mailOutbox.id, pending!.id));
       expect(sent!.sentAt).not.toBeNull();
     } finally {

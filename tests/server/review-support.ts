@@ -69,17 +69,3 @@ export async function inReview(t: TestApp, author: Who = 'hal', document?: unkno
 
 export const approve = (c: Client, id: string, who: Who, comment = 'Checked against the TC-18 schematic.') =>
   c.post(`/api/revisions/${id}/approve`).send({ password: demo[who].password, comment });
-
-/** A received message's raw text with quoted-printable soft breaks and escapes undone, for searching. */
-export function decodedMail(raw: string) {
-  const joined = raw.replace(/=\r?\n/g, '');
-  const bytes: number[] = [];
-  for (let i = 0; i < joined.length; i++) {
-    const hex = joined[i] === '=' ? joined.slice(i + 1, i + 3) : '';
-    if (/^[0-9A-F]{2}$/.test(hex)) {
-      bytes.push(parseInt(hex, 16));
-      i += 2;
-    } else bytes.push(...Buffer.from(joined[i]!, 'utf8'));
-  }
-  return Buffer.from(bytes).toString('utf8');
-}

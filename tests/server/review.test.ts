@@ -49,17 +49,15 @@ describe('submitting a draft', () => {
     expect(again.body).toMatchObject({ state: 'in_review' });
     expect(again.body.error).toMatch(/in review/);
     // Drafts in review can no longer be saved.
-    const save = await c
-      .put(`/api/revisions/${revision.id}`)
-      .send({
-        title: 'Changed after submit',
-        equipmentFamily: 'Guitar amplifier',
-        equipmentModel: 'TC-18',
-        tags: [],
-        params,
-        lockVersion: 2,
-        document: goodDoc(),
-      });
+    const save = await c.put(`/api/revisions/${revision.id}`).send({
+      title: 'Changed after submit',
+      equipmentFamily: 'Guitar amplifier',
+      equipmentModel: 'TC-18',
+      tags: [],
+      params,
+      lockVersion: 2,
+      document: goodDoc(),
+    });
     expect(save.status).toBe(409);
   });
 
@@ -389,14 +387,12 @@ describe('transitions', () => {
     expect(next.status).toBe(201);
     const rev2 = next.body.revision;
     expect(rev2.number).toBe(2);
-    const saved = await first.c
-      .put(`/api/revisions/${rev2.id}`)
-      .send({
-        ...first.meta,
-        params,
-        lockVersion: rev2.lockVersion,
-        document: goodDoc('0.3 A', '±10 %', 'Bring the unit up on the variac and watch the HT.'),
-      });
+    const saved = await first.c.put(`/api/revisions/${rev2.id}`).send({
+      ...first.meta,
+      params,
+      lockVersion: rev2.lockVersion,
+      document: goodDoc('0.3 A', '±10 %', 'Bring the unit up on the variac and watch the HT.'),
+    });
     expect(saved.status).toBe(200);
     expect((await first.c.post(`/api/revisions/${rev2.id}/submit`).send({})).status).toBe(200);
 

@@ -122,26 +122,3 @@ export const entry = (c: Client, runId: string, stepId: string, body: Record<str
   c.put(`/api/runs/${runId}/entries/${stepId}`).send({ key: randomUUID(), ...body });
 
 export { tinyPng } from '../support/png';
-
-/** A message as text: quoted-printable soft breaks joined and =XX bytes decoded as UTF-8. */
-export function decodeMail(raw: string) {
-  const joined = raw.replace(/=\r?\n/g, '');
-  return Buffer.from(
-    joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))),
-    'latin1',
-  ).toString('utf8');
-}
-
-/** The catcher's messages (as text) that `match`, waiting up to five seconds for at least `atLeast`. */
-export async function mailsMatching(t: TestApp, match: (text: string) => boolean, atLeast = 1) {
-  const deadline = Date.now() + 5_000;
-  const found = () =>
-    t
-      .catcher!.received.map((m) => ({
-        to: m.to.map((a: string) => a.toLowerCase()),
-        text: decodeMail(m.raw),
-      }))
-      .filter((m) => match(m.text));
-  while (found().length < atLeast && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
-  return found();
-}

@@ -6,6 +6,10 @@ import { createDb, createPool } from '../../server/db/client';
 import { revisions, runEntryHistory, runEntries, runs } from '../../server/db/schema';
 import supertest from 'supertest';
 import { createLogger } from '../../server/logger';
+import { pdfText as spelled } from '../../server/modules/runs/pdf';
+import { runSheetModel } from '../../shared/runs/run-sheet-model';
+import { mailsMatching } from '../support/parsed-mail';
+import { pdfBody, pdfText } from '../support/pdf-text';
 import { createTestApp, demo, type TestApp } from '../support/test-app';
 import { benchProcedure, entry, newUnit, startRun, tinyPng } from './runs-fixtures';
 
@@ -332,37 +336,59 @@ describe('signing the run sheet', () => {
     expect(signed.body.run.outOfTolerance).toBe(true);
     const [stored] = await t.db.select().from(runs).where(eq(runs.id, run.id));
     expect(stored!.outOfTolerance).toBe(true);
-    const deadline = Date.now() + 5_000;
-    const mine = () =>
-      t
-        .catcher!.received.map((m) => ({ ...m, text: decodeMail(m.raw) }))
-        .filter((m) => m.text.includes('Out of tolerance') && m.text.includes(run.id));
-    while (!mine().length && Date.now() < deadline) await new Promise((r) => setTimeout(r, 50));
-    const mail = mine()[0];
+    const [mail] = await mailsMatching(
+      t.catcher!.received,
+      (m) => m.subject.startsWith('Out of tolerance: ') && m.links.some((l) => l.includes(run.id)),
+    );
     expect(mail, 'mail in the SMTP catcher').toBeTruthy();
-    expect(mail!.to.map((a: string) => a.toLowerCase())).toContain(demo.hal.email);
+    expect(mail!.to).toContain(demo.hal.email);
     expect(mail!.text).toMatch(/HT winding, each half: measured 290 V/);
     // The reviewer who approved the revision is told too; the other reviewers are not.
     expect(mail!.to).toContain(demo.marek.email);
     expect(mail!.to).not.toContain(demo.dee.email);
   });
 
-  it('exports the run sheet as a PDF', async () => {
+  it('exports the run sheet as a PDF with the rows the page shows: value, expected value and band, deviation, mark, note', async () => {
     const { tom, run } = await openRun();
-    await finishSteps(tom, run.id, '290 V');
-    await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password });
-    const res = await tom
-      .get(`/api/runs/${run.id}/sheet.pdf`)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const note = 'Reservoir capacitor bulging; replaced after this run.';
+    expect((await entry(tom, run.id, 'hz-ht-live', { done: true })).status).toBe(200);
+    expect((await entry(tom, run.id, 'rd-ht-ac', { value: '290 V', note })).status).toBe(200);
+    expect((await entry(tom, run.id, 'rd-heater', { value: '6.4' })).status).toBe(200);
+    expect((await entry(tom, run.id, 'ck-discharge', { done: true })).status).toBe(200);
+    const signed = await tom.post(`/api/runs/${run.id}/sign`).send({ password: demo.tom.password });
+    expect(signed.status).toBe(200);
+    const res = await tom.get(`/api/runs/${run.id}/sheet.pdf`).buffer(true).parse(pdfBody);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="run-sheet-TC-18-/);
+
+    const lines = pdfText(res.body as Buffer);
+    const text = lines.join(' ').replace(/\s+/g, ' ');
+    // The out-of-band reading: measured, deviation from the expected value the server worked out, mark, note.
+    const expected = readingOf(signed.body.run, 'rd-ht-ac').expected;
+    const at = lines.indexOf('290 V');
+    const [, dev, pct] = /^([+-][\d.]+) V \(([+-][\d.]+) %\)$/.exec(lines[at + 1]!) ?? [];
+    expect(Number(dev)).toBeCloseTo(290 - expected, 0);
+    expect(Number(pct)).toBeCloseTo(((290 - expected) / expected) * 100, 0);
+    expect(lines[at + 2]).toBe('out of band');
+    expect(text).toContain(`Note: ${note}`);
+    expect(text).toContain('Meaning: performed: I performed this bench run and recorded these readings.');
+    expect(text).toContain('SAFETY CAUTION Lethal voltages.');
+
+    // Every reading row of the model the page draws is in the PDF, cell by cell.
+    const readings = runSheetModel(signed.body.run).readings;
+    expect(readings.map((r) => r.markText)).toEqual(['out of band', 'in band']);
+    for (const r of readings)
+      for (const cell of [
+        r.expected,
+        r.band,
+        r.measured,
+        r.deviation,
+        r.markText,
+        r.note && `Note: ${r.note}`,
+      ])
+        if (cell) expect(text, `${r.label}: ${cell}`).toContain(spelled(cell).replace(/\s+/g, ' '));
   });
 });
 
@@ -414,15 +440,6 @@ describe('nothing lost', () => {
     }
   });
 });
-
-/** The message as text: quoted-printable soft breaks joined and =XX bytes decoded as UTF-8. */
-function decodeMail(raw: string) {
-  const joined = raw.replace(/=\r?\n/g, '');
-  return Buffer.from(
-    joined.replace(/=([0-9A-F]{2})/g, (_m, h: string) => String.fromCharCode(parseInt(h, 16))),
-    'latin1',
-  ).toString('utf8');
-}
 
 function defaultConfigOf(): Parameters<typeof createApp>[0]['config'] {
   return {

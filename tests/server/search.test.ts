@@ -80,14 +80,12 @@ describe('search over approved procedures', () => {
     const draft = await hal.post(`/api/procedures/${procedureId}/drafts`);
     expect(draft.status).toBe(201);
     const rev2 = draft.body.revision;
-    await hal
-      .put(`/api/revisions/${rev2.id}`)
-      .send({
-        ...meta,
-        params,
-        lockVersion: rev2.lockVersion,
-        document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] },
-      });
+    await hal.put(`/api/revisions/${rev2.id}`).send({
+      ...meta,
+      params,
+      lockVersion: rev2.lockVersion,
+      document: { type: 'doc', content: [para('Listen for the quibbling buzz near the choke.')] },
+    });
     const refreshed = t.search!.nextRefreshOf(procedureId);
     await approveRevision(t.db, rev2.id); // supersedes revision 1 in the same transaction
     await refreshed;

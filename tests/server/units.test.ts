@@ -52,16 +52,14 @@ describe('the unit register', () => {
     const like = await tom.get('/api/units?q=%25');
     expect(like.body.units).toHaveLength(0);
 
-    const edit = await tom
-      .put(`/api/units/${a.id}`)
-      .send({
-        model: 'TC-5R',
-        serial: 'R5-7781',
-        owner: 'Odile Pardoe',
-        jobNumber: 'J-3311',
-        notes: 'Dial lamp out',
-        lockVersion: 1,
-      });
+    const edit = await tom.put(`/api/units/${a.id}`).send({
+      model: 'TC-5R',
+      serial: 'R5-7781',
+      owner: 'Odile Pardoe',
+      jobNumber: 'J-3311',
+      notes: 'Dial lamp out',
+      lockVersion: 1,
+    });
     expect(edit.status).toBe(200);
     expect(edit.body.unit).toMatchObject({ jobNumber: 'J-3311', lockVersion: 2 });
     const stale = await (

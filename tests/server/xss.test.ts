@@ -109,15 +109,13 @@ describe('hostile text in procedures', () => {
           },
         },
       ]);
-      const res = await hal
-        .put(`/api/revisions/${id}`)
-        .send({
-          ...meta,
-          title: `Corpus ${batch[0]!.slice(0, 100)}`.trim().padEnd(3, '.'),
-          params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
-          lockVersion: lock,
-          document: { type: 'doc', content },
-        });
+      const res = await hal.put(`/api/revisions/${id}`).send({
+        ...meta,
+        title: `Corpus ${batch[0]!.slice(0, 100)}`.trim().padEnd(3, '.'),
+        params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+        lockVersion: lock,
+        document: { type: 'doc', content },
+      });
       statuses.set(res.status, (statuses.get(res.status) ?? 0) + 1);
       expect([200, 400], `batch at ${i}: ${JSON.stringify(res.body).slice(0, 200)}`).toContain(res.status);
       if (res.status === 200) {

@@ -1,6 +1,7 @@
 import { desc, sql } from 'drizzle-orm';
 import type { Db } from '../../server/db/client';
 import { mailOutbox } from '../../server/db/schema';
+import { linksIn, setPasswordToken } from './parsed-mail';
 
 /**
  * The token of the newest set-password link mailed to `email`, read from the mail queued for them
@@ -13,8 +14,8 @@ export async function setPasswordTokenMailedTo(db: Db, email: string) {
     .where(sql`${email.toLowerCase()} = any(${mailOutbox.to})`)
     .orderBy(desc(mailOutbox.createdAt));
   for (const row of rows) {
-    const m = /\/set-password\/([A-Za-z0-9_-]{20,})/.exec(row.text);
-    if (m) return m[1]!;
+    const token = setPasswordToken({ links: linksIn(row.text) });
+    if (token) return token;
   }
   throw new Error(`no set-password link was mailed to ${email}`);
 }

@@ -4,8 +4,11 @@ import type { Response } from 'superagent';
 /**
  * The text a PDF from pdfkit draws, one line per text-showing operator: each content stream is
  * inflated (zlib) and the hex strings of every `[…] TJ` array are decoded (the built-in fonts use
- * single-byte WinAnsi codes). Enough to check what a run sheet names, without a PDF library.
+ * single-byte WinAnsi codes, ISO 32000-1 Annex D: windows-1252). Enough to check what a run sheet
+ * names, without a PDF library.
  */
+const winAnsi = new TextDecoder('windows-1252');
+
 export function pdfText(pdf: Buffer): string[] {
   const raw = pdf.toString('latin1');
   const lines: string[] = [];
@@ -21,7 +24,7 @@ export function pdfText(pdf: Buffer): string[] {
     }
     for (const tj of content.matchAll(/\[((?:<[0-9a-fA-F]*>|[^\]])*)\]\s*TJ/g)) {
       const hex = [...tj[1]!.matchAll(/<([0-9a-fA-F]*)>/g)].map((h) => h[1]).join('');
-      lines.push(Buffer.from(hex, 'hex').toString('latin1'));
+      lines.push(winAnsi.decode(Buffer.from(hex, 'hex')));
     }
   }
   return lines;

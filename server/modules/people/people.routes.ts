@@ -36,15 +36,13 @@ async function mailSetPasswordLink(
     .update(invitations)
     .set({ usedAt: new Date() })
     .where(and(eq(invitations.personId, person.id), isNull(invitations.usedAt)));
-  await tx
-    .insert(invitations)
-    .values({
-      tokenHash: tokenHash(token),
-      personId: person.id,
-      createdBy,
-      purpose,
-      expiresAt: new Date(Date.now() + lifetimeMs),
-    });
+  await tx.insert(invitations).values({
+    tokenHash: tokenHash(token),
+    personId: person.id,
+    createdBy,
+    purpose,
+    expiresAt: new Date(Date.now() + lifetimeMs),
+  });
   await enqueueMail(tx, compose(`${publicUrl.replace(/\/$/, '')}${paths.setPassword.href(token)}`));
 }
 

@@ -1,18 +1,17 @@
 import PDFDocument from 'pdfkit';
+import {
+  READING_COLUMNS,
+  runSheetModel,
+  SHEET_HEADINGS,
+  type SheetField,
+  type SheetNotice,
+} from '../../../shared/runs/run-sheet-model';
 import type { RunView } from '../../../shared/schemas/runs';
-import { formatNumber, formatQuantity } from '../../../shared/units/format';
-
-/** The standing safety caution, printed on every run sheet. */
-export const RUN_SHEET_CAUTION =
-  'Lethal voltages. Valve equipment holds hundreds of volts DC, and filter capacitors stay charged after switch-off. ' +
-  'Work one hand, bring new or repaired units up on an isolation transformer or a current-limited supply, and discharge ' +
-  'and verify with a meter before touching. This run sheet records what was measured and that a qualified person approved ' +
-  'the procedure followed; it does not make the procedure or the unit safe. Follow your local electrical codes and licensed practice.';
 
 // The built-in PDF fonts speak WinAnsi only: spell out what they cannot draw.
 const SPELLED: Record<string, string> = {
-  Ω: ' ohm',
-  '\u2126': ' ohm',
+  Ω: 'ohm',
+  '\u2126': 'ohm',
   '…': '...',
   '−': '-',
   '≥': '>=',
@@ -25,7 +24,8 @@ const SPELLED: Record<string, string> = {
 };
 const WIN_ANSI_EXTRA = new Set('€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ');
 export const pdfText = (s: string) =>
-  [...s.replace(/ ?Ω/g, ' ohm')]
+  // "22 Ω" → "22 ohm", "300 mΩ" → "300 mohm"
+  [...s.replace(/(\d) ?[Ω\u2126]/g, '$1 ohm')]
     .map(
       (c) =>
         SPELLED[c] ??
@@ -33,16 +33,26 @@ export const pdfText = (s: string) =>
     )
     .join('');
 
-const utc = (iso: string | null) => (iso ? `${iso.slice(0, 19).replace('T', ' ')} UTC` : '—');
-const qty = (v: number | null, unit: string | null) => (v === null ? '—' : formatQuantity(v, unit ?? '', 4));
+const INK = '#2b2a28';
+const OUT = '#a3261b';
+const NOTICE_INK: Record<SheetNotice['kind'], string> = {
+  signed: '#1d6b3a',
+  'in-progress': OUT,
+  abandoned: OUT,
+  hold: OUT,
+  out: OUT,
+};
+/** Share of the table width per column, in READING_COLUMNS order. */
+const COLUMN_SHARES = [0.23, 0.17, 0.14, 0.18, 0.11, 0.17];
 
-/** A run sheet for the customer's file: unit, revision and its approval record, readings, checks, signature, caution. */
+/** A run sheet for the customer's file, drawn from the same model as the page (shared/runs/run-sheet-model). */
 export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
+  const sheet = runSheetModel(run);
   const doc = new PDFDocument({
     size: 'A4',
     margin: 40,
     info: {
-      Title: pdfText(`Run sheet: ${run.title}`),
+      Title: pdfText(sheet.title),
       Author: 'Benchwright',
       Subject: pdfText(`${run.unit.model} ${run.unit.serial}`),
     },
@@ -64,61 +74,42 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
       .fontSize(12)
       .fillColor('#134a44')
       .text(pdfText(t), left, doc.y, { width })
-      .fillColor('#2b2a28')
+      .fillColor(INK)
       .moveDown(0.2);
   };
-  const line = (label: string, value: string) => {
+  const line = (label: string, value: string, tone?: SheetField['tone']) => {
     ensure(14);
     doc
       .font('Helvetica-Bold')
       .fontSize(9)
       .text(pdfText(`${label}: `), left, doc.y, { continued: true, width })
       .font('Helvetica')
-      .text(pdfText(value));
+      .fillColor(tone === 'out' ? OUT : INK)
+      .text(pdfText(value))
+      .fillColor(INK);
+  };
+  const fields = (title: string, list: SheetField[]) => {
+    heading(title);
+    for (const f of list) line(f.label, f.value, f.tone);
   };
 
-  doc
-    .font('Helvetica-Bold')
-    .fontSize(16)
-    .text(pdfText(`Run sheet: ${run.title}`), { width });
-  doc
-    .font('Helvetica')
-    .fontSize(9)
-    .fillColor('#5a5650')
-    .text(pdfText(`Benchwright bench run ${run.id}`))
-    .fillColor('#2b2a28');
-  const alert = (t: string) =>
+  doc.font('Helvetica-Bold').fontSize(16).text(pdfText(sheet.title), { width });
+  doc.font('Helvetica').fontSize(9).fillColor('#5a5650').text(pdfText(sheet.reference)).fillColor(INK);
+  for (const n of sheet.notices)
     doc
       .moveDown(0.3)
       .font('Helvetica-Bold')
       .fontSize(11)
-      .fillColor('#a3261b')
-      .text(pdfText(t), { width })
-      .fillColor('#2b2a28');
-  if (run.closed)
-    alert(
-      `ABANDONED, NOT SIGNED: closed by ${run.closed.by.displayName}, ${utc(run.closed.at)}. Reason: ${run.closed.reason}`,
-    );
-  else if (run.status !== 'signed') alert('NOT SIGNED: this bench run is still in progress.');
-  if (run.hold)
-    alert(
-      `ON HOLD: revision ${run.hold.revisionNumber} was withdrawn by ${run.hold.by}, ${utc(run.hold.at)}. Reason: ${run.hold.reason}`,
-    );
-  if (run.outOfTolerance) {
-    doc
-      .moveDown(0.3)
-      .font('Helvetica-Bold')
-      .fontSize(11)
-      .fillColor('#a3261b')
-      .text(`OUT OF TOLERANCE: ${run.progress.outOfTolerance} reading(s) outside their band.`)
-      .fillColor('#2b2a28');
-  }
+      .fillColor(NOTICE_INK[n.kind])
+      .text(pdfText(n.kind === 'signed' ? n.text : n.text.toUpperCase()), { width })
+      .fillColor(INK);
 
   // Caution box
   doc.moveDown(0.5);
   const cautionTop = doc.y;
+  const caution = pdfText(`${sheet.caution.lead} ${sheet.caution.text}`);
   doc.font('Helvetica').fontSize(8.5);
-  const cautionHeight = doc.heightOfString(pdfText(RUN_SHEET_CAUTION), { width: width - 20 }) + 22;
+  const cautionHeight = doc.heightOfString(caution, { width: width - 20 }) + 22;
   doc.rect(left, cautionTop, width, cautionHeight).fill('#f9c300');
   doc
     .fillColor('#111111')
@@ -128,69 +119,30 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   doc
     .font('Helvetica')
     .fontSize(8.5)
-    .text(pdfText(RUN_SHEET_CAUTION), left + 10, doc.y, { width: width - 20 });
+    .text(caution, left + 10, doc.y, { width: width - 20 });
   doc.y = cautionTop + cautionHeight + 4;
-  doc.fillColor('#2b2a28');
+  doc.fillColor(INK);
 
-  heading('Unit');
-  line('Model', run.unit.model);
-  line('Serial', run.unit.serial);
-  line('Owner', run.unit.owner || '—');
-  line('Job number', run.unit.jobNumber || '—');
+  fields(SHEET_HEADINGS.unit, sheet.unit);
+  fields(SHEET_HEADINGS.procedure, sheet.procedure);
+  fields(SHEET_HEADINGS.bench, sheet.bench);
 
-  heading('Procedure followed and its approval record');
-  line('Procedure', run.revision.title);
-  line(
-    'Revision',
-    `${run.revision.number} (${run.revision.state}), approved ${utc(run.revision.approvedAt)}`,
-  );
-  line('Author', run.revision.author.displayName);
-  line('Revision content SHA-256', run.revision.contentHash);
-  if (run.revision.signOffs.length) {
-    for (const s of run.revision.signOffs)
-      line('Reviewer sign-off', `${s.name}, ${s.meaning}, ${utc(s.signedAt)}`);
-  } else {
-    line('Reviewer sign-off', 'none recorded for this revision');
-  }
-
-  heading('Bench conditions');
-  line('Measured mains', formatQuantity(run.params.mainsVoltage, 'V', 4));
-  line('Mains frequency', formatQuantity(run.params.mainsFrequency, 'Hz', 3));
-  line('Nominal mains of the procedure', formatQuantity(run.params.mainsNominal, 'V', 4));
-  line('Started', `${utc(run.startedAt)} by ${run.startedBy.displayName}`);
-  for (const h of run.handovers) {
-    line(
-      'Handed over',
-      `${h.from.displayName} handed the run over to ${h.to.displayName}, ${utc(h.at)}${h.by.id !== h.from.id ? ` (reassigned by ${h.by.displayName})` : ''}`,
-    );
-    line('Reason', h.reason);
-  }
-  if (run.status === 'in_progress') line('Performed by', run.performedBy.displayName);
-
-  // Readings table
-  heading('Readings');
-  const cols = [
-    { title: 'Reading', w: 0.25 },
-    { title: 'Expected band', w: 0.19 },
-    { title: 'Measured', w: 0.13 },
-    { title: 'Deviation', w: 0.16 },
-    { title: 'Mark', w: 0.12 },
-    { title: 'Recorded by', w: 0.15 },
-  ].map((c) => ({ ...c, w: c.w * width }));
-  const row = (cells: string[], bold = false, tint?: string) => {
-    doc.font(bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8.5);
-    const h = Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c), { width: cols[i]!.w - 6 }))) + 6;
+  heading(SHEET_HEADINGS.readings);
+  const cols = COLUMN_SHARES.map((w) => w * width);
+  const row = (cells: string[], opts: { bold?: boolean; tint?: string; markInk?: string } = {}) => {
+    doc.font(opts.bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(8.5);
+    const h = Math.max(...cells.map((c, i) => doc.heightOfString(pdfText(c), { width: cols[i]! - 6 }))) + 6;
     ensure(h);
     const y = doc.y;
-    if (tint) doc.rect(left, y, width, h).fill(tint).fillColor('#2b2a28');
+    if (opts.tint) doc.rect(left, y, width, h).fill(opts.tint).fillColor(INK);
     let x = left;
     cells.forEach((c, i) => {
-      doc
-        .fillColor(i === 4 && c.startsWith('OUT') ? '#a3261b' : '#2b2a28')
-        .text(pdfText(c), x + 3, y + 3, { width: cols[i]!.w - 6 });
-      x += cols[i]!.w;
+      doc.fillColor(i === 4 && opts.markInk ? opts.markInk : INK).text(pdfText(c), x + 3, y + 3, {
+        width: cols[i]! - 6,
+      });
+      x += cols[i]!;
     });
-    doc.fillColor('#2b2a28');
+    doc.fillColor(INK);
     doc.y = y + h;
     doc
       .moveTo(left, doc.y)
@@ -199,92 +151,42 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
       .strokeColor('#d8ccb5')
       .stroke();
   };
-  row(
-    cols.map((c) => c.title),
-    true,
-    '#ece4d3',
-  );
-  const entries = new Map(run.entries.map((e) => [e.stepId, e]));
-  for (const step of run.steps.filter((s) => s.kind === 'reading')) {
-    const r = step.reading!;
-    const e = entries.get(step.id);
-    const sign = (x: number) => (x > 0 ? '+' : '');
-    const dev =
-      e?.deviation != null
-        ? `${sign(e.deviation)}${formatQuantity(e.deviation, r.unit, 3)}${e.deviationPercent != null ? ` (${sign(e.deviationPercent)}${formatNumber(e.deviationPercent, 2)} %)` : ''}`
-        : '—';
-    const mark =
-      !e || e.measured === null
-        ? 'not recorded'
-        : e.within === null
-          ? 'no band'
-          : e.within
-            ? 'within'
-            : 'OUT of tolerance';
+  row([...READING_COLUMNS], { bold: true, tint: '#ece4d3' });
+  for (const r of sheet.readings) {
+    const out = r.mark === 'out';
     row(
       [
-        `${step.position}. ${step.text}\n${r.testPoint}`,
-        r.bandText ?? r.error ?? '—',
-        e?.raw ? `${qty(e.measured, r.unit)}${e.version > 1 ? ' (corrected)' : ''}` : '—',
-        dev,
-        mark,
-        e?.enteredBy.displayName ?? '—',
+        [`${r.position}. ${r.label}`, r.testPoint, r.note && `Note: ${r.note}`].filter(Boolean).join('\n'),
+        `${r.expected}\n${r.band}`,
+        [r.measured, r.asTyped && `as typed: ${r.asTyped}`, r.corrected && '(corrected)']
+          .filter(Boolean)
+          .join('\n'),
+        r.deviation,
+        r.markText,
+        r.recordedBy ? `${r.recordedBy}\n${r.recordedAt}` : '—',
       ],
-      false,
-      e?.within === false ? '#f6dcd6' : undefined,
+      out ? { tint: '#f6dcd6', markInk: OUT } : {},
     );
   }
 
-  heading('Check steps and hazard notes');
-  for (const step of run.steps.filter((s) => s.kind !== 'reading')) {
-    const e = entries.get(step.id);
-    const status = e?.done
-      ? `${step.kind === 'hazard' ? 'acknowledged' : 'done'} by ${e.enteredBy.displayName}, ${utc(e.enteredAt)}`
-      : 'not done';
+  heading(SHEET_HEADINGS.checks);
+  for (const c of sheet.checks) {
     ensure(24);
     doc
       .font('Helvetica-Bold')
       .fontSize(8.5)
-      .text(pdfText(`${step.position}. ${step.kind === 'hazard' ? 'Hazard note' : 'Check'}: `), left, doc.y, {
-        continued: true,
-        width,
-      })
+      .text(pdfText(`${c.position}. ${c.kindText}: `), left, doc.y, { continued: true, width })
       .font('Helvetica')
-      .text(pdfText(`${step.text.slice(0, 400)} [${status}]`));
+      .text(pdfText(`${c.text.slice(0, 400)} [${c.status}]`));
+    if (c.note) doc.font('Helvetica-Oblique').text(pdfText(`Note: ${c.note}`), left + 12, doc.y, { width });
     doc.moveDown(0.2);
   }
 
-  const notes = run.entries.filter((e) => e.note.trim());
-  const corrections = run.entries.filter((e) => e.history.length > 1);
-  if (notes.length || corrections.length) heading('Notes and corrections');
-  for (const e of notes)
-    line(`Note, step ${run.steps.find((s) => s.id === e.stepId)?.position ?? '?'}`, e.note);
-  for (const e of corrections) {
-    const step = run.steps.find((s) => s.id === e.stepId);
-    for (const h of e.history) {
-      line(
-        `Step ${step?.position ?? '?'} v${h.version}`,
-        `${h.raw ?? (h.done ? 'ticked' : 'unticked')} by ${h.enteredBy.displayName}, ${utc(h.enteredAt)}${h.reason ? `; reason: ${h.reason}` : ''}`,
-      );
-    }
-  }
-  if (run.photos.length) line('Photos', `${run.photos.length} photo(s) kept with the run in Benchwright`);
+  if (sheet.corrections.length) heading(SHEET_HEADINGS.corrections);
+  for (const c of sheet.corrections) for (const v of c.versions) line(`Step ${c.position ?? '?'}`, v);
+  if (sheet.photos) line('Photos', sheet.photos);
 
-  heading('Signature');
-  if (run.signature) {
-    line('Signed by', `${run.signature.signer.displayName} (${run.signature.signerRole})`);
-    line('Meaning', 'performed: I carried out this bench run and recorded these readings');
-    line('Signed at', utc(run.signature.signedAt));
-    line('Run content SHA-256', run.signature.contentHash);
-    line(
-      'Verified on export',
-      run.signature.verified
-        ? 'yes, the stored content matches the signed hash'
-        : 'NO: the content does not match the signed hash',
-    );
-  } else {
-    line('Signed by', 'not signed yet');
-  }
+  fields(SHEET_HEADINGS.signature, sheet.signature);
 
   doc.end();
   return done;

@@ -81,18 +81,16 @@ export async function handOverRun(
       ]);
     const fromName = await nameOf(tx, run.performedBy);
     // The handover row first: the trigger lets the performer change only with it in place.
-    await tx
-      .insert(runHandovers)
-      .values({
-        runId,
-        fromId: run.performedBy,
-        fromName,
-        toId: to.id,
-        toName: to.displayName,
-        byId: user.id,
-        byName: user.displayName,
-        reason: body.reason,
-      });
+    await tx.insert(runHandovers).values({
+      runId,
+      fromId: run.performedBy,
+      fromName,
+      toId: to.id,
+      toName: to.displayName,
+      byId: user.id,
+      byName: user.displayName,
+      reason: body.reason,
+    });
     await tx.update(runs).set({ performedBy: to.id }).where(eq(runs.id, runId));
     await recordAudit(tx, {
       action: 'run.handed-over',

@@ -1,5 +1,6 @@
 import { useEffect } from 'react';
-import { Notice } from '@/components/ui/notice';
+import { Problem } from '@/components/errors/problem';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { useAccount } from '@/features/account/api/account';
 import { AuthenticatorPanel } from '@/features/account/components/authenticator-panel';
 import { ChangePasswordForm } from '@/features/account/components/change-password-form';
@@ -14,13 +15,17 @@ export default function AccountPage() {
     <section className="flex max-w-2xl flex-col gap-6">
       <h1 className="text-2xl font-semibold">Your account</h1>
       {account.isPending && <p>Loading…</p>}
-      {account.isError && <Notice tone="error">{account.error.message}</Notice>}
+      {account.isError && (
+        <Problem error={account.error} heading="h2" onRetry={() => void account.refetch()} />
+      )}
       {account.data && (
         <>
           <p className="text-sm">
             Signed in as <strong>{account.data.user.displayName}</strong> ({account.data.user.email}).
           </p>
-          <AuthenticatorPanel account={account.data} />
+          <RegionBoundary label="Authenticator">
+            <AuthenticatorPanel account={account.data} />
+          </RegionBoundary>
           <ChangePasswordForm />
           <SignOutEverywhere />
         </>

@@ -1,27 +1,43 @@
-import { isRouteErrorResponse, Link, useRouteError } from 'react-router-dom';
+import { useQueryClient } from '@tanstack/react-query';
+import { Link, useLocation, useNavigate, useRouteError } from 'react-router-dom';
+import { Problem } from '@/components/errors/problem';
+import { paths } from '@/config/paths';
+import { ApiError } from '@/lib/api-client';
 
-/** The error boundary for every route: says what happened and offers a way on. */
-export function RouteError() {
+/** Where a page's error offers to go back to, when there is a list above it. */
+export interface WayBack {
+  to: string;
+  label: string;
+}
+
+/**
+ * The error boundary of every route: a page whose data or code failed says what happened, inside
+ * the app's frame (navigation stays), with a retry and a way back — never a blank page.
+ */
+export function RouteError({ back }: { back?: WayBack }) {
   const error = useRouteError();
-  const message = isRouteErrorResponse(error)
-    ? `${error.status} ${error.statusText}`
-    : error instanceof Error
-      ? error.message
-      : 'Something went wrong.';
+  const location = useLocation();
+  const navigate = useNavigate();
+  const queryClient = useQueryClient();
+  // An answer from the server: failed queries start over and the same address is visited again (a
+  // new location resets the boundary). Anything else (the page's code did not load): reload.
+  const retry = async () => {
+    if (!(error instanceof ApiError)) return window.location.reload();
+    await queryClient.resetQueries({ predicate: (q) => q.state.status === 'error' });
+    await navigate(location, { replace: true });
+  };
   return (
-    <main className="mx-auto max-w-xl p-8">
-      <h1 className="text-2xl font-semibold">This page ran into a problem</h1>
-      <p className="mt-3">
-        Nothing you saved is lost. <span className="text-graphite-soft">({message})</span>
-      </p>
-      <div className="mt-6 flex gap-4">
-        <button type="button" className="underline" onClick={() => window.location.reload()}>
-          Reload the page
-        </button>
-        <Link to="/" className="underline">
-          Go to the start page
+    <div className="mx-auto max-w-2xl px-4 py-8">
+      <Problem error={error} onRetry={() => void retry()}>
+        {back && (
+          <Link to={back.to} className="font-semibold underline">
+            {back.label}
+          </Link>
+        )}
+        <Link to={paths.home.href()} className="underline">
+          Start page
         </Link>
-      </div>
-    </main>
+      </Problem>
+    </div>
   );
 }

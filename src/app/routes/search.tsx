@@ -1,27 +1,17 @@
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
+import { Problem } from '@/components/errors/problem';
 import { Pager } from '@/components/ui/pager';
-import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
-import { useSearch } from '@/features/search/api/search-procedures';
+import { searchFromUrl, useSearch } from '@/features/search/api/search-procedures';
 import { Snippet } from '@/features/search/components/snippet';
-
-const PAGE_SIZE = 10;
 
 export default function SearchPage() {
   const [params, setParams] = useSearchParams();
-  const q = params.get('q') ?? '';
-  const family = params.get('family') ?? '';
-  const tag = params.get('tag') ?? '';
-  const page = Math.max(1, Number(params.get('page') ?? 1) || 1);
+  const searched = searchFromUrl(params);
+  const { q, family = '', tag = '', page = 1, pageSize = 1 } = searched;
   const [text, setText] = useState(q);
-  const search = useSearch({
-    q,
-    family: family || undefined,
-    tag: tag || undefined,
-    page,
-    pageSize: PAGE_SIZE,
-  });
+  const search = useSearch(searched);
 
   useEffect(() => {
     setText(q);
@@ -42,7 +32,7 @@ export default function SearchPage() {
     update({ q: text.trim() });
   };
   const data = search.data;
-  const pages = data ? Math.ceil(data.total / PAGE_SIZE) : 0;
+  const pages = data ? Math.ceil(data.total / pageSize) : 0;
 
   return (
     <section className="flex flex-col gap-5">
@@ -93,7 +83,7 @@ export default function SearchPage() {
           </label>
         </div>
       )}
-      {search.isError && <Notice tone="error">{search.error.message}</Notice>}
+      {search.isError && <Problem error={search.error} heading="h2" onRetry={() => void search.refetch()} />}
       {!q && (
         <p className="text-graphite-soft">
           Type what you are looking for. Trade words work: HT or B+, heater or filament, slow-blow or T fuse,

@@ -1,24 +1,30 @@
-import { useState, type FormEvent } from 'react';
 import { Link, useParams } from 'react-router-dom';
+import { z } from 'zod';
+import { setPasswordBody } from '@shared/schemas/auth';
 import { PASSWORD_MIN } from '@shared/schemas/limits';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { paths } from '@/config/paths';
 import { useInvitation, useSetPassword } from '@/features/auth/api/set-password';
+import { showServerError, useZodForm } from '@/lib/form';
+
+/** The server's rule for the password, and the same word typed twice. */
+const newPasswordForm = setPasswordBody
+  .pick({ password: true })
+  .extend({ repeat: z.string() })
+  .refine((v) => v.repeat === v.password, { path: ['repeat'], message: 'The two entries differ.' });
 
 export default function SetPassword() {
   const { token = '' } = useParams();
   const invitation = useInvitation(token);
   const setPassword = useSetPassword();
-  const [password, setPw] = useState('');
-  const [repeat, setRepeat] = useState('');
-  const mismatch = repeat.length > 0 && repeat !== password;
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    if (mismatch) return;
-    setPassword.mutate({ token, password });
-  };
+  const form = useZodForm(newPasswordForm, { defaultValues: { password: '', repeat: '' } });
+  const { errors } = form.formState;
+  const submit = form.handleSubmit(({ password }) =>
+    setPassword.mutate({ token, password }, { onError: (e) => showServerError(form, e) }),
+  );
 
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 px-4 py-10">
@@ -28,7 +34,7 @@ export default function SetPassword() {
       {setPassword.isSuccess ? (
         <Notice tone="success">
           Your password is set.{' '}
-          <Link to="/sign-in" className="underline">
+          <Link to={paths.signIn.href()} className="underline">
             Sign in
           </Link>
           .
@@ -51,28 +57,24 @@ export default function SetPassword() {
               {invitation.data.purpose === 'reset' &&
                 ' Setting it signs you out everywhere you were signed in.'}
             </p>
-            {setPassword.error && <Notice tone="error">{setPassword.error.message}</Notice>}
+            <FormProblem formState={form.formState} />
             <Field
               label="New password"
               type="password"
               autoComplete="new-password"
-              value={password}
               minLength={PASSWORD_MIN}
-              onChange={(e) => setPw(e.target.value)}
+              {...form.register('password')}
               hint={`At least ${PASSWORD_MIN} characters.`}
+              error={errors.password?.message}
             />
             <Field
               label="Repeat it"
               type="password"
               autoComplete="new-password"
-              value={repeat}
-              onChange={(e) => setRepeat(e.target.value)}
-              error={mismatch ? 'The two entries differ.' : undefined}
+              {...form.register('repeat')}
+              error={errors.repeat?.message}
             />
-            <Button
-              type="submit"
-              disabled={setPassword.isPending || password.length < PASSWORD_MIN || mismatch}
-            >
+            <Button type="submit" disabled={setPassword.isPending}>
               Set password
             </Button>
           </form>

@@ -1,23 +1,24 @@
-import { useEffect, useState, type FormEvent } from 'react';
+import { useEffect } from 'react';
 import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { codeBody, signInBody } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
-import { Notice } from '@/components/ui/notice';
+import { FormProblem } from '@/components/ui/form-problem';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { useSession } from '@/features/auth/api/get-session';
 import { useSignIn, useSignInWithCode } from '@/features/auth/api/sign-in';
+import { showServerError, useZodForm } from '@/lib/form';
 
 export default function SignIn() {
   const session = useSession();
   const signIn = useSignIn();
   const withCode = useSignInWithCode();
-  const [code, setCode] = useState('');
   const codeStep = signIn.data?.secondFactor === 'totp' && !withCode.isSuccess;
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const next = params.get('next')?.startsWith('/') ? params.get('next')! : '/';
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
+  const passwordForm = useZodForm(signInBody, { defaultValues: { email: '', password: '' } });
+  const codeForm = useZodForm(codeBody, { defaultValues: { code: '' } });
 
   useEffect(() => {
     document.title = 'Sign in · Benchwright';
@@ -25,15 +26,18 @@ export default function SignIn() {
 
   if (session.data?.user) return <Navigate to={next} replace />;
 
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    signIn.mutate({ email, password }, { onSuccess: (s) => s.user && navigate(next, { replace: true }) });
-  };
-  const submitCode = (e: FormEvent) => {
-    e.preventDefault();
-    withCode.mutate({ code }, { onSuccess: () => navigate(next, { replace: true }) });
-  };
-  const fieldError = (name: string) => signIn.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
+  const submit = passwordForm.handleSubmit((body) =>
+    signIn.mutate(body, {
+      onSuccess: (s) => s.user && navigate(next, { replace: true }),
+      onError: (e) => showServerError(passwordForm, e),
+    }),
+  );
+  const submitCode = codeForm.handleSubmit((body) =>
+    withCode.mutate(body, {
+      onSuccess: () => navigate(next, { replace: true }),
+      onError: (e) => showServerError(codeForm, e),
+    }),
+  );
 
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 px-4 py-10">
@@ -52,20 +56,17 @@ export default function SignIn() {
             Type the six-digit code your authenticator app shows for Benchwright now, or one of your recovery
             codes.
           </p>
-          {withCode.error && !withCode.error.fields.length && (
-            <Notice tone="error">{withCode.error.message}</Notice>
-          )}
+          <FormProblem formState={codeForm.formState} />
           <Field
             label="Code"
             autoComplete="one-time-code"
             inputMode="text"
             required
-            value={code}
-            onChange={(e) => setCode(e.target.value)}
-            error={withCode.error?.fields.length ? withCode.error.message : undefined}
+            {...codeForm.register('code')}
+            error={codeForm.formState.errors.code?.message}
             autoFocus
           />
-          <Button type="submit" disabled={withCode.isPending || code.trim().length < 6}>
+          <Button type="submit" disabled={withCode.isPending}>
             {withCode.isPending ? 'Checking…' : 'Continue'}
           </Button>
           <button
@@ -74,7 +75,7 @@ export default function SignIn() {
             onClick={() => {
               signIn.reset();
               withCode.reset();
-              setCode('');
+              codeForm.reset();
             }}
           >
             Start again with the password
@@ -87,17 +88,14 @@ export default function SignIn() {
           noValidate
         >
           <h2 className="text-xl font-semibold">Sign in</h2>
-          {signIn.error && !signIn.error.fields.length && (
-            <Notice tone="error">{signIn.error.message}</Notice>
-          )}
+          <FormProblem formState={passwordForm.formState} />
           <Field
             label="E-mail"
             type="email"
             autoComplete="username"
             required
-            value={email}
-            onChange={(e) => setEmail(e.target.value)}
-            error={fieldError('email')}
+            {...passwordForm.register('email')}
+            error={passwordForm.formState.errors.email?.message}
             autoFocus
           />
           <Field
@@ -105,9 +103,8 @@ export default function SignIn() {
             type="password"
             autoComplete="current-password"
             required
-            value={password}
-            onChange={(e) => setPassword(e.target.value)}
-            error={fieldError('password')}
+            {...passwordForm.register('password')}
+            error={passwordForm.formState.errors.password?.message}
           />
           <Button type="submit" disabled={signIn.isPending}>
             {signIn.isPending ? 'Signing in…' : 'Sign in'}

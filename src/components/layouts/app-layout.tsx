@@ -18,6 +18,7 @@ const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
   { to: paths.people.href(), label: 'People', roles: ['admin'] },
   { to: paths.audit.href(), label: 'Audit log', roles: ['admin'] },
   { to: paths.outbox.href(), label: 'Mail outbox', roles: ['admin'] },
+  { to: paths.apiReference.href(), label: 'API', roles: ['admin'] },
 ];
 
 /** The signed-in shell: header with the role's navigation, the page, the standing safety caution. */
@@ -51,7 +52,7 @@ export function AppLayout() {
       </a>
       <header className="no-print border-b border-rule bg-paper-deep">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
-          <NavLink to="/" className="text-lg font-semibold tracking-tight text-accent-deep">
+          <NavLink to={paths.home.href()} className="text-lg font-semibold tracking-tight text-accent-deep">
             Benchwright
           </NavLink>
           <nav aria-label="Main" className="flex flex-wrap gap-1">

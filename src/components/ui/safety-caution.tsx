@@ -1,12 +1,10 @@
-/** The standing caution shown in the app shell; procedures add their own hazard notes. */
-export function SafetyCaution() {
+import { SAFETY_CAUTION, type Caution } from '@shared/safety-caution';
+
+/** The standing caution shown in the app shell (the run sheet passes its own); procedures add their own hazard notes. */
+export function SafetyCaution({ caution = SAFETY_CAUTION }: { caution?: Caution }) {
   return (
     <p className="text-xs leading-relaxed text-graphite-soft">
-      <strong className="text-graphite">Lethal voltages.</strong> Valve equipment holds hundreds of volts DC,
-      and filter capacitors stay charged after switch-off. Work one hand, bring new or repaired units up on an
-      isolation transformer or a current-limited supply, and discharge and verify with a meter before
-      touching. Benchwright records that a qualified person approved a procedure; it does not make any
-      procedure safe. Follow your local electrical codes and licensed practice.
+      <strong className="text-graphite">{caution.lead}</strong> {caution.text}
     </p>
   );
 }

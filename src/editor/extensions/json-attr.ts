@@ -1,9 +1,12 @@
+/** An attribute's name in HTML: `data-test-point` for testPoint. */
+const dataName = (key: string) => `data-${key.replace(/[A-Z]/g, (c) => `-${c.toLowerCase()}`)}`;
+
 /** parseHTML/renderHTML for an attribute holding JSON (objects survive copy and paste as data-* text). */
-export function jsonAttribute<T>(name: string, fallback: () => T) {
+export function jsonAttribute<T>(key: string, fallback: () => T) {
   return {
     default: fallback(),
     parseHTML: (element: HTMLElement): T => {
-      const raw = element.getAttribute(`data-${name}`);
+      const raw = element.getAttribute(dataName(key));
       if (!raw) return fallback();
       try {
         return JSON.parse(raw) as T;
@@ -11,15 +14,15 @@ export function jsonAttribute<T>(name: string, fallback: () => T) {
         return fallback();
       }
     },
-    renderHTML: (attrs: Record<string, unknown>) => ({ [`data-${name}`]: JSON.stringify(attrs[name]) }),
+    renderHTML: (attrs: Record<string, unknown>) => ({ [dataName(key)]: JSON.stringify(attrs[key]) }),
   };
 }
 
 /** parseHTML/renderHTML for a plain string attribute kept in data-*. */
-export function textAttribute(name: string, fallback = '') {
+export function textAttribute(key: string, fallback = '') {
   return {
     default: fallback,
-    parseHTML: (element: HTMLElement) => element.getAttribute(`data-${name}`) ?? fallback,
-    renderHTML: (attrs: Record<string, unknown>) => ({ [`data-${name}`]: String(attrs[name] ?? fallback) }),
+    parseHTML: (element: HTMLElement) => element.getAttribute(dataName(key)) ?? fallback,
+    renderHTML: (attrs: Record<string, unknown>) => ({ [dataName(key)]: String(attrs[key] ?? fallback) }),
   };
 }

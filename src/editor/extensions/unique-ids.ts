@@ -1,7 +1,7 @@
 import { Extension } from '@tiptap/core';
 import { Plugin, PluginKey } from '@tiptap/pm/state';
-import { BLOCK_ID } from '@shared/document/schema';
-import { BLOCK_TYPES, newBlockId } from '../block-id';
+import { BLOCK_ID, BLOCK_TYPES } from '@shared/document/nodes';
+import { newBlockId } from '../block-id';
 
 const TYPES = new Set<string>(BLOCK_TYPES);
 

@@ -1,4 +1,5 @@
 import { useEffect, useState } from 'react';
+import { Problem } from '@/components/errors/problem';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { useAuditLog, type AuditFilters } from '@/features/audit/api/get-audit';
@@ -79,7 +80,7 @@ export default function AuditPage() {
           />
         </label>
       </form>
-      {log.isError && <Notice tone="error">{log.error.message}</Notice>}
+      {log.isError && <Problem error={log.error} heading="h2" onRetry={() => void log.refetch()} />}
       {log.data && (
         <>
           <AuditTable entries={log.data.entries} />

@@ -1,4 +1,5 @@
 import { useEffect, useState } from 'react';
+import { Problem } from '@/components/errors/problem';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
@@ -44,7 +45,7 @@ export default function OutboxPage() {
           <option value="sent">Sent</option>
         </select>
       </label>
-      {outbox.isError && <Notice tone="error">{outbox.error.message}</Notice>}
+      {outbox.isError && <Problem error={outbox.error} heading="h2" onRetry={() => void outbox.refetch()} />}
       {outbox.data && <OutboxTable items={outbox.data.items} />}
       {outbox.data && pages > 1 && (
         <nav aria-label="Pages" className="flex items-center gap-3 text-sm">

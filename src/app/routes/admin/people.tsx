@@ -1,4 +1,6 @@
 import { useEffect } from 'react';
+import { Problem } from '@/components/errors/problem';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { usePeople } from '@/features/people/api/get-people';
@@ -18,10 +20,12 @@ export default function PeoplePage() {
     <section className="flex flex-col gap-6">
       <h1 className="text-2xl font-semibold">People</h1>
       {people.isPending && <p>Loading…</p>}
-      {people.isError && <Notice tone="error">{people.error.message}</Notice>}
+      {people.isError && <Problem error={people.error} heading="h2" onRetry={() => void people.refetch()} />}
       {people.data && <PeopleTable people={people.data.people} selfId={session.data!.user!.id} />}
       <InviteForm />
-      <SignInSettingsPanel />
+      <RegionBoundary label="Sign-in settings">
+        <SignInSettingsPanel />
+      </RegionBoundary>
     </section>
   );
 }

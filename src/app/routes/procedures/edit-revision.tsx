@@ -4,7 +4,7 @@ import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevision } from '@/features/procedures/api/get-revision';
-import { DraftWorkspace } from '@/editor/draft-workspace';
+import { DraftWorkspace } from '@/features/procedures/draft/draft-workspace';
 
 /** The only route that loads the editor (and with it TipTap): readers never download it. */
 export default function EditRevisionPage() {
@@ -18,8 +18,10 @@ export default function EditRevisionPage() {
   }, [data?.revision.title]);
 
   if (!hasRole(session.data?.user, 'author')) return <Notice tone="error">Only authors edit drafts.</Notice>;
-  if (revision.isError) return <Notice tone="error">{revision.error.message}</Notice>;
-  if (!data) return <p className="text-graphite-soft">Loading the draft…</p>;
+  if (!data) {
+    if (revision.isError) throw revision.error;
+    return <p className="text-graphite-soft">Loading the draft…</p>;
+  }
   const r = data.revision;
   if (r.state !== 'draft') {
     return (

@@ -1,33 +1,21 @@
 import { useEffect, useRef, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import type { SortingState } from '@tanstack/react-table';
-import { PROCEDURE_PAGE_SIZES, PROCEDURE_SORTS, type ProcedureSort } from '@shared/schemas/procedures';
-import type { RevisionStateName } from '@shared/schemas/revision-states';
+import { PROCEDURE_PAGE_SIZES } from '@shared/schemas/procedures';
+import { Problem } from '@/components/errors/problem';
 import { Notice } from '@/components/ui/notice';
 import { Pager } from '@/components/ui/pager';
 import { paths } from '@/config/paths';
 import { useDebounced } from '@/hooks/use-debounced';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useProcedureFacets, useProcedures } from '@/features/procedures/api/get-procedures';
-import { ProcedureFilters, type Filters } from '@/features/procedures/components/procedure-filters';
+import { procedureListFromUrl } from '@/features/procedures/api/list-from-url';
+import { ProcedureFilters } from '@/features/procedures/components/procedure-filters';
 import { ProcedureTable } from '@/features/procedures/components/procedure-table';
-
-const oneOf = <T extends string>(allowed: readonly T[], v: string | null, fallback: T): T =>
-  v && (allowed as readonly string[]).includes(v) ? (v as T) : fallback;
 
 /** The list's state lives in the address, so a reload, the back button or a shared link keeps it. */
 function useListState() {
   const [params, setParams] = useSearchParams();
-  const sort = oneOf<ProcedureSort>(PROCEDURE_SORTS, params.get('sort'), 'updatedAt');
-  const dir = oneOf(['asc', 'desc'] as const, params.get('dir'), sort === 'updatedAt' ? 'desc' : 'asc');
-  const size = Number(oneOf(PROCEDURE_PAGE_SIZES.map(String), params.get('size'), '50'));
-  const page = Math.max(1, Math.floor(Number(params.get('page'))) || 1);
-  const filters: Filters = {
-    family: params.get('family') ?? '',
-    tag: params.get('tag') ?? '',
-    state: (params.get('state') ?? '') as RevisionStateName | '',
-  };
-  const q = params.get('q') ?? '';
   const update = (next: Record<string, string>) => {
     const merged = new URLSearchParams(params);
     for (const [k, v] of Object.entries(next)) {
@@ -36,12 +24,12 @@ function useListState() {
     }
     setParams(merged, { replace: true });
   };
-  return { sort, dir, size, page, filters, q, update };
+  return { ...procedureListFromUrl(params), update };
 }
 
 export default function ProceduresPage() {
   const session = useSession();
-  const { sort, dir, size, page, filters, q, update } = useListState();
+  const { sort, dir, size, page, filters, q, query: listQuery, update } = useListState();
   // The title box updates the address once typing pauses.
   const [title, setTitle] = useState(q);
   const settled = useDebounced(title.trim(), 250);
@@ -59,16 +47,7 @@ export default function ProceduresPage() {
     lastQ.current = q;
     if (q !== settled) setTitle(q);
   }, [q, settled]);
-  const query = useProcedures({
-    q: q || undefined,
-    family: filters.family || undefined,
-    tag: filters.tag || undefined,
-    state: filters.state || undefined,
-    sort,
-    dir,
-    limit: size,
-    offset: (page - 1) * size,
-  });
+  const query = useProcedures(listQuery);
   const facets = useProcedureFacets();
   const isAuthor = hasRole(session.data?.user, 'author');
   useEffect(() => {
@@ -107,7 +86,7 @@ export default function ProceduresPage() {
         <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
       </div>
       {query.isPending && <p className="text-graphite-soft">Loading…</p>}
-      {query.isError && <Notice tone="error">{query.error.message}</Notice>}
+      {query.isError && <Problem error={query.error} heading="h2" onRetry={() => void query.refetch()} />}
       {data && (
         <>
           <div className="flex flex-wrap items-center gap-3 text-sm text-graphite-soft">

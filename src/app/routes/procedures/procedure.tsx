@@ -1,6 +1,5 @@
 import { useEffect } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useProcedure } from '@/features/procedures/api/get-procedure';
@@ -15,8 +14,10 @@ export default function ProcedurePage() {
   useEffect(() => {
     document.title = `${query.data?.procedure.title ?? 'Procedure'} · Benchwright`;
   }, [query.data?.procedure.title]);
-  if (query.isError) return <Notice tone="error">{query.error.message}</Notice>;
-  if (!query.data) return <p className="text-graphite-soft">Loading…</p>;
+  if (!query.data) {
+    if (query.isError) throw query.error;
+    return <p className="text-graphite-soft">Loading…</p>;
+  }
   const { procedure, revisions } = query.data;
   return (
     <section className="flex flex-col gap-4">

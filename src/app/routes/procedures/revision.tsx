@@ -1,6 +1,7 @@
 import { useEffect } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { REVISION_STATE_LABELS } from '@shared/schemas/revision-states';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Notice } from '@/components/ui/notice';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { paths } from '@/config/paths';
@@ -21,8 +22,11 @@ export default function RevisionPage() {
     document.title = `${r?.title ?? 'Procedure'} · Benchwright`;
   }, [r?.title]);
 
-  if (query.isError) return <Notice tone="error">{query.error.message}</Notice>;
-  if (!r) return <p className="text-graphite-soft">Loading…</p>;
+  if (!r) {
+    // Nothing to show: the route's error boundary says why, with a way back.
+    if (query.isError) throw query.error;
+    return <p className="text-graphite-soft">Loading…</p>;
+  }
   return (
     <article className="reader mx-auto flex max-w-4xl flex-col gap-4">
       <header className="flex flex-col gap-2 border-b border-rule pb-4">
@@ -57,7 +61,9 @@ export default function RevisionPage() {
             </Link>
           </p>
         )}
-        <RevisionReviewPanel revision={r} />
+        <RegionBoundary label="Review and sign-offs">
+          <RevisionReviewPanel revision={r} />
+        </RegionBoundary>
       </header>
       {r.state !== 'approved' && (
         <Notice tone="info">
@@ -68,7 +74,9 @@ export default function RevisionPage() {
       <div className="rounded-md border-2 border-hazard-ink bg-card p-3">
         <SafetyCaution />
       </div>
-      <DocumentView doc={r.document} snapshot={r.snapshot} reckoners={r.reckoners} />
+      <RegionBoundary label="Procedure text">
+        <DocumentView doc={r.document} snapshot={r.snapshot} reckoners={r.reckoners} />
+      </RegionBoundary>
     </article>
   );
 }

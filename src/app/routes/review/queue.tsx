@@ -1,4 +1,5 @@
 import { useEffect } from 'react';
+import { Problem } from '@/components/errors/problem';
 import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useReviewQueue } from '@/features/review/api/review-queries';
@@ -19,7 +20,7 @@ export default function ReviewQueuePage() {
         Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.
       </p>
       {queue.isPending && <p>Loading…</p>}
-      {queue.isError && <Notice tone="error">{queue.error.message}</Notice>}
+      {queue.isError && <Problem error={queue.error} heading="h2" onRetry={() => void queue.refetch()} />}
       {queue.data && <QueueTable items={queue.data.items} />}
     </section>
   );

@@ -2,7 +2,7 @@ import { useEffect, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { REVISION_STATE_LABELS } from '@shared/schemas/procedures';
 import { Button } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevisionReview } from '@/features/review/api/review-queries';
@@ -10,7 +10,7 @@ import { useDecideRevision, type Decision } from '@/features/review/api/review-m
 import { CommentForm, CommentList } from '@/features/review/components/comments';
 import { formatUtc } from '@/features/review/components/format';
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
-import { SignOffDialog } from '@/features/review/components/sign-off-dialog';
+import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
 import { ReckonerCard } from '@/features/procedures/components/reader/reckoner-card';
@@ -27,8 +27,10 @@ export default function ReviewRevisionPage() {
     document.title = `Review: ${v?.revision.title ?? 'revision'} · Benchwright`;
   }, [v?.revision.title]);
 
-  if (query.isError) return <Notice tone="error">{query.error.message}</Notice>;
-  if (!v) return <p className="text-graphite-soft">Loading…</p>;
+  if (!v) {
+    if (query.isError) throw query.error;
+    return <p className="text-graphite-soft">Loading…</p>;
+  }
   const r = v.revision;
   const closeDialog = () => {
     setDeciding(null);
@@ -72,15 +74,17 @@ export default function ReviewRevisionPage() {
         </p>
       </header>
 
-      <RevisionReviewPanel
-        revision={{
-          id: r.id,
-          procedureId: r.procedureId,
-          number: r.number,
-          state: r.state,
-          lockVersion: r.lockVersion,
-        }}
-      />
+      <RegionBoundary label="Review and sign-offs">
+        <RevisionReviewPanel
+          revision={{
+            id: r.id,
+            procedureId: r.procedureId,
+            number: r.number,
+            state: r.state,
+            lockVersion: r.lockVersion,
+          }}
+        />
+      </RegionBoundary>
 
       {hasRole(user, 'reviewer') && (
         <section
@@ -137,13 +141,17 @@ export default function ReviewRevisionPage() {
 
       <section className="flex flex-col gap-2">
         <h2 className="text-xl font-semibold">Changed text</h2>
-        <TextDiffView lines={v.textDiff} />
+        <RegionBoundary label="Changed text">
+          <TextDiffView lines={v.textDiff} />
+        </RegionBoundary>
       </section>
 
       <section className="flex flex-col gap-3">
         <h2 className="text-xl font-semibold">Comments</h2>
-        <CommentList comments={v.comments} />
-        {hasRole(user, 'author', 'reviewer') && <CommentForm revisionId={r.id} blocks={v.blocks} />}
+        <RegionBoundary label="Comments">
+          <CommentList comments={v.comments} />
+          {hasRole(user, 'author', 'reviewer') && <CommentForm revisionId={r.id} blocks={v.blocks} />}
+        </RegionBoundary>
       </section>
 
       {user && (
@@ -157,7 +165,7 @@ export default function ReviewRevisionPage() {
           meaning={deciding === 'approve' ? 'approved for use at the bench' : 'returned for changes'}
           signerName={user.displayName}
           commentLabel={deciding === 'approve' ? 'Comment' : 'What needs to change'}
-          commentRequired={deciding === 'return'}
+          schema={signOffSchemas[deciding ?? 'approve']}
           confirmLabel={deciding === 'approve' ? 'Sign and approve' : 'Sign and return'}
           pending={decide.isPending}
           error={decide.error}

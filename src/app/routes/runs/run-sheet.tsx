@@ -1,6 +1,5 @@
 import { useEffect } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { useRun } from '@/features/runs/api/get-run';
 import { RunSheet } from '@/features/runs/components/run-sheet';
@@ -13,7 +12,7 @@ export default function RunSheetPage() {
       document.title = `Run sheet: ${run.data.run.unit.model} ${run.data.run.unit.serial} · Benchwright`;
   }, [run.data]);
   if (run.isPending) return <p>Loading…</p>;
-  if (!run.data) return <Notice tone="error">{run.error?.message ?? 'Cannot load this run sheet.'}</Notice>;
+  if (!run.data) throw run.error;
   const r = run.data.run;
   return (
     <section className="flex flex-col gap-4">

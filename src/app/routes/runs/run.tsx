@@ -1,5 +1,6 @@
 import { useEffect } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
@@ -21,7 +22,9 @@ export default function RunPage() {
       document.title = `${run.data.run.unit.model} ${run.data.run.unit.serial}: bench run · Benchwright`;
   }, [run.data]);
   if (run.isPending) return <p>Loading…</p>;
-  if (!run.data) return <Notice tone="error">{run.error?.message ?? 'Cannot load this run.'}</Notice>;
+  // Nothing cached to work from: the route's error boundary says why. (With a cached run, a failed
+  // refresh shows the offline banner below and the bench keeps working.)
+  if (!run.data) throw run.error;
   const r = run.data.run;
   const user = session.data?.user;
   const open = r.status === 'in_progress';
@@ -66,7 +69,11 @@ export default function RunPage() {
           <RunSheet run={r} />
         </>
       )}
-      {inCharge && <RunCustody run={r} />}
+      {inCharge && (
+        <RegionBoundary label="Who has this run">
+          <RunCustody run={r} />
+        </RegionBoundary>
+      )}
     </section>
   );
 }

@@ -1,6 +1,6 @@
 import { useEffect } from 'react';
 import { Link } from 'react-router-dom';
-import { Notice } from '@/components/ui/notice';
+import { Problem } from '@/components/errors/problem';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRuns } from '@/features/runs/api/get-runs';
@@ -29,7 +29,7 @@ export default function RunsPage() {
         )}
       </div>
       <h2 className="text-lg font-semibold">In progress</h2>
-      {open.isError && <Notice tone="error">{open.error.message}</Notice>}
+      {open.isError && <Problem error={open.error} heading="h2" onRetry={() => void open.refetch()} />}
       {open.data && <RunsTable runs={open.data.runs} runPath={runPath} />}
       <h2 className="text-lg font-semibold">Signed run sheets</h2>
       {signed.data && <RunsTable runs={signed.data.runs} runPath={paths.runSheet.href} />}

@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { DataTable } from '@/components/ui/data-table';
 import { Link, useParams } from 'react-router-dom';
-import { Notice } from '@/components/ui/notice';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useUnit } from '@/features/units/api/get-unit';
@@ -25,7 +25,7 @@ export default function UnitPage() {
     if (!reading && trend.data?.readings[0]) setReading(trend.data.readings[0].id);
   }, [reading, trend.data]);
   if (page.isPending) return <p>Loading…</p>;
-  if (page.isError) return <Notice tone="error">{page.error.message}</Notice>;
+  if (page.isError) throw page.error;
   const { unit, photos, runs } = page.data;
   const canKeep = hasRole(user, 'technician', 'author', 'reviewer', 'admin');
   return (
@@ -77,7 +77,9 @@ export default function UnitPage() {
 
       <section>
         <h2 className="mb-2 text-lg font-semibold">Photos</h2>
-        <UnitPhotos unitId={unit.id} photos={photos} canAdd={canKeep} />
+        <RegionBoundary label="Photos">
+          <UnitPhotos unitId={unit.id} photos={photos} canAdd={canKeep} />
+        </RegionBoundary>
       </section>
 
       <section>
@@ -137,11 +139,13 @@ export default function UnitPage() {
               </select>
             </label>
             {trend.data.reading && (
-              <TrendPlot
-                points={trend.data.points}
-                unit={trend.data.reading.unit}
-                label={trend.data.reading.label}
-              />
+              <RegionBoundary label="Trend plot">
+                <TrendPlot
+                  points={trend.data.points}
+                  unit={trend.data.reading.unit}
+                  label={trend.data.reading.label}
+                />
+              </RegionBoundary>
             )}
           </div>
         ) : (

@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { Notice } from '@/components/ui/notice';
+import { Problem } from '@/components/errors/problem';
 import { paths } from '@/config/paths';
 import { useUnits, type UnitFilter } from '@/features/units/api/get-units';
 import { UnitForm } from '@/features/units/components/unit-form';
@@ -62,7 +62,7 @@ export default function UnitsPage() {
           </select>
         </label>
       </div>
-      {units.isError && <Notice tone="error">{units.error.message}</Notice>}
+      {units.isError && <Problem error={units.error} heading="h2" onRetry={() => void units.refetch()} />}
       {units.isPending ? (
         <p>Loading…</p>
       ) : (

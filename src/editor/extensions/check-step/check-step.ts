@@ -1,14 +1,15 @@
 import { Node } from '@tiptap/core';
-import type { CheckStepAttrs } from '@shared/document/schema';
-import { newBlockId } from '../../block-id';
+import { checkStep, type CheckStepAttrs } from '@shared/document/nodes';
 import { atomBlock } from '../atom-block';
-import { insertBlock } from '../insert-block';
-import { jsonAttribute, textAttribute } from '../json-attr';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     checkStep: {
-      /** Insert a step the technician must confirm by ticking it: a plain confirmation unless `attrs` says otherwise. */
+      /**
+       * Insert a step the technician must confirm by ticking it: a plain confirmation unless `attrs`
+       * says otherwise; false if invalid. The new step is selected, so its text can be written next.
+       */
       insertCheckStep: (text?: string, attrs?: Partial<Omit<CheckStepAttrs, 'id' | 'text'>>) => ReturnType;
     };
   }
@@ -19,27 +20,14 @@ export const DEFAULT_DISCHARGE_THRESHOLD = '60 V';
 
 export const CheckStep = Node.create({
   name: 'checkStep',
-  ...atomBlock('check-step'),
-
-  addAttributes() {
-    // Unset structured attributes stay null; the document schema reads null as "not stated".
-    return {
-      id: textAttribute('id'),
-      text: textAttribute('text'),
-      kind: jsonAttribute<CheckStepAttrs['kind'] | null>('kind', () => null),
-      threshold: jsonAttribute<CheckStepAttrs['threshold'] | null>('threshold', () => null),
-      seconds: jsonAttribute<CheckStepAttrs['seconds'] | null>('seconds', () => null),
-      drain: jsonAttribute<CheckStepAttrs['drain'] | null>('drain', () => null),
-      live: jsonAttribute<CheckStepAttrs['live'] | null>('live', () => null),
-    };
-  },
-
+  ...atomBlock('checkStep'),
+  addAttributes: () => nodeAttributes(checkStep),
   addCommands() {
     return {
       insertCheckStep:
         (text = '', attrs = {}) =>
         (props) =>
-          insertBlock(props, { type: this.name, attrs: { id: newBlockId(), text, ...attrs } }),
+          insertBlock(props, this.name, checkStep, { ...attrs, text }, { land: 'block' }),
     };
   },
 });

@@ -1,14 +1,12 @@
 import { Node } from '@tiptap/core';
-import type { FileAttrs } from '@shared/document/schema';
-import { newBlockId } from '../../block-id';
+import { file, type FileAttrs } from '@shared/document/nodes';
 import { atomBlock } from '../atom-block';
-import { insertBlock } from '../insert-block';
-import { textAttribute } from '../json-attr';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     procedureFile: {
-      /** Insert a link to an already-uploaded file (a PDF schematic, a scope capture). */
+      /** Insert a link to an already-uploaded file (a PDF schematic, a scope capture); false if invalid. */
       insertFile: (attrs: Omit<FileAttrs, 'id'>) => ReturnType;
     };
   }
@@ -17,20 +15,10 @@ declare module '@tiptap/core' {
 export const FileNode = Node.create({
   name: 'file',
   ...atomBlock('file'),
-
-  addAttributes() {
-    return {
-      id: textAttribute('id'),
-      attachmentId: textAttribute('attachment-id'),
-      fileName: textAttribute('file-name'),
-      mediaType: textAttribute('media-type', 'application/pdf'),
-    };
-  },
-
+  addAttributes: () => nodeAttributes(file),
   addCommands() {
     return {
-      insertFile: (attrs) => (props) =>
-        insertBlock(props, { type: this.name, attrs: { id: newBlockId(), ...attrs } }),
+      insertFile: (attrs) => (props) => insertBlock(props, this.name, file, attrs),
     };
   },
 });

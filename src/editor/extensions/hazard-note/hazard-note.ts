@@ -1,13 +1,15 @@
 import { Node, mergeAttributes } from '@tiptap/core';
-import type { HazardNoteAttrs } from '@shared/document/schema';
-import { newBlockId } from '../../block-id';
-import { insertBlock } from '../insert-block';
-import { jsonAttribute, textAttribute } from '../json-attr';
+import { hazardNote, type HazardNoteAttrs } from '@shared/document/nodes';
+import { htmlName } from '../atom-block';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     hazardNote: {
-      /** Insert a hazard note (danger or warning) holding one paragraph of text, with the live-work cautions it states. */
+      /**
+       * Insert a hazard note (danger or warning) holding one paragraph of text, with the live-work
+       * cautions it states; false if invalid. The cursor lands in the note's text.
+       */
       insertHazardNote: (
         level?: HazardNoteAttrs['level'],
         text?: string,
@@ -17,6 +19,8 @@ declare module '@tiptap/core' {
   }
 }
 
+const dataType = htmlName('hazardNote');
+
 /** A caution block in safety colours; its content is paragraphs only. */
 export const HazardNote = Node.create({
   name: 'hazardNote',
@@ -24,36 +28,26 @@ export const HazardNote = Node.create({
   content: 'paragraph+',
   defining: true,
   draggable: true,
-
-  addAttributes() {
-    return {
-      id: textAttribute('id'),
-      level: textAttribute('level', 'danger'),
-      // The live-work cautions the note states; null until the author ticks one.
-      flags: jsonAttribute<HazardNoteAttrs['flags'] | null>('flags', () => null),
-    };
-  },
-
-  parseHTML() {
-    return [{ tag: 'div[data-type="hazard-note"]' }];
-  },
-
-  renderHTML({ HTMLAttributes }) {
-    return ['div', mergeAttributes(HTMLAttributes, { 'data-type': 'hazard-note' }), 0];
-  },
-
+  addAttributes: () => nodeAttributes(hazardNote),
+  parseHTML: () => [{ tag: `div[data-type="${dataType}"]` }],
+  renderHTML: ({ HTMLAttributes }) => ['div', mergeAttributes(HTMLAttributes, { 'data-type': dataType }), 0],
   addCommands() {
     return {
       insertHazardNote:
         (level = 'danger', text = '', flags) =>
         (props) =>
-          insertBlock(props, {
-            type: this.name,
-            attrs: { id: newBlockId(), level, flags: flags ?? null },
-            content: [
-              text ? { type: 'paragraph', content: [{ type: 'text', text }] } : { type: 'paragraph' },
-            ],
-          }),
+          insertBlock(
+            props,
+            this.name,
+            hazardNote,
+            { level, flags: flags ?? null },
+            {
+              content: [
+                text ? { type: 'paragraph', content: [{ type: 'text', text }] } : { type: 'paragraph' },
+              ],
+              land: 'inside',
+            },
+          ),
     };
   },
 });

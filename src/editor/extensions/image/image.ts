@@ -1,14 +1,12 @@
 import { Node } from '@tiptap/core';
-import type { ImageAttrs } from '@shared/document/schema';
-import { newBlockId } from '../../block-id';
+import { image } from '@shared/document/nodes';
 import { atomBlock } from '../atom-block';
-import { insertBlock } from '../insert-block';
-import { textAttribute } from '../json-attr';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     procedureImage: {
-      /** Insert an already-uploaded image by its attachment id. */
+      /** Insert an already-uploaded image by its attachment id; false if invalid. */
       insertImage: (attrs: { attachmentId: string; alt?: string; caption?: string }) => ReturnType;
     };
   }
@@ -18,24 +16,10 @@ declare module '@tiptap/core' {
 export const ImageNode = Node.create({
   name: 'image',
   ...atomBlock('image', 'figure'),
-
-  addAttributes() {
-    return {
-      id: textAttribute('id'),
-      attachmentId: textAttribute('attachment-id'),
-      alt: textAttribute('alt'),
-      caption: textAttribute('caption'),
-    };
-  },
-
+  addAttributes: () => nodeAttributes(image),
   addCommands() {
     return {
-      insertImage:
-        ({ attachmentId, alt = '', caption = '' }) =>
-        (props) => {
-          const attrs: ImageAttrs = { id: newBlockId(), attachmentId, alt, caption };
-          return insertBlock(props, { type: this.name, attrs });
-        },
+      insertImage: (attrs) => (props) => insertBlock(props, this.name, image, attrs),
     };
   },
 });

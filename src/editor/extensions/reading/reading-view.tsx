@@ -1,9 +1,14 @@
 import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
-import { LIVE_READING_UNITS, type ReadingAttrs } from '@shared/document/schema';
+import type { ReadingAttrs } from '@shared/document/schema';
 import { readingMeasure } from '@shared/document/upgrade';
 import { MEASURE_WORDS } from '@shared/reckoners/measures';
-import { READING_MEASURES, READING_UNITS, takesMeasure } from '@shared/reckoners/reading-units';
+import {
+  LIVE_READING_UNITS,
+  READING_MEASURES,
+  READING_UNITS,
+  takesMeasure,
+} from '@shared/reckoners/reading-units';
 import { numericOutputs, readingResult, useEvaluation } from '../../evaluation-context';
 import { BlockFrame } from '../block-frame';
 

@@ -1,58 +1,28 @@
 import { Node } from '@tiptap/core';
-import type { ReadingAttrs } from '@shared/document/schema';
-import { newBlockId } from '../../block-id';
+import { reading, type ReadingAttrs } from '@shared/document/nodes';
 import { atomBlock } from '../atom-block';
-import { insertBlock } from '../insert-block';
-import { jsonAttribute, textAttribute } from '../json-attr';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     reading: {
-      /** Insert an empty reading (volts, literal expected value). */
+      /** Insert a reading (volts DC, ±10 %, literal expected value unless `attrs` says otherwise); false if invalid. */
       insertReading: (attrs?: Partial<Omit<ReadingAttrs, 'id'>>) => ReturnType;
     };
   }
 }
 
-/** A measurement step: what, where, meter range, unit, expected value and tolerance. */
+/** A measurement step; its attributes are the reading node module's. */
 export const Reading = Node.create({
   name: 'reading',
   ...atomBlock('reading'),
-
-  addAttributes() {
-    return {
-      id: textAttribute('id'),
-      label: textAttribute('label'),
-      testPoint: textAttribute('test-point'),
-      meterRange: textAttribute('meter-range'),
-      unit: textAttribute('unit', 'V'),
-      measure: jsonAttribute<ReadingAttrs['measure']>('measure', () => null),
-      expected: jsonAttribute<ReadingAttrs['expected']>('expected', () => ({ literal: '' })),
-      followsMains: jsonAttribute<ReadingAttrs['followsMains']>('follows-mains', () => null),
-      tolerance: textAttribute('tolerance'),
-      // Null: live by its unit (V, A, W, Hz); true or false as the author marks it.
-      live: jsonAttribute<ReadingAttrs['live'] | null>('live', () => null),
-    };
-  },
-
+  addAttributes: () => nodeAttributes(reading),
   addCommands() {
     return {
       insertReading:
         (attrs = {}) =>
-        (props) => {
-          const full: ReadingAttrs = {
-            id: newBlockId(),
-            label: '',
-            testPoint: '',
-            meterRange: '',
-            unit: 'V',
-            measure: 'dc',
-            expected: { literal: '' },
-            tolerance: '±10 %',
-            ...attrs,
-          };
-          return insertBlock(props, { type: this.name, attrs: full });
-        },
+        (props) =>
+          insertBlock(props, this.name, reading, attrs),
     };
   },
 });

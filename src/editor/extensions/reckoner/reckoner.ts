@@ -1,15 +1,13 @@
 import { Node } from '@tiptap/core';
-import type { InputValue, ReckonerAttrs } from '@shared/document/schema';
+import { reckoner, type InputValue } from '@shared/document/nodes';
 import { getReckoner, type FieldSpec } from '@shared/reckoners';
-import { newBlockId } from '../../block-id';
 import { atomBlock } from '../atom-block';
-import { insertBlock } from '../insert-block';
-import { jsonAttribute, textAttribute } from '../json-attr';
+import { insertBlock, nodeAttributes } from '../node-attributes';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
     reckoner: {
-      /** Insert a reckoner of a registry kind with its default inputs; false for an unknown kind. */
+      /** Insert a reckoner of a registry kind with a fresh name and its default inputs; false for an unknown kind. */
       insertReckoner: (kind: string) => ReturnType;
     };
   }
@@ -49,14 +47,7 @@ export const Reckoner = Node.create({
   name: 'reckoner',
   ...atomBlock('reckoner'),
 
-  addAttributes() {
-    return {
-      id: textAttribute('id'),
-      name: textAttribute('name'),
-      kind: textAttribute('kind'),
-      inputs: jsonAttribute<ReckonerAttrs['inputs']>('inputs', () => ({})),
-    };
-  },
+  addAttributes: () => nodeAttributes(reckoner),
 
   addCommands() {
     return {
@@ -68,13 +59,8 @@ export const Reckoner = Node.create({
         state.doc.descendants((n) => {
           if (n.type.name === 'reckoner') taken.add(String(n.attrs.name));
         });
-        const attrs: ReckonerAttrs = {
-          id: newBlockId(),
-          name: freshName(kind, taken),
-          kind,
-          inputs: initialInputs(def.fields),
-        };
-        return insertBlock(props, { type: this.name, attrs });
+        const attrs = { name: freshName(kind, taken), kind, inputs: initialInputs(def.fields) };
+        return insertBlock(props, this.name, reckoner, attrs);
       },
     };
   },

@@ -2,6 +2,8 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type { ChangePasswordBody } from '@shared/schemas/auth';
 import type { SessionInfo, SessionUser } from '@/features/auth/api/get-session';
 import { api } from '@/lib/api-client';
+import { authKeys } from '@/features/auth/api/keys';
+import { accountKeys } from './keys';
 
 export interface AccountInfo {
   user: SessionUser;
@@ -9,15 +11,15 @@ export interface AccountInfo {
 }
 
 export const accountQueryOptions = () =>
-  queryOptions({ queryKey: ['account'], queryFn: () => api.get<AccountInfo>('/api/auth/account') });
+  queryOptions({ queryKey: accountKeys.all, queryFn: () => api.get<AccountInfo>('/api/auth/account') });
 export const useAccount = () => useQuery(accountQueryOptions());
 
 /** After a change to the account, what the session and account page show is read again. */
 function useRefreshAccount() {
   const queryClient = useQueryClient();
   return async () => {
-    await queryClient.invalidateQueries({ queryKey: ['account'] });
-    await queryClient.invalidateQueries({ queryKey: ['session'] });
+    await queryClient.invalidateQueries({ queryKey: accountKeys.all });
+    await queryClient.invalidateQueries({ queryKey: authKeys.session });
   };
 }
 
@@ -25,7 +27,7 @@ export function useChangePassword() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: ChangePasswordBody) => api.post<SessionInfo>('/api/auth/password', body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['session'] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: authKeys.session }),
   });
 }
 
@@ -35,7 +37,7 @@ export function useSignOutEverywhere() {
     mutationFn: () => api.post<{ ok: boolean; sessionsEnded: number }>('/api/auth/sign-out-everywhere'),
     onSuccess: async () => {
       queryClient.clear();
-      await queryClient.invalidateQueries({ queryKey: ['session'] });
+      await queryClient.invalidateQueries({ queryKey: authKeys.session });
     },
   });
 }

@@ -1,7 +1,11 @@
-import { useEffect, useState, type FormEvent } from 'react';
+import { useEffect, useState } from 'react';
+import { codeBody, passwordBody } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import type { ApiError } from '@/lib/api-client';
+import { showServerError, useZodForm } from '@/lib/form';
 import {
   useConfirmTotp,
   useDisableTotp,
@@ -54,32 +58,35 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
 function PasswordStep({
   label,
   pending,
-  error,
   onSubmit,
   variant = 'primary',
 }: {
   label: string;
   pending: boolean;
-  error?: string;
-  onSubmit: (password: string) => void;
+  /** Sends the password; the refusal comes back through onError. */
+  onSubmit: (password: string, onError: (e: ApiError) => void) => void;
   variant?: 'primary' | 'danger' | 'quiet';
 }) {
-  const [password, setPassword] = useState('');
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    onSubmit(password);
-  };
+  const form = useZodForm(passwordBody, { defaultValues: { password: '' } });
+  // A wrong password is a refusal of the field itself, whatever the server calls it.
+  const submit = form.handleSubmit(({ password }) =>
+    onSubmit(password, (e) =>
+      e.fields.length
+        ? showServerError(form, e)
+        : form.setError('password', { type: 'server', message: e.message }),
+    ),
+  );
   return (
     <form onSubmit={submit} aria-label={label} className="flex flex-col gap-3" noValidate>
       <Field
         label="Your password"
         type="password"
         autoComplete="current-password"
-        value={password}
-        onChange={(e) => setPassword(e.target.value)}
-        error={error}
+        {...form.register('password')}
+        error={form.formState.errors.password?.message}
       />
-      <Button type="submit" variant={variant} className="self-start" disabled={pending || !password}>
+      <FormProblem formState={form.formState} />
+      <Button type="submit" variant={variant} className="self-start" disabled={pending}>
         {label}
       </Button>
     </form>
@@ -91,25 +98,22 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
   const confirm = useConfirmTotp();
   const renew = useNewRecoveryCodes();
   const disable = useDisableTotp();
-  const [code, setCode] = useState('');
+  const codeForm = useZodForm(codeBody, { defaultValues: { code: '' } });
   const [shownCodes, setShownCodes] = useState<string[]>();
   const [action, setAction] = useState<'renew' | 'disable'>();
   const qr = useQrImage(start.data?.otpauthUrl);
   const { enabled, required, recoveryCodesLeft } = account.secondFactor;
 
-  const confirmCode = (e: FormEvent) => {
-    e.preventDefault();
-    confirm.mutate(
-      { code: code.trim() },
-      {
-        onSuccess: (r) => {
-          setShownCodes(r.recoveryCodes);
-          start.reset();
-          setCode('');
-        },
+  const confirmCode = codeForm.handleSubmit((body) =>
+    confirm.mutate(body, {
+      onSuccess: (r) => {
+        setShownCodes(r.recoveryCodes);
+        start.reset();
+        codeForm.reset();
       },
-    );
-  };
+      onError: (e) => showServerError(codeForm, e),
+    }),
+  );
 
   return (
     <section
@@ -139,8 +143,7 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
             <PasswordStep
               label="Make new recovery codes"
               pending={renew.isPending}
-              error={renew.error?.message}
-              onSubmit={(password) =>
+              onSubmit={(password, onError) =>
                 renew.mutate(
                   { password },
                   {
@@ -148,6 +151,7 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
                       setShownCodes(r.recoveryCodes);
                       setAction(undefined);
                     },
+                    onError,
                   },
                 )
               }
@@ -157,8 +161,9 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
               label="Turn authenticator codes off"
               variant="danger"
               pending={disable.isPending}
-              error={disable.error?.message}
-              onSubmit={(password) => disable.mutate({ password }, { onSuccess: () => setAction(undefined) })}
+              onSubmit={(password, onError) =>
+                disable.mutate({ password }, { onSuccess: () => setAction(undefined), onError })
+              }
             />
           ) : (
             <div className="flex flex-wrap gap-3">
@@ -201,18 +206,15 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
               {start.data.secret}
             </code>
           </p>
-          {confirm.error && !confirm.error.fields.length && (
-            <Notice tone="error">{confirm.error.message}</Notice>
-          )}
+          <FormProblem formState={codeForm.formState} />
           <Field
             label="Code from the app"
             autoComplete="one-time-code"
             inputMode="numeric"
-            value={code}
-            onChange={(e) => setCode(e.target.value)}
-            error={confirm.error?.fields.length ? confirm.error.message : undefined}
+            {...codeForm.register('code')}
+            error={codeForm.formState.errors.code?.message}
           />
-          <Button type="submit" className="self-start" disabled={confirm.isPending || code.trim().length < 6}>
+          <Button type="submit" className="self-start" disabled={confirm.isPending}>
             Turn on authenticator codes
           </Button>
         </form>
@@ -220,8 +222,7 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
         <PasswordStep
           label="Set up an authenticator"
           pending={start.isPending}
-          error={start.error?.message}
-          onSubmit={(password) => start.mutate({ password })}
+          onSubmit={(password, onError) => start.mutate({ password }, { onError })}
         />
       )}
     </section>

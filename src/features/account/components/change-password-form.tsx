@@ -1,32 +1,29 @@
-import { useState, type FormEvent } from 'react';
+import { z } from 'zod';
+import { changePasswordBody } from '@shared/schemas/auth';
 import { PASSWORD_MIN } from '@shared/schemas/limits';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useChangePassword } from '../api/account';
+
+const changePasswordForm = changePasswordBody
+  .extend({ repeat: z.string() })
+  .refine((v) => v.repeat === v.newPassword, { path: ['repeat'], message: 'The two entries differ.' });
 
 export function ChangePasswordForm() {
   const change = useChangePassword();
-  const [currentPassword, setCurrent] = useState('');
-  const [newPassword, setNew] = useState('');
-  const [repeat, setRepeat] = useState('');
-  const mismatch = repeat.length > 0 && repeat !== newPassword;
-  const fieldError = (name: string) => change.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    if (mismatch) return;
+  const form = useZodForm(changePasswordForm, {
+    defaultValues: { currentPassword: '', newPassword: '', repeat: '' },
+  });
+  const { errors } = form.formState;
+  const submit = form.handleSubmit(({ currentPassword, newPassword }) =>
     change.mutate(
       { currentPassword, newPassword },
-      {
-        onSuccess: () => {
-          setCurrent('');
-          setNew('');
-          setRepeat('');
-        },
-      },
-    );
-  };
+      { onSuccess: () => form.reset(), onError: (e) => showServerError(form, e) },
+    ),
+  );
 
   return (
     <form
@@ -41,37 +38,30 @@ export function ChangePasswordForm() {
           Your password is changed. Every other place you were signed in has been signed out.
         </Notice>
       )}
-      {change.error && <Notice tone="error">{change.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       <Field
         label="Current password"
         type="password"
         autoComplete="current-password"
-        value={currentPassword}
-        onChange={(e) => setCurrent(e.target.value)}
-        error={fieldError('currentPassword')}
+        {...form.register('currentPassword')}
+        error={errors.currentPassword?.message}
       />
       <Field
         label="New password"
         type="password"
         autoComplete="new-password"
-        value={newPassword}
-        onChange={(e) => setNew(e.target.value)}
+        {...form.register('newPassword')}
         hint={`At least ${PASSWORD_MIN} characters; a long passphrase is best.`}
-        error={fieldError('newPassword')}
+        error={errors.newPassword?.message}
       />
       <Field
         label="Repeat the new password"
         type="password"
         autoComplete="new-password"
-        value={repeat}
-        onChange={(e) => setRepeat(e.target.value)}
-        error={mismatch ? 'The two entries differ.' : undefined}
+        {...form.register('repeat')}
+        error={errors.repeat?.message}
       />
-      <Button
-        type="submit"
-        className="self-start"
-        disabled={change.isPending || !currentPassword || newPassword.length < PASSWORD_MIN || mismatch}
-      >
+      <Button type="submit" className="self-start" disabled={change.isPending}>
         {change.isPending ? 'Changing…' : 'Change password'}
       </Button>
     </form>

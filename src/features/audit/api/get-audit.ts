@@ -1,6 +1,7 @@
-import { keepPreviousData, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { AuditEntryView } from '@shared/schemas/review';
 import { api } from '@/lib/api-client';
+import { auditKeys } from './keys';
 
 export interface AuditFilters {
   action?: string;
@@ -18,15 +19,18 @@ export interface AuditPage {
   actions: string[];
 }
 
-export function useAuditLog(filters: AuditFilters) {
-  const qs = new URLSearchParams();
-  for (const [k, v] of Object.entries(filters)) if (v !== undefined && v !== '') qs.set(k, String(v));
-  return useQuery({
-    queryKey: ['audit', qs.toString()],
-    queryFn: () => api.get<AuditPage>(`/api/audit?${qs}`),
+export const auditLogQueryOptions = (filters: AuditFilters) =>
+  queryOptions({
+    queryKey: auditKeys.log(filters),
+    queryFn: () => {
+      const qs = new URLSearchParams();
+      for (const [k, v] of Object.entries(filters)) if (v !== undefined && v !== '') qs.set(k, String(v));
+      return api.get<AuditPage>(`/api/audit?${qs}`);
+    },
     placeholderData: keepPreviousData,
   });
-}
+
+export const useAuditLog = (filters: AuditFilters) => useQuery(auditLogQueryOptions(filters));
 
 export interface ChainReport {
   checked: number;
@@ -37,7 +41,7 @@ export interface ChainReport {
 /** Runs the hash-chain check on demand (it reads the whole log). */
 export const useAuditChainCheck = () =>
   useQuery({
-    queryKey: ['audit', 'chain'],
+    queryKey: auditKeys.chain(),
     queryFn: async () => (await api.get<{ chain: ChainReport }>('/api/audit/chain')).chain,
     enabled: false,
   });

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Role } from '@shared/schemas/roles';
 import { api } from '@/lib/api-client';
+import { authKeys } from './keys';
 
 export interface SessionUser {
   id: string;
@@ -23,7 +24,7 @@ export interface SessionInfo {
 export const getSession = () => api.get<SessionInfo>('/api/auth/session');
 
 export const sessionQueryOptions = () =>
-  queryOptions({ queryKey: ['session'], queryFn: getSession, staleTime: 60_000 });
+  queryOptions({ queryKey: authKeys.session, queryFn: getSession, staleTime: 60_000 });
 
 export const useSession = () => useQuery(sessionQueryOptions());
 

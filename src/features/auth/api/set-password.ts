@@ -1,15 +1,17 @@
-import { useMutation, useQuery } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { authKeys } from './keys';
 
-export const useInvitation = (token: string) =>
-  useQuery({
-    queryKey: ['invitation', token],
+export const invitationQueryOptions = (token: string) =>
+  queryOptions({
+    queryKey: authKeys.invitation(token),
     queryFn: () =>
       api.get<{ email: string; displayName: string; purpose: 'invitation' | 'reset' }>(
         `/api/auth/invitations/${encodeURIComponent(token)}`,
       ),
     retry: false,
   });
+export const useInvitation = (token: string) => useQuery(invitationQueryOptions(token));
 
 export const useSetPassword = () =>
   useMutation({

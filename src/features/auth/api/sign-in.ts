@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SignInBody } from '@shared/schemas/auth';
 import { api } from '@/lib/api-client';
-import type { SessionInfo } from './get-session';
+import { sessionQueryOptions, type SessionInfo } from './get-session';
 
 export const signIn = (body: SignInBody) => api.post<SessionInfo>('/api/auth/sign-in', body);
 export const signInWithCode = (body: { code: string }) =>
@@ -13,7 +13,7 @@ function useSignedIn() {
   return (session: SessionInfo) => {
     if (!session.user) return; // half-way: the code step follows
     queryClient.clear();
-    queryClient.setQueryData(['session'], session);
+    queryClient.setQueryData(sessionQueryOptions().queryKey, session);
   };
 }
 

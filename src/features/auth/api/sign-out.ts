@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import { authKeys } from './keys';
 
 export function useSignOut() {
   const queryClient = useQueryClient();
@@ -7,7 +8,7 @@ export function useSignOut() {
     mutationFn: () => api.post<{ ok: boolean }>('/api/auth/sign-out'),
     onSettled: async () => {
       queryClient.clear();
-      await queryClient.invalidateQueries({ queryKey: ['session'] });
+      await queryClient.invalidateQueries({ queryKey: authKeys.session });
     },
   });
 }

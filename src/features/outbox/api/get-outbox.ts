@@ -1,6 +1,7 @@
-import { keepPreviousData, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { OutboxItemView } from '@shared/schemas/review';
 import { api } from '@/lib/api-client';
+import { outboxKeys } from './keys';
 
 export interface OutboxPage {
   items: OutboxItemView[];
@@ -10,13 +11,18 @@ export interface OutboxPage {
   pageSize: number;
 }
 
-export function useOutbox(status: '' | 'sent' | 'pending', page: number) {
-  const qs = new URLSearchParams({ page: String(page) });
-  if (status) qs.set('status', status);
-  return useQuery({
-    queryKey: ['outbox', status, page],
-    queryFn: () => api.get<OutboxPage>(`/api/mail/outbox?${qs}`),
+export type OutboxStatus = '' | 'sent' | 'pending';
+
+export const outboxQueryOptions = (status: OutboxStatus, page: number) =>
+  queryOptions({
+    queryKey: outboxKeys.list(status, page),
+    queryFn: () => {
+      const qs = new URLSearchParams({ page: String(page) });
+      if (status) qs.set('status', status);
+      return api.get<OutboxPage>(`/api/mail/outbox?${qs}`);
+    },
     placeholderData: keepPreviousData,
-    refetchInterval: 10_000,
   });
-}
+
+export const useOutbox = (status: OutboxStatus, page: number) =>
+  useQuery({ ...outboxQueryOptions(status, page), refetchInterval: 10_000 });

@@ -1,6 +1,8 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PersonView } from '@shared/schemas/people';
 import { api } from '@/lib/api-client';
+import { authKeys } from '@/features/auth/api/keys';
+import { peopleKeys } from './keys';
 
 /** Mails the person a one-time link to choose a new password; the admin never sees the link. */
 export function usePasswordReset() {
@@ -14,7 +16,7 @@ export function useSecondFactorReset() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => api.post<{ person: PersonView }>(`/api/people/${id}/second-factor-reset`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['people'] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.all }),
   });
 }
 
@@ -25,7 +27,7 @@ export interface SignInSettings {
 
 export const signInSettingsQueryOptions = () =>
   queryOptions({
-    queryKey: ['settings', 'sign-in'],
+    queryKey: peopleKeys.signInSettings(),
     queryFn: () => api.get<SignInSettings>('/api/settings/sign-in'),
   });
 export const useSignInSettings = () => useQuery(signInSettingsQueryOptions());
@@ -36,8 +38,8 @@ export function useSaveSignInSettings() {
     mutationFn: (body: { requireSecondFactor: boolean }) =>
       api.put<SignInSettings>('/api/settings/sign-in', body),
     onSuccess: async () => {
-      await queryClient.invalidateQueries({ queryKey: ['settings', 'sign-in'] });
-      await queryClient.invalidateQueries({ queryKey: ['session'] });
+      await queryClient.invalidateQueries({ queryKey: peopleKeys.signInSettings() });
+      await queryClient.invalidateQueries({ queryKey: authKeys.session });
     },
   });
 }

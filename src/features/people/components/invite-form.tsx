@@ -1,29 +1,24 @@
-import { useState, type FormEvent } from 'react';
-import { ROLE_LABELS, ROLES, type Role } from '@shared/schemas/roles';
+import { inviteBody } from '@shared/schemas/people';
+import { ROLE_LABELS, ROLES } from '@shared/schemas/roles';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useInvitePerson } from '../api/invite-person';
 
 export function InviteForm() {
   const invite = useInvitePerson();
-  const [email, setEmail] = useState('');
-  const [displayName, setDisplayName] = useState('');
-  const [roles, setRoles] = useState<Role[]>(['technician']);
-  const fieldError = (name: string) => invite.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    invite.mutate(
-      { email, displayName, roles },
-      {
-        onSuccess: () => {
-          setEmail('');
-          setDisplayName('');
-        },
-      },
-    );
-  };
+  const form = useZodForm(inviteBody, {
+    defaultValues: { email: '', displayName: '', roles: ['technician'] },
+  });
+  const { errors } = form.formState;
+  const submit = form.handleSubmit((body) =>
+    invite.mutate(body, {
+      onSuccess: () => form.reset({ email: '', displayName: '', roles: body.roles }),
+      onError: (e) => showServerError(form, e),
+    }),
+  );
 
   return (
     <form
@@ -32,7 +27,7 @@ export function InviteForm() {
       noValidate
     >
       <h2 className="text-lg font-semibold">Invite a person</h2>
-      {invite.error && <Notice tone="error">{invite.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       {invite.data && (
         <Notice tone="success">
           {invite.data.person.displayName} is invited. An e-mail with a one-time link to choose a password
@@ -41,36 +36,24 @@ export function InviteForm() {
         </Notice>
       )}
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field
-          label="Name"
-          value={displayName}
-          onChange={(e) => setDisplayName(e.target.value)}
-          error={fieldError('displayName')}
-        />
-        <Field
-          label="E-mail"
-          type="email"
-          value={email}
-          onChange={(e) => setEmail(e.target.value)}
-          error={fieldError('email')}
-        />
+        <Field label="Name" {...form.register('displayName')} error={errors.displayName?.message} />
+        <Field label="E-mail" type="email" {...form.register('email')} error={errors.email?.message} />
       </div>
-      <fieldset>
+      <fieldset aria-describedby={errors.roles ? 'invite-roles-error' : undefined}>
         <legend className="text-sm font-semibold">Roles</legend>
         <div className="mt-2 flex flex-wrap gap-4">
           {ROLES.map((r) => (
             <label key={r} className="flex min-h-11 items-center gap-2">
-              <input
-                type="checkbox"
-                className="size-5"
-                checked={roles.includes(r)}
-                onChange={(e) => setRoles(e.target.checked ? [...roles, r] : roles.filter((x) => x !== r))}
-              />
+              <input type="checkbox" className="size-5" value={r} {...form.register('roles')} />
               {ROLE_LABELS[r]}
             </label>
           ))}
         </div>
-        {fieldError('roles') && <p className="text-sm text-out">{fieldError('roles')}</p>}
+        {errors.roles && (
+          <p id="invite-roles-error" role="alert" className="text-sm text-out">
+            {errors.roles.message ?? errors.roles.root?.message}
+          </p>
+        )}
       </fieldset>
       <Button type="submit" disabled={invite.isPending} className="self-start">
         Create invitation

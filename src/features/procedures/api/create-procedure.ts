@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CreateProcedureBody, RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
+import { revisionQueryOptions } from './get-revision';
+import { procedureKeys } from './keys';
 
 export interface CreatedProcedure {
   procedure: { id: string };
@@ -15,8 +17,8 @@ export function useCreateProcedure() {
   return useMutation({
     mutationFn: createProcedure,
     onSuccess: (data) => {
-      queryClient.setQueryData(['revisions', data.revision.id], { revision: data.revision });
-      return queryClient.invalidateQueries({ queryKey: ['procedures'] });
+      queryClient.setQueryData(revisionQueryOptions(data.revision.id).queryKey, { revision: data.revision });
+      return queryClient.invalidateQueries({ queryKey: procedureKeys.all });
     },
   });
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RevisionStateName } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
+import { procedureKeys } from './keys';
 
 export interface ProcedureDetail {
   procedure: { id: string; title: string; equipmentFamily: string; equipmentModel: string; tags: string[] };
@@ -17,6 +18,6 @@ export const getProcedure = (id: string) =>
   api.get<ProcedureDetail>(`/api/procedures/${encodeURIComponent(id)}`);
 
 export const procedureQueryOptions = (id: string) =>
-  queryOptions({ queryKey: ['procedures', id], queryFn: () => getProcedure(id) });
+  queryOptions({ queryKey: procedureKeys.detail(id), queryFn: () => getProcedure(id) });
 
 export const useProcedure = (id: string) => useQuery(procedureQueryOptions(id));

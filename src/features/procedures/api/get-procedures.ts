@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { ProcedureFacets, ProcedureListQuery, ProcedurePage } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
+import { procedureKeys } from './keys';
 
 const queryString = (q: ProcedureListQuery) => {
   const qs = new URLSearchParams();
@@ -13,15 +14,16 @@ export const getProcedures = (q: ProcedureListQuery = {}) =>
 
 /** One page of the list; filtering, sorting and paging happen on the server. */
 export const proceduresQueryOptions = (q: ProcedureListQuery) =>
-  queryOptions({ queryKey: ['procedures', 'list', q], queryFn: () => getProcedures(q) });
+  queryOptions({ queryKey: procedureKeys.list(q), queryFn: () => getProcedures(q) });
 
 /** Keeps the current page on screen while the next one loads. */
 export const useProcedures = (q: ProcedureListQuery) =>
   useQuery({ ...proceduresQueryOptions(q), placeholderData: keepPreviousData });
 
-export const useProcedureFacets = () =>
-  useQuery({
-    queryKey: ['procedures', 'facets'],
+export const procedureFacetsQueryOptions = () =>
+  queryOptions({
+    queryKey: procedureKeys.facets(),
     queryFn: async () => (await api.get<{ facets: ProcedureFacets }>('/api/procedures/facets')).facets,
     staleTime: 60_000,
   });
+export const useProcedureFacets = () => useQuery(procedureFacetsQueryOptions());

@@ -1,4 +1,3 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RevisionView, SaveRevisionBody } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
 
@@ -8,14 +7,3 @@ export const saveRevision = (id: string, body: SaveRevisionBody) =>
     `/api/revisions/${encodeURIComponent(id)}`,
     body as unknown as Record<string, unknown>,
   );
-
-export function useSaveRevision(id: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: SaveRevisionBody) => saveRevision(id, body),
-    onSuccess: (data) => {
-      queryClient.setQueryData(['revisions', id], data);
-      return queryClient.invalidateQueries({ queryKey: ['procedures'] });
-    },
-  });
-}

@@ -1,6 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RevisionView } from '@shared/schemas/procedures';
 import { api } from '@/lib/api-client';
+import { revisionQueryOptions } from './get-revision';
+import { procedureKeys } from './keys';
 
 /** Starts the next draft from the approved revision; 409 names the open revision to continue instead. */
 export const startDraft = (procedureId: string) =>
@@ -11,8 +13,8 @@ export function useStartDraft() {
   return useMutation({
     mutationFn: startDraft,
     onSuccess: (data) => {
-      queryClient.setQueryData(['revisions', data.revision.id], { revision: data.revision });
-      return queryClient.invalidateQueries({ queryKey: ['procedures'] });
+      queryClient.setQueryData(revisionQueryOptions(data.revision.id).queryKey, { revision: data.revision });
+      return queryClient.invalidateQueries({ queryKey: procedureKeys.all });
     },
   });
 }

@@ -1,52 +1,54 @@
-import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
-import { createProcedureBody } from '@shared/schemas/procedures';
+import { z } from 'zod';
+import { paramsSchema } from '@shared/document/params';
+import { createProcedureBody, procedureMetaSchema } from '@shared/schemas/procedures';
 import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
-import { Notice } from '@/components/ui/notice';
+import { FormProblem } from '@/components/ui/form-problem';
 import { paths } from '@/config/paths';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useCreateProcedure } from '../api/create-procedure';
+
+/** The server's rules, with tags typed as one comma-separated line and only the nominal mains asked for. */
+const newProcedureForm = createProcedureBody
+  .extend({
+    tags: z
+      .string()
+      .transform((line) =>
+        line
+          .split(',')
+          .map((t) => t.trim())
+          .filter(Boolean),
+      )
+      .pipe(procedureMetaSchema.shape.tags),
+    params: paramsSchema.pick({ mainsNominal: true, mainsFrequency: true }),
+  })
+  // The measured mains starts at the nominal value; a bench run replaces it.
+  .transform(({ params, ...meta }) => ({
+    ...meta,
+    params: { ...params, mainsVoltage: params.mainsNominal },
+  }));
 
 /** Title, equipment, tags and nominal mains for a new procedure; on success, straight into the editor. */
 export function NewProcedureForm() {
   const create = useCreateProcedure();
   const navigate = useNavigate();
-  const [form, setForm] = useState({
-    title: '',
-    equipmentFamily: '',
-    equipmentModel: '',
-    tags: '',
-    mainsNominal: '230',
-    mainsFrequency: '50',
+  const form = useZodForm(newProcedureForm, {
+    defaultValues: {
+      title: '',
+      equipmentFamily: '',
+      equipmentModel: '',
+      tags: '',
+      params: { mainsNominal: 230, mainsFrequency: 50 },
+    },
   });
-  const [local, setLocal] = useState<Record<string, string>>({});
-  const set = (key: keyof typeof form) => (e: React.ChangeEvent<HTMLInputElement>) =>
-    setForm({ ...form, [key]: e.target.value });
-  const fieldError = (name: string) =>
-    local[name] ?? create.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const nominal = Number(form.mainsNominal);
-    const body = {
-      title: form.title,
-      equipmentFamily: form.equipmentFamily,
-      equipmentModel: form.equipmentModel,
-      tags: form.tags
-        .split(',')
-        .map((t) => t.trim())
-        .filter(Boolean),
-      // The measured mains starts at the nominal value; a bench run replaces it.
-      params: { mainsNominal: nominal, mainsVoltage: nominal, mainsFrequency: Number(form.mainsFrequency) },
-    };
-    const parsed = createProcedureBody.safeParse(body);
-    if (!parsed.success) {
-      setLocal(Object.fromEntries(parsed.error.issues.map((i) => [i.path.join('.'), i.message])));
-      return;
-    }
-    setLocal({});
-    create.mutate(parsed.data, { onSuccess: (d) => navigate(paths.editRevision.href(d.revision.id)) });
-  };
+  const { errors } = form.formState;
+  const submit = form.handleSubmit((body) =>
+    create.mutate(body, {
+      onSuccess: (d) => navigate(paths.editRevision.href(d.revision.id)),
+      onError: (e) => showServerError(form, e, { 'params.mainsVoltage': 'params.mainsNominal' }),
+    }),
+  );
 
   return (
     <form
@@ -54,35 +56,31 @@ export function NewProcedureForm() {
       noValidate
       className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5"
     >
-      {create.error && !create.error.fields.length && <Notice tone="error">{create.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       <Field
         label="Title"
-        value={form.title}
-        onChange={set('title')}
-        error={fieldError('title')}
+        {...form.register('title')}
+        error={errors.title?.message}
         placeholder="First power-up after a reservoir capacitor change"
       />
       <div className="grid gap-4 sm:grid-cols-2">
         <Field
           label="Equipment family"
-          value={form.equipmentFamily}
-          onChange={set('equipmentFamily')}
-          error={fieldError('equipmentFamily')}
+          {...form.register('equipmentFamily')}
+          error={errors.equipmentFamily?.message}
           placeholder="Guitar combo"
         />
         <Field
           label="Model"
-          value={form.equipmentModel}
-          onChange={set('equipmentModel')}
-          error={fieldError('equipmentModel')}
+          {...form.register('equipmentModel')}
+          error={errors.equipmentModel?.message}
           placeholder="TC-18"
         />
       </div>
       <Field
         label="Tags"
-        value={form.tags}
-        onChange={set('tags')}
-        error={fieldError('tags')}
+        {...form.register('tags')}
+        error={errors.tags?.message}
         hint="Comma-separated, e.g. power supply, first power-up"
       />
       <div className="grid gap-4 sm:grid-cols-2">
@@ -90,17 +88,15 @@ export function NewProcedureForm() {
           label="Nominal mains (V)"
           type="number"
           inputMode="decimal"
-          value={form.mainsNominal}
-          onChange={set('mainsNominal')}
-          error={fieldError('params.mainsNominal')}
+          {...form.register('params.mainsNominal', { valueAsNumber: true })}
+          error={errors.params?.mainsNominal?.message}
         />
         <Field
           label="Mains frequency (Hz)"
           type="number"
           inputMode="decimal"
-          value={form.mainsFrequency}
-          onChange={set('mainsFrequency')}
-          error={fieldError('params.mainsFrequency')}
+          {...form.register('params.mainsFrequency', { valueAsNumber: true })}
+          error={errors.params?.mainsFrequency?.message}
         />
       </div>
       <Button type="submit" disabled={create.isPending} className="self-start">

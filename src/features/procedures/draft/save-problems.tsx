@@ -1,16 +1,5 @@
-import type { DocNode, ProcedureDoc } from '@shared/document/schema';
+import { nodeDef, type DocNode, type ProcedureDoc } from '@shared/document/schema';
 import type { FieldProblem } from '@/lib/api-client';
-
-const BLOCK_NAMES: Record<string, string> = {
-  reckoner: 'reckoner',
-  reading: 'reading',
-  checkStep: 'check step',
-  hazardNote: 'hazard note',
-  image: 'image',
-  file: 'file',
-  paragraph: 'paragraph',
-  heading: 'heading',
-};
 
 /** "body.document.content.3.attrs.kind" → "block 4 (reckoner “fuse”), kind". */
 export function describeField(field: string, doc: ProcedureDoc): string {
@@ -26,7 +15,7 @@ export function describeField(field: string, doc: ProcedureDoc): string {
     const index = Number(parts[i + 1]);
     node = node.content?.[index];
     const a = (node?.attrs ?? {}) as Record<string, unknown>;
-    const label = node ? (BLOCK_NAMES[node.type] ?? node.type) : 'missing block';
+    const label = node ? (nodeDef(node.type)?.label ?? node.type) : 'missing block';
     where.push(
       `block ${index + 1} (${label}${typeof a.name === 'string' ? ` “${a.name}”` : typeof a.label === 'string' && a.label ? ` “${a.label}”` : ''})`,
     );

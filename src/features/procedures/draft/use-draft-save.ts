@@ -3,6 +3,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import type { RevisionView } from '@shared/schemas/procedures';
 import { ApiError, type FieldProblem } from '@/lib/api-client';
 import { saveRevision } from '../api/save-revision';
+import { revisionQueryOptions } from '../api/get-revision';
+import { procedureKeys } from '../api/keys';
 import type { DraftFields } from './draft-fields';
 import { dropLocalCopy, keepLocalCopy } from './local-copy';
 
@@ -52,8 +54,8 @@ export function useDraftSave(revision: RevisionView, draft: DraftFields) {
         ...latest.current,
         lockVersion: basedOn,
       });
-      queryClient.setQueryData(['revisions', revision.id], { revision: saved });
-      void queryClient.invalidateQueries({ queryKey: ['procedures'] });
+      queryClient.setQueryData(revisionQueryOptions(revision.id).queryKey, { revision: saved });
+      void queryClient.invalidateQueries({ queryKey: procedureKeys.all });
       dropLocalCopy(revision.id, basedOn);
       lockVersion.current = saved.lockVersion;
       savedEdits.current = count;

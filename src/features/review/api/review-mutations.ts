@@ -2,15 +2,17 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RevisionView } from '@shared/schemas/procedures';
 import type { ReviewCommentView, SignatureView } from '@shared/schemas/review';
 import { api } from '@/lib/api-client';
+import { procedureKeys, revisionKeys } from '@/features/procedures/api/keys';
+import { reviewKeys } from './keys';
 
 /** After any transition, everything showing the revision, the queue or procedure lists is stale. */
 function useInvalidateAll() {
   const queryClient = useQueryClient();
   return () =>
     Promise.all([
-      queryClient.invalidateQueries({ queryKey: ['review'] }),
-      queryClient.invalidateQueries({ queryKey: ['revisions'] }),
-      queryClient.invalidateQueries({ queryKey: ['procedures'] }),
+      queryClient.invalidateQueries({ queryKey: reviewKeys.all }),
+      queryClient.invalidateQueries({ queryKey: revisionKeys.all }),
+      queryClient.invalidateQueries({ queryKey: procedureKeys.all }),
     ]);
 }
 
@@ -62,6 +64,6 @@ export function useAddComment(revisionId: string) {
   return useMutation({
     mutationFn: (body: { body: string; blockId?: string | null }) =>
       api.post<{ comment: ReviewCommentView }>(`/api/revisions/${revisionId}/comments`, body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['review', 'revision', revisionId] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: reviewKeys.review(revisionId) }),
   });
 }

@@ -1,7 +1,9 @@
-import { useId, useState, type FormEvent } from 'react';
-import type { BlockRef, ReviewCommentView } from '@shared/schemas/review';
+import { z } from 'zod';
+import { commentBody, type BlockRef, type ReviewCommentView } from '@shared/schemas/review';
 import { Button } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
+import { SelectField, TextareaField } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useAddComment } from '../api/review-mutations';
 import { formatUtc } from './format';
 
@@ -27,47 +29,47 @@ export function CommentList({ comments }: { comments: ReviewCommentView[] }) {
   );
 }
 
+/** The list's "whole revision" choice is an empty value: no block. */
+const commentForm = commentBody.extend({
+  blockId: z
+    .string()
+    .transform((id): string | null | undefined => id || null)
+    .pipe(commentBody.shape.blockId),
+});
+
 /** A comment on the whole revision or, chosen from the list, on one of its blocks. */
 export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks: BlockRef[] }) {
-  const id = useId();
   const add = useAddComment(revisionId);
-  const [body, setBody] = useState('');
-  const [blockId, setBlockId] = useState('');
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    add.mutate({ body, blockId: blockId || null }, { onSuccess: () => setBody('') });
-  };
+  const form = useZodForm(commentForm, { defaultValues: { body: '', blockId: '' } });
+  const { errors } = form.formState;
+  const submit = form.handleSubmit(({ body, blockId }) =>
+    add.mutate(
+      { body, blockId },
+      {
+        onSuccess: () => form.reset({ body: '', blockId: form.getValues('blockId') }),
+        onError: (e) => showServerError(form, e),
+      },
+    ),
+  );
   return (
-    <form onSubmit={submit} className="flex flex-col gap-2">
-      <label htmlFor={`${id}-block`} className="text-sm font-semibold">
-        Comment on
-      </label>
-      <select
-        id={`${id}-block`}
-        className="min-h-11 rounded-md border border-rule bg-card px-3"
-        value={blockId}
-        onChange={(e) => setBlockId(e.target.value)}
-      >
+    <form onSubmit={submit} className="flex flex-col gap-2" noValidate>
+      <SelectField label="Comment on" {...form.register('blockId')} error={errors.blockId?.message}>
         <option value="">The whole revision</option>
         {blocks.map((b) => (
           <option key={b.id} value={b.id}>
             {b.label}
           </option>
         ))}
-      </select>
-      <label htmlFor={`${id}-body`} className="text-sm font-semibold">
-        Comment
-      </label>
-      <textarea
-        id={`${id}-body`}
-        className="min-h-20 rounded-md border border-rule bg-card px-3 py-2"
-        value={body}
+      </SelectField>
+      <TextareaField
+        label="Comment"
         maxLength={4000}
-        onChange={(e) => setBody(e.target.value)}
+        {...form.register('body')}
+        error={errors.body?.message}
       />
-      {add.error && <Notice tone="error">{add.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       <div>
-        <Button type="submit" variant="quiet" disabled={add.isPending || !body.trim()}>
+        <Button type="submit" variant="quiet" disabled={add.isPending}>
           Add comment
         </Button>
       </div>

@@ -1,13 +1,14 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { RevisionView } from '@shared/schemas/procedures';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useSubmitRevision, useWithdrawProcedure } from '../api/review-mutations';
 import { SignatureList } from './signature-list';
-import { SignOffDialog } from './sign-off-dialog';
+import { SignOffDialog, signOffSchemas } from './sign-off-dialog';
 
 type PanelRevision = Pick<RevisionView, 'id' | 'procedureId' | 'number' | 'state' | 'lockVersion'>;
 
@@ -27,7 +28,9 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
 
   return (
     <section aria-label="Review and sign-off" className="flex flex-col gap-3">
-      <SignatureList revisionId={revision.id} />
+      <RegionBoundary label="Sign-offs">
+        <SignatureList revisionId={revision.id} />
+      </RegionBoundary>
       <div className="flex flex-wrap items-center gap-3">
         {revision.state === 'draft' && hasRole(user, 'author') && (
           <Button
@@ -73,7 +76,8 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
           meaning="withdrawn — technicians can no longer run it"
           signerName={user.displayName}
           commentLabel="Reason"
-          commentRequired
+          schema={signOffSchemas.withdraw}
+          commentField="reason"
           confirmLabel="Sign and withdraw"
           pending={withdraw.isPending}
           error={withdraw.error}

@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RunView } from '@shared/schemas/runs';
 import { api } from '@/lib/api-client';
+import { runKeys } from './keys';
 
 export const runQueryOptions = (id: string) =>
   queryOptions({
-    queryKey: ['runs', 'one', id],
+    queryKey: runKeys.detail(id),
     queryFn: () => api.get<{ run: RunView }>(`/api/runs/${id}`),
   });
 

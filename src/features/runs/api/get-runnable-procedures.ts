@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { RevisionView } from '@shared/schemas/procedures';
-import { api } from '@/lib/api-client';
 import { getProcedures } from '@/features/procedures/api/get-procedures';
+import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
+import { procedureKeys } from '@/features/procedures/api/keys';
 
 /** The largest page the list API serves. */
 const RUNNABLE_LIMIT = 200;
@@ -9,7 +9,7 @@ const RUNNABLE_LIMIT = 200;
 /** Procedures with an approved revision (the only ones a bench run may follow), by title, optionally those whose title contains `q`. */
 export const runnableProceduresQueryOptions = (q = '') =>
   queryOptions({
-    queryKey: ['procedures', 'runnable', q],
+    queryKey: procedureKeys.runnable(q),
     queryFn: () =>
       getProcedures({
         runnable: 'true',
@@ -22,10 +22,10 @@ export const runnableProceduresQueryOptions = (q = '') =>
 export const useRunnableProcedures = (q = '') =>
   useQuery({ ...runnableProceduresQueryOptions(q), placeholderData: keepPreviousData });
 
+/** The revision's parameters, read from the same cached revision the reader shows. */
 export const useRevisionParams = (revisionId: string | undefined) =>
   useQuery({
-    queryKey: ['revisions', revisionId, 'params'],
+    ...revisionQueryOptions(revisionId ?? ''),
     enabled: !!revisionId,
-    queryFn: async () =>
-      (await api.get<{ revision: RevisionView }>(`/api/revisions/${revisionId}`)).revision.params,
+    select: (data) => data.revision.params,
   });

@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RunListItem, RunStatus } from '@shared/schemas/runs';
+import type { RunListItem } from '@shared/schemas/runs';
 import { api } from '@/lib/api-client';
+import { runKeys, type RunFilter } from './keys';
 
-export const runsQueryOptions = (filter: { status?: RunStatus; mine?: boolean } = {}) =>
+export const runsQueryOptions = (filter: RunFilter = {}) =>
   queryOptions({
-    queryKey: ['runs', 'list', filter],
+    queryKey: runKeys.list(filter),
     queryFn: () => {
       const p = new URLSearchParams();
       if (filter.status) p.set('status', filter.status);
@@ -13,5 +14,4 @@ export const runsQueryOptions = (filter: { status?: RunStatus; mine?: boolean } 
     },
   });
 
-export const useRuns = (filter: { status?: RunStatus; mine?: boolean } = {}) =>
-  useQuery(runsQueryOptions(filter));
+export const useRuns = (filter: RunFilter = {}) => useQuery(runsQueryOptions(filter));

@@ -1,11 +1,13 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { RunView } from '@shared/schemas/runs';
+import { runQueryOptions } from './get-run';
+import { runKeys } from './keys';
 import { api, type Person } from '@/lib/api-client';
 
 /** Technicians a run can be handed over to. */
 export const useTechnicians = (enabled: boolean) =>
   useQuery({
-    queryKey: ['runs', 'technicians'],
+    queryKey: runKeys.technicians(),
     enabled,
     queryFn: () => api.get<{ technicians: Person[] }>('/api/runs/technicians'),
   });
@@ -15,8 +17,8 @@ function useRunAction<B extends Record<string, unknown>>(runId: string, action: 
   return useMutation({
     mutationFn: (body: B) => api.post<{ run: RunView }>(`/api/runs/${runId}/${action}`, body),
     onSuccess: (data) => {
-      queryClient.setQueryData(['runs', 'one', runId], data);
-      return queryClient.invalidateQueries({ queryKey: ['runs', 'list'] });
+      queryClient.setQueryData(runQueryOptions(runId).queryKey, data);
+      return queryClient.invalidateQueries({ queryKey: runKeys.lists() });
     },
   });
 }

@@ -1,5 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { RunView } from '@shared/schemas/runs';
+import { runQueryOptions } from './get-run';
+import { runKeys } from './keys';
 import { api } from '@/lib/api-client';
 
 export function useSignRun(runId: string) {
@@ -8,8 +10,8 @@ export function useSignRun(runId: string) {
     mutationFn: (body: { password: string }) =>
       api.post<{ run: RunView }>(`/api/runs/${runId}/sign`, { ...body, meaning: 'performed' }),
     onSuccess: (data) => {
-      queryClient.setQueryData(['runs', 'one', runId], data);
-      return queryClient.invalidateQueries({ queryKey: ['runs', 'list'] });
+      queryClient.setQueryData(runQueryOptions(runId).queryKey, data);
+      return queryClient.invalidateQueries({ queryKey: runKeys.lists() });
     },
   });
 }

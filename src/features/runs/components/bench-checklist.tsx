@@ -1,4 +1,5 @@
 import { useMemo, useState } from 'react';
+import { MARK_WORDS } from '@shared/runs/run-sheet-model';
 import type { RunStep, RunView } from '@shared/schemas/runs';
 import { formatQuantity } from '@shared/units';
 import type { PendingEntry } from '../lib/entry-queue';
@@ -71,7 +72,9 @@ export function BenchChecklist({
             <div className="h-full bg-accent" style={{ width: `${total ? (done / total) * 100 : 0}%` }} />
           </div>
           {run.progress.outOfTolerance > 0 && (
-            <span className="font-semibold text-out">{run.progress.outOfTolerance} out of tolerance</span>
+            <span className="font-semibold text-out">
+              {run.progress.outOfTolerance} {MARK_WORDS.out}
+            </span>
           )}
           {waiting > 0 && (
             <span

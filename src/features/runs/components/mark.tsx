@@ -1,7 +1,9 @@
-/** The within / out-of-tolerance mark, in words as well as colour. */
+import { MARK_WORDS } from '@shared/runs/run-sheet-model';
+
+/** The in-band / out-of-band mark, in words as well as colour. */
 export function Mark({ within, pending = false }: { within: boolean | null | undefined; pending?: boolean }) {
   if (within === undefined) return null;
-  const label = within === null ? 'no band' : within ? 'within' : 'OUT of tolerance';
+  const kind = within === null ? 'none' : within ? 'within' : 'out';
   const tone =
     within === null
       ? 'border-rule text-graphite-soft'
@@ -10,10 +12,10 @@ export function Mark({ within, pending = false }: { within: boolean | null | und
         : 'border-out bg-out-wash text-out';
   return (
     <span
-      data-mark={within === null ? 'none' : within ? 'within' : 'out'}
-      className={`inline-flex items-center gap-1 rounded border px-2 py-0.5 text-sm font-semibold ${tone}`}
+      data-mark={kind}
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded border px-2 py-0.5 text-sm font-semibold ${tone}`}
     >
-      {within === false ? '▲' : within ? '●' : '○'} {label}
+      {within === false ? '▲' : within ? '●' : '○'} {MARK_WORDS[kind]}
       {pending && <span className="font-normal">(on this tablet)</span>}
     </span>
   );

@@ -1,10 +1,10 @@
-import { useState, type FormEvent } from 'react';
-import type { RunHold, RunStep, RunView } from '@shared/schemas/runs';
-import { Notice } from '@/components/ui/notice';
+import { formatUtc } from '@shared/runs/run-sheet-model';
+import { abandonBody, handoverBody, type RunHold, type RunStep, type RunView } from '@shared/schemas/runs';
+import { Field, SelectField } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useAbandon, useHandOver, useTechnicians } from '../api/run-custody';
 import type { PendingEntry } from '../lib/entry-queue';
-
-const utc = (iso: string) => `${iso.slice(0, 16).replace('T', ' ')} UTC`;
 
 /** The revision this run follows was withdrawn: said at the top of the bench and of the sheet. */
 export function HoldBanner({ hold }: { hold: RunHold }) {
@@ -12,7 +12,7 @@ export function HoldBanner({ hold }: { hold: RunHold }) {
     <div data-hold role="alert" className="rounded-md border-2 border-out bg-out-wash px-4 py-3 text-out">
       <p className="font-semibold">
         On hold: revision {hold.revisionNumber} was withdrawn by {hold.by},{' '}
-        <span className="value">{utc(hold.at)}</span>.
+        <span className="value">{formatUtc(hold.at)}</span>.
       </p>
       <p>Reason: {hold.reason}</p>
       <p className="text-sm">
@@ -52,18 +52,20 @@ export function WaitingEntries({
   );
 }
 
-const input = 'min-h-12 rounded-md border border-rule bg-paper px-3 text-base';
+const input = 'min-h-12 bg-paper';
 const button = 'min-h-12 self-start rounded-md border px-5 text-base font-semibold disabled:opacity-50';
 
 function HandoverForm({ run }: { run: RunView }) {
   const technicians = useTechnicians(true);
   const handOver = useHandOver(run.id);
-  const [to, setTo] = useState('');
-  const [reason, setReason] = useState('');
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    handOver.mutate({ to, reason: reason.trim() }, { onSuccess: () => setReason('') });
-  };
+  const form = useZodForm(handoverBody, { defaultValues: { to: '', reason: '' } });
+  const { errors } = form.formState;
+  const submit = form.handleSubmit((body) =>
+    handOver.mutate(body, {
+      onSuccess: () => form.resetField('reason'),
+      onError: (e) => showServerError(form, e),
+    }),
+  );
   const others = technicians.data?.technicians.filter((t) => t.id !== run.performedBy.id) ?? [];
   return (
     <form aria-label="Hand over this run" onSubmit={submit} className="flex flex-col gap-2" noValidate>
@@ -71,25 +73,25 @@ function HandoverForm({ run }: { run: RunView }) {
       <p className="text-sm text-graphite-soft">
         They record the remaining steps and sign; the run sheet names you both and who recorded what.
       </p>
-      <label className="flex flex-col gap-1 text-sm font-semibold">
-        Technician
-        <select value={to} onChange={(e) => setTo(e.target.value)} className={input}>
-          <option value="">Choose…</option>
-          {others.map((t) => (
-            <option key={t.id} value={t.id}>
-              {t.displayName}
-            </option>
-          ))}
-        </select>
-      </label>
-      <label className="flex flex-col gap-1 text-sm font-semibold">
-        Reason for the handover
-        <input value={reason} onChange={(e) => setReason(e.target.value)} maxLength={500} className={input} />
-      </label>
-      {handOver.error && <Notice tone="error">{handOver.error.message}</Notice>}
+      <SelectField label="Technician" className={input} {...form.register('to')} error={errors.to?.message}>
+        <option value="">Choose…</option>
+        {others.map((t) => (
+          <option key={t.id} value={t.id}>
+            {t.displayName}
+          </option>
+        ))}
+      </SelectField>
+      <Field
+        label="Reason for the handover"
+        maxLength={500}
+        className={input}
+        {...form.register('reason')}
+        error={errors.reason?.message}
+      />
+      <FormProblem formState={form.formState} />
       <button
         type="submit"
-        disabled={!to || reason.trim().length < 3 || handOver.isPending}
+        disabled={handOver.isPending}
         className={`${button} border-accent-deep bg-accent text-white`}
       >
         Hand over the run
@@ -100,11 +102,10 @@ function HandoverForm({ run }: { run: RunView }) {
 
 function AbandonForm({ run }: { run: RunView }) {
   const abandon = useAbandon(run.id);
-  const [reason, setReason] = useState('');
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    abandon.mutate({ reason: reason.trim() });
-  };
+  const form = useZodForm(abandonBody, { defaultValues: { reason: '' } });
+  const submit = form.handleSubmit((body) =>
+    abandon.mutate(body, { onError: (e) => showServerError(form, e) }),
+  );
   return (
     <form
       aria-label="Close this run as abandoned"
@@ -116,16 +117,15 @@ function AbandonForm({ run }: { run: RunView }) {
       <p className="text-sm text-graphite-soft">
         The run is kept as it is, not signed; nothing on it can change afterwards.
       </p>
-      <label className="flex flex-col gap-1 text-sm font-semibold">
-        Reason for closing
-        <input value={reason} onChange={(e) => setReason(e.target.value)} maxLength={500} className={input} />
-      </label>
-      {abandon.error && <Notice tone="error">{abandon.error.message}</Notice>}
-      <button
-        type="submit"
-        disabled={reason.trim().length < 3 || abandon.isPending}
-        className={`${button} border-out bg-card text-out`}
-      >
+      <Field
+        label="Reason for closing"
+        maxLength={500}
+        className={input}
+        {...form.register('reason')}
+        error={form.formState.errors.reason?.message}
+      />
+      <FormProblem formState={form.formState} />
+      <button type="submit" disabled={abandon.isPending} className={`${button} border-out bg-card text-out`}>
         Close as abandoned
       </button>
     </form>

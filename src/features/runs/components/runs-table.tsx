@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { DataTable } from '@/components/ui/data-table';
+import { MARK_WORDS } from '@shared/runs/run-sheet-model';
 import type { RunListItem } from '@shared/schemas/runs';
 
 export function RunsTable({ runs, runPath }: { runs: RunListItem[]; runPath: (id: string) => string }) {
@@ -23,7 +24,7 @@ export function RunsTable({ runs, runPath }: { runs: RunListItem[]; runPath: (id
           <td className="px-3 py-2">
             {{ signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[r.status]}
             {r.onHold && <span className="ml-2 font-semibold text-out">on hold: revision withdrawn</span>}
-            {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ out of tolerance</span>}
+            {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ {MARK_WORDS.out}</span>}
           </td>
           <td className="px-3 py-2">
             {new Date(r.startedAt).toLocaleString()} · {r.startedBy.displayName}

@@ -1,5 +1,8 @@
-import { useState, type FormEvent } from 'react';
+import { signRunBody } from '@shared/schemas/runs';
+import { Field } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useSignRun } from '../api/sign-run';
 
 /** Password again, meaning "performed": the technician's signature on the run sheet. */
@@ -13,12 +16,15 @@ export function SignRunForm({
   onSigned: () => void;
 }) {
   const sign = useSignRun(runId);
-  const [password, setPassword] = useState('');
+  const form = useZodForm(signRunBody.pick({ password: true }), { defaultValues: { password: '' } });
   const unfinished = (sign.error?.body.unfinished as { position: number; text: string }[] | undefined) ?? [];
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    sign.mutate({ password }, { onSuccess: onSigned, onSettled: () => setPassword('') });
-  };
+  const submit = form.handleSubmit((body) =>
+    sign.mutate(body, {
+      onSuccess: onSigned,
+      onError: (e) => showServerError(form, e),
+      onSettled: () => form.resetField('password', { keepError: true }),
+    }),
+  );
   return (
     <form
       onSubmit={submit}
@@ -33,33 +39,30 @@ export function SignRunForm({
       {!ready && (
         <Notice>Finish every step, and let pending entries reach the server, before signing.</Notice>
       )}
-      {sign.error && (
-        <Notice tone="error">
-          {sign.error.message}
-          {unfinished.length > 0 && (
-            <ul className="mt-1 list-disc pl-5">
-              {unfinished.map((s) => (
-                <li key={s.position}>
-                  Step {s.position}: {s.text}
-                </li>
-              ))}
-            </ul>
-          )}
-        </Notice>
-      )}
-      <label className="flex flex-col gap-1 text-sm font-semibold">
-        Your password
-        <input
+      <FormProblem formState={form.formState}>
+        {unfinished.length > 0 && (
+          <ul className="mt-1 list-disc pl-5">
+            {unfinished.map((s) => (
+              <li key={s.position}>
+                Step {s.position}: {s.text}
+              </li>
+            ))}
+          </ul>
+        )}
+      </FormProblem>
+      <div className="max-w-sm">
+        <Field
+          label="Your password"
           type="password"
           autoComplete="current-password"
-          value={password}
-          onChange={(e) => setPassword(e.target.value)}
-          className="min-h-12 max-w-sm rounded-md border border-rule bg-paper px-3 text-base"
+          className="min-h-12 bg-paper"
+          {...form.register('password')}
+          error={form.formState.errors.password?.message}
         />
-      </label>
+      </div>
       <button
         type="submit"
-        disabled={!ready || !password || sign.isPending}
+        disabled={!ready || sign.isPending}
         className="min-h-12 self-start rounded-md border border-accent-deep bg-accent px-5 text-base font-semibold text-white disabled:opacity-50"
       >
         {sign.isPending ? 'Signing…' : 'Sign as performed'}

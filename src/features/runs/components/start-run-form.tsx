@@ -1,9 +1,13 @@
-import { useEffect, useState, type FormEvent } from 'react';
+import { useEffect, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
+import { z } from 'zod';
 import { readMeasured } from '@shared/reckoners/measurement';
 import type { ProcedureListItem } from '@shared/schemas/procedures';
+import { startRunBody } from '@shared/schemas/runs';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useDebounced } from '@/hooks/use-debounced';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { useRevisionParams, useRunnableProcedures } from '../api/get-runnable-procedures';
@@ -19,12 +23,28 @@ interface UnitOption {
 
 const select = 'min-h-12 rounded-md border border-rule bg-card px-3 text-base';
 
-/** Mains as measured: volts rms ("236", "236 VAC"; a peak or DC figure is refused), or hertz. */
-function readMains(text: string, unit: 'V' | 'Hz'): { value?: number; error?: string } {
-  if (!text.trim()) return { error: 'required' };
-  const r = readMeasured(text, unit, unit === 'V' ? 'rms' : undefined);
-  return r.ok ? { value: r.measured } : { error: r.reason };
-}
+/**
+ * Mains as measured, typed as at the bench: volts rms ("236", "236 VAC"; a peak or DC figure is
+ * refused), or hertz; then the server's range for it. Empty is undefined (the frequency has a default).
+ */
+const mains = (unit: 'V' | 'Hz', range: z.ZodType<number, number>) =>
+  z
+    .string()
+    .transform((text, ctx) => {
+      if (!text.trim()) return undefined;
+      const r = readMeasured(text, unit, unit === 'V' ? 'rms' : undefined);
+      if (r.ok) return r.measured;
+      ctx.addIssue({ code: 'custom', message: r.reason });
+      return z.NEVER;
+    })
+    .pipe(range.optional());
+
+const startRunForm = z.object({
+  procedureId: z.string().min(1, 'choose a procedure'),
+  unitId: z.string().min(1, 'choose a unit').pipe(startRunBody.shape.unitId),
+  mainsVoltage: mains('V', startRunBody.shape.mainsVoltage).pipe(z.number('required')),
+  mainsFrequency: mains('Hz', startRunBody.shape.mainsFrequency),
+});
 
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
 export function StartRunForm({
@@ -44,14 +64,19 @@ export function StartRunForm({
   const q = useDebounced(find.trim(), 250);
   const procedures = useRunnableProcedures(q);
   const start = useStartRun();
-  const [procedureId, setProcedureId] = useState('');
+  const form = useZodForm(startRunForm, {
+    defaultValues: { procedureId: '', unitId: initialUnitId ?? '', mainsVoltage: '', mainsFrequency: '' },
+  });
+  const { errors } = form.formState;
+  const procedureId = form.watch('procedureId');
+  const { setValue } = form;
   // The chosen procedure stays chosen when a new title search no longer lists it.
   const [chosen, setChosen] = useState<ProcedureListItem | undefined>();
   const opened = useQuery({ ...revisionQueryOptions(initialRevisionId ?? ''), enabled: !!initialRevisionId });
   useEffect(() => {
     const r = opened.data?.revision;
     if (!r || r.state !== 'approved' || procedureId) return;
-    setProcedureId(r.procedureId);
+    setValue('procedureId', r.procedureId);
     setChosen({
       id: r.procedureId,
       title: r.title,
@@ -63,10 +88,7 @@ export function StartRunForm({
       approved: { id: r.id, number: r.number },
       updatedAt: r.updatedAt,
     });
-  }, [opened.data, procedureId]);
-  const [unitId, setUnitId] = useState(initialUnitId ?? '');
-  const [mains, setMains] = useState('');
-  const [frequency, setFrequency] = useState('');
+  }, [opened.data, procedureId, setValue]);
   const [key] = useState(() => crypto.randomUUID());
   const listed = procedures.data?.procedures ?? [];
   // The freshest copy when listed (a re-approval moves its revision), else the one chosen.
@@ -75,27 +97,25 @@ export function StartRunForm({
   const options = procedure && !listed.some((p) => p.id === procedure.id) ? [procedure, ...listed] : listed;
   const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
-  const mainsRead = readMains(mains, 'V');
-  const freqRead = readMains(frequency || (params.data ? String(params.data.mainsFrequency) : ''), 'Hz');
-  const serverError = (name: string) => start.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
-  const [touched, setTouched] = useState(false);
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    setTouched(true);
-    if (!procedure?.approved || !unitId || mainsRead.value === undefined || freqRead.value === undefined)
-      return;
+  const submit = form.handleSubmit(({ unitId, mainsVoltage, mainsFrequency }) => {
+    // Left empty, the frequency is the procedure's own.
+    const frequency = mainsFrequency ?? params.data?.mainsFrequency;
+    if (!procedure?.approved) return form.setError('procedureId', { message: 'choose a procedure' });
+    if (frequency === undefined) return form.setError('mainsFrequency', { message: 'required' });
     start.mutate(
       {
         revisionId: procedure.approved.id,
         unitId,
-        mainsVoltage: mainsRead.value,
-        mainsFrequency: freqRead.value,
+        mainsVoltage,
+        mainsFrequency: frequency,
         key,
       },
-      { onSuccess: (data) => navigate(runPath(data.run.id)) },
+      {
+        onSuccess: (data) => navigate(runPath(data.run.id)),
+        onError: (e) => showServerError(form, e, { revisionId: 'procedureId' }),
+      },
     );
-  };
+  });
 
   return (
     <form
@@ -103,7 +123,7 @@ export function StartRunForm({
       className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5"
       noValidate
     >
-      {start.error && <Notice tone="error">{start.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       {opened.data && opened.data.revision.state !== 'approved' && (
         <Notice>
           Revision {opened.data.revision.number} of “{opened.data.revision.title}” is{' '}
@@ -128,11 +148,10 @@ export function StartRunForm({
         <select
           aria-label="Approved procedure"
           className={select}
-          value={procedureId}
-          onChange={(e) => {
-            setProcedureId(e.target.value);
-            setChosen(options.find((p) => p.id === e.target.value));
-          }}
+          {...form.register('procedureId', {
+            onChange: (e: React.ChangeEvent<HTMLSelectElement>) =>
+              setChosen(options.find((p) => p.id === e.target.value)),
+          })}
         >
           <option value="">Choose…</option>
           {options.map((p) => (
@@ -152,16 +171,15 @@ export function StartRunForm({
             No approved procedure’s title contains “{q}”.
           </span>
         )}
-        {touched && !procedure && <span className="text-out">choose a procedure</span>}
+        {errors.procedureId && (
+          <span role="alert" className="text-out">
+            {errors.procedureId.message}
+          </span>
+        )}
       </label>
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Unit on the bench
-        <select
-          aria-label="Unit on the bench"
-          className={select}
-          value={unitId}
-          onChange={(e) => setUnitId(e.target.value)}
-        >
+        <select aria-label="Unit on the bench" className={select} {...form.register('unitId')}>
           <option value="">Choose…</option>
           {units.map((u) => (
             <option key={u.id} value={u.id}>
@@ -171,7 +189,11 @@ export function StartRunForm({
             </option>
           ))}
         </select>
-        {touched && !unitId && <span className="text-out">choose a unit</span>}
+        {errors.unitId && (
+          <span role="alert" className="text-out">
+            {errors.unitId.message}
+          </span>
+        )}
       </label>
       <div className="grid gap-4 sm:grid-cols-2">
         <label className="flex flex-col gap-1 text-sm font-semibold">
@@ -179,16 +201,17 @@ export function StartRunForm({
           <input
             className="value min-h-12 rounded-md border border-rule bg-paper px-3 text-xl"
             aria-label="Measured mains (V)"
-            value={mains}
-            onChange={(e) => setMains(e.target.value)}
+            {...form.register('mainsVoltage')}
             placeholder={params.data ? `nominal ${params.data.mainsNominal} V` : 'e.g. 236 V'}
             autoComplete="off"
           />
           <span className="font-normal text-graphite-soft">
             Measure it at the bench outlet: every expected value is worked out again at this mains.
           </span>
-          {(touched || mains) && (mainsRead.error || serverError('mainsVoltage')) && (
-            <span className="text-out">{serverError('mainsVoltage') ?? mainsRead.error}</span>
+          {errors.mainsVoltage && (
+            <span role="alert" className="text-out">
+              {errors.mainsVoltage.message}
+            </span>
           )}
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold">
@@ -196,13 +219,14 @@ export function StartRunForm({
           <input
             className="value min-h-12 rounded-md border border-rule bg-paper px-3 text-xl"
             aria-label="Mains frequency (Hz)"
-            value={frequency}
-            onChange={(e) => setFrequency(e.target.value)}
+            {...form.register('mainsFrequency')}
             placeholder={params.data ? String(params.data.mainsFrequency) : '50'}
             autoComplete="off"
           />
-          {(touched || frequency) && (freqRead.error || serverError('mainsFrequency')) && (
-            <span className="text-out">{serverError('mainsFrequency') ?? freqRead.error}</span>
+          {errors.mainsFrequency && (
+            <span role="alert" className="text-out">
+              {errors.mainsFrequency.message}
+            </span>
           )}
         </label>
       </div>

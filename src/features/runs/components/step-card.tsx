@@ -1,6 +1,8 @@
-import { useState, type FormEvent } from 'react';
-import type { EntryView, RunPhotoView, RunStep } from '@shared/schemas/runs';
+import { useMemo, useState } from 'react';
+import { z } from 'zod';
+import { entryBody, type EntryView, type RunPhotoView, type RunStep } from '@shared/schemas/runs';
 import { formatNumber, formatQuantity } from '@shared/units';
+import { useZodForm } from '@/lib/form';
 import { dismissRefused, queueEntry, type PendingEntry } from '../lib/entry-queue';
 import { liveCheck } from '../lib/live-check';
 import { Mark } from './mark';
@@ -56,29 +58,56 @@ function Status({ entry, pending }: { entry: EntryView | undefined; pending: Pen
   );
 }
 
+/** A typed value that changes the recorded measurement (and so needs a reason). */
+const changes = (step: RunStep, recorded: number | null, text: string) => {
+  const live = liveCheck(step, text);
+  return (
+    recorded !== null && (live.state === 'checked' || live.state === 'no-band') && live.measured !== recorded
+  );
+};
+
+/** A reading entry before it is queued: read as the server reads it, within the server's limits. */
+const readingForm = (step: RunStep, recorded: number | null) =>
+  z
+    .object({
+      value: z
+        .string()
+        .superRefine((text, ctx) => {
+          const live = liveCheck(step, text);
+          if (live.state === 'empty') ctx.addIssue({ code: 'custom', message: 'type the reading first' });
+          if (live.state === 'error') ctx.addIssue({ code: 'custom', message: live.message });
+        })
+        .pipe(entryBody.shape.value.unwrap().options[0]),
+      note: z.string().pipe(entryBody.shape.note.unwrap()),
+      reason: z.string().pipe(entryBody.shape.reason.unwrap()),
+    })
+    .superRefine((v, ctx) => {
+      if (changes(step, recorded, v.value) && !v.reason)
+        ctx.addIssue({
+          code: 'custom',
+          path: ['reason'],
+          message: 'say why the recorded reading is being changed',
+        });
+    });
+
 function ReadingStep({ runId, step, entry, pending }: Props) {
   const r = step.reading!;
-  const [text, setText] = useState('');
-  const [note, setNote] = useState('');
-  const [reason, setReason] = useState('');
-  const live = liveCheck(step, text);
   const last = [...pending].reverse().find((p) => !p.refused && p.body.value !== undefined);
   const recorded = entry?.measured ?? null;
-  const changing =
-    recorded !== null && (live.state === 'checked' || live.state === 'no-band') && live.measured !== recorded;
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    if (live.state === 'empty' || live.state === 'error') return;
-    if (changing && !reason.trim()) return;
+  const schema = useMemo(() => readingForm(step, recorded), [step, recorded]);
+  const form = useZodForm(schema, { defaultValues: { value: '', note: '', reason: '' } });
+  const { errors } = form.formState;
+  const text = form.watch('value');
+  const live = liveCheck(step, text);
+  const changing = changes(step, recorded, text);
+  const submit = form.handleSubmit(({ value, note, reason }) => {
     queueEntry(runId, step.id, {
-      value: text.trim(),
+      value,
       ...(note.trim() ? { note: note.trim() } : {}),
-      ...(changing ? { reason: reason.trim() } : {}),
+      ...(changing && reason ? { reason } : {}),
     });
-    setText('');
-    setNote('');
-    setReason('');
-  };
+    form.reset();
+  });
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
       <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-3">
@@ -140,14 +169,13 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
         <label className="flex flex-col gap-1 text-sm font-semibold">
           {recorded !== null ? 'Correct the reading' : 'Measured'} ({r.unit})
           <input
-            name="measured"
             aria-label={`Measured: ${step.text}`}
             autoComplete="off"
             spellCheck={false}
-            value={text}
-            onChange={(e) => setText(e.target.value)}
+            {...form.register('value')}
             placeholder={r.expected !== null ? formatQuantity(r.expected, r.unit, 3) : `value in ${r.unit}`}
-            className={`value min-h-12 w-48 rounded-md border bg-card px-3 text-xl ${live.state === 'error' ? 'border-out' : 'border-rule'}`}
+            aria-invalid={live.state === 'error' || !!errors.value || undefined}
+            className={`value min-h-12 w-48 rounded-md border bg-card px-3 text-xl ${live.state === 'error' || errors.value ? 'border-out' : 'border-rule'}`}
           />
         </label>
         <div aria-live="polite" className="min-h-12 py-2">
@@ -163,31 +191,44 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
             </span>
           )}
           {live.state === 'no-band' && <Mark within={null} />}
-          {live.state === 'error' && <span className="text-sm text-out">{live.message}</span>}
+          {/* The reading's problem as it is typed; an empty value is only refused when recorded. */}
+          {(live.state === 'error' || errors.value) && (
+            <span className="text-sm text-out">
+              {live.state === 'error' ? live.message : errors.value?.message}
+            </span>
+          )}
         </div>
       </div>
       {changing && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Why is the recorded reading being changed? (kept with the original)
           <input
-            value={reason}
-            onChange={(e) => setReason(e.target.value)}
+            {...form.register('reason')}
+            aria-invalid={errors.reason ? true : undefined}
             className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
           />
+          {errors.reason && (
+            <span role="alert" className="font-normal text-out">
+              {errors.reason.message}
+            </span>
+          )}
         </label>
       )}
       <label className="flex flex-col gap-1 text-sm font-semibold">
         Note (optional)
         <input
-          value={note}
-          onChange={(e) => setNote(e.target.value)}
+          {...form.register('note')}
           placeholder={entry?.note || ''}
           className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
         />
+        {errors.note && (
+          <span role="alert" className="font-normal text-out">
+            {errors.note.message}
+          </span>
+        )}
       </label>
       <button
         type="submit"
-        disabled={live.state === 'empty' || live.state === 'error' || (changing && !reason.trim())}
         className={`${big} self-start border-accent-deep bg-accent text-white disabled:opacity-50`}
       >
         {recorded !== null ? 'Record correction' : 'Record reading'}

@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId } from 'react';
 import type { RunPhotoView } from '@shared/schemas/runs';
-import { uploadPhoto } from '../api/upload-photo';
+import { uploadStepPhoto } from '../api/upload-photo';
+import { runKeys } from '../api/keys';
 
 /** A photo for one step, taken with the tablet's camera where it has one. */
 export function StepPhoto({
@@ -18,9 +19,8 @@ export function StepPhoto({
   const id = useId();
   const queryClient = useQueryClient();
   const upload = useMutation({
-    mutationFn: (file: File) =>
-      uploadPhoto<{ photo: RunPhotoView }>(`/api/runs/${runId}/photos`, file, { stepId }),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['runs', 'one', runId] }),
+    mutationFn: (file: File) => uploadStepPhoto(runId, stepId, file),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: runKeys.detail(runId) }),
   });
   return (
     <div className="flex flex-wrap items-center gap-3">

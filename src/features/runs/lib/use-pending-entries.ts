@@ -1,6 +1,8 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
 import { useSession } from '@/features/auth/api/get-session';
+import { authKeys } from '@/features/auth/api/keys';
+import { runQueryOptions } from '../api/get-run';
 import {
   flushPending,
   pendingSnapshot,
@@ -23,8 +25,8 @@ export function usePendingEntries(runId: string) {
   const user = useSession().data?.user ?? null;
   setQueueUser(user && { id: user.id, displayName: user.displayName });
   useEffect(() => {
-    setStoredHandler((id, run) => queryClient.setQueryData(['runs', 'one', id], { run }));
-    setSessionCheck(() => void queryClient.invalidateQueries({ queryKey: ['session'] }));
+    setStoredHandler((id, run) => queryClient.setQueryData(runQueryOptions(id).queryKey, { run }));
+    setSessionCheck(() => void queryClient.invalidateQueries({ queryKey: authKeys.session }));
     void flushPending();
     return () => setSessionCheck(null);
   }, [queryClient, user?.id]);

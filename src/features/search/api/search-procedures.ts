@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { SearchPage } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
+import { searchKeys } from './keys';
 
 export type { SearchHit, SearchPage } from '@shared/schemas/search';
 
@@ -21,8 +22,19 @@ export const searchProcedures = (p: SearchParams) => {
   return api.get<SearchPage>(`/api/search?${qs}`);
 };
 
+const PAGE_SIZE = 10;
+
+/** The search as the address holds it (read by the page and by its route loader). */
+export const searchFromUrl = (params: URLSearchParams): SearchParams => ({
+  q: params.get('q') ?? '',
+  family: params.get('family') || undefined,
+  tag: params.get('tag') || undefined,
+  page: Math.max(1, Number(params.get('page') ?? 1) || 1),
+  pageSize: PAGE_SIZE,
+});
+
 export const searchQueryOptions = (p: SearchParams) =>
-  queryOptions({ queryKey: ['search', p], queryFn: () => searchProcedures(p), staleTime: 10_000 });
+  queryOptions({ queryKey: searchKeys.results(p), queryFn: () => searchProcedures(p), staleTime: 10_000 });
 
 /** Results as you type: previous results stay on screen while the next ones load. */
 export const useSearch = (p: SearchParams) =>

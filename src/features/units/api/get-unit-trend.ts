@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TrendView } from '@shared/schemas/units';
 import { api } from '@/lib/api-client';
+import { unitKeys } from './keys';
 
 export const unitTrendQueryOptions = (unitId: string, reading?: string) =>
   queryOptions({
-    queryKey: ['units', 'trend', unitId, reading ?? ''],
+    queryKey: unitKeys.trend(unitId, reading),
     queryFn: () =>
       api.get<TrendView>(
         `/api/units/${unitId}/trend${reading ? `?reading=${encodeURIComponent(reading)}` : ''}`,

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { UnitPhotoView, UnitRunSummary, UnitView } from '@shared/schemas/units';
 import { api } from '@/lib/api-client';
+import { unitKeys } from './keys';
 
 export interface UnitPage {
   unit: UnitView;
@@ -9,6 +10,6 @@ export interface UnitPage {
 }
 
 export const unitQueryOptions = (id: string) =>
-  queryOptions({ queryKey: ['units', 'one', id], queryFn: () => api.get<UnitPage>(`/api/units/${id}`) });
+  queryOptions({ queryKey: unitKeys.detail(id), queryFn: () => api.get<UnitPage>(`/api/units/${id}`) });
 
 export const useUnit = (id: string) => useQuery(unitQueryOptions(id));

@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { UnitListItem } from '@shared/schemas/units';
 import { api } from '@/lib/api-client';
+import { unitKeys } from './keys';
 
 export interface UnitFilter {
   q?: string;
@@ -17,7 +18,7 @@ const search = (f: UnitFilter) => {
 
 export const unitsQueryOptions = (filter: UnitFilter = {}) =>
   queryOptions({
-    queryKey: ['units', filter],
+    queryKey: unitKeys.list(filter),
     queryFn: () => api.get<{ units: UnitListItem[]; models: string[] }>(`/api/units${search(filter)}`),
     placeholderData: keepPreviousData,
   });

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { UnitBody, UnitView } from '@shared/schemas/units';
 import { api } from '@/lib/api-client';
+import { unitKeys } from './keys';
 
 /** Creates a unit, or saves one when an id and lockVersion are given. */
 export function useSaveUnit() {
@@ -10,6 +11,6 @@ export function useSaveUnit() {
       id
         ? api.put<{ unit: UnitView }>(`/api/units/${id}`, { ...body, lockVersion })
         : api.post<{ unit: UnitView }>('/api/units', body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['units'] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: unitKeys.all }),
   });
 }

@@ -1,35 +1,37 @@
-import { useState, type FormEvent } from 'react';
-import type { UnitView } from '@shared/schemas/units';
+import { unitBody, type UnitView } from '@shared/schemas/units';
 import { Button } from '@/components/ui/button';
-import { Field } from '@/components/ui/field';
+import { Field, TextareaField } from '@/components/ui/field';
+import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
+import { showServerError, useZodForm } from '@/lib/form';
 import { useSaveUnit } from '../api/save-unit';
 
 /** Register a unit, or edit one (with its lock version, so two edits never silently overwrite). */
 export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: UnitView) => void }) {
   const save = useSaveUnit();
-  const [form, setForm] = useState({
-    model: unit?.model ?? '',
-    serial: unit?.serial ?? '',
-    owner: unit?.owner ?? '',
-    jobNumber: unit?.jobNumber ?? '',
-    notes: unit?.notes ?? '',
+  const form = useZodForm(unitBody, {
+    defaultValues: {
+      model: unit?.model ?? '',
+      serial: unit?.serial ?? '',
+      owner: unit?.owner ?? '',
+      jobNumber: unit?.jobNumber ?? '',
+      notes: unit?.notes ?? '',
+    },
   });
-  const set = (k: keyof typeof form) => (e: { target: { value: string } }) =>
-    setForm({ ...form, [k]: e.target.value });
-  const fieldError = (name: string) => save.error?.fields.find((f) => f.field === `body.${name}`)?.reason;
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
+  const { errors } = form.formState;
+  const submit = form.handleSubmit((body) =>
     save.mutate(
-      { ...form, id: unit?.id, lockVersion: unit?.lockVersion },
+      { ...body, id: unit?.id, lockVersion: unit?.lockVersion },
       {
         onSuccess: (data) => {
-          if (!unit) setForm({ model: form.model, serial: '', owner: '', jobNumber: '', notes: '' });
+          // The next unit on the bench is often the same model.
+          if (!unit) form.reset({ model: body.model, serial: '', owner: '', jobNumber: '', notes: '' });
           onSaved?.(data.unit);
         },
+        onError: (e) => showServerError(form, e),
       },
-    );
-  };
+    ),
+  );
   return (
     <form
       onSubmit={submit}
@@ -38,35 +40,21 @@ export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: Uni
       aria-label={unit ? 'Edit unit' : 'Register a unit'}
     >
       <h2 className="text-lg font-semibold">{unit ? 'Edit unit' : 'Register a unit'}</h2>
-      {save.error && <Notice tone="error">{save.error.message}</Notice>}
+      <FormProblem formState={form.formState} />
       {save.isSuccess && unit && <Notice tone="success">Saved.</Notice>}
       <div className="grid gap-4 sm:grid-cols-2">
         <Field
           label="Model"
-          value={form.model}
-          onChange={set('model')}
-          error={fieldError('model')}
+          {...form.register('model')}
+          error={errors.model?.message}
           placeholder="TC-18"
           list="unit-models"
         />
-        <Field label="Serial" value={form.serial} onChange={set('serial')} error={fieldError('serial')} />
-        <Field label="Owner" value={form.owner} onChange={set('owner')} error={fieldError('owner')} />
-        <Field
-          label="Job number"
-          value={form.jobNumber}
-          onChange={set('jobNumber')}
-          error={fieldError('jobNumber')}
-        />
+        <Field label="Serial" {...form.register('serial')} error={errors.serial?.message} />
+        <Field label="Owner" {...form.register('owner')} error={errors.owner?.message} />
+        <Field label="Job number" {...form.register('jobNumber')} error={errors.jobNumber?.message} />
       </div>
-      <label className="flex flex-col gap-1 text-sm font-semibold">
-        Notes
-        <textarea
-          value={form.notes}
-          onChange={set('notes')}
-          rows={3}
-          className="rounded-md border border-rule bg-card px-3 py-2 text-base font-normal"
-        />
-      </label>
+      <TextareaField label="Notes" rows={3} {...form.register('notes')} error={errors.notes?.message} />
       <datalist id="unit-models">
         <option value="TC-18" />
         <option value="TC-30H" />

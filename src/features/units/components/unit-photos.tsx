@@ -1,24 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useId, useState } from 'react';
 import type { UnitPhotoView } from '@shared/schemas/units';
-import { ApiError, getCsrfToken } from '@/lib/api-client';
-
-async function upload(unitId: string, file: File, caption: string) {
-  const form = new FormData();
-  form.append('caption', caption);
-  form.append('file', file);
-  const res = await fetch(`/api/units/${unitId}/photos`, {
-    method: 'POST',
-    body: form,
-    headers: { 'X-CSRF-Token': getCsrfToken() },
-    credentials: 'same-origin',
-  }).catch(() => {
-    throw new ApiError(0, 'Cannot reach the Benchwright server; the photo was not sent.');
-  });
-  const data = await res.json().catch(() => ({}));
-  if (!res.ok) throw new ApiError(res.status, data.error ?? `The server answered ${res.status}.`);
-  return data;
-}
+import { unitKeys } from '../api/keys';
+import { uploadUnitPhoto } from '../api/upload-photo';
 
 export function UnitPhotos({
   unitId,
@@ -33,10 +17,10 @@ export function UnitPhotos({
   const queryClient = useQueryClient();
   const [caption, setCaption] = useState('');
   const add = useMutation({
-    mutationFn: (file: File) => upload(unitId, file, caption),
+    mutationFn: (file: File) => uploadUnitPhoto(unitId, file, caption),
     onSuccess: () => {
       setCaption('');
-      return queryClient.invalidateQueries({ queryKey: ['units', 'one', unitId] });
+      return queryClient.invalidateQueries({ queryKey: unitKeys.detail(unitId) });
     },
   });
   return (

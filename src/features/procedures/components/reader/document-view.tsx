@@ -1,20 +1,18 @@
 import type { ReactNode } from 'react';
 import type { BlockView } from '@shared/document/block-view';
 import type { Snapshot } from '@shared/document/evaluate';
-import { checkStepHeading } from '@shared/document/extract';
 import {
-  checkKindOf,
-  HAZARD_FLAG_LABELS,
-  HAZARD_FLAGS,
+  checkStepHeading,
+  hazardFlagList,
   isLiveReading,
+  isNodeType,
+  showsHeading,
+  type AttrsOf,
   type CheckStepAttrs,
   type DocNode,
-  type FileAttrs,
-  type HazardNoteAttrs,
-  type ImageAttrs,
+  type NodeType,
   type ProcedureDoc,
   type ReadingAttrs,
-  type ReckonerAttrs,
 } from '@shared/document/schema';
 import { attachmentUrl } from '../../api/upload-attachment';
 import { HazardBox } from './hazard-box';
@@ -28,32 +26,99 @@ interface Stored {
   reckoners: Map<string, BlockView>;
 }
 
+interface ViewProps<T extends NodeType> {
+  a: AttrsOf<T>;
+  node: DocNode;
+  key: number;
+  kids: () => ReactNode[];
+  stored: Stored;
+}
+
+/** How the reader shows each node type of the document registry (the type checker asks for every one). */
+const VIEWS: { [T in NodeType]: (p: ViewProps<T>) => ReactNode } = {
+  doc: ({ kids }) => kids(),
+  text: ({ node, key }) => renderText(node, key),
+  paragraph: ({ key, kids }) => <p key={key}>{kids()}</p>,
+  heading: ({ a, key, kids }) => {
+    // The page title is the h1, so document headings sit one level lower.
+    const Tag = `h${Math.min(6, a.level + 1)}` as 'h2';
+    return <Tag key={key}>{kids()}</Tag>;
+  },
+  bulletList: ({ key, kids }) => <ul key={key}>{kids()}</ul>,
+  orderedList: ({ a, key, kids }) => (
+    <ol key={key} start={a.start}>
+      {kids()}
+    </ol>
+  ),
+  listItem: ({ key, kids }) => <li key={key}>{kids()}</li>,
+  blockquote: ({ key, kids }) => <blockquote key={key}>{kids()}</blockquote>,
+  codeBlock: ({ key, kids }) => (
+    <pre key={key}>
+      <code>{kids()}</code>
+    </pre>
+  ),
+  horizontalRule: ({ key }) => <hr key={key} />,
+  hardBreak: ({ key }) => <br key={key} />,
+  reckoner: ({ a, key, stored }) => (
+    <ReckonerCard key={key} name={a.name} view={stored.reckoners.get(a.id)} />
+  ),
+  hazardNote: ({ a, key, kids }) => (
+    <HazardBox key={key} level={a.level} flags={hazardFlagList(a)}>
+      {kids()}
+    </HazardBox>
+  ),
+  image: ({ a, key }) => (
+    <figure key={key}>
+      <img
+        src={attachmentUrl(a.attachmentId)}
+        alt={a.alt}
+        className="max-w-full rounded border border-rule"
+      />
+      {a.caption && <figcaption>{a.caption}</figcaption>}
+    </figure>
+  ),
+  file: ({ a, key }) => (
+    <p key={key}>
+      <a href={attachmentUrl(a.attachmentId)}>{a.fileName}</a>{' '}
+      <span className="text-sm text-graphite-soft">
+        ({a.mediaType === 'application/pdf' ? 'PDF' : 'image'})
+      </span>
+    </p>
+  ),
+  // A lone reading or check step; runs of them are shown together (RUNS).
+  reading: ({ key, node, stored }) => RUNS.reading([node], key, stored),
+  checkStep: ({ key, node }) => RUNS.checkStep([node], key),
+};
+
 /** Runs of readings become one table and runs of check steps one checklist. */
+type RunView = (run: DocNode[], key: number, stored: Stored) => ReactNode;
+const RUNS = {
+  reading: (run: DocNode[], key: number, { snapshot }: Stored) => {
+    const attrs = run.map((n) => n.attrs as ReadingAttrs);
+    return (
+      <ReadingsTable
+        key={key}
+        readings={attrs.map((a) => snapshot.readings.find((r) => r.id === a.id)).filter((r) => !!r)}
+        live={new Set(attrs.filter(isLiveReading).map((a) => a.id))}
+      />
+    );
+  },
+  checkStep: (run: DocNode[], key: number) => (
+    <Checklist key={key} steps={run.map((n) => n.attrs as CheckStepAttrs)} />
+  ),
+} satisfies Partial<Record<NodeType, RunView>>;
+const runOf = (type: string): RunView | undefined => (RUNS as Partial<Record<string, RunView>>)[type];
+
 function renderChildren(nodes: DocNode[] | undefined, stored: Stored): ReactNode[] {
-  const { snapshot } = stored;
   const out: ReactNode[] = [];
   const list = nodes ?? [];
   for (let i = 0; i < list.length; i++) {
     const node = list[i]!;
-    if (node.type === 'reading' || node.type === 'checkStep') {
+    const run = runOf(node.type);
+    if (run) {
       let j = i;
       while (j + 1 < list.length && list[j + 1]!.type === node.type) j++;
-      const run = list.slice(i, j + 1);
-      out.push(
-        node.type === 'reading' ? (
-          <ReadingsTable
-            key={i}
-            readings={run.map((n) => snapshot.readings.find((r) => r.id === n.attrs?.id)).filter((r) => !!r)}
-            live={
-              new Set(
-                run.filter((n) => isLiveReading(n.attrs as ReadingAttrs)).map((n) => String(n.attrs?.id)),
-              )
-            }
-          />
-        ) : (
-          <Checklist key={i} steps={run.map((n) => n.attrs as CheckStepAttrs)} />
-        ),
-      );
+      out.push(run(list.slice(i, j + 1), i, stored));
       i = j;
       continue;
     }
@@ -70,9 +135,7 @@ function Checklist({ steps }: { steps: CheckStepAttrs[] }) {
           <label className="flex min-h-11 items-start gap-3 rounded border border-rule bg-card px-3 py-2">
             <input type="checkbox" className="mt-1 size-5 shrink-0" />
             <span>
-              {(checkKindOf(s) !== 'confirm' || s.live) && (
-                <strong className="block text-sm">{checkStepHeading(s)}</strong>
-              )}
+              {showsHeading(s) && <strong className="block text-sm">{checkStepHeading(s)}</strong>}
               {s.text}
             </span>
           </label>
@@ -83,83 +146,15 @@ function Checklist({ steps }: { steps: CheckStepAttrs[] }) {
 }
 
 function renderNode(node: DocNode, key: number, stored: Stored): ReactNode {
-  const kids = () => renderChildren(node.content, stored);
-  const a = (node.attrs ?? {}) as Record<string, unknown>;
-  switch (node.type) {
-    case 'text':
-      return renderText(node, key);
-    case 'paragraph':
-      return <p key={key}>{kids()}</p>;
-    case 'heading': {
-      // The page title is the h1, so document headings sit one level lower.
-      const Tag = `h${Math.min(6, Number(a.level ?? 2) + 1)}` as 'h2';
-      return <Tag key={key}>{kids()}</Tag>;
-    }
-    case 'bulletList':
-      return <ul key={key}>{kids()}</ul>;
-    case 'orderedList':
-      return (
-        <ol key={key} start={Number(a.start ?? 1)}>
-          {kids()}
-        </ol>
-      );
-    case 'listItem':
-      return <li key={key}>{kids()}</li>;
-    case 'blockquote':
-      return <blockquote key={key}>{kids()}</blockquote>;
-    case 'codeBlock':
-      return (
-        <pre key={key}>
-          <code>{kids()}</code>
-        </pre>
-      );
-    case 'horizontalRule':
-      return <hr key={key} />;
-    case 'hardBreak':
-      return <br key={key} />;
-    case 'reckoner': {
-      const r = a as unknown as ReckonerAttrs;
-      return <ReckonerCard key={key} name={r.name} view={stored.reckoners.get(r.id)} />;
-    }
-    case 'hazardNote':
-      return (
-        <HazardBox
-          key={key}
-          level={a.level === 'warning' ? 'warning' : 'danger'}
-          flags={HAZARD_FLAGS.filter((f) => (a as HazardNoteAttrs).flags?.[f]).map(
-            (f) => HAZARD_FLAG_LABELS[f],
-          )}
-        >
-          {kids()}
-        </HazardBox>
-      );
-    case 'image': {
-      const img = a as unknown as ImageAttrs;
-      return (
-        <figure key={key}>
-          <img
-            src={attachmentUrl(img.attachmentId)}
-            alt={img.alt}
-            className="max-w-full rounded border border-rule"
-          />
-          {img.caption && <figcaption>{img.caption}</figcaption>}
-        </figure>
-      );
-    }
-    case 'file': {
-      const f = a as unknown as FileAttrs;
-      return (
-        <p key={key}>
-          <a href={attachmentUrl(f.attachmentId)}>{f.fileName}</a>{' '}
-          <span className="text-sm text-graphite-soft">
-            ({f.mediaType === 'application/pdf' ? 'PDF' : 'image'})
-          </span>
-        </p>
-      );
-    }
-    default:
-      return null;
-  }
+  if (!isNodeType(node.type)) return null;
+  const view = VIEWS[node.type] as (p: ViewProps<NodeType>) => ReactNode;
+  return view({
+    a: (node.attrs ?? {}) as never,
+    node,
+    key,
+    kids: () => renderChildren(node.content, stored),
+    stored,
+  });
 }
 
 /** A stored revision's document as plain React: no editor code is loaded to read a procedure. */

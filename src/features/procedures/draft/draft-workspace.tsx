@@ -5,19 +5,20 @@ import { lintProcedure } from '@shared/document/lint';
 import type { ProcedureParams } from '@shared/document/params';
 import type { ProcedureDoc } from '@shared/document/schema';
 import type { RevisionView } from '@shared/schemas/procedures';
+import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Button } from '@/components/ui/button';
 import { paths } from '@/config/paths';
 import { DraftDetails } from '@/features/procedures/components/draft-details';
 import { ProcedureCheckPanel } from '@/features/procedures/components/procedure-check-panel';
-import { ConflictPanel } from '@/features/procedures/draft/conflict-panel';
-import { draftFromRevision, sameDraft, type DraftFields } from '@/features/procedures/draft/draft-fields';
-import { LeaveGuard } from '@/features/procedures/draft/leave-guard';
-import { dropLocalCopy, findLocalCopy, type LocalCopy } from '@/features/procedures/draft/local-copy';
-import { SaveProblems } from '@/features/procedures/draft/save-problems';
-import { SaveStatus } from '@/features/procedures/draft/save-status';
-import { useDraftSave } from '@/features/procedures/draft/use-draft-save';
-import { ProcedureEditor, type ProcedureEditorHandle } from './editor';
-import type { Evaluation } from './evaluation-context';
+import { ConflictPanel } from './conflict-panel';
+import { draftFromRevision, sameDraft, type DraftFields } from './draft-fields';
+import { LeaveGuard } from './leave-guard';
+import { dropLocalCopy, findLocalCopy, type LocalCopy } from './local-copy';
+import { SaveProblems } from './save-problems';
+import { SaveStatus } from './save-status';
+import { useDraftSave } from './use-draft-save';
+import { ProcedureEditor, type ProcedureEditorHandle } from '@/editor/editor';
+import type { Evaluation } from '@/editor/evaluation-context';
 
 function evaluate(doc: ProcedureDoc, params: ProcedureParams): Evaluation {
   try {
@@ -163,7 +164,9 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
               Save draft
             </Button>
           </div>
-          <ProcedureCheckPanel warnings={warnings} onSelect={(id) => editor.current?.focusBlock(id)} />
+          <RegionBoundary label="Procedure check">
+            <ProcedureCheckPanel warnings={warnings} onSelect={(id) => editor.current?.focusBlock(id)} />
+          </RegionBoundary>
         </aside>
       </div>
       <LeaveGuard unsaved={state.kind !== 'saved'} onSave={saver.save} />

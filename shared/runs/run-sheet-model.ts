@@ -1,0 +1,292 @@
+import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
+import type { EntryView, RunStep, RunView } from '../schemas/runs';
+import { formatNumber, formatQuantity } from '../units/format';
+
+/**
+ * The run sheet as words, once: the page and the PDF both draw this, so a date, a mark, a deviation
+ * or the meaning of the signature reads the same on screen and on paper.
+ */
+
+/** Nothing there (no value, no band, not signed). */
+export const NONE = '—';
+
+/** Run-sheet times: UTC to the second, as the database recorded them, with the zone named. */
+export const formatUtc = (iso: string | null) => (iso ? `${iso.slice(0, 19).replace('T', ' ')} UTC` : NONE);
+
+export type MarkKind = 'within' | 'out' | 'none' | 'missing';
+/** The mark of a reading, in words as well as colour. */
+export const MARK_WORDS: Record<MarkKind, string> = {
+  within: 'in band',
+  out: 'out of band',
+  none: 'no band',
+  missing: 'not recorded',
+};
+export const markOf = (measured: number | null | undefined, within: boolean | null): MarkKind =>
+  measured == null ? 'missing' : within === null ? 'none' : within ? 'within' : 'out';
+
+const signed = (x: number) => (x > 0 ? '+' : '');
+/** "+2 V (+0.8 %)": measured minus expected, and as a share of the expected value. */
+export function deviationText(deviation: number | null, percent: number | null, unit: string): string {
+  if (deviation === null) return NONE;
+  const pct = percent === null ? '' : ` (${signed(percent)}${formatNumber(percent, 2)} %)`;
+  return `${signed(deviation)}${formatQuantity(deviation, unit, 3)}${pct}`;
+}
+
+/** What the technician's signature on a run means; the sign form says the same. */
+export const RUN_SIGNATURE_MEANING = {
+  performed: 'I performed this bench run and recorded these readings.',
+} as const;
+
+export const SHEET_HEADINGS = {
+  unit: 'Unit',
+  procedure: 'Procedure followed and its approval record',
+  bench: 'Bench conditions',
+  readings: 'Readings',
+  checks: 'Check steps and hazard notes',
+  corrections: 'Corrections (originals kept)',
+  signature: 'Signature',
+} as const;
+
+export const READING_COLUMNS = [
+  'Reading',
+  'Expected',
+  'Measured',
+  'Deviation',
+  'Mark',
+  'Recorded by',
+] as const;
+
+/** One labelled line; `tag` names it for the page (a data attribute). */
+export interface SheetField {
+  label: string;
+  value: string;
+  mono?: boolean;
+  tone?: 'ok' | 'out';
+  tag?: 'handover' | 'performer' | 'closed' | 'hold';
+}
+
+export interface SheetNotice {
+  kind: 'signed' | 'in-progress' | 'abandoned' | 'hold' | 'out';
+  text: string;
+}
+
+export interface SheetReading {
+  stepId: string;
+  position: number;
+  label: string;
+  testPoint: string;
+  unit: string;
+  /** Expected value, and its band (or why there is none) beneath it. */
+  expected: string;
+  band: string;
+  measured: string;
+  /** What the technician typed, when it reads differently from the measured value. */
+  asTyped: string | null;
+  corrected: boolean;
+  deviation: string;
+  mark: MarkKind;
+  markText: string;
+  note: string | null;
+  recordedBy: string | null;
+  recordedAt: string | null;
+}
+
+export interface SheetCheck {
+  stepId: string;
+  position: number;
+  kind: 'check' | 'hazard';
+  /** "Check" or "Hazard note". */
+  kindText: string;
+  text: string;
+  done: boolean;
+  /** "done by …, time", "acknowledged by …, time" or "not done". */
+  status: string;
+  note: string | null;
+}
+
+export interface SheetCorrection {
+  stepId: string;
+  position: number | null;
+  text: string;
+  /** Every version, oldest first: "v1: 352 V by …, time". */
+  versions: string[];
+}
+
+export interface RunSheetModel {
+  title: string;
+  reference: string;
+  notices: SheetNotice[];
+  caution: Caution;
+  unit: SheetField[];
+  procedure: SheetField[];
+  bench: SheetField[];
+  readings: SheetReading[];
+  checks: SheetCheck[];
+  corrections: SheetCorrection[];
+  photos: string | null;
+  signature: SheetField[];
+}
+
+const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+const note = (e: EntryView | undefined) => e?.note.trim() || null;
+
+function readingRow(step: RunStep, e: EntryView | undefined): SheetReading {
+  const r = step.reading!;
+  const measured = e?.measured != null ? formatQuantity(e.measured, r.unit, 4) : NONE;
+  const mark = markOf(e?.measured, e?.within ?? null);
+  return {
+    stepId: step.id,
+    position: step.position,
+    label: step.text,
+    testPoint: r.testPoint,
+    unit: r.unit,
+    expected: r.expected !== null ? formatQuantity(r.expected, r.unit, 4) : NONE,
+    band: r.bandText ?? r.error ?? NONE,
+    measured,
+    asTyped: e?.raw && ![measured, measured.split(' ')[0]].includes(e.raw.trim()) ? e.raw : null,
+    corrected: (e?.version ?? 1) > 1,
+    deviation: e ? deviationText(e.deviation, e.deviationPercent, r.unit) : NONE,
+    mark,
+    markText: MARK_WORDS[mark],
+    note: note(e),
+    recordedBy: e?.enteredBy.displayName ?? null,
+    recordedAt: e ? formatUtc(e.enteredAt) : null,
+  };
+}
+
+function checkRow(step: RunStep, e: EntryView | undefined): SheetCheck {
+  const hazard = step.kind === 'hazard';
+  return {
+    stepId: step.id,
+    position: step.position,
+    kind: hazard ? 'hazard' : 'check',
+    kindText: hazard ? 'Hazard note' : 'Check',
+    text: step.text,
+    done: !!e?.done,
+    status: e?.done
+      ? `${hazard ? 'acknowledged' : 'done'} by ${e.enteredBy.displayName}, ${formatUtc(e.enteredAt)}`
+      : 'not done',
+    note: note(e),
+  };
+}
+
+function notices(run: RunView): SheetNotice[] {
+  const out: SheetNotice[] = [
+    run.status === 'signed'
+      ? { kind: 'signed', text: 'Signed' }
+      : run.status === 'abandoned'
+        ? { kind: 'abandoned', text: 'Closed as abandoned, not signed' }
+        : { kind: 'in-progress', text: 'Not signed: bench run in progress' },
+  ];
+  if (run.hold) out.push({ kind: 'hold', text: `On hold: revision ${run.hold.revisionNumber} withdrawn` });
+  if (run.outOfTolerance)
+    out.push({ kind: 'out', text: `${plural(run.progress.outOfTolerance, 'reading')} ${MARK_WORDS.out}` });
+  return out;
+}
+
+export function runSheetModel(run: RunView): RunSheetModel {
+  const entries = new Map(run.entries.map((e) => [e.stepId, e]));
+  const stepOf = new Map(run.steps.map((s) => [s.id, s]));
+  const rev = run.revision;
+  const sig = run.signature;
+  return {
+    title: `Run sheet: ${run.title}`,
+    reference: `Benchwright bench run ${run.id}`,
+    notices: notices(run),
+    caution: RUN_SHEET_CAUTION,
+    unit: [
+      { label: 'Model', value: run.unit.model },
+      { label: 'Serial', value: run.unit.serial, mono: true },
+      { label: 'Owner', value: run.unit.owner || NONE },
+      { label: 'Job number', value: run.unit.jobNumber || NONE, mono: true },
+    ],
+    procedure: [
+      { label: 'Procedure', value: rev.title },
+      { label: 'Revision', value: `${rev.number} (${rev.state.replace('_', ' ')})` },
+      { label: 'Approved', value: formatUtc(rev.approvedAt) },
+      { label: 'Author', value: rev.author.displayName },
+      ...(rev.signOffs.length
+        ? rev.signOffs.map((s) => ({
+            label: 'Reviewer sign-off',
+            value: `${s.name}, ${s.meaning}, ${formatUtc(s.signedAt)}`,
+          }))
+        : [{ label: 'Reviewer sign-off', value: 'none recorded for this revision' }]),
+      { label: 'Revision content SHA-256', value: rev.contentHash, mono: true },
+    ],
+    bench: [
+      { label: 'Measured mains', value: formatQuantity(run.params.mainsVoltage, 'V', 4), mono: true },
+      { label: 'Mains frequency', value: formatQuantity(run.params.mainsFrequency, 'Hz', 3), mono: true },
+      {
+        label: 'Procedure nominal mains',
+        value: formatQuantity(run.params.mainsNominal, 'V', 4),
+        mono: true,
+      },
+      { label: 'Started', value: `${formatUtc(run.startedAt)} by ${run.startedBy.displayName}` },
+      ...run.handovers.map((h): SheetField => ({
+        label: 'Handed over',
+        value:
+          `${h.from.displayName} handed the run over to ${h.to.displayName}, ${formatUtc(h.at)}` +
+          `${h.by.id !== h.from.id ? ` (reassigned by ${h.by.displayName})` : ''}. Reason: ${h.reason}`,
+        tag: 'handover',
+      })),
+      ...(run.status === 'in_progress'
+        ? [{ label: 'Performed by', value: run.performedBy.displayName, tag: 'performer' as const }]
+        : []),
+      ...(run.closed
+        ? [
+            {
+              label: 'Closed',
+              value: `${formatUtc(run.closed.at)} by ${run.closed.by.displayName}, as abandoned: ${run.closed.reason}`,
+              tone: 'out' as const,
+              tag: 'closed' as const,
+            },
+          ]
+        : []),
+      ...(run.hold
+        ? [
+            {
+              label: 'On hold',
+              value: `revision ${run.hold.revisionNumber} withdrawn by ${run.hold.by}, ${formatUtc(run.hold.at)}: ${run.hold.reason}`,
+              tone: 'out' as const,
+              tag: 'hold' as const,
+            },
+          ]
+        : []),
+    ],
+    readings: run.steps.filter((s) => s.kind === 'reading').map((s) => readingRow(s, entries.get(s.id))),
+    checks: run.steps.filter((s) => s.kind !== 'reading').map((s) => checkRow(s, entries.get(s.id))),
+    corrections: run.entries
+      .filter((e) => e.history.length > 1)
+      .map((e) => {
+        const step = stepOf.get(e.stepId);
+        return {
+          stepId: e.stepId,
+          position: step?.position ?? null,
+          text: step?.text ?? e.stepId,
+          versions: e.history.map(
+            (h) =>
+              `v${h.version}: ${h.raw ?? (h.done ? 'ticked' : 'unticked')} by ${h.enteredBy.displayName}, ` +
+              `${formatUtc(h.enteredAt)}${h.reason ? `; reason: ${h.reason}` : ''}`,
+          ),
+        };
+      }),
+    photos: run.photos.length
+      ? `${plural(run.photos.length, 'photo')} kept with the run in Benchwright`
+      : null,
+    signature: sig
+      ? [
+          { label: 'Signed by', value: `${sig.signer.displayName} (${sig.signerRole})` },
+          { label: 'Meaning', value: `${sig.meaning}: ${RUN_SIGNATURE_MEANING[sig.meaning]}` },
+          { label: 'Signed at', value: formatUtc(sig.signedAt) },
+          { label: 'Run content SHA-256', value: sig.contentHash, mono: true },
+          sig.verified
+            ? { label: 'Check', value: 'Yes: the stored run content matches the signed hash.', tone: 'ok' }
+            : {
+                label: 'Check',
+                value: 'NO: the stored run content does not match the signed hash.',
+                tone: 'out',
+              },
+        ]
+      : [{ label: 'Signed by', value: 'not signed yet' }],
+  };
+}

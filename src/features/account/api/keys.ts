@@ -1,0 +1,3 @@
+export const accountKeys = {
+  all: ['account'] as const,
+};

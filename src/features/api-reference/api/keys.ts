@@ -1,0 +1,4 @@
+export const openApiKeys = {
+  all: ['openapi'] as const,
+  document: () => [...openApiKeys.all, 'document'] as const,
+};
