@@ -52,7 +52,8 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       .where(and(eq(runs.status, 'signed')))
       .orderBy(desc(runs.startedAt))
       .limit(1);
-    if (!unit || !open || !signed) throw new Error('the demo data needs a unit, an open run and a signed run');
+    if (!unit || !open || !signed)
+      throw new Error('the demo data needs a unit, an open run and a signed run');
     // The open run is seen by the technician doing it, with every step still to enter.
     const performer = open.performer.split('@')[0] as Visitor;
 
@@ -74,6 +75,7 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       ],
       audit: [{ route: 'audit', url: paths.audit.href(), who: 'admin' }],
       outbox: [{ route: 'outbox', url: paths.outbox.href(), who: 'admin' }],
+      apiReference: [{ route: 'apiReference', url: paths.apiReference.href(), who: 'admin' }],
       units: [{ route: 'units', url: paths.units.href(), who: 'tom' }],
       unit: [{ route: 'unit', url: paths.unit.href(unit.id), who: 'tom' }],
       runs: [{ route: 'runs', url: paths.runs.href(), who: 'tom' }],
