@@ -54,7 +54,7 @@ export default function Home() {
   return (
     <section>
       <h1 className="text-2xl font-semibold">Good to see you, {user.displayName.split(' ')[0]}</h1>
-      <div className="mt-6 grid gap-4 md:grid-cols-2">
+      <div className="mt-6 grid grid-cols-1 gap-4 md:grid-cols-2">
         {panels.map((p) => (
           <article
             key={p.role}

@@ -28,7 +28,7 @@ export function ImageView({ node, updateAttributes, deleteNode, selected }: Node
           alt={attrs.alt}
           className="max-h-96 max-w-full self-start rounded border border-rule"
         />
-        <div className="grid gap-2 sm:grid-cols-2">
+        <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
           <div className="flex flex-col gap-1">
             <label htmlFor={ids.alt} className="text-xs font-semibold">
               Describe the image (for screen readers)

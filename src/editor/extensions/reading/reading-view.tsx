@@ -77,7 +77,7 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
 
   return (
     <BlockFrame blockId={attrs.id} selected={selected} onRemove={deleteNode} title="Reading">
-      <div className="grid gap-3 sm:grid-cols-3">
+      <div className="grid grid-cols-1 gap-3 sm:grid-cols-3">
         <TextInput
           label="What to measure"
           value={attrs.label}

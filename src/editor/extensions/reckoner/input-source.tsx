@@ -81,7 +81,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
       <select
         id={id}
         aria-label={label}
-        className={control}
+        className={`${control} w-full min-w-0`}
         value={current}
         onChange={(e) => onChange({ param: e.target.value })}
       >
@@ -103,7 +103,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
       <select
         id={id}
         aria-label={label}
-        className={`${control} value`}
+        className={`${control} value w-full min-w-0`}
         value={current}
         onChange={(e) => onChange({ ref: e.target.value })}
       >
@@ -134,7 +134,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
   }
 
   return (
-    <div className="flex flex-col gap-1">
+    <div className="flex min-w-0 flex-col gap-1">
       {!compact && (
         <label htmlFor={id} className="text-xs font-semibold">
           {spec.label}
@@ -152,7 +152,7 @@ export function InputSource({ spec, value, onChange, errors, blockId, compact, l
           <select
             aria-label={`${label}: source`}
             title="Where this input comes from"
-            className="min-h-9 rounded border border-rule bg-paper px-1 text-xs"
+            className="min-h-9 shrink-0 rounded border border-rule bg-paper px-1 text-xs"
             value={mode}
             onChange={(e) => switchMode(e.target.value as Mode)}
           >

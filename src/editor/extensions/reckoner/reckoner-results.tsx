@@ -1,6 +1,7 @@
 import type { BlockSnapshot } from '@shared/document/evaluate';
 import type { FieldError } from '@shared/reckoners';
 import { CautionList } from '@/features/procedures/components/caution-list';
+import { Figure } from '@/features/procedures/components/reader/figure';
 
 interface Props {
   result: BlockSnapshot | undefined;
@@ -36,18 +37,15 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
   return (
     <div className="mt-3 flex flex-col gap-3">
       <dl
-        className="grid gap-x-4 gap-y-2 rounded border border-rule bg-paper px-3 py-2 sm:grid-cols-2"
+        className="grid grid-cols-1 gap-x-4 gap-y-2 rounded border border-rule bg-paper px-3 py-2 sm:grid-cols-2"
         aria-label={`Results of ${result.name}`}
       >
         {Object.entries(result.outputs).map(([key, out]) => (
           <div key={key} data-output={key} className="flex flex-col">
-            <dt className="text-xs text-graphite-soft">
-              {out.label}{' '}
-              <span className="value">
-                ({result.name}.{key})
-              </span>
-            </dt>
-            <dd className="value text-base font-semibold">{out.formatted}</dd>
+            <dt className="text-xs text-graphite-soft">{out.label}</dt>
+            <dd className="text-base">
+              <Figure formatted={out.formatted} measure={out.measure} strong />
+            </dd>
             <dd className="text-xs text-graphite-soft">{out.explanation}</dd>
           </div>
         ))}

@@ -106,7 +106,7 @@ export function ReckonerView({ node, updateAttributes, deleteNode, selected }: N
           {nameProblem}
         </p>
       )}
-      <div className="mt-3 grid gap-3 sm:grid-cols-2">{form}</div>
+      <div className="mt-3 grid grid-cols-1 gap-3 sm:grid-cols-2">{form}</div>
       <ReckonerResults result={result} unclaimed={unclaimed} failure={evaluation.failure} />
     </BlockFrame>
   );

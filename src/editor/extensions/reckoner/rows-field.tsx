@@ -23,7 +23,7 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
   const tableErrors = errorsAt(spec.key);
 
   return (
-    <fieldset className="flex flex-col gap-2">
+    <fieldset className="flex min-w-0 flex-col gap-2">
       <legend className="text-xs font-semibold">{spec.label}</legend>
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm">

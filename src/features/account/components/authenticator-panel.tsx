@@ -41,7 +41,7 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
       </Notice>
       <ol
         aria-label="Recovery codes"
-        className="value grid gap-1 rounded-md border border-rule bg-paper p-3 sm:grid-cols-2"
+        className="value grid grid-cols-1 gap-1 rounded-md border border-rule bg-paper p-3 sm:grid-cols-2"
       >
         {codes.map((c) => (
           <li key={c}>{c}</li>

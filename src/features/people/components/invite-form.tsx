@@ -35,7 +35,7 @@ export function InviteForm() {
           only.
         </Notice>
       )}
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field label="Name" {...form.register('displayName')} error={errors.displayName?.message} />
         <Field label="E-mail" type="email" {...form.register('email')} error={errors.email?.message} />
       </div>

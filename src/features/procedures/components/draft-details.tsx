@@ -54,7 +54,7 @@ export function DraftDetails({ value, onChange, problems }: Props) {
     setFieldProblems(form, problems);
   }, [form, problems]);
   return (
-    <fieldset className="grid gap-3 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2 lg:grid-cols-4">
+    <fieldset className="grid grid-cols-1 gap-3 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2 lg:grid-cols-4">
       <legend className="px-1 text-sm font-semibold">Procedure details</legend>
       <div className="sm:col-span-2">
         <Field

@@ -63,7 +63,7 @@ export function NewProcedureForm() {
         error={errors.title?.message}
         placeholder="First power-up after a reservoir capacitor change"
       />
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
           label="Equipment family"
           {...form.register('equipmentFamily')}
@@ -83,7 +83,7 @@ export function NewProcedureForm() {
         error={errors.tags?.message}
         hint="Comma-separated, e.g. power supply, first power-up"
       />
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
           label="Nominal mains (V)"
           type="number"

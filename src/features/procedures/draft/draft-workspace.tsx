@@ -135,7 +135,7 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
         <SaveProblems message={state.message} problems={state.problems} doc={draft.document} />
       )}
 
-      <div className="grid items-start gap-4 lg:grid-cols-[minmax(0,1fr)_18rem]">
+      <div className="grid grid-cols-1 items-start gap-4 lg:grid-cols-[minmax(0,1fr)_18rem]">
         <div className="flex min-w-0 flex-col gap-4">
           <DraftDetails
             key={detailsKey}

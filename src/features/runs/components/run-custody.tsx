@@ -137,7 +137,7 @@ export function RunCustody({ run }: { run: RunView }) {
   return (
     <section
       aria-label="Hand over or close"
-      className="grid gap-6 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2"
+      className="grid grid-cols-1 gap-6 rounded-lg border border-rule bg-card p-4 sm:grid-cols-2"
     >
       {!run.hold && <HandoverForm run={run} />}
       <AbandonForm run={run} />

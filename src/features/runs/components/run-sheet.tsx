@@ -21,7 +21,7 @@ const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
 /** Labelled lines of the sheet (unit, procedure, bench conditions, signature). */
 function Fields({ fields }: { fields: SheetField[] }) {
   return (
-    <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
+    <dl className="mt-2 grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-1 text-sm">
       {fields.map((f, i) => (
         <div key={`${f.label}-${i}`} className="contents">
           <dt className="text-graphite-soft">{f.label}</dt>
@@ -84,7 +84,7 @@ export function RunSheet({ run }: { run: RunView }) {
         <SafetyCaution caution={sheet.caution} />
       </section>
 
-      <section className="grid gap-4 sm:grid-cols-2 print:grid-cols-2">
+      <section className="grid grid-cols-1 gap-4 sm:grid-cols-2 print:grid-cols-2">
         <Card title={SHEET_HEADINGS.unit} fields={sheet.unit} />
         <Card title={SHEET_HEADINGS.bench} fields={sheet.bench} />
         <Card title={SHEET_HEADINGS.procedure} fields={sheet.procedure} wide />

@@ -195,7 +195,7 @@ export function StartRunForm({
           </span>
         )}
       </label>
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Measured mains (V)
           <input

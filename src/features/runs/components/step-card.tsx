@@ -110,7 +110,7 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
   });
   return (
     <form onSubmit={submit} className="flex flex-col gap-3" noValidate>
-      <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-3">
+      <dl className="grid grid-cols-1 gap-x-6 gap-y-1 text-sm sm:grid-cols-3">
         <div>
           <dt className="text-graphite-soft">Test point</dt>
           <dd>{r.testPoint || '—'}</dd>

@@ -42,7 +42,7 @@ export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: Uni
       <h2 className="text-lg font-semibold">{unit ? 'Edit unit' : 'Register a unit'}</h2>
       <FormProblem formState={form.formState} />
       {save.isSuccess && unit && <Notice tone="success">Saved.</Notice>}
-      <div className="grid gap-4 sm:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
           label="Model"
           {...form.register('model')}

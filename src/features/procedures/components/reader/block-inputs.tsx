@@ -13,7 +13,7 @@ export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string
           <th scope="col" className="py-1 pr-3 font-normal">
             Value
           </th>
-          <th scope="col" className="py-1 font-normal">
+          <th scope="col" className="py-1 font-normal max-sm:hidden">
             From
           </th>
         </tr>
@@ -24,8 +24,10 @@ export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string
             <td className="py-1 pr-3">{i.label}</td>
             <td className="py-1 pr-3">
               <Figure formatted={i.formatted} measure={i.measure} />
+              {/* On a phone the source goes under the value instead of in its own column. */}
+              <span className="block text-xs text-graphite-soft sm:hidden">{i.sourceText}</span>
             </td>
-            <td className="py-1 text-xs text-graphite-soft">{i.sourceText}</td>
+            <td className="py-1 text-xs text-graphite-soft max-sm:hidden">{i.sourceText}</td>
           </tr>
         ))}
       </tbody>

@@ -18,7 +18,9 @@ export function Figure({
   const sentence = formatted.length > 24 && /\s\S+\s/.test(formatted);
   return (
     <span className={sentence ? 'break-words' : 'whitespace-nowrap'}>
-      <span className={`${sentence ? 'font-mono' : 'value'} ${strong ? 'font-semibold' : ''}`}>{formatted}</span>
+      <span className={`${sentence ? 'font-mono' : 'value'} ${strong ? 'font-semibold' : ''}`}>
+        {formatted}
+      </span>
       {word && formatted !== '—' && <span className="text-xs text-graphite-soft"> {word}</span>}
     </span>
   );
