@@ -2,8 +2,9 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
+import { env } from './server/config/env.ts';
 
-const apiPort = Number(process.env.PORT ?? 5480);
+const apiPort = env.PORT;
 
 const projectRoot = fileURLToPath(new URL('.', import.meta.url));
 
@@ -30,13 +31,18 @@ export default defineConfig({
     projects: [
       {
         extends: true,
-        test: { name: 'unit', include: ['tests/shared/**/*.test.ts'], environment: 'node' },
+        test: {
+          name: 'unit',
+          include: ['tests/shared/**/*.test.ts', 'tests/**/*.unit.test.ts'],
+          environment: 'node',
+        },
       },
       {
         extends: true,
         test: {
           name: 'api',
           include: ['tests/server/**/*.test.ts'],
+          exclude: ['tests/**/*.unit.test.ts'],
           environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'],
           testTimeout: 30_000,
