@@ -10,9 +10,9 @@ import { revisionContentHash } from '../modules/review/signed-content';
 import { runContentHash } from '../modules/runs/run-hash';
 import { isFinished } from '../modules/runs/run-steps';
 import { runContent, unitRecordOf } from '../modules/runs/run-view';
-import { recordEntry, startRun, type Tx } from '../modules/runs/runs.service';
+import { recordEntry, startRun } from '../modules/runs/runs.service';
 import { NO_FILES } from '../storage/files';
-import type { Db } from './client';
+import type { Db, Tx } from './client';
 import { recordAudit } from '../audit/record';
 import { people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
 

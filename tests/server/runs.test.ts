@@ -408,7 +408,7 @@ describe('nothing lost', () => {
         .send({ key: randomUUID(), value: '6.3 V' });
       expect(next.status).toBe(200);
     } finally {
-      (app2.locals.sessionStore as { close(): void }).close();
+      app2.deps.auth.sessions.store.close();
       await pool2.end();
       await first.close();
     }

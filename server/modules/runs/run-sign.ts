@@ -23,7 +23,8 @@ import { assertWritable } from './run-custody';
 import { runContentHash } from './run-hash';
 import { isFinished } from './run-steps';
 import { runContent, unitRecordOf } from './run-view';
-import type { RunRow, Tx } from './runs.service';
+import type { Tx } from '../../db/client';
+import type { RunRow } from './runs.service';
 
 export const runSheetPath = (runId: string) => paths.run.href(runId);
 
