@@ -7,7 +7,7 @@ import { recordAudit } from '../../audit/record';
 import { endSessionsOf } from '../../auth/end-sessions';
 import { forgetShopSettings } from '../../auth/second-factor';
 import type { Db, Tx } from '../../db/client';
-import { invitations, people, recoveryCodes, session, shopSettings } from '../../db/schema';
+import { invitations, people, recoveryCodes, session, shopSettings, type Role } from '../../db/schema';
 import type { AppDeps } from '../../deps';
 import { conflict, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
@@ -92,17 +92,30 @@ const invitationMail = (
   }),
 });
 
+/** Adds a person unless the address already has an account (then answers undefined). */
+export async function addPerson(
+  db: Db | Tx,
+  person: { email: string; displayName: string; roles: Role[]; passwordHash?: string },
+) {
+  const [row] = await db
+    .insert(people)
+    .values(person)
+    .onConflictDoNothing({ target: people.email })
+    .returning();
+  return row;
+}
+
 export const listPeople = async (db: Db) =>
   (await db.select().from(people).orderBy(asc(people.displayName))).map(view);
 
 /** Creates the person and mails them a set-password link (audited); 409 when the address has an account. */
 export async function invitePerson(deps: AppDeps, admin: SessionUser, body: InviteBody, req: Request) {
   const created = await deps.db.transaction(async (tx) => {
-    const [person] = await tx
-      .insert(people)
-      .values({ email: body.email, displayName: body.displayName, roles: body.roles })
-      .onConflictDoNothing({ target: people.email })
-      .returning();
+    const person = await addPerson(tx, {
+      email: body.email,
+      displayName: body.displayName,
+      roles: body.roles,
+    });
     if (!person)
       throw conflict(`${body.email} already has an account.`, {
         fields: [{ field: 'body.email', reason: 'already has an account' }],
