@@ -1,6 +1,6 @@
 import SearchableMap from 'minisearch/SearchableMap';
-import type { SearchHit, SearchPage } from '../../shared/schemas/search';
-import { tokenize } from './vocabulary';
+import { PARTIAL_LABEL, type SearchHit, type SearchPage } from '../../shared/schemas/search';
+import { analyse, codeForm, tokenize } from './vocabulary';
 
 /** What the index knows of one procedure: its current approved revision. */
 export interface IndexedProcedure {
@@ -18,7 +18,7 @@ export interface IndexedProcedure {
   reckoners: string;
 }
 
-export type { SearchHit, SearchPage } from '../../shared/schemas/search';
+export type { PartialHit, SearchHit, SearchPage } from '../../shared/schemas/search';
 
 /** Field weights: a word in the title counts four times one in the body. */
 const FIELDS: { boost: number; text: (p: IndexedProcedure) => string }[] = [
@@ -27,31 +27,62 @@ const FIELDS: { boost: number; text: (p: IndexedProcedure) => string }[] = [
   { boost: 1.5, text: (p) => `${p.readings}\n${p.reckoners}` },
   { boost: 1, text: (p) => p.body },
 ];
+const NF = FIELDS.length;
+const BOOST = FIELDS.map((f) => f.boost);
 // BM25 constants (Robertson & Zaragoza, "The Probabilistic Relevance Framework", 2009).
 const K1 = 1.2;
 const B = 0.7;
 const PREFIX_FACTOR = 0.5;
+const UNIT_FACTOR = 0.9;
 const FUZZY_FACTOR = 0.35;
+/** Terms of a query beyond this many are ignored (a match mask per procedure holds 32). */
+const MAX_QUERY_TERMS = 32;
 
-/** One term's documents: parallel arrays of document slots and their BM25 weights (without idf). */
+/**
+ * One term's documents: parallel arrays of document slots and term frequencies, one byte per field
+ * packed in a number. BM25 weights are computed at query time from the whole library's field
+ * lengths, so a procedure scores the same however and in whatever order the library was built.
+ */
 interface Postings {
   slots: number[];
-  weights: number[];
+  tf: number[];
 }
+interface Source {
+  postings: Postings;
+  factor: number;
+  /** Reached exactly, by synonym, unit or while typing — not only by a typo. */
+  exact: boolean;
+}
+interface QueryTerm {
+  term: string;
+  /** As the person typed it, for "missing" labels and spelling help. */
+  word: string;
+  sources: Source[];
+  /** Index terms reached, for marking the snippet. */
+  words: string[];
+}
+
 const hasDigit = (t: string) => /\d/.test(t);
+const hasLetter = (t: string) => /\p{L}/u.test(t);
+const NUMBER = /^\d+(?:\.\d+)?$/;
+const UNIT_SUFFIX = /^(?:[pnumk]|meg)?(?:v|a|w|hz|f|ohm|va|h|pf|nf|uf)$/;
+
+/** Typo budget by the length of the word as typed: none up to four letters (a swap of two is allowed). */
+const typoBudget = (word: string) => (word.length >= 8 ? 2 : word.length >= 5 ? 1 : 0);
 
 /**
  * The in-process search index. minisearch's radix tree (SearchableMap) holds the vocabulary and
- * finds prefix and typo matches; each term keeps flat postings of per-document BM25 weights
- * (field-boosted, length-normalised). A query walks only its terms' postings into typed-array
- * accumulators and keeps just one page of hits, so broad queries over 10,000 procedures stay in
- * the low milliseconds (npm run bench:search).
+ * finds prefix and typo matches; each term keeps flat postings of per-field term frequencies. A
+ * query walks only its terms' postings into typed-array accumulators and keeps just one page of
+ * hits, so broad queries over 10,000 procedures stay in the low milliseconds (npm run bench:search).
  */
 export class SearchIndex {
   private terms = new SearchableMap<Postings>();
   private docs: (IndexedProcedure | undefined)[] = [];
   private docTerms: (string[] | undefined)[] = [];
   private lineCache: ({ line: string; tokens: Set<string> }[] | undefined)[] = [];
+  /** A written form of each term, for spelling suggestions (stems are not words). */
+  private surface = new Map<string, string>();
   /** Tokens of each word a snippet shows, remembered: the library's words are few, snippets many. */
   private wordTokens = new Map<string, string[]>();
   private tokensOfWord = (word: string) => {
@@ -63,7 +94,12 @@ export class SearchIndex {
     return tokens;
   };
   private slotOf = new Map<string, number>();
+  /** Field lengths per slot (slot * NF + field) and their sums over the library. */
+  private fieldLength: number[] = [];
   private fieldLengthSum = FIELDS.map(() => 0);
+  /** BM25 length normalisation per slot and field, recomputed after the library changes. */
+  private norm = new Float64Array(0);
+  private normStale = true;
   // Families and tags as small integers per slot, so counting facets over thousands of matches is cheap.
   private facetNames: string[] = [];
   private facetIdOf = new Map<string, number>();
@@ -71,8 +107,10 @@ export class SearchIndex {
   private tagsOf: number[][] = [];
   // Query scratch space, one entry per document slot.
   private acc = new Float64Array(0);
-  private hits = new Uint16Array(0);
+  private mask = new Uint32Array(0);
+  private exact = new Uint8Array(0);
   private best = new Float64Array(0);
+  private bestExact = new Uint8Array(0);
   private stampOf = new Uint32Array(0);
   private stamp = 0;
 
@@ -89,22 +127,20 @@ export class SearchIndex {
     this.docs = [];
     this.docTerms = [];
     this.lineCache = [];
+    this.surface = new Map();
     this.slotOf = new Map();
+    this.fieldLength = [];
+    this.fieldLengthSum = FIELDS.map(() => 0);
     this.facetNames = [];
     this.facetIdOf = new Map();
     this.familyOf = [];
     this.tagsOf = [];
-    // Average field lengths first, so every document is normalised against the same figures.
-    const tokenized = procedures.map((p) => FIELDS.map((f) => tokenize(f.text(p))));
-    this.fieldLengthSum = FIELDS.map((_, i) => tokenized.reduce((sum, t) => sum + t[i]!.length, 0));
-    procedures.forEach((p, i) => this.add(p, tokenized[i]!));
+    for (const p of procedures) this.upsert(p);
   }
 
   upsert(p: IndexedProcedure) {
     this.remove(p.id);
-    const fields = FIELDS.map((f) => tokenize(f.text(p)));
-    fields.forEach((t, i) => (this.fieldLengthSum[i]! += t.length));
-    this.add(p, fields);
+    this.add(p);
   }
 
   remove(id: string) {
@@ -116,42 +152,49 @@ export class SearchIndex {
       const at = postings.slots.indexOf(slot);
       if (at >= 0) {
         postings.slots.splice(at, 1);
-        postings.weights.splice(at, 1);
+        postings.tf.splice(at, 1);
       }
       if (!postings.slots.length) this.terms.delete(term);
     }
-    const p = this.docs[slot]!;
-    FIELDS.forEach((f, i) => (this.fieldLengthSum[i]! -= tokenize(f.text(p)).length));
+    for (let f = 0; f < NF; f++) {
+      this.fieldLengthSum[f]! -= this.fieldLength[slot * NF + f]!;
+      this.fieldLength[slot * NF + f] = 0;
+    }
     this.docs[slot] = undefined;
     this.docTerms[slot] = undefined;
     this.lineCache[slot] = undefined;
     this.slotOf.delete(id);
+    this.normStale = true;
   }
 
-  private add(p: IndexedProcedure, fields: string[][]) {
+  private add(p: IndexedProcedure) {
     const slot = this.docs.length;
-    const n = Math.max(1, this.slotOf.size + 1);
-    const weights = new Map<string, number>();
-    fields.forEach((tokens, i) => {
-      const avg = Math.max(1, this.fieldLengthSum[i]! / n);
-      const tf = new Map<string, number>();
-      for (const t of tokens) tf.set(t, (tf.get(t) ?? 0) + 1);
-      for (const [term, count] of tf) {
-        const w = (FIELDS[i]!.boost * count * (K1 + 1)) / (count + K1 * (1 - B + (B * tokens.length) / avg));
-        weights.set(term, (weights.get(term) ?? 0) + w);
+    const packed = new Map<string, number>();
+    FIELDS.forEach((field, f) => {
+      const tokens = analyse(field.text(p));
+      this.fieldLength[slot * NF + f] = tokens.length;
+      this.fieldLengthSum[f]! += tokens.length;
+      for (const { term, word, part } of tokens) {
+        const tf = packed.get(term) ?? 0;
+        if (((tf >>> (8 * f)) & 255) < 255) packed.set(term, tf + 2 ** (8 * f));
+        const known = this.surface.get(term);
+        // The shortest, then alphabetically first, spelling: the same whatever the order of indexing.
+        if (!part && (!known || word.length < known.length || (word.length === known.length && word < known)))
+          this.surface.set(term, word);
       }
     });
-    for (const [term, w] of weights) {
+    for (const [term, tf] of packed) {
       let postings = this.terms.get(term);
-      if (!postings) this.terms.set(term, (postings = { slots: [], weights: [] }));
+      if (!postings) this.terms.set(term, (postings = { slots: [], tf: [] }));
       postings.slots.push(slot);
-      postings.weights.push(w);
+      postings.tf.push(tf);
     }
     this.docs.push(p);
-    this.docTerms.push([...weights.keys()]);
+    this.docTerms.push([...packed.keys()]);
     this.familyOf.push(this.facetId(`f:${p.family}`));
     this.tagsOf.push(p.tags.map((t) => this.facetId(`t:${t}`)));
     this.slotOf.set(p.id, slot);
+    this.normStale = true;
   }
 
   private facetId(name: string) {
@@ -163,31 +206,101 @@ export class SearchIndex {
     return id;
   }
 
+  /** BM25's length normalisation against the library's current average field lengths. */
+  private ensureNorms() {
+    if (!this.normStale && this.norm.length >= this.docs.length * NF) return;
+    const n = Math.max(1, this.slotOf.size);
+    const avg = this.fieldLengthSum.map((sum) => Math.max(1, sum / n));
+    if (this.norm.length < this.docs.length * NF) this.norm = new Float64Array(this.docs.length * NF * 2);
+    for (let i = 0; i < this.docs.length * NF; i++)
+      this.norm[i] = K1 * (1 - B + (B * this.fieldLength[i]!) / avg[i % NF]!);
+    this.normStale = false;
+  }
+
   private idf(df: number) {
     const n = this.slotOf.size;
     return Math.log(1 + (n - df + 0.5) / (df + 0.5));
   }
 
-  /** The postings one query term reaches: exact, prefix (while typing) and typo-tolerant. */
-  private sourcesFor(term: string, isLast: boolean) {
-    const sources: { postings: Postings; factor: number }[] = [];
-    const words: string[] = [];
-    const add = (word: string, postings: Postings, factor: number) => {
-      words.push(word);
-      sources.push({ postings, factor: factor * this.idf(postings.slots.length) });
+  /**
+   * Query terms from the query text. Pieces of a code typed apart ("tc 18", "EL 34", "5 AR 4") are
+   * joined when the library knows the joined code; stop words are gone; code pieces are not queried.
+   */
+  private queryTerms(query: string): { term: string; word: string }[] {
+    const raw = query.split(/\s+/).filter(Boolean);
+    const joined: string[] = [];
+    for (let i = 0; i < raw.length; i++) {
+      let n = 0;
+      for (const size of [3, 2]) {
+        const code = codeForm(raw.slice(i, i + size).join(''));
+        if (
+          i + size <= raw.length &&
+          code.length <= 12 &&
+          hasLetter(code) &&
+          hasDigit(code) &&
+          this.terms.has(code)
+        ) {
+          n = size;
+          joined.push(code);
+          break;
+        }
+      }
+      if (n) i += n - 1;
+      else joined.push(raw[i]!);
+    }
+    const seen = new Set<string>();
+    const out: { term: string; word: string }[] = [];
+    for (const t of analyse(joined.join(' '))) {
+      if (t.part || seen.has(t.term)) continue;
+      seen.add(t.term);
+      out.push({ term: t.term, word: t.word });
+    }
+    return out.slice(0, MAX_QUERY_TERMS);
+  }
+
+  /** The postings one query term reaches: exact, a number's quantities, prefix (while typing), typos. */
+  private resolve(q: { term: string; word: string }, isLast: boolean): QueryTerm {
+    const { term } = q;
+    const out: QueryTerm = { ...q, sources: [], words: [] };
+    const add = (word: string, postings: Postings, factor: number, exact: boolean) => {
+      out.words.push(word);
+      out.sources.push({ postings, factor: factor * this.idf(postings.slots.length), exact });
     };
     const exact = this.terms.get(term);
-    if (exact) add(term, exact, 1);
-    if (isLast && term.length >= 3 && !hasDigit(term)) {
+    if (exact) add(term, exact, 1, true);
+    if (NUMBER.test(term)) {
+      // "6.3" meets "6.3v", "100" meets "100uf" (not "1000v").
       for (const [word, postings] of this.terms.atPrefix(term))
-        if (word !== term) add(word, postings, PREFIX_FACTOR);
+        if (UNIT_SUFFIX.test(word.slice(term.length))) add(word, postings, UNIT_FACTOR, true);
+    } else if (isLast && term.length >= 3) {
+      // While typing: "blee" → "bleeder"; a code only gains letters ("tc-30" → "tc30h", not "tc300").
+      const code = hasDigit(term);
+      for (const [word, postings] of this.terms.atPrefix(term))
+        if (word !== term && (!code || !hasDigit(word.slice(term.length))))
+          add(word, postings, PREFIX_FACTOR, true);
     }
-    if (!exact && term.length >= 4 && !hasDigit(term)) {
-      const distance = term.length >= 8 ? 2 : 1;
-      for (const [word, [postings, d]] of this.terms.fuzzyGet(term, distance))
-        add(word, postings, FUZZY_FACTOR / d);
+    if (!exact && !hasDigit(term))
+      for (const [word, postings, d] of this.typos(q)) add(word, postings, FUZZY_FACTOR / d, false);
+    return out;
+  }
+
+  /**
+   * Library words within the typo budget of the word as typed, keeping its first letter (people
+   * rarely mistype that, and "cable" is not "table"), plus any swap of two neighbouring letters.
+   */
+  private typos(q: { term: string; word: string }): [string, Postings, number][] {
+    const { term } = q;
+    const found = new Map<string, [string, Postings, number]>();
+    const budget = typoBudget(q.word);
+    if (budget)
+      for (const [word, [postings, d]] of this.terms.fuzzyGet(term, budget))
+        if (d > 0 && word[0] === term[0] && !hasDigit(word)) found.set(word, [word, postings, d]);
+    for (let i = 0; i + 1 < term.length; i++) {
+      const swapped = term.slice(0, i) + term[i + 1] + term[i] + term.slice(i + 2);
+      const postings = swapped !== term ? this.terms.get(swapped) : undefined;
+      if (postings) found.set(swapped, [swapped, postings, 1]);
     }
-    return { sources, words };
+    return [...found.values()];
   }
 
   private ensureScratch() {
@@ -195,61 +308,66 @@ export class SearchIndex {
     if (this.acc.length >= n) return;
     const size = Math.max(1024, n * 2);
     this.acc = new Float64Array(size);
-    this.hits = new Uint16Array(size);
+    this.mask = new Uint32Array(size);
+    this.exact = new Uint8Array(size);
     this.best = new Float64Array(size);
+    this.bestExact = new Uint8Array(size);
     this.stampOf = new Uint32Array(size);
     this.stamp = 0;
   }
 
   /**
    * Scores every document any query term reaches. Within a term the best-matching spelling counts;
-   * across terms the scores add up. Returns the documents that matched all terms (or, when none
-   * did, those that matched any, weighted by how many).
+   * across terms the scores add up. Returns each document reached with at least one term matched
+   * exactly (or by synonym, unit or prefix), with the mask of the terms it matched.
    */
-  private score(terms: { sources: { postings: Postings; factor: number }[] }[]): {
-    slots: number[];
-    scores: number[];
-  } {
+  private score(terms: QueryTerm[]): { slots: number[]; scores: number[]; masks: number[] } {
     this.ensureScratch();
-    const { acc, hits, best, stampOf } = this;
+    this.ensureNorms();
+    const { acc, mask, exact, best, bestExact, stampOf, norm } = this;
     const touched: number[] = [];
-    for (const term of terms) {
+    terms.forEach((term, bit) => {
       const stamp = ++this.stamp;
       const reached: number[] = [];
-      for (const { postings, factor } of term.sources) {
-        const { slots, weights } = postings;
+      for (const source of term.sources) {
+        const { slots, tf } = source.postings;
         for (let j = 0; j < slots.length; j++) {
           const slot = slots[j]!;
-          const s = weights[j]! * factor;
+          const packed = tf[j]!;
+          let w = 0;
+          for (let f = 0, base = slot * NF; f < NF; f++) {
+            const c = (packed / 2 ** (8 * f)) & 255;
+            if (c) w += (BOOST[f]! * c * (K1 + 1)) / (c + norm[base + f]!);
+          }
+          const s = w * source.factor;
           if (stampOf[slot] !== stamp) {
             stampOf[slot] = stamp;
             best[slot] = s;
+            bestExact[slot] = source.exact ? 1 : 0;
             reached.push(slot);
-          } else if (s > best[slot]!) best[slot] = s;
+          } else {
+            if (s > best[slot]!) best[slot] = s;
+            if (source.exact) bestExact[slot] = 1;
+          }
         }
       }
       for (const slot of reached) {
-        if (hits[slot] === 0) touched.push(slot);
-        hits[slot]!++;
+        if (mask[slot] === 0) touched.push(slot);
+        mask[slot]! |= 1 << bit;
         acc[slot]! += best[slot]!;
+        exact[slot]! |= bestExact[slot]!;
       }
-    }
-    const out = { slots: [] as number[], scores: [] as number[] };
+    });
+    const out = { slots: [] as number[], scores: [] as number[], masks: [] as number[] };
     for (const slot of touched) {
-      if (hits[slot] === terms.length) {
+      if (exact[slot]) {
         out.slots.push(slot);
         out.scores.push(acc[slot]!);
+        out.masks.push(mask[slot]!);
       }
-    }
-    if (!out.slots.length && terms.length > 1) {
-      for (const slot of touched) {
-        out.slots.push(slot);
-        out.scores.push((acc[slot]! * hits[slot]!) / terms.length);
-      }
-    }
-    for (const slot of touched) {
       acc[slot] = 0;
-      hits[slot] = 0;
+      mask[slot] = 0;
+      exact[slot] = 0;
     }
     if (this.stamp > 4e9) {
       stampOf.fill(0);
@@ -264,68 +382,102 @@ export class SearchIndex {
   ): SearchPage {
     const page = Math.max(1, opts.page ?? 1);
     const pageSize = Math.min(50, Math.max(1, opts.pageSize ?? 20));
-    const queryTerms = [...new Set(tokenize(query))];
-    const empty: SearchPage = {
+    const out: SearchPage = {
       query,
       total: 0,
       page,
       pageSize,
       results: [],
+      partial: null,
+      correctedQuery: null,
       suggestions: [],
       facets: { families: [], tags: [] },
     };
-    if (!queryTerms.length) return empty;
+    const asked = this.queryTerms(query);
+    if (!asked.length) return out;
 
-    const terms = queryTerms.map((t, i) => this.sourcesFor(t, i === queryTerms.length - 1));
-    const words = new Set(terms.flatMap((m) => m.words));
+    let terms = asked.map((t, i) => this.resolve(t, i === asked.length - 1));
+    // No word of the query is in the library, but each is a typo of one that is: search that instead.
+    const corrections = terms.every((t) => !t.sources.some((s) => s.exact))
+      ? terms.map((t) => this.closest(t))
+      : [];
+    if (corrections.length && corrections.every(Boolean)) {
+      terms = corrections.map((c) => this.resolve({ term: c!, word: this.surface.get(c!) ?? c! }, false));
+      out.correctedQuery = terms.map((t) => t.word).join(' ');
+    }
     const found = this.score(terms);
+    const all = 2 ** terms.length - 1;
+    const full = found.masks.map((m) => m >>> 0 === all);
+    const anyFull = full.some(Boolean);
+    const group: number[] = [];
+    found.slots.forEach((_, i) => {
+      if (full[i] === anyFull) group.push(i);
+    });
 
     const seen = new Uint8Array(this.facetNames.length);
     const family = opts.family === undefined ? -1 : (this.facetIdOf.get(`f:${opts.family}`) ?? -2);
     const tag = opts.tag === undefined ? -1 : (this.facetIdOf.get(`t:${opts.tag}`) ?? -2);
-    const kept: [number, number][] = [];
-    for (let i = 0; i < found.slots.length; i++) {
+    const kept: Ranked[] = [];
+    for (const i of group) {
       const slot = found.slots[i]!;
       const f = this.familyOf[slot]!;
       const ts = this.tagsOf[slot]!;
       seen[f] = 1;
       for (const t of ts) seen[t] = 1;
-      if ((family === -1 || f === family) && (tag === -1 || ts.includes(tag)))
-        kept.push([slot, found.scores[i]!]);
+      if ((family === -1 || f === family) && (tag === -1 || ts.includes(tag))) {
+        // Partial matches rank by how many words they match, then by score.
+        const key = anyFull ? found.scores[i]! : popcount(found.masks[i]!) * 1e4 + found.scores[i]!;
+        kept.push({ slot, key, score: found.scores[i]!, mask: found.masks[i]!, id: this.docs[slot]!.id });
+      }
     }
-    const families: string[] = [];
-    const tags: string[] = [];
     seen.forEach((on, id) => {
       if (!on) return;
       const name = this.facetNames[id]!;
-      (name.startsWith('f:') ? families : tags).push(name.slice(2));
+      (name.startsWith('f:') ? out.facets.families : out.facets.tags).push(name.slice(2));
     });
+    out.facets.families.sort();
+    out.facets.tags.sort();
+    const words = new Set(terms.flatMap((t) => t.words));
     const top = topK(kept, page * pageSize).slice((page - 1) * pageSize);
-    return {
-      query,
-      total: kept.length,
-      page,
-      pageSize,
-      results: top.map(([slot, score]) => this.hit(slot, score, words)),
-      suggestions: kept.length ? [] : this.suggest(queryTerms),
-      facets: { families: families.sort(), tags: tags.sort() },
-    };
+    if (anyFull) {
+      out.total = kept.length;
+      out.results = top.map((r) => this.hit(r.slot, r.score, words));
+    } else {
+      out.suggestions = this.suggest(terms);
+      if (kept.length)
+        out.partial = {
+          label: PARTIAL_LABEL,
+          total: kept.length,
+          results: top.map((r) => ({
+            ...this.hit(r.slot, r.score, words),
+            missing: terms.filter((_, bit) => !(r.mask & (1 << bit))).map((t) => t.word),
+          })),
+        };
+    }
+    return out;
   }
 
-  /** For each word, the closest spelling the library uses most. */
-  private suggest(queryTerms: string[]): string[] {
-    const fixed = queryTerms.map((t) => {
-      if (this.terms.has(t) || hasDigit(t) || t.length < 3) return t;
-      let best = t;
-      let bestScore = -1;
-      for (const [word, [postings, d]] of this.terms.fuzzyGet(t, t.length >= 7 ? 2 : 1)) {
-        const s = postings.slots.length / d;
-        if (s > bestScore) [best, bestScore] = [word, s];
-      }
-      return best;
+  /** The library's likeliest spelling of a word it does not have: most procedures, fewest edits. */
+  private closest(t: { term: string; word: string }): string | undefined {
+    if (hasDigit(t.term)) return undefined;
+    let best: string | undefined;
+    let bestScore = -1;
+    for (const [word, postings, d] of this.typos(t)) {
+      const s = postings.slots.length / d;
+      if (s > bestScore || (s === bestScore && word < best!)) [best, bestScore] = [word, s];
+    }
+    return best;
+  }
+
+  /** The query with each word the library lacks replaced by its closest spelling, when that differs. */
+  private suggest(terms: QueryTerm[]): string[] {
+    const fixed = terms.map((t) => {
+      if (t.sources.some((s) => s.exact)) return t.word;
+      const c = this.closest(t);
+      return c ? (this.surface.get(c) ?? c) : t.word;
     });
     const suggestion = fixed.join(' ');
-    return suggestion !== queryTerms.join(' ') ? [suggestion] : [];
+    return suggestion !== terms.map((t) => t.word).join(' ') ? [suggestion] : [];
   }
 
   private hit(slot: number, score: number, words: Set<string>): SearchHit {
@@ -349,22 +501,39 @@ export class SearchIndex {
   }
 }
 
-/** The k best [slot, score] pairs, best first, without sorting everything. */
-function topK(items: [number, number][], k: number): [number, number][] {
-  if (items.length <= k * 4) return items.sort((a, b) => b[1] - a[1]).slice(0, k);
-  const best: [number, number][] = [];
+interface Ranked {
+  slot: number;
+  key: number;
+  score: number;
+  mask: number;
+  id: string;
+}
+
+function popcount(m: number) {
+  let n = 0;
+  for (let x = m >>> 0; x; x &= x - 1) n++;
+  return n;
+}
+
+/** Best first; equal scores by procedure id, so the order never depends on the order of indexing. */
+const better = (a: Ranked, b: Ranked) => b.key - a.key || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+
+/** The k best, best first, without sorting everything. */
+function topK(items: Ranked[], k: number): Ranked[] {
+  if (items.length <= k * 4) return items.sort(better).slice(0, k);
+  const best: Ranked[] = [];
   for (const item of items) {
     if (best.length < k) {
       best.push(item);
-      if (best.length === k) best.sort((a, b) => b[1] - a[1]);
-    } else if (item[1] > best[k - 1]![1]) {
+      if (best.length === k) best.sort(better);
+    } else if (better(item, best[k - 1]!) < 0) {
       let i = k - 1;
-      while (i > 0 && best[i - 1]![1] < item[1]) i--;
+      while (i > 0 && better(item, best[i - 1]!) < 0) i--;
       best.splice(i, 0, item);
       best.pop();
     }
   }
-  return best.length < k ? best.sort((a, b) => b[1] - a[1]) : best;
+  return best.length < k ? best.sort(better) : best;
 }
 
 /** The line that holds most matched terms, cut to ~200 characters, with those words marked. */
