@@ -16,6 +16,17 @@ function rng(seed: number) {
   };
 }
 
+/** A copy in a seeded random order (Fisher–Yates). */
+export function shuffled<T>(items: readonly T[], seed: number): T[] {
+  const r = rng(seed);
+  const out = [...items];
+  for (let i = out.length - 1; i > 0; i--) {
+    const j = Math.floor(r() * (i + 1));
+    [out[i], out[j]] = [out[j]!, out[i]!];
+  }
+  return out;
+}
+
 const FAMILIES = [
   'Guitar amplifier',
   'Hi-fi amplifier',

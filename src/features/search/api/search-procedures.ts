@@ -2,7 +2,7 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import type { SearchPage } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
 
-export type { SearchHit, SearchPage } from '@shared/schemas/search';
+export type { PartialHit, SearchHit, SearchPage } from '@shared/schemas/search';
 
 export interface SearchParams {
   q: string;
