@@ -46,6 +46,9 @@ const MAX_QUERY_TERMS = 32;
 interface Postings {
   slots: number[];
   tf: number[];
+  /** BM25 weights (without idf) as of `at`, the norms' version; recomputed when the library changed. */
+  weights?: Float64Array;
+  at?: number;
 }
 interface Source {
   postings: Postings;
@@ -100,6 +103,7 @@ export class SearchIndex {
   /** BM25 length normalisation per slot and field, recomputed after the library changes. */
   private norm = new Float64Array(0);
   private normStale = true;
+  private normVersion = 0;
   // Families and tags as small integers per slot, so counting facets over thousands of matches is cheap.
   private facetNames: string[] = [];
   private facetIdOf = new Map<string, number>();
@@ -149,7 +153,7 @@ export class SearchIndex {
     for (const term of this.docTerms[slot] ?? []) {
       const postings = this.terms.get(term);
       if (!postings) continue;
-      const at = postings.slots.indexOf(slot);
+      const at = sortedIndexOf(postings.slots, slot);
       if (at >= 0) {
         postings.slots.splice(at, 1);
         postings.tf.splice(at, 1);
@@ -215,6 +219,28 @@ export class SearchIndex {
     for (let i = 0; i < this.docs.length * NF; i++)
       this.norm[i] = K1 * (1 - B + (B * this.fieldLength[i]!) / avg[i % NF]!);
     this.normStale = false;
+    this.normVersion++;
+  }
+
+  /** A term's per-document BM25 weights against the current norms, cached until the library changes. */
+  private weightsOf(p: Postings): Float64Array {
+    if (p.weights && p.at === this.normVersion) return p.weights;
+    const { slots, tf } = p;
+    const weights = (p.weights = new Float64Array(slots.length));
+    for (let j = 0; j < slots.length; j++) {
+      let w = 0;
+      for (
+        let f = 0, packed = tf[j]!, base = slots[j]! * NF;
+        f < NF;
+        f++, packed = Math.floor(packed / 256)
+      ) {
+        const c = packed % 256;
+        if (c) w += (BOOST[f]! * c * (K1 + 1)) / (c + this.norm[base + f]!);
+      }
+      weights[j] = w;
+    }
+    p.at = this.normVersion;
+    return weights;
   }
 
   private idf(df: number) {
@@ -324,22 +350,17 @@ export class SearchIndex {
   private score(terms: QueryTerm[]): { slots: number[]; scores: number[]; masks: number[] } {
     this.ensureScratch();
     this.ensureNorms();
-    const { acc, mask, exact, best, bestExact, stampOf, norm } = this;
+    const { acc, mask, exact, best, bestExact, stampOf } = this;
     const touched: number[] = [];
     terms.forEach((term, bit) => {
       const stamp = ++this.stamp;
       const reached: number[] = [];
       for (const source of term.sources) {
-        const { slots, tf } = source.postings;
+        const { slots } = source.postings;
+        const weights = this.weightsOf(source.postings);
         for (let j = 0; j < slots.length; j++) {
           const slot = slots[j]!;
-          const packed = tf[j]!;
-          let w = 0;
-          for (let f = 0, base = slot * NF; f < NF; f++) {
-            const c = (packed / 2 ** (8 * f)) & 255;
-            if (c) w += (BOOST[f]! * c * (K1 + 1)) / (c + norm[base + f]!);
-          }
-          const s = w * source.factor;
+          const s = weights[j]! * source.factor;
           if (stampOf[slot] !== stamp) {
             stampOf[slot] = stamp;
             best[slot] = s;
@@ -407,28 +428,38 @@ export class SearchIndex {
     }
     const found = this.score(terms);
     const all = 2 ** terms.length - 1;
-    const full = found.masks.map((m) => m >>> 0 === all);
-    const anyFull = full.some(Boolean);
-    const group: number[] = [];
-    found.slots.forEach((_, i) => {
-      if (full[i] === anyFull) group.push(i);
-    });
+    const { slots, scores, masks } = found;
+    let anyFull = false;
+    for (let i = 0; i < masks.length && !anyFull; i++) anyFull = masks[i]! >>> 0 === all;
+    // Partial matches rank by how many words they match, then by score.
+    const key = anyFull ? scores : scores.map((s, i) => popcount(masks[i]!) * 1e4 + s);
+    // Best first; equal scores by procedure id, so the order never depends on the order of indexing.
+    const before = (i: number, j: number) => {
+      const d = key[i]! - key[j]!;
+      if (d) return d > 0;
+      return this.docs[slots[i]!]!.id < this.docs[slots[j]!]!.id;
+    };
 
     const seen = new Uint8Array(this.facetNames.length);
     const family = opts.family === undefined ? -1 : (this.facetIdOf.get(`f:${opts.family}`) ?? -2);
     const tag = opts.tag === undefined ? -1 : (this.facetIdOf.get(`t:${opts.tag}`) ?? -2);
-    const kept: Ranked[] = [];
-    for (const i of group) {
-      const slot = found.slots[i]!;
+    const k = page * pageSize;
+    const best: number[] = []; // indices into found, best first, at most k
+    let kept = 0;
+    for (let i = 0; i < slots.length; i++) {
+      if ((masks[i]! >>> 0 === all) !== anyFull) continue;
+      const slot = slots[i]!;
       const f = this.familyOf[slot]!;
       const ts = this.tagsOf[slot]!;
       seen[f] = 1;
       for (const t of ts) seen[t] = 1;
-      if ((family === -1 || f === family) && (tag === -1 || ts.includes(tag))) {
-        // Partial matches rank by how many words they match, then by score.
-        const key = anyFull ? found.scores[i]! : popcount(found.masks[i]!) * 1e4 + found.scores[i]!;
-        kept.push({ slot, key, score: found.scores[i]!, mask: found.masks[i]!, id: this.docs[slot]!.id });
-      }
+      if ((family !== -1 && f !== family) || (tag !== -1 && !ts.includes(tag))) continue;
+      kept++;
+      if (best.length === k && !before(i, best[k - 1]!)) continue;
+      let at = best.length < k ? best.length : k - 1;
+      while (at > 0 && before(i, best[at - 1]!)) at--;
+      best.splice(at, 0, i);
+      if (best.length > k) best.pop();
     }
     seen.forEach((on, id) => {
       if (!on) return;
@@ -438,19 +469,19 @@ export class SearchIndex {
     out.facets.families.sort();
     out.facets.tags.sort();
     const words = new Set(terms.flatMap((t) => t.words));
-    const top = topK(kept, page * pageSize).slice((page - 1) * pageSize);
+    const top = best.slice((page - 1) * pageSize);
     if (anyFull) {
-      out.total = kept.length;
-      out.results = top.map((r) => this.hit(r.slot, r.score, words));
+      out.total = kept;
+      out.results = top.map((i) => this.hit(slots[i]!, scores[i]!, words));
     } else {
       out.suggestions = this.suggest(terms);
-      if (kept.length)
+      if (kept)
         out.partial = {
           label: PARTIAL_LABEL,
-          total: kept.length,
-          results: top.map((r) => ({
-            ...this.hit(r.slot, r.score, words),
-            missing: terms.filter((_, bit) => !(r.mask & (1 << bit))).map((t) => t.word),
+          total: kept,
+          results: top.map((i) => ({
+            ...this.hit(slots[i]!, scores[i]!, words),
+            missing: terms.filter((_, bit) => !(masks[i]! & (1 << bit))).map((t) => t.word),
           })),
         };
     }
@@ -501,39 +532,23 @@ export class SearchIndex {
   }
 }
 
-interface Ranked {
-  slot: number;
-  key: number;
-  score: number;
-  mask: number;
-  id: string;
+/** Slots are appended in increasing order, so each postings list is sorted. */
+function sortedIndexOf(xs: number[], x: number) {
+  let lo = 0;
+  let hi = xs.length - 1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid]! < x) lo = mid + 1;
+    else if (xs[mid]! > x) hi = mid - 1;
+    else return mid;
+  }
+  return -1;
 }
 
 function popcount(m: number) {
   let n = 0;
   for (let x = m >>> 0; x; x &= x - 1) n++;
   return n;
-}
-
-/** Best first; equal scores by procedure id, so the order never depends on the order of indexing. */
-const better = (a: Ranked, b: Ranked) => b.key - a.key || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
-
-/** The k best, best first, without sorting everything. */
-function topK(items: Ranked[], k: number): Ranked[] {
-  if (items.length <= k * 4) return items.sort(better).slice(0, k);
-  const best: Ranked[] = [];
-  for (const item of items) {
-    if (best.length < k) {
-      best.push(item);
-      if (best.length === k) best.sort(better);
-    } else if (better(item, best[k - 1]!) < 0) {
-      let i = k - 1;
-      while (i > 0 && better(item, best[i - 1]!) < 0) i--;
-      best.splice(i, 0, item);
-      best.pop();
-    }
-  }
-  return best.length < k ? best.sort(better) : best;
 }
 
 /** The line that holds most matched terms, cut to ~200 characters, with those words marked. */

@@ -181,9 +181,18 @@ const NUMBER = /^\d+(?:\.\d+)?$/;
 const QUANTITY_TERM = /^\d+(?:\.\d+)?(?:[pnumk]|meg)?(?:v|a|w|hz|f|ohm|va|h|pf|nf|uf)?$/;
 const LETTERS_THEN_DIGITS = /^(\p{L}+)(\d.*)$/u;
 
+// The library's words are few and repeat: each is stemmed once.
+const stems = new Map<string, string>();
 function plainWord(w: string, out: Token[]) {
-  if (!STOP_WORDS.has(w)) out.push({ term: stem(w), word: w });
+  if (STOP_WORDS.has(w)) return;
+  let term = stems.get(w);
+  if (term === undefined) {
+    if (stems.size >= 200_000) stems.clear();
+    stems.set(w, (term = stem(w)));
+  }
+  out.push({ term, word: w });
 }
+const LETTERS = /^\p{L}+$/u;
 
 /**
  * Splits text into terms. A code (letters and digits: "TC-30H", "5AR4", "1N4007", "EL 34" once
@@ -192,6 +201,10 @@ function plainWord(w: string, out: Token[]) {
 export function analyse(text: string): Token[] {
   const out: Token[] = [];
   for (const [w] of canonicalText(text).matchAll(WORD)) {
+    if (LETTERS.test(w)) {
+      plainWord(w, out);
+      continue;
+    }
     if (NUMBER.test(w) || QUANTITY_TERM.test(w)) {
       out.push({ term: w, word: w });
       continue;
