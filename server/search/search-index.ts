@@ -104,6 +104,8 @@ export class SearchIndex {
   private norm = new Float64Array(0);
   private normStale = true;
   private normVersion = 0;
+  /** Each slot's place in procedure-id order: equal scores rank by it, whatever the order of indexing. */
+  private idRank = new Int32Array(0);
   // Families and tags as small integers per slot, so counting facets over thousands of matches is cheap.
   private facetNames: string[] = [];
   private facetIdOf = new Map<string, number>();
@@ -220,6 +222,9 @@ export class SearchIndex {
       this.norm[i] = K1 * (1 - B + (B * this.fieldLength[i]!) / avg[i % NF]!);
     this.normStale = false;
     this.normVersion++;
+    const live = [...this.slotOf.entries()].sort((a, b) => (a[0] < b[0] ? -1 : 1));
+    this.idRank = new Int32Array(this.docs.length);
+    live.forEach(([, slot], rank) => (this.idRank[slot] = rank));
   }
 
   /** A term's per-document BM25 weights against the current norms, cached until the library changes. */
@@ -352,33 +357,37 @@ export class SearchIndex {
     this.ensureNorms();
     const { acc, mask, exact, best, bestExact, stampOf } = this;
     const touched: number[] = [];
-    terms.forEach((term, bit) => {
+    for (let bit = 0; bit < terms.length; bit++) {
       const stamp = ++this.stamp;
       const reached: number[] = [];
-      for (const source of term.sources) {
+      for (const source of terms[bit]!.sources) {
         const { slots } = source.postings;
         const weights = this.weightsOf(source.postings);
+        const { factor } = source;
+        const isExact = source.exact ? 1 : 0;
         for (let j = 0; j < slots.length; j++) {
           const slot = slots[j]!;
-          const s = weights[j]! * source.factor;
+          const s = weights[j]! * factor;
           if (stampOf[slot] !== stamp) {
             stampOf[slot] = stamp;
             best[slot] = s;
-            bestExact[slot] = source.exact ? 1 : 0;
+            bestExact[slot] = isExact;
             reached.push(slot);
           } else {
             if (s > best[slot]!) best[slot] = s;
-            if (source.exact) bestExact[slot] = 1;
+            bestExact[slot]! |= isExact;
           }
         }
       }
-      for (const slot of reached) {
+      const bitValue = 2 ** bit;
+      for (let r = 0; r < reached.length; r++) {
+        const slot = reached[r]!;
         if (mask[slot] === 0) touched.push(slot);
-        mask[slot]! |= 1 << bit;
+        mask[slot]! += bitValue;
         acc[slot]! += best[slot]!;
         exact[slot]! |= bestExact[slot]!;
       }
-    });
+    }
     const out = { slots: [] as number[], scores: [] as number[], masks: [] as number[] };
     for (const slot of touched) {
       if (exact[slot]) {
@@ -434,10 +443,10 @@ export class SearchIndex {
     // Partial matches rank by how many words they match, then by score.
     const key = anyFull ? scores : scores.map((s, i) => popcount(masks[i]!) * 1e4 + s);
     // Best first; equal scores by procedure id, so the order never depends on the order of indexing.
+    const { idRank } = this;
     const before = (i: number, j: number) => {
       const d = key[i]! - key[j]!;
-      if (d) return d > 0;
-      return this.docs[slots[i]!]!.id < this.docs[slots[j]!]!.id;
+      return d ? d > 0 : idRank[slots[i]!]! < idRank[slots[j]!]!;
     };
 
     const seen = new Uint8Array(this.facetNames.length);

@@ -62,7 +62,7 @@ describe('model and part codes have one normal form', () => {
   });
 
   it('reads resistor and capacitor values written in the RKM code of IEC 60062', () => {
-    // IEC 60062:2016 §4: the letter stands for the decimal point and the multiplier: 2K2 = 2.2 kΩ, 4R7 = 4.7 Ω, 4n7 = 4.7 nF.
+    // IEC 60062 RKM code (docs/references.md §4): the letter is the decimal point and the multiplier, 4R7 = 4.7 Ω.
     expect(tokenize('2k2')).toEqual(tokenize('2.2 kΩ'));
     expect(tokenize('4R7')).toEqual(tokenize('4.7 Ω'));
     expect(tokenize('4n7')).toEqual(tokenize('4.7 nF'));
