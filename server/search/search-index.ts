@@ -323,9 +323,12 @@ export class SearchIndex {
     const { term } = q;
     const found = new Map<string, [string, Postings, number]>();
     const budget = typoBudget(q.word);
-    if (budget)
-      for (const [word, [postings, d]] of this.terms.fuzzyGet(term, budget))
-        if (d > 0 && word[0] === term[0] && !hasDigit(word)) found.set(word, [word, postings, d]);
+    if (budget) {
+      // Only words with the same first letter: search that branch of the vocabulary tree.
+      const first = term[0]!;
+      for (const [rest, [postings, d]] of this.terms.atPrefix(first).fuzzyGet(term.slice(1), budget))
+        if (d > 0 && !hasDigit(rest)) found.set(first + rest, [first + rest, postings, d]);
+    }
     for (let i = 0; i + 1 < term.length; i++) {
       const swapped = term.slice(0, i) + term[i + 1] + term[i] + term.slice(i + 2);
       const postings = swapped !== term ? this.terms.get(swapped) : undefined;
@@ -349,10 +352,11 @@ export class SearchIndex {
 
   /**
    * Scores every document any query term reaches. Within a term the best-matching spelling counts;
-   * across terms the scores add up. Returns each document reached with at least one term matched
-   * exactly (or by synonym, unit or prefix), with the mask of the terms it matched.
+   * across terms the scores add up. Returns the slots reached; their scores, masks of the terms
+   * matched and whether any term matched exactly (or by synonym, unit or prefix) stay in the scratch
+   * arrays until clearScratch.
    */
-  private score(terms: QueryTerm[]): { slots: number[]; scores: number[]; masks: number[] } {
+  private score(terms: QueryTerm[]): number[] {
     this.ensureScratch();
     this.ensureNorms();
     const { acc, mask, exact, best, bestExact, stampOf } = this;
@@ -388,22 +392,19 @@ export class SearchIndex {
         exact[slot]! |= bestExact[slot]!;
       }
     }
-    const out = { slots: [] as number[], scores: [] as number[], masks: [] as number[] };
-    for (const slot of touched) {
-      if (exact[slot]) {
-        out.slots.push(slot);
-        out.scores.push(acc[slot]!);
-        out.masks.push(mask[slot]!);
-      }
-      acc[slot] = 0;
-      mask[slot] = 0;
-      exact[slot] = 0;
-    }
     if (this.stamp > 4e9) {
       stampOf.fill(0);
       this.stamp = 0;
     }
-    return out;
+    return touched;
+  }
+
+  private clearScratch(touched: number[]) {
+    for (const slot of touched) {
+      this.acc[slot] = 0;
+      this.mask[slot] = 0;
+      this.exact[slot] = 0;
+    }
   }
 
   search(
@@ -435,41 +436,48 @@ export class SearchIndex {
       terms = corrections.map((c) => this.resolve({ term: c!, word: this.surface.get(c!) ?? c! }, false));
       out.correctedQuery = terms.map((t) => t.word).join(' ');
     }
-    const found = this.score(terms);
+    // The scratch arrays hold each touched procedure's score, matched-term mask and exact flag.
+    const touched = this.score(terms);
+    const { acc, mask, exact, idRank } = this;
     const all = 2 ** terms.length - 1;
-    const { slots, scores, masks } = found;
     let anyFull = false;
-    for (let i = 0; i < masks.length && !anyFull; i++) anyFull = masks[i]! >>> 0 === all;
+    for (let i = 0; i < touched.length && !anyFull; i++)
+      anyFull = exact[touched[i]!] === 1 && mask[touched[i]!] === all;
     // Partial matches rank by how many words they match, then by score.
-    const key = anyFull ? scores : scores.map((s, i) => popcount(masks[i]!) * 1e4 + s);
+    const key = anyFull
+      ? (slot: number) => acc[slot]!
+      : (slot: number) => popcount(mask[slot]!) * 1e4 + acc[slot]!;
     // Best first; equal scores by procedure id, so the order never depends on the order of indexing.
-    const { idRank } = this;
-    const before = (i: number, j: number) => {
-      const d = key[i]! - key[j]!;
-      return d ? d > 0 : idRank[slots[i]!]! < idRank[slots[j]!]!;
+    const before = (a: number, b: number) => {
+      const d = key(a) - key(b);
+      return d ? d > 0 : idRank[a]! < idRank[b]!;
     };
 
     const seen = new Uint8Array(this.facetNames.length);
     const family = opts.family === undefined ? -1 : (this.facetIdOf.get(`f:${opts.family}`) ?? -2);
     const tag = opts.tag === undefined ? -1 : (this.facetIdOf.get(`t:${opts.tag}`) ?? -2);
     const k = page * pageSize;
-    const best: number[] = []; // indices into found, best first, at most k
+    const best: number[] = []; // slots, best first, at most k
     let kept = 0;
-    for (let i = 0; i < slots.length; i++) {
-      if ((masks[i]! >>> 0 === all) !== anyFull) continue;
-      const slot = slots[i]!;
+    for (let i = 0; i < touched.length; i++) {
+      const slot = touched[i]!;
+      if (!exact[slot] || (mask[slot] === all) !== anyFull) continue;
       const f = this.familyOf[slot]!;
       const ts = this.tagsOf[slot]!;
       seen[f] = 1;
       for (const t of ts) seen[t] = 1;
       if ((family !== -1 && f !== family) || (tag !== -1 && !ts.includes(tag))) continue;
       kept++;
-      if (best.length === k && !before(i, best[k - 1]!)) continue;
+      if (best.length === k && !before(slot, best[k - 1]!)) continue;
       let at = best.length < k ? best.length : k - 1;
-      while (at > 0 && before(i, best[at - 1]!)) at--;
-      best.splice(at, 0, i);
+      while (at > 0 && before(slot, best[at - 1]!)) at--;
+      best.splice(at, 0, slot);
       if (best.length > k) best.pop();
     }
+    const top = best
+      .slice((page - 1) * pageSize)
+      .map((slot) => ({ slot, score: acc[slot]!, mask: mask[slot]! }));
+    this.clearScratch(touched);
     seen.forEach((on, id) => {
       if (!on) return;
       const name = this.facetNames[id]!;
@@ -478,19 +486,18 @@ export class SearchIndex {
     out.facets.families.sort();
     out.facets.tags.sort();
     const words = new Set(terms.flatMap((t) => t.words));
-    const top = best.slice((page - 1) * pageSize);
     if (anyFull) {
       out.total = kept;
-      out.results = top.map((i) => this.hit(slots[i]!, scores[i]!, words));
+      out.results = top.map((r) => this.hit(r.slot, r.score, words));
     } else {
       out.suggestions = this.suggest(terms);
       if (kept)
         out.partial = {
           label: PARTIAL_LABEL,
           total: kept,
-          results: top.map((i) => ({
-            ...this.hit(slots[i]!, scores[i]!, words),
-            missing: terms.filter((_, bit) => !(masks[i]! & (1 << bit))).map((t) => t.word),
+          results: top.map((r) => ({
+            ...this.hit(r.slot, r.score, words),
+            missing: terms.filter((_, bit) => !(r.mask & (2 ** bit))).map((t) => t.word),
           })),
         };
     }
