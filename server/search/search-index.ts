@@ -118,6 +118,8 @@ export class SearchIndex {
   private best = new Float64Array(0);
   private bestExact = new Uint8Array(0);
   private stampOf = new Uint32Array(0);
+  private reached = new Int32Array(0);
+  private touched = new Int32Array(0);
   private stamp = 0;
 
   get size() {
@@ -347,23 +349,25 @@ export class SearchIndex {
     this.best = new Float64Array(size);
     this.bestExact = new Uint8Array(size);
     this.stampOf = new Uint32Array(size);
+    this.reached = new Int32Array(size);
+    this.touched = new Int32Array(size);
     this.stamp = 0;
   }
 
   /**
    * Scores every document any query term reaches. Within a term the best-matching spelling counts;
-   * across terms the scores add up. Returns the slots reached; their scores, masks of the terms
+   * across terms the scores add up. Returns how many slots it reached (listed in `touched`); their scores, masks of the terms
    * matched and whether any term matched exactly (or by synonym, unit or prefix) stay in the scratch
    * arrays until clearScratch.
    */
-  private score(terms: QueryTerm[]): number[] {
+  private score(terms: QueryTerm[]): number {
     this.ensureScratch();
     this.ensureNorms();
-    const { acc, mask, exact, best, bestExact, stampOf } = this;
-    const touched: number[] = [];
+    const { acc, mask, exact, best, bestExact, stampOf, reached, touched } = this;
+    let nTouched = 0;
     for (let bit = 0; bit < terms.length; bit++) {
       const stamp = ++this.stamp;
-      const reached: number[] = [];
+      let nReached = 0;
       for (const source of terms[bit]!.sources) {
         const { slots } = source.postings;
         const weights = this.weightsOf(source.postings);
@@ -376,7 +380,7 @@ export class SearchIndex {
             stampOf[slot] = stamp;
             best[slot] = s;
             bestExact[slot] = isExact;
-            reached.push(slot);
+            reached[nReached++] = slot;
           } else {
             if (s > best[slot]!) best[slot] = s;
             bestExact[slot]! |= isExact;
@@ -384,9 +388,9 @@ export class SearchIndex {
         }
       }
       const bitValue = 2 ** bit;
-      for (let r = 0; r < reached.length; r++) {
+      for (let r = 0; r < nReached; r++) {
         const slot = reached[r]!;
-        if (mask[slot] === 0) touched.push(slot);
+        if (mask[slot] === 0) touched[nTouched++] = slot;
         mask[slot]! += bitValue;
         acc[slot]! += best[slot]!;
         exact[slot]! |= bestExact[slot]!;
@@ -396,11 +400,12 @@ export class SearchIndex {
       stampOf.fill(0);
       this.stamp = 0;
     }
-    return touched;
+    return nTouched;
   }
 
-  private clearScratch(touched: number[]) {
-    for (const slot of touched) {
+  private clearScratch(nTouched: number) {
+    for (let i = 0; i < nTouched; i++) {
+      const slot = this.touched[i]!;
       this.acc[slot] = 0;
       this.mask[slot] = 0;
       this.exact[slot] = 0;
@@ -437,11 +442,11 @@ export class SearchIndex {
       out.correctedQuery = terms.map((t) => t.word).join(' ');
     }
     // The scratch arrays hold each touched procedure's score, matched-term mask and exact flag.
-    const touched = this.score(terms);
-    const { acc, mask, exact, idRank } = this;
+    const nTouched = this.score(terms);
+    const { acc, mask, exact, idRank, touched } = this;
     const all = 2 ** terms.length - 1;
     let anyFull = false;
-    for (let i = 0; i < touched.length && !anyFull; i++)
+    for (let i = 0; i < nTouched && !anyFull; i++)
       anyFull = exact[touched[i]!] === 1 && mask[touched[i]!] === all;
     // Partial matches rank by how many words they match, then by score.
     const key = anyFull
@@ -459,7 +464,7 @@ export class SearchIndex {
     const k = page * pageSize;
     const best: number[] = []; // slots, best first, at most k
     let kept = 0;
-    for (let i = 0; i < touched.length; i++) {
+    for (let i = 0; i < nTouched; i++) {
       const slot = touched[i]!;
       if (!exact[slot] || (mask[slot] === all) !== anyFull) continue;
       const f = this.familyOf[slot]!;
@@ -477,7 +482,7 @@ export class SearchIndex {
     const top = best
       .slice((page - 1) * pageSize)
       .map((slot) => ({ slot, score: acc[slot]!, mask: mask[slot]! }));
-    this.clearScratch(touched);
+    this.clearScratch(nTouched);
     seen.forEach((on, id) => {
       if (!on) return;
       const name = this.facetNames[id]!;

@@ -7,7 +7,7 @@
  * Goals on this machine: in-process p95 under 2 ms, index build under 3 s.
  */
 import pg from 'pg';
-import { projectRoot } from '../../server/bootstrap/prepare';
+import { projectRoot, TEST_SLOT } from '../../server/bootstrap/prepare';
 import { recreateDatabase, startCluster, stopCluster } from '../../server/bootstrap/postgres';
 import { SearchIndex } from '../../server/search/search-index';
 import { canonicalText } from '../../server/search/vocabulary';
@@ -101,7 +101,8 @@ for (let round = 0; round < ROUNDS; round++) {
 }
 
 // ── PostgreSQL full-text search on the same corpus ─────────────────────────
-const cluster = startCluster({ name: 'bench', port: 54499, projectRoot });
+// Inside this test slot's range of ports (BW_TEST_SLOT), so it never meets another slot's test cluster.
+const cluster = startCluster({ name: 'bench', port: 54354 + 20 * TEST_SLOT, projectRoot });
 await recreateDatabase(cluster.adminUrl, 'benchwright_bench');
 const client = new pg.Client({ connectionString: cluster.urlFor('benchwright_bench') });
 await client.connect();
