@@ -2,8 +2,9 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
+import { env } from './server/config/env.ts';
 
-const apiPort = Number(process.env.PORT ?? 5480);
+const apiPort = env.PORT;
 
 const projectRoot = fileURLToPath(new URL('.', import.meta.url));
 
@@ -32,8 +33,9 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'unit',
-          // src/ tests run headless: no browser, no DOM (the editor's TipTap runs without one).
-          include: ['tests/shared/**/*.test.ts', 'tests/src/**/*.test.ts'],
+          // src/ tests run headless: no browser, no DOM (the editor's TipTap runs without one); a
+          // *.unit.test.ts file anywhere needs no database.
+          include: ['tests/shared/**/*.test.ts', 'tests/src/**/*.test.ts', 'tests/**/*.unit.test.ts'],
           environment: 'node',
         },
       },
@@ -42,6 +44,7 @@ export default defineConfig({
         test: {
           name: 'api',
           include: ['tests/server/**/*.test.ts'],
+          exclude: ['tests/**/*.unit.test.ts'],
           environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'],
           testTimeout: 30_000,

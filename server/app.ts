@@ -19,9 +19,16 @@ const PERMISSIONS_POLICY =
   'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
 
 /** Builds the Express app (API + built client) without listening, so tests can drive it directly. */
-export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 'files'>>) {
-  const deps: AppDeps = { ...given, files: given.files ?? fileStore(given.config.uploadDir) };
-  const { config, pool, db, logger } = deps;
+export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<AppDeps, 'files'>>) {
+  const { config, pool, db, logger } = given;
+  const passport = createPassport(db);
+  const sessions = createSessionMiddleware(pool, config);
+  const csrf = createCsrf(config);
+  const deps: AppDeps = {
+    ...given,
+    files: given.files ?? fileStore(config.uploadDir),
+    auth: { passport, sessions, csrf },
+  };
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy);
@@ -57,15 +64,6 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
   });
   app.use(requestLog(logger, { skip: (url) => url === '/api/health' }));
 
-  const passport = createPassport(db);
-  const sessions = createSessionMiddleware(pool, config);
-  app.locals.passport = passport;
-  app.locals.sessionStore = sessions.store;
-  const csrf = createCsrf(config);
-  app.locals.csrf = csrf;
-  app.locals.forgetSessionsOf = sessions.forgetSessionsOf;
-  app.locals.sessionCookieName = config.publicUrl.startsWith('https:') ? '__Host-bw.sid' : 'bw.sid';
-
   const api = express.Router();
   // API answers carry people's names, runs and sessions: never kept by a browser or a proxy cache.
   api.use((_req, res, next) => {
@@ -82,7 +80,6 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
   mountRoutes(api, routeTable, deps);
   api.use((req, _res, next) => next(new HttpError(404, `No API route ${req.method} ${req.path}`)));
   app.use('/api', api);
-  app.locals.apiRouter = api;
 
   if (config.clientDir && existsSync(config.clientDir)) {
     const index = path.join(config.clientDir, 'index.html');
@@ -94,5 +91,6 @@ export function createApp(given: Omit<AppDeps, 'files'> & Partial<Pick<AppDeps, 
   }
 
   app.use(errorHandler);
-  return app;
+  // The app's dependencies (its owner closes deps.auth.sessions.store) and its API router, typed.
+  return Object.assign(app, { deps, apiRouter: api });
 }

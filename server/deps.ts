@@ -2,6 +2,9 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type pg from 'pg';
 import type { Logger } from 'pino';
+import type { createCsrf } from './auth/csrf';
+import type { createPassport } from './auth/passport';
+import type { createSessionMiddleware } from './auth/session';
 import type { Db } from './db/client';
 import type { MailSender, SmtpSettings } from './mail/sender';
 import type { SearchService } from './search/search-service';
@@ -33,6 +36,13 @@ export interface AppConfig {
   auditCheckIntervalMs?: number;
 }
 
+/** The sign-in machinery createApp builds for its app: one passport, session store and CSRF guard. */
+export interface AuthRuntime {
+  passport: ReturnType<typeof createPassport>;
+  sessions: ReturnType<typeof createSessionMiddleware>;
+  csrf: ReturnType<typeof createCsrf>;
+}
+
 /** Everything a route handler may reach; built once per app. */
 export interface AppDeps {
   db: Db;
@@ -45,6 +55,7 @@ export interface AppDeps {
   search?: SearchService;
   /** Uploaded bytes, kept under their SHA-256 (by default in config.uploadDir). */
   files: FileStore;
+  auth: AuthRuntime;
 }
 
 export const defaultConfig = (

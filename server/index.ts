@@ -67,7 +67,7 @@ export async function startServer(opts: {
         });
         server.closeIdleConnections();
       });
-      (app.locals.sessionStore as { close(): void }).close();
+      app.deps.auth.sessions.store.close();
       // Each step is bounded: a connection left broken by a database restart must not hold up exit.
       await settleWithin(3_000, mailer?.stop(), 'mail sender', logger);
       await settleWithin(3_000, search.stop(), 'search listener', logger);

@@ -1,7 +1,8 @@
 import pino from 'pino';
+import { env } from './config/env';
 
 /** Structured logs; credentials, cookies and tokens are never written. `destination` defaults to stdout, written asynchronously. */
-export function createLogger(level = process.env.LOG_LEVEL ?? 'info', destination?: pino.DestinationStream) {
+export function createLogger(level: string = env.LOG_LEVEL, destination?: pino.DestinationStream) {
   const options: pino.LoggerOptions = {
     level,
     redact: {

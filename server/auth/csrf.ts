@@ -60,7 +60,3 @@ export function createCsrf(config: AppConfig) {
 
   return { protection, token };
 }
-
-/** The CSRF token for this caller (see createCsrf); `overwrite` gives a signed-in session a new one. */
-export const csrfToken = (req: Request, res: Response, overwrite = false): string =>
-  (req.app.locals.csrf as ReturnType<typeof createCsrf>).token(req, res, overwrite);

@@ -34,8 +34,9 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
   // Renewal re-saves the session with its new expiry; a separate touch would only repeat that.
   store.touch = (_sid, _sess, callback) => callback?.();
   const secure = config.publicUrl.startsWith('https:');
+  const cookieName = secure ? '__Host-bw.sid' : 'bw.sid';
   const middleware = session({
-    name: secure ? '__Host-bw.sid' : 'bw.sid',
+    name: cookieName,
     secret: config.sessionSecret,
     store,
     resave: false,
@@ -59,7 +60,7 @@ export function createSessionMiddleware(pool: pg.Pool, config: AppConfig) {
   const renew = renewIdleLimit(Math.min(60_000, config.sessionIdleMs / 10));
   const withRenewal: RequestHandler = (req, res, next) =>
     guarded(req, res, (err?: unknown) => (err ? next(err) : renew(req, res, next)));
-  return { middleware: withRenewal, store, forgetSessionsOf: cache.forgetSessionsOf };
+  return { middleware: withRenewal, store, cookieName, forgetSessionsOf: cache.forgetSessionsOf };
 }
 
 /**

@@ -3,6 +3,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { env } from '../config/env';
 import { createDb, createPool } from '../db/client';
 import { applyMigrations } from '../db/migrate';
 import { seedDemoContent } from '../db/seed';
@@ -16,10 +17,10 @@ export const dataDir = path.join(projectRoot, '.data');
  * BW_TEST_SLOT=n gives a parallel test run clusters of its own (54339+20n, and 54349+20n for
  * the restart test) and a client build of its own, so two people can run the tests in one checkout at once.
  */
-export const TEST_SLOT = Number(process.env.BW_TEST_SLOT ?? 0);
+export const TEST_SLOT = env.BW_TEST_SLOT;
 export const PORTS = {
-  app: 5480,
-  mainDb: Number(process.env.BW_DB_PORT ?? 54329),
+  app: env.PORT,
+  mainDb: env.BW_DB_PORT,
   testDb: 54339 + TEST_SLOT * 20,
   healthDb: 54349 + TEST_SLOT * 20,
   restoreDb: 54350 + TEST_SLOT * 20,
@@ -65,15 +66,4 @@ export async function prepareDatabase(
 export function startMainCluster() {
   say(`starting PostgreSQL on 127.0.0.1:${PORTS.mainDb}`);
   return startCluster({ name: 'main', port: PORTS.mainDb, projectRoot });
-}
-
-/** A TCP port from the environment, or the default; anything else stops start-up with the reason. */
-export function portFrom(raw: string | undefined, fallback: number): number {
-  if (raw === undefined || raw.trim() === '') return fallback;
-  const port = Number(raw);
-  if (!Number.isInteger(port) || port < 1 || port > 65535) {
-    console.error(`[benchwright] PORT=${JSON.stringify(raw)} is not a port number (1–65535).`);
-    process.exit(2);
-  }
-  return port;
 }

@@ -2,12 +2,12 @@
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { build } from 'vite';
+import { env } from '../config/env';
 import { readDemoPeople } from '../db/seed';
 import { startServer } from '../index';
 import { acquireStartLock } from './lock';
 import {
   dataDir,
-  portFrom,
   PORTS,
   prepareDatabase,
   projectRoot,
@@ -18,7 +18,7 @@ import {
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
 
-const port = portFrom(process.env.PORT, PORTS.app);
+const port = PORTS.app;
 const host = '127.0.0.1';
 const url = `http://${host}:${port}`;
 
@@ -32,18 +32,9 @@ say('building the client…');
 await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
 
 // Mail: the shop's relay when SMTP_HOST is set, otherwise a local catcher that keeps every message.
-const relay = process.env.SMTP_HOST
-  ? { host: process.env.SMTP_HOST, port: Number(process.env.SMTP_PORT ?? 25) }
-  : null;
+const relay = env.SMTP_HOST ? { host: env.SMTP_HOST, port: env.SMTP_PORT } : null;
 const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
 const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
-
-// AUDIT_CHECK_MINUTES: how often the audit chain is re-checked (default hourly; 0: at start only).
-const auditCheckMinutes = Number(process.env.AUDIT_CHECK_MINUTES ?? 60);
-if (!Number.isFinite(auditCheckMinutes) || auditCheckMinutes < 0)
-  throw new Error(
-    `AUDIT_CHECK_MINUTES must be a number of minutes, not "${process.env.AUDIT_CHECK_MINUTES}"`,
-  );
 
 const running = await startServer({
   databaseUrl,
@@ -51,15 +42,12 @@ const running = await startServer({
   port,
   config: {
     sessionSecret: readOrCreateSecret('session'),
-    auditCheckIntervalMs: auditCheckMinutes * 60_000,
+    auditCheckIntervalMs: env.AUDIT_CHECK_MINUTES * 60_000,
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
     // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.
-    allowedHosts: (process.env.BW_ALLOWED_HOSTS ?? '')
-      .split(',')
-      .map((h) => h.trim())
-      .filter(Boolean),
-    smtp: { ...smtp, from: process.env.SMTP_FROM ?? 'Benchwright <benchwright@tallowcreek.example>' },
+    allowedHosts: env.BW_ALLOWED_HOSTS,
+    smtp: { ...smtp, from: env.SMTP_FROM },
   },
 }).catch((err: NodeJS.ErrnoException) => {
   if (err.code === 'EADDRINUSE')

@@ -4,17 +4,16 @@ import path from 'node:path';
 import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { entryBody, startRunBody } from '../../shared/schemas/runs';
+import { unitBody } from '../../shared/schemas/units';
+import { HttpError } from '../http/errors';
 import type { SessionUser } from '../http/route';
 import { toSessionUser } from '../auth/passport';
-import { revisionContentHash } from '../modules/review/signed-content';
-import { runContentHash } from '../modules/runs/run-hash';
-import { isFinished } from '../modules/runs/run-steps';
-import { runContent, unitRecordOf } from '../modules/runs/run-view';
-import { recordEntry, startRun, type Tx } from '../modules/runs/runs.service';
+import { writeRunSignature } from '../modules/runs/run-sign';
+import { recordEntry, startRun } from '../modules/runs/runs.service';
+import { registerUnit } from '../modules/units/units.service';
 import { NO_FILES } from '../storage/files';
-import type { Db } from './client';
-import { recordAudit } from '../audit/record';
-import { people, procedures, revisions, runEntries, runs, runSignatures, units } from './schema';
+import type { Db, Tx } from './client';
+import { people, procedures, revisions, runEntries, runs, units } from './schema';
 
 const email = z.email();
 const instant = z.iso.datetime({ offset: true });
@@ -112,80 +111,26 @@ export async function seedDemoUnits(db: Db, dir: string) {
     const by = await personByEmail(db, u.registeredBy);
     if (!by) throw new Error(`demo unit ${u.model} ${u.serial}: no person ${u.registeredBy}`);
     const at = u.registeredAt ? new Date(u.registeredAt) : undefined;
-    const inserted = await db
-      .insert(units)
-      .values({
-        model: u.model,
-        serial: u.serial,
-        owner: u.owner,
-        jobNumber: u.jobNumber,
-        notes: u.notes,
-        createdBy: by.id,
-        ...(at ? { createdAt: at, updatedAt: at } : {}),
-      })
-      .onConflictDoNothing()
-      .returning({ id: units.id });
-    if (inserted.length) added++;
-    else present++;
+    const body = unitBody.parse({
+      model: u.model,
+      serial: u.serial,
+      owner: u.owner,
+      jobNumber: u.jobNumber,
+      notes: u.notes,
+    });
+    try {
+      await registerUnit(db, by.id, body, at);
+      added++;
+    } catch (err) {
+      // Registered meanwhile (model + serial is unique).
+      if (!(err instanceof HttpError && err.status === 409)) throw err;
+      present++;
+    }
   }
   return { added, present };
 }
 
 class SkipRun extends Error {}
-
-/**
- * Writes a technician's signature on a run sheet exactly as signRun does (same checks, same
- * canonical content hash, same rows and audit entry), without the password re-entry a seeder
- * cannot give and without the out-of-tolerance mail. The run sheet and its signature carry the
- * given time, so demo history can be dated in the past; the audit entry carries the database's
- * (drizzle/0015), the time it was really written.
- */
-export async function signDemoRun(tx: Tx, runId: string, signer: SessionUser, signedAt: Date) {
-  const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
-  if (!run || run.status === 'signed') throw new Error(`run ${runId} is already signed`);
-  const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
-  const byStep = new Map(entries.map((e) => [e.stepId, e]));
-  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
-  if (unfinished.length)
-    throw new Error(
-      `run ${runId}: ${unfinished.length} steps are not finished (${unfinished.map((s) => s.id).join(', ')})`,
-    );
-  const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-  if ((await revisionContentHash(tx, NO_FILES, revision!)) !== run.revisionHash)
-    throw new Error(`run ${runId}: its revision changed since the run started`);
-  const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
-  const unitRecord = unitRecordOf(unit!);
-  const contentHash = runContentHash(await runContent(tx, NO_FILES, run, unitRecord));
-  const outOfTolerance = entries.some((e) => e.within === false);
-  const meaning = 'performed' as const;
-  const [signature] = await tx
-    .insert(runSignatures)
-    .values({
-      runId,
-      signerId: signer.id,
-      signerName: signer.displayName,
-      signerRole: 'technician',
-      meaning,
-      reason: null,
-      contentHash,
-      revisionId: run.revisionId,
-      revisionHash: run.revisionHash,
-      requestId: 'demo-content',
-      signedAt,
-    })
-    .returning();
-  await tx
-    .update(runs)
-    .set({ status: 'signed', signedAt, contentHash, unitRecord, outOfTolerance })
-    .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
-  await recordAudit(tx, {
-    action: 'run.signed',
-    actorId: signer.id,
-    subject: `run ${runId}`,
-    details: { contentHash, revisionId: run.revisionId, meaning, outOfTolerance },
-  });
-  return { signature: signature!, outOfTolerance };
-}
 
 /**
  * One demo run, in one transaction: started on the procedure's approved revision at the bench's
@@ -219,9 +164,8 @@ async function seedOneRun(db: Db, r: SeedRun) {
     key: demoUuid(`run ${r.key}`),
   });
   await db.transaction(async (tx) => {
-    const asDb = tx as unknown as Db;
     // Demo revisions attach no files and demo runs take no photos.
-    const { run, created } = await startRun(asDb, NO_FILES, tech, body);
+    const { run, created } = await startRun(tx, NO_FILES, tech, body);
     if (!created) throw new SkipRun('already started');
     const last = r.through ? run.steps.findIndex((s) => s.id === r.through) : run.steps.length - 1;
     if (last < 0) throw new SkipRun(`revision ${revision.number} of ${r.procedure} has no step ${r.through}`);
@@ -249,7 +193,7 @@ async function seedOneRun(db: Db, r: SeedRun) {
         ...(step.kind === 'reading' ? { value: r.readings[step.id] } : { done: true }),
         ...(note ? { note } : {}),
       });
-      await recordEntry(asDb, tech, run.id, step.id, entry);
+      await recordEntry(tx, tech, run.id, step.id, entry);
       const at = new Date(startedAt.getTime() + Math.round((i + 1) * gap));
       await tx
         .update(runEntries)
@@ -257,7 +201,14 @@ async function seedOneRun(db: Db, r: SeedRun) {
         .where(and(eq(runEntries.runId, run.id), eq(runEntries.stepId, step.id)));
     }
     await tx.update(runs).set({ startedAt }).where(eq(runs.id, run.id));
-    if (r.signedAt) await signDemoRun(tx, run.id, tech, new Date(r.signedAt));
+    // Signed as the API signs (same checks, hash, rows and audit entry), dated in the past, without
+    // the password re-entry a seeder cannot give and without the out-of-tolerance mail.
+    if (r.signedAt)
+      await writeRunSignature(tx, NO_FILES, tech, run.id, {
+        meaning: 'performed',
+        requestId: 'demo-content',
+        signedAt: new Date(r.signedAt),
+      });
   });
   return true;
 }

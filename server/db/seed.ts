@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { ROLES } from '../../shared/schemas/roles';
 import { hashPassword } from '../auth/passwords';
 import type { Db } from './client';
+import { addPerson } from '../modules/people/people.service';
 import { people } from './schema';
 import { seedDemoProcedures } from './seed-procedures';
 import { seedDemoBench } from './seed-runs';
@@ -39,17 +40,13 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
   let added = 0;
   for (const p of demo) {
     if (existing.has(p.email)) continue;
-    const inserted = await db
-      .insert(people)
-      .values({
-        email: p.email,
-        displayName: p.displayName,
-        roles: p.roles,
-        passwordHash: await hashPassword(p.password),
-      })
-      .onConflictDoNothing({ target: people.email })
-      .returning({ id: people.id });
-    added += inserted.length;
+    const person = await addPerson(db, {
+      email: p.email,
+      displayName: p.displayName,
+      roles: p.roles,
+      passwordHash: await hashPassword(p.password),
+    });
+    if (person) added++;
   }
   log(`demo people: ${added} added, ${demo.length - added} already present`);
   const procs = await seedDemoProcedures(db, contentSeedDir);

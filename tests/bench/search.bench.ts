@@ -2,14 +2,17 @@
  * Search benchmark: a deterministic corpus of 10,000 generated procedures, indexed in process
  * (minisearch vocabulary tree + BM25 postings, trade vocabulary) and in PostgreSQL full-text search (tsvector + GIN), the
  * same fixed query set against both in one run. Prints figures; it is not a timed test.
+ * Then relevance on the same corpus in a shuffled order: top-1 / top-3 of the labelled queries that
+ * target planted procedures, and the share of negative queries that stay quiet (no full match).
  * Goals on this machine: in-process p95 under 2 ms, index build under 3 s.
  */
 import pg from 'pg';
-import { projectRoot } from '../../server/bootstrap/prepare';
+import { projectRoot, TEST_SLOT } from '../../server/bootstrap/prepare';
 import { recreateDatabase, startCluster, stopCluster } from '../../server/bootstrap/postgres';
 import { SearchIndex } from '../../server/search/search-index';
 import { canonicalText } from '../../server/search/vocabulary';
-import { generateCorpus, PLANTED } from '../support/search-corpus';
+import { generateCorpus, PLANTED, shuffled } from '../support/search-corpus';
+import { LABELLED_QUERIES, NEGATIVE_QUERIES } from '../server/search-queries';
 
 const CORPUS_SIZE = 10_000;
 const ROUNDS = 20;
@@ -54,6 +57,12 @@ const QUERIES = [
   'loaded B+ 410 V',
   'fuse 800 mA',
   'public address recap',
+  'TC18 fuse',
+  'tc 30h rail check',
+  '5AR4 rectifier',
+  'how do I check the heater winding on my AB-1234',
+  'speaker cone repair',
+  'phantom power 48V',
 ];
 
 const pct = (xs: number[], p: number) => {
@@ -63,7 +72,8 @@ const pct = (xs: number[], p: number) => {
 const mb = (bytes: number) => (bytes / 1024 / 1024).toFixed(1);
 const gc = () => (globalThis as { gc?: () => void }).gc?.();
 
-const corpus = [...generateCorpus(CORPUS_SIZE - PLANTED.length), ...PLANTED];
+const SEED = Number(process.env.BW_SEARCH_SEED ?? 20261203);
+const corpus = shuffled([...generateCorpus(CORPUS_SIZE - PLANTED.length), ...PLANTED], SEED);
 console.log(
   `Search benchmark — ${corpus.length} procedures, ${QUERIES.length} queries × ${ROUNDS} rounds, Node ${process.version}`,
 );
@@ -91,7 +101,8 @@ for (let round = 0; round < ROUNDS; round++) {
 }
 
 // ── PostgreSQL full-text search on the same corpus ─────────────────────────
-const cluster = startCluster({ name: 'bench', port: 54499, projectRoot });
+// Inside this test slot's range of ports (BW_TEST_SLOT), so it never meets another slot's test cluster.
+const cluster = startCluster({ name: 'bench', port: 54354 + 20 * TEST_SLOT, projectRoot });
 await recreateDatabase(cluster.adminUrl, 'benchwright_bench');
 const client = new pg.Client({ connectionString: cluster.urlFor('benchwright_bench') });
 await client.connect();
@@ -154,4 +165,22 @@ console.log(
 );
 console.log(
   '  (PostgreSQL times include the loopback round trip; typo-tolerant matching exists only in-process.)',
+);
+
+// ── relevance on the same corpus (demo procedures live in the database; the planted ones are here) ──
+const planted = LABELLED_QUERIES.flatMap((l) => ('id' in l.expect ? [{ q: l.q, id: l.expect.id }] : []));
+let top1 = 0;
+let top3 = 0;
+for (const { q, id } of planted) {
+  const ids = index.search(q, { pageSize: 3 }).results.map((r) => r.procedureId);
+  if (ids[0] === id) top1++;
+  if (ids.includes(id)) top3++;
+}
+const quiet = NEGATIVE_QUERIES.filter((q) => index.search(q).total === 0).length;
+console.log('');
+console.log(`  relevance over ${corpus.length} procedures (indexing order seed ${SEED}):`);
+console.log(`    top-1 ${top1}/${planted.length} (${((100 * top1) / planted.length).toFixed(0)} %)`);
+console.log(`    top-3 ${top3}/${planted.length} (${((100 * top3) / planted.length).toFixed(0)} %)`);
+console.log(
+  `    negatives quiet (no full match) ${quiet}/${NEGATIVE_QUERIES.length} (${((100 * quiet) / NEGATIVE_QUERIES.length).toFixed(0)} %)`,
 );

@@ -24,7 +24,26 @@ describe('search in Chromium', () => {
 
     await page.getByLabel('Search words').fill('zzqqxx');
     await page.getByRole('button', { name: 'Search' }).click();
-    await page.getByText('No approved procedure matches.').waitFor();
+    await page.getByText('No approved procedure matches all of your words.').waitFor();
+    expect(await page.getByRole('heading', { name: 'Matches some of your words' }).count()).toBe(0);
+
+    // Something the library does not cover: said plainly, partial matches only under their own heading.
+    await page.getByLabel('Search words').fill('speaker cone repair');
+    await page.getByRole('button', { name: 'Search' }).click();
+    await page.getByText('No approved procedure matches all of your words.').waitFor();
+    await page.getByRole('heading', { name: 'Matches some of your words' }).waitFor();
+    expect(await page.getByRole('list', { name: 'Procedures matching all of your words' }).count()).toBe(0);
+    const partial = page.getByRole('list', { name: 'Matches some of your words' });
+    expect(await partial.getByRole('listitem').count()).toBeGreaterThan(0);
+    expect(await partial.getByRole('listitem').first().textContent()).toMatch(/Does not mention: .*cone/);
+
+    // A model code typed without its dash finds the procedure.
+    await page.getByLabel('Search words').fill('tc30h bleeder');
+    await page.getByRole('button', { name: 'Search' }).click();
+    await page
+      .getByRole('list', { name: 'Procedures matching all of your words' })
+      .getByRole('link', { name: /bleeder resistor retrofit/i })
+      .waitFor();
     expect(app.cspViolations).toEqual([]);
     await page.context().close();
   });

@@ -37,7 +37,7 @@ beforeAll(async () => {
   app = createApp({ db: createDb(pool), pool, logger: createLogger('info', sink), config });
 });
 afterAll(async () => {
-  (app.locals.sessionStore as { close(): void }).close();
+  app.deps.auth.sessions.store.close();
   await pool.end();
   await database.drop();
   rmSync(uploadDir, { recursive: true, force: true });

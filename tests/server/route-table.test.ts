@@ -1,4 +1,3 @@
-import type { Router } from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES } from '../../shared/schemas/roles';
 import { routeTable } from '../../server/routes';
@@ -31,7 +30,7 @@ describe('the route table', () => {
   });
 
   it('every route mounted on the API router is in the table, and nothing else is', () => {
-    const router = t.app.locals.apiRouter as Router;
+    const router = t.app.apiRouter;
     const mounted = router.stack
       .filter((layer) => layer.route)
       .flatMap((layer) =>

@@ -401,8 +401,8 @@ describe('nothing lost', () => {
     expect(acked.status).toBe(200);
     // The process goes away: its session store and database pool are closed.
     const url = (first.pool as unknown as { options: { connectionString: string } }).options.connectionString;
-    const config = first.app.locals.config ?? defaultConfigOf();
-    (first.app.locals.sessionStore as { close(): void }).close();
+    const config = defaultConfigOf();
+    first.app.deps.auth.sessions.store.close();
     await first.pool.end();
     Object.assign(first.pool, { end: async () => undefined });
     // A new server process: new pool, new app, same database.
@@ -434,7 +434,7 @@ describe('nothing lost', () => {
         .send({ key: randomUUID(), value: '6.3 V' });
       expect(next.status).toBe(200);
     } finally {
-      (app2.locals.sessionStore as { close(): void }).close();
+      app2.deps.auth.sessions.store.close();
       await pool2.end();
       await first.close();
     }

@@ -55,6 +55,8 @@ async function search(q: string, extra = '') {
   return res.body as {
     total: number;
     results: { procedureId: string; title: string; snippet: { text: string; hit: boolean }[] }[];
+    partial: { label: string; total: number; results: { procedureId: string; missing: string[] }[] } | null;
+    correctedQuery: string | null;
     suggestions: string[];
     facets: { families: string[] };
   };
@@ -118,10 +120,43 @@ describe('search over approved procedures', () => {
     }
   });
 
-  it('a typo of one letter still finds it; nothing found suggests a spelling', async () => {
+  it('a model code typed any way finds the same procedures; a question’s filler words are dropped', async () => {
+    const [tc18] = await t.db.select().from(procedures).where(eq(procedures.seedKey, 'tc18-first-power-up'));
+    const asWritten = (await search('TC-18 series lamp')).results.map((r) => r.procedureId);
+    expect(asWritten[0]).toBe(tc18!.id);
+    for (const q of [
+      'TC18 series lamp',
+      'tc 18 series lamp',
+      'tc.18 series lamp',
+      'where is the series lamp on my TC18',
+    ])
+      expect(
+        (await search(q)).results.map((r) => r.procedureId),
+        q,
+      ).toEqual(asWritten);
+  });
+
+  it('a query the library does not cover: no full match, and the partial matches come as a separate labelled group', async () => {
+    for (const q of ['speaker cone repair', 'guitar pickup rewind', 'phantom power 48V']) {
+      const res = await search(q);
+      expect(res.total, q).toBe(0);
+      expect(res.results, q).toEqual([]);
+    }
+    const res = await search('speaker cone repair');
+    expect(res.partial?.label).toBe('Matches some of your words');
+    expect(res.partial!.total).toBeGreaterThan(0);
+    expect(res.partial!.results.every((r) => r.missing.includes('cone'))).toBe(true);
+    // A full match carries no partial group beside it.
+    expect((await search('bleeder retrofit')).partial).toBeNull();
+  });
+
+  it('a typo of one letter still finds it (saying what it searched for); nothing found suggests a spelling', async () => {
     const { procedureId, revisionId } = await draftWith(['Fit a new thermistor in series with the primary.']);
     await approve(revisionId);
-    expect((await search('thermostor')).results.map((r) => r.procedureId)).toContain(procedureId);
+    const typo = await search('thermostor');
+    expect(typo.results.map((r) => r.procedureId)).toContain(procedureId);
+    expect(typo.correctedQuery).toBe('thermistor');
+    expect((await search('thermostor primary')).results.map((r) => r.procedureId)).toContain(procedureId);
     const none = await search('qqqzzzx');
     expect(none.total).toBe(0);
     const weird = await search('thermistxr wibble');

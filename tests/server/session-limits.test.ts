@@ -72,7 +72,7 @@ describe('session limits', () => {
     )
       .slice(2)
       .split('.')[0]!;
-    const store = t.app.locals.sessionStore as import('express-session').Store;
+    const store = t.app.deps.auth.sessions.store;
     // A request loaded the session (as express-session does, through load → createSession)…
     const loaded = await new Promise<import('express-session').Session & Record<string, unknown>>(
       (resolve, reject) =>

@@ -16,6 +16,17 @@ function rng(seed: number) {
   };
 }
 
+/** A copy in a seeded random order (Fisher–Yates). */
+export function shuffled<T>(items: readonly T[], seed: number): T[] {
+  const r = rng(seed);
+  const out = [...items];
+  for (let i = out.length - 1; i > 0; i--) {
+    const j = Math.floor(r() * (i + 1));
+    [out[i], out[j]] = [out[j]!, out[i]!];
+  }
+  return out;
+}
+
 const FAMILIES = [
   'Guitar amplifier',
   'Hi-fi amplifier',
@@ -171,6 +182,30 @@ export const PLANTED: IndexedProcedure[] = [
     tags: ['recap', 'can capacitor'],
     body: 'Restuff the 40+40 µF can capacitor with two 47uF 500 V parts and keep the original can for appearance.\nReform any doubtful capacitor slowly on a current-limited supply.',
     readings: 'Leakage current at 450 V — each section',
+    reckoners: '',
+  },
+  {
+    id: 'planted-rectvalve',
+    revisionId: 'planted-rectvalve-r',
+    revisionNumber: 1,
+    title: 'Rectifier valve to silicon conversion on the RS-40 organ amplifier',
+    family: 'Organ amplifier',
+    model: 'RS-40',
+    tags: ['rectifier', 'conversion'],
+    body: 'The 5AR4 rectifier valve is replaced by two 1N4007 diodes in series in each leg, fitted on a tag strip beside the valve base.\nExpect B+ to rise by about 25 V without the valve drop; add a 100 Ω series resistor to bring it back.\nThe GZ34 is the same type and may be fitted instead when the original sound is wanted.',
+    readings: 'B+ at the reservoir after conversion — TP1',
+    reckoners: '',
+  },
+  {
+    id: 'planted-outputpair',
+    revisionId: 'planted-outputpair-r',
+    revisionNumber: 2,
+    title: 'EL34 output pair matching and bias set on the QA-8 hi-fi amplifier',
+    family: 'Hi-fi amplifier',
+    model: 'QA-8',
+    tags: ['bias', 'output valves'],
+    body: 'Fit a matched pair of EL34 output valves and set each cathode current with the bias trimmer.\nThe ECC83 phase splitter shares the 6.3 V heater winding; check it glows before setting bias.',
+    readings: 'Cathode current, each EL34 — 1 Ω sense resistor',
     reckoners: '',
   },
 ];

@@ -104,7 +104,7 @@ export async function createTestApp(
     client,
     as,
     async close() {
-      (app.locals.sessionStore as { close(): void }).close();
+      app.deps.auth.sessions.store.close();
       await mailer?.stop();
       await search?.stop();
       await catcher?.close();

@@ -5,8 +5,6 @@
 import type { RequestHandler } from 'express';
 import { fileTypeFromBuffer } from 'file-type';
 import multer from 'multer';
-import { attachments } from '../../db/schema';
-import type { AppDeps } from '../../deps';
 import { HttpError } from '../../http/errors';
 import { imageSize } from './image-size';
 
@@ -100,13 +98,8 @@ export function attachmentDisposition(name: string) {
 const refused = (reason: string, message: string) =>
   new HttpError(400, message, { fields: [{ field: 'body.file', reason }] });
 
-/** Checks an uploaded file against the rules, stores its bytes and records its attachment row. */
-export async function storeUpload(
-  deps: AppDeps,
-  file: Express.Multer.File | undefined,
-  uploadedBy: string,
-  what: UploadKind,
-) {
+/** Checks an uploaded file against the rules; answers its type (from the bytes) and the name to keep. */
+export async function checkUpload(file: Express.Multer.File | undefined, what: UploadKind) {
   if (!file)
     throw new HttpError(400, `Choose a ${what} to upload.`, {
       fields: [{ field: 'body.file', reason: 'required' }],
@@ -134,10 +127,5 @@ export async function storeUpload(
       );
     }
   }
-  const sha256 = await deps.files.put(file.buffer);
-  const [row] = await deps.db
-    .insert(attachments)
-    .values({ sha256, originalName: nameForType(shown, mediaType), mediaType, size: file.size, uploadedBy })
-    .returning();
-  return row!;
+  return { file, mediaType, name: nameForType(shown, mediaType) };
 }

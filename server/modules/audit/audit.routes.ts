@@ -1,10 +1,8 @@
-import { and, count, desc, eq, gte, lt, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
-import type { AuditEntryView } from '../../../shared/schemas/review';
 import { verifyAuditChain } from '../../audit/chain';
 import { AUDIT_ACTIONS } from '../../audit/record';
-import { auditLog, people } from '../../db/schema';
 import { defineRoute } from '../../http/route';
+import { auditPage } from './audit.service';
 
 /** A calendar day (YYYY-MM-DD, UTC) or a full ISO timestamp. */
 const when = z
@@ -36,9 +34,6 @@ export const auditQuery = z
     path: ['from'],
   });
 
-const endOf = (to: string) =>
-  /^\d{4}-\d{2}-\d{2}$/.test(to) ? new Date(Date.parse(to) + 86_400_000) : new Date(Date.parse(to) + 1);
-
 export const auditRoutes = [
   defineRoute({
     method: 'get',
@@ -55,33 +50,10 @@ export const auditRoutes = [
     summary: 'The audit log, newest first, filtered by action, person and date range, in pages',
     query: auditQuery,
     handler: async ({ query, deps }) => {
-      const where: SQL[] = [];
-      if (query.action) where.push(eq(auditLog.action, query.action));
-      if (query.personId) where.push(eq(auditLog.actorId, query.personId));
-      if (query.from) where.push(gte(auditLog.at, new Date(query.from)));
-      if (query.to) where.push(lt(auditLog.at, endOf(query.to)));
-      const filter = where.length ? and(...where) : undefined;
-      const [total] = await deps.db.select({ n: count() }).from(auditLog).where(filter);
-      const rows = await deps.db
-        .select({ a: auditLog, actor: { id: people.id, displayName: people.displayName } })
-        .from(auditLog)
-        .leftJoin(people, eq(people.id, auditLog.actorId))
-        .where(filter)
-        .orderBy(desc(auditLog.id))
-        .limit(query.pageSize)
-        .offset((query.page - 1) * query.pageSize);
-      const entries: AuditEntryView[] = rows.map(({ a, actor }) => ({
-        id: a.id,
-        at: a.at.toISOString(),
-        action: a.action,
-        actor: actor?.id ? actor : null,
-        subject: a.subject,
-        details: a.details,
-        ip: a.ip,
-      }));
+      const { entries, total } = await auditPage(deps.db, query);
       return {
         entries,
-        total: total?.n ?? 0,
+        total,
         page: query.page,
         pageSize: query.pageSize,
         actions: AUDIT_ACTIONS,

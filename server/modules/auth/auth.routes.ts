@@ -1,24 +1,23 @@
-import { createHash } from 'node:crypto';
-import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { Request, Response } from 'express';
-import type { PassportStatic } from 'passport';
 import { z } from 'zod';
 import { codeBody, setPasswordBody, signInBody } from '../../../shared/schemas/auth';
 import { recordAudit } from '../../audit/record';
-import { csrfToken } from '../../auth/csrf';
 import { endSessionsOf } from '../../auth/end-sessions';
 import { toSessionUser } from '../../auth/passport';
 import { hashPassword } from '../../auth/passwords';
 import { useSecondFactor } from '../../auth/second-factor';
 import { claimTry, PERSON_RULE, signInRules } from '../../auth/throttle';
-import { invitations, people } from '../../db/schema';
 import { HttpError } from '../../http/errors';
+import type { AppDeps } from '../../deps';
 import { defineRoute, type SessionUser } from '../../http/route';
-import { logIn, refuseCommonPassword, regenerate, sessionFlags } from './session-steps';
+import { personById, setPasswordFromLink, setPasswordLink } from './auth.service';
+import { destroySession, logIn, refuseCommonPassword, regenerate, sessionFlags } from './session-steps';
 
-const tokenHash = (token: string) => createHash('sha256').update(token).digest('hex');
-
-function authenticate(passport: PassportStatic, req: Request, res: Response): Promise<SessionUser | false> {
+function authenticate(
+  passport: AppDeps['auth']['passport'],
+  req: Request,
+  res: Response,
+): Promise<SessionUser | false> {
   return new Promise((resolve, reject) => {
     passport.authenticate('local', { session: false }, (err: unknown, user: SessionUser | false) =>
       err ? reject(err) : resolve(user),
@@ -28,7 +27,6 @@ function authenticate(passport: PassportStatic, req: Request, res: Response): Pr
 
 /** How long the code step may follow the password step. */
 const CODE_STEP_MS = 5 * 60_000;
-const linkGone = 'This link has expired or has already been used. Ask an admin for a new one.';
 
 const tooMany = (wait: string) => `Too many failed sign-in attempts. Wait ${wait} and try again.`;
 
@@ -40,7 +38,7 @@ export const authRoutes = [
     summary: 'Who is signed in, and the CSRF token for writes',
     handler: async ({ req, res, user, deps }) => ({
       user,
-      csrfToken: csrfToken(req, res),
+      csrfToken: deps.auth.csrf.token(req, res),
       ...(await sessionFlags(deps, user)),
     }),
   }),
@@ -77,8 +75,7 @@ export const authRoutes = [
         ],
         tooMany,
       );
-      const passport = req.app.locals.passport as PassportStatic;
-      const user = await authenticate(passport, req, res);
+      const user = await authenticate(deps.auth.passport, req, res);
       if (!user) {
         await recordAudit(deps.db, { action: 'sign-in.failed', subject: body.email, req });
         req.log?.info('sign-in refused');
@@ -89,12 +86,12 @@ export const authRoutes = [
         // Half-way: a new session that remembers who showed their password, and nothing more.
         await regenerate(req);
         req.session.pendingSecondFactor = { personId: user.id, at: Date.now() };
-        return { user: null, secondFactor: 'totp', csrfToken: csrfToken(req, res, true) };
+        return { user: null, secondFactor: 'totp', csrfToken: deps.auth.csrf.token(req, res, true) };
       }
       await logIn(req, user); // passport regenerates the session id here
       req.session.startedAt = Date.now();
       await recordAudit(deps.db, { action: 'sign-in', actorId: user.id, subject: user.email, req });
-      return { user, csrfToken: csrfToken(req, res, true), ...(await sessionFlags(deps, user)) };
+      return { user, csrfToken: deps.auth.csrf.token(req, res, true), ...(await sessionFlags(deps, user)) };
     },
   }),
 
@@ -116,7 +113,7 @@ export const authRoutes = [
         (wait) => `Too many wrong codes. Wait ${wait} and try again.`,
       );
       const kind = await useSecondFactor(deps.db, pending.personId, body.code);
-      const [person] = await deps.db.select().from(people).where(eq(people.id, pending.personId));
+      const person = await personById(deps.db, pending.personId);
       if (!kind || !person?.active) {
         await recordAudit(deps.db, {
           action: 'sign-in.code-failed',
@@ -143,7 +140,7 @@ export const authRoutes = [
         details: { secondFactor: kind },
         req,
       });
-      return { user, csrfToken: csrfToken(req, res, true), ...(await sessionFlags(deps, user)) };
+      return { user, csrfToken: deps.auth.csrf.token(req, res, true), ...(await sessionFlags(deps, user)) };
     },
   }),
 
@@ -154,12 +151,9 @@ export const authRoutes = [
     summary: 'Sign out and end the session on the server',
     beforeEnrolment: true,
     handler: async ({ req, res, user, deps }) => {
-      await new Promise<void>((resolve, reject) => req.logOut((err) => (err ? reject(err) : resolve())));
-      await new Promise<void>((resolve, reject) =>
-        req.session.destroy((err) => (err ? reject(err) : resolve())),
-      );
+      await destroySession(req);
       await recordAudit(deps.db, { action: 'sign-out', actorId: user?.id, req });
-      res.clearCookie(req.app.locals.sessionCookieName as string, { path: '/' });
+      res.clearCookie(deps.auth.sessions.cookieName, { path: '/' });
       return { ok: true };
     },
   }),
@@ -171,19 +165,7 @@ export const authRoutes = [
     summary: 'Look up a set-password link',
     params: z.object({ token: z.string().min(20).max(200) }),
     handler: async ({ params, deps }) => {
-      const [row] = await deps.db
-        .select({ email: people.email, displayName: people.displayName, purpose: invitations.purpose })
-        .from(invitations)
-        .innerJoin(people, eq(people.id, invitations.personId))
-        .where(
-          and(
-            eq(invitations.tokenHash, tokenHash(params.token)),
-            isNull(invitations.usedAt),
-            gt(invitations.expiresAt, new Date()),
-          ),
-        );
-      if (!row) throw new HttpError(404, linkGone);
-      return row;
+      return setPasswordLink(deps.db, params.token);
     },
   }),
 
@@ -196,29 +178,9 @@ export const authRoutes = [
     handler: async ({ req, body, deps }) => {
       refuseCommonPassword(body.password, 'body.password');
       const hash = await hashPassword(body.password);
-      const invite = await deps.db.transaction(async (tx) => {
-        const [used] = await tx
-          .update(invitations)
-          .set({ usedAt: new Date() })
-          .where(
-            and(
-              eq(invitations.tokenHash, tokenHash(body.token)),
-              isNull(invitations.usedAt),
-              gt(invitations.expiresAt, new Date()),
-            ),
-          )
-          .returning();
-        if (!used) throw new HttpError(404, linkGone);
-        await tx.update(people).set({ passwordHash: hash }).where(eq(people.id, used.personId));
-        // Any other link still out for this person is spent too.
-        await tx
-          .update(invitations)
-          .set({ usedAt: new Date() })
-          .where(and(eq(invitations.personId, used.personId), isNull(invitations.usedAt)));
-        return used;
-      });
+      const invite = await setPasswordFromLink(deps.db, body.token, hash);
       // A new password ends whatever sessions the person had (a reset is often for a suspected leak).
-      const sessionsEnded = await endSessionsOf(deps.db, req, invite.personId);
+      const sessionsEnded = await endSessionsOf(deps, invite.personId);
       await recordAudit(deps.db, {
         action: 'person.password-set',
         actorId: invite.personId,
@@ -229,5 +191,3 @@ export const authRoutes = [
     },
   }),
 ];
-
-export { tokenHash };

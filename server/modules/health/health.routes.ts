@@ -1,4 +1,5 @@
 import { defineRoute } from '../../http/route';
+import { databaseReachable } from './health.service';
 
 export const healthRoutes = [
   defineRoute({
@@ -7,13 +8,9 @@ export const healthRoutes = [
     access: 'public',
     summary: 'Liveness and database reachability (503 while the database is away)',
     handler: async ({ res, deps }) => {
-      try {
-        await deps.pool.query('SELECT 1');
-        return { ok: true, database: 'up' };
-      } catch {
-        res.status(503);
-        return { ok: false, database: 'down', error: 'The database is not reachable right now.' };
-      }
+      if (await databaseReachable(deps.pool)) return { ok: true, database: 'up' };
+      res.status(503);
+      return { ok: false, database: 'down', error: 'The database is not reachable right now.' };
     },
   }),
 ];

@@ -12,6 +12,7 @@ import type {
   ProcedureSort,
   procedureListQuery,
   RevisionView,
+  saveRevisionBody,
 } from '../../../shared/schemas/procedures';
 import type { Db, Tx } from '../../db/client';
 import {
@@ -22,6 +23,7 @@ import {
   type ListingAudience,
   type RevisionState,
 } from '../../db/schema';
+import { conflict, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { renderRevisionHtml } from './render-html';
 
@@ -288,4 +290,150 @@ export async function nextRevisionNumber(db: Db | Tx, procedureId: string) {
     .from(revisions)
     .where(eq(revisions.procedureId, procedureId));
   return Number(row!.n);
+}
+
+/** createProcedure in a transaction of its own (the API's "new procedure"). */
+export const createProcedureDraft = (db: Db, authorId: string, input: NewProcedure) =>
+  db.transaction((tx) => createProcedure(tx, authorId, input));
+
+const isPublished = (state: RevisionState) => (PUBLISHED_STATES as readonly RevisionState[]).includes(state);
+
+/** A procedure and the revisions the caller may see (404 when they may see none). */
+export async function procedureWithRevisions(db: Db, user: SessionUser, id: string) {
+  const [procedure] = await db.select().from(procedures).where(eq(procedures.id, id));
+  if (!procedure) throw notFound('No such procedure.');
+  const rows = await db
+    .select({
+      id: revisions.id,
+      number: revisions.number,
+      state: revisions.state,
+      updatedAt: revisions.updatedAt,
+      author: { id: people.id, displayName: people.displayName },
+    })
+    .from(revisions)
+    .innerJoin(people, eq(people.id, revisions.authorId))
+    .where(eq(revisions.procedureId, id))
+    .orderBy(asc(revisions.number));
+  const visible = rows.filter((r) => seesDrafts(user) || isPublished(r.state));
+  if (!visible.length) throw notFound('No such procedure.');
+  return {
+    procedure: {
+      id: procedure.id,
+      title: procedure.title,
+      equipmentFamily: procedure.equipmentFamily,
+      equipmentModel: procedure.equipmentModel,
+      tags: procedure.tags,
+    },
+    revisions: visible.map((r) => ({ ...r, updatedAt: r.updatedAt.toISOString() })),
+  };
+}
+
+/** One revision as the caller may read it: technicians see published revisions only. */
+export async function readableRevision(db: Db, user: SessionUser, id: string) {
+  const revision = await loadRevisionView(db, id);
+  if (!revision || (!seesDrafts(user) && !isPublished(revision.state))) throw notFound('No such revision.');
+  return revision;
+}
+
+/** Starts the next draft from the approved revision (or, when none was approved, the latest returned one). */
+export async function startNextDraft(db: Db, user: SessionUser, procedureId: string) {
+  const row = await db.transaction(async (tx) => {
+    await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
+    const open = await tx
+      .select({ id: revisions.id, number: revisions.number, state: revisions.state })
+      .from(revisions)
+      .where(and(eq(revisions.procedureId, procedureId), sql`${revisions.state} in ('draft', 'in_review')`));
+    if (open[0])
+      throw conflict(
+        `Revision ${open[0].number} is already ${open[0].state === 'draft' ? 'a draft' : 'in review'}; continue that one.`,
+        { revisionId: open[0].id },
+      );
+    const base =
+      (await latestApproved(tx, procedureId)) ?? (await latestInState(tx, procedureId, 'returned'));
+    if (!base) throw notFound('This procedure has no approved or returned revision to start from.');
+    const [created] = await tx
+      .insert(revisions)
+      .values({
+        procedureId: base.procedureId,
+        number: await nextRevisionNumber(tx, procedureId),
+        state: 'draft',
+        title: base.title,
+        equipmentFamily: base.equipmentFamily,
+        equipmentModel: base.equipmentModel,
+        tags: base.tags,
+        document: base.document,
+        params: base.params,
+        ...derive(base.document, base.params),
+        authorId: user.id,
+        editorIds: [user.id],
+        // Whoever wrote the revision this starts from still counts as its author for four eyes.
+        provenanceIds: [...new Set([base.authorId, ...base.editorIds, ...base.provenanceIds])].filter(
+          (id) => id !== user.id,
+        ),
+      })
+      .returning();
+    return created!;
+  });
+  return revisionView(db, row);
+}
+
+/**
+ * Saves a draft under its optimistic lock, and the procedure's title and equipment with it, in one
+ * transaction. A stale lockVersion or a revision no longer a draft gets 409 with the current revision.
+ */
+export async function saveDraft(
+  db: Db,
+  user: SessionUser,
+  id: string,
+  body: z.output<typeof saveRevisionBody>,
+  document: ProcedureDoc,
+) {
+  const saved = await db.transaction(async (tx) => {
+    const [saved] = await tx
+      .update(revisions)
+      .set({
+        title: body.title,
+        equipmentFamily: body.equipmentFamily,
+        equipmentModel: body.equipmentModel,
+        tags: body.tags,
+        document,
+        params: body.params,
+        ...derive(document, body.params),
+        lockVersion: sql`${revisions.lockVersion} + 1`,
+        editorIds: sql`case when ${user.id}::uuid = any(${revisions.editorIds}) then ${revisions.editorIds} else array_append(${revisions.editorIds}, ${user.id}::uuid) end`,
+        updatedAt: new Date(),
+      })
+      .where(
+        and(eq(revisions.id, id), eq(revisions.lockVersion, body.lockVersion), eq(revisions.state, 'draft')),
+      )
+      .returning();
+    if (!saved) return undefined;
+    await tx
+      .update(procedures)
+      .set({
+        title: saved.title,
+        equipmentFamily: saved.equipmentFamily,
+        equipmentModel: saved.equipmentModel,
+        tags: saved.tags,
+        updatedAt: new Date(),
+      })
+      .where(eq(procedures.id, saved.procedureId));
+    return saved;
+  });
+  if (saved) return revisionView(db, saved);
+  const current = await getRevisionRow(db, id);
+  if (!current) throw notFound('No such revision.');
+  const view = await revisionView(db, current);
+  if (current.state !== 'draft')
+    throw conflict(
+      `Revision ${current.number} is ${current.state.replace('_', ' ')}; only drafts can be edited.`,
+      {
+        state: current.state,
+        current: view,
+      },
+    );
+  throw conflict(
+    'Someone saved this draft after you opened it. Compare the two versions and choose which to keep.',
+    { current: view },
+  );
 }

@@ -1,4 +1,3 @@
-import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import {
   approveBody,
@@ -7,13 +6,12 @@ import {
   submitBody,
   withdrawBody,
 } from '../../../shared/schemas/review';
-import { recordAudit } from '../../audit/record';
 import type { AppDeps } from '../../deps';
-import { reviewComments, signatures } from '../../db/schema';
 import { badRequest, notFound } from '../../http/errors';
 import { defineRoute, type SessionUser } from '../../http/route';
-import { getRevisionRow, revisionView, seesDrafts } from '../procedures/procedures.service';
-import { blockRefs, buildReviewView, commentsOf, reviewQueue } from './review-view';
+import { getRevisionRow, PUBLISHED_STATES, revisionView, seesDrafts } from '../procedures/procedures.service';
+import { addComment, signatureById } from './review.service';
+import { blockRefs, buildReviewView, reviewQueue } from './review-view';
 import { signatureView, verifiedSignatures, verifySignature } from './signatures';
 import { decideRevision, submitRevision, withdrawProcedure } from './transitions';
 
@@ -22,7 +20,7 @@ const procedureParams = z.object({ id: z.uuid('not a valid procedure id') });
 const signatureParams = z.object({ id: z.uuid('not a valid signature id') });
 
 /** Technicians see only what has been approved (now or before); everyone else sees every state. */
-const PUBLISHED = new Set(['approved', 'superseded']);
+const PUBLISHED = new Set<string>(PUBLISHED_STATES);
 const canSee = (user: SessionUser, state: string) => seesDrafts(user) || PUBLISHED.has(state);
 
 async function decisionResponse(deps: AppDeps, result: Awaited<ReturnType<typeof decideRevision>>) {
@@ -131,22 +129,9 @@ export const reviewRoutes = [
           { field: 'body.blockId', reason: `no block with this id in revision ${row.number}` },
         ]);
       }
-      const [created] = await deps.db.transaction(async (tx) => {
-        const inserted = await tx
-          .insert(reviewComments)
-          .values({ revisionId: row.id, blockId, authorId: user!.id, body: body.body })
-          .returning();
-        await recordAudit(tx, {
-          action: 'review.commented',
-          actorId: user!.id,
-          subject: `${row.title} r${row.number}`,
-          details: { revisionId: row.id, commentId: inserted[0]!.id, blockId },
-          req,
-        });
-        return inserted;
-      });
+      const comment = await addComment(deps.db, user!, row, blockId, body.body, req);
       res.status(201);
-      return { comment: (await commentsOf(deps.db, row)).find((c) => c.id === created!.id) };
+      return { comment };
     },
   }),
 
@@ -170,7 +155,7 @@ export const reviewRoutes = [
     summary: 'Recompute a signature’s content hash and say whether the signed revision still matches it',
     params: signatureParams,
     handler: async ({ params, user, deps }) => {
-      const [sig] = await deps.db.select().from(signatures).where(eq(signatures.id, params.id));
+      const sig = await signatureById(deps.db, params.id);
       const row = sig && (await getRevisionRow(deps.db, sig.revisionId));
       if (!sig || !row || !canSee(user!, row.state)) throw notFound('No such signature.');
       const check = await verifySignature(deps.db, deps.files, sig);

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import type { AppDeps } from '../../deps';
-import { receiveFile, storeUpload } from '../attachments/upload';
+import { storeUpload } from '../attachments/attachments.service';
+import { receiveFile } from '../attachments/upload';
 
 /** One photo field named "file", under the rules every upload follows (attachments/upload.ts). */
 export const receivePhoto = (): RequestHandler[] => receiveFile('photo');

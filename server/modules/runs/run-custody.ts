@@ -7,12 +7,12 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import type { HandoverBody } from '../../../shared/schemas/runs';
 import { recordAudit } from '../../audit/record';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { people, runHandovers, runs } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { holdOf, onHold } from './run-hold';
-import type { RunRow, Tx } from './runs.service';
+import type { RunRow } from './runs.service';
 
 const nameOf = async (db: Db | Tx, id: string) =>
   (await db.select({ name: people.displayName }).from(people).where(eq(people.id, id)))[0]?.name ??

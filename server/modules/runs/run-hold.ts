@@ -6,11 +6,11 @@
 import { paths } from '../../../shared/paths';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { RunHold } from '../../../shared/schemas/runs';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import { people, revisions, runEntries, runHandovers, runs, signatures, units } from '../../db/schema';
 import { conflict } from '../../http/errors';
 import { composeMail, enqueueMail } from '../../mail/outbox';
-import type { RunRow, Tx } from './runs.service';
+import type { RunRow } from './runs.service';
 
 type RevisionRow = typeof revisions.$inferSelect;
 

@@ -17,13 +17,15 @@ import {
 import { conflict, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
+import type { FileStore } from '../../storage/files';
 import { confirmSignerPassword } from '../review/reauth';
 import { revisionContentHash } from '../review/signed-content';
 import { assertWritable } from './run-custody';
 import { runContentHash } from './run-hash';
 import { isFinished } from './run-steps';
 import { runContent, unitRecordOf } from './run-view';
-import type { RunRow, Tx } from './runs.service';
+import type { Tx } from '../../db/client';
+import type { RunRow } from './runs.service';
 
 export const runSheetPath = (runId: string) => paths.run.href(runId);
 
@@ -47,74 +49,98 @@ export async function signRun(
   await confirmSignerPassword(db, user, body.password, req, `run ${runId}`);
 
   const result = await db.transaction(async (tx) => {
-    const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
-    if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
-    await assertWritable(tx, run, user);
-    const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
-    const byStep = new Map(entries.map((e) => [e.stepId, e]));
-    const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
-    if (unfinished.length) {
-      const list = unfinished
-        .slice(0, 5)
-        .map((s) => `${s.position}. ${s.text.slice(0, 60)}`)
-        .join('; ');
-      throw conflict(
-        `${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`,
-        {
-          unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
-        },
-      );
-    }
-    const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-    if ((await revisionContentHash(tx, deps.files, revision!)) !== run.revisionHash) {
-      throw conflict(
-        'The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.',
-      );
-    }
-    const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
-    const unitRecord = unitRecordOf(unit!);
-    const content = await runContent(tx, deps.files, run, unitRecord);
-    if (content.photos.some((p) => p.sha256 === null)) {
-      throw conflict(
-        'A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.',
-      );
-    }
-    const contentHash = runContentHash(content);
-    const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
-    const outOfTolerance = entries.some((e) => e.within === false);
-    // The signature first: the trigger refuses rows for a run that is already signed.
-    const [signature] = await tx
-      .insert(runSignatures)
-      .values({
-        runId,
-        signerId: user.id,
-        signerName: person?.name ?? user.displayName,
-        signerRole: 'technician',
-        meaning: body.meaning,
-        reason: body.reason ?? null,
-        contentHash,
-        revisionId: run.revisionId,
-        revisionHash: run.revisionHash,
-        requestId: String(req.id ?? ''),
-      })
-      .returning();
-    await tx
-      .update(runs)
-      .set({ status: 'signed', signedAt: sql`now()`, contentHash, unitRecord, outOfTolerance })
-      .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
-    await recordAudit(tx, {
-      action: 'run.signed',
-      actorId: user.id,
-      subject: `run ${runId}`,
-      details: { contentHash, revisionId: run.revisionId, meaning: body.meaning, outOfTolerance },
+    const signed = await writeRunSignature(tx, deps.files, user, runId, {
+      meaning: body.meaning,
+      reason: body.reason,
+      requestId: String(req.id ?? ''),
       req,
     });
-    if (outOfTolerance)
-      await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, person?.name ?? user.displayName);
-    return { signature: signature!, outOfTolerance };
+    const { run, unitRecord, entries, signerName, signature, outOfTolerance } = signed;
+    if (outOfTolerance) await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, signerName);
+    return { signature, outOfTolerance };
   });
   await deps.mailer?.flush();
   return result;
+}
+
+/**
+ * Writes a technician's signature on a run sheet in the caller's transaction, after every check
+ * (performer, not on hold, every step finished, revision and photos unchanged): the canonical
+ * content hash, the signature row, the run's signed state and the audit entry. `signedAt` dates
+ * the signature (demo history); by default it is the database's time.
+ */
+export async function writeRunSignature(
+  tx: Tx,
+  files: FileStore,
+  user: SessionUser,
+  runId: string,
+  how: { meaning: 'performed'; reason?: string; requestId: string; signedAt?: Date; req?: Request },
+) {
+  const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+  if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
+  await assertWritable(tx, run, user);
+  const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+  const byStep = new Map(entries.map((e) => [e.stepId, e]));
+  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
+  if (unfinished.length) {
+    const list = unfinished
+      .slice(0, 5)
+      .map((s) => `${s.position}. ${s.text.slice(0, 60)}`)
+      .join('; ');
+    throw conflict(
+      `${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`,
+      {
+        unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
+      },
+    );
+  }
+  const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
+  if ((await revisionContentHash(tx, files, revision!)) !== run.revisionHash) {
+    throw conflict(
+      'The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.',
+    );
+  }
+  const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
+  const unitRecord = unitRecordOf(unit!);
+  const content = await runContent(tx, files, run, unitRecord);
+  if (content.photos.some((p) => p.sha256 === null)) {
+    throw conflict(
+      'A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.',
+    );
+  }
+  const contentHash = runContentHash(content);
+  const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
+  const signerName = person?.name ?? user.displayName;
+  const outOfTolerance = entries.some((e) => e.within === false);
+  // The signature first: the trigger refuses rows for a run that is already signed.
+  const [signature] = await tx
+    .insert(runSignatures)
+    .values({
+      runId,
+      signerId: user.id,
+      signerName,
+      signerRole: 'technician',
+      meaning: how.meaning,
+      reason: how.reason ?? null,
+      contentHash,
+      revisionId: run.revisionId,
+      revisionHash: run.revisionHash,
+      requestId: how.requestId,
+      ...(how.signedAt && { signedAt: how.signedAt }),
+    })
+    .returning();
+  await tx
+    .update(runs)
+    .set({ status: 'signed', signedAt: how.signedAt ?? sql`now()`, contentHash, unitRecord, outOfTolerance })
+    .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
+  await recordAudit(tx, {
+    action: 'run.signed',
+    actorId: user.id,
+    subject: `run ${runId}`,
+    details: { contentHash, revisionId: run.revisionId, meaning: how.meaning, outOfTolerance },
+    req: how.req,
+  });
+  return { run, unitRecord, entries, signerName, signature: signature!, outOfTolerance };
 }
 
 /** Who hears about an out-of-tolerance run: the procedure's author and the revision's approvers. */

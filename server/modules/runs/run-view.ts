@@ -6,7 +6,7 @@ import type {
   RunStatus,
   RunView,
 } from '../../../shared/schemas/runs';
-import type { Db } from '../../db/client';
+import type { Db, Tx } from '../../db/client';
 import {
   attachments,
   people,
@@ -25,7 +25,7 @@ import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
 import { holdOf } from './run-hold';
 import { lockedSteps, progressOf } from './run-steps';
-import type { RunRow, Tx } from './runs.service';
+import type { RunRow } from './runs.service';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 

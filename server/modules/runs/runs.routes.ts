@@ -1,4 +1,3 @@
-import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { BLOCK_ID } from '../../../shared/document/schema';
 import {
@@ -9,15 +8,13 @@ import {
   signRunBody,
   startRunBody,
 } from '../../../shared/schemas/runs';
-import { people, runPhotos, runs } from '../../db/schema';
-import { badRequest, notFound } from '../../http/errors';
 import { defineRoute } from '../../http/route';
 import { renderRunSheetPdf } from './pdf';
-import { receivePhoto, storePhoto } from './photo-upload';
-import { abandonRun, assertWritable, handOverRun } from './run-custody';
+import { receivePhoto } from './photo-upload';
+import { abandonRun, handOverRun } from './run-custody';
 import { signRun } from './run-sign';
 import { listRuns, loadRunView } from './run-view';
-import { recordEntry, startRun } from './runs.service';
+import { activeTechnicians, addRunPhoto, recordEntry, startRun } from './runs.service';
 
 const runParams = z.object({ id: z.uuid('not a valid run id') }).strict();
 const entryParams = z
@@ -47,11 +44,7 @@ export const runRoutes = [
     access: ['technician', 'admin'],
     summary: 'Active technicians, to whom a bench run can be handed over',
     handler: async ({ deps }) => ({
-      technicians: await deps.db
-        .select({ id: people.id, displayName: people.displayName })
-        .from(people)
-        .where(and(eq(people.active, true), sql`'technician' = any(${people.roles})`))
-        .orderBy(asc(people.displayName)),
+      technicians: await activeTechnicians(deps.db),
     }),
   }),
 
@@ -102,28 +95,9 @@ export const runRoutes = [
     before: receivePhoto,
     handler: async ({ req, res, params, user, deps }) => {
       const stepId = typeof req.body?.stepId === 'string' && req.body.stepId !== '' ? req.body.stepId : null;
-      const [run] = await deps.db.select().from(runs).where(eq(runs.id, params.id));
-      if (!run) throw notFound('No such bench run.');
-      await assertWritable(deps.db, run, user!);
-      if (stepId !== null && !run.steps.some((s) => s.id === stepId))
-        throw badRequest('body.stepId: no such step in this run', [
-          { field: 'body.stepId', reason: 'no such step in this run' },
-        ]);
-      const attachment = await storePhoto(deps, req.file, user!.id);
-      const [photo] = await deps.db
-        .insert(runPhotos)
-        .values({ runId: params.id, stepId, attachmentId: attachment.id, addedBy: user!.id })
-        .returning();
+      const photo = await addRunPhoto(deps, user!, params.id, stepId, req.file);
       res.status(201);
-      return {
-        photo: {
-          id: photo!.id,
-          stepId,
-          url: `/api/attachments/${attachment.id}`,
-          addedBy: { id: user!.id, displayName: user!.displayName },
-          addedAt: photo!.addedAt.toISOString(),
-        },
-      };
+      return { photo };
     },
   }),
 

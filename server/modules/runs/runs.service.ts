@@ -1,18 +1,19 @@
-import { and, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import { evaluateDocument } from '../../../shared/document/evaluate';
 import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
 import type { Db, Tx } from '../../db/client';
-import { revisions, runEntries, runEntryHistory, runs, units } from '../../db/schema';
+import { people, revisions, runEntries, runEntryHistory, runPhotos, runs, units } from '../../db/schema';
+import type { AppDeps } from '../../deps';
 import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
 import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
 import { revisionContentHash } from '../review/signed-content';
+import { storePhoto } from './photo-upload';
 import { assertWritable } from './run-custody';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
 
-export type { Tx };
 export type RunRow = typeof runs.$inferSelect;
 export type EntryRow = typeof runEntries.$inferSelect;
 
@@ -22,7 +23,7 @@ const short = (s: string, n = 80) => (s.length > n ? `${s.slice(0, n - 1)}…` :
  * Starts a bench run on an approved revision: every expected value is evaluated again with the
  * bench's measured mains, and the run keeps that revision and its own snapshot from then on.
  */
-export async function startRun(db: Db, files: FileStore, user: SessionUser, body: StartRunBody) {
+export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser, body: StartRunBody) {
   return db.transaction(async (tx) => {
     if (body.key) {
       const [existing] = await tx.select().from(runs).where(eq(runs.startKey, body.key));
@@ -105,7 +106,13 @@ const stateOf = (rows: EntryRow[]) => new Map<string, EntryState>(rows.map((e) =
  * Records one entry for one step. The idempotency key makes a resend harmless: the same key
  * returns what was stored. Every version goes to the append-only history with who, when and why.
  */
-export async function recordEntry(db: Db, user: SessionUser, runId: string, stepId: string, body: EntryBody) {
+export async function recordEntry(
+  db: Db | Tx,
+  user: SessionUser,
+  runId: string,
+  stepId: string,
+  body: EntryBody,
+) {
   // An entry carries who made it on the tablet; it is never recorded in another person's name.
   if (body.by !== undefined && body.by !== user.id) {
     throw conflict('This entry was made by someone else; it can only be sent from their own session.', {
@@ -206,4 +213,41 @@ export async function recordEntry(db: Db, user: SessionUser, runId: string, step
       await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
     return { replayed: false, run: { ...run, outOfTolerance } };
   });
+}
+
+/** Active technicians, to whom a bench run can be handed over. */
+export const activeTechnicians = (db: Db) =>
+  db
+    .select({ id: people.id, displayName: people.displayName })
+    .from(people)
+    .where(and(eq(people.active, true), sql`'technician' = any(${people.roles})`))
+    .orderBy(asc(people.displayName));
+
+/** Stores an uploaded photo on the run, optionally on one of its steps; only while the run is writable. */
+export async function addRunPhoto(
+  deps: AppDeps,
+  user: SessionUser,
+  runId: string,
+  stepId: string | null,
+  file: Express.Multer.File | undefined,
+) {
+  const [run] = await deps.db.select().from(runs).where(eq(runs.id, runId));
+  if (!run) throw notFound('No such bench run.');
+  await assertWritable(deps.db, run, user);
+  if (stepId !== null && !run.steps.some((s) => s.id === stepId))
+    throw badRequest('body.stepId: no such step in this run', [
+      { field: 'body.stepId', reason: 'no such step in this run' },
+    ]);
+  const attachment = await storePhoto(deps, file, user.id);
+  const [photo] = await deps.db
+    .insert(runPhotos)
+    .values({ runId, stepId, attachmentId: attachment.id, addedBy: user.id })
+    .returning();
+  return {
+    id: photo!.id,
+    stepId,
+    url: `/api/attachments/${attachment.id}`,
+    addedBy: { id: user.id, displayName: user.displayName },
+    addedAt: photo!.addedAt.toISOString(),
+  };
 }

@@ -1,7 +1,18 @@
 import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
-import type { TrendView, UnitListItem, UnitRunSummary, UnitView } from '../../../shared/schemas/units';
+import type { z } from 'zod';
+import type {
+  TrendView,
+  unitBody,
+  UnitListItem,
+  UnitRunSummary,
+  UnitView,
+  updateUnitBody,
+} from '../../../shared/schemas/units';
 import type { Db } from '../../db/client';
-import { people, runEntries, runs, units } from '../../db/schema';
+import { people, runEntries, runs, unitPhotos, units } from '../../db/schema';
+import type { AppDeps } from '../../deps';
+import { conflict, notFound } from '../../http/errors';
+import { storePhoto } from '../runs/photo-upload';
 
 type UnitRow = typeof units.$inferSelect;
 
@@ -155,5 +166,99 @@ export async function unitTrend(db: Db, unitId: string, readingId: string | unde
             mainsVoltage: run.params.mainsVoltage,
           }))
       : [],
+  };
+}
+
+const isUniqueViolation = (err: unknown) =>
+  (err as { code?: string; cause?: { code?: string } })?.code === '23505' ||
+  (err as { cause?: { code?: string } })?.cause?.code === '23505';
+const duplicate = () =>
+  conflict('A unit with this model and serial is already in the register.', {
+    fields: [{ field: 'body.serial', reason: 'already registered for this model' }],
+  });
+/** Model + serial is unique (case-insensitively): the database says so, the caller hears 409. */
+async function refusingDuplicates<T>(write: () => Promise<T>) {
+  try {
+    return await write();
+  } catch (err) {
+    if (isUniqueViolation(err)) throw duplicate();
+    throw err;
+  }
+}
+
+/** One unit with who registered it; 404 when there is none. */
+export async function unitById(db: Db, id: string) {
+  const [row] = await db
+    .select({ unit: units, by: { id: people.id, displayName: people.displayName } })
+    .from(units)
+    .innerJoin(people, eq(people.id, units.createdBy))
+    .where(eq(units.id, id));
+  if (!row) throw notFound('No such unit.');
+  return unitView(row.unit, row.by);
+}
+
+/** Registers a unit; `at` dates it (demo history), by default now. 409 when model + serial is taken. */
+export async function registerUnit(db: Db, userId: string, body: z.output<typeof unitBody>, at?: Date) {
+  const [row] = await refusingDuplicates(() =>
+    db
+      .insert(units)
+      .values({ ...body, createdBy: userId, ...(at && { createdAt: at, updatedAt: at }) })
+      .returning(),
+  );
+  return unitById(db, row!.id);
+}
+
+/** Saves the unit under its optimistic lock; a stale lockVersion gets 409 with the current unit. */
+export async function updateUnit(db: Db, id: string, body: z.output<typeof updateUnitBody>) {
+  const { lockVersion, ...fields } = body;
+  const [row] = await refusingDuplicates(() =>
+    db
+      .update(units)
+      .set({ ...fields, lockVersion: sql`${units.lockVersion} + 1`, updatedAt: new Date() })
+      .where(and(eq(units.id, id), eq(units.lockVersion, lockVersion)))
+      .returning(),
+  );
+  if (!row) {
+    const current = await unitById(db, id);
+    throw conflict('Someone changed this unit after you opened it; here is the current record.', { current });
+  }
+  return unitById(db, row.id);
+}
+
+export async function unitPhotosOf(db: Db, unitId: string) {
+  const photos = await db
+    .select()
+    .from(unitPhotos)
+    .where(eq(unitPhotos.unitId, unitId))
+    .orderBy(asc(unitPhotos.addedAt));
+  return photos.map((p) => ({
+    id: p.id,
+    attachmentId: p.attachmentId,
+    url: `/api/attachments/${p.attachmentId}`,
+    caption: p.caption,
+    addedAt: p.addedAt.toISOString(),
+  }));
+}
+
+/** Stores an uploaded photo of the unit (404 for no such unit, before anything is stored). */
+export async function addUnitPhoto(
+  deps: AppDeps,
+  unitId: string,
+  file: Express.Multer.File | undefined,
+  caption: string,
+  userId: string,
+) {
+  await unitById(deps.db, unitId);
+  const attachment = await storePhoto(deps, file, userId);
+  const [photo] = await deps.db
+    .insert(unitPhotos)
+    .values({ unitId, attachmentId: attachment.id, caption, addedBy: userId })
+    .returning();
+  return {
+    id: photo!.id,
+    attachmentId: attachment.id,
+    url: `/api/attachments/${attachment.id}`,
+    caption,
+    addedAt: photo!.addedAt.toISOString(),
   };
 }

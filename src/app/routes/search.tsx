@@ -1,10 +1,9 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { useSearchParams } from 'react-router-dom';
 import { Problem } from '@/components/errors/problem';
 import { Pager } from '@/components/ui/pager';
-import { paths } from '@/config/paths';
 import { searchFromUrl, useSearch } from '@/features/search/api/search-procedures';
-import { Snippet } from '@/features/search/components/snippet';
+import { ResultList } from '@/features/search/components/result-list';
 
 export default function SearchPage() {
   const [params, setParams] = useSearchParams();
@@ -32,7 +31,7 @@ export default function SearchPage() {
     update({ q: text.trim() });
   };
   const data = search.data;
-  const pages = data ? Math.ceil(data.total / pageSize) : 0;
+  const pages = data ? Math.ceil((data.partial?.total ?? data.total) / pageSize) : 0;
 
   return (
     <section className="flex flex-col gap-5">
@@ -91,49 +90,59 @@ export default function SearchPage() {
         </p>
       )}
       {data && q && (
-        <p className="text-sm text-graphite-soft" aria-live="polite">
-          {data.total === 0
-            ? 'No approved procedure matches.'
-            : `${data.total} approved procedure${data.total === 1 ? '' : 's'}`}
-          {data.total === 0 && data.suggestions.length > 0 && (
-            <>
-              {' '}
-              Did you mean{' '}
-              {data.suggestions.slice(0, 4).map((s, i) => (
-                <span key={s}>
-                  {i > 0 && ', '}
-                  <button
-                    type="button"
-                    className="font-semibold text-accent underline"
-                    onClick={() => update({ q: s })}
-                  >
-                    {s}
-                  </button>
-                </span>
-              ))}
-              ?
-            </>
-          )}
-        </p>
-      )}
-      <ol className={`flex flex-col gap-3 ${search.isFetching ? 'opacity-70' : ''}`}>
-        {data?.results.map((h) => (
-          <li key={h.procedureId} className="rounded-lg border border-rule bg-card p-4">
-            <Link
-              to={paths.revision.href(h.revisionId)}
-              className="text-lg font-semibold text-accent-deep underline-offset-2 hover:underline"
-            >
-              {h.title}
-            </Link>
-            <div className="text-xs text-graphite-soft">
-              {h.family} · {h.model} · revision {h.revisionNumber} · {h.tags.join(', ')}
-            </div>
-            <p className="mt-2 text-sm">
-              <Snippet parts={h.snippet} />
+        <div className="flex flex-col gap-1 text-sm" aria-live="polite">
+          {data.correctedQuery && (
+            <p>
+              No approved procedure uses the words you typed; showing results for{' '}
+              <strong>{data.correctedQuery}</strong>.
             </p>
-          </li>
-        ))}
-      </ol>
+          )}
+          <p className="text-graphite-soft">
+            {data.total === 0
+              ? 'No approved procedure matches all of your words.'
+              : `${data.total} approved procedure${data.total === 1 ? '' : 's'} match${data.total === 1 ? 'es' : ''} all of your words`}
+            {data.total === 0 && data.suggestions.length > 0 && (
+              <>
+                {' '}
+                Did you mean{' '}
+                {data.suggestions.slice(0, 4).map((s, i) => (
+                  <span key={s}>
+                    {i > 0 && ', '}
+                    <button
+                      type="button"
+                      className="font-semibold text-accent underline"
+                      onClick={() => update({ q: s })}
+                    >
+                      {s}
+                    </button>
+                  </span>
+                ))}
+                ?
+              </>
+            )}
+          </p>
+        </div>
+      )}
+      {data && data.results.length > 0 && (
+        <ResultList
+          hits={data.results}
+          label="Procedures matching all of your words"
+          dim={search.isFetching}
+        />
+      )}
+      {data?.partial && (
+        <section aria-labelledby="search-partial" className="flex flex-col gap-3">
+          <h2 id="search-partial" className="text-lg font-semibold">
+            {data.partial.label}
+          </h2>
+          <p className="text-sm text-graphite-soft">
+            {data.partial.total} approved procedure{data.partial.total === 1 ? '' : 's'} mention
+            {data.partial.total === 1 ? 's' : ''} only some of the words. None of them is an answer to the
+            whole question; read each before relying on it.
+          </p>
+          <ResultList hits={data.partial.results} label={data.partial.label} dim={search.isFetching} />
+        </section>
+      )}
       <Pager page={page} pages={pages} label="Result pages" onPage={(p) => update({ page: String(p) })} />
     </section>
   );

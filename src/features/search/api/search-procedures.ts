@@ -3,7 +3,7 @@ import type { SearchPage } from '@shared/schemas/search';
 import { api } from '@/lib/api-client';
 import { searchKeys } from './keys';
 
-export type { SearchHit, SearchPage } from '@shared/schemas/search';
+export type { PartialHit, SearchHit, SearchPage } from '@shared/schemas/search';
 
 export interface SearchParams {
   q: string;

@@ -90,10 +90,15 @@ export function SearchBox() {
           {search.isError && <p className="p-3 text-sm text-out">{search.error.message}</p>}
           {search.data && hits.length === 0 && (
             <p className="p-3 text-sm text-graphite-soft">
-              Nothing approved matches “{q}”.
+              No approved procedure matches all of “{q}”.
               {search.data.suggestions.length > 0 && (
                 <> Try: {search.data.suggestions.slice(0, 3).join(', ')}.</>
               )}
+            </p>
+          )}
+          {search.data?.correctedQuery && hits.length > 0 && (
+            <p className="px-3 pt-2 text-xs text-graphite-soft">
+              Showing results for “{search.data.correctedQuery}”
             </p>
           )}
           <ul
@@ -122,6 +127,16 @@ export function SearchBox() {
               </li>
             ))}
           </ul>
+          {search.data?.partial && hits.length === 0 && (
+            <button
+              type="button"
+              className="w-full px-3 py-2 text-left text-sm font-semibold text-accent underline"
+              onMouseDown={(e) => e.preventDefault()}
+              onClick={() => go(paths.search.href(q))}
+            >
+              {search.data.partial.total} that match some of your words
+            </button>
+          )}
           {search.data && search.data.total > hits.length && (
             <button
               type="button"

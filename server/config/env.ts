@@ -1,0 +1,83 @@
+import { z } from 'zod';
+
+const PORT_RULE = 'is not a port number (1–65535)';
+
+/** An unset or blank variable reads as absent, so its default applies. */
+const blankIsUnset = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+
+const wholeNumber = (rule: string, min: number, max: number) =>
+  z
+    .string()
+    .trim()
+    .regex(/^\d+$/, rule)
+    .transform(Number)
+    .refine((n) => n >= min && n <= max, rule);
+
+const port = (fallback: number) =>
+  z.preprocess(blankIsUnset, wholeNumber(PORT_RULE, 1, 65535).default(fallback));
+
+/** Every environment variable the server and its start-up scripts read, with its default. */
+export const envSchema = z.object({
+  /** The app's HTTP port (`npm start`; the dev server proxies to it). */
+  PORT: port(5480),
+  /** npm start's private PostgreSQL. */
+  BW_DB_PORT: port(54329),
+  /** A parallel test run's own clusters (54339 + 20n …) and client build. */
+  BW_TEST_SLOT: z.preprocess(blankIsUnset, wholeNumber('is not a test slot number (0–99)', 0, 99).default(0)),
+  /** Host names a reverse proxy in front may pass on, comma-separated; others are answered 421. */
+  BW_ALLOWED_HOSTS: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .default('')
+      .transform((s) =>
+        s
+          .split(',')
+          .map((h) => h.trim())
+          .filter(Boolean),
+      ),
+  ),
+  /** The shop's mail relay; unset: a local mail catcher keeps every message. */
+  SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
+  SMTP_PORT: port(25),
+  SMTP_FROM: z.preprocess(blankIsUnset, z.string().default('Benchwright <benchwright@tallowcreek.example>')),
+  /** How often the audit chain is re-checked (0: at start only). */
+  AUDIT_CHECK_MINUTES: z.preprocess(
+    blankIsUnset,
+    z.coerce
+      .number({ error: 'must be a number of minutes (0 or more)' })
+      .refine((n) => Number.isFinite(n) && n >= 0, 'must be a number of minutes (0 or more)')
+      .default(60),
+  ),
+  LOG_LEVEL: z.preprocess(
+    blankIsUnset,
+    z
+      .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], {
+        error: 'must be one of fatal, error, warn, info, debug, trace, silent',
+      })
+      .default('info'),
+  ),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+/** Reads the variables from `source`; a bad one throws naming each variable, its value and the rule. */
+export function readEnv(source: Record<string, string | undefined>): Env {
+  const result = envSchema.safeParse(source);
+  if (result.success) return result.data;
+  const problems = result.error.issues.map((issue) => {
+    const name = String(issue.path[0]);
+    return `${name}=${JSON.stringify(source[name])} ${issue.message}`;
+  });
+  throw new Error(`Bad environment: ${problems.join('; ')}.`);
+}
+
+/** Read and checked once, at start; a bad value stops the process with the reason. */
+export const env: Env = (() => {
+  try {
+    return readEnv(process.env);
+  } catch (err) {
+    console.error(`[benchwright] ${(err as Error).message}`);
+    process.exit(2);
+  }
+})();

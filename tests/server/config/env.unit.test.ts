@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import { readEnv } from '../../../server/config/env';
+
+// TCP ports are 16-bit and port 0 is reserved (RFC 6335 §6): a listening port is 1–65535.
+describe('environment', () => {
+  it('gives the defaults when nothing is set, and when a variable is blank', () => {
+    const env = readEnv({ PORT: '  ', SMTP_HOST: '' });
+    expect(env.PORT).toBe(5480);
+    expect(env.SMTP_HOST).toBeUndefined();
+    expect(env.SMTP_PORT).toBe(25);
+    expect(env.AUDIT_CHECK_MINUTES).toBe(60);
+    expect(env.BW_ALLOWED_HOSTS).toEqual([]);
+  });
+
+  it('reads a port, a list of hosts and a number of minutes', () => {
+    const env = readEnv({
+      PORT: ' 8080 ',
+      BW_ALLOWED_HOSTS: 'bench.example, , shop.example',
+      AUDIT_CHECK_MINUTES: '0',
+    });
+    expect(env.PORT).toBe(8080);
+    expect(env.BW_ALLOWED_HOSTS).toEqual(['bench.example', 'shop.example']);
+    expect(env.AUDIT_CHECK_MINUTES).toBe(0);
+  });
+
+  it.each(['abc', 'NaN', '0', '65536', '80.5', '-1', '0x50'])(
+    'refuses PORT=%s with a message naming it',
+    (value) => {
+      expect(() => readEnv({ PORT: value })).toThrow(
+        `PORT=${JSON.stringify(value)} is not a port number (1–65535)`,
+      );
+    },
+  );
+
+  it('names every bad variable at once', () => {
+    expect(() =>
+      readEnv({
+        SMTP_PORT: 'twenty-five',
+        AUDIT_CHECK_MINUTES: 'hourly',
+        LOG_LEVEL: 'loud',
+        BW_TEST_SLOT: 'x',
+      }),
+    ).toThrow(
+      /SMTP_PORT="twenty-five" is not a port number.*AUDIT_CHECK_MINUTES="hourly" must be a number of minutes.*LOG_LEVEL="loud" must be one of/,
+    );
+    expect(() => readEnv({ BW_TEST_SLOT: '1.5' })).toThrow('BW_TEST_SLOT="1.5" is not a test slot number');
+  });
+
+  it('refuses a number of minutes that is not finite', () => {
+    expect(() => readEnv({ AUDIT_CHECK_MINUTES: 'Infinity' })).toThrow('AUDIT_CHECK_MINUTES="Infinity"');
+  });
+});
