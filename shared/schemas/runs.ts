@@ -1,3 +1,4 @@
+import type { SignalLevel } from '../safety-signs';
 import { z } from 'zod';
 import type { Snapshot } from '../document/evaluate';
 import type { ProcedureParams } from '../document/params';
@@ -31,7 +32,7 @@ export interface RunStep {
     error?: string;
   };
   hazard?: {
-    level: 'danger' | 'warning';
+    level: SignalLevel;
     /** The live-work cautions the note states, in words (absent on runs started before notes carried them). */
     flags?: string[];
   };

@@ -37,11 +37,16 @@ function overflowAt(page: Page) {
     if (wide > width + 1) {
       for (const el of Array.from(document.body.querySelectorAll<HTMLElement>('*'))) {
         const r = el.getBoundingClientRect();
-        if (r.right > width + 1 && r.width > 0 && !clipped(el)) {
+        // Text that runs out of its box widens the page as much as a box does.
+        const spills = getComputedStyle(el).overflowX === 'visible' && r.left + el.scrollWidth > width + 1;
+        if ((r.right > width + 1 || spills) && r.width > 0 && !clipped(el)) {
           // The innermost offender of each branch: the content that does not fit.
           // (A scroll box that is itself too wide counts as one piece.)
           const scrolls = getComputedStyle(el).overflowX !== 'visible';
-          const child = Array.from(el.children).some((c) => c.getBoundingClientRect().right > width + 1);
+          const child = Array.from(el.children).some((c) => {
+            const cr = c.getBoundingClientRect();
+            return cr.right > width + 1 || cr.left + c.scrollWidth > width + 1;
+          });
           if (child && !scrolls) continue;
           const text = (el.innerText || '').trim().slice(0, 40);
           culprits.push(`${el.tagName.toLowerCase()}.${el.className.toString().slice(0, 60)} “${text}”`);

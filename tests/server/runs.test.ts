@@ -374,7 +374,7 @@ describe('signing the run sheet', () => {
     expect(lines[at + 2]).toBe('out of band');
     expect(text).toContain(`Note: ${note}`);
     expect(text).toContain('Meaning: performed: I performed this bench run and recorded these readings.');
-    expect(text).toContain('SAFETY CAUTION Lethal voltages.');
+    expect(text).toContain('DANGER Lethal voltages.');
 
     // Every reading row of the model the page draws is in the PDF, cell by cell.
     const readings = runSheetModel(signed.body.run).readings;

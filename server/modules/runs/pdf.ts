@@ -7,6 +7,7 @@ import {
   type SheetNotice,
 } from '../../../shared/runs/run-sheet-model';
 import type { RunView } from '../../../shared/schemas/runs';
+import { SAFETY_SIGNS, WARNING_TRIANGLE } from '../../../shared/safety-signs';
 
 // The built-in PDF fonts speak WinAnsi only: spell out what they cannot draw.
 const SPELLED: Record<string, string> = {
@@ -109,17 +110,32 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   const cautionTop = doc.y;
   const caution = pdfText(`${sheet.caution.lead} ${sheet.caution.text}`);
   doc.font('Helvetica').fontSize(8.5);
-  const cautionHeight = doc.heightOfString(caution, { width: width - 20 }) + 22;
-  doc.rect(left, cautionTop, width, cautionHeight).fill('#f9c300');
+  // The DANGER sign of shared/safety-signs.ts: its band with the triangle and word, then the text.
+  const sign = SAFETY_SIGNS.danger;
+  const band = 18;
+  const cautionHeight = band + doc.heightOfString(caution, { width: width - 20 }) + 12;
+  doc.rect(left, cautionTop, width, cautionHeight).lineWidth(2).stroke(sign.field);
+  doc.rect(left, cautionTop, width, band).fill(sign.field);
+  const t = { x: left + 8, y: cautionTop + 3, s: 12 };
   doc
-    .fillColor('#111111')
+    .polygon([t.x + t.s / 2, t.y], [t.x + t.s, t.y + t.s], [t.x, t.y + t.s])
+    .lineWidth(1.2)
+    .fillAndStroke(WARNING_TRIANGLE.field, WARNING_TRIANGLE.ink);
+  doc
+    .fillColor(WARNING_TRIANGLE.ink)
+    .font('Helvetica-Bold')
+    .fontSize(8)
+    .text('!', t.x + t.s / 2 - 1.5, t.y + 3);
+  doc
+    .fillColor(sign.ink)
     .font('Helvetica-Bold')
     .fontSize(9)
-    .text('SAFETY CAUTION', left + 10, cautionTop + 6, { width: width - 20 });
+    .text(sign.word, left + 26, cautionTop + 5, { width: width - 36 });
   doc
+    .fillColor(INK)
     .font('Helvetica')
     .fontSize(8.5)
-    .text(caution, left + 10, doc.y, { width: width - 20 });
+    .text(caution, left + 10, cautionTop + band + 6, { width: width - 20 });
   doc.y = cautionTop + cautionHeight + 4;
   doc.fillColor(INK);
 

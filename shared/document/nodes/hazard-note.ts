@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { SAFETY_SIGNS, SIGNAL_LEVELS } from '../../safety-signs';
 import { added, blockId, defineNode, esc, textOf, yesNo } from './define';
 
 /**
@@ -19,7 +20,7 @@ const flag = yesNo();
 export const hazardNoteAttrs = z
   .object({
     id: blockId,
-    level: z.enum(['danger', 'warning']),
+    level: z.enum(SIGNAL_LEVELS),
     flags: added(
       z
         .object(Object.fromEntries(HAZARD_FLAGS.map((f) => [f, flag])) as Record<HazardFlag, typeof flag>, {
@@ -55,7 +56,7 @@ export const hazardNote = defineNode({
   },
   html: (a, { children }) => {
     const flags = hazardFlagWords(a);
-    return `<aside class="hazard-note hazard-${esc(a.level)}"><p><strong>${a.level === 'danger' ? 'DANGER' : 'WARNING'}</strong></p>${flags ? `<p><em>${esc(flags)}</em></p>` : ''}${children()}</aside>`;
+    return `<aside class="hazard-note hazard-${esc(a.level)}"><p><strong>${SAFETY_SIGNS[a.level].word}</strong></p>${flags ? `<p><em>${esc(flags)}</em></p>` : ''}${children()}</aside>`;
   },
   step: (a, { node, section, position }) => {
     const flags = hazardFlagList(a);

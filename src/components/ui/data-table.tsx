@@ -14,7 +14,7 @@ export function DataTable({
   label?: string;
 }) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-card">
+    <div className="relative overflow-x-auto rounded-lg border border-rule bg-card">
       <table aria-label={label} className="w-full text-left text-sm">
         <thead className="border-b border-rule bg-paper-deep">
           <tr>

@@ -6,10 +6,12 @@ import {
   type HazardFlag,
   type HazardNoteAttrs,
 } from '@shared/document/schema';
-import { HazardTriangle } from '@/features/procedures/components/hazard-triangle';
+import { SAFETY_SIGNS, SIGNAL_LEVELS, type SignalLevel } from '@shared/safety-signs';
+import { WarningTriangle } from '@/components/ui/safety-sign';
 
 export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewProps) {
   const attrs = node.attrs as HazardNoteAttrs;
+  const sign = SAFETY_SIGNS[attrs.level];
   const groupId = useId();
   // Only ticked flags are kept; none ticked is stored as "not stated".
   const setFlag = (flag: HazardFlag, on: boolean) => {
@@ -19,28 +21,36 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
   return (
     <NodeViewWrapper
       data-block-id={attrs.id}
-      className="hazard-note not-prose my-4 flex gap-3 rounded-md border-4 border-hazard-ink bg-hazard p-3 text-hazard-ink"
+      className="hazard-note not-prose my-4 overflow-hidden rounded-md border-4 bg-card text-graphite"
+      style={{ borderColor: sign.field }}
     >
-      <HazardTriangle className="size-10 shrink-0" />
-      <div className="flex flex-1 flex-col gap-1">
-        <div className="flex items-center gap-2" contentEditable={false}>
-          <select
-            aria-label="Hazard level"
-            className="min-h-9 rounded border-2 border-hazard-ink bg-hazard px-2 text-sm font-bold uppercase"
-            value={attrs.level}
-            onChange={(e) => updateAttributes({ level: e.target.value })}
-          >
-            <option value="danger">Danger</option>
-            <option value="warning">Warning</option>
-          </select>
-          <button
-            type="button"
-            className="ml-auto min-h-9 rounded border-2 border-hazard-ink px-2 text-xs font-semibold"
-            onClick={deleteNode}
-          >
-            Remove block
-          </button>
-        </div>
+      <div
+        className="flex items-center gap-2 px-2 py-1"
+        style={{ backgroundColor: sign.field, color: sign.ink }}
+        contentEditable={false}
+      >
+        {sign.triangle && <WarningTriangle className="size-6" />}
+        <select
+          aria-label="Hazard level"
+          className="min-h-9 rounded border-2 border-current bg-transparent px-2 text-sm font-bold tracking-wider"
+          value={attrs.level}
+          onChange={(e) => updateAttributes({ level: e.target.value as SignalLevel })}
+        >
+          {SIGNAL_LEVELS.map((l) => (
+            <option key={l} value={l} className="bg-card text-graphite">
+              {SAFETY_SIGNS[l].word}: {SAFETY_SIGNS[l].meaning}
+            </option>
+          ))}
+        </select>
+        <button
+          type="button"
+          className="ml-auto min-h-9 rounded border-2 border-current px-2 text-xs font-semibold"
+          onClick={deleteNode}
+        >
+          Remove block
+        </button>
+      </div>
+      <div className="flex flex-col gap-1 p-3">
         <fieldset
           className="flex flex-wrap gap-x-4 gap-y-1 text-sm"
           contentEditable={false}
@@ -55,7 +65,7 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
             <label key={f} className="flex min-h-9 items-center gap-2">
               <input
                 type="checkbox"
-                className="size-5 accent-hazard-ink"
+                className="size-5 accent-graphite"
                 checked={attrs.flags?.[f] === true}
                 onChange={(e) => setFlag(f, e.target.checked)}
               />

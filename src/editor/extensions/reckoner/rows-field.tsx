@@ -25,7 +25,7 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
   return (
     <fieldset className="flex min-w-0 flex-col gap-2">
       <legend className="text-xs font-semibold">{spec.label}</legend>
-      <div className="overflow-x-auto">
+      <div className="relative overflow-x-auto">
         <table className="w-full text-left text-sm">
           <thead>
             <tr>

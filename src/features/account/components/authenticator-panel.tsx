@@ -202,7 +202,7 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
           )}
           <p className="text-sm">
             Cannot scan? Enter this key by hand (time-based, 6 digits):{' '}
-            <code data-testid="totp-key" className="value break-all rounded bg-paper px-1">
+            <code data-testid="totp-key" className="break-all rounded bg-paper px-1 font-mono">
               {start.data.secret}
             </code>
           </p>

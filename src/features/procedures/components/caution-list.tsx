@@ -1,11 +1,6 @@
 import type { Caution } from '@shared/reckoners';
-
-/** The signal word and colours of each level: one definition for cautions and the procedure check. */
-export const LEVEL: Record<Caution['level'], { word: string; style: string }> = {
-  danger: { word: 'Danger', style: 'border-hazard-ink bg-hazard text-hazard-ink' },
-  warning: { word: 'Warning', style: 'border-out bg-out-wash text-graphite' },
-  note: { word: 'Note', style: 'border-rule bg-paper text-graphite' },
-};
+import { signFor } from '@shared/safety-signs';
+import { SignalWord } from '@/components/ui/safety-sign';
 
 /** A reckoner's cautions, most serious first, each with its level spelled out (never colour alone). */
 export function CautionList({ cautions }: { cautions: Caution[] }) {
@@ -18,10 +13,11 @@ export function CautionList({ cautions }: { cautions: Caution[] }) {
         <li
           key={c.code + c.message}
           data-caution={c.level}
-          className={`rounded border-2 px-3 py-2 text-sm ${LEVEL[c.level].style}`}
+          className="rounded border-2 bg-card px-3 py-2 text-sm text-graphite"
+          style={{ borderColor: signFor(c.level).field }}
         >
-          <strong>{LEVEL[c.level].word}:</strong> {c.message}
-          {c.source && <span className="block text-xs opacity-80">Source: {c.source}</span>}
+          <SignalWord level={c.level} size="sm" /> {c.message}
+          {c.source && <span className="block text-xs text-graphite-soft">Source: {c.source}</span>}
         </li>
       ))}
     </ul>

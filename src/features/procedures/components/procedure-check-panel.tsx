@@ -1,5 +1,5 @@
 import type { LintWarning } from '@shared/document/lint';
-import { LEVEL } from './caution-list';
+import { SignalWord } from '@/components/ui/safety-sign';
 
 const ORDER = { danger: 0, warning: 1, note: 2 } as const;
 
@@ -18,10 +18,7 @@ function WarningList({
       {sorted.map((w, i) => {
         const body = (
           <>
-            <strong className={`mr-1 rounded border px-1 text-xs uppercase ${LEVEL[w.level].style}`}>
-              {LEVEL[w.level].word}
-            </strong>{' '}
-            {w.message}
+            <SignalWord level={w.level} size="sm" /> {w.message}
           </>
         );
         return (

@@ -80,7 +80,7 @@ export function ProcedureTable({
     getCoreRowModel: getCoreRowModel(),
   });
   return (
-    <div className="overflow-x-auto rounded-lg border border-rule bg-card">
+    <div className="relative overflow-x-auto rounded-lg border border-rule bg-card">
       <table className="w-full text-left text-sm" aria-label="Procedures">
         <thead className="border-b border-rule bg-paper-deep">
           {table.getHeaderGroups().map((hg) => (

@@ -26,7 +26,7 @@ export function TextDiffView({ lines }: { lines: DiffLine[] }) {
   return (
     <div
       aria-label="Text changes"
-      className="overflow-x-auto rounded-lg border border-rule bg-card font-serif text-sm"
+      className="relative overflow-x-auto rounded-lg border border-rule bg-card font-serif text-sm"
     >
       {rows.map((row, i) =>
         'fold' in row ? (

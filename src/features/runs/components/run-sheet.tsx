@@ -9,6 +9,7 @@ import type { RunView } from '@shared/schemas/runs';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { DeviationPlot } from './deviation-plot';
 import { Mark } from './mark';
+import { SafetySign } from '@/components/ui/safety-sign';
 
 const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
   signed: 'border-ok text-ok',
@@ -29,7 +30,7 @@ function Fields({ fields }: { fields: SheetField[] }) {
             {...(f.tag ? { [`data-${f.tag}`]: '' } : {})}
             className={[
               'min-w-0 break-words',
-              f.mono && 'value break-all',
+              f.mono && 'font-mono break-all',
               f.tone === 'ok' && 'text-ok',
               f.tone === 'out' && 'font-semibold text-out',
             ]
@@ -80,9 +81,9 @@ export function RunSheet({ run }: { run: RunView }) {
         </div>
       </header>
 
-      <section className="rounded-md border-2 border-hazard-ink bg-hazard/30 p-3">
+      <SafetySign level="danger" as="div" className="print:break-inside-avoid">
         <SafetyCaution caution={sheet.caution} />
-      </section>
+      </SafetySign>
 
       <section className="grid grid-cols-1 gap-4 sm:grid-cols-2 print:grid-cols-2">
         <Card title={SHEET_HEADINGS.unit} fields={sheet.unit} />
@@ -92,7 +93,7 @@ export function RunSheet({ run }: { run: RunView }) {
 
       <section>
         <h2 className="mb-2 text-lg font-semibold">{SHEET_HEADINGS.readings}</h2>
-        <div className="overflow-x-auto rounded-lg border border-rule bg-card">
+        <div className="relative overflow-x-auto rounded-lg border border-rule bg-card">
           <table className="w-full text-left text-sm">
             <thead className="border-b border-rule bg-paper-deep">
               <tr>

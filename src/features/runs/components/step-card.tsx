@@ -7,6 +7,8 @@ import { dismissRefused, queueEntry, type PendingEntry } from '../lib/entry-queu
 import { liveCheck } from '../lib/live-check';
 import { Mark } from './mark';
 import { StepPhoto } from './step-photo';
+import { signFor } from '@shared/safety-signs';
+import { SignalWord } from '@/components/ui/safety-sign';
 
 interface Props {
   runId: string;
@@ -259,9 +261,7 @@ function TickStep({ runId, step, entry, pending }: Props) {
   };
   return (
     <div className="flex flex-col gap-3">
-      <p className={hazard ? 'whitespace-pre-line text-base font-semibold text-hazard-ink' : 'text-base'}>
-        {step.text}
-      </p>
+      <p className={hazard ? 'whitespace-pre-line text-base font-semibold' : 'text-base'}>{step.text}</p>
       {!hazard && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Note (optional)
@@ -288,7 +288,7 @@ function TickStep({ runId, step, entry, pending }: Props) {
         aria-pressed={done}
         onClick={toggle}
         disabled={(hazard && done) || (!hazard && done && unticking && !reason.trim())}
-        className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-hazard-ink bg-hazard text-hazard-ink' : 'border-accent-deep bg-card text-accent-deep'} disabled:opacity-90`}
+        className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-graphite bg-card text-graphite' : 'border-accent-deep bg-card text-accent-deep'} disabled:opacity-90`}
       >
         {hazard
           ? done
@@ -308,10 +308,9 @@ function TickStep({ runId, step, entry, pending }: Props) {
 export function StepCard(props: Props) {
   const { step, locked, entry, pending, runId, photos } = props;
   const hazard = step.kind === 'hazard';
-  const kindLabel = hazard
-    ? step.hazard?.level === 'danger'
-      ? 'Hazard note: danger'
-      : 'Hazard note: warning'
+  const sign = hazard ? signFor(step.hazard?.level ?? 'danger') : null;
+  const kindLabel = sign
+    ? `Hazard note: ${sign.word.toLowerCase()}`
     : step.kind === 'reading'
       ? step.live
         ? 'Reading (live)'
@@ -322,8 +321,10 @@ export function StepCard(props: Props) {
       data-step-id={step.id}
       data-step-kind={step.kind}
       aria-labelledby={`step-${step.id}-title`}
-      className={`flex flex-col gap-3 rounded-lg border-2 p-4 ${hazard ? 'border-hazard-ink bg-hazard/25 [border-style:dashed]' : locked ? 'border-dashed border-rule bg-paper' : 'border-rule bg-card'}`}
+      className={`flex flex-col gap-3 rounded-lg p-4 ${hazard ? 'border-4 bg-card' : locked ? 'border-2 border-dashed border-rule bg-paper' : 'border-2 border-rule bg-card'}`}
+      style={sign ? { borderColor: sign.field } : undefined}
     >
+      {hazard && <SignalWord level={step.hazard?.level ?? 'danger'} />}
       <header className="flex flex-wrap items-baseline gap-x-3">
         <span className="value text-sm text-graphite-soft">Step {step.position}</span>
         <span className="text-xs font-semibold uppercase tracking-wide text-graphite-soft">{kindLabel}</span>
@@ -332,7 +333,7 @@ export function StepCard(props: Props) {
       {hazard && !!step.hazard?.flags?.length && (
         <ul className="flex flex-wrap gap-1 text-sm font-semibold" aria-label="Live-work cautions">
           {step.hazard.flags.map((f) => (
-            <li key={f} className="rounded border-2 border-hazard-ink px-2 py-0.5">
+            <li key={f} className="rounded border-2 border-graphite px-2 py-0.5">
               {f}
             </li>
           ))}

@@ -9,7 +9,7 @@ export function ReadingsTable({
   live?: ReadonlySet<string>;
 }) {
   return (
-    <div className="not-prose my-4 overflow-x-auto rounded-lg border border-rule bg-card">
+    <div className="not-prose my-4 relative overflow-x-auto rounded-lg border border-rule bg-card">
       <table className="readings-table w-full text-left text-sm">
         <caption className="sr-only">Readings to take</caption>
         <thead className="border-b border-rule bg-paper-deep">
