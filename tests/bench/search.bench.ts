@@ -12,7 +12,7 @@ import { recreateDatabase, startCluster, stopCluster } from '../../server/bootst
 import { SearchIndex } from '../../server/search/search-index';
 import { canonicalText } from '../../server/search/vocabulary';
 import { generateCorpus, PLANTED, shuffled } from '../support/search-corpus';
-import { LABELLED_QUERIES, NEGATIVE_QUERIES } from '../server/search-queries';
+import { LABELLED_QUERIES, NEGATIVE_QUERIES } from '../server/search/search-queries';
 
 const CORPUS_SIZE = 10_000;
 const ROUNDS = 20;

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useId } from 'react';
 import type { RunPhotoView } from '@shared/schemas/runs';
 import { uploadStepPhoto } from '../api/upload-photo';
 import { runKeys } from '../api/keys';
+import { PhotoPicker } from '@/components/ui/photo-picker';
 
 /** A photo for one step, taken with the tablet's camera where it has one. */
 export function StepPhoto({
@@ -16,7 +16,6 @@ export function StepPhoto({
   photos: RunPhotoView[];
   disabled?: boolean;
 }) {
-  const id = useId();
   const queryClient = useQueryClient();
   const upload = useMutation({
     mutationFn: (file: File) => uploadStepPhoto(runId, stepId, file),
@@ -34,26 +33,8 @@ export function StepPhoto({
         </a>
       ))}
       {!disabled && (
-        <label
-          htmlFor={id}
-          className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep"
-        >
-          {upload.isPending ? 'Sending photo…' : 'Add photo'}
-          <input
-            id={id}
-            type="file"
-            accept="image/png,image/jpeg,image/webp"
-            capture="environment"
-            className="sr-only"
-            onChange={(e) => {
-              const file = e.target.files?.[0];
-              if (file) upload.mutate(file);
-              e.target.value = '';
-            }}
-          />
-        </label>
+        <PhotoPicker onPick={(file) => upload.mutate(file)} pending={upload.isPending} error={upload.error} />
       )}
-      {upload.error && <span className="text-sm text-out">{upload.error.message}</span>}
     </div>
   );
 }

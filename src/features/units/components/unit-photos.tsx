@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useId, useState } from 'react';
+import { useState } from 'react';
 import type { UnitPhotoView } from '@shared/schemas/units';
 import { unitKeys } from '../api/keys';
 import { uploadUnitPhoto } from '../api/upload-photo';
+import { PhotoPicker } from '@/components/ui/photo-picker';
 
 export function UnitPhotos({
   unitId,
@@ -13,7 +14,6 @@ export function UnitPhotos({
   photos: UnitPhotoView[];
   canAdd: boolean;
 }) {
-  const id = useId();
   const queryClient = useQueryClient();
   const [caption, setCaption] = useState('');
   const add = useMutation({
@@ -50,25 +50,12 @@ export function UnitPhotos({
               className="min-h-12 rounded-md border border-rule bg-card px-3 font-normal"
             />
           </label>
-          <label
-            htmlFor={id}
-            className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep"
-          >
-            {add.isPending ? 'Sending…' : 'Add photo'}
-            <input
-              id={id}
-              type="file"
-              accept="image/png,image/jpeg,image/webp"
-              capture="environment"
-              className="sr-only"
-              onChange={(e) => {
-                const f = e.target.files?.[0];
-                if (f) add.mutate(f);
-                e.target.value = '';
-              }}
-            />
-          </label>
-          {add.error && <span className="text-sm text-out">{add.error.message}</span>}
+          <PhotoPicker
+            onPick={(file) => add.mutate(file)}
+            pending={add.isPending}
+            error={add.error}
+            pendingText="Sending…"
+          />
         </div>
       )}
     </div>
