@@ -6,7 +6,7 @@
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/bootstrap/prepare';
 import { useBrowserApp } from '../support/e2e';
 import { routeTour, type Visit, type Visitor } from '../support/route-tour';
@@ -19,6 +19,9 @@ const SCREENS = path.join(projectRoot, '.data', 'screens');
 let tour: Visit[] = [];
 beforeAll(async () => {
   tour = await routeTour(app.databaseUrl);
+});
+afterAll(() => {
+  console.log(`[layout] screenshots of every route at 1366 and 390 px: ${SCREENS}`);
 });
 
 /** What sticks out past the right edge: a few elements, named so a person can find them. */
