@@ -3,40 +3,10 @@ import type { Db, Tx } from '../db/client';
 import { auditLog } from '../db/schema';
 import { oneLine } from '../http/clean-text';
 
-/** Every action the audit log records; the admin page filters by these. */
-export const AUDIT_ACTIONS = [
-  'sign-in',
-  'sign-in.failed',
-  'sign-out',
-  'sign-out.everywhere',
-  'sign-in.code-failed',
-  'reauth.failed',
-  'person.invited',
-  'person.password-set',
-  'person.password-changed',
-  'person.password-reset-sent',
-  'person.second-factor-enabled',
-  'person.second-factor-disabled',
-  'person.second-factor-reset',
-  'person.recovery-codes-renewed',
-  'settings.changed',
-  'person.roles-changed',
-  'person.deactivated',
-  'person.reactivated',
-  'revision.submitted',
-  'revision.approved',
-  'revision.returned',
-  'revision.superseded',
-  'revision.withdrawn',
-  'sign-off.reauthenticated',
-  'sign-off.failed',
-  'review.commented',
-  'run.signed',
-  'run.handed-over',
-  'run.abandoned',
-] as const;
+import type { AuditAction } from '../../shared/audit-actions';
 
-export type AuditAction = (typeof AUDIT_ACTIONS)[number];
+/** The actions and their words live in shared/audit-actions.ts (one registry for server and page). */
+export { AUDIT_ACTIONS, type AuditAction } from '../../shared/audit-actions';
 
 /**
  * Appends one row to the audit log. Free text is cut short and stripped of control characters.

@@ -7,6 +7,7 @@ import { AuditTable } from '@/features/audit/components/audit-table';
 import { ChainCheck } from '@/features/audit/components/chain-check';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { usePeople } from '@/features/people/api/get-people';
+import { auditActionLabel } from '@shared/audit-actions';
 
 export default function AuditPage() {
   const session = useSession();
@@ -41,7 +42,7 @@ export default function AuditPage() {
             <option value="">All actions</option>
             {(log.data?.actions ?? []).map((a) => (
               <option key={a} value={a}>
-                {a}
+                {auditActionLabel(a)}
               </option>
             ))}
           </select>

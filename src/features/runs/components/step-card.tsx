@@ -172,6 +172,7 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
           {recorded !== null ? 'Correct the reading' : 'Measured'} ({r.unit})
           <input
             aria-label={`Measured: ${step.text}`}
+            inputMode="decimal"
             autoComplete="off"
             spellCheck={false}
             {...form.register('value')}
