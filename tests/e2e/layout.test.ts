@@ -101,3 +101,26 @@ describe('no page is wider than the window', () => {
     }, 300_000);
   }
 });
+
+describe('a bench run on a phone', () => {
+  it('shows the first step without scrolling at 390 × 844, the menu folded away', async () => {
+    const visit = tour.find((v) => v.route === 'run')!;
+    const context = await app.browser.newContext({ viewport: { width: 390, height: 844 } });
+    try {
+      const page = await context.newPage();
+      await app.signIn(page, visit.who as 'tom');
+      await page.goto(app.url + visit.url);
+      const first = page.locator('article[data-step-id]').first();
+      await first.waitFor();
+      const box = await first.boundingBox();
+      expect(box!.y, 'top of the first step (px from the top of the window)').toBeLessThan(844 - 120);
+      expect(await page.getByRole('navigation', { name: 'Main' }).isVisible()).toBe(false);
+      // The menu opens on demand and its links work.
+      await page.getByRole('button', { name: 'Menu' }).click();
+      await page.getByRole('link', { name: 'Units', exact: true }).click();
+      await page.getByRole('heading', { name: 'Units' }).waitFor();
+    } finally {
+      await context.close();
+    }
+  }, 60_000);
+});

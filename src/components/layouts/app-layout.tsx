@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
@@ -25,6 +26,10 @@ const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
 export function AppLayout() {
   const session = useSession();
   const location = useLocation();
+  // On a phone the header folds to one line (brand and a menu button), so the page starts at once.
+  const [menu, setMenu] = useState<{ open: boolean; at: string }>({ open: false, at: location.pathname });
+  const menuOpen = menu.open && menu.at === location.pathname;
+  const folded = menuOpen ? '' : 'max-md:hidden';
   const navigate = useNavigate();
   const signOut = useSignOut();
 
@@ -55,7 +60,16 @@ export function AppLayout() {
           <NavLink to={paths.home.href()} className="text-lg font-semibold tracking-tight text-accent-deep">
             Benchwright
           </NavLink>
-          <nav aria-label="Main" className="flex flex-wrap gap-1">
+          <button
+            type="button"
+            className="ml-auto min-h-11 rounded-md border border-rule bg-card px-3 text-sm md:hidden"
+            aria-expanded={menuOpen}
+            aria-controls="main-menu"
+            onClick={() => setMenu({ open: !menuOpen, at: location.pathname })}
+          >
+            {menuOpen ? 'Close menu' : 'Menu'}
+          </button>
+          <nav id="main-menu" aria-label="Main" className={`flex flex-wrap gap-1 max-md:w-full ${folded}`}>
             {links.map((l) => (
               <NavLink
                 key={l.to}
@@ -69,8 +83,10 @@ export function AppLayout() {
               </NavLink>
             ))}
           </nav>
-          <SearchBox />
-          <div className="ml-auto flex items-center gap-3 text-sm">
+          <div className={`max-md:w-full ${folded}`}>
+            <SearchBox />
+          </div>
+          <div className={`ml-auto flex items-center gap-3 text-sm ${folded}`}>
             <NavLink
               to={paths.account.href()}
               className="rounded-md px-2 py-2 hover:bg-paper"

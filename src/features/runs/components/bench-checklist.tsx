@@ -127,7 +127,18 @@ export function BenchChecklist({
           </button>
         </div>
       )}
-      <SignRunForm runId={run.id} ready={done === total && waiting === 0} onSigned={onSigned} />
+      {/* The signing panel comes only when there is something to sign: every step done and saved. */}
+      {done === total && waiting === 0 ? (
+        <SignRunForm runId={run.id} ready onSigned={onSigned} />
+      ) : (
+        <p data-sign-waiting className="rounded-md border border-dashed border-rule px-4 py-3 text-sm">
+          The run sheet can be signed once every step is done
+          {waiting > 0
+            ? ` and ${waiting} queued ${waiting === 1 ? 'entry reaches' : 'entries reach'} the server`
+            : ''}{' '}
+          ({total - done} of {total} steps left).
+        </p>
+      )}
     </div>
   );
 }
