@@ -1,7 +1,6 @@
 import type { BlockSnapshot } from '@shared/document/evaluate';
 import type { FieldError } from '@shared/reckoners';
 import { CautionList } from '@/features/procedures/components/caution-list';
-import { Figure } from '@/features/procedures/components/reader/figure';
 
 interface Props {
   result: BlockSnapshot | undefined;
@@ -43,8 +42,12 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
         {Object.entries(result.outputs).map(([key, out]) => (
           <div key={key} data-output={key} className="flex flex-col">
             <dt className="text-xs text-graphite-soft">{out.label}</dt>
-            <dd className="text-base">
-              <Figure formatted={out.formatted} measure={out.measure} strong />
+            {/* A figure stays on one line; a long text result wraps. */}
+            <dd
+              data-figure
+              className={`text-base font-semibold ${typeof out.value === 'string' && out.formatted.length > 24 ? 'break-words font-mono' : 'value'}`}
+            >
+              {out.formatted}
             </dd>
             <dd className="text-xs text-graphite-soft">{out.explanation}</dd>
           </div>
