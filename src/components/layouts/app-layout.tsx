@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { matchPath, Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
@@ -23,6 +23,8 @@ const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
 ];
 
 /** The signed-in shell: header with the role's navigation, the page, the standing safety caution. */
+const OWN_CAUTION = [paths.revision.pattern, paths.runSheet.pattern];
+
 export function AppLayout() {
   const session = useSession();
   const location = useLocation();
@@ -108,11 +110,14 @@ export function AppLayout() {
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">
         <Outlet />
       </main>
-      <footer className="no-print border-t border-rule px-4 py-4">
-        <div className="mx-auto max-w-6xl">
-          <SafetyCaution />
-        </div>
-      </footer>
+      {/* Pages that carry the caution as a sign of their own (a procedure, a run sheet) do not repeat it. */}
+      {!OWN_CAUTION.some((p) => matchPath(p, location.pathname)) && (
+        <footer className="no-print border-t border-rule px-4 py-4">
+          <div className="mx-auto max-w-6xl">
+            <SafetyCaution />
+          </div>
+        </footer>
+      )}
     </div>
   );
 }

@@ -11,6 +11,7 @@ import { DocumentView } from '@/features/procedures/components/reader/document-v
 import { RevisionActions } from '@/features/procedures/components/revision-actions';
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
 import { StateBadge } from '@/features/procedures/components/state-badge';
+import { SafetySign } from '@/components/ui/safety-sign';
 
 /** Reading one revision: header, the standing caution, the document with its stored results. */
 export default function RevisionPage() {
@@ -71,9 +72,9 @@ export default function RevisionPage() {
           use it at the bench.
         </Notice>
       )}
-      <div className="rounded-md border-2 border-hazard-ink bg-card p-3">
+      <SafetySign level="danger" as="div">
         <SafetyCaution />
-      </div>
+      </SafetySign>
       <RegionBoundary label="Procedure text">
         <DocumentView doc={r.document} snapshot={r.snapshot} reckoners={r.reckoners} />
       </RegionBoundary>
