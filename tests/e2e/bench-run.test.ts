@@ -35,6 +35,7 @@ describe('a bench run in Chromium', () => {
     await form.getByLabel('Owner').fill('Wren Halloway');
     await form.getByLabel('Job number').fill('J-2207');
     await form.getByRole('button', { name: 'Register unit' }).click();
+    await page.getByText('Registered TC-18 serial TC18-0457.').waitFor();
     await page.getByRole('link', { name: 'TC18-0457' }).click();
     await page.getByRole('heading', { name: /TC-18 · TC18-0457/ }).waitFor();
 

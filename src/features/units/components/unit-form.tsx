@@ -5,6 +5,8 @@ import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
 import { showServerError, useZodForm } from '@/lib/form';
 import { useSaveUnit } from '../api/save-unit';
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 
 /** Register a unit, or edit one (with its lock version, so two edits never silently overwrite). */
 export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: UnitView) => void }) {
@@ -42,6 +44,14 @@ export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: Uni
       <h2 className="text-lg font-semibold">{unit ? 'Edit unit' : 'Register a unit'}</h2>
       <FormProblem formState={form.formState} />
       {save.isSuccess && unit && <Notice tone="success">Saved.</Notice>}
+      {save.isSuccess && !unit && save.data && (
+        <Notice tone="success">
+          Registered {save.data.unit.model} serial {save.data.unit.serial}.{' '}
+          <Link to={paths.unit.href(save.data.unit.id)} className="font-semibold underline">
+            Open its page
+          </Link>
+        </Notice>
+      )}
       <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
           label="Model"
