@@ -26,7 +26,8 @@ export function TextDiffView({ lines }: { lines: DiffLine[] }) {
   return (
     <div
       aria-label="Text changes"
-      className="relative overflow-x-auto rounded-lg border border-rule bg-card font-serif text-sm"
+      role="region"
+      className="rounded-lg border border-rule bg-card font-serif text-sm"
     >
       {rows.map((row, i) =>
         'fold' in row ? (
@@ -38,10 +39,13 @@ export function TextDiffView({ lines }: { lines: DiffLine[] }) {
             <span aria-hidden className="value w-3 select-none text-graphite-soft">
               {MARK[row.kind]}
             </span>
-            <span className="whitespace-pre-wrap">
+            <span className="min-w-0 whitespace-pre-wrap break-words">
               {row.parts.map((p, j) =>
                 p.op === 'add' ? (
-                  <ins key={j} className="bg-accent-wash text-accent-deep underline decoration-2">
+                  <ins
+                    key={j}
+                    className="rounded-sm bg-accent-wash px-0.5 font-semibold text-accent-deep no-underline"
+                  >
                     {p.text}
                   </ins>
                 ) : p.op === 'del' ? (
