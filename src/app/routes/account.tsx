@@ -5,6 +5,7 @@ import { useAccount } from '@/features/account/api/account';
 import { AuthenticatorPanel } from '@/features/account/components/authenticator-panel';
 import { ChangePasswordForm } from '@/features/account/components/change-password-form';
 import { SignOutEverywhere } from '@/features/account/components/sign-out-everywhere';
+import { Loading } from '@/components/ui/loading';
 
 export default function AccountPage() {
   const account = useAccount();
@@ -14,7 +15,7 @@ export default function AccountPage() {
   return (
     <section className="flex max-w-2xl flex-col gap-6">
       <h1 className="text-2xl font-semibold">Your account</h1>
-      {account.isPending && <p>Loading…</p>}
+      {account.isPending && <Loading />}
       {account.isError && (
         <Problem error={account.error} heading="h2" onRetry={() => void account.refetch()} />
       )}

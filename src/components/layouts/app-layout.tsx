@@ -8,6 +8,7 @@ import { SafetyCaution } from '@/components/ui/safety-caution';
 import { Notice } from '@/components/ui/notice';
 import { SearchBox } from '@/features/search/components/search-box';
 import type { Role } from '@shared/schemas/roles';
+import { Loading } from '@/components/ui/loading';
 
 /** Navigation, once: each entry names the roles that see it. */
 const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
@@ -35,7 +36,7 @@ export function AppLayout() {
   const navigate = useNavigate();
   const signOut = useSignOut();
 
-  if (session.isPending) return <p className="p-8 text-graphite-soft">Loading…</p>;
+  if (session.isPending) return <Loading />;
   if (session.isError)
     return (
       <main className="mx-auto max-w-xl p-8">

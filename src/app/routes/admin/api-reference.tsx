@@ -3,6 +3,7 @@ import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useOpenApi, type OperationObject } from '@/features/api-reference/api/get-openapi';
 import { describeSchema, SchemaFields } from '@/features/api-reference/components/schema-fields';
+import { Loading } from '@/components/ui/loading';
 
 const accessText = (access: OperationObject['x-access']) =>
   access === 'public' ? 'anyone' : access === 'signed-in' ? 'anyone signed in' : access.join(', ');
@@ -29,7 +30,7 @@ export default function ApiReferencePage() {
         <a href="/api/openapi.json">/api/openapi.json</a>.
       </p>
       {doc.isError && <Notice tone="error">{doc.error.message}</Notice>}
-      {doc.isPending && <p className="text-graphite-soft">Loading…</p>}
+      {doc.isPending && <Loading />}
       {operations.map(({ path, method, op }) => {
         const body = op.requestBody?.content['application/json']?.schema;
         return (

@@ -7,6 +7,7 @@ import { usePeople } from '@/features/people/api/get-people';
 import { InviteForm } from '@/features/people/components/invite-form';
 import { PeopleTable } from '@/features/people/components/people-table';
 import { SignInSettingsPanel } from '@/features/people/components/sign-in-settings';
+import { Loading } from '@/components/ui/loading';
 
 export default function PeoplePage() {
   const session = useSession();
@@ -19,7 +20,7 @@ export default function PeoplePage() {
   return (
     <section className="flex flex-col gap-6">
       <h1 className="text-2xl font-semibold">People</h1>
-      {people.isPending && <p>Loading…</p>}
+      {people.isPending && <Loading />}
       {people.isError && <Problem error={people.error} heading="h2" onRetry={() => void people.refetch()} />}
       {people.data && <PeopleTable people={people.data.people} selfId={session.data!.user!.id} />}
       <InviteForm />

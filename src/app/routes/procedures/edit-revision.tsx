@@ -5,6 +5,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRevision } from '@/features/procedures/api/get-revision';
 import { DraftWorkspace } from '@/features/procedures/draft/draft-workspace';
+import { Loading } from '@/components/ui/loading';
 
 /** The only route that loads the editor (and with it TipTap): readers never download it. */
 export default function EditRevisionPage() {
@@ -20,7 +21,7 @@ export default function EditRevisionPage() {
   if (!hasRole(session.data?.user, 'author')) return <Notice tone="error">Only authors edit drafts.</Notice>;
   if (!data) {
     if (revision.isError) throw revision.error;
-    return <p className="text-graphite-soft">Loading the draft…</p>;
+    return <Loading what="the draft" />;
   }
   const r = data.revision;
   if (r.state !== 'draft') {

@@ -12,6 +12,7 @@ import { useProcedureFacets, useProcedures } from '@/features/procedures/api/get
 import { procedureListFromUrl } from '@/features/procedures/api/list-from-url';
 import { ProcedureFilters } from '@/features/procedures/components/procedure-filters';
 import { ProcedureTable } from '@/features/procedures/components/procedure-table';
+import { Loading } from '@/components/ui/loading';
 
 /** The list's state lives in the address, so a reload, the back button or a shared link keeps it. */
 function useListState() {
@@ -85,7 +86,7 @@ export default function ProceduresPage() {
         </label>
         <ProcedureFilters facets={facets.data} value={filters} onChange={(f) => update({ ...f, page: '' })} />
       </div>
-      {query.isPending && <p className="text-graphite-soft">Loading…</p>}
+      {query.isPending && <Loading />}
       {query.isError && <Problem error={query.error} heading="h2" onRetry={() => void query.refetch()} />}
       {data && (
         <>

@@ -4,6 +4,7 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useProcedure } from '@/features/procedures/api/get-procedure';
 import { StateBadge } from '@/features/procedures/components/state-badge';
+import { Loading } from '@/components/ui/loading';
 
 /** One procedure and its revisions, newest first. */
 export default function ProcedurePage() {
@@ -16,7 +17,7 @@ export default function ProcedurePage() {
   }, [query.data?.procedure.title]);
   if (!query.data) {
     if (query.isError) throw query.error;
-    return <p className="text-graphite-soft">Loading…</p>;
+    return <Loading />;
   }
   const { procedure, revisions } = query.data;
   return (

@@ -12,6 +12,7 @@ import { RevisionActions } from '@/features/procedures/components/revision-actio
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
 import { StateBadge } from '@/features/procedures/components/state-badge';
 import { SafetySign } from '@/components/ui/safety-sign';
+import { Loading } from '@/components/ui/loading';
 
 /** Reading one revision: header, the standing caution, the document with its stored results. */
 export default function RevisionPage() {
@@ -26,7 +27,7 @@ export default function RevisionPage() {
   if (!r) {
     // Nothing to show: the route's error boundary says why, with a way back.
     if (query.isError) throw query.error;
-    return <p className="text-graphite-soft">Loading…</p>;
+    return <Loading />;
   }
   return (
     <article className="reader mx-auto flex max-w-4xl flex-col gap-4">

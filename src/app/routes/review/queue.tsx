@@ -4,6 +4,7 @@ import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useReviewQueue } from '@/features/review/api/review-queries';
 import { QueueTable } from '@/features/review/components/queue-table';
+import { Loading } from '@/components/ui/loading';
 
 export default function ReviewQueuePage() {
   const session = useSession();
@@ -19,7 +20,7 @@ export default function ReviewQueuePage() {
       <p className="text-sm text-graphite-soft">
         Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.
       </p>
-      {queue.isPending && <p>Loading…</p>}
+      {queue.isPending && <Loading />}
       {queue.isError && <Problem error={queue.error} heading="h2" onRetry={() => void queue.refetch()} />}
       {queue.data && <QueueTable items={queue.data.items} />}
     </section>

@@ -14,6 +14,7 @@ import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign
 import { TextDiffView } from '@/features/review/components/text-diff-view';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
 import { ReckonerCard } from '@/features/procedures/components/reader/reckoner-card';
+import { Loading } from '@/components/ui/loading';
 
 /** One revision under review: what changed against the last approved revision, comments, the signed decision. */
 export default function ReviewRevisionPage() {
@@ -29,7 +30,7 @@ export default function ReviewRevisionPage() {
 
   if (!v) {
     if (query.isError) throw query.error;
-    return <p className="text-graphite-soft">Loading…</p>;
+    return <Loading />;
   }
   const r = v.revision;
   const closeDialog = () => {

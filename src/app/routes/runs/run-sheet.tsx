@@ -3,6 +3,7 @@ import { Link, useParams } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { useRun } from '@/features/runs/api/get-run';
 import { RunSheet } from '@/features/runs/components/run-sheet';
+import { Loading } from '@/components/ui/loading';
 
 export default function RunSheetPage() {
   const { runId = '' } = useParams();
@@ -11,7 +12,7 @@ export default function RunSheetPage() {
     if (run.data)
       document.title = `Run sheet: ${run.data.run.unit.model} ${run.data.run.unit.serial} · Benchwright`;
   }, [run.data]);
-  if (run.isPending) return <p>Loading…</p>;
+  if (run.isPending) return <Loading />;
   if (!run.data) throw run.error;
   const r = run.data.run;
   return (

@@ -9,6 +9,7 @@ import { BenchChecklist } from '@/features/runs/components/bench-checklist';
 import { HoldBanner, RunCustody, WaitingEntries } from '@/features/runs/components/run-custody';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
+import { Loading } from '@/components/ui/loading';
 
 /** The bench: checklist mode for the run's performer while it is open; the run sheet otherwise. */
 export default function RunPage() {
@@ -21,7 +22,7 @@ export default function RunPage() {
     if (run.data)
       document.title = `${run.data.run.unit.model} ${run.data.run.unit.serial}: bench run · Benchwright`;
   }, [run.data]);
-  if (run.isPending) return <p>Loading…</p>;
+  if (run.isPending) return <Loading />;
   // Nothing cached to work from: the route's error boundary says why. (With a cached run, a failed
   // refresh shows the offline banner below and the bench keeps working.)
   if (!run.data) throw run.error;

@@ -9,6 +9,7 @@ import { useUnitTrend } from '@/features/units/api/get-unit-trend';
 import { TrendPlot } from '@/features/units/components/trend-plot';
 import { UnitForm } from '@/features/units/components/unit-form';
 import { UnitPhotos } from '@/features/units/components/unit-photos';
+import { Loading } from '@/components/ui/loading';
 
 export default function UnitPage() {
   const { unitId = '' } = useParams();
@@ -24,7 +25,7 @@ export default function UnitPage() {
   useEffect(() => {
     if (!reading && trend.data?.readings[0]) setReading(trend.data.readings[0].id);
   }, [reading, trend.data]);
-  if (page.isPending) return <p>Loading…</p>;
+  if (page.isPending) return <Loading />;
   if (page.isError) throw page.error;
   const { unit, photos, runs } = page.data;
   const canKeep = hasRole(user, 'technician', 'author', 'reviewer', 'admin');

@@ -5,6 +5,7 @@ import { useUnits, type UnitFilter } from '@/features/units/api/get-units';
 import { UnitForm } from '@/features/units/components/unit-form';
 import { UnitsTable } from '@/features/units/components/units-table';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
+import { Loading } from '@/components/ui/loading';
 
 export default function UnitsPage() {
   const session = useSession();
@@ -64,7 +65,7 @@ export default function UnitsPage() {
       </div>
       {units.isError && <Problem error={units.error} heading="h2" onRetry={() => void units.refetch()} />}
       {units.isPending ? (
-        <p>Loading…</p>
+        <Loading />
       ) : (
         units.data && <UnitsTable units={units.data.units} unitPath={paths.unit.href} />
       )}
