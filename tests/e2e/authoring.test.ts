@@ -55,6 +55,8 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('link', { name: 'Procedures', exact: true }).first().click();
     await page.getByRole('link', { name: 'New procedure' }).click();
+    // The list (with its own title box) stays until the new page has loaded.
+    await page.getByRole('heading', { name: 'New procedure' }).waitFor();
     await page.getByLabel('Title').fill('TC-18 first power-up after recap');
     await page.getByLabel('Equipment family').fill('Guitar combo');
     await page.getByLabel('Model').fill('TC-18');

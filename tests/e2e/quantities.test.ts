@@ -46,6 +46,8 @@ describe('quantities in the editor', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.getByRole('link', { name: 'Procedures', exact: true }).first().click();
     await page.getByRole('link', { name: 'New procedure' }).click();
+    // The list (with its own title box) stays until the new page has loaded.
+    await page.getByRole('heading', { name: 'New procedure' }).waitFor();
     await page.getByLabel('Title').fill('TC-5R HT winding check');
     await page.getByLabel('Equipment family').fill('Table radio');
     await page.getByLabel('Model').fill('TC-5R');
