@@ -152,6 +152,9 @@ export function StartRunForm({
             onChange: (e: React.ChangeEvent<HTMLSelectElement>) =>
               setChosen(options.find((p) => p.id === e.target.value)),
           })}
+          // Controlled as well: a procedure chosen from the address gets its option a render after
+          // its value is set, and the select must show it then.
+          value={procedureId}
         >
           <option value="">Choose…</option>
           {options.map((p) => (
