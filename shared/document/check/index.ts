@@ -11,6 +11,7 @@ import type { ProcedureDoc } from '../schema';
 import { buildContext } from './context';
 import { capacitorRatingLow } from './rules/capacitors';
 import { reckonerCautions } from './rules/cautions';
+import { blockEmpty } from './rules/empty';
 import { dischargeCheckMissing, dischargeThresholdHigh, waitShorterThanBleeder } from './rules/discharge';
 import { hazardNoteMissing, liveStepUnguarded } from './rules/hazard';
 import { fuseReckonerMissing, procedureErrors, reckonerInputErrors } from './rules/inputs';
@@ -33,6 +34,7 @@ export const RULES: readonly Rule[] = [
   procedureErrors,
   hazardNoteMissing,
   liveStepUnguarded,
+  blockEmpty,
   dischargeCheckMissing,
   dischargeThresholdHigh,
   waitShorterThanBleeder,

@@ -19,7 +19,8 @@ export type LintCode =
   | 'reading-without-tolerance'
   | 'reading-unresolved'
   | 'reading-mains-unstated'
-  | 'fuse-reckoner-missing';
+  | 'fuse-reckoner-missing'
+  | 'block-empty';
 
 export interface LintWarning {
   code: LintCode;

@@ -497,6 +497,16 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     expectOnly(warnings, 'reading-unresolved', 'rd-bplus');
   });
 
+  it('a hazard note with no words, its flags kept (block-empty)', () => {
+    const { warnings } = plant(replace('hz-opening', note('  ', LIVE_WORK, 'danger', 'hz-opening')));
+    expect(expectOnly(warnings, 'block-empty', 'hz-opening')).toMatch(/hazard note at the top .* is empty/);
+  });
+
+  it('a check step with no words (block-empty)', () => {
+    const { warnings } = plant((nodes) => [...nodes, check('', {}, 'ck-empty')]);
+    expect(expectOnly(warnings, 'block-empty', 'ck-empty')).toMatch(/check step under “.+” is empty/);
+  });
+
   it('a powered procedure without a mains-fuse reckoner (fuse-reckoner-missing)', () => {
     const { warnings } = plant((nodes) => nodes.filter((n) => n.attrs?.kind !== 'mains-fuse'));
     expectOnly(warnings, 'fuse-reckoner-missing', null);
