@@ -106,6 +106,12 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
   };
 
   const entries = useMemo(() => blockCatalog(), []);
+  // The toolbar's block buttons run the same catalog entries as the Insert block list, so the caret
+  // lands in the new block's text either way.
+  const insertEntry = (key: string) => {
+    const entry = entries.find((e) => e.key === key);
+    if (entry) choose(entry);
+  };
   if (!editor) return null;
 
   return (
@@ -122,9 +128,9 @@ export function ProcedureEditor({ initialDoc, evaluation, onChange, ref }: Props
         <Toolbar
           editor={editor}
           onOpenMenu={(q) => openMenuRef.current(q)}
-          onInsertReading={() => editor.chain().focus().insertReading().run()}
-          onInsertCheck={() => editor.chain().focus().insertCheckStep().run()}
-          onInsertHazard={() => editor.chain().focus().insertHazardNote('danger').run()}
+          onInsertReading={() => insertEntry('reading')}
+          onInsertCheck={() => insertEntry('check')}
+          onInsertHazard={() => insertEntry('hazard')}
           upload={
             <>
               <UploadButton
