@@ -16,11 +16,12 @@ export function PhotoPicker({
   pendingText?: string;
 }) {
   const id = useId();
+  // The file input itself is visually hidden: its label, drawn as a button, shows the keyboard focus.
   return (
     <>
       <label
         htmlFor={id}
-        className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep"
+        className="inline-flex min-h-12 cursor-pointer items-center rounded-md border border-rule bg-card px-4 text-sm font-semibold hover:bg-paper-deep has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-offset-2 has-[:focus-visible]:outline-accent"
       >
         {pending ? pendingText : 'Add photo'}
         <input

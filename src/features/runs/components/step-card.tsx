@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useId, useMemo, useState } from 'react';
 import { z } from 'zod';
 import { entryBody, type EntryView, type RunPhotoView, type RunStep } from '@shared/schemas/runs';
 import { formatNumber, formatQuantity } from '@shared/units';
@@ -247,6 +247,15 @@ function TickStep({ runId, step, entry, pending }: Props) {
   const [reason, setReason] = useState('');
   const [unticking, setUnticking] = useState(false);
   const hazard = step.kind === 'hazard';
+  const whyId = useId();
+  const needsReason = !hazard && done && unticking && !reason.trim();
+  const inert = (hazard && done) || needsReason;
+  const why =
+    hazard && done
+      ? 'Acknowledged: an acknowledgement cannot be taken back.'
+      : needsReason
+        ? 'Type the reason above to un-tick this step.'
+        : '';
   const toggle = () => {
     if (hazard && done) return;
     if (done && !unticking) return setUnticking(true);
@@ -284,12 +293,14 @@ function TickStep({ runId, step, entry, pending }: Props) {
           />
         </label>
       )}
+      {/* aria-disabled, not disabled: a disabled button drops the keyboard focus to the page's top. */}
       <button
         type="button"
         aria-pressed={done}
         onClick={toggle}
-        disabled={(hazard && done) || (!hazard && done && unticking && !reason.trim())}
-        className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-graphite bg-card text-graphite' : 'border-accent-deep bg-card text-accent-deep'} disabled:opacity-90`}
+        aria-disabled={inert || undefined}
+        aria-describedby={why ? `${whyId}` : undefined}
+        className={`${big} self-start ${done ? 'border-ok bg-ok text-white' : hazard ? 'border-graphite bg-card text-graphite' : 'border-accent-deep bg-card text-accent-deep'} aria-disabled:cursor-not-allowed aria-disabled:opacity-90`}
       >
         {hazard
           ? done
@@ -301,6 +312,11 @@ function TickStep({ runId, step, entry, pending }: Props) {
               : '✓ Done (tap to un-tick)'
             : 'Mark as done'}
       </button>
+      {why && (
+        <p id={whyId} className="text-sm text-graphite-soft">
+          {why}
+        </p>
+      )}
     </div>
   );
 }
