@@ -109,8 +109,9 @@ describe('what was assumed, in Chromium', () => {
         .count(),
     ).toBe(0);
 
-    const calculations = reviewer.getByRole('region', { name: 'Calculations' });
-    const actual = calculations
+    // The revision as written, beside the changes, shows each block's inputs as the reader does.
+    const written = reviewer.getByRole('region', { name: /^Revision \d+ as written$/ });
+    const actual = written
       .getByRole('table', { name: 'Inputs of noLoad' })
       .getByRole('row')
       .filter({ hasText: 'Actual mains' });

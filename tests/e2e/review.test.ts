@@ -80,6 +80,31 @@ describe('review and sign-off in Chromium', () => {
       .filter({ hasText: 'tolerance' });
     await tolerance.waitFor();
     expect(await tolerance.innerText()).toMatch(/±10 %[\s\S]*±12 %/);
+    // The values have room: neither figure wraps (the layout is fixed, not squeezed by long names).
+    for (const figure of await tolerance.locator('.value').all())
+      expect(await figure.evaluate((e) => e.getClientRects().length)).toBe(1);
+    // The changed table can be scrolled from the keyboard: its box takes the focus and has a name.
+    expect(await reviewer.getByRole('region', { name: 'Value changes' }).getAttribute('tabindex')).toBe('0');
+
+    // The whole revision, rendered as the revision page renders it, beside the changes.
+    const written = reviewer.getByRole('region', { name: /^Revision \d+ as written$/ });
+    expect(await written.getAttribute('tabindex')).toBe('0');
+    await written.locator('.readings-table').getByText('Mains at the bench').first().waitFor();
+    await written.locator('[data-reckoner]').first().waitFor();
+    const [changesBox, writtenBox] = [await changes.boundingBox(), await written.boundingBox()];
+    expect(writtenBox!.x + writtenBox!.width).toBeLessThanOrEqual(changesBox!.x + 1); // side by side
+
+    // Text changes read as text changes: added words by colour and weight, removed ones struck through; no underline.
+    const diff = reviewer.getByRole('region', { name: 'Text changes' });
+    const added = diff.locator('ins').first();
+    await added.waitFor();
+    const style = (l: typeof added) =>
+      l.evaluate((e) => {
+        const s = getComputedStyle(e);
+        return { line: s.textDecorationLine, weight: Number(s.fontWeight) };
+      });
+    expect(await style(added)).toEqual({ line: 'none', weight: 600 });
+    expect((await style(diff.locator('del').first())).line).toBe('line-through');
 
     // Returning needs a comment: signing without one says so beside the field.
     await reviewer.getByRole('button', { name: 'Return with comments…' }).click();

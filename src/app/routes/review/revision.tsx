@@ -13,8 +13,20 @@ import { RevisionReviewPanel } from '@/features/review/components/revision-revie
 import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
-import { ReckonerCard } from '@/features/procedures/components/reader/reckoner-card';
+import { useRevision } from '@/features/procedures/api/get-revision';
+import { DocumentView } from '@/features/procedures/components/reader/document-view';
 import { Loading } from '@/components/ui/loading';
+
+/** The revision rendered as the revision page renders it: the same reader, so blocks look the same. */
+function WrittenRevision({ revisionId }: { revisionId: string }) {
+  const query = useRevision(revisionId);
+  const r = query.data?.revision;
+  if (!r) {
+    if (query.isError) throw query.error;
+    return <Loading />;
+  }
+  return <DocumentView doc={r.document} snapshot={r.snapshot} reckoners={r.reckoners} />;
+}
 
 /** One revision under review: what changed against the last approved revision, comments, the signed decision. */
 export default function ReviewRevisionPage() {
@@ -39,7 +51,7 @@ export default function ReviewRevisionPage() {
   };
 
   return (
-    <article className="mx-auto flex max-w-5xl flex-col gap-6">
+    <article className="mx-auto flex max-w-7xl flex-col gap-6">
       <header className="flex flex-col gap-2 border-b border-rule pb-4">
         <p className="text-sm text-graphite-soft">
           Review · {r.equipmentFamily} ·{' '}
@@ -112,48 +124,53 @@ export default function ReviewRevisionPage() {
         </section>
       )}
 
-      {v.base ? (
-        <section className="flex flex-col gap-2">
-          <h2 className="text-xl font-semibold">Changed values</h2>
-          <ValueChangesTable changes={v.valueChanges} />
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-2 lg:items-start">
+        <section
+          aria-labelledby="review-as-written"
+          // Beside the changes on a wide screen, it scrolls on its own: focusable so the keyboard can scroll it.
+          tabIndex={0}
+          className="reader flex min-w-0 flex-col gap-2 rounded-lg border border-rule bg-paper p-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto"
+        >
+          <h2 id="review-as-written" className="text-xl font-semibold">
+            Revision {r.number} as written
+          </h2>
+          <RegionBoundary label="The revision as written">
+            <WrittenRevision revisionId={r.id} />
+          </RegionBoundary>
         </section>
-      ) : (
-        <section className="flex flex-col gap-2">
-          <h2 className="text-xl font-semibold">What this revision assumes</h2>
-          <p className="text-sm text-graphite-soft">
-            Every input given and where it came from, then each calculation’s key results, in the author’s
-            order.
-          </p>
-          <FirstRevisionTable rows={v.valueChanges} />
-        </section>
-      )}
+        <div className="flex min-w-0 flex-col gap-6">
+          {v.base ? (
+            <section className="flex flex-col gap-2">
+              <h2 className="text-xl font-semibold">Changed values</h2>
+              <ValueChangesTable changes={v.valueChanges} />
+            </section>
+          ) : (
+            <section className="flex flex-col gap-2">
+              <h2 className="text-xl font-semibold">What this revision assumes</h2>
+              <p className="text-sm text-graphite-soft">
+                Every input given and where it came from, then each calculation’s key results, in the author’s
+                order.
+              </p>
+              <FirstRevisionTable rows={v.valueChanges} />
+            </section>
+          )}
 
-      {v.reckoners.length > 0 && (
-        <section className="flex flex-col gap-2" aria-label="Calculations">
-          <h2 className="text-xl font-semibold">Calculations</h2>
-          <p className="text-sm text-graphite-soft">
-            Each reckoner of this revision: what it assumes beside what it gives.
-          </p>
-          {v.reckoners.map((b) => (
-            <ReckonerCard key={b.id} name={b.name} view={b} />
-          ))}
-        </section>
-      )}
+          <section className="flex flex-col gap-2">
+            <h2 className="text-xl font-semibold">Changed text</h2>
+            <RegionBoundary label="Changed text">
+              <TextDiffView lines={v.textDiff} />
+            </RegionBoundary>
+          </section>
 
-      <section className="flex flex-col gap-2">
-        <h2 className="text-xl font-semibold">Changed text</h2>
-        <RegionBoundary label="Changed text">
-          <TextDiffView lines={v.textDiff} />
-        </RegionBoundary>
-      </section>
-
-      <section className="flex flex-col gap-3">
-        <h2 className="text-xl font-semibold">Comments</h2>
-        <RegionBoundary label="Comments">
-          <CommentList comments={v.comments} />
-          {hasRole(user, 'author', 'reviewer') && <CommentForm revisionId={r.id} blocks={v.blocks} />}
-        </RegionBoundary>
-      </section>
+          <section className="flex flex-col gap-3">
+            <h2 className="text-xl font-semibold">Comments</h2>
+            <RegionBoundary label="Comments">
+              <CommentList comments={v.comments} />
+              {hasRole(user, 'author', 'reviewer') && <CommentForm revisionId={r.id} blocks={v.blocks} />}
+            </RegionBoundary>
+          </section>
+        </div>
+      </div>
 
       {user && (
         <SignOffDialog

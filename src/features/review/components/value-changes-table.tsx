@@ -35,6 +35,16 @@ function What({ c }: { c: ValueChange }) {
   return <em>{BLOCK_ROWS[c.label] ?? c.label}</em>;
 }
 
+/** The figure's name with its kind under it: one column fewer, so the values get the room. */
+function Figure({ c }: { c: ValueChange }) {
+  return (
+    <>
+      <What c={c} />
+      <span className="block text-xs uppercase tracking-wide text-graphite-soft">{KIND_LABELS[c.kind]}</span>
+    </>
+  );
+}
+
 function Value({
   value,
   source,
@@ -49,7 +59,7 @@ function Value({
   if (value === null) return <em className="text-graphite-soft">{empty}</em>;
   return (
     <>
-      <span className={`value ${strong ? 'font-semibold' : ''}`}>{value}</span>
+      <span className={`value break-words ${strong ? 'font-semibold' : ''}`}>{value}</span>
       {source && <span className="block text-xs text-graphite-soft">{source}</span>}
     </>
   );
@@ -62,15 +72,19 @@ export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
       <p className="text-sm text-graphite-soft">No input, calculated value, reading or parameter changed.</p>
     );
   return (
-    <DataTable columns={['Kind', 'Block', 'Figure', 'Before', 'After']} label="Value changes">
+    <DataTable
+      columns={['Block', 'Figure', 'Before', 'After']}
+      widths={['24%', '28%', '24%', '24%']}
+      minWidth="30rem"
+      label="Value changes"
+    >
       {changes.map((c, i) => (
-        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
-          <td className="px-3 py-2 text-graphite-soft">{KIND_LABELS[c.kind]}</td>
+        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top break-words last:border-0">
           <td className="px-3 py-2">
             <Subject c={c} repeat={continues(changes, i)} />
           </td>
           <td className="px-3 py-2">
-            <What c={c} />
+            <Figure c={c} />
           </td>
           <td className="px-3 py-2">
             <Value value={c.before} source={c.sourceBefore} empty="new" />
@@ -91,9 +105,14 @@ export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
       <p className="text-sm text-graphite-soft">This revision has no parameters, calculations or readings.</p>
     );
   return (
-    <DataTable columns={['Block', 'Figure', 'Value', 'From']} label="What this revision assumes">
+    <DataTable
+      columns={['Block', 'Figure', 'Value', 'From']}
+      widths={['22%', '28%', '24%', '26%']}
+      minWidth="30rem"
+      label="What this revision assumes"
+    >
       {rows.map((c, i) => (
-        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top last:border-0">
+        <tr key={i} data-kind={c.kind} className="border-b border-rule align-top break-words last:border-0">
           <td className="px-3 py-2">
             <Subject c={c} repeat={continues(rows, i)} />
           </td>
