@@ -26,6 +26,36 @@ describe('search in Chromium', () => {
     await page.getByRole('button', { name: 'Search' }).click();
     await page.getByText('No approved procedure matches all of your words.').waitFor();
     expect(await page.getByRole('heading', { name: 'Matches some of your words' }).count()).toBe(0);
+    // Nothing found says where to go next: the procedure list.
+    expect(
+      await page
+        .locator('[data-search-empty]')
+        .getByRole('link', { name: 'browse every procedure' })
+        .getAttribute('href'),
+    ).toBe('/procedures');
+
+    // A misspelt word beside one the library lacks: the nearest spelling is offered as a link.
+    await page.getByLabel('Search words').fill('bleedr zzqqxx');
+    await page.getByRole('button', { name: 'Search' }).click();
+    const suggestion = page.locator('[data-search-empty]').getByRole('link', { name: 'bleeder zzqqxx' });
+    await suggestion.waitFor();
+    await suggestion.press('Enter');
+    await page.waitForURL(/\/search\?q=bleeder(\+|%20)zzqqxx$/);
+    expect(await page.getByLabel('Search words').inputValue()).toBe('bleeder zzqqxx');
+
+    // Two letters swapped are one slip: the procedures with the word are found.
+    await page.getByLabel('Search words').fill('hetaer');
+    await page.getByRole('button', { name: 'Search' }).click();
+    await page
+      .getByText(/showing results for/)
+      .filter({ hasText: 'heater' })
+      .waitFor();
+    expect(
+      await page
+        .getByRole('list', { name: 'Procedures matching all of your words' })
+        .getByRole('listitem')
+        .count(),
+    ).toBeGreaterThan(0);
 
     // Something the library does not cover: said plainly, partial matches only under their own heading.
     await page.getByLabel('Search words').fill('speaker cone repair');

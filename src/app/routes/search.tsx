@@ -1,9 +1,41 @@
 import { useEffect, useState, type FormEvent } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
+import { paths } from '@/config/paths';
 import { Problem } from '@/components/errors/problem';
 import { Pager } from '@/components/ui/pager';
 import { searchFromUrl, useSearch } from '@/features/search/api/search-procedures';
 import { ResultList } from '@/features/search/components/result-list';
+
+/** No full match: the library's nearest spellings as links, and where else to look. */
+function NothingFound({ suggestions, partial }: { suggestions: string[]; partial: boolean }) {
+  return (
+    <div data-search-empty className="flex flex-col gap-1">
+      <p className="text-graphite-soft">No approved procedure matches all of your words.</p>
+      {suggestions.length > 0 && (
+        <p>
+          Did you mean{' '}
+          {suggestions.slice(0, 4).map((s, i) => (
+            <span key={s}>
+              {i > 0 && ', '}
+              <Link to={paths.search.href(s)} className="font-semibold text-accent underline">
+                {s}
+              </Link>
+            </span>
+          ))}
+          ?
+        </p>
+      )}
+      <p>
+        {partial ? 'Below are procedures that mention some of them. ' : ''}Try fewer or other words (trade
+        words work: HT or B+, heater or filament), or{' '}
+        <Link to={paths.procedures.href()} className="font-semibold text-accent underline">
+          browse every procedure
+        </Link>
+        .
+      </p>
+    </div>
+  );
+}
 
 export default function SearchPage() {
   const [params, setParams] = useSearchParams();
@@ -97,30 +129,14 @@ export default function SearchPage() {
               <strong>{data.correctedQuery}</strong>.
             </p>
           )}
-          <p className="text-graphite-soft">
-            {data.total === 0
-              ? 'No approved procedure matches all of your words.'
-              : `${data.total} approved procedure${data.total === 1 ? '' : 's'} match${data.total === 1 ? 'es' : ''} all of your words`}
-            {data.total === 0 && data.suggestions.length > 0 && (
-              <>
-                {' '}
-                Did you mean{' '}
-                {data.suggestions.slice(0, 4).map((s, i) => (
-                  <span key={s}>
-                    {i > 0 && ', '}
-                    <button
-                      type="button"
-                      className="font-semibold text-accent underline"
-                      onClick={() => update({ q: s })}
-                    >
-                      {s}
-                    </button>
-                  </span>
-                ))}
-                ?
-              </>
-            )}
-          </p>
+          {data.total === 0 ? (
+            <NothingFound suggestions={data.suggestions} partial={!!data.partial} />
+          ) : (
+            <p className="text-graphite-soft">
+              {data.total} approved procedure{data.total === 1 ? '' : 's'} match
+              {data.total === 1 ? 'es' : ''} all of your words
+            </p>
+          )}
         </div>
       )}
       {data && data.results.length > 0 && (

@@ -163,6 +163,16 @@ describe('search over approved procedures', () => {
     expect(Array.isArray(weird.suggestions)).toBe(true);
   });
 
+  it('two letters swapped count as one edit: "hetaer" and "ehater" find what "heater" finds', async () => {
+    const heater = (await search('heater')).results.map((r) => r.procedureId).sort();
+    expect(heater.length).toBeGreaterThan(0);
+    for (const typo of ['hetaer', 'ehater']) {
+      const found = await search(typo);
+      expect(found.results.map((r) => r.procedureId).sort()).toEqual(heater);
+      expect(found.correctedQuery).toBe('heater');
+    }
+  });
+
   it('a server that missed notifications while disconnected catches up when it reconnects', async () => {
     const { revisionId } = await draftWith(['The wobbleflux reading drifts when the chassis warms.']);
     // Cut the index's LISTEN connection, then approve while it is away.
