@@ -74,7 +74,7 @@ export default function SetPassword() {
               {...form.register('repeat')}
               error={errors.repeat?.message}
             />
-            <Button type="submit" disabled={setPassword.isPending}>
+            <Button type="submit" disabled={setPassword.isPending} whyDisabled="Setting the password…">
               Set password
             </Button>
           </form>

@@ -89,6 +89,7 @@ export default function AuditPage() {
             <Button
               variant="quiet"
               disabled={filters.page <= 1}
+              whyDisabled="These are the newest."
               onClick={() => set({ page: filters.page - 1 })}
             >
               Newer
@@ -100,6 +101,7 @@ export default function AuditPage() {
             <Button
               variant="quiet"
               disabled={filters.page >= pages}
+              whyDisabled="These are the oldest."
               onClick={() => set({ page: filters.page + 1 })}
             >
               Older

@@ -49,13 +49,23 @@ export default function OutboxPage() {
       {outbox.data && <OutboxTable items={outbox.data.items} />}
       {outbox.data && pages > 1 && (
         <nav aria-label="Pages" className="flex items-center gap-3 text-sm">
-          <Button variant="quiet" disabled={page <= 1} onClick={() => setPage(page - 1)}>
+          <Button
+            variant="quiet"
+            disabled={page <= 1}
+            whyDisabled="These are the newest."
+            onClick={() => setPage(page - 1)}
+          >
             Newer
           </Button>
           <span>
             Page <span className="value">{page}</span> of <span className="value">{pages}</span>
           </span>
-          <Button variant="quiet" disabled={page >= pages} onClick={() => setPage(page + 1)}>
+          <Button
+            variant="quiet"
+            disabled={page >= pages}
+            whyDisabled="These are the oldest."
+            onClick={() => setPage(page + 1)}
+          >
             Older
           </Button>
         </nav>

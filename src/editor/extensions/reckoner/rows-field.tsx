@@ -1,4 +1,6 @@
+import { useId } from 'react';
 import type { InputValue } from '@shared/document/schema';
+import { WhyDisabled } from '@/components/ui/button';
 import type { FieldSpec } from '@shared/reckoners';
 import { initialInputs } from './reckoner';
 import { InputSource } from './input-source';
@@ -21,6 +23,10 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
   const setCell = (i: number, key: string, v: InputValue) =>
     onChange(rows.map((r, j) => (j === i ? { ...r, [key]: v } : r)));
   const tableErrors = errorsAt(spec.key);
+  const whyId = useId();
+  const min = spec.minRows ?? 0;
+  const atMin = rows.length <= min;
+  const atMax = rows.length >= max;
 
   return (
     <fieldset className="flex min-w-0 flex-col gap-2">
@@ -63,7 +69,8 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
                     type="button"
                     className="min-h-9 rounded border border-rule px-2 text-xs hover:bg-out-wash"
                     aria-label={`Remove ${spec.label.toLowerCase()} row ${i + 1}`}
-                    disabled={rows.length <= (spec.minRows ?? 0)}
+                    disabled={atMin}
+                    aria-describedby={atMin ? `${whyId}-min` : undefined}
                     onClick={() => onChange(rows.filter((_, j) => j !== i))}
                   >
                     Remove
@@ -82,11 +89,19 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
       <button
         type="button"
         className="self-start rounded border border-rule bg-card px-3 py-1 text-xs hover:bg-paper-deep disabled:opacity-50"
-        disabled={rows.length >= max}
+        disabled={atMax}
+        aria-describedby={atMax ? `${whyId}-max` : undefined}
         onClick={() => onChange([...rows, initialInputs(columns)])}
       >
         Add row
       </button>
+      <WhyDisabled
+        id={`${whyId}-min`}
+        why={
+          atMin && rows.length > 0 && `At least ${min} row${min === 1 ? '' : 's'}: a row cannot be removed.`
+        }
+      />
+      <WhyDisabled id={`${whyId}-max`} why={atMax && `At most ${max} rows.`} />
     </fieldset>
   );
 }

@@ -86,7 +86,13 @@ function PasswordStep({
         error={form.formState.errors.password?.message}
       />
       <FormProblem formState={form.formState} />
-      <Button type="submit" variant={variant} className="self-start" disabled={pending}>
+      <Button
+        type="submit"
+        variant={variant}
+        className="self-start"
+        disabled={pending}
+        whyDisabled="Checking…"
+      >
         {label}
       </Button>
     </form>
@@ -214,7 +220,12 @@ export function AuthenticatorPanel({ account }: { account: AccountInfo }) {
             {...codeForm.register('code')}
             error={codeForm.formState.errors.code?.message}
           />
-          <Button type="submit" className="self-start" disabled={confirm.isPending}>
+          <Button
+            type="submit"
+            className="self-start"
+            disabled={confirm.isPending}
+            whyDisabled="Checking the code…"
+          >
             Turn on authenticator codes
           </Button>
         </form>

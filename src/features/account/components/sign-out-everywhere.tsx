@@ -23,6 +23,7 @@ export function SignOutEverywhere() {
           <Button
             variant="danger"
             disabled={everywhere.isPending}
+            whyDisabled="Signing out…"
             onClick={() => everywhere.mutate(undefined, { onSuccess: () => navigate(paths.signIn.href()) })}
           >
             Yes, sign out everywhere

@@ -55,7 +55,12 @@ export function InviteForm() {
           </p>
         )}
       </fieldset>
-      <Button type="submit" disabled={invite.isPending} className="self-start">
+      <Button
+        type="submit"
+        disabled={invite.isPending}
+        whyDisabled="Creating the invitation…"
+        className="self-start"
+      >
         Create invitation
       </Button>
     </form>

@@ -23,6 +23,7 @@ export function RevisionActions({ revision, isAuthor }: { revision: RevisionView
       {isAuthor && revision.state === 'approved' && (
         <Button
           disabled={startDraft.isPending}
+          whyDisabled="Starting the draft…"
           onClick={() =>
             startDraft.mutate(revision.procedureId, {
               onSuccess: (d) => navigate(paths.editRevision.href(d.revision.id)),

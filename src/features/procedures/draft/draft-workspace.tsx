@@ -159,6 +159,11 @@ export function DraftWorkspace({ revision }: { revision: RevisionView }) {
             <Button
               onClick={() => void saver.save()}
               disabled={state.kind === 'saving' || state.kind === 'conflict'}
+              whyDisabled={
+                state.kind === 'conflict'
+                  ? 'First choose above: keep yours or load the saved one.'
+                  : 'Saving…'
+              }
               aria-keyshortcuts="Control+S"
             >
               Save draft

@@ -69,7 +69,7 @@ export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks
       />
       <FormProblem formState={form.formState} />
       <div>
-        <Button type="submit" variant="quiet" disabled={add.isPending}>
+        <Button type="submit" variant="quiet" disabled={add.isPending} whyDisabled="Adding the comment…">
           Add comment
         </Button>
       </div>

@@ -1,4 +1,5 @@
-import { useMemo, useState } from 'react';
+import { useId, useMemo, useState } from 'react';
+import { WhyDisabled } from '@/components/ui/button';
 import { MARK_WORDS } from '@shared/runs/run-sheet-model';
 import type { RunStep, RunView } from '@shared/schemas/runs';
 import { formatQuantity } from '@shared/units';
@@ -46,6 +47,7 @@ export function BenchChecklist({
   const { finished, locked, done } = useMemo(() => effectiveState(run, pending), [run, pending]);
   const firstOpen = run.steps.findIndex((s) => !finished(s));
   const [index, setIndex] = useState(() => Math.max(0, firstOpen));
+  const whyId = useId();
   const entries = new Map(run.entries.map((e) => [e.stepId, e]));
   const waiting = pending.filter((p) => !p.refused).length;
   const total = run.steps.length;
@@ -109,23 +111,32 @@ export function BenchChecklist({
       {visible.map(card)}
       {mode === 'one' && (
         <div className="flex gap-3">
+          {/* aria-disabled, not disabled: reaching the last step keeps the keyboard focus on the button. */}
           <button
             type="button"
-            disabled={index === 0}
-            onClick={() => setIndex(index - 1)}
-            className="min-h-14 flex-1 rounded-md border border-rule bg-card text-lg font-semibold disabled:opacity-40"
+            aria-disabled={index === 0 || undefined}
+            aria-describedby={index === 0 ? `${whyId}-first` : undefined}
+            onClick={() => index > 0 && setIndex(index - 1)}
+            className="min-h-14 flex-1 rounded-md border border-rule bg-card text-lg font-semibold aria-disabled:cursor-not-allowed aria-disabled:opacity-40"
           >
             ← Previous
           </button>
           <button
             type="button"
-            disabled={index >= total - 1}
-            onClick={() => setIndex(index + 1)}
-            className="min-h-14 flex-1 rounded-md border border-accent-deep bg-accent text-lg font-semibold text-white disabled:opacity-40"
+            aria-disabled={index >= total - 1 || undefined}
+            aria-describedby={index >= total - 1 ? `${whyId}-last` : undefined}
+            onClick={() => index < total - 1 && setIndex(index + 1)}
+            className="min-h-14 flex-1 rounded-md border border-accent-deep bg-accent text-lg font-semibold text-white aria-disabled:cursor-not-allowed aria-disabled:opacity-40"
           >
             Next step →
           </button>
         </div>
+      )}
+      {mode === 'one' && (
+        <p className="text-sm text-graphite-soft">
+          <WhyDisabled id={`${whyId}-first`} why={index === 0 && 'This is the first step.'} />
+          <WhyDisabled id={`${whyId}-last`} why={index >= total - 1 && 'This is the last step.'} />
+        </p>
       )}
       {/* The signing panel comes only when there is something to sign: every step done and saved. */}
       {done === total && waiting === 0 ? (

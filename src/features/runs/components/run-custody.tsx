@@ -94,7 +94,7 @@ function HandoverForm({ run }: { run: RunView }) {
         disabled={handOver.isPending}
         className={`${button} border-accent-deep bg-accent text-white`}
       >
-        Hand over the run
+        {handOver.isPending ? 'Handing over…' : 'Hand over the run'}
       </button>
     </form>
   );
@@ -126,7 +126,7 @@ function AbandonForm({ run }: { run: RunView }) {
       />
       <FormProblem formState={form.formState} />
       <button type="submit" disabled={abandon.isPending} className={`${button} border-out bg-card text-out`}>
-        Close as abandoned
+        {abandon.isPending ? 'Closing…' : 'Close as abandoned'}
       </button>
     </form>
   );

@@ -70,7 +70,7 @@ export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: Uni
         <option value="TC-30H" />
         <option value="TC-5R" />
       </datalist>
-      <Button type="submit" disabled={save.isPending} className="self-start">
+      <Button type="submit" disabled={save.isPending} whyDisabled="Saving…" className="self-start">
         {unit ? 'Save unit' : 'Register unit'}
       </Button>
     </form>
