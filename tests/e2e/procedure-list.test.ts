@@ -61,6 +61,13 @@ describe('the procedure list in Chromium', () => {
     await page
       .getByText('No procedure title contains “no such title anywhere” with these filters.')
       .waitFor();
+    // The empty list says where to go next: the whole list, or a search of the procedures' text.
+    expect(await page.getByRole('link', { name: 'Show every procedure' }).getAttribute('href')).toBe(
+      '/procedures',
+    );
+    expect(await page.getByRole('link', { name: 'search the procedures’ text' }).getAttribute('href')).toBe(
+      '/search?q=no%20such%20title%20anywhere',
+    );
 
     // From a procedure to the bench: the reader's button opens the start form with it chosen.
     await page.getByLabel('Title contains').fill('pager check 42');

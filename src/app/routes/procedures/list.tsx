@@ -123,11 +123,33 @@ export default function ProceduresPage() {
             </div>
           ) : (
             <Notice>
-              {data.total
-                ? 'This page is past the end of the list.'
-                : q
-                  ? `No procedure title contains “${q}” with these filters.`
-                  : 'No procedure matches these filters.'}
+              {data.total ? (
+                'This page is past the end of the list.'
+              ) : q || Object.values(filters).some(Boolean) ? (
+                <>
+                  {q
+                    ? `No procedure title contains “${q}” with these filters.`
+                    : 'No procedure matches these filters.'}{' '}
+                  <Link to={paths.procedures.href()} className="font-semibold text-accent underline">
+                    Show every procedure
+                  </Link>{' '}
+                  or{' '}
+                  <Link to={paths.search.href(q)} className="font-semibold text-accent underline">
+                    search the procedures’ text
+                  </Link>
+                  .
+                </>
+              ) : isAuthor ? (
+                <>
+                  No procedures yet.{' '}
+                  <Link to={paths.newProcedure.href()} className="font-semibold text-accent underline">
+                    Write the first one
+                  </Link>
+                  ; a reviewer approves it before it is used at the bench.
+                </>
+              ) : (
+                'No approved procedure yet: an author writes one and a reviewer approves it.'
+              )}
             </Notice>
           )}
           <Pager

@@ -67,7 +67,17 @@ export default function UnitsPage() {
       {units.isPending ? (
         <Loading />
       ) : (
-        units.data && <UnitsTable units={units.data.units} unitPath={paths.unit.href} />
+        units.data && (
+          <UnitsTable
+            units={units.data.units}
+            unitPath={paths.unit.href}
+            empty={
+              filter.q || filter.model || filter.state
+                ? `No unit matches this search.${canKeep ? ' Change the search or filters, or register the unit below.' : ''}`
+                : `No units yet.${canKeep ? ' Register one with the form below: model and serial are enough.' : ''}`
+            }
+          />
+        )
       )}
       {canKeep && <UnitForm />}
     </section>

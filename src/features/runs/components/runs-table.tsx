@@ -1,10 +1,20 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { DataTable } from '@/components/ui/data-table';
 import { MARK_WORDS } from '@shared/runs/run-sheet-model';
 import type { RunListItem } from '@shared/schemas/runs';
 
-export function RunsTable({ runs, runPath }: { runs: RunListItem[]; runPath: (id: string) => string }) {
-  if (!runs.length) return <p className="text-sm text-graphite-soft">No bench runs here yet.</p>;
+export function RunsTable({
+  runs,
+  runPath,
+  empty = 'No bench runs here yet.',
+}: {
+  runs: RunListItem[];
+  runPath: (id: string) => string;
+  /** What to say, and what to do next, when there is none. */
+  empty?: ReactNode;
+}) {
+  if (!runs.length) return <p className="text-sm text-graphite-soft">{empty}</p>;
   return (
     <DataTable columns={['Procedure', 'Unit', 'Progress', 'Status', 'Started', 'Performed by']}>
       {runs.map((r) => (

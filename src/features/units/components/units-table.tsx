@@ -1,9 +1,19 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { DataTable } from '@/components/ui/data-table';
 import type { UnitListItem } from '@shared/schemas/units';
 
-export function UnitsTable({ units, unitPath }: { units: UnitListItem[]; unitPath: (id: string) => string }) {
-  if (!units.length) return <p className="text-sm text-graphite-soft">No units match.</p>;
+export function UnitsTable({
+  units,
+  unitPath,
+  empty = 'No units match.',
+}: {
+  units: UnitListItem[];
+  unitPath: (id: string) => string;
+  /** What to say, and what to do next, when there is none. */
+  empty?: ReactNode;
+}) {
+  if (!units.length) return <p className="text-sm text-graphite-soft">{empty}</p>;
   return (
     <DataTable columns={['Model', 'Serial', 'Owner', 'Job', 'Runs', 'Last run']}>
       {units.map((u) => (
