@@ -9,7 +9,13 @@ export function ReadingsTable({
   live?: ReadonlySet<string>;
 }) {
   return (
-    <div className="not-prose my-4 relative overflow-x-auto rounded-lg border border-rule bg-card">
+    // A box that may scroll sideways is focusable and named, so a keyboard can scroll it too.
+    <div
+      role="region"
+      aria-label={`Readings to take, from “${readings[0]?.label ?? ''}”`}
+      tabIndex={0}
+      className="not-prose my-4 relative overflow-x-auto rounded-lg border border-rule bg-card"
+    >
       <table className="readings-table w-full text-left text-sm">
         <caption className="sr-only">Readings to take</caption>
         <thead className="border-b border-rule bg-paper-deep">
