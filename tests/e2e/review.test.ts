@@ -92,7 +92,7 @@ describe('review and sign-off in Chromium', () => {
     await written.locator('.readings-table').getByText('Mains at the bench').first().waitFor();
     await written.locator('[data-reckoner]').first().waitFor();
     const [changesBox, writtenBox] = [await changes.boundingBox(), await written.boundingBox()];
-    expect(writtenBox!.x + writtenBox!.width).toBeLessThanOrEqual(changesBox!.x + 1); // side by side
+    expect(changesBox!.x + changesBox!.width).toBeLessThanOrEqual(writtenBox!.x + 1); // side by side
 
     // Text changes read as text changes: added words by colour and weight, removed ones struck through; no underline.
     const diff = reviewer.getByRole('region', { name: 'Text changes' });

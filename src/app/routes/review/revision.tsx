@@ -125,19 +125,6 @@ export default function ReviewRevisionPage() {
       )}
 
       <div className="grid grid-cols-1 gap-6 lg:grid-cols-2 lg:items-start">
-        <section
-          aria-labelledby="review-as-written"
-          // Beside the changes on a wide screen, it scrolls on its own: focusable so the keyboard can scroll it.
-          tabIndex={0}
-          className="reader flex min-w-0 flex-col gap-2 rounded-lg border border-rule bg-paper p-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto"
-        >
-          <h2 id="review-as-written" className="text-xl font-semibold">
-            Revision {r.number} as written
-          </h2>
-          <RegionBoundary label="The revision as written">
-            <WrittenRevision revisionId={r.id} />
-          </RegionBoundary>
-        </section>
         <div className="flex min-w-0 flex-col gap-6">
           {v.base ? (
             <section className="flex flex-col gap-2">
@@ -170,6 +157,20 @@ export default function ReviewRevisionPage() {
             </RegionBoundary>
           </section>
         </div>
+        <section
+          aria-labelledby="review-as-written"
+          // Beside the changes (after them on a phone); on a wide screen it scrolls on its own, so it
+          // takes the focus for the keyboard to scroll it.
+          tabIndex={0}
+          className="reader flex min-w-0 flex-col gap-2 rounded-lg border border-rule bg-paper p-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto"
+        >
+          <h2 id="review-as-written" className="text-xl font-semibold">
+            Revision {r.number} as written
+          </h2>
+          <RegionBoundary label="The revision as written">
+            <WrittenRevision revisionId={r.id} />
+          </RegionBoundary>
+        </section>
       </div>
 
       {user && (

@@ -59,7 +59,12 @@ function Value({
   if (value === null) return <em className="text-graphite-soft">{empty}</em>;
   return (
     <>
-      <span className={`value break-words ${strong ? 'font-semibold' : ''}`}>{value}</span>
+      {/* A figure with its unit stays on one line; a longer value (a choice, a list) wraps in its column. */}
+      <span
+        className={`${value.length > 16 ? 'font-mono tabular-nums break-words' : 'value'} ${strong ? 'font-semibold' : ''}`}
+      >
+        {value}
+      </span>
       {source && <span className="block text-xs text-graphite-soft">{source}</span>}
     </>
   );
@@ -74,8 +79,8 @@ export function ValueChangesTable({ changes }: { changes: ValueChange[] }) {
   return (
     <DataTable
       columns={['Block', 'Figure', 'Before', 'After']}
-      widths={['24%', '28%', '24%', '24%']}
-      minWidth="30rem"
+      widths={['22%', '30%', '24%', '24%']}
+      minWidth="34rem"
       label="Value changes"
     >
       {changes.map((c, i) => (
@@ -107,8 +112,8 @@ export function FirstRevisionTable({ rows }: { rows: ValueChange[] }) {
   return (
     <DataTable
       columns={['Block', 'Figure', 'Value', 'From']}
-      widths={['22%', '28%', '24%', '26%']}
-      minWidth="30rem"
+      widths={['22%', '30%', '26%', '22%']}
+      minWidth="34rem"
       label="What this revision assumes"
     >
       {rows.map((c, i) => (
