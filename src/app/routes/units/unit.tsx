@@ -117,7 +117,10 @@ export default function UnitPage() {
             ))}
           </DataTable>
         ) : (
-          <p className="text-sm text-graphite-soft">No bench runs on this unit yet.</p>
+          <p className="text-sm text-graphite-soft">
+            No bench runs on this unit yet.
+            {hasRole(user, 'technician') && ' Start one with “Start a bench run on this unit” above.'}
+          </p>
         )}
       </section>
 
