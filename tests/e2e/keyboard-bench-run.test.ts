@@ -6,8 +6,8 @@ import { demo } from '../support/test-app';
 const app = useBrowserApp();
 
 /** As the signed-in technician, in the page: a new unit and a bench run on the approved bleeder retrofit. */
-function startRun(page: Page) {
-  return page.evaluate(async () => {
+function startRun(page: Page, serial = 'TC30H-0815') {
+  return page.evaluate(async (serial) => {
     const session = await (await fetch('/api/auth/session')).json();
     const headers = { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken as string };
     const list = await (await fetch('/api/procedures')).json();
@@ -18,7 +18,7 @@ function startRun(page: Page) {
       await fetch('/api/units', {
         method: 'POST',
         headers,
-        body: JSON.stringify({ model: 'TC-30H', serial: 'TC30H-0815' }),
+        body: JSON.stringify({ model: 'TC-30H', serial }),
       })
     ).json();
     const run = await fetch('/api/runs', {
@@ -33,7 +33,7 @@ function startRun(page: Page) {
     });
     if (!run.ok) throw new Error(`start failed: ${run.status} ${await run.text()}`);
     return ((await run.json()).run as { id: string }).id;
-  });
+  }, serial);
 }
 
 /**
@@ -127,6 +127,31 @@ describe('a bench run, keyboard only', () => {
       if (!f.onBody && !f.visible) unringed.add(f.what);
     }
     expect([...unringed]).toEqual([]);
+    await page.context().close();
+  });
+
+  it('one step at a time: Next walks to the last step and keeps the focus there, saying why it goes no further', async () => {
+    const page = await app.openPage();
+    await app.signIn(page, 'tom');
+    const runId = await startRun(page, 'TC30H-0816');
+    await page.goto(`${app.url}/runs/${runId}`);
+    await page.locator('[data-progress]').waitFor();
+    const total = Number(/of (\d+) steps/.exec(await page.locator('[data-progress]').innerText())![1]);
+    const oneByOne = page.getByRole('button', { name: 'One step at a time' });
+    await oneByOne.focus();
+    await page.keyboard.press('Enter');
+    expect(await oneByOne.getAttribute('aria-pressed')).toBe('true');
+    const next = page.getByRole('button', { name: 'Next step →' });
+    await next.focus();
+    for (let i = 1; i < total; i++) await page.keyboard.press('Enter');
+    await page
+      .locator('[data-step-id]')
+      .filter({ hasText: `Step ${total}` })
+      .waitFor();
+    expect(await next.evaluate((e) => e === document.activeElement)).toBe(true);
+    expect(await next.getAttribute('aria-disabled')).toBe('true');
+    const why = await next.getAttribute('aria-describedby');
+    expect(await page.locator(`[id="${why}"]`).innerText()).toBe('This is the last step.');
     await page.context().close();
   });
 });
