@@ -1,3 +1,4 @@
+import { useId } from 'react';
 import type { PersonView } from '@shared/schemas/people';
 import { ROLE_LABELS, ROLES, type Role } from '@shared/schemas/roles';
 import { Notice } from '@/components/ui/notice';
@@ -8,6 +9,7 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
   const update = useUpdatePerson();
   const reset = usePasswordReset();
   const clearCodes = useSecondFactorReset();
+  const ownAdminWhy = useId();
   const toggleRole = (p: PersonView, role: Role, on: boolean) => {
     const roles = on ? [...p.roles, role] : p.roles.filter((r) => r !== role);
     update.mutate({ id: p.id, roles });
@@ -63,6 +65,7 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                       aria-label={`${p.displayName}: ${ROLE_LABELS[r]}`}
                       checked={p.roles.includes(r)}
                       disabled={update.isPending || (p.id === selfId && r === 'admin')}
+                      aria-describedby={p.id === selfId && r === 'admin' ? ownAdminWhy : undefined}
                       onChange={(e) => toggleRole(p, r, e.target.checked)}
                     />
                     <span className="lg:sr-only" aria-hidden="true">
@@ -85,7 +88,11 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                         disabled={reset.isPending}
                         onClick={() => reset.mutate(p.id)}
                       >
-                        {p.hasPassword ? 'Mail reset link' : 'Mail new invitation link'}
+                        {reset.isPending && reset.variables === p.id
+                          ? 'Mailing…'
+                          : p.hasPassword
+                            ? 'Mail reset link'
+                            : 'Mail new invitation link'}
                       </button>
                     )}
                     {p.totp && p.id !== selfId && (
@@ -96,7 +103,9 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
                         disabled={clearCodes.isPending}
                         onClick={() => clearCodes.mutate(p.id)}
                       >
-                        Clear authenticator
+                        {clearCodes.isPending && clearCodes.variables === p.id
+                          ? 'Clearing…'
+                          : 'Clear authenticator'}
                       </button>
                     )}
                     {p.id !== selfId && (
@@ -115,6 +124,9 @@ export function PeopleTable({ people, selfId }: { people: PersonView[]; selfId: 
           </tbody>
         </table>
       </div>
+      <p id={ownAdminWhy} className="text-xs text-graphite-soft">
+        You cannot remove your own admin role; ask another admin.
+      </p>
     </div>
   );
 }
