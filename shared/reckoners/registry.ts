@@ -1,5 +1,6 @@
 /** The one registry of reckoners, keyed by their stable kind ids. */
 import { bleeder } from './bleeder';
+import { chokeInput } from './choke-input';
 import { dropperLadder } from './dropper-ladder';
 import { heaterBudget } from './heater-budget';
 import { loadedBplus } from './loaded-bplus';
@@ -13,6 +14,7 @@ export const reckoners = {
   'peak-no-load': peakNoLoad,
   'loaded-bplus': loadedBplus,
   'dropper-ladder': dropperLadder,
+  'choke-input': chokeInput,
   bleeder,
   'heater-budget': heaterBudget,
   'reading-tolerance': readingTolerance,

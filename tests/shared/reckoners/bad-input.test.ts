@@ -49,6 +49,13 @@ const cases: Case[] = [
     nonNegative: ['stages.0.current'],
   },
   {
+    kind: 'choke-input',
+    valid: { windingVoltage: 350, chokeInductance: 10, chokeResistance: 100, loadCurrent: 0.1 },
+    required: ['windingVoltage', 'chokeInductance', 'chokeResistance', 'loadCurrent'],
+    positive: ['windingVoltage', 'chokeInductance', 'loadCurrent', 'mainsFrequency'],
+    nonNegative: ['chokeResistance', 'windingResistance', 'diodeDrop'],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

@@ -54,6 +54,21 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
     inputs: { capacitance: '100 µF', chargedVoltage: '450 V', bleederResistance: '22k' },
     check: { key: 'storedEnergy', value: 10.125, source: '½ × 100 µF × (450 V)², docs/references.md §5' },
   },
+  'choke-input': {
+    inputs: {
+      windingVoltage: '350 V',
+      rectifier: 'silicon-centre-tap',
+      diodeDrop: '1 V',
+      chokeInductance: '10 H',
+      chokeResistance: '100 Ω',
+      loadCurrent: '100 mA',
+    },
+    check: {
+      key: 'dcOutput',
+      value: (2 * Math.SQRT2 * 350) / Math.PI - 1 - 10,
+      source: '0.9003 × 350 V less 1 V and 100 mA × 100 Ω, docs/references.md §3',
+    },
+  },
   'heater-budget': {
     inputs: {
       windingVoltage: '6.3 V',
@@ -124,6 +139,18 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
     ],
     series: 'E12',
     rippleFrequency: '100 Hz',
+  },
+  'choke-input': {
+    windingVoltage: '375 V',
+    rectifier: 'valve',
+    valveDrop: '50 V',
+    windingResistance: '120 Ω',
+    chokeInductance: '8 H',
+    chokeResistance: '90 Ω',
+    loadCurrent: '150 mA',
+    lightestLoad: '20 mA',
+    mainsFrequency: '50 Hz',
+    filterCapacitance: '50 µF',
   },
   bleeder: {
     capacitance: '100 µF',

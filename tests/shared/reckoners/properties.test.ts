@@ -115,6 +115,18 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
       }));
       return { startVoltage: start, series, startRipple, stages };
     }),
+  'choke-input': fc.record({
+    windingVoltage: range(100, 600),
+    rectifier,
+    diodeDrop: range(0.6, 1.1),
+    valveDrop: range(5, 60),
+    windingResistance: range(0, 200),
+    chokeInductance: range(1, 30),
+    chokeResistance: range(10, 300),
+    loadCurrent: range(0.01, 0.3),
+    mainsFrequency: fc.constantFrom(50, 60),
+    filterCapacitance: range(4.7e-6, 470e-6),
+  }),
   bleeder: fc.record({
     capacitance: range(1e-6, 1e-3),
     chargedVoltage: range(10, 800),

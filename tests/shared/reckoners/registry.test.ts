@@ -4,12 +4,13 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the seven reckoners under their stable kind ids', () => {
+  it('holds the eight reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
       'loaded-bplus',
       'dropper-ladder',
+      'choke-input',
       'bleeder',
       'heater-budget',
       'reading-tolerance',
@@ -18,7 +19,7 @@ describe('registry', () => {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(7);
+    expect(listReckoners()).toHaveLength(8);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
