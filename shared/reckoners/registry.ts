@@ -4,6 +4,7 @@ import { chokeInput } from './choke-input';
 import { dropperLadder } from './dropper-ladder';
 import { heaterBudget } from './heater-budget';
 import { loadedBplus } from './loaded-bplus';
+import { mainsConversion } from './mains-conversion';
 import { mainsFuse } from './mains-fuse';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
@@ -18,6 +19,7 @@ export const reckoners = {
   bleeder,
   'heater-budget': heaterBudget,
   'reading-tolerance': readingTolerance,
+  'mains-conversion': mainsConversion,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

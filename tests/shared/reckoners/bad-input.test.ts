@@ -56,6 +56,19 @@ const cases: Case[] = [
     nonNegative: ['chokeResistance', 'windingResistance', 'diodeDrop'],
   },
   {
+    kind: 'mains-conversion',
+    valid: { fromVoltage: 120, toVoltage: 230, connections: [{ volts: 120 }, { volts: 240 }], fuseRating: 1 },
+    required: ['connections.0.volts', 'fuseRating'],
+    positive: [
+      'fromVoltage',
+      'toVoltage',
+      'fromFrequency',
+      'toFrequency',
+      'connections.1.volts',
+      'fuseRating',
+    ],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

@@ -80,6 +80,17 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
     },
     check: { key: 'totalCurrent', value: 2.1, source: '4 × 0.3 A + 0.9 A, docs/references.md §6' },
   },
+  'mains-conversion': {
+    inputs: {
+      fromVoltage: '120 V',
+      fromFrequency: '60 Hz',
+      toVoltage: '230 V',
+      toFrequency: '50 Hz',
+      connections: [{ volts: '120 V' }, { volts: '240 V' }],
+      fuseRating: '1 A',
+    },
+    check: { key: 'fuseExact', value: 120 / 230, source: '1 A × 120 V ÷ 230 V, docs/references.md §1' },
+  },
   'reading-tolerance': {
     inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
     check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
@@ -167,6 +178,19 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
       { label: 'Output pentode', volts: '6.3 V', amps: '760 mA', count: 2 },
       { label: 'Double triode', volts: '6.3 V', amps: '300 mA', count: 2 },
     ],
+  },
+  'mains-conversion': {
+    fromVoltage: '117 V',
+    fromFrequency: '60 Hz',
+    toVoltage: '230 V',
+    toFrequency: '50 Hz',
+    connections: [
+      { label: 'Halves in parallel', volts: '117 V' },
+      { label: 'Halves in series', volts: '234 V' },
+    ],
+    fuseRating: '1.25 A',
+    series: 'iec',
+    secondaryVoltage: '325 V',
   },
   'reading-tolerance': { unit: 'V', measure: 'dc', expected: '350 V', tolerance: '±5 %', measured: '342 V' },
 };

@@ -127,6 +127,16 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
     mainsFrequency: fc.constantFrom(50, 60),
     filterCapacitance: range(4.7e-6, 470e-6),
   }),
+  'mains-conversion': fc.record({
+    fromVoltage: fc.constantFrom(100, 117, 120, 220, 230, 240),
+    fromFrequency: fc.constantFrom(50, 60),
+    toVoltage: range(100, 250),
+    toFrequency: fc.constantFrom(50, 60),
+    connections: fc.array(fc.record({ volts: range(100, 250) }), { minLength: 1, maxLength: 4 }),
+    fuseRating: range(0.1, 3),
+    series: fc.constantFrom('iec', 'north-american'),
+    secondaryVoltage: range(5, 600),
+  }),
   bleeder: fc.record({
     capacitance: range(1e-6, 1e-3),
     chargedVoltage: range(10, 800),

@@ -4,7 +4,7 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the eight reckoners under their stable kind ids', () => {
+  it('holds the nine reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
@@ -14,12 +14,13 @@ describe('registry', () => {
       'bleeder',
       'heater-budget',
       'reading-tolerance',
+      'mains-conversion',
     ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(8);
+    expect(listReckoners()).toHaveLength(9);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
