@@ -8,6 +8,7 @@ import { mainsConversion } from './mains-conversion';
 import { mainsFuse } from './mains-fuse';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
+import { switchOnSurge } from './switch-on-surge';
 import type { AnyReckoner } from './types';
 
 export const reckoners = {
@@ -20,6 +21,7 @@ export const reckoners = {
   'heater-budget': heaterBudget,
   'reading-tolerance': readingTolerance,
   'mains-conversion': mainsConversion,
+  'switch-on-surge': switchOnSurge,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

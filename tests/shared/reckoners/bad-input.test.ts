@@ -69,6 +69,13 @@ const cases: Case[] = [
     ],
   },
   {
+    kind: 'switch-on-surge',
+    valid: { windingVoltage: 300, secondaryResistance: 50, primaryResistance: 20, reservoir: 100e-6 },
+    required: ['windingVoltage', 'reservoir'],
+    positive: ['windingVoltage', 'mainsVoltage', 'reservoir', 'mainsFrequency'],
+    nonNegative: ['secondaryResistance', 'primaryResistance', 'diodeDrop'],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

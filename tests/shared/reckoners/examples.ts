@@ -91,6 +91,20 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
     },
     check: { key: 'fuseExact', value: 120 / 230, source: '1 A × 120 V ÷ 230 V, docs/references.md §1' },
   },
+  'switch-on-surge': {
+    inputs: {
+      windingVoltage: '300 V',
+      mainsVoltage: '230 V',
+      secondaryResistance: '50 Ω',
+      primaryResistance: '23 Ω',
+      reservoir: '100 µF',
+    },
+    check: {
+      key: 'sourceResistance',
+      value: 50 + 23 * (300 / 230) ** 2,
+      source: 'R_s + R_p (N_s/N_p)², docs/references.md §10',
+    },
+  },
   'reading-tolerance': {
     inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
     check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
@@ -191,6 +205,19 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
     fuseRating: '1.25 A',
     series: 'iec',
     secondaryVoltage: '325 V',
+  },
+  'switch-on-surge': {
+    windingVoltage: '280 V',
+    mainsVoltage: '230 V',
+    rectifier: 'silicon-bridge',
+    diodeDrop: '0.9 V',
+    secondaryResistance: '65 Ω',
+    primaryResistance: '18 Ω',
+    reservoir: '47 µF',
+    fuseI2t: '12 A²s',
+    diodeSurge: '30 A',
+    mainsFrequency: '50 Hz',
+    runningCurrent: '350 mA',
   },
   'reading-tolerance': { unit: 'V', measure: 'dc', expected: '350 V', tolerance: '±5 %', measured: '342 V' },
 };
