@@ -45,7 +45,7 @@ const cases: Case[] = [
     kind: 'dropper-ladder',
     valid: { startVoltage: 350, stages: [{ targetVoltage: 300, current: 0.02, capacitance: 47e-6 }] },
     required: ['startVoltage', 'stages.0.targetVoltage', 'stages.0.current', 'stages.0.capacitance'],
-    positive: ['startVoltage', 'stages.0.targetVoltage', 'stages.0.capacitance', 'rippleFrequency'],
+    positive: ['startVoltage', 'stages.0.targetVoltage', 'stages.0.capacitance', 'mainsFrequency'],
     nonNegative: ['stages.0.current'],
   },
   {

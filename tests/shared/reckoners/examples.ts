@@ -163,7 +163,7 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
       { label: 'B+3', targetVoltage: '250 V', current: '5 mA', capacitance: '22 µF' },
     ],
     series: 'E12',
-    rippleFrequency: '100 Hz',
+    mainsFrequency: '50 Hz',
   },
   'choke-input': {
     windingVoltage: '375 V',
