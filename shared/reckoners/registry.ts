@@ -9,6 +9,7 @@ import { mainsFuse } from './mains-fuse';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
 import { switchOnSurge } from './switch-on-surge';
+import { transformerLoading } from './transformer-loading';
 import type { AnyReckoner } from './types';
 
 export const reckoners = {
@@ -22,6 +23,7 @@ export const reckoners = {
   'reading-tolerance': readingTolerance,
   'mains-conversion': mainsConversion,
   'switch-on-surge': switchOnSurge,
+  'transformer-loading': transformerLoading,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

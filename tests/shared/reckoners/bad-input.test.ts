@@ -76,6 +76,13 @@ const cases: Case[] = [
     nonNegative: ['secondaryResistance', 'primaryResistance', 'diodeDrop'],
   },
   {
+    kind: 'transformer-loading',
+    valid: { windings: [{ volts: 300, amps: 0.1, resistance: 80 }], primaryResistance: 12 },
+    required: ['windings.0.volts', 'windings.0.amps'],
+    positive: ['mainsVoltage', 'efficiency', 'windings.0.volts'],
+    nonNegative: ['windings.0.amps', 'windings.0.resistance', 'primaryResistance'],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

@@ -105,6 +105,20 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
       source: 'R_s + R_p (N_s/N_p)², docs/references.md §10',
     },
   },
+  'transformer-loading': {
+    inputs: {
+      mainsVoltage: '230 V',
+      windings: [
+        { volts: '300 V', amps: '120 mA' },
+        { volts: '6.3 V', amps: '3 A' },
+      ],
+    },
+    check: {
+      key: 'totalVA',
+      value: 36 + 18.9,
+      source: '300 V × 0.12 A + 6.3 V × 3 A, docs/references.md §1',
+    },
+  },
   'reading-tolerance': {
     inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
     check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
@@ -218,6 +232,16 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
     diodeSurge: '30 A',
     mainsFrequency: '50 Hz',
     runningCurrent: '350 mA',
+  },
+  'transformer-loading': {
+    mainsVoltage: '230 V',
+    primaryResistance: '14 Ω',
+    efficiency: '88 %',
+    ratedVA: '80 VA',
+    windings: [
+      { label: 'HT', volts: '280 V', amps: '150 mA', ratedAmps: '200 mA', resistance: '85 Ω' },
+      { label: 'Heaters', volts: '6.3 V', amps: '3.5 A', ratedAmps: '4 A' },
+    ],
   },
   'reading-tolerance': { unit: 'V', measure: 'dc', expected: '350 V', tolerance: '±5 %', measured: '342 V' },
 };

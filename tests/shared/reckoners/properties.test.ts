@@ -150,6 +150,21 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
     diodeSurge: range(10, 200),
     mainsFrequency: fc.constantFrom(50, 60),
   }),
+  'transformer-loading': fc.record({
+    mainsVoltage: range(100, 250),
+    primaryResistance: range(0.5, 50),
+    efficiency: range(70, 95),
+    ratedVA: range(10, 500),
+    windings: fc.array(
+      fc.record({
+        volts: range(5, 500),
+        amps: range(0, 3),
+        ratedAmps: range(0.05, 5),
+        resistance: range(0.01, 200),
+      }),
+      { minLength: 1, maxLength: 4 },
+    ),
+  }),
   bleeder: fc.record({
     capacitance: range(1e-6, 1e-3),
     chargedVoltage: range(10, 800),

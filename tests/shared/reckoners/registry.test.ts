@@ -4,7 +4,7 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the ten reckoners under their stable kind ids', () => {
+  it('holds the eleven reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
@@ -16,12 +16,13 @@ describe('registry', () => {
       'reading-tolerance',
       'mains-conversion',
       'switch-on-surge',
+      'transformer-loading',
     ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(10);
+    expect(listReckoners()).toHaveLength(11);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
