@@ -8,6 +8,7 @@ import { mainsConversion } from './mains-conversion';
 import { mainsFuse } from './mains-fuse';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
+import { rectifierSubstitution } from './rectifier-substitution';
 import { switchOnSurge } from './switch-on-surge';
 import { transformerLoading } from './transformer-loading';
 import type { AnyReckoner } from './types';
@@ -24,6 +25,7 @@ export const reckoners = {
   'mains-conversion': mainsConversion,
   'switch-on-surge': switchOnSurge,
   'transformer-loading': transformerLoading,
+  'rectifier-substitution': rectifierSubstitution,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

@@ -83,6 +83,13 @@ const cases: Case[] = [
     nonNegative: ['windings.0.amps', 'windings.0.resistance', 'primaryResistance'],
   },
   {
+    kind: 'rectifier-substitution',
+    valid: { windingVoltage: 350, fromValveDrop: 45, loadCurrent: 0.15 },
+    required: ['windingVoltage', 'loadCurrent'],
+    positive: ['windingVoltage', 'loadCurrent'],
+    nonNegative: ['diodeDrop', 'highMains', 'outputWarmUp'],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

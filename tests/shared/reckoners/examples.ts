@@ -119,6 +119,14 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
       source: '300 V × 0.12 A + 6.3 V × 3 A, docs/references.md §1',
     },
   },
+  'rectifier-substitution': {
+    inputs: { windingVoltage: '350 V', fromValveDrop: '45 V', diodeDrop: '1 V', loadCurrent: '150 mA' },
+    check: {
+      key: 'bplusChange',
+      value: 44,
+      source: '45 V valve drop less one 1 V diode, docs/references.md §2',
+    },
+  },
   'reading-tolerance': {
     inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
     check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
@@ -242,6 +250,23 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
       { label: 'HT', volts: '280 V', amps: '150 mA', ratedAmps: '200 mA', resistance: '85 Ω' },
       { label: 'Heaters', volts: '6.3 V', amps: '3.5 A', ratedAmps: '4 A' },
     ],
+  },
+  'rectifier-substitution': {
+    windingVoltage: '340 V',
+    circuit: 'centre-tap',
+    from: 'valve',
+    to: 'silicon',
+    fromValveDrop: '50 V',
+    diodeDrop: '0.9 V',
+    loadCurrent: '140 mA',
+    nodes: [
+      { label: 'B+1', volts: '410 V' },
+      { label: 'B+2', volts: '360 V' },
+    ],
+    highMains: '10 %',
+    diodePiv: '1000 V',
+    outputWarmUp: '25 s',
+    rectifierWarmUp: '8 s',
   },
   'reading-tolerance': { unit: 'V', measure: 'dc', expected: '350 V', tolerance: '±5 %', measured: '342 V' },
 };

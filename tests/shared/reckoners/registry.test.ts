@@ -4,7 +4,7 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the eleven reckoners under their stable kind ids', () => {
+  it('holds the twelve reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
@@ -17,12 +17,13 @@ describe('registry', () => {
       'mains-conversion',
       'switch-on-surge',
       'transformer-loading',
+      'rectifier-substitution',
     ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(11);
+    expect(listReckoners()).toHaveLength(12);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
