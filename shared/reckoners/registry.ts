@@ -6,6 +6,7 @@ import { heaterBudget } from './heater-budget';
 import { loadedBplus } from './loaded-bplus';
 import { mainsConversion } from './mains-conversion';
 import { mainsFuse } from './mains-fuse';
+import { partRatings } from './part-ratings';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
 import { rectifierSubstitution } from './rectifier-substitution';
@@ -26,6 +27,7 @@ export const reckoners = {
   'switch-on-surge': switchOnSurge,
   'transformer-loading': transformerLoading,
   'rectifier-substitution': rectifierSubstitution,
+  'part-ratings': partRatings,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

@@ -90,6 +90,13 @@ const cases: Case[] = [
     nonNegative: ['diodeDrop', 'highMains', 'outputWarmUp'],
   },
   {
+    kind: 'part-ratings',
+    valid: { windingVoltage: 300, sourceResistance: 80, loadCurrent: 0.1, reservoir: 47e-6 },
+    required: ['windingVoltage', 'sourceResistance', 'loadCurrent', 'reservoir'],
+    positive: ['windingVoltage', 'sourceResistance', 'reservoir', 'mainsFrequency'],
+    nonNegative: ['loadCurrent', 'highMains', 'diodeDrop'],
+  },
+  {
     kind: 'bleeder',
     valid: { capacitance: 100e-6, chargedVoltage: 450, bleederResistance: 22000 },
     required: ['capacitance', 'chargedVoltage'],

@@ -127,6 +127,22 @@ export const WORKED_EXAMPLES: Record<string, WorkedExample> = {
       source: '45 V valve drop less one 1 V diode, docs/references.md §2',
     },
   },
+  'part-ratings': {
+    inputs: {
+      windingVoltage: '300 V',
+      highMains: '10 %',
+      unloadedRise: '10 %',
+      diodeDrop: '1 V',
+      sourceResistance: '80 Ω',
+      loadCurrent: '100 mA',
+      reservoir: '47 µF',
+    },
+    check: {
+      key: 'noLoadPeakHigh',
+      value: Math.SQRT2 * 300 * 1.1 * 1.1 - 2,
+      source: '√2 × 300 V × 1.1 × 1.1 less two 1 V drops, docs/references.md §2',
+    },
+  },
   'reading-tolerance': {
     inputs: { unit: 'V', expected: '230 V', tolerance: '±10 %', measured: '240 V' },
     check: { key: 'low', value: 207, source: 'IEC 60038:2009 230 V − 10 %, docs/references.md §2' },
@@ -267,6 +283,28 @@ export const TYPICAL_INPUTS: Record<string, Record<string, unknown>> = {
     diodePiv: '1000 V',
     outputWarmUp: '25 s',
     rectifierWarmUp: '8 s',
+  },
+  'part-ratings': {
+    windingVoltage: '280 V',
+    highMains: '10 %',
+    unloadedRise: '8 %',
+    rectifier: 'silicon-bridge',
+    diodeDrop: '0.9 V',
+    sourceResistance: '90 Ω',
+    mainsFrequency: '50 Hz',
+    loadCurrent: '120 mA',
+    reservoir: '47 µF',
+    reservoirRippleRating: '1.5 A',
+    capacitors: [
+      { label: 'Reservoir', rating: '500 V' },
+      { label: 'B+2', rating: '450 V' },
+    ],
+    resistors: [
+      { label: 'R1', resistance: '4k7', current: '20 mA', powerRating: '5 W', voltageLimit: '750 V' },
+    ],
+    resistorDerating: '50 %',
+    diodePiv: '1000 V',
+    diodeSurge: '30 A',
   },
   'reading-tolerance': { unit: 'V', measure: 'dc', expected: '350 V', tolerance: '±5 %', measured: '342 V' },
 };

@@ -178,6 +178,23 @@ const arbitraries: Record<string, fc.Arbitrary<Record<string, unknown>>> = {
     highMains: range(0, 15),
     diodePiv: range(100, 2000),
   }),
+  'part-ratings': fc.record({
+    windingVoltage: range(100, 500),
+    highMains: range(0, 15),
+    unloadedRise: range(0, 15),
+    rectifier,
+    diodeDrop: range(0.6, 1.1),
+    valveDrop: range(5, 40),
+    sourceResistance: range(5, 300),
+    mainsFrequency: fc.constantFrom(50, 60),
+    loadCurrent: range(0, 0.3),
+    reservoir: range(10e-6, 1e-3),
+    capacitors: fc.array(fc.record({ rating: range(100, 800) }), { maxLength: 4 }),
+    resistors: fc.array(
+      fc.record({ resistance: range(10, 1e5), current: range(0, 0.1), powerRating: range(0.25, 20) }),
+      { maxLength: 4 },
+    ),
+  }),
   bleeder: fc.record({
     capacitance: range(1e-6, 1e-3),
     chargedVoltage: range(10, 800),

@@ -4,7 +4,7 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the twelve reckoners under their stable kind ids', () => {
+  it('holds the thirteen reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
@@ -18,12 +18,13 @@ describe('registry', () => {
       'switch-on-surge',
       'transformer-loading',
       'rectifier-substitution',
+      'part-ratings',
     ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(12);
+    expect(listReckoners()).toHaveLength(13);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
