@@ -12,7 +12,7 @@ import {
 import { formatQuantity } from '../units/format';
 import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
 import { suggestedPowerRating } from './dropper-ladder';
-import { defineInputs, optionalQuantity, quantity, type InputOf } from './fields';
+import { defineInputs, optionalQuantity, quantity, rows, text, type InputOf } from './fields';
 import { q, s, SRC } from './outputs';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
@@ -52,14 +52,46 @@ const shape = {
     plausible: { min: 0.1, max: 600 },
     help: `Default 5 s: ${DISCHARGE_TIME_SOURCE}.`,
   }),
+  elapsed: optionalQuantity('s', {
+    label: 'Time after switch-off',
+    min: 0,
+    max: 86_400,
+    plausible: { min: 0, max: 3600 },
+    help: 'Gives the voltage left at that moment (needs the bleeder resistance).',
+  }),
+  milestones: rows(
+    {
+      label: text({ label: 'Name' }),
+      volts: quantity('V dc', { label: 'Voltage', min: 1e-3, max: 5000, plausible: { min: 1, max: 1000 } }),
+    },
+    {
+      label: 'Further thresholds',
+      help: 'Other voltages the procedure names, e.g. 10 V before a probe goes on; each gets its time.',
+      minRows: 0,
+      maxRows: 10,
+    },
+  ),
 };
 
-const { schema: inputs, fields } = defineInputs(shape);
+const { schema: baseSchema, fields } = defineInputs(shape);
+const inputs = baseSchema.superRefine((v, ctx) => {
+  if (v.bleederResistance === undefined && (v.elapsed !== undefined || v.milestones.length > 0))
+    ctx.addIssue({
+      code: 'custom',
+      path: ['bleederResistance'],
+      message: 'is needed for the voltage after switch-off and the further thresholds',
+    });
+});
 export type BleederInput = InputOf<typeof shape>;
 
 /** t = R C ln(V0 / Vt) [derived]; 0 when already at or below the threshold. */
 export function timeToFall(r: number, c: number, v0: number, vt: number): number {
   return v0 <= vt ? 0 : r * c * Math.log(v0 / vt);
+}
+
+/** v(t) = V0 e^(−t / RC) [derived]. */
+export function voltageAfter(r: number, c: number, v0: number, t: number): number {
+  return v0 * Math.exp(-t / (r * c));
 }
 
 /** Largest R that reaches vt within t: R = t / (C ln(V0/Vt)) [derived]. */
@@ -100,6 +132,23 @@ function compute(input: BleederInput): ReckonerResult {
       'V ÷ R; this adds to the supply’s load.',
       SRC.derived,
     );
+    if (input.elapsed !== undefined)
+      outputs.voltageAfter = q(
+        voltageAfter(R, C, V0, input.elapsed),
+        'V dc',
+        `Voltage ${formatQuantity(input.elapsed, 's')} after switch-off`,
+        'V₀ e^(−t ÷ RC).',
+        SRC.derived,
+      );
+    input.milestones.forEach((m, i) => {
+      outputs[`milestone${i + 1}`] = q(
+        timeToFall(R, C, V0, m.volts),
+        's',
+        `Time to fall below ${m.label ? `${m.label} (${formatQuantity(m.volts, 'V')})` : formatQuantity(m.volts, 'V')}`,
+        'R C ln(V₀ ÷ V).',
+        SRC.derived,
+      );
+    });
   }
   if (above) {
     const rMax = maxBleederFor(targetTime, C, V0, Vt);

@@ -1,6 +1,7 @@
 /**
- * Dropping-resistor ladder: from a start node through a chain of RC stages. Each resistor carries
- * the current of its own node and of every node after it (each node draws a fixed current).
+ * Dropping-resistor ladder: from a start node through a chain of RC or LC stages. Each resistor
+ * (or choke) carries the current of its own node and of every node after it (each node draws a
+ * fixed current). The ripple frequency follows the mains frequency parameter and the rectifier.
  *
  * A stage may name the resistor actually fitted. Its node voltage then follows from that part and
  * the start voltage — so a bench run at the measured mains moves it with the mains — while the
@@ -10,7 +11,9 @@
 import { nearestESeries } from '../standards/eSeries';
 import { RESISTOR_DERATING, RESISTOR_POWER_RATINGS } from '../standards/thresholds';
 import { formatQuantity } from '../units/format';
+import { parseQuantity } from '../units/parse';
 import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
+import { z } from 'zod';
 import { defineInputs, optionalQuantity, quantity, rows, select, text, type InputOf } from './fields';
 import { ReckonerInputError } from './errors';
 import { n, q, SRC } from './outputs';
@@ -52,8 +55,23 @@ const shape = {
         rating: 'capacitor-voltage',
         help: 'The filter capacitor’s marked working voltage; checked against the no-load peak at high mains.',
       }),
+      element: select({
+        label: 'Series part',
+        options: [
+          { value: 'resistor', label: 'Resistor (RC section)' },
+          { value: 'choke', label: 'Choke (LC section)' },
+        ],
+        default: 'resistor',
+      }),
+      inductance: optionalQuantity('H', {
+        label: 'Choke inductance',
+        min: 1e-4,
+        max: 500,
+        plausible: { min: 0.1, max: 50 },
+        help: 'Required for a choke; its DC resistance goes in the fitted-resistance column.',
+      }),
       fittedResistance: optionalQuantity('Ω', {
-        label: 'Fitted resistor',
+        label: 'Fitted resistor (a choke’s DC resistance)',
         min: 0.1,
         max: 1e8,
         plausible: { min: 10, max: 1e6 },
@@ -70,13 +88,21 @@ const shape = {
     ],
     default: 'E12',
   }),
-  rippleFrequency: quantity('Hz', {
-    label: 'Ripple frequency',
-    default: 100,
-    min: 1,
-    max: 2000,
-    plausible: { min: 45, max: 130 },
-    help: 'Twice the mains frequency for full-wave rectification: 100 Hz on 50 Hz mains, 120 Hz on 60 Hz.',
+  mainsFrequency: quantity('Hz', {
+    label: 'Mains frequency',
+    default: 50,
+    min: 16,
+    max: 440,
+    plausible: { min: 45, max: 65 },
+    follows: 'mainsFrequency',
+  }),
+  rectification: select({
+    label: 'Rectification',
+    options: [
+      { value: 'full-wave', label: 'Full-wave (bridge or centre tap): ripple at twice the mains' },
+      { value: 'half-wave', label: 'Half-wave: ripple at the mains frequency' },
+    ],
+    default: 'full-wave',
   }),
   startRipple: optionalQuantity('V peak-to-peak', {
     label: 'Ripple at the start node (peak to peak)',
@@ -89,7 +115,38 @@ const shape = {
 const { schema: baseSchema, fields } = defineInputs(shape);
 export type DropperLadderInput = InputOf<typeof shape>;
 
-const inputs = baseSchema.superRefine((v, ctx) => {
+/**
+ * Blocks written before the ripple frequency followed the mains carry a typed `rippleFrequency`; an
+ * approved revision must evaluate as it did, so it is read as full-wave on half that mains.
+ */
+function retireRippleFrequency(raw: unknown): unknown {
+  if (!raw || typeof raw !== 'object' || Array.isArray(raw) || !('rippleFrequency' in raw)) return raw;
+  const { rippleFrequency, ...rest } = raw as Record<string, unknown>;
+  if (rest.mainsFrequency !== undefined && rest.mainsFrequency !== '') return rest;
+  let ripple = Number.NaN;
+  if (typeof rippleFrequency === 'number') ripple = rippleFrequency;
+  else if (typeof rippleFrequency === 'string') {
+    try {
+      ripple = parseQuantity(rippleFrequency, 'Hz').value;
+    } catch {
+      // Unreadable: dropped, and the block follows the mains frequency parameter like a new one.
+    }
+  }
+  return Number.isFinite(ripple) ? { ...rest, mainsFrequency: ripple / 2, rectification: 'full-wave' } : rest;
+}
+
+const refined = baseSchema.superRefine((v, ctx) => {
+  v.stages.forEach((st, i) => {
+    if (st.element !== 'choke') return;
+    if (st.inductance === undefined)
+      ctx.addIssue({ code: 'custom', path: ['stages', i, 'inductance'], message: 'is required for a choke' });
+    if (st.fittedResistance === undefined)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['stages', i, 'fittedResistance'],
+        message: 'is required for a choke: its DC resistance',
+      });
+  });
   let previous = v.startVoltage;
   v.stages.forEach((st, i) => {
     if (st.targetVoltage >= previous) {
@@ -114,11 +171,28 @@ const inputs = baseSchema.superRefine((v, ctx) => {
     }
   }
 });
+const inputs = z.preprocess(retireRippleFrequency, refined) as unknown as typeof refined;
+
+/** LC stage attenuation A = 1 / |1 − (2π f)² L C| [derived; docs/references.md §3]. */
+export function lcAttenuation(l: number, c: number, f: number): number {
+  const w = 2 * Math.PI * f;
+  return 1 / Math.abs(1 - w * w * l * c);
+}
 
 /** RC stage attenuation A = X_C / √(R² + X_C²), X_C = 1 / (2π f C) [derived]. */
 export function rcAttenuation(r: number, c: number, f: number): number {
   const xc = 1 / (2 * Math.PI * f * c);
   return xc / Math.hypot(r, xc);
+}
+
+export function lcResonance(l: number, c: number): number {
+  return 1 / (2 * Math.PI * Math.sqrt(l * c));
+}
+
+export function rippleFrequencyOf(
+  input: Pick<DropperLadderInput, 'mainsFrequency' | 'rectification'>,
+): number {
+  return input.rectification === 'full-wave' ? 2 * input.mainsFrequency : input.mainsFrequency;
 }
 
 export function suggestedPowerRating(dissipation: number): number {
@@ -137,21 +211,34 @@ function compute(input: DropperLadderInput): ReckonerResult {
   let prevTarget = input.startVoltage;
   let prevActual = input.startVoltage;
   let ripple = input.startRipple;
+  const rippleFrequency = rippleFrequencyOf(input);
+  outputs.rippleFrequency = q(
+    rippleFrequency,
+    'Hz',
+    'Ripple frequency',
+    input.rectification === 'full-wave'
+      ? 'Twice the mains frequency (full-wave).'
+      : 'The mains frequency (half-wave).',
+    SRC.derived,
+  );
   input.stages.forEach((st, i) => {
     const key = `stage${i + 1}`;
     const name = st.label ?? `Stage ${i + 1}`;
     const I = through[i]!;
     if (!(I > 0))
       throw new ReckonerInputError(`stages.${i}.current`, 'no current flows through this stage’s resistor');
+    const choke = st.element === 'choke' ? st.inductance! : undefined;
     const exact = (prevTarget - st.targetVoltage) / I;
     const e12 = nearestESeries(exact, 'E12');
     const e24 = nearestESeries(exact, 'E24');
     const fitted = st.fittedResistance;
     const used = fitted ?? (input.series === 'E12' ? e12 : e24);
     const usedText =
-      fitted !== undefined
-        ? `the fitted ${formatQuantity(used, 'Ω')}`
-        : `the nearest ${input.series} value, ${formatQuantity(used, 'Ω')}`;
+      choke !== undefined
+        ? `the choke’s ${formatQuantity(used, 'Ω')}`
+        : fitted !== undefined
+          ? `the fitted ${formatQuantity(used, 'Ω')}`
+          : `the nearest ${input.series} value, ${formatQuantity(used, 'Ω')}`;
     const node = prevActual - used * I;
     if (!(node > 0)) {
       throw new ReckonerInputError(
@@ -163,32 +250,49 @@ function compute(input: DropperLadderInput): ReckonerResult {
       );
     }
     const power = I * I * used;
-    const att = rcAttenuation(used, st.capacitance, input.rippleFrequency);
-    outputs[`${key}.resistanceExact`] = q(
-      exact,
-      'Ω',
-      `${name}: exact resistance`,
-      'R = ΔV ÷ I from the previous target (the start voltage for the first stage) to this target, with I the current of this node and all after it. For comparison when a resistor is fitted.',
-      SRC.derived,
-    );
-    outputs[`${key}.resistanceE12`] = q(
-      e12,
-      'Ω',
-      `${name}: nearest E12`,
-      'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
-      'IEC 60063 E12',
-    );
-    outputs[`${key}.resistanceE24`] = q(
-      e24,
-      'Ω',
-      `${name}: nearest E24`,
-      'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
-      'IEC 60063 E24',
-    );
+    const att =
+      choke !== undefined
+        ? lcAttenuation(choke, st.capacitance, rippleFrequency)
+        : rcAttenuation(used, st.capacitance, rippleFrequency);
+    if (choke !== undefined)
+      outputs[`${key}.resonance`] = q(
+        lcResonance(choke, st.capacitance),
+        'Hz',
+        `${name}: LC resonance`,
+        '1 ÷ (2π √(L C)); keep it well below the ripple frequency.',
+        SRC.derived,
+      );
+    if (choke === undefined) {
+      outputs[`${key}.resistanceExact`] = q(
+        exact,
+        'Ω',
+        `${name}: exact resistance`,
+        'R = ΔV ÷ I from the previous target (the start voltage for the first stage) to this target, with I the current of this node and all after it. For comparison when a resistor is fitted.',
+        SRC.derived,
+      );
+      outputs[`${key}.resistanceE12`] = q(
+        e12,
+        'Ω',
+        `${name}: nearest E12`,
+        'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
+        'IEC 60063 E12',
+      );
+      outputs[`${key}.resistanceE24`] = q(
+        e24,
+        'Ω',
+        `${name}: nearest E24`,
+        'Nearest to the exact resistance on a log scale; a suggestion, not necessarily the fitted part.',
+        'IEC 60063 E24',
+      );
+    }
     outputs[`${key}.resistance`] = q(
       used,
       'Ω',
-      fitted !== undefined ? `${name}: fitted resistor` : `${name}: resistor used (${input.series})`,
+      choke !== undefined
+        ? `${name}: choke DC resistance`
+        : fitted !== undefined
+          ? `${name}: fitted resistor`
+          : `${name}: resistor used (${input.series})`,
       fitted !== undefined
         ? 'The resistor given as fitted; node voltage, dissipation and attenuation use it.'
         : `No fitted value given: the nearest ${input.series} value to the exact resistance; node voltage, dissipation and attenuation use it.`,
@@ -234,7 +338,9 @@ function compute(input: DropperLadderInput): ReckonerResult {
     outputs[`${key}.attenuation`] = n(
       att,
       `${name}: ripple attenuation`,
-      `X_C ÷ √(R² + X_C²) of this RC stage alone with ${usedText}, ignoring loading by later stages.`,
+      choke !== undefined
+        ? `1 ÷ |1 − ω² L C| of this LC stage alone at ${formatQuantity(rippleFrequency, 'Hz')}, ignoring loading by later stages.`
+        : `X_C ÷ √(R² + X_C²) of this RC stage alone with ${usedText} at ${formatQuantity(rippleFrequency, 'Hz')}, ignoring loading by later stages.`,
       SRC.derived,
       4,
     );
@@ -275,8 +381,21 @@ function compute(input: DropperLadderInput): ReckonerResult {
 
 function cautions(input: DropperLadderInput): Caution[] {
   // A node at or below zero is an input error raised by compute, never a caution.
+  const fr = rippleFrequencyOf(input);
   return compact([
     hazardousVoltage(input.startVoltage, 'The dropper chain'),
+    ...input.stages.map((st, i): Caution | null => {
+      if (st.element !== 'choke' || st.inductance === undefined) return null;
+      const f0 = lcResonance(st.inductance, st.capacitance);
+      if (f0 <= fr / 2) return null;
+      return {
+        level: 'warning',
+        code: 'resonance-near-ripple',
+        field: `stages.${i}.inductance`,
+        message: `${st.label ?? `Stage ${i + 1}`}: the LC resonance of ${formatQuantity(f0, 'Hz')} is ${f0 >= fr ? 'at or above' : 'near'} the ${formatQuantity(fr, 'Hz')} ripple, so the section amplifies ripple instead of removing it. Keep the resonance well below half the ripple frequency.`,
+        source: SRC.commonPractice,
+      };
+    }),
     {
       level: 'note',
       code: 'resistor-voltage',

@@ -12,7 +12,18 @@ export const SRC = {
  * or current can leave a reckoner without saying whether it is rms, peak, peak-to-peak or dc.
  */
 export type OutputUnit =
-  `${'V' | 'A'} ${Exclude<Measure, 'scalar'>}` | 'Ω' | 'F' | 'H' | 'W' | 'VA' | 'Hz' | 's' | 'J' | 'C' | '%';
+  | `${'V' | 'A'} ${Exclude<Measure, 'scalar'>}`
+  | 'Ω'
+  | 'F'
+  | 'H'
+  | 'W'
+  | 'VA'
+  | 'Hz'
+  | 's'
+  | 'J'
+  | 'C'
+  | '%'
+  | 'A²s';
 
 export function splitUnit(u: OutputUnit): { unit: string; measure: Measure } {
   const [unit, measure] = u.split(' ') as [string, Measure | undefined];

@@ -1,11 +1,17 @@
 /** The one registry of reckoners, keyed by their stable kind ids. */
 import { bleeder } from './bleeder';
+import { chokeInput } from './choke-input';
 import { dropperLadder } from './dropper-ladder';
 import { heaterBudget } from './heater-budget';
 import { loadedBplus } from './loaded-bplus';
+import { mainsConversion } from './mains-conversion';
 import { mainsFuse } from './mains-fuse';
+import { partRatings } from './part-ratings';
 import { peakNoLoad } from './peak-no-load';
 import { readingTolerance } from './reading-tolerance';
+import { rectifierSubstitution } from './rectifier-substitution';
+import { switchOnSurge } from './switch-on-surge';
+import { transformerLoading } from './transformer-loading';
 import type { AnyReckoner } from './types';
 
 export const reckoners = {
@@ -13,9 +19,15 @@ export const reckoners = {
   'peak-no-load': peakNoLoad,
   'loaded-bplus': loadedBplus,
   'dropper-ladder': dropperLadder,
+  'choke-input': chokeInput,
   bleeder,
   'heater-budget': heaterBudget,
   'reading-tolerance': readingTolerance,
+  'mains-conversion': mainsConversion,
+  'switch-on-surge': switchOnSurge,
+  'transformer-loading': transformerLoading,
+  'rectifier-substitution': rectifierSubstitution,
+  'part-ratings': partRatings,
 } as const satisfies Record<string, AnyReckoner>;
 
 export type ReckonerKind = keyof typeof reckoners;

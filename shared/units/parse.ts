@@ -87,6 +87,10 @@ const UNIT_ALIASES: Record<string, string> = {
   J: 'J',
   C: 'C',
   '%': '%',
+  // Fuse and diode surge ratings (I²t).
+  'A²s': 'A²s',
+  A2s: 'A²s',
+  'A^2s': 'A²s',
 };
 
 /** Qualifiers people add after volts and amps: the measure, reported beside the value. */

@@ -1,5 +1,5 @@
 /** Units the reckoners speak. Values are always held in the SI base unit. */
-export const UNITS = ['V', 'A', 'Ω', 'F', 'H', 'W', 'VA', 'Hz', 's', 'J', 'C', '%'] as const;
+export const UNITS = ['V', 'A', 'Ω', 'F', 'H', 'W', 'VA', 'Hz', 's', 'J', 'C', '%', 'A²s'] as const;
 export type Unit = (typeof UNITS)[number];
 
 /** SI prefixes used for both parsing and printing (engineering steps only, plus none). */
@@ -16,7 +16,7 @@ export const PREFIXES: readonly { symbol: string; exponent: number }[] = [
 ];
 
 /** Units that never take an SI prefix when printed. */
-export const UNPREFIXED_UNITS: ReadonlySet<string> = new Set(['%', '']);
+export const UNPREFIXED_UNITS: ReadonlySet<string> = new Set(['%', '', 'A²s']);
 
 export function isUnit(u: string): u is Unit {
   return (UNITS as readonly string[]).includes(u);

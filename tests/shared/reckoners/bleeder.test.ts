@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { divide, multiply, pow, unit, type Unit } from 'mathjs';
-import { expectClose, num, run } from '../helpers';
+import { expectClose, fieldErrors, num, run } from '../helpers';
 
 /**
  * The discharge of C through R, integrated step by step (classical RK4, docs/references.md §5, §7)
@@ -122,5 +122,31 @@ describe('bleeder', () => {
         (c) => c.code === 'stored-charge-limit',
       ),
     ).toBe(false);
+  });
+});
+
+describe('bleeder over time', () => {
+  it('the voltage after a given time and the time to each further threshold match a step-by-step discharge [RK4, docs/references.md §5, §7]', () => {
+    const { outputs } = run('bleeder', {
+      capacitance: '220 µF',
+      chargedVoltage: '480 V',
+      bleederResistance: '100k',
+      elapsed: '30 s',
+      milestones: [{ label: 'probe on', volts: '10 V' }, { volts: '2 V' }],
+    });
+    expectClose(num(outputs, 'milestone1'), dischargeByRk4(100e3, 220e-6, 480, 10).crossing, 1e-4);
+    expectClose(num(outputs, 'milestone2'), dischargeByRk4(100e3, 220e-6, 480, 2).crossing, 1e-4);
+    expect(outputs.milestone1!.label).toContain('probe on');
+    // The voltage at 30 s is the threshold whose crossing time is 30 s.
+    const v30 = num(outputs, 'voltageAfter');
+    expectClose(dischargeByRk4(100e3, 220e-6, 480, v30).crossing, 30, 1e-4);
+  });
+
+  it('asks for the bleeder resistance when the voltage over time is wanted', () => {
+    expect(
+      fieldErrors('bleeder', { capacitance: '100 µF', chargedVoltage: '450 V', elapsed: '10 s' }).map(
+        (e) => e.field,
+      ),
+    ).toContain('bleederResistance');
   });
 });

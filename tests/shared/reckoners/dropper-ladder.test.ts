@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
+import { abs, add, complex, divide, type Complex } from 'mathjs';
 import { rcAttenuation, suggestedPowerRating } from '../../../shared/reckoners/dropper-ladder';
 import { expectClose, fieldErrors, num, run } from '../helpers';
 
@@ -252,5 +253,71 @@ describe('dropper-ladder', () => {
       const errs = fieldErrors('dropper-ladder', chain(350, ['0', undefined]));
       expect(errs.map((e) => e.field)).toEqual(['stages.0.fittedResistance']);
     });
+  });
+});
+
+describe('dropper ladder: LC sections and the ripple frequency', () => {
+  const lcStage = {
+    targetVoltage: 340,
+    current: '50 mA',
+    capacitance: '47 µF',
+    element: 'choke',
+    inductance: '10 H',
+    fittedResistance: '150 Ω',
+  };
+
+  it('an LC section attenuates by |Z_C ÷ (Z_L + Z_C)| at twice the mains [complex impedances by mathjs; docs/references.md §3]', () => {
+    const { outputs } = run('dropper-ladder', {
+      startVoltage: 350,
+      mainsFrequency: '50 Hz',
+      stages: [lcStage],
+    });
+    const w = 2 * Math.PI * 100;
+    const zl = complex(0, w * 10);
+    const zc = complex(0, -1 / (w * 47e-6));
+    const h = abs(divide(zc, add(zl, zc)) as Complex) as unknown as number;
+    expectClose(num(outputs, 'stage1.attenuation'), h, 1e-9);
+    expectClose(num(outputs, 'rippleFrequency'), 100, 1e-12);
+    // The DC drop is the choke's resistance × the current: 350 − 0.05 × 150.
+    expectClose(num(outputs, 'stage1.nodeVoltage'), 342.5, 1e-12);
+    expect(outputs['stage1.resistanceE12']).toBeUndefined();
+  });
+
+  it('the ripple frequency follows the mains and the rectification, never a typed figure [derived]', () => {
+    const stage = { targetVoltage: 330, current: '20 mA', capacitance: '47 µF' };
+    const at60 = run('dropper-ladder', { startVoltage: 350, mainsFrequency: '60 Hz', stages: [stage] });
+    expectClose(num(at60.outputs, 'stage1.attenuation'), rcAttenuation(1000, 47e-6, 120), 1e-12);
+    const half = run('dropper-ladder', {
+      startVoltage: 350,
+      mainsFrequency: '60 Hz',
+      rectification: 'half-wave',
+      stages: [stage],
+    });
+    expectClose(num(half.outputs, 'stage1.attenuation'), rcAttenuation(1000, 47e-6, 60), 1e-12);
+  });
+
+  it('a block written with a typed ripple frequency evaluates as it did (approved revisions do not change)', () => {
+    const stage = { targetVoltage: 330, current: '20 mA', capacitance: '47 µF' };
+    const old = run('dropper-ladder', { startVoltage: 350, rippleFrequency: '120 Hz', stages: [stage] });
+    expectClose(num(old.outputs, 'stage1.attenuation'), rcAttenuation(1000, 47e-6, 120), 1e-12);
+  });
+
+  it('warns when an LC resonance is near or above the ripple frequency [common practice, no source]', () => {
+    const { cautions } = run('dropper-ladder', {
+      startVoltage: 350,
+      stages: [{ ...lcStage, inductance: '100 mH', capacitance: '10 µF' }],
+    });
+    const c = cautions.find((x) => x.code === 'resonance-near-ripple');
+    expect(c?.field).toBe('stages.0.inductance');
+    const fine = run('dropper-ladder', { startVoltage: 350, stages: [lcStage] });
+    expect(fine.cautions.map((x) => x.code)).not.toContain('resonance-near-ripple');
+  });
+
+  it('a choke needs its inductance and its DC resistance', () => {
+    const errors = fieldErrors('dropper-ladder', {
+      startVoltage: 350,
+      stages: [{ targetVoltage: 340, current: '50 mA', capacitance: '47 µF', element: 'choke' }],
+    }).map((e) => e.field);
+    expect(errors).toEqual(expect.arrayContaining(['stages.0.inductance', 'stages.0.fittedResistance']));
   });
 });

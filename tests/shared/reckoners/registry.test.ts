@@ -4,21 +4,27 @@ import { validateInputs } from '../../../shared/reckoners/validate';
 import { WORKED_EXAMPLES } from './examples';
 
 describe('registry', () => {
-  it('holds the seven reckoners under their stable kind ids', () => {
+  it('holds the thirteen reckoners under their stable kind ids', () => {
     expect(RECKONER_KINDS).toEqual([
       'mains-fuse',
       'peak-no-load',
       'loaded-bplus',
       'dropper-ladder',
+      'choke-input',
       'bleeder',
       'heater-budget',
       'reading-tolerance',
+      'mains-conversion',
+      'switch-on-surge',
+      'transformer-loading',
+      'rectifier-substitution',
+      'part-ratings',
     ]);
     for (const kind of RECKONER_KINDS) {
       expect(getReckoner(kind)!.kind).toBe(kind);
       expect(reckoners[kind].kind).toBe(kind);
     }
-    expect(listReckoners()).toHaveLength(7);
+    expect(listReckoners()).toHaveLength(13);
     expect(getReckoner('nope')).toBeUndefined();
     expect(getReckoner('toString')).toBeUndefined();
   });
