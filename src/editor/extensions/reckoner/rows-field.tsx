@@ -1,6 +1,6 @@
 import type { InputValue } from '@shared/document/schema';
 import type { FieldSpec } from '@shared/reckoners';
-import { initialInputs } from './reckoner';
+import { initialInputs } from '@shared/reckoners/initial-inputs';
 import { InputSource } from './input-source';
 
 type Row = Record<string, InputValue>;
