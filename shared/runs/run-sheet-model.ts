@@ -1,4 +1,5 @@
 import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
+import type { SignalLevel } from '../safety-signs';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
 import { formatNumber, formatQuantity } from '../units/format';
 
@@ -97,6 +98,8 @@ export interface SheetCheck {
   kind: 'check' | 'hazard';
   /** "Check" or "Hazard note". */
   kindText: string;
+  /** A hazard note's safety sign (shared/safety-signs.ts), drawn beside it on the page and the PDF. */
+  signal: SignalLevel | null;
   text: string;
   done: boolean;
   /** "done by …, time", "acknowledged by …, time" or "not done". */
@@ -161,6 +164,8 @@ function checkRow(step: RunStep, e: EntryView | undefined): SheetCheck {
     position: step.position,
     kind: hazard ? 'hazard' : 'check',
     kindText: hazard ? 'Hazard note' : 'Check',
+    // Runs started before notes had levels were all DANGER notes.
+    signal: hazard ? (step.hazard?.level ?? 'danger') : null,
     text: step.text,
     done: !!e?.done,
     status: e?.done

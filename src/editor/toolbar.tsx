@@ -1,5 +1,6 @@
 import { useEditorState, type Editor } from '@tiptap/react';
 import type { ReactNode } from 'react';
+import { WarningTriangle } from '@/components/ui/safety-sign';
 
 interface Props {
   editor: Editor;
@@ -89,7 +90,8 @@ export function Toolbar({
       <button type="button" className={button} onClick={onInsertCheck}>
         Check step
       </button>
-      <button type="button" className={`${button} border-hazard-ink`} onClick={onInsertHazard}>
+      <button type="button" className={`${button} inline-flex items-center gap-1.5`} onClick={onInsertHazard}>
+        <WarningTriangle className="size-5" />
         Hazard note
       </button>
       {upload}

@@ -1,6 +1,7 @@
 /**
- * axe-core (WCAG 2.x A and AA rules) on every route, as the person who would open it, including the
- * editor with every block kind and a bench run in progress: no critical or serious violation.
+ * axe-core (WCAG 2.x A and AA rules) on every route, signed in as each role that can open it (one
+ * browser context per person), including the editor and reader with every block kind and a bench run
+ * in progress: no critical or serious violation.
  */
 import { AxeBuilder } from '@axe-core/playwright';
 import type { BrowserContext } from 'playwright-core';
@@ -11,7 +12,7 @@ import { routeTour, type Visit, type Visitor } from '../support/route-tour';
 const app = useBrowserApp();
 let tour: Visit[] = [];
 beforeAll(async () => {
-  tour = await routeTour(app.databaseUrl);
+  tour = await routeTour(app.databaseUrl, app.uploadDir);
 });
 
 describe('accessibility of every page (axe-core)', () => {
@@ -40,12 +41,14 @@ describe('accessibility of every page (axe-core)', () => {
             .slice(0, 3)
             .map((n) => n.target.join(' '))
             .join(' | ');
-          found.push(`${visit.route} as ${visit.who}: ${v.id} (${v.impact}, ${v.nodes.length}×) ${where}`);
+          found.push(
+            `${visit.route}${visit.what ? ` (${visit.what})` : ''} as ${visit.who}: ${v.id} (${v.impact}, ${v.nodes.length}×) ${where}`,
+          );
         }
       }
     } finally {
       for (const c of contexts.values()) await c.close();
     }
     expect(found.join('\n')).toBe('');
-  }, 600_000);
+  }, 1_200_000);
 });

@@ -9,7 +9,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '../../server/bootstrap/prepare';
 import { useBrowserApp } from '../support/e2e';
-import { routeTour, type Visit, type Visitor } from '../support/route-tour';
+import { onePerAddress, routeTour, type Visit, type Visitor } from '../support/route-tour';
 
 const app = useBrowserApp();
 const WIDTHS = [390, 768, 1024, 1366] as const;
@@ -18,7 +18,7 @@ const SCREENS = path.join(projectRoot, '.data', 'screens');
 
 let tour: Visit[] = [];
 beforeAll(async () => {
-  tour = await routeTour(app.databaseUrl);
+  tour = onePerAddress(await routeTour(app.databaseUrl, app.uploadDir));
 });
 afterAll(() => {
   console.log(`[layout] screenshots of every route at 1366 and 390 px: ${SCREENS}`);
@@ -86,11 +86,14 @@ describe('no page is wider than the window', () => {
           await page.locator('h1').first().waitFor();
           const { wide, culprits } = await overflowAt(page);
           expect
-            .soft(wide, `${visit.route} as ${visit.who} at ${width} px: ${culprits.join('; ')}`)
+            .soft(
+              wide,
+              `${visit.route}${visit.what ? ` (${visit.what})` : ''} as ${visit.who} at ${width} px: ${culprits.join('; ')}`,
+            )
             .toBeLessThanOrEqual(width + 1);
           if (width === 390 || width === 1366) {
             await page.screenshot({
-              path: path.join(shots, `${visit.route}-${visit.who}.png`),
+              path: path.join(shots, `${visit.route}${visit.what ? `-${visit.what}` : ''}-${visit.who}.png`),
               fullPage: true,
             });
           }

@@ -35,6 +35,10 @@ export function useBrowserApp() {
     get databaseUrl() {
       return server!.databaseUrl;
     },
+    /** Where the test server keeps uploaded bytes (a file store, server/storage/files.ts). */
+    get uploadDir() {
+      return server!.uploadDir;
+    },
     get browser() {
       return browser!;
     },

@@ -19,6 +19,7 @@ export async function startTestServer() {
   return {
     url: running.url,
     databaseUrl: database.url,
+    uploadDir,
     async close() {
       await running.close();
       await database.drop();

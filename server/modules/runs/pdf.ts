@@ -7,7 +7,41 @@ import {
   type SheetNotice,
 } from '../../../shared/runs/run-sheet-model';
 import type { RunView } from '../../../shared/schemas/runs';
-import { SAFETY_SIGNS, WARNING_TRIANGLE } from '../../../shared/safety-signs';
+import { SAFETY_SIGNS, WARNING_TRIANGLE, type SignalLevel } from '../../../shared/safety-signs';
+
+type Doc = InstanceType<typeof PDFDocument>;
+
+/** The warning triangle of shared/safety-signs.ts (its own paths), `size` points wide, at (x, y). */
+function drawTriangle(doc: Doc, x: number, y: number, size: number) {
+  const t = WARNING_TRIANGLE;
+  const [, , w = 48] = t.viewBox.split(' ').map(Number);
+  doc
+    .save()
+    .translate(x, y)
+    .scale(size / w);
+  doc.path(t.outline).lineWidth(4).lineJoin('round').fillAndStroke(t.field, t.ink);
+  doc.rect(t.bar.x, t.bar.y, t.bar.width, t.bar.height).fill(t.ink);
+  doc.circle(t.dot.cx, t.dot.cy, t.dot.r).fill(t.ink);
+  doc.restore();
+}
+
+/**
+ * The signal-word band of a safety sign, as on the page: the level's field colour, the triangle
+ * where it belongs, the word in the sign's ink. Drawn at (x, y), `height` points tall; returns its width.
+ */
+function signBand(doc: Doc, level: SignalLevel, x: number, y: number, height: number) {
+  const sign = SAFETY_SIGNS[level];
+  const size = height * 0.55;
+  doc.font('Helvetica-Bold').fontSize(size);
+  const triangle = sign.triangle ? height - 4 : 0;
+  const wordAt = 5 + (triangle ? triangle + 4 : 0);
+  const width = wordAt + doc.widthOfString(sign.word) + 5;
+  doc.rect(x, y, width, height).fill(sign.field);
+  if (triangle) drawTriangle(doc, x + 4, y + 2, triangle);
+  doc.fillColor(sign.ink).text(sign.word, x + wordAt, y + (height - size) / 2 + 0.5, { lineBreak: false });
+  doc.fillColor(INK);
+  return width;
+}
 
 // The built-in PDF fonts speak WinAnsi only: spell out what they cannot draw.
 const SPELLED: Record<string, string> = {
@@ -38,7 +72,8 @@ const INK = '#2b2a28';
 const OUT = '#a3261b';
 const NOTICE_INK: Record<SheetNotice['kind'], string> = {
   signed: '#1d6b3a',
-  'in-progress': OUT,
+  // Under way is a state, not a fault or a hazard.
+  'in-progress': INK,
   abandoned: OUT,
   hold: OUT,
   out: OUT,
@@ -110,27 +145,13 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   const cautionTop = doc.y;
   const caution = pdfText(`${sheet.caution.lead} ${sheet.caution.text}`);
   doc.font('Helvetica').fontSize(8.5);
-  // The DANGER sign of shared/safety-signs.ts: its band with the triangle and word, then the text.
+  // The DANGER sign of shared/safety-signs.ts: its band across the box, then the text.
   const sign = SAFETY_SIGNS.danger;
   const band = 18;
   const cautionHeight = band + doc.heightOfString(caution, { width: width - 20 }) + 12;
   doc.rect(left, cautionTop, width, cautionHeight).lineWidth(2).stroke(sign.field);
   doc.rect(left, cautionTop, width, band).fill(sign.field);
-  const t = { x: left + 8, y: cautionTop + 3, s: 12 };
-  doc
-    .polygon([t.x + t.s / 2, t.y], [t.x + t.s, t.y + t.s], [t.x, t.y + t.s])
-    .lineWidth(1.2)
-    .fillAndStroke(WARNING_TRIANGLE.field, WARNING_TRIANGLE.ink);
-  doc
-    .fillColor(WARNING_TRIANGLE.ink)
-    .font('Helvetica-Bold')
-    .fontSize(8)
-    .text('!', t.x + t.s / 2 - 1.5, t.y + 3);
-  doc
-    .fillColor(sign.ink)
-    .font('Helvetica-Bold')
-    .fontSize(9)
-    .text(sign.word, left + 26, cautionTop + 5, { width: width - 36 });
+  signBand(doc, 'danger', left, cautionTop, band);
   doc
     .fillColor(INK)
     .font('Helvetica')
@@ -188,10 +209,16 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   heading(SHEET_HEADINGS.checks);
   for (const c of sheet.checks) {
     ensure(24);
+    // A hazard note leads with its safety sign, as on the page; the text follows beside it.
+    const y = doc.y;
+    const x = c.signal ? left + signBand(doc, c.signal, left, y, 12) + 4 : left;
     doc
       .font('Helvetica-Bold')
       .fontSize(8.5)
-      .text(pdfText(`${c.position}. ${c.kindText}: `), left, doc.y, { continued: true, width })
+      .text(pdfText(`${c.position}. ${c.signal ? '' : `${c.kindText}: `}`), x, y + (c.signal ? 2 : 0), {
+        continued: true,
+        width: width - (x - left),
+      })
       .font('Helvetica')
       .text(pdfText(`${c.text.slice(0, 400)} [${c.status}]`));
     if (c.note) doc.font('Helvetica-Oblique').text(pdfText(`Note: ${c.note}`), left + 12, doc.y, { width });

@@ -187,6 +187,16 @@ describe('run sheet model', () => {
     });
   });
 
+  it('draws a hazard note with its own signal word, a note from before levels as DANGER', () => {
+    const levelled = steps.map((s) =>
+      s.kind === 'hazard' ? { ...s, hazard: { level: 'warning' as const } } : s,
+    );
+    const [check, hazard] = runSheetModel(runView({ steps: levelled })).checks;
+    expect(check!.signal).toBeNull();
+    expect(hazard!.signal).toBe('warning');
+    expect(runSheetModel(runView()).checks[1]!.signal).toBe('danger');
+  });
+
   it('states the signature meaning, the hash check, and the run-sheet caution', () => {
     const sheet = runSheetModel(runView());
     const field = (label: string) => sheet.signature.find((f) => f.label === label)?.value;

@@ -25,14 +25,14 @@ export function HazardNoteView({ node, updateAttributes, deleteNode }: NodeViewP
       style={{ borderColor: sign.field }}
     >
       <div
-        className="flex items-center gap-2 px-2 py-1"
+        className="flex flex-wrap items-center gap-2 px-2 py-1"
         style={{ backgroundColor: sign.field, color: sign.ink }}
         contentEditable={false}
       >
         {sign.triangle && <WarningTriangle className="size-6" />}
         <select
           aria-label="Hazard level"
-          className="min-h-9 rounded border-2 border-current bg-transparent px-2 text-sm font-bold tracking-wider"
+          className="min-h-9 max-w-full min-w-0 flex-1 rounded border-2 border-current bg-transparent px-2 text-sm font-bold tracking-wider sm:flex-none"
           value={attrs.level}
           onChange={(e) => updateAttributes({ level: e.target.value as SignalLevel })}
         >

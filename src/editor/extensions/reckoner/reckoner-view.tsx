@@ -8,7 +8,7 @@ import { BlockFrame } from '../block-frame';
 import { InputSource } from './input-source';
 import { ReckonerResults } from './reckoner-results';
 import { RowsField } from './rows-field';
-import { initialInputs } from './reckoner';
+import { initialInputs } from '@shared/reckoners/initial-inputs';
 
 export function ReckonerView({ node, updateAttributes, deleteNode, selected }: NodeViewProps) {
   const attrs = node.attrs as ReckonerAttrs;

@@ -2,7 +2,7 @@ import { useId } from 'react';
 import type { InputValue } from '@shared/document/schema';
 import { WhyDisabled } from '@/components/ui/button';
 import type { FieldSpec } from '@shared/reckoners';
-import { initialInputs } from './reckoner';
+import { initialInputs } from '@shared/reckoners/initial-inputs';
 import { InputSource } from './input-source';
 
 type Row = Record<string, InputValue>;

@@ -3,6 +3,23 @@ import { SignalWord } from '@/components/ui/safety-sign';
 
 const ORDER = { danger: 0, warning: 1, note: 2 } as const;
 
+/**
+ * Safety signs are for hazards only: a reckoner's caution and a finding of a safety rule (a missing
+ * hazard note or discharge step, an under-rated capacitor: the rules at DANGER) carry their sign; a
+ * finding about the document's data (a missing input, a reading without a band) is not a hazard and
+ * gets the app's own mark.
+ */
+const isHazard = (w: LintWarning) => w.code === 'reckoner-caution' || w.level === 'danger';
+
+function FindingMark({ warning }: { warning: LintWarning }) {
+  if (isHazard(warning)) return <SignalWord level={warning.level} size="sm" />;
+  return (
+    <span className="inline-flex rounded-sm border border-out px-1.5 py-0.5 text-xs font-bold tracking-wider text-out">
+      TO FIX
+    </span>
+  );
+}
+
 function WarningList({
   warnings,
   onSelect,
@@ -18,7 +35,7 @@ function WarningList({
       {sorted.map((w, i) => {
         const body = (
           <>
-            <SignalWord level={w.level} size="sm" /> {w.message}
+            <FindingMark warning={w} /> {w.message}
           </>
         );
         return (

@@ -81,7 +81,7 @@ export function BenchChecklist({
           {waiting > 0 && (
             <span
               data-pending-count={waiting}
-              className="rounded bg-hazard px-2 py-1 text-sm font-semibold text-hazard-ink"
+              className="rounded border border-pending bg-pending-wash px-2 py-1 text-sm font-semibold text-pending"
             >
               {waiting} waiting to be sent
             </span>

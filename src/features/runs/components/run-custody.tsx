@@ -36,7 +36,7 @@ export function WaitingEntries({
     <div
       role="alert"
       data-waiting-count={items.length}
-      className="rounded-md border-2 border-hazard-ink bg-hazard/30 px-4 py-3 text-sm"
+      className="rounded-md border-2 border-pending bg-pending-wash px-4 py-3 text-sm"
     >
       <p className="font-semibold">
         {items.length} {items.length === 1 ? 'entry is' : 'entries are'} waiting on this tablet, not sent:

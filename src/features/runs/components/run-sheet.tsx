@@ -9,11 +9,11 @@ import type { RunView } from '@shared/schemas/runs';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { DeviationPlot } from './deviation-plot';
 import { Mark } from './mark';
-import { SafetySign } from '@/components/ui/safety-sign';
+import { SafetySign, SignalWord } from '@/components/ui/safety-sign';
 
 const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
   signed: 'border-ok text-ok',
-  'in-progress': 'border-hazard-ink bg-hazard text-hazard-ink',
+  'in-progress': 'border-pending bg-pending-wash text-pending',
   abandoned: 'border-out bg-out-wash text-out',
   hold: 'border-out bg-out-wash text-out',
   out: 'border-out bg-out-wash text-out',
@@ -161,8 +161,8 @@ export function RunSheet({ run }: { run: RunView }) {
               <span className={`value ${c.done ? 'text-ok' : 'text-out'}`}>{c.done ? '✓' : '✗'}</span>
               <span>
                 <span className="value text-graphite-soft">{c.position}.</span>{' '}
-                {c.kind === 'hazard' && <strong>{c.kindText}: </strong>}
-                {c.text} <span className="text-graphite-soft">— {c.status}</span>
+                {c.signal && <SignalWord level={c.signal} size="sm" />} {c.text}{' '}
+                <span className="text-graphite-soft">— {c.status}</span>
                 {c.note && <span className="block italic">Note: {c.note}</span>}
               </span>
             </li>

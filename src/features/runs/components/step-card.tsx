@@ -27,7 +27,7 @@ function Status({ entry, pending }: { entry: EntryView | undefined; pending: Pen
   return (
     <div className="flex flex-col gap-1 text-sm">
       {waiting.length > 0 && (
-        <p data-pending="true" className="rounded border border-hazard bg-hazard/20 px-2 py-1">
+        <p data-pending="true" className="rounded border border-pending bg-pending-wash px-2 py-1">
           Pending: saved on this tablet, sent when the server is reachable.
         </p>
       )}

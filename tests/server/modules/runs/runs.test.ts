@@ -375,6 +375,10 @@ describe('signing the run sheet', () => {
     expect(text).toContain(`Note: ${note}`);
     expect(text).toContain('Meaning: performed: I performed this bench run and recorded these readings.');
     expect(text).toContain('DANGER Lethal voltages.');
+    // The hazard note's row leads with its own signal word, as on the page.
+    const hazard = runSheetModel(signed.body.run).checks.find((c) => c.stepId === 'hz-ht-live')!;
+    expect(hazard.signal).toBe('danger');
+    expect(text).toContain(`DANGER ${hazard.position}. The HT winding is live`);
 
     // Every reading row of the model the page draws is in the PDF, cell by cell.
     const readings = runSheetModel(signed.body.run).readings;
