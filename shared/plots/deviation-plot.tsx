@@ -24,7 +24,8 @@ export function DeviationPlotSvg({
     <svg
       xmlns="http://www.w3.org/2000/svg"
       role="img"
-      aria-labelledby={`${id}-title ${id}-desc`}
+      aria-labelledby={`${id}-title`}
+      aria-describedby={`${id}-desc`}
       viewBox={`0 0 ${l.width} ${l.height}`}
       width={l.width}
       height={l.height}
@@ -82,7 +83,7 @@ export function DeviationPlotSvg({
         strokeWidth={1.5}
       />
       {l.rows.map((r) => (
-        <g key={r.stepId}>
+        <g key={r.stepId} data-plot-point={r.stepId}>
           {r.clipped && (
             <polygon
               data-clipped={r.clipped}

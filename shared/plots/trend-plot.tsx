@@ -22,7 +22,8 @@ export function TrendPlotSvg({
     <svg
       xmlns="http://www.w3.org/2000/svg"
       role="img"
-      aria-labelledby={`${id}-title ${id}-desc`}
+      aria-labelledby={`${id}-title`}
+      aria-describedby={`${id}-desc`}
       viewBox={`0 0 ${m.width} ${m.height}`}
       width={m.width}
       height={m.height}

@@ -50,7 +50,7 @@ export function PlotFigure({
                       {c}
                     </th>
                   ) : (
-                    <td key={i} className="value px-2 py-1">
+                    <td key={i} className="px-2 py-1 font-mono tabular-nums">
                       {c}
                     </td>
                   ),

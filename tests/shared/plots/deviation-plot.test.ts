@@ -161,7 +161,7 @@ describe('the readings-against-bands plot', () => {
 
   it('draws out of band as a triangle and in band as a circle (not colour alone), with a name and description', () => {
     const svg = renderToStaticMarkup(createElement(DeviationPlotSvg, { plot, id: 'p1' }));
-    expect(svg).toMatch(/^<svg[^>]* role="img"[^>]* aria-labelledby="p1-title p1-desc"/);
+    expect(svg).toMatch(/^<svg[^>]* role="img"[^>]* aria-labelledby="p1-title" aria-describedby="p1-desc"/);
     expect(svg).toContain(`<title id="p1-title">Readings against their bands</title>`);
     expect(svg).toMatch(/<desc id="p1-desc">2 readings plotted/);
     const rowsOnly = svg.slice(svg.indexOf('data-plot-step')); // past the legend

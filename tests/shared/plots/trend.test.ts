@@ -69,7 +69,7 @@ describe('the unit trend plot', () => {
     expect(model.rows[2]!.mark).toBe('out of band');
     const svg = renderToStaticMarkup(createElement(TrendPlotSvg, { model, id: 't' }));
     expect(svg.match(/data-marker="out"/g)).toHaveLength(2); // the legend's and the visit's
-    expect(svg).toMatch(/role="img"[^>]* aria-labelledby="t-title t-desc"/);
+    expect(svg).toMatch(/role="img"[^>]* aria-labelledby="t-title" aria-describedby="t-desc"/);
     expect(svg).toContain('<title id="t-title">B+ across visits</title>');
     expect(svg).toContain('B+ (V DC)');
     expect(model.description).toMatch(/3 visits, 2026-01-10 to 2026-03-10, in V DC.*1 out of band/);
