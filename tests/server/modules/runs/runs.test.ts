@@ -414,6 +414,11 @@ describe('signing the run sheet', () => {
       `tick step ${step}`,
     ).toBe(true);
     ticks.forEach((t, i) => expect(t).toBeCloseTo(ticks[0]! + i * step, 9));
+    // The plot's text is set in the sheet's own fonts: no other font is embedded or named.
+    const fonts = new Set((res.body as Buffer).toString('latin1').match(/\/BaseFont\s*\/[\w-]+/g));
+    const names = [...fonts].map((f) => f.split('/').pop());
+    expect(names).toContain('Helvetica');
+    for (const f of names) expect(['Helvetica', 'Helvetica-Bold', 'Helvetica-Oblique']).toContain(f);
   });
 });
 
