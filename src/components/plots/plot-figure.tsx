@@ -7,18 +7,29 @@ import type { ReactNode } from 'react';
  */
 export function PlotFigure({
   plot,
+  label,
   caption,
   notes = [],
   table,
 }: {
   plot: ReactNode;
+  /** The plot's title, naming the box that scrolls it sideways on a narrow screen. */
+  label: string;
   caption: string;
   notes?: string[];
   table: { label: string; columns: string[]; rows: { key: string; cells: string[] }[] };
 }) {
   return (
     <figure className="flex max-w-3xl flex-col gap-2">
-      <div className="rounded-lg border border-rule bg-card p-2">{plot}</div>
+      {/* On a phone the drawing keeps a legible size and scrolls sideways; the box takes keyboard focus so it can be scrolled without a pointer. */}
+      <div
+        tabIndex={0}
+        role="group"
+        aria-label={`${label}, scrolls sideways on a narrow screen`}
+        className="overflow-x-auto rounded-lg border border-rule bg-card p-2"
+      >
+        {plot}
+      </div>
       <figcaption className="text-xs text-graphite-soft">{caption}</figcaption>
       {notes.length > 0 && (
         <ul className="text-xs text-graphite-soft">

@@ -9,7 +9,8 @@ export default function DeviationPlot({ plot }: { plot: ReadingsPlot }) {
   if (!plot.readings.length) return <p className="text-sm text-graphite-soft">{plot.description}</p>;
   return (
     <PlotFigure
-      plot={<DeviationPlotSvg plot={plot} id={id} className="h-auto w-full" />}
+      plot={<DeviationPlotSvg plot={plot} id={id} className="h-auto w-full min-w-[560px]" />}
+      label={plot.title}
       caption={plot.caption}
       notes={plot.notPlotted}
       table={{

@@ -16,7 +16,8 @@ export default function TrendPlot({
   const model = trendPlot(view);
   return (
     <PlotFigure
-      plot={<TrendPlotSvg model={model} id={id} className="h-auto w-full" />}
+      plot={<TrendPlotSvg model={model} id={id} className="h-auto w-full min-w-[560px]" />}
+      label={model.title}
       caption={model.caption}
       table={{
         label: 'The plotted figures as a table',
