@@ -62,15 +62,21 @@ function plotSection(
   at: { left: number; width: number; heading: (t: string) => void; ensure: (h: number) => void },
 ) {
   const { width: w, height: h } = deviationLayout(plot);
-  const height = plot.readings.length ? (at.width * h) / w : 0;
+  // Full width, or smaller when a long run's plot would not fit on one page with its heading.
+  const page = doc.page.height - doc.page.margins.top - doc.page.margins.bottom - 48;
+  const scale = Math.min(at.width / w, page / h);
+  const height = plot.readings.length ? h * scale : 0;
   at.ensure(height + 48); // the heading stays with the plot
   at.heading(plot.title);
   if (height) {
     const svg = pdfText(renderToStaticMarkup(createElement(DeviationPlotSvg, { plot, id: 'readings-plot' })));
     const top = doc.y;
     SVGtoPDF(doc, svg, at.left, top, {
-      width: at.width,
+      // Only with preserveAspectRatio does svg-to-pdfkit fit the drawing to width × height; without it the
+      // SVG's own width and height attributes (pixels) would set its size.
+      width: w * scale,
       height,
+      preserveAspectRatio: 'xMinYMin meet',
       fontCallback: (_family, bold) => (bold ? 'Helvetica-Bold' : 'Helvetica'),
     });
     doc.y = top + height + 4;
