@@ -238,7 +238,7 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
       .fontSize(8.5)
       .text(pdfText(`${c.position}. ${c.kindText}: `), left, doc.y, { continued: true, width })
       .font('Helvetica')
-      .text(pdfText(`${c.text.slice(0, 400)} [${c.status}]`));
+      .text(pdfText(`${c.text} [${c.status}]`));
     if (c.note) doc.font('Helvetica-Oblique').text(pdfText(`Note: ${c.note}`), left + 12, doc.y, { width });
     doc.moveDown(0.2);
   }

@@ -124,4 +124,18 @@ describe('the run-sheet PDF’s plot', () => {
     expect(lines).toContain('Deviation from expected (%)');
     expect(lines).toContain(`${n}. Node ${n} voltage`);
   });
+
+  it('prints a long hazard note whole, as the page shows it', async () => {
+    const r = run(2);
+    const text =
+      'Lethal voltages. ' +
+      Array.from(
+        { length: 12 },
+        (_, i) => `Caution sentence ${i + 1} about the stored charge on the reservoir.`,
+      ).join(' ');
+    expect(text.length).toBeGreaterThan(600);
+    r.steps.push({ id: 'hz', kind: 'hazard', position: 3, section: 'Start', text });
+    const lines = pdfText(await renderRunSheetPdf(r));
+    expect(lines.join(' ').replace(/\s+/g, ' ')).toContain(`${text} [not done]`);
+  });
 });
