@@ -2,6 +2,8 @@ import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
 import type { SignalLevel } from '../safety-signs';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
 import { formatNumber, formatQuantity } from '../units/format';
+import { MARK_WORDS, markOf, type MarkKind } from './marks';
+import { readingsPlot, type ReadingsPlot } from './readings-plot';
 
 /**
  * The run sheet as words, once: the page and the PDF both draw this, so a date, a mark, a deviation
@@ -14,16 +16,7 @@ export const NONE = '—';
 /** Run-sheet times: UTC to the second, as the database recorded them, with the zone named. */
 export const formatUtc = (iso: string | null) => (iso ? `${iso.slice(0, 19).replace('T', ' ')} UTC` : NONE);
 
-export type MarkKind = 'within' | 'out' | 'none' | 'missing';
-/** The mark of a reading, in words as well as colour. */
-export const MARK_WORDS: Record<MarkKind, string> = {
-  within: 'in band',
-  out: 'out of band',
-  none: 'no band',
-  missing: 'not recorded',
-};
-export const markOf = (measured: number | null | undefined, within: boolean | null): MarkKind =>
-  measured == null ? 'missing' : within === null ? 'none' : within ? 'within' : 'out';
+export { MARK_WORDS, markOf, type MarkKind } from './marks';
 
 const signed = (x: number) => (x > 0 ? '+' : '');
 /** "+2 V (+0.8 %)": measured minus expected, and as a share of the expected value. */
@@ -126,6 +119,8 @@ export interface RunSheetModel {
   readings: SheetReading[];
   checks: SheetCheck[];
   corrections: SheetCorrection[];
+  /** The readings against their bands, drawn on the page and in the PDF (readings-plot.ts). */
+  plot: ReadingsPlot;
   photos: string | null;
   signature: SheetField[];
 }
@@ -275,6 +270,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
           ),
         };
       }),
+    plot: readingsPlot(run.steps, run.entries),
     photos: run.photos.length
       ? `${plural(run.photos.length, 'photo')} kept with the run in Benchwright`
       : null,

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { Measure } from '../reckoners/types';
 import { oneLine } from './text';
 
 const text = (label: string, max: number) => oneLine(max, { label });
@@ -81,7 +82,7 @@ export interface TrendPoint {
 
 export interface TrendView {
   /** Readings recorded on this unit across runs, to pick one. */
-  readings: { id: string; label: string; unit: string; count: number }[];
-  reading: { id: string; label: string; unit: string } | null;
+  readings: { id: string; label: string; unit: string; measure: Measure | null; count: number }[];
+  reading: { id: string; label: string; unit: string; measure: Measure | null } | null;
   points: TrendPoint[];
 }

@@ -38,6 +38,7 @@ describe('a bench run in Chromium', () => {
     await page.getByText('Registered TC-18 serial TC18-0457.').waitFor();
     await page.getByRole('link', { name: 'TC18-0457' }).click();
     await page.getByRole('heading', { name: /TC-18 · TC18-0457/ }).waitFor();
+    const unitUrl = page.url();
 
     // 2. Start a run on the approved TC-18 procedure at the mains measured at the bench.
     await page.getByRole('link', { name: 'Start a bench run on this unit' }).click();
@@ -157,9 +158,31 @@ describe('a bench run in Chromium', () => {
     );
     await page.getByText('The stored run content matches the signed hash.').waitFor();
     await page.getByText('Lethal voltages.').first().waitFor();
-    await page
-      .getByRole('img', { name: 'Measured against expected, as a share of each tolerance band' })
-      .waitFor();
+    // The readings against their bands: an image with a name and a description, the out-of-band
+    // reading a triangle, the axis titled with its unit, the figures in a table beside it
+    // (WCAG 2.1 SC 1.1.1 and 1.4.1, docs/references.md §11).
+    const plot = page.getByRole('img', { name: 'Readings against their bands', exact: true });
+    await plot.waitFor();
+    const described = await plot.evaluate(
+      (svg) => document.getElementById(svg.getAttribute('aria-describedby') ?? '')?.textContent ?? '',
+    );
+    expect(described).toMatch(/readings plotted as the deviation from the expected value in percent/);
+    expect(described).toMatch(/Out of band: \d+\. /);
+    expect(await plot.locator(`[data-plot-point="${outReading}"] [data-marker="out"]`).count()).toBe(1);
+    expect(await plot.locator('text', { hasText: 'Deviation from expected (%)' }).count()).toBe(1);
+    await page.getByText('The plotted figures as a table').click();
+    const figures = page.locator('[data-plot-table] table');
+    await figures.waitFor();
+    expect(await figures.locator('th[scope="col"]').allTextContents()).toEqual([
+      'Reading',
+      'Band (% of expected)',
+      'Deviation from expected (%)',
+      'Mark',
+    ]);
+    const outRow = figures.locator('tbody tr', { hasText: 'out of band' });
+    expect(await outRow.count()).toBe(1);
+    expect(await outRow.locator('td').nth(1).innerText()).toMatch(/^\+\d+(\.\d+)? %$/);
+    expect(await figures.locator('tbody tr').count()).toBe(await plot.locator('[data-plot-point]').count());
 
     // 6. The PDF for the customer's file.
     const [download] = await Promise.all([
@@ -171,6 +194,19 @@ describe('a bench run in Chromium', () => {
     expect(pdf.status()).toBe(200);
     expect(pdf.headers()['content-type']).toBe('application/pdf');
     expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
+
+    // 7. The unit's trend of a reading across visits: a plot with its name, unit and figures.
+    await page.goto(unitUrl);
+    const trend = page.getByRole('img', { name: / across visits$/ });
+    await trend.waitFor();
+    expect(await trend.locator('[data-plot-visit]').count()).toBe(1);
+    const titles = await trend.locator('text').allTextContents();
+    expect(
+      titles.some((t) => / \((V|A|Ω|W|Hz|F|s|%)( DC| rms| peak| peak-to-peak)?\)$/.test(t)),
+      titles.join(' | '),
+    ).toBe(true);
+    await page.getByText('The plotted figures as a table').click();
+    expect(await page.locator('[data-plot-table] tbody tr').count()).toBe(1);
     await context.close();
   });
 });

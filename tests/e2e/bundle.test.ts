@@ -5,13 +5,17 @@ import { testClientDir } from '../../server/bootstrap/prepare';
 
 /**
  * Reads the client build the test command makes and proves the editor (TipTap and ProseMirror)
- * is only reachable through the editor route's lazy chunk: the entry and the reader never load it.
+ * is only reachable through the editor route's lazy chunk: the entry and the reader never load it;
+ * and the plotting library (visx) only through the lazy plot components of the pages that draw.
  */
 const assets = path.join(testClientDir, 'assets');
 const EDITOR_CODE = /\[tiptap (warn|error)\]|ProseMirror-hideselection|prosemirror-model|ProseMirror/;
 /** Strings written in the route files themselves, so each route chunk is found by what it holds. */
 const READER_MARK = 'not the approved procedure: do not use it at the bench';
 const EDITOR_MARK = 'Only authors edit drafts.';
+/** visx's own class names, present wherever its axis, grid or group code is. */
+const PLOT_CODE = /visx-axis|visx-columns|visx-rows|visx-group/;
+const PLOT_PAGES = { 'run sheet': 'Download PDF', unit: 'Trend of one reading across visits' };
 
 let files: Map<string, string>;
 let entry: string;
@@ -23,6 +27,10 @@ function staticImports(code: string): string[] {
   for (const m of code.matchAll(pattern)) found.add(m[1]!);
   return [...found];
 }
+
+/** Chunks a chunk loads on demand: `import("./…")` (the build writes it with backquotes). */
+const dynamicImports = (code: string) =>
+  [...code.matchAll(/import\(\s*["'`]\.\/([\w.-]+\.js)["'`]\s*\)/g)].map((m) => m[1]!);
 
 function closure(start: string): string[] {
   const seen = new Set<string>();
@@ -93,5 +101,26 @@ describe('the editor stays out of the reader’s download', () => {
         `editor ${editor}: ${kB([editor])} kB (+${kB(own(editorGraph, entryGraph))} kB beyond the entry)`,
       ].join('\n'),
     );
+  });
+});
+
+describe('the plotting library loads only where a plot is drawn', () => {
+  it('visx is in no chunk the entry, the reader or a plotting page loads statically; those pages reach it on demand', () => {
+    const withPlotCode = [...files].filter(([, code]) => PLOT_CODE.test(code)).map(([name]) => name);
+    expect(withPlotCode.length).toBeGreaterThan(0);
+    const plotted = (names: string[]) => names.filter((n) => withPlotCode.includes(n));
+    expect(plotted(closure(entry))).toEqual([]);
+    expect(plotted(closure(chunkWith(READER_MARK)))).toEqual([]);
+    for (const [page, mark] of Object.entries(PLOT_PAGES)) {
+      const graph = closure(chunkWith(mark));
+      expect(plotted(graph), `${page}: static imports`).toEqual([]);
+      // Its own chunks' on-demand imports (not the entry's, which name every page).
+      const onDemand = graph
+        .filter((n) => !closure(entry).includes(n))
+        .flatMap((n) => dynamicImports(files.get(n)!))
+        .flatMap(closure);
+      expect(plotted(onDemand).length, `${page}: a lazy chunk draws its plot`).toBeGreaterThan(0);
+    }
+    console.log(`visx in ${withPlotCode.join(', ')}: ${kB(withPlotCode)} kB`);
   });
 });

@@ -2,10 +2,11 @@ import { inflateSync } from 'node:zlib';
 import type { Response } from 'superagent';
 
 /**
- * The text a PDF from pdfkit draws, one line per text-showing operator: each content stream is
- * inflated (zlib) and the hex strings of every `[…] TJ` array are decoded (the built-in fonts use
- * single-byte WinAnsi codes, ISO 32000-1 Annex D: windows-1252). Enough to check what a run sheet
- * names, without a PDF library.
+ * The text a PDF from pdfkit draws: each content stream is inflated (zlib) and the hex strings
+ * decoded (the built-in fonts use single-byte WinAnsi codes, ISO 32000-1 Annex D: windows-1252).
+ * pdfkit's own text gives a line per `[…] TJ` array; an SVG drawn by svg-to-pdfkit places glyph by
+ * glyph (`<..> Tj`), so those of one text object (BT … ET) make one line. Enough to check what a run
+ * sheet names, without a PDF library.
  */
 const winAnsi = new TextDecoder('windows-1252');
 
@@ -22,9 +23,12 @@ export function pdfText(pdf: Buffer): string[] {
     } catch {
       continue; // not a deflated stream (fonts, images)
     }
-    for (const tj of content.matchAll(/\[((?:<[0-9a-fA-F]*>|[^\]])*)\]\s*TJ/g)) {
-      const hex = [...tj[1]!.matchAll(/<([0-9a-fA-F]*)>/g)].map((h) => h[1]).join('');
-      lines.push(winAnsi.decode(Buffer.from(hex, 'hex')));
+    for (const block of content.matchAll(/\bBT\b([\s\S]*?)\bET\b/g)) {
+      const decode = (hex: string) => winAnsi.decode(Buffer.from(hex, 'hex'));
+      for (const tj of block[1]!.matchAll(/\[((?:<[0-9a-fA-F]*>|[^\]])*)\]\s*TJ/g))
+        lines.push(decode([...tj[1]!.matchAll(/<([0-9a-fA-F]*)>/g)].map((h) => h[1]).join('')));
+      const glyphs = [...block[1]!.matchAll(/<([0-9a-fA-F]*)>\s*Tj/g)].map((h) => h[1]).join('');
+      if (glyphs) lines.push(decode(glyphs));
     }
   }
   return lines;

@@ -1,8 +1,14 @@
 import PDFDocument from 'pdfkit';
+import { createElement } from 'react';
+import { renderToStaticMarkup } from 'react-dom/server';
+import SVGtoPDF from 'svg-to-pdfkit';
+import { deviationLayout } from '../../../shared/plots/deviation-layout';
+import { DeviationPlotSvg } from '../../../shared/plots/deviation-plot';
 import {
   READING_COLUMNS,
   runSheetModel,
   SHEET_HEADINGS,
+  type RunSheetModel,
   type SheetField,
   type SheetNotice,
 } from '../../../shared/runs/run-sheet-model';
@@ -80,6 +86,43 @@ const NOTICE_INK: Record<SheetNotice['kind'], string> = {
 };
 /** Share of the table width per column, in READING_COLUMNS order. */
 const COLUMN_SHARES = [0.23, 0.17, 0.14, 0.18, 0.11, 0.17];
+
+/**
+ * The readings against their bands: the page's own SVG (shared/plots/deviation-plot.tsx) drawn by
+ * svg-to-pdfkit, its text in this document's Helvetica and spelled for WinAnsi like every other line.
+ */
+function plotSection(
+  doc: PDFKit.PDFDocument,
+  plot: RunSheetModel['plot'],
+  at: { left: number; width: number; heading: (t: string) => void; ensure: (h: number) => void },
+) {
+  const { width: w, height: h } = deviationLayout(plot);
+  // Full width, or smaller when a long run's plot would not fit on one page with its heading.
+  const page = doc.page.height - doc.page.margins.top - doc.page.margins.bottom - 48;
+  const scale = Math.min(at.width / w, page / h);
+  const height = plot.readings.length ? h * scale : 0;
+  at.ensure(height + 48); // the heading stays with the plot
+  at.heading(plot.title);
+  if (height) {
+    const svg = pdfText(renderToStaticMarkup(createElement(DeviationPlotSvg, { plot, id: 'readings-plot' })));
+    const top = doc.y;
+    SVGtoPDF(doc, svg, at.left, top, {
+      // Only with preserveAspectRatio does svg-to-pdfkit fit the drawing to width × height; without it the
+      // SVG's own width and height attributes (pixels) would set its size.
+      width: w * scale,
+      height,
+      preserveAspectRatio: 'xMinYMin meet',
+      fontCallback: (_family, bold) => (bold ? 'Helvetica-Bold' : 'Helvetica'),
+    });
+    doc.y = top + height + 4;
+  }
+  doc.font('Helvetica').fontSize(8.5).fillColor(INK);
+  for (const t of [
+    plot.readings.length ? plot.caption : plot.description,
+    ...plot.notPlotted.map((n) => `Not plotted: ${n}`),
+  ])
+    doc.text(pdfText(t), at.left, doc.y, { width: at.width });
+}
 
 /** A run sheet for the customer's file, drawn from the same model as the page (shared/runs/run-sheet-model). */
 export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
@@ -206,6 +249,8 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
     );
   }
 
+  plotSection(doc, sheet.plot, { left, width, heading, ensure });
+
   heading(SHEET_HEADINGS.checks);
   for (const c of sheet.checks) {
     ensure(24);
@@ -220,13 +265,20 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
         width: width - (x - left),
       })
       .font('Helvetica')
-      .text(pdfText(`${c.text.slice(0, 400)} [${c.status}]`));
+      .text(pdfText(`${c.text} [${c.status}]`));
     if (c.note) doc.font('Helvetica-Oblique').text(pdfText(`Note: ${c.note}`), left + 12, doc.y, { width });
     doc.moveDown(0.2);
   }
 
   if (sheet.corrections.length) heading(SHEET_HEADINGS.corrections);
-  for (const c of sheet.corrections) for (const v of c.versions) line(`Step ${c.position ?? '?'}`, v);
+  for (const c of sheet.corrections) {
+    ensure(14);
+    doc
+      .font('Helvetica-Bold')
+      .fontSize(9)
+      .text(pdfText(`${c.position ?? '?'}. ${c.text}`), left, doc.y, { width });
+    for (const v of c.versions) line(`Step ${c.position ?? '?'}`, v);
+  }
   if (sheet.photos) line('Photos', sheet.photos);
 
   fields(SHEET_HEADINGS.signature, sheet.signature);

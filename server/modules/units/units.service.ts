@@ -135,13 +135,14 @@ export async function unitTrend(db: Db, unitId: string, readingId: string | unde
       and(eq(runs.unitId, unitId), eq(runEntries.kind, 'reading'), sql`${runEntries.measured} is not null`),
     )
     .orderBy(asc(runs.startedAt));
-  const readings = new Map<string, { id: string; label: string; unit: string; count: number }>();
+  const readings = new Map<string, TrendView['readings'][number]>();
   for (const { run, entry } of rows) {
     const step = run.steps.find((s) => s.id === entry.stepId);
     const item = readings.get(entry.stepId) ?? {
       id: entry.stepId,
       label: step?.text ?? entry.stepId,
       unit: entry.unit ?? '',
+      measure: step?.reading?.measure ?? null,
       count: 0,
     };
     item.count++;
@@ -150,7 +151,9 @@ export async function unitTrend(db: Db, unitId: string, readingId: string | unde
   const chosen = readingId ? readings.get(readingId) : undefined;
   return {
     readings: [...readings.values()].sort((a, b) => b.count - a.count || a.label.localeCompare(b.label)),
-    reading: chosen ? { id: chosen.id, label: chosen.label, unit: chosen.unit } : null,
+    reading: chosen
+      ? { id: chosen.id, label: chosen.label, unit: chosen.unit, measure: chosen.measure }
+      : null,
     points: chosen
       ? rows
           .filter((r) => r.entry.stepId === chosen.id)

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { DataTable } from '@/components/ui/data-table';
 import { Link, useParams } from 'react-router-dom';
 import { RegionBoundary } from '@/components/errors/region-boundary';
@@ -6,10 +6,12 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useUnit } from '@/features/units/api/get-unit';
 import { useUnitTrend } from '@/features/units/api/get-unit-trend';
-import { TrendPlot } from '@/features/units/components/trend-plot';
 import { UnitForm } from '@/features/units/components/unit-form';
 import { UnitPhotos } from '@/features/units/components/unit-photos';
 import { Loading } from '@/components/ui/loading';
+
+// The plot's code (visx) loads only when a unit has a trend to draw.
+const TrendPlot = lazy(() => import('@/features/units/components/trend-plot'));
 
 export default function UnitPage() {
   const { unitId = '' } = useParams();
@@ -144,11 +146,9 @@ export default function UnitPage() {
             </label>
             {trend.data.reading && (
               <RegionBoundary label="Trend plot">
-                <TrendPlot
-                  points={trend.data.points}
-                  unit={trend.data.reading.unit}
-                  label={trend.data.reading.label}
-                />
+                <Suspense fallback={<Loading what="the plot" lines={3} />}>
+                  <TrendPlot view={{ ...trend.data, reading: trend.data.reading }} />
+                </Suspense>
               </RegionBoundary>
             )}
           </div>

@@ -1,3 +1,4 @@
+import { lazy, Suspense } from 'react';
 import {
   READING_COLUMNS,
   runSheetModel,
@@ -7,9 +8,12 @@ import {
 } from '@shared/runs/run-sheet-model';
 import type { RunView } from '@shared/schemas/runs';
 import { SafetyCaution } from '@/components/ui/safety-caution';
-import { DeviationPlot } from './deviation-plot';
+import { Loading } from '@/components/ui/loading';
 import { Mark } from './mark';
 import { SafetySign, SignalWord } from '@/components/ui/safety-sign';
+
+// The plot's code (visx) loads only when a sheet is shown, not with the bench screen around it.
+const DeviationPlot = lazy(() => import('./deviation-plot'));
 
 const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
   signed: 'border-ok text-ok',
@@ -149,8 +153,10 @@ export function RunSheet({ run }: { run: RunView }) {
       </section>
 
       <section className="print:break-inside-avoid">
-        <h2 className="mb-2 text-lg font-semibold">Measured against expected</h2>
-        <DeviationPlot steps={run.steps} entries={run.entries} />
+        <h2 className="mb-2 text-lg font-semibold">{sheet.plot.title}</h2>
+        <Suspense fallback={<Loading what="the plot" lines={3} />}>
+          <DeviationPlot plot={sheet.plot} />
+        </Suspense>
       </section>
 
       <section>

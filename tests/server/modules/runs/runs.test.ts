@@ -393,6 +393,36 @@ describe('signing the run sheet', () => {
         r.note && `Note: ${r.note}`,
       ])
         if (cell) expect(text, `${r.label}: ${cell}`).toContain(spelled(cell).replace(/\s+/g, ' '));
+
+    // The plot the page draws is in the PDF too: its heading, legend, a label per plotted reading and the
+    // axis title with its unit, and round tick labels (1, 2 or 5 × 10ⁿ apart, docs/references.md §11).
+    const plot = runSheetModel(signed.body.run).plot;
+    expect(plot.readings.map((r) => r.stepId)).toEqual(['rd-ht-ac', 'rd-heater']);
+    expect(lines).toContain('Readings against their bands');
+    expect(lines).toEqual(expect.arrayContaining(['tolerance band', 'in band', 'out of band']));
+    for (const r of plot.readings) {
+      const label = spelled(`${r.position}. ${r.label}`).slice(0, 29);
+      expect(
+        lines.some((l) => l.startsWith(label)),
+        label,
+      ).toBe(true);
+    }
+    expect(lines).toContain('Deviation from expected (%)');
+    const axis = lines.slice(0, lines.indexOf('Deviation from expected (%)')).slice(-12);
+    const ticks = axis.slice(axis.findLastIndex((l) => !/^-?\d+(\.\d+)?$/.test(l)) + 1).map(Number);
+    expect(ticks.length).toBeGreaterThanOrEqual(3);
+    const step = ticks[1]! - ticks[0]!;
+    const decade = 10 ** Math.floor(Math.log10(step));
+    expect(
+      [1, 2, 5, 10].some((m) => Math.abs(step / decade - m) < 1e-9),
+      `tick step ${step}`,
+    ).toBe(true);
+    ticks.forEach((t, i) => expect(t).toBeCloseTo(ticks[0]! + i * step, 9));
+    // The plot's text is set in the sheet's own fonts: no other font is embedded or named.
+    const fonts = new Set((res.body as Buffer).toString('latin1').match(/\/BaseFont\s*\/[\w-]+/g));
+    const names = [...fonts].map((f) => f.split('/').pop());
+    expect(names).toContain('Helvetica');
+    for (const f of names) expect(['Helvetica', 'Helvetica-Bold', 'Helvetica-Oblique']).toContain(f);
   });
 });
 

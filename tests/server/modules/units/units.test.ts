@@ -99,7 +99,7 @@ describe('the unit register', () => {
 
     const pick = await tom.get(`/api/units/${unit.id}/trend`);
     expect(pick.body.readings).toEqual([
-      { id: 'rd-ht-ac', label: 'HT winding, each half', unit: 'V', count: 3 },
+      { id: 'rd-ht-ac', label: 'HT winding, each half', unit: 'V', measure: 'rms', count: 3 },
     ]);
     const trend = await tom.get(`/api/units/${unit.id}/trend?reading=rd-ht-ac`);
     expect(trend.body.points.map((p: { measured: number }) => p.measured)).toEqual([249, 262, 275]);
