@@ -27,7 +27,13 @@ function submitEditedDraft(page: Page) {
       (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
     );
     const r = (
-      await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json()
+      await (
+        await fetch(`/api/procedures/${proc.id}/drafts`, {
+          method: 'POST',
+          headers,
+          body: JSON.stringify({ changeReason: 'Figures checked again.' }),
+        })
+      ).json()
     ).revision;
     const walk = (n: { type: string; attrs?: Record<string, unknown>; content?: unknown[] }) => {
       const a = n.attrs ?? {};
@@ -55,7 +61,11 @@ function submitEditedDraft(page: Page) {
       body: JSON.stringify(body),
     });
     if (!saved.ok) throw new Error(`save failed: ${saved.status} ${await saved.text()}`);
-    const submitted = await fetch(`/api/revisions/${r.id}/submit`, { method: 'POST', headers, body: '{}' });
+    const submitted = await fetch(`/api/revisions/${r.id}/submit`, {
+      method: 'POST',
+      headers,
+      body: JSON.stringify({ changeReason: 'Figures checked again.' }),
+    });
     if (!submitted.ok) throw new Error(`submit failed: ${submitted.status} ${await submitted.text()}`);
     return r.id as string;
   });

@@ -70,6 +70,14 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       revision: [{ route: 'revision', url: paths.revision.href(approved.revisionId), who: 'tom' }],
       editRevision: [{ route: 'editRevision', url: paths.editRevision.href(draft.revision.id), who: 'hal' }],
       reviewQueue: [{ route: 'reviewQueue', url: paths.reviewQueue.href(), who: 'marek' }],
+      reviewDue: [{ route: 'reviewDue', url: paths.reviewDue.href(), who: 'marek' }],
+      acknowledgeRevision: [
+        {
+          route: 'acknowledgeRevision',
+          url: paths.acknowledgeRevision.href(approved.revisionId),
+          who: 'tom',
+        },
+      ],
       reviewRevision: [
         { route: 'reviewRevision', url: paths.reviewRevision.href(inReview.revision.id), who: 'marek' },
       ],

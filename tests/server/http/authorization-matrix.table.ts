@@ -268,7 +268,7 @@ export const MATRIX: readonly MatrixRow[] = [
   {
     method: 'post',
     path: '/revisions/:id/submit',
-    probe: { params: { id: 'randomId' }, body: {} },
+    probe: { params: { id: 'randomId' }, body: { changeReason: 'Probe.' } },
     expect: { anonymous: 401, technician: 403, author: 404, reviewer: 403, admin: 403 },
   },
   {
