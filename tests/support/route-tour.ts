@@ -1,7 +1,7 @@
 // Every client route with a real address and the person who would open it, for the browser tests
 // that look at every page (layout at each width, accessibility). Built from `paths`, so a new
 // route without a visit fails the tour's own check.
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, gt } from 'drizzle-orm';
 import { paths } from '../../shared/paths';
 import { createDb, createPool } from '../../server/db/client';
 import { people, procedures, revisions, runs, units } from '../../server/db/schema';
@@ -52,6 +52,12 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       .where(and(eq(runs.status, 'signed')))
       .orderBy(desc(runs.startedAt))
       .limit(1);
+    const [later] = await db
+      .select({ id: revisions.id })
+      .from(revisions)
+      .where(and(eq(revisions.state, 'approved'), gt(revisions.number, 1)))
+      .limit(1);
+    if (!later) throw new Error('the demo data needs a revision approved after an earlier one');
     if (!unit || !open || !signed)
       throw new Error('the demo data needs a unit, an open run and a signed run');
     // The open run is seen by the technician doing it, with every step still to enter.
@@ -71,12 +77,9 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       editRevision: [{ route: 'editRevision', url: paths.editRevision.href(draft.revision.id), who: 'hal' }],
       reviewQueue: [{ route: 'reviewQueue', url: paths.reviewQueue.href(), who: 'marek' }],
       reviewDue: [{ route: 'reviewDue', url: paths.reviewDue.href(), who: 'marek' }],
+      // The demo's pending acknowledgement: a revision approved after its technician ran the one before.
       acknowledgeRevision: [
-        {
-          route: 'acknowledgeRevision',
-          url: paths.acknowledgeRevision.href(approved.revisionId),
-          who: 'tom',
-        },
+        { route: 'acknowledgeRevision', url: paths.acknowledgeRevision.href(later.id), who: 'priya' },
       ],
       reviewRevision: [
         { route: 'reviewRevision', url: paths.reviewRevision.href(inReview.revision.id), who: 'marek' },
