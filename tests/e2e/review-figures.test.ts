@@ -27,13 +27,7 @@ function submitEditedDraft(page: Page) {
       (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
     );
     const r = (
-      await (
-        await fetch(`/api/procedures/${proc.id}/drafts`, {
-          method: 'POST',
-          headers,
-          body: JSON.stringify({ changeReason: 'Figures checked again.' }),
-        })
-      ).json()
+      await (await fetch(`/api/procedures/${proc.id}/drafts`, { method: 'POST', headers, body: '{}' })).json()
     ).revision;
     const walk = (n: { type: string; attrs?: Record<string, unknown>; content?: unknown[] }) => {
       const a = n.attrs ?? {};

@@ -84,7 +84,7 @@ export default function AcknowledgePage() {
                 : 'You have not run an earlier revision of this procedure, so no acknowledgement is needed; you may still record one.'}{' '}
               Benchwright records your name, the time and the revision’s content hash:
             </p>
-            <p className="value text-xs break-all text-graphite-soft">{r.contentHash}</p>
+            <p className="font-mono text-xs break-all text-graphite-soft">{r.contentHash}</p>
             <Button
               className="self-start"
               disabled={acknowledge.isPending}

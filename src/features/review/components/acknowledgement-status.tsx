@@ -30,7 +30,7 @@ export function AcknowledgementStatusPanel({ revisionId }: { revisionId: string 
                 {p.acknowledgedAt ? (
                   <span>
                     acknowledged <time dateTime={p.acknowledgedAt}>{formatUtc(p.acknowledgedAt)}</time>
-                    <span className="value ml-2 break-all text-xs text-graphite-soft">
+                    <span className="ml-2 font-mono text-xs break-all text-graphite-soft">
                       {p.contentHash?.slice(0, 12)}…
                     </span>
                   </span>

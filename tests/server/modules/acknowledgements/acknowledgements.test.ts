@@ -1,6 +1,7 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditLog, revisionAcknowledgements, revisions } from '../../../../server/db/schema';
+import { pdfBody, pdfText } from '../../../support/pdf-text';
 import { createTestApp, demo, type TestApp } from '../../../support/test-app';
 import { benchDoc, benchProcedure, newUnit, startRun } from '../runs/runs-fixtures';
 
@@ -115,6 +116,12 @@ describe('read before you run', () => {
     const run = await startRun(tom, r2.id, unit.id);
     expect(run.status).toBe(201);
     expect(run.body.run.revision).toMatchObject({ number: 2, changeReason: REASON });
+    const pdf = await tom.get(`/api/runs/${run.body.run.id}/sheet.pdf`).buffer(true).parse(pdfBody);
+    expect(pdf.status).toBe(200);
+    const text = pdfText(pdf.body as Buffer)
+      .join(' ')
+      .replace(/\s+/g, ' ');
+    expect(text).toMatch(/Change reason: Heater band tightened to ±5 % after two marginal transformers/);
   });
 
   it('refuses an acknowledgement over another hash, of a revision no longer approved, or malformed', async () => {
