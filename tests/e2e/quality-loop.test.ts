@@ -42,11 +42,11 @@ describe('the quality loop in Chromium', () => {
     await signIn(page, 'hal');
     // The procedure page offers it beside the returned revision …
     await page.goto(app.url + paths.procedure.href(procedure.id));
-    await page.getByRole('button', { name: 'Start a new draft from revision 1' }).waitFor();
+    await page.getByRole('button', { name: 'Start a new draft from this (revision 1)' }).waitFor();
     // … and so does the revision page.
     await page.goto(app.url + paths.revision.href(revision.id));
     await page.getByText('This revision is returned').waitFor();
-    await page.getByRole('button', { name: 'Start a new draft from revision 1' }).click();
+    await page.getByRole('button', { name: 'Start a new draft from this (revision 1)' }).click();
     await page.waitForURL(/\/revisions\/[0-9a-f-]{36}\/edit$/);
     const draftId = page.url().split('/').at(-2)!;
     expect(draftId).not.toBe(revision.id);

@@ -22,7 +22,6 @@ export function StartDraftButton({
     <>
       <Button
         disabled={startDraft.isPending}
-        aria-label={`Start a new draft from revision ${revision.number}`}
         onClick={() =>
           startDraft.mutate(
             { procedureId: revision.procedureId, fromRevisionId: revision.id },
@@ -31,6 +30,8 @@ export function StartDraftButton({
         }
       >
         {revision.state === 'returned' ? 'Start a new draft from this' : 'Start a new draft'}
+        {/* Which revision, for a screen reader reaching the button from a list of them. */}
+        <span className="sr-only"> (revision {revision.number})</span>
       </Button>
       {startDraft.error && (
         <Notice tone="error">
