@@ -3,6 +3,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { people, reviewDueNotices } from '../../../../server/db/schema';
 import { toSessionUser } from '../../../../server/auth/passport';
 import { startNextDraft } from '../../../../server/modules/procedures/procedures.service';
+import { startServer } from '../../../../server/index';
+import { createLogger } from '../../../../server/logger';
 import { notifyDueReviews } from '../../../../server/modules/review-due/review-due.service';
 import { parseMails } from '../../../support/parsed-mail';
 import { approveRevision, procedureInState, textDoc } from '../../../support/review-path';
@@ -103,5 +105,38 @@ describe('periodic review', () => {
     const now = await listed();
     expect(now).not.toContain(old.id);
     expect(now).not.toContain(next.id);
+  });
+
+  it('a running server looks for reviews that fell due as it starts', async () => {
+    const due = await approvedMonthsAgo('TC-5R hum check, due when the server starts', 26);
+    const before = t.catcher!.received.length;
+    const running = await startServer({
+      databaseUrl: t.databaseUrl,
+      port: 0,
+      logger: createLogger('silent'),
+      config: {
+        sessionSecret: 'review-due-watch'.padEnd(40, 'x'),
+        uploadDir: t.uploadDir,
+        smtp: { host: '127.0.0.1', port: t.catcher!.port, from: 'Benchwright <bench@tallowcreek.example>' },
+        auditCheckIntervalMs: 0,
+        reviewDueCheckIntervalMs: 0,
+      },
+    });
+    try {
+      await expect
+        .poll(
+          async () =>
+            (await parseMails(t.catcher!.received.slice(before))).filter((m) =>
+              m.subject.includes('TC-5R hum check, due when the server starts'),
+            ).length,
+          { timeout: 10_000, interval: 100 },
+        )
+        .toBe(1);
+    } finally {
+      await running.close();
+    }
+    expect(
+      await t.db.select().from(reviewDueNotices).where(eq(reviewDueNotices.revisionId, due.id)),
+    ).toHaveLength(1);
   });
 });
