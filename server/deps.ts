@@ -34,6 +34,10 @@ export interface AppConfig {
   smtp?: SmtpSettings;
   /** How often a running server re-checks the audit hash chain (it also checks at start); 0: at start only; default hourly. */
   auditCheckIntervalMs?: number;
+  /** Months an approved revision stands before its periodic review falls due (REVIEW_INTERVAL_MONTHS; default 24). */
+  reviewIntervalMonths?: number;
+  /** How often a running server looks for reviews that fell due (it also looks at start); default hourly. */
+  reviewDueCheckIntervalMs?: number;
 }
 
 /** The sign-in machinery createApp builds for its app: one passport, session store and CSRF guard. */

@@ -2,6 +2,7 @@ import type { Server } from 'node:http';
 import type { Logger } from 'pino';
 import { createApp } from './app';
 import { DEFAULT_CHECK_INTERVAL_MS, watchAuditChain } from './audit/watch';
+import { DEFAULT_REVIEW_INTERVAL_MONTHS, watchReviewDue } from './modules/review-due/review-due.service';
 import { createDb, createPool } from './db/client';
 import { defaultConfig, type AppConfig } from './deps';
 import { createLogger } from './logger';
@@ -42,6 +43,17 @@ export async function startServer(opts: {
   const app = createApp({ db, pool, logger, config, mailer, search });
   // At start and then on the schedule; the head goes to the log (server/audit/watch.ts).
   const chainWatch = watchAuditChain(db, logger, config.auditCheckIntervalMs ?? DEFAULT_CHECK_INTERVAL_MS);
+  // Periodic reviews that fell due: reviewers mailed once each, at start and then on the schedule.
+  const reviewDueWatch = watchReviewDue(
+    db,
+    logger,
+    {
+      months: config.reviewIntervalMonths ?? DEFAULT_REVIEW_INTERVAL_MONTHS,
+      publicUrl: config.publicUrl,
+      mailer,
+    },
+    config.reviewDueCheckIntervalMs,
+  );
 
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -72,6 +84,7 @@ export async function startServer(opts: {
       await settleWithin(3_000, mailer?.stop(), 'mail sender', logger);
       await settleWithin(3_000, search.stop(), 'search listener', logger);
       await settleWithin(3_000, chainWatch.stop(), 'audit chain check', logger);
+      await settleWithin(3_000, reviewDueWatch.stop(), 'review-due check', logger);
       await settleWithin(3_000, pool.end(), 'database pool', logger);
     },
   };

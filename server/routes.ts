@@ -1,4 +1,6 @@
 import { openApiRoute } from './http/openapi';
+import { acknowledgementRoutes } from './modules/acknowledgements/acknowledgements.routes';
+import { reviewDueRoutes } from './modules/review-due/review-due.routes';
 import type { RouteDef } from './http/route';
 import { attachmentRoutes } from './modules/attachments/attachments.routes';
 import { accountRoutes } from './modules/auth/account.routes';
@@ -23,6 +25,8 @@ export const routeTable: readonly RouteDef[] = [
   ...attachmentRoutes,
   ...searchRoutes,
   ...reviewRoutes,
+  ...acknowledgementRoutes,
+  ...reviewDueRoutes,
   ...auditRoutes,
   ...outboxRoutes,
   ...unitRoutes,

@@ -75,6 +75,10 @@ const ACTIONS = {
     label: 'Revision withdrawn',
     phrase: (e) => `withdrew ${revisionWords(e.subject)}`,
   },
+  'revision.acknowledged': {
+    label: 'Revision acknowledged',
+    phrase: (e) => `read and acknowledged what changed in ${revisionWords(e.subject)}`,
+  },
   'sign-off.reauthenticated': {
     label: 'Password confirmed for a sign-off',
     phrase: () => 'confirmed their password to sign',

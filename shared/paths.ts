@@ -17,7 +17,12 @@ export const paths = {
   procedure: { pattern: '/procedures/:procedureId', href: (id: string) => `/procedures/${id}` },
   revision: { pattern: '/revisions/:revisionId', href: (id: string) => `/revisions/${id}` },
   editRevision: { pattern: '/revisions/:revisionId/edit', href: (id: string) => `/revisions/${id}/edit` },
+  acknowledgeRevision: {
+    pattern: '/revisions/:revisionId/acknowledge',
+    href: (id: string) => `/revisions/${id}/acknowledge`,
+  },
   reviewQueue: { pattern: '/review', href: () => '/review' },
+  reviewDue: { pattern: '/review/due', href: () => '/review/due' },
   reviewRevision: {
     pattern: '/review/revisions/:revisionId',
     href: (id: string) => `/review/revisions/${id}`,

@@ -43,6 +43,7 @@ const running = await startServer({
   config: {
     sessionSecret: readOrCreateSecret('session'),
     auditCheckIntervalMs: env.AUDIT_CHECK_MINUTES * 60_000,
+    reviewIntervalMonths: env.REVIEW_INTERVAL_MONTHS,
     clientDir: path.join(projectRoot, 'dist/client'),
     publicUrl: url,
     // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.

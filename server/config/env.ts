@@ -49,6 +49,11 @@ export const envSchema = z.object({
       .refine((n) => Number.isFinite(n) && n >= 0, 'must be a number of minutes (0 or more)')
       .default(60),
   ),
+  /** How long an approved revision stands before it is due for its periodic review (months; shop default two years). */
+  REVIEW_INTERVAL_MONTHS: z.preprocess(
+    blankIsUnset,
+    wholeNumber('must be a whole number of months (1–120)', 1, 120).default(24),
+  ),
   LOG_LEVEL: z.preprocess(
     blankIsUnset,
     z

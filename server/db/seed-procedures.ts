@@ -75,7 +75,7 @@ export async function seedDemoProcedures(db: Db, dir: string) {
         NO_FILES,
         author,
         reviewer,
-        { ...p, document: checked.doc },
+        { ...p, document: checked.doc, changeReason: 'First issue for the shop’s starting library.' },
         'Approved for the shop’s starting library (demo content).',
       ),
     );

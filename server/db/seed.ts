@@ -9,6 +9,7 @@ import { addPerson } from '../modules/people/people.service';
 import { people } from './schema';
 import { seedDemoProcedures } from './seed-procedures';
 import { seedDemoBench } from './seed-runs';
+import { seedDemoRevisions } from './seed-revisions';
 
 export const contentSeedDir = path.resolve(
   path.dirname(fileURLToPath(import.meta.url)),
@@ -55,4 +56,7 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
   log(
     `demo units: ${bench.units.added} added, ${bench.units.present} already present; demo bench runs: ${bench.runs.added} added, ${bench.runs.present} already present, ${bench.runs.skipped} skipped`,
   );
+  // After the runs: a revision approved since someone ran the one before it waits for their acknowledgement.
+  const later = await seedDemoRevisions(db, contentSeedDir);
+  log(`demo later revisions: ${later.added} added, ${later.present} already present`);
 }

@@ -203,6 +203,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
     procedure: [
       { label: 'Procedure', value: rev.title },
       { label: 'Revision', value: `${rev.number} (${rev.state.replace('_', ' ')})` },
+      { label: 'Change reason', value: rev.changeReason || 'not recorded for this revision' },
       { label: 'Approved', value: formatUtc(rev.approvedAt) },
       { label: 'Author', value: rev.author.displayName },
       ...(rev.signOffs.length

@@ -26,6 +26,11 @@ export const procedureMetaSchema = z.object({
 export const createProcedureBody = procedureMetaSchema.extend({ params: paramsSchema.optional() }).strict();
 
 /** A draft save: the lock version it was based on, metadata, parameters and the TipTap document. */
+/** The next draft: from a named approved or returned revision of the procedure, else the approved one (or the latest returned). */
+export const startDraftBody = z
+  .object({ fromRevisionId: z.uuid('not a valid revision id').optional() })
+  .strict();
+
 export const saveRevisionBody = procedureMetaSchema
   .extend({
     lockVersion: z.number().int().min(1),
@@ -110,6 +115,8 @@ export interface RevisionView {
   updatedAt: string;
   submittedAt: string | null;
   decidedAt: string | null;
+  /** Why it was made, as given at submission ('' while a draft, or from before reasons were asked). */
+  changeReason: string;
   lint: LintWarning[];
 }
 

@@ -11,7 +11,16 @@ const password = z
   .max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`);
 const comment = z.string().trim().max(4000, 'at most 4000 characters');
 
-export const submitBody = z.object({ lockVersion: z.number().int().min(1).optional() }).strict();
+/** Why the revision was made: shown in the review, the history, the diff and on every run sheet from it. */
+export const CHANGE_REASON_MAX = 500;
+export const changeReason = z
+  .string({ error: 'Change reason is required' })
+  .trim()
+  .min(1, 'Change reason is required')
+  .max(CHANGE_REASON_MAX, `Change reason: at most ${CHANGE_REASON_MAX} characters`);
+export const submitBody = z
+  .object({ changeReason, lockVersion: z.number().int().min(1).optional() })
+  .strict();
 export const approveBody = z.object({ password, comment: comment.default('') }).strict();
 export const returnBody = z
   .object({ password, comment: comment.min(1, 'say what needs to change') })
@@ -113,6 +122,8 @@ export interface ReviewView {
     submittedAt: string | null;
     decidedAt: string | null;
     html: string;
+    /** Why it was made, as given at submission ('' for a revision from before reasons were asked). */
+    changeReason: string;
   };
   /** The approved revision this one is compared with; null for a first revision. */
   base: { id: string; number: number; state: RevisionStateName } | null;

@@ -185,6 +185,8 @@ export interface RevisionRecord {
   approvedAt: string | null;
   author: { id: string; displayName: string };
   contentHash: string;
+  /** Why the revision was made, as given when it was submitted ('' from before reasons were asked). */
+  changeReason: string;
   /** Reviewer sign-offs on the revision, when the shop records them. */
   signOffs: { name: string; meaning: string; signedAt: string }[];
 }

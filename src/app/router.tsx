@@ -24,6 +24,7 @@ import {
 } from '@/features/procedures/api/get-procedures';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { reviewQueueQueryOptions, revisionReviewQueryOptions } from '@/features/review/api/review-queries';
+import { acknowledgementQueryOptions, reviewDueQueryOptions } from '@/features/review/api/acknowledgements';
 import { runQueryOptions } from '@/features/runs/api/get-run';
 import { runnableProceduresQueryOptions } from '@/features/runs/api/get-runnable-procedures';
 import { runsQueryOptions } from '@/features/runs/api/get-runs';
@@ -153,6 +154,17 @@ const router = createBrowserRouter([
         paths.reviewQueue.pattern,
         () => import('./routes/review/queue'),
         () => [reviewQueueQueryOptions()],
+      ),
+      page(
+        paths.reviewDue.pattern,
+        () => import('./routes/review/due'),
+        () => [reviewDueQueryOptions()],
+      ),
+      page(
+        paths.acknowledgeRevision.pattern,
+        () => import('./routes/review/acknowledge'),
+        (a) => [acknowledgementQueryOptions(id(a, 'revisionId'))],
+        toProcedures,
       ),
       page(
         paths.reviewRevision.pattern,

@@ -55,7 +55,11 @@ function submitEditedDraft(page: Page) {
       body: JSON.stringify(body),
     });
     if (!saved.ok) throw new Error(`save failed: ${saved.status} ${await saved.text()}`);
-    const submitted = await fetch(`/api/revisions/${r.id}/submit`, { method: 'POST', headers, body: '{}' });
+    const submitted = await fetch(`/api/revisions/${r.id}/submit`, {
+      method: 'POST',
+      headers,
+      body: JSON.stringify({ changeReason: 'Figures checked again.' }),
+    });
     if (!submitted.ok) throw new Error(`submit failed: ${submitted.status} ${await submitted.text()}`);
     return r.id as string;
   });

@@ -59,6 +59,10 @@ describe('review and sign-off in Chromium', () => {
     await signIn(author, 'hal');
     const revisionId = await startEditedDraft(author);
     await author.goto(`${app.url}/review/revisions/${revisionId}`);
+    // No reason, no submission: the field says so.
+    await author.getByRole('button', { name: 'Submit for review' }).click();
+    await author.getByText('Change reason is required').waitFor();
+    await author.getByLabel('Change reason').fill('Tolerance on B+2 tightened after bench reports');
     await author.getByRole('button', { name: 'Submit for review' }).click();
     await author.getByText('Submitted. The reviewers have been told').waitFor();
     await author.context().close();
@@ -71,6 +75,8 @@ describe('review and sign-off in Chromium', () => {
     const row = queue.getByRole('row').filter({ hasText: 'Hal Brennan' }).filter({ hasText: 'TC-18' });
     await row.getByRole('link').click();
     await reviewer.waitForURL(new RegExp(`/review/revisions/${revisionId}$`));
+    // The author's reason is in the review, beside the diff.
+    await reviewer.getByText('Tolerance on B+2 tightened after bench reports').waitFor();
 
     // The diff table names the reading and shows the tolerance before and after.
     const changes = reviewer.getByRole('table', { name: 'Value changes' });

@@ -10,6 +10,7 @@ import { createProcedure, type NewProcedure } from '../../server/modules/procedu
 import { recordDecision, recordSubmission, recordWithdrawal } from '../../server/modules/review/transitions';
 
 const COMMENT = 'Approved for a test.';
+export const CHANGE_REASON = 'Changed for a test.';
 
 async function person(db: Db, who: string) {
   const [p] = await db
@@ -25,7 +26,7 @@ export async function approveRevision(db: Db, revisionId: string, reviewer = 'ma
   const signer = await person(db, reviewer);
   return db.transaction(async (tx) => {
     const [row] = await tx.select().from(revisions).where(eq(revisions.id, revisionId));
-    if (row?.state === 'draft') await recordSubmission(tx, row.authorId, revisionId);
+    if (row?.state === 'draft') await recordSubmission(tx, row.authorId, revisionId, CHANGE_REASON);
     return recordDecision(tx, NO_FILES, signer, revisionId, 'approved', {
       comment: COMMENT,
       reauthenticated: false,
@@ -48,7 +49,7 @@ export async function procedureInState(
   return db.transaction(async (tx) => {
     const { procedure, revision } = await createProcedure(tx, author.id, input);
     if (state === 'draft') return { procedure, revision };
-    const submitted = await recordSubmission(tx, author.id, revision.id);
+    const submitted = await recordSubmission(tx, author.id, revision.id, CHANGE_REASON);
     if (state === 'in_review') return { procedure, revision: submitted };
     const decision = state === 'returned' ? 'returned' : 'approved';
     const decided = await recordDecision(tx, NO_FILES, reviewer, revision.id, decision, {

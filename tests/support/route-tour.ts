@@ -4,7 +4,7 @@
 // every kind of block (tests/support/every-kind-document.ts), a revision in review and a bench run
 // in progress with a reading in band, one out of band and a ticked check step.
 import { randomUUID } from 'node:crypto';
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, gt } from 'drizzle-orm';
 import { paths } from '../../shared/paths';
 import type { Role } from '../../shared/schemas/roles';
 import { entryBody, startRunBody } from '../../shared/schemas/runs';
@@ -150,6 +150,12 @@ export async function routeTour(databaseUrl: string, uploadDir: string): Promise
       .limit(1);
     if (!unit || !signed) throw new Error('the demo data needs a unit and a signed run');
     const open = await runInProgress(db, approved.revisionId, unit.id);
+    const [later] = await db
+      .select({ id: revisions.id })
+      .from(revisions)
+      .where(and(eq(revisions.state, 'approved'), gt(revisions.number, 1)))
+      .limit(1);
+    if (!later) throw new Error('the demo data needs a revision approved after an earlier one');
 
     const as = (roles: Role[], route: keyof typeof paths, url: string, what?: string): Visit[] =>
       roles.map((role) => ({ route, url, who: ROLE_VISITORS[role], ...(what ? { what } : {}) }));
@@ -170,6 +176,11 @@ export async function routeTour(databaseUrl: string, uploadDir: string): Promise
       ],
       editRevision: as(['author'], 'editRevision', paths.editRevision.href(draft.revision.id)),
       reviewQueue: as(['reviewer'], 'reviewQueue', paths.reviewQueue.href()),
+      reviewDue: as(['reviewer', 'admin'], 'reviewDue', paths.reviewDue.href()),
+      // The demo's pending acknowledgement: a revision approved after its technician ran the one before.
+      acknowledgeRevision: [
+        { route: 'acknowledgeRevision', url: paths.acknowledgeRevision.href(later.id), who: 'priya' },
+      ],
       reviewRevision: as(
         ['reviewer', 'author', 'admin'],
         'reviewRevision',

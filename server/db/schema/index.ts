@@ -6,3 +6,4 @@ export * from './mail';
 export * from './runs';
 export * from './review';
 export * from './auth';
+export * from './acknowledgements';

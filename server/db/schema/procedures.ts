@@ -90,6 +90,8 @@ export const revisions = pgTable(
       .notNull()
       .default(sql`'{}'::uuid[]`),
     lockVersion: integer().notNull().default(1),
+    /** Why this revision was made, given when it is submitted; fixed from then on (drizzle/0021). */
+    changeReason: text().notNull().default(''),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     submittedAt: timestamp({ withTimezone: true }),

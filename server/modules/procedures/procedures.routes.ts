@@ -3,6 +3,7 @@ import {
   createProcedureBody,
   procedureListQuery,
   saveRevisionBody,
+  startDraftBody,
 } from '../../../shared/schemas/procedures';
 import { badRequest, HttpError } from '../../http/errors';
 import { defineRoute } from '../../http/route';
@@ -71,10 +72,12 @@ export const procedureRoutes = [
     method: 'post',
     path: '/procedures/:id/drafts',
     access: ['author'],
-    summary: 'Start the next draft from the approved revision',
+    summary:
+      'Start the next draft from the approved revision, or from a named approved or returned revision (fromRevisionId)',
     params: procedureParams,
-    handler: async ({ res, params, user, deps }) => {
-      const revision = await startNextDraft(deps.db, user!, params.id);
+    body: startDraftBody,
+    handler: async ({ res, params, body, user, deps }) => {
+      const revision = await startNextDraft(deps.db, user!, params.id, body.fromRevisionId);
       res.status(201);
       return { revision };
     },

@@ -71,6 +71,7 @@ function toRevisionView(row: RevisionRow, author: Author | undefined): RevisionV
     updatedAt: row.updatedAt.toISOString(),
     submittedAt: row.submittedAt?.toISOString() ?? null,
     decidedAt: row.decidedAt?.toISOString() ?? null,
+    changeReason: row.changeReason,
     lint: lintProcedure(row.document, row.snapshot),
   };
 }
@@ -284,6 +285,21 @@ export async function latestInState(db: Db | Tx, procedureId: string, state: Rev
   return row;
 }
 
+/** A named revision a draft may start from: this procedure's, approved or returned. */
+async function startableRevision(tx: Tx, procedureId: string, revisionId: string) {
+  const [row] = await tx
+    .select()
+    .from(revisions)
+    .where(and(eq(revisions.id, revisionId), eq(revisions.procedureId, procedureId)));
+  if (!row) throw notFound('This procedure has no such revision.');
+  if (row.state !== 'approved' && row.state !== 'returned')
+    throw conflict(
+      `Revision ${row.number} is ${row.state.replace('_', ' ')}; a new draft starts from an approved or returned revision.`,
+      { state: row.state },
+    );
+  return row;
+}
+
 export async function nextRevisionNumber(db: Db | Tx, procedureId: string) {
   const [row] = await db
     .select({ n: sql<number>`coalesce(max(${revisions.number}), 0) + 1` })
@@ -308,6 +324,7 @@ export async function procedureWithRevisions(db: Db, user: SessionUser, id: stri
       number: revisions.number,
       state: revisions.state,
       updatedAt: revisions.updatedAt,
+      changeReason: revisions.changeReason,
       author: { id: people.id, displayName: people.displayName },
     })
     .from(revisions)
@@ -335,8 +352,16 @@ export async function readableRevision(db: Db, user: SessionUser, id: string) {
   return revision;
 }
 
-/** Starts the next draft from the approved revision (or, when none was approved, the latest returned one). */
-export async function startNextDraft(db: Db, user: SessionUser, procedureId: string) {
+/**
+ * Starts the next draft from `fromRevisionId` (an approved or returned revision of this procedure),
+ * else from the approved revision (or, when none was approved, the latest returned one).
+ */
+export async function startNextDraft(
+  db: Db,
+  user: SessionUser,
+  procedureId: string,
+  fromRevisionId?: string,
+) {
   const row = await db.transaction(async (tx) => {
     await tx.execute(sql`select 1 from ${procedures} where ${procedures.id} = ${procedureId} for update`);
     const open = await tx
@@ -348,8 +373,9 @@ export async function startNextDraft(db: Db, user: SessionUser, procedureId: str
         `Revision ${open[0].number} is already ${open[0].state === 'draft' ? 'a draft' : 'in review'}; continue that one.`,
         { revisionId: open[0].id },
       );
-    const base =
-      (await latestApproved(tx, procedureId)) ?? (await latestInState(tx, procedureId, 'returned'));
+    const base = fromRevisionId
+      ? await startableRevision(tx, procedureId, fromRevisionId)
+      : ((await latestApproved(tx, procedureId)) ?? (await latestInState(tx, procedureId, 'returned')));
     if (!base) throw notFound('This procedure has no approved or returned revision to start from.');
     const [created] = await tx
       .insert(revisions)

@@ -63,6 +63,18 @@ export async function commentsOf(db: Db, row: RevisionRow): Promise<ReviewCommen
   }));
 }
 
+/** What changed against the last approved revision, in words and in numbers: the review's diff. */
+export async function revisionDiff(db: Db, row: RevisionRow) {
+  const base = await baseRevision(db, row);
+  const figures = describeRevision(row.document, row.snapshot);
+  return {
+    base: base ? { id: base.id, number: base.number, state: base.state } : null,
+    textDiff: diffText(base?.plainText ?? '', row.plainText),
+    valueChanges: valueChanges(base ? describeRevision(base.document, base.snapshot) : null, figures),
+    figures,
+  };
+}
+
 export async function buildReviewView(
   db: Db,
   files: FileStore,
@@ -78,8 +90,7 @@ export async function buildReviewView(
         .where(inArray(people.id, ids))
     ).map((p) => [p.id, p]),
   );
-  const base = await baseRevision(db, row);
-  const figures = describeRevision(row.document, row.snapshot);
+  const { figures, ...diff } = await revisionDiff(db, row);
   const own = countsAsAuthor(user.id, row);
   const isReviewer = user.roles.includes('reviewer');
   const cannotDecideReason = !isReviewer
@@ -106,10 +117,9 @@ export async function buildReviewView(
       submittedAt: row.submittedAt?.toISOString() ?? null,
       decidedAt: row.decidedAt?.toISOString() ?? null,
       html: row.html,
+      changeReason: row.changeReason,
     },
-    base: base ? { id: base.id, number: base.number, state: base.state } : null,
-    textDiff: diffText(base?.plainText ?? '', row.plainText),
-    valueChanges: valueChanges(base ? describeRevision(base.document, base.snapshot) : null, figures),
+    ...diff,
     reckoners: figures.blocks,
     blocks: blockRefs(row.document),
     comments: await commentsOf(db, row),

@@ -62,11 +62,11 @@ export const reviewRoutes = [
     path: '/revisions/:id/submit',
     access: ['author'],
     summary:
-      'Submit a draft for review (its author or an editor); refused while reckoners have errors or readings are unresolved',
+      'Submit a draft for review with its change reason (its author or an editor); refused while reckoners have errors or readings are unresolved',
     params: revisionParams,
     body: submitBody,
     handler: async ({ req, params, body, user, deps }) => {
-      const row = await submitRevision(deps, user!, params.id, body.lockVersion, req);
+      const row = await submitRevision(deps, user!, params.id, body, req);
       return { revision: await revisionView(deps.db, row) };
     },
   }),

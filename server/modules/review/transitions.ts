@@ -87,6 +87,7 @@ export async function recordSubmission(
   tx: Tx,
   userId: string,
   revisionId: string,
+  changeReason: string,
   opts: { lockVersion?: number; req?: Request } = {},
 ) {
   const current = await lockRevision(tx, revisionId);
@@ -116,7 +117,7 @@ export async function recordSubmission(
     });
   const [updated] = await tx
     .update(revisions)
-    .set({ state: 'in_review', submittedAt: sql`now()`, updatedAt: sql`now()` })
+    .set({ state: 'in_review', changeReason, submittedAt: sql`now()`, updatedAt: sql`now()` })
     .where(and(eq(revisions.id, revisionId), eq(revisions.state, 'draft')))
     .returning();
   if (!updated) throw illegal(current, 'only a draft can be submitted for review');
@@ -124,7 +125,7 @@ export async function recordSubmission(
     action: 'revision.submitted',
     actorId: userId,
     subject: `${updated.title} r${updated.number}`,
-    details: { revisionId, from: 'draft', to: 'in_review' },
+    details: { revisionId, from: 'draft', to: 'in_review', changeReason: changeReason.slice(0, 500) },
     req: opts.req,
   });
   return updated;
@@ -134,11 +135,14 @@ export async function submitRevision(
   deps: AppDeps,
   user: SessionUser,
   revisionId: string,
-  lockVersion: number | undefined,
+  body: { changeReason: string; lockVersion?: number },
   req: Request,
 ) {
   const row = await deps.db.transaction(async (tx) => {
-    const updated = await recordSubmission(tx, user.id, revisionId, { lockVersion, req });
+    const updated = await recordSubmission(tx, user.id, revisionId, body.changeReason, {
+      lockVersion: body.lockVersion,
+      req,
+    });
     await queueReviewRequested(tx, deps.config.publicUrl, updated, user.displayName);
     return updated;
   });
@@ -284,11 +288,11 @@ export async function createApprovedProcedure(
   files: FileStore,
   author: Signer,
   reviewer: Signer,
-  input: NewProcedure,
+  input: NewProcedure & { changeReason: string },
   comment: string,
 ) {
   const { procedure, revision } = await createProcedure(tx, author.id, input);
-  await recordSubmission(tx, author.id, revision.id);
+  await recordSubmission(tx, author.id, revision.id, input.changeReason);
   const decided = await recordDecision(tx, files, reviewer, revision.id, 'approved', {
     comment,
     reauthenticated: false,

@@ -124,6 +124,7 @@ export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<Revision
         state: revisions.state,
         title: revisions.title,
         decidedAt: revisions.decidedAt,
+        changeReason: revisions.changeReason,
         author: { id: people.id, displayName: people.displayName },
       })
       .from(revisions)
@@ -143,6 +144,7 @@ export async function revisionRecord(db: Db | Tx, run: RunRow): Promise<Revision
     approvedAt: iso(rev!.decidedAt),
     author: rev!.author,
     contentHash: run.revisionHash,
+    changeReason: rev!.changeReason,
     signOffs: signOffs.map((s) => ({ name: s.name, meaning: s.meaning, signedAt: s.signedAt.toISOString() })),
   };
 }

@@ -10,6 +10,10 @@ import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
 import { revisionContentHash } from '../review/signed-content';
 import { storePhoto } from './photo-upload';
+import {
+  acknowledgementMissing,
+  acknowledgementRequired,
+} from '../acknowledgements/acknowledgements.service';
 import { assertWritable } from './run-custody';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
@@ -57,6 +61,8 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
         { state: revision.state },
       );
     }
+    // Read before you run: someone who ran an earlier revision acknowledges this one first.
+    if (await acknowledgementMissing(tx, revision, user.id)) throw acknowledgementRequired(revision);
     const [unit] = await tx.select().from(units).where(eq(units.id, body.unitId));
     if (!unit)
       throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);

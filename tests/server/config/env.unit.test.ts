@@ -46,6 +46,15 @@ describe('environment', () => {
     expect(() => readEnv({ BW_TEST_SLOT: '1.5' })).toThrow('BW_TEST_SLOT="1.5" is not a test slot number');
   });
 
+  it('reads the periodic review interval in whole months, two years when unset', () => {
+    expect(readEnv({}).REVIEW_INTERVAL_MONTHS).toBe(24);
+    expect(readEnv({ REVIEW_INTERVAL_MONTHS: ' 36 ' }).REVIEW_INTERVAL_MONTHS).toBe(36);
+    for (const value of ['0', '1.5', 'two years', '121'])
+      expect(() => readEnv({ REVIEW_INTERVAL_MONTHS: value })).toThrow(
+        `REVIEW_INTERVAL_MONTHS=${JSON.stringify(value)} must be a whole number of months (1–120)`,
+      );
+  });
+
   it('refuses a number of minutes that is not finite', () => {
     expect(() => readEnv({ AUDIT_CHECK_MINUTES: 'Infinity' })).toThrow('AUDIT_CHECK_MINUTES="Infinity"');
   });

@@ -268,7 +268,7 @@ export const MATRIX: readonly MatrixRow[] = [
   {
     method: 'post',
     path: '/revisions/:id/submit',
-    probe: { params: { id: 'randomId' }, body: {} },
+    probe: { params: { id: 'randomId' }, body: { changeReason: 'Probe.' } },
     expect: { anonymous: 401, technician: 403, author: 404, reviewer: 403, admin: 403 },
   },
   {
@@ -282,6 +282,32 @@ export const MATRIX: readonly MatrixRow[] = [
     path: '/revisions/:id/return',
     probe: { params: { id: 'inReviewRevision' }, body: {} },
     expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 403 },
+  },
+  // Periodic review: the list of revisions due is for reviewers, and admins who keep the shop's records.
+  {
+    method: 'get',
+    path: '/review/due',
+    probe: {},
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 200, admin: 200 },
+  },
+  // Read before you run: technicians read what changed and acknowledge it; reviewers (and admins) see who has.
+  {
+    method: 'get',
+    path: '/revisions/:id/acknowledgement',
+    probe: { params: { id: 'approvedRevision' } },
+    expect: { anonymous: 401, technician: 200, author: 403, reviewer: 403, admin: 403 },
+  },
+  {
+    method: 'post',
+    path: '/revisions/:id/acknowledge',
+    probe: { params: { id: 'approvedRevision' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
+  {
+    method: 'get',
+    path: '/revisions/:id/acknowledgements',
+    probe: { params: { id: 'approvedRevision' } },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 200, admin: 200 },
   },
   // Taking a procedure out of use is a signed decision for a reviewer, or an admin acting for the shop.
   {

@@ -83,6 +83,7 @@ function runView(over: Partial<RunView> = {}): RunView {
       state: 'approved',
       title: 'TC-18 power supply',
       approvedAt: at,
+      changeReason: 'B+ band widened after the choke change',
       author: priya,
       contentHash: 'a'.repeat(64),
       signOffs: [],
@@ -121,6 +122,16 @@ describe('run sheet model', () => {
     const sheet = runSheetModel(runView());
     expect(sheet.procedure.find((f) => f.label === 'Approved')!.value).toBe('2026-03-04 05:06:07 UTC');
     expect(sheet.readings[0]!.recordedAt).toBe('2026-03-04 05:06:07 UTC');
+  });
+
+  it('names the change reason of the revision the run followed, or says none was recorded', () => {
+    const sheet = runSheetModel(runView());
+    expect(sheet.procedure.find((f) => f.label === 'Change reason')!.value).toBe(
+      'B+ band widened after the choke change',
+    );
+    const old = runView();
+    const legacy = runSheetModel({ ...old, revision: { ...old.revision, changeReason: '' } });
+    expect(legacy.procedure.find((f) => f.label === 'Change reason')!.value).toMatch(/not recorded/);
   });
 
   it('gives each reading its value, expected value with band, deviation, mark and note', () => {

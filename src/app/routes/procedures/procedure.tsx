@@ -5,6 +5,7 @@ import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useProcedure } from '@/features/procedures/api/get-procedure';
 import { StateBadge } from '@/features/procedures/components/state-badge';
 import { Loading } from '@/components/ui/loading';
+import { StartDraftButton } from '@/features/procedures/components/start-draft-button';
 
 /** One procedure and its revisions, newest first. */
 export default function ProcedurePage() {
@@ -49,6 +50,14 @@ export default function ProcedurePage() {
               >
                 Edit
               </Link>
+            )}
+            {isAuthor && r.state === 'returned' && (
+              <span className="ml-auto flex flex-wrap items-center gap-2">
+                <StartDraftButton revision={{ ...r, procedureId: procedure.id }} />
+              </span>
+            )}
+            {r.changeReason && (
+              <p className="w-full text-sm break-words text-graphite-soft">Change reason: {r.changeReason}</p>
             )}
           </li>
         ))}

@@ -13,6 +13,9 @@ import { RevisionReviewPanel } from '@/features/review/components/revision-revie
 import { StateBadge } from '@/features/procedures/components/state-badge';
 import { SafetySign } from '@/components/ui/safety-sign';
 import { Loading } from '@/components/ui/loading';
+import { ChangeReason } from '@/features/review/components/change-reason';
+import { useAcknowledgement } from '@/features/review/api/acknowledgements';
+import { AcknowledgementStatusPanel } from '@/features/review/components/acknowledgement-status';
 
 /** Reading one revision: header, the standing caution, the document with its stored results. */
 export default function RevisionPage() {
@@ -20,6 +23,9 @@ export default function RevisionPage() {
   const session = useSession();
   const query = useRevision(revisionId);
   const r = query.data?.revision;
+  const user = session.data?.user;
+  const isTechnician = hasRole(user, 'technician');
+  const ack = useAcknowledgement(revisionId, isTechnician && r?.state === 'approved');
   useEffect(() => {
     document.title = `${r?.title ?? 'Procedure'} · Benchwright`;
   }, [r?.title]);
@@ -52,8 +58,18 @@ export default function RevisionPage() {
           </span>
         </p>
         {r.tags.length > 0 && <p className="text-xs text-graphite-soft">Tags: {r.tags.join(', ')}</p>}
+        <ChangeReason reason={r.changeReason} />
         <RevisionActions revision={r} isAuthor={hasRole(session.data?.user, 'author')} />
-        {r.state === 'approved' && hasRole(session.data?.user, 'technician') && (
+        {ack.data?.acknowledgement.required && (
+          <Notice tone="info">
+            Revision {r.number} changed the procedure you ran before. Read what changed before your first run
+            on it:{' '}
+            <Link className="font-semibold underline" to={paths.acknowledgeRevision.href(r.id)}>
+              read and acknowledge
+            </Link>
+          </Notice>
+        )}
+        {r.state === 'approved' && isTechnician && (
           <p>
             <Link
               to={paths.newRun.href(undefined, r.id)}
@@ -66,6 +82,11 @@ export default function RevisionPage() {
         <RegionBoundary label="Review and sign-offs">
           <RevisionReviewPanel revision={r} />
         </RegionBoundary>
+        {['approved', 'superseded'].includes(r.state) && hasRole(user, 'reviewer', 'admin') && (
+          <RegionBoundary label="Acknowledgements">
+            <AcknowledgementStatusPanel revisionId={r.id} />
+          </RegionBoundary>
+        )}
       </header>
       {r.state !== 'approved' && (
         <Notice tone="info">

@@ -1,4 +1,6 @@
 import { useEffect } from 'react';
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
 import { Problem } from '@/components/errors/problem';
 import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
@@ -18,7 +20,10 @@ export default function ReviewQueuePage() {
     <section className="flex flex-col gap-4">
       <h1 className="text-2xl font-semibold">Review queue</h1>
       <p className="text-sm text-graphite-soft">
-        Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.
+        Revisions submitted for review, oldest first. Open one to see what changed and sign your decision.{' '}
+        <Link to={paths.reviewDue.href()} className="text-accent underline">
+          Procedures due for periodic review
+        </Link>
       </p>
       {queue.isPending && <Loading />}
       {queue.isError && <Problem error={queue.error} heading="h2" onRetry={() => void queue.refetch()} />}

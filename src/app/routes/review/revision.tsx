@@ -12,6 +12,7 @@ import { formatUtc } from '@/features/review/components/format';
 import { RevisionReviewPanel } from '@/features/review/components/revision-review-panel';
 import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
+import { ChangeReason } from '@/features/review/components/change-reason';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
 import { useRevision } from '@/features/procedures/api/get-revision';
 import { DocumentView } from '@/features/procedures/components/reader/document-view';
@@ -85,6 +86,7 @@ export default function ReviewRevisionPage() {
             'First revision: nothing to compare with. Below is what it assumes and what follows from it.'
           )}
         </p>
+        <ChangeReason reason={r.changeReason} />
       </header>
 
       <RegionBoundary label="Review and sign-offs">

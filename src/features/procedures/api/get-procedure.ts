@@ -11,6 +11,7 @@ export interface ProcedureDetail {
     state: RevisionStateName;
     author: { id: string; displayName: string };
     updatedAt: string;
+    changeReason: string;
   }[];
 }
 

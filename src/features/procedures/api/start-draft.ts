@@ -4,9 +4,21 @@ import { api } from '@/lib/api-client';
 import { revisionQueryOptions } from './get-revision';
 import { procedureKeys } from './keys';
 
-/** Starts the next draft from the approved revision; 409 names the open revision to continue instead. */
-export const startDraft = (procedureId: string) =>
-  api.post<{ revision: RevisionView }>(`/api/procedures/${encodeURIComponent(procedureId)}/drafts`);
+/**
+ * Starts the next draft from the approved revision, or from `fromRevisionId` (an approved or returned
+ * one); 409 names the open revision to continue instead.
+ */
+export const startDraft = ({
+  procedureId,
+  fromRevisionId,
+}: {
+  procedureId: string;
+  fromRevisionId?: string;
+}) =>
+  api.post<{ revision: RevisionView }>(
+    `/api/procedures/${encodeURIComponent(procedureId)}/drafts`,
+    fromRevisionId ? { fromRevisionId } : {},
+  );
 
 export function useStartDraft() {
   const queryClient = useQueryClient();

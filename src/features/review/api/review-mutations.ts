@@ -19,7 +19,7 @@ function useInvalidateAll() {
 export function useSubmitRevision(revisionId: string) {
   const invalidate = useInvalidateAll();
   return useMutation({
-    mutationFn: (body: { lockVersion?: number }) =>
+    mutationFn: (body: { changeReason: string; lockVersion?: number }) =>
       api.post<{ revision: RevisionView }>(`/api/revisions/${revisionId}/submit`, body),
     onSuccess: invalidate,
   });

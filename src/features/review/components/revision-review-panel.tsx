@@ -1,6 +1,9 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { RevisionView } from '@shared/schemas/procedures';
+import { submitBody } from '@shared/schemas/review';
+import { TextareaField } from '@/components/ui/field';
+import { showServerError, useZodForm } from '@/lib/form';
 import { RegionBoundary } from '@/components/errors/region-boundary';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -19,6 +22,12 @@ type PanelRevision = Pick<RevisionView, 'id' | 'procedureId' | 'number' | 'state
 export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
   const user = useSession().data?.user;
   const submit = useSubmitRevision(revision.id);
+  const submitForm = useZodForm(submitBody, {
+    defaultValues: { changeReason: '', lockVersion: revision.lockVersion },
+  });
+  useEffect(() => {
+    if (submit.error?.fields.length) showServerError(submitForm, submit.error);
+  }, [submit.error, submitForm]);
   const withdraw = useWithdrawProcedure(revision.procedureId);
   const [withdrawing, setWithdrawing] = useState(false);
   const problems =
@@ -33,12 +42,23 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
       </RegionBoundary>
       <div className="flex flex-wrap items-center gap-3">
         {revision.state === 'draft' && hasRole(user, 'author') && (
-          <Button
-            onClick={() => submit.mutate({ lockVersion: revision.lockVersion })}
-            disabled={submit.isPending}
+          <form
+            noValidate
+            className="flex w-full max-w-xl flex-col gap-2"
+            onSubmit={submitForm.handleSubmit((v) =>
+              submit.mutate({ changeReason: v.changeReason, lockVersion: revision.lockVersion }),
+            )}
           >
-            {submit.isPending ? 'Submitting…' : 'Submit for review'}
-          </Button>
+            <TextareaField
+              label="Change reason"
+              hint="Why this revision was made, in a sentence: reviewers, technicians and every run sheet from it show it."
+              error={submitForm.formState.errors.changeReason?.message}
+              {...submitForm.register('changeReason')}
+            />
+            <Button type="submit" disabled={submit.isPending} className="self-start">
+              {submit.isPending ? 'Submitting…' : 'Submit for review'}
+            </Button>
+          </form>
         )}
         {revision.state === 'in_review' && seesReview && (
           <Link to={reviewLink} className="font-semibold text-accent underline">
@@ -57,7 +77,7 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
         )}
       </div>
       {submit.isSuccess && <Notice tone="success">Submitted. The reviewers have been told by e-mail.</Notice>}
-      {submit.error && (
+      {submit.error && !submit.error.fields.length && (
         <Notice tone="error">
           {problems.length ? `Revision ${revision.number} cannot go to review yet:` : submit.error.message}
           {problems.length > 0 && (

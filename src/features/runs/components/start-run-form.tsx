@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
 import { readMeasured } from '@shared/reckoners/measurement';
@@ -123,7 +123,17 @@ export function StartRunForm({
       className="flex max-w-2xl flex-col gap-4 rounded-lg border border-rule bg-card p-5"
       noValidate
     >
-      <FormProblem formState={form.formState} />
+      <FormProblem formState={form.formState}>
+        {start.error?.body.code === 'acknowledgement-required' &&
+          typeof start.error.body.acknowledgeUrl === 'string' && (
+            <>
+              {' '}
+              <Link className="font-semibold underline" to={start.error.body.acknowledgeUrl}>
+                Read what changed and acknowledge it
+              </Link>
+            </>
+          )}
+      </FormProblem>
       {opened.data && opened.data.revision.state !== 'approved' && (
         <Notice>
           Revision {opened.data.revision.number} of “{opened.data.revision.title}” is{' '}

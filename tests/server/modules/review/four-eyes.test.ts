@@ -28,7 +28,9 @@ describe('four eyes across a returned revision', () => {
     const started = await hal.post(`/api/procedures/${r1.procedureId}/drafts`).send({});
     expect(started.status).toBe(201);
     const r2 = started.body.revision as { id: string; number: number };
-    expect((await hal.post(`/api/revisions/${r2.id}/submit`).send({})).status).toBe(200);
+    expect(
+      (await hal.post(`/api/revisions/${r2.id}/submit`).send({ changeReason: 'Test change.' })).status,
+    ).toBe(200);
 
     // Dee's own words, unchanged: she is one of r2's authors by provenance.
     const byDee = await approve(dee, r2.id, 'dee');

@@ -156,7 +156,9 @@ describe('the review view carries what was assumed', () => {
       .put(`/api/revisions/${rev2.id}`)
       .send({ ...first.meta, params, lockVersion: rev2.lockVersion, document: document('hv', '80 %') });
     expect(saved.status).toBe(200);
-    expect((await first.c.post(`/api/revisions/${rev2.id}/submit`).send({})).status).toBe(200);
+    expect(
+      (await first.c.post(`/api/revisions/${rev2.id}/submit`).send({ changeReason: 'Test change.' })).status,
+    ).toBe(200);
 
     const changes = (await marek.get(`/api/revisions/${rev2.id}/review`)).body.review.valueChanges as {
       kind: string;

@@ -49,7 +49,10 @@ describe('review mail through the outbox and a real SMTP conversation', () => {
           .send({ ...meta, params, lockVersion: d.revision.lockVersion, document: goodDoc('0.15 A') })
       ).status,
     ).toBe(200);
-    expect((await d.c.post(`/api/revisions/${d.revision.id}/submit`).send({})).status).toBe(200);
+    expect(
+      (await d.c.post(`/api/revisions/${d.revision.id}/submit`).send({ changeReason: 'Test change.' }))
+        .status,
+    ).toBe(200);
     await deliverAll();
     const got = await recipientsOf(t.catcher!.received, d.revision.id);
     expect(got).toEqual([demo.marek.email]);

@@ -62,7 +62,7 @@ export async function newDraft(t: TestApp, author: Who = 'hal', document: unknow
 
 export async function inReview(t: TestApp, author: Who = 'hal', document?: unknown) {
   const d = await newDraft(t, author, document);
-  const res = await d.c.post(`/api/revisions/${d.revision.id}/submit`).send({});
+  const res = await d.c.post(`/api/revisions/${d.revision.id}/submit`).send({ changeReason: 'Test change.' });
   expect(res.status).toBe(200);
   return d;
 }

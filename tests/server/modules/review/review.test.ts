@@ -40,11 +40,11 @@ describe('submitting a draft', () => {
     const { c, revision } = await newDraft(t);
     const res = await c
       .post(`/api/revisions/${revision.id}/submit`)
-      .send({ lockVersion: revision.lockVersion });
+      .send({ changeReason: 'Test change.', lockVersion: revision.lockVersion });
     expect(res.status).toBe(200);
     expect(res.body.revision.state).toBe('in_review');
     expect(res.body.revision.submittedAt).toBeTruthy();
-    const again = await c.post(`/api/revisions/${revision.id}/submit`).send({});
+    const again = await c.post(`/api/revisions/${revision.id}/submit`).send({ changeReason: 'Test change.' });
     expect(again.status).toBe(409);
     expect(again.body).toMatchObject({ state: 'in_review' });
     expect(again.body.error).toMatch(/in review/);
@@ -65,7 +65,7 @@ describe('submitting a draft', () => {
     const { c, revision } = await newDraft(t);
     const res = await c
       .post(`/api/revisions/${revision.id}/submit`)
-      .send({ lockVersion: revision.lockVersion - 1 });
+      .send({ changeReason: 'Test change.', lockVersion: revision.lockVersion - 1 });
     expect(res.status).toBe(409);
     expect(res.body.lockVersion).toBe(revision.lockVersion);
   });
@@ -73,7 +73,7 @@ describe('submitting a draft', () => {
   it('a draft with a reckoner error or an unresolved reading is refused, naming each', async () => {
     const broken = doc(paragraph('x'), fuseBlock('lots of amps'), reading('±5 %', 'fuse.noSuchOutput'));
     const { c, revision } = await newDraft(t, 'hal', broken);
-    const res = await c.post(`/api/revisions/${revision.id}/submit`).send({});
+    const res = await c.post(`/api/revisions/${revision.id}/submit`).send({ changeReason: 'Test change.' });
     expect(res.status).toBe(409);
     expect(res.body.state).toBe('draft');
     const blockIds = res.body.problems.map((p: { blockId: string }) => p.blockId);
@@ -85,7 +85,9 @@ describe('submitting a draft', () => {
     );
     expect(res.body.error).not.toMatch(/windings\.0\.amps/);
     const noTolerance = await newDraft(t, 'hal', doc(paragraph('x'), fuseBlock('0.1 A'), reading('')));
-    const res2 = await noTolerance.c.post(`/api/revisions/${noTolerance.revision.id}/submit`).send({});
+    const res2 = await noTolerance.c
+      .post(`/api/revisions/${noTolerance.revision.id}/submit`)
+      .send({ changeReason: 'Test change.' });
     expect(res2.status).toBe(409);
     expect(res2.body.problems[0]).toMatchObject({ blockId: 'reading-bplus2' });
     expect((await t.db.select().from(revisions).where(eq(revisions.id, revision.id)))[0]!.state).toBe(
@@ -96,9 +98,13 @@ describe('submitting a draft', () => {
   it('only an author who wrote or edited the draft may submit it; technicians never', async () => {
     const { revision } = await newDraft(t, 'hal');
     const ruth = await t.as('ruth');
-    expect((await ruth.post(`/api/revisions/${revision.id}/submit`).send({})).status).toBe(403);
+    expect(
+      (await ruth.post(`/api/revisions/${revision.id}/submit`).send({ changeReason: 'Test change.' })).status,
+    ).toBe(403);
     const tom = await t.as('tom');
-    expect((await tom.post(`/api/revisions/${revision.id}/submit`).send({})).status).toBe(403);
+    expect(
+      (await tom.post(`/api/revisions/${revision.id}/submit`).send({ changeReason: 'Test change.' })).status,
+    ).toBe(403);
   });
 });
 
@@ -125,7 +131,13 @@ describe('four eyes', () => {
           .send({ ...meta, params, lockVersion: edited.revision.lockVersion, document: goodDoc('0.12 A') })
       ).status,
     ).toBe(200);
-    expect((await edited.c.post(`/api/revisions/${edited.revision.id}/submit`).send({})).status).toBe(200);
+    expect(
+      (
+        await edited.c
+          .post(`/api/revisions/${edited.revision.id}/submit`)
+          .send({ changeReason: 'Test change.' })
+      ).status,
+    ).toBe(200);
     expect((await approve(dee, edited.revision.id, 'dee')).status).toBe(403);
     expect(
       (
@@ -336,7 +348,10 @@ describe('transitions', () => {
     const again = await approve(marek, r.revision.id, 'marek');
     expect(again.status).toBe(409);
     expect(again.body).toMatchObject({ state: 'returned' });
-    expect((await r.c.post(`/api/revisions/${r.revision.id}/submit`).send({})).body.state).toBe('returned');
+    expect(
+      (await r.c.post(`/api/revisions/${r.revision.id}/submit`).send({ changeReason: 'Test change.' })).body
+        .state,
+    ).toBe('returned');
 
     const a = await inReview(t);
     await approve(marek, a.revision.id, 'marek');
@@ -394,7 +409,9 @@ describe('transitions', () => {
       document: goodDoc('0.3 A', '±10 %', 'Bring the unit up on the variac and watch the HT.'),
     });
     expect(saved.status).toBe(200);
-    expect((await first.c.post(`/api/revisions/${rev2.id}/submit`).send({})).status).toBe(200);
+    expect(
+      (await first.c.post(`/api/revisions/${rev2.id}/submit`).send({ changeReason: 'Test change.' })).status,
+    ).toBe(200);
 
     const review = await marek.get(`/api/revisions/${rev2.id}/review`);
     expect(review.status).toBe(200);

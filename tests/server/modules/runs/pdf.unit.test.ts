@@ -59,6 +59,7 @@ function run(n: number): RunView {
       number: 2,
       state: 'approved',
       title: 'TC-18 power supply',
+      changeReason: 'Bleeder value corrected',
       approvedAt: at,
       author: tom,
       contentHash: 'a'.repeat(64),
