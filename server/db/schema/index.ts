@@ -6,3 +6,5 @@ export * from './mail';
 export * from './runs';
 export * from './review';
 export * from './auth';
+export * from './instruments';
+export * from './registers';
