@@ -108,7 +108,8 @@ BEGIN
 END;
 $$;
 --> statement-breakpoint
-CREATE TRIGGER runs_qualification_guard BEFORE INSERT OR UPDATE OF performed_by, witness_id ON public.runs
+-- Named to fire after runs_signed_guard (triggers fire in name order), which says first what an insert may be.
+CREATE TRIGGER runs_trainee_guard BEFORE INSERT OR UPDATE OF performed_by, witness_id ON public.runs
   FOR EACH ROW EXECUTE FUNCTION public.benchwright_run_qualification_guard();
 --> statement-breakpoint
 -- The witness's co-signature: only by the run's named witness, still qualified, on an open run.
