@@ -6,6 +6,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditLog, qualifications, runEntries } from '../../../../server/db/schema';
 import { auditSentence } from '../../../../shared/audit-actions';
+import { pdfBody, pdfText } from '../../../support/pdf-text';
 import { procedureInState } from '../../../support/review-path';
 import { createTestApp, demo, type TestApp } from '../../../support/test-app';
 import { benchDoc, entry, newUnit, personId, startRun } from '../runs/runs-fixtures';
@@ -85,27 +86,23 @@ describe('the instrument register', () => {
     expect(again.status).toBe(400);
     expect(again.body.fields[0]).toEqual({ field: 'body.identifier', reason: 'already in the register' });
     const admin = await t.as('admin');
-    const edited = await admin
-      .put(`/api/instruments/${added.id}`)
-      .send({
-        identifier: 'TC-DMM-77',
-        kind: 'meter',
-        calibrationDue: '2020-03-01',
-        description: 'dropped',
-        lockVersion: added.lockVersion,
-      });
+    const edited = await admin.put(`/api/instruments/${added.id}`).send({
+      identifier: 'TC-DMM-77',
+      kind: 'meter',
+      calibrationDue: '2020-03-01',
+      description: 'dropped',
+      lockVersion: added.lockVersion,
+    });
     expect(edited.status).toBe(200);
     expect(edited.body.instrument.refusal).toBe(
       'TC-DMM-77 was due for calibration on 2020-03-01; it cannot take readings until it is calibrated again',
     );
-    const stale = await admin
-      .put(`/api/instruments/${added.id}`)
-      .send({
-        identifier: 'TC-DMM-77',
-        kind: 'meter',
-        calibrationDue: '2099-03-01',
-        lockVersion: added.lockVersion,
-      });
+    const stale = await admin.put(`/api/instruments/${added.id}`).send({
+      identifier: 'TC-DMM-77',
+      kind: 'meter',
+      calibrationDue: '2099-03-01',
+      lockVersion: added.lockVersion,
+    });
     expect(stale.status).toBe(409);
     const rows = await t.db
       .select()
@@ -329,15 +326,13 @@ describe('a trainee’s witnessed run', () => {
     const priya = await t.as('priya');
     const revision = await radioProcedure();
     const unit = await newUnit(sam);
-    const started = await sam
-      .post('/api/runs')
-      .send({
-        revisionId: revision.id,
-        unitId: unit.id,
-        mainsVoltage: 230,
-        mainsFrequency: 50,
-        witnessId: await personId(t, 'tom'),
-      });
+    const started = await sam.post('/api/runs').send({
+      revisionId: revision.id,
+      unitId: unit.id,
+      mainsVoltage: 230,
+      mainsFrequency: 50,
+      witnessId: await personId(t, 'tom'),
+    });
     expect(started.status).toBe(201);
     const runId = started.body.run.id as string;
     expect(started.body.run.witness).toEqual({
@@ -400,15 +395,13 @@ describe('a trainee’s witnessed run', () => {
       /the performer is not qualified for Table radio procedures with live work, and no witness is named/,
     );
 
-    const started = await sam
-      .post('/api/runs')
-      .send({
-        revisionId: revision.id,
-        unitId: unit.id,
-        mainsVoltage: 230,
-        mainsFrequency: 50,
-        witnessId: tomId,
-      });
+    const started = await sam.post('/api/runs').send({
+      revisionId: revision.id,
+      unitId: unit.id,
+      mainsVoltage: 230,
+      mainsFrequency: 50,
+      witnessId: tomId,
+    });
     const runId = started.body.run.id as string;
     await finish(sam, runId);
     expect(
@@ -456,5 +449,45 @@ describe('a trainee’s witnessed run', () => {
     expect(handed.body.fields[0].reason).toBe(
       'Sam Oduya is not qualified for Table radio procedures, and this run has no witness',
     );
+  });
+});
+
+describe('the demo content', () => {
+  it('has an instrument due next month and one past due, and a trainee’s witnessed run whose sheet and PDF name the witness and the instrument', async () => {
+    const tom = await t.as('tom');
+    const list = (await tom.get('/api/instruments')).body.instruments as {
+      identifier: string;
+      calibrationDue: string;
+      refusal: string | null;
+    }[];
+    const today = new Date().toISOString().slice(0, 10);
+    const next = new Date(Date.UTC(Number(today.slice(0, 4)), Number(today.slice(5, 7)), 15))
+      .toISOString()
+      .slice(0, 7);
+    expect(list.find((i) => i.identifier === 'TC-DMM-01')).toMatchObject({
+      calibrationDue: `${next}-15`,
+      refusal: null,
+    });
+    expect(list.find((i) => i.identifier === 'TC-IR-01')!.refusal).toMatch(
+      /^TC-IR-01 was due for calibration on/,
+    );
+
+    const runs = (await tom.get('/api/runs').query({ status: 'signed' })).body.runs as {
+      id: string;
+      unit: { model: string };
+    }[];
+    const radio = runs.find((r) => r.unit.model === 'TC-5R')!;
+    const view = (await tom.get(`/api/runs/${radio.id}`)).body.run;
+    expect(view.performedBy.displayName).toBe('Sam Oduya');
+    expect(view.signature.verified).toBe(true);
+    expect(view.witness).toMatchObject({
+      person: { displayName: 'Tom Achterberg' },
+      signature: { current: true },
+    });
+    const pdf = await tom.get(`/api/runs/${radio.id}/sheet.pdf`).buffer(true).parse(pdfBody);
+    const text = pdfText(pdf.body as Buffer).join('\n');
+    expect(text).toContain('Instruments used');
+    expect(text).toMatch(new RegExp(`TC-DMM-01 \\(meter\\)[^\\n]*\\n?[^\\n]*calibration due ${next}-15`));
+    expect(text).toMatch(/Witnessed by[^\n]*\n?[^\n]*Tom Achterberg/);
   });
 });
