@@ -59,27 +59,25 @@ export const instrumentRefusal = (i: { identifier: string; calibrationDue: strin
 export const QUALIFICATION_SCOPES = { family: 'Procedure family', live: 'Live work' } as const;
 export type QualificationScope = keyof typeof QUALIFICATION_SCOPES;
 
-export const grantBody = z.discriminatedUnion(
-  'scope',
-  [
-    z
-      .object({
-        personId: z.uuid('choose the person'),
-        scope: z.literal('family'),
-        family: oneLine(80, { min: 1, label: 'family', minMessage: 'choose the procedure family' }),
-        note: oneLine(200, { label: 'note' }).default(''),
-      })
-      .strict(),
-    z
-      .object({
-        personId: z.uuid('choose the person'),
-        scope: z.literal('live'),
-        note: oneLine(200, { label: 'note' }).default(''),
-      })
-      .strict(),
-  ],
-  { error: 'choose what is granted (family or live)' },
-);
+export const grantBody = z
+  .object({
+    personId: z.uuid('choose the technician'),
+    scope: z.enum(['family', 'live'], { error: 'choose what is granted (family or live)' }),
+    /** The procedure family, as procedures state it; only for a family qualification. */
+    family: oneLine(80, { label: 'family' }).default(''),
+    note: oneLine(200, { label: 'note' }).default(''),
+  })
+  .strict()
+  .superRefine((b, ctx) => {
+    if (b.scope === 'family' && !b.family)
+      ctx.addIssue({ code: 'custom', path: ['family'], message: 'choose the procedure family' });
+    if (b.scope === 'live' && b.family)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['family'],
+        message: 'live work is not for one family; leave it empty',
+      });
+  });
 export type GrantBody = z.input<typeof grantBody>;
 
 export const withdrawBody = z

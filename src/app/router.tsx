@@ -24,6 +24,8 @@ import {
 } from '@/features/procedures/api/get-procedures';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { reviewQueueQueryOptions, revisionReviewQueryOptions } from '@/features/review/api/review-queries';
+import { instrumentsQueryOptions } from '@/features/registers/api/instruments';
+import { qualificationsQueryOptions } from '@/features/registers/api/qualifications';
 import { runQueryOptions } from '@/features/runs/api/get-run';
 import { runnableProceduresQueryOptions } from '@/features/runs/api/get-runnable-procedures';
 import { runsQueryOptions } from '@/features/runs/api/get-runs';
@@ -171,6 +173,16 @@ const router = createBrowserRouter([
         () => [outboxQueryOptions('', 1)],
       ),
       page(paths.apiReference.pattern, () => import('./routes/admin/api-reference')),
+      page(
+        paths.instruments.pattern,
+        () => import('./routes/registers/instruments'),
+        () => [instrumentsQueryOptions()],
+      ),
+      page(
+        paths.qualifications.pattern,
+        () => import('./routes/registers/qualifications'),
+        () => [qualificationsQueryOptions()],
+      ),
       page(
         paths.units.pattern,
         () => import('./routes/units/units'),

@@ -82,6 +82,13 @@ export async function routeTour(databaseUrl: string): Promise<Visit[]> {
       newRun: [{ route: 'newRun', url: paths.newRun.href(), who: 'tom' }],
       run: [{ route: 'run', url: paths.run.href(open.id), who: performer }],
       runSheet: [{ route: 'runSheet', url: paths.runSheet.href(signed.id), who: 'tom' }],
+      // Seen by a reviewer, who keeps the registers (every form shown), and by a technician.
+      instruments: (['marek', 'tom'] as const).map((who) => ({
+        route: 'instruments',
+        url: paths.instruments.href(),
+        who,
+      })),
+      qualifications: [{ route: 'qualifications', url: paths.qualifications.href(), who: 'marek' }],
     };
     return Object.values(visits).flat();
   } finally {

@@ -130,7 +130,7 @@ export async function grantQualification(db: Db | Tx, user: SessionUser, body: G
       throw badRequest('body.personId: not an active technician', [
         { field: 'body.personId', reason: 'not an active technician' },
       ]);
-    const family = body.scope === 'family' ? body.family : null;
+    const family = body.scope === 'family' ? (body.family ?? '') : null;
     const held = await heldBy(tx, person.id);
     if (
       held.some(

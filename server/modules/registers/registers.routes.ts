@@ -6,6 +6,7 @@ import {
   withdrawBody,
 } from '../../../shared/schemas/registers';
 import { defineRoute } from '../../http/route';
+import { activeTechnicians } from '../runs/runs.service';
 import { receiveFile } from '../attachments/upload';
 import { addCertificate, addInstrument, listInstruments, updateInstrument } from './instruments.service';
 import {
@@ -73,11 +74,13 @@ export const registerRoutes = [
     method: 'get',
     path: '/qualifications',
     access: 'signed-in',
-    summary: 'Who may run which procedure family and who may do live work (all=1 adds withdrawn ones)',
+    summary:
+      'Who may run which procedure family and who may do live work (all=1 adds withdrawn ones), with the families and technicians to grant to',
     query: z.object({ all: z.enum(['1']).optional() }).strict(),
     handler: async ({ query, deps }) => ({
       qualifications: await listQualifications(deps.db, query.all === '1'),
       families: await procedureFamilies(deps.db),
+      technicians: await activeTechnicians(deps.db),
     }),
   }),
 
