@@ -48,6 +48,11 @@ export async function signRun(
   if (exists.status === 'signed') throw conflict('This run sheet is already signed.');
   // Only the performer signs, never on hold: said before the password is asked for (and again under the lock).
   await assertWritable(db, exists, user);
+  // A trainee's run waits for its witness: said before the password is asked for, too.
+  if (exists.witnessId)
+    await db.transaction(async (tx) =>
+      requireWitness(tx, exists, (await signableContent(tx, deps.files, exists)).contentHash),
+    );
   await confirmSignerPassword(db, user, body.password, req, `run ${runId}`);
 
   const result = await db.transaction(async (tx) => {
@@ -82,28 +87,7 @@ export async function writeRunSignature(
   if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
   await assertWritable(tx, run, user);
   const { entries, unitRecord, contentHash } = await signableContent(tx, files, run);
-  if (run.witnessId) {
-    const [witnessed] = await tx
-      .select({ id: runWitnessSignatures.id })
-      .from(runWitnessSignatures)
-      .where(
-        and(
-          eq(runWitnessSignatures.runId, runId),
-          eq(runWitnessSignatures.signerId, run.witnessId),
-          eq(runWitnessSignatures.contentHash, contentHash),
-        ),
-      );
-    if (!witnessed) {
-      const [w] = await tx
-        .select({ name: people.displayName })
-        .from(people)
-        .where(eq(people.id, run.witnessId));
-      throw conflict(
-        `${w?.name ?? 'The witness'} has not co-signed this run as it stands now; they sign as witness first (again, if an entry changed after they signed).`,
-        { code: 'witness-required' },
-      );
-    }
-  }
+  await requireWitness(tx, run, contentHash);
   const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
   const signerName = person?.name ?? user.displayName;
   const outOfTolerance = entries.some((e) => e.within === false);
@@ -136,6 +120,32 @@ export async function writeRunSignature(
     req: how.req,
   });
   return { run, unitRecord, entries, signerName, signature: signature!, outOfTolerance };
+}
+
+/** A witnessed run is signed only over content its witness co-signed (the database checks the same at commit). */
+async function requireWitness(tx: Tx, run: RunRow, contentHash: string) {
+  if (run.witnessId) {
+    const [witnessed] = await tx
+      .select({ id: runWitnessSignatures.id })
+      .from(runWitnessSignatures)
+      .where(
+        and(
+          eq(runWitnessSignatures.runId, run.id),
+          eq(runWitnessSignatures.signerId, run.witnessId),
+          eq(runWitnessSignatures.contentHash, contentHash),
+        ),
+      );
+    if (!witnessed) {
+      const [w] = await tx
+        .select({ name: people.displayName })
+        .from(people)
+        .where(eq(people.id, run.witnessId));
+      throw conflict(
+        `${w?.name ?? 'The witness'} has not co-signed this run as it stands now; they sign as witness first (again, if an entry changed after they signed).`,
+        { code: 'witness-required' },
+      );
+    }
+  }
 }
 
 /**

@@ -347,6 +347,8 @@ describe('a trainee’s witnessed run', () => {
     const early = await sam.post(`/api/runs/${runId}/sign`).send({ password: demo.sam.password });
     expect(early.status).toBe(409);
     expect(early.body.error).toMatch(/Tom Achterberg has not co-signed this run as it stands now/);
+    // Said before the password is checked, so no password try is spent on it.
+    expect((await sam.post(`/api/runs/${runId}/sign`).send({ password: 'not it' })).status).toBe(409);
     const notWitness = await priya.post(`/api/runs/${runId}/witness`).send({ password: demo.priya.password });
     expect(notWitness.status).toBe(403);
     expect(notWitness.body.error).toBe('Tom Achterberg is this run’s witness; only they co-sign it.');
