@@ -11,6 +11,7 @@ import { procedureRoutes } from './modules/procedures/procedures.routes';
 import { searchRoutes } from './modules/search/search.routes';
 import { auditRoutes } from './modules/audit/audit.routes';
 import { outboxRoutes } from './modules/mail/outbox.routes';
+import { registerRoutes } from './modules/registers/registers.routes';
 import { reviewRoutes } from './modules/review/review.routes';
 import { runRoutes } from './modules/runs/runs.routes';
 import { unitRoutes } from './modules/units/units.routes';
@@ -31,5 +32,6 @@ export const routeTable: readonly RouteDef[] = [
   ...outboxRoutes,
   ...unitRoutes,
   ...runRoutes,
+  ...registerRoutes,
   openApiRoute(() => routeTable),
 ];

@@ -20,6 +20,9 @@ export function revisionWords(subject: string | null): string {
 const who = (e: AuditEntryWords) => e.subject ?? 'an account';
 const count = (n: unknown, one: string) => (typeof n === 'number' ? `${n} ${one}${n === 1 ? '' : 's'}` : '');
 
+const qualificationWords = (d: Record<string, unknown>) =>
+  d.scope === 'live' ? 'live work' : `${typeof d.family === 'string' ? d.family : 'a family of'} procedures`;
+
 const ACTIONS = {
   'sign-in': { label: 'Signed in', phrase: () => 'signed in' },
   'sign-in.failed': { label: 'Sign-in refused', phrase: (e) => `a sign-in as ${who(e)} was refused` },
@@ -95,6 +98,30 @@ const ACTIONS = {
     phrase: () => 'handed a bench run over to another technician',
   },
   'run.abandoned': { label: 'Bench run closed unfinished', phrase: () => 'closed a bench run unfinished' },
+  'run.witnessed': {
+    label: 'Bench run witnessed',
+    phrase: () => 'co-signed a trainee’s bench run as its witness',
+  },
+  'instrument.added': {
+    label: 'Instrument added',
+    phrase: (e) => `added ${e.subject ?? 'an instrument'} to the instrument register`,
+  },
+  'instrument.changed': {
+    label: 'Instrument changed',
+    phrase: (e) => `changed instrument ${e.subject ?? ''}`,
+  },
+  'instrument.certificate-added': {
+    label: 'Calibration certificate added',
+    phrase: (e) => `added a calibration certificate for ${e.subject ?? 'an instrument'}`,
+  },
+  'qualification.granted': {
+    label: 'Qualification granted',
+    phrase: (e) => `qualified ${who(e)} for ${qualificationWords(e.details)}`,
+  },
+  'qualification.withdrawn': {
+    label: 'Qualification withdrawn',
+    phrase: (e) => `withdrew ${qualificationWords(e.details)} from ${who(e)}`,
+  },
 } as const satisfies Record<string, { label: string; phrase: Phrase }>;
 
 export type AuditAction = keyof typeof ACTIONS;

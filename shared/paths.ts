@@ -44,4 +44,6 @@ export const paths = {
   },
   run: { pattern: '/runs/:runId', href: (id: string) => `/runs/${id}` },
   runSheet: { pattern: '/runs/:runId/sheet', href: (id: string) => `/runs/${id}/sheet` },
+  instruments: { pattern: '/instruments', href: () => '/instruments' },
+  qualifications: { pattern: '/qualifications', href: () => '/qualifications' },
 } as const;

@@ -8,12 +8,12 @@ import { unitBody } from '../../shared/schemas/units';
 import { HttpError } from '../http/errors';
 import type { SessionUser } from '../http/route';
 import { toSessionUser } from '../auth/passport';
-import { writeRunSignature } from '../modules/runs/run-sign';
+import { writeRunSignature, writeWitnessSignature } from '../modules/runs/run-sign';
 import { recordEntry, startRun } from '../modules/runs/runs.service';
 import { registerUnit } from '../modules/units/units.service';
 import { NO_FILES } from '../storage/files';
 import type { Db, Tx } from './client';
-import { people, procedures, revisions, runEntries, runs, units } from './schema';
+import { instruments, people, procedures, revisions, runEntries, runs, units } from './schema';
 
 const email = z.email();
 const instant = z.iso.datetime({ offset: true });
@@ -42,6 +42,11 @@ const runsFile = z.object({
         procedure: z.string(),
         unit: z.object({ model: z.string(), serial: z.string() }).strict(),
         technician: email,
+        /** A trainee's run: the qualified witness, who co-signs at witnessedAt (before signedAt). */
+        witness: email.optional(),
+        witnessedAt: instant.optional(),
+        /** The bench's usual instrument for the run, by identifier. */
+        instrument: z.string().optional(),
         mains: z.object({ voltage: z.number(), frequency: z.number() }).strict(),
         startedAt: instant,
         /** A signed run sheet: every step finished, signed at this time. */
@@ -156,12 +161,20 @@ async function seedOneRun(db: Db, r: SeedRun) {
     .where(and(eq(runs.unitId, unit.id), eq(runs.startedAt, startedAt)));
   if (sameVisit) return false;
 
+  const witness = r.witness ? await personByEmail(db, r.witness) : undefined;
+  if (r.witness && !witness) throw new SkipRun(`no witness ${r.witness}`);
+  const [instrument] = r.instrument
+    ? await db.select().from(instruments).where(eq(instruments.identifier, r.instrument))
+    : [];
+  if (r.instrument && !instrument) throw new SkipRun(`no instrument ${r.instrument}`);
   const body = startRunBody.parse({
     revisionId: revision.id,
     unitId: unit.id,
     mainsVoltage: r.mains.voltage,
     mainsFrequency: r.mains.frequency,
     key: demoUuid(`run ${r.key}`),
+    ...(witness && { witnessId: witness.id }),
+    ...(instrument && { instrumentId: instrument.id }),
   });
   await db.transaction(async (tx) => {
     // Demo revisions attach no files and demo runs take no photos.
@@ -203,6 +216,11 @@ async function seedOneRun(db: Db, r: SeedRun) {
     await tx.update(runs).set({ startedAt }).where(eq(runs.id, run.id));
     // Signed as the API signs (same checks, hash, rows and audit entry), dated in the past, without
     // the password re-entry a seeder cannot give and without the out-of-tolerance mail.
+    if (r.signedAt && witness)
+      await writeWitnessSignature(tx, NO_FILES, witness, run.id, {
+        requestId: 'demo-content',
+        signedAt: new Date(r.witnessedAt ?? r.signedAt),
+      });
     if (r.signedAt)
       await writeRunSignature(tx, NO_FILES, tech, run.id, {
         meaning: 'performed',

@@ -8,6 +8,7 @@ import type { Db } from './client';
 import { addPerson } from '../modules/people/people.service';
 import { people } from './schema';
 import { seedDemoProcedures } from './seed-procedures';
+import { seedDemoRegisters } from './seed-registers';
 import { seedDemoBench } from './seed-runs';
 import { seedDemoRevisions } from './seed-revisions';
 
@@ -52,6 +53,10 @@ export async function seedDemoContent(db: Db, log: (line: string) => void = () =
   log(`demo people: ${added} added, ${demo.length - added} already present`);
   const procs = await seedDemoProcedures(db, contentSeedDir);
   log(`demo procedures: ${procs.added} added, ${procs.present} already present`);
+  const registers = await seedDemoRegisters(db, contentSeedDir);
+  log(
+    `demo instruments: ${registers.instruments} added; demo qualifications: ${registers.qualifications} granted`,
+  );
   const bench = await seedDemoBench(db, contentSeedDir, log);
   log(
     `demo units: ${bench.units.added} added, ${bench.units.present} already present; demo bench runs: ${bench.runs.added} added, ${bench.runs.present} already present, ${bench.runs.skipped} skipped`,

@@ -1,5 +1,6 @@
 import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
 import type { SignalLevel } from '../safety-signs';
+import { INSTRUMENT_KINDS, type InstrumentKind } from '../schemas/registers';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
 import { formatNumber, formatQuantity } from '../units/format';
 import { MARK_WORDS, markOf, type MarkKind } from './marks';
@@ -31,6 +32,9 @@ export const RUN_SIGNATURE_MEANING = {
   performed: 'I performed this bench run and recorded these readings.',
 } as const;
 
+/** What a witness's co-signature on a trainee's run means; the witness form says the same. */
+export const WITNESS_MEANING = 'I watched this bench run being performed and these readings being recorded.';
+
 export const SHEET_HEADINGS = {
   unit: 'Unit',
   procedure: 'Procedure followed and its approval record',
@@ -38,6 +42,7 @@ export const SHEET_HEADINGS = {
   readings: 'Readings',
   checks: 'Check steps and hazard notes',
   corrections: 'Corrections (originals kept)',
+  instruments: 'Instruments used',
   signature: 'Signature',
 } as const;
 
@@ -56,7 +61,7 @@ export interface SheetField {
   value: string;
   mono?: boolean;
   tone?: 'ok' | 'out';
-  tag?: 'handover' | 'performer' | 'closed' | 'hold';
+  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness';
 }
 
 export interface SheetNotice {
@@ -121,6 +126,8 @@ export interface RunSheetModel {
   corrections: SheetCorrection[];
   /** The readings against their bands, drawn on the page and in the PDF (readings-plot.ts). */
   plot: ReadingsPlot;
+  /** Each instrument that took a reading, with its calibration due date when it did and the readings it took. */
+  instruments: SheetField[];
   photos: string | null;
   signature: SheetField[];
 }
@@ -182,6 +189,42 @@ function notices(run: RunView): SheetNotice[] {
   if (run.outOfTolerance)
     out.push({ kind: 'out', text: `${plural(run.progress.outOfTolerance, 'reading')} ${MARK_WORDS.out}` });
   return out;
+}
+
+function instrumentFields(run: RunView): SheetField[] {
+  const used = new Map<string, { label: string; due: string; positions: number[] }>();
+  for (const s of run.steps) {
+    const i = run.entries.find((e) => e.stepId === s.id)?.instrument;
+    if (!i) continue;
+    const key = `${i.id} ${i.calibrationDue}`;
+    const kind = INSTRUMENT_KINDS[i.kind as InstrumentKind] ?? i.kind;
+    const row = used.get(key) ?? {
+      label: `${i.identifier} (${kind.toLowerCase()})`,
+      due: i.calibrationDue,
+      positions: [],
+    };
+    row.positions.push(s.position);
+    used.set(key, row);
+  }
+  return [...used.values()].map((u) => ({
+    label: u.label,
+    value: `calibration due ${u.due}; ${u.positions.length === 1 ? 'step' : 'steps'} ${u.positions.join(', ')}`,
+  }));
+}
+
+function witnessFields(run: RunView): SheetField[] {
+  const w = run.witness;
+  if (!w) return [];
+  if (!w.signature)
+    return [{ label: 'Witness', value: `${w.person.displayName}, not co-signed yet`, tag: 'witness' }];
+  return [
+    { label: 'Witnessed by', value: w.person.displayName, tag: 'witness' },
+    { label: 'Witness meaning', value: `witnessed: ${WITNESS_MEANING}` },
+    { label: 'Witnessed at', value: formatUtc(w.signature.signedAt) },
+    w.signature.current
+      ? { label: 'Witness check', value: 'Yes: co-signed over the run content as it stands.', tone: 'ok' }
+      : { label: 'Witness check', value: 'NO: entries changed after the witness co-signed.', tone: 'out' },
+  ];
 }
 
 export function runSheetModel(run: RunView): RunSheetModel {
@@ -272,11 +315,12 @@ export function runSheetModel(run: RunView): RunSheetModel {
         };
       }),
     plot: readingsPlot(run.steps, run.entries),
+    instruments: instrumentFields(run),
     photos: run.photos.length
       ? `${plural(run.photos.length, 'photo')} kept with the run in Benchwright`
       : null,
-    signature: sig
-      ? [
+    signature: (sig
+      ? ([
           { label: 'Signed by', value: `${sig.signer.displayName} (${sig.signerRole})` },
           { label: 'Meaning', value: `${sig.meaning}: ${RUN_SIGNATURE_MEANING[sig.meaning]}` },
           { label: 'Signed at', value: formatUtc(sig.signedAt) },
@@ -288,7 +332,8 @@ export function runSheetModel(run: RunView): RunSheetModel {
                 value: 'NO: the stored run content does not match the signed hash.',
                 tone: 'out',
               },
-        ]
-      : [{ label: 'Signed by', value: 'not signed yet' }],
+        ] as SheetField[])
+      : [{ label: 'Signed by', value: 'not signed yet' }]
+    ).concat(witnessFields(run)),
   };
 }

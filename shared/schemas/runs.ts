@@ -64,6 +64,10 @@ export const startRunBody = z
     mainsFrequency: bounded('mainsFrequency'),
     /** Client-generated; the same key twice starts one run. */
     key: z.uuid('must be a UUID').optional(),
+    /** The qualified person who witnesses and co-signs a trainee's run. */
+    witnessId: z.uuid('choose the witness').optional(),
+    /** The bench's usual instrument: it takes every reading unless another is chosen for one. */
+    instrumentId: z.uuid('choose the instrument').optional(),
   })
   .strict();
 export type StartRunBody = z.infer<typeof startRunBody>;
@@ -88,6 +92,8 @@ export const entryBody = z
     reason: z.string().trim().max(500, 'at most 500 characters').optional(),
     /** Who made the entry (their person id): the server refuses it from anyone else's session. */
     by: z.uuid('not a valid person id').optional(),
+    /** The instrument that took a reading, when not the run's usual one. */
+    instrumentId: z.uuid('choose the instrument').optional(),
   })
   .strict();
 export type EntryBody = z.infer<typeof entryBody>;
@@ -114,6 +120,11 @@ export const signRunBody = z
     meaning: z.literal('performed').default('performed'),
     reason: z.string().trim().max(500).optional(),
   })
+  .strict();
+
+/** The witness co-signs a trainee's finished run ("witnessed") before the trainee signs it. */
+export const witnessRunBody = z
+  .object({ password: z.string().min(1, 'enter your password to sign as witness').max(256) })
   .strict();
 
 export const runListQuery = z
@@ -156,6 +167,15 @@ export interface EntryView {
   enteredAt: string;
   /** Earlier versions, oldest first (present when the entry was changed). */
   history: EntryVersionView[];
+  /** The instrument that took the reading, with its calibration due date when it did. */
+  instrument?: RunInstrument | null;
+}
+
+export interface RunInstrument {
+  id: string;
+  identifier: string;
+  kind: string;
+  calibrationDue: string;
 }
 
 export interface RunPhotoView {
@@ -229,6 +249,13 @@ export interface RunView {
   /** Who performs the run now: the only person who may record entries and sign. */
   performedBy: Person;
   handovers: RunHandoverView[];
+  /** A trainee's run: the qualified witness, and their co-signature once given. */
+  witness?: {
+    person: Person;
+    signature: { signedAt: string; contentHash: string; current: boolean } | null;
+  } | null;
+  /** The bench's usual instrument for this run. */
+  defaultInstrument?: RunInstrument | null;
   hold: RunHold | null;
   /** Closed as abandoned. */
   closed: { by: Person; reason: string; at: string } | null;

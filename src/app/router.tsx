@@ -25,6 +25,8 @@ import {
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { reviewQueueQueryOptions, revisionReviewQueryOptions } from '@/features/review/api/review-queries';
 import { acknowledgementQueryOptions, reviewDueQueryOptions } from '@/features/review/api/acknowledgements';
+import { instrumentsQueryOptions } from '@/features/registers/api/instruments';
+import { qualificationsQueryOptions } from '@/features/registers/api/qualifications';
 import { runQueryOptions } from '@/features/runs/api/get-run';
 import { runnableProceduresQueryOptions } from '@/features/runs/api/get-runnable-procedures';
 import { runsQueryOptions } from '@/features/runs/api/get-runs';
@@ -183,6 +185,16 @@ const router = createBrowserRouter([
         () => [outboxQueryOptions('', 1)],
       ),
       page(paths.apiReference.pattern, () => import('./routes/admin/api-reference')),
+      page(
+        paths.instruments.pattern,
+        () => import('./routes/registers/instruments'),
+        () => [instrumentsQueryOptions()],
+      ),
+      page(
+        paths.qualifications.pattern,
+        () => import('./routes/registers/qualifications'),
+        () => [qualificationsQueryOptions()],
+      ),
       page(
         paths.units.pattern,
         () => import('./routes/units/units'),

@@ -196,6 +196,9 @@ export async function routeTour(databaseUrl: string, uploadDir: string): Promise
       // The performer first (entries, signing panel), then those who watch it.
       run: as(ALL, 'run', paths.run.href(open.id)),
       runSheet: as(ALL, 'runSheet', paths.runSheet.href(signed.id)),
+      // Everyone reads the registers; reviewers and admins keep them (every form shown).
+      instruments: as(ALL, 'instruments', paths.instruments.href()),
+      qualifications: as(ALL, 'qualifications', paths.qualifications.href()),
     };
     return Object.values(visits).flat();
   } finally {

@@ -7,3 +7,5 @@ export * from './runs';
 export * from './review';
 export * from './auth';
 export * from './acknowledgements';
+export * from './instruments';
+export * from './registers';

@@ -3,6 +3,7 @@ import {
   bigserial,
   boolean,
   check,
+  date,
   doublePrecision,
   index,
   integer,
@@ -16,6 +17,7 @@ import {
 import type { ProcedureParams } from '../../../shared/document/params';
 import type { Snapshot } from '../../../shared/document/evaluate';
 import type { RunStep } from '../../../shared/schemas/runs';
+import { instruments } from './instruments';
 import { people } from './people';
 import { attachments, procedures, revisions } from './procedures';
 
@@ -106,6 +108,10 @@ export const runs = pgTable(
     closedBy: uuid().references(() => people.id),
     closeReason: text(),
     contentHash: text(),
+    /** A trainee's run: the qualified person who witnesses it and co-signs before it is signed. */
+    witnessId: uuid().references(() => people.id),
+    /** The bench's usual instrument, taking each reading unless another is chosen for it. */
+    defaultInstrumentId: uuid().references(() => instruments.id),
     /** The unit as it was when the run sheet was signed (the register itself stays editable). */
     unitRecord: jsonb().$type<{
       id: string;
@@ -175,6 +181,9 @@ export const runEntries = pgTable(
     within: boolean(),
     deviation: doublePrecision(),
     deviationPercent: doublePrecision(),
+    /** The instrument that took the reading, and its calibration due date at the time. */
+    instrumentId: uuid().references(() => instruments.id),
+    instrumentDue: date({ mode: 'string' }),
     /** Check step ticked, or hazard note acknowledged. */
     done: boolean().notNull().default(false),
     note: text().notNull().default(''),

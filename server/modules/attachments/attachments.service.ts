@@ -25,7 +25,7 @@ export async function storeUpload(
 
 /**
  * Whether this person may read the attachment: staff read every one (as they read every draft);
- * technicians only what a published revision shows, and run and unit photos.
+ * technicians only what a published revision shows, run and unit photos and calibration certificates.
  */
 async function mayRead(db: Db, user: SessionUser, id: string) {
   if (seesDrafts(user)) return true;
@@ -33,6 +33,7 @@ async function mayRead(db: Db, user: SessionUser, id: string) {
   const { rows } = await db.execute<{ ok: boolean }>(sql`
     select exists (select 1 from run_photos where attachment_id = ${id})
         or exists (select 1 from unit_photos where attachment_id = ${id})
+        or exists (select 1 from instruments where certificate_id = ${id})
         or exists (
              select 1 from revisions
              where state in (${published})

@@ -8,9 +8,10 @@ import type { Request } from 'express';
 import type { HandoverBody } from '../../../shared/schemas/runs';
 import { recordAudit } from '../../audit/record';
 import type { Db, Tx } from '../../db/client';
-import { people, runHandovers, runs } from '../../db/schema';
+import { people, revisions, runHandovers, runs } from '../../db/schema';
 import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
+import { heldBy, isLiveWork, missing } from '../registers/qualifications.service';
 import { holdOf, onHold } from './run-hold';
 import type { RunRow } from './runs.service';
 
@@ -79,6 +80,22 @@ export async function handOverRun(
       throw badRequest('body.to: already performs this run', [
         { field: 'body.to', reason: 'already performs this run' },
       ]);
+    // The new performer must be qualified for the run, unless it has a witness (who cannot be the performer).
+    if (run.witnessId === to.id)
+      throw badRequest('body.to: is this run’s witness', [
+        { field: 'body.to', reason: 'is this run’s witness' },
+      ]);
+    if (!run.witnessId) {
+      const [rev] = await tx
+        .select({ family: revisions.equipmentFamily })
+        .from(revisions)
+        .where(eq(revisions.id, run.revisionId));
+      const lacks = missing(await heldBy(tx, to.id), rev!.family, isLiveWork(run.steps));
+      if (lacks.length) {
+        const reason = `${to.displayName} is not qualified for ${lacks.join(' or ')}, and this run has no witness`;
+        throw badRequest(`body.to: ${reason}`, [{ field: 'body.to', reason }]);
+      }
+    }
     const fromName = await nameOf(tx, run.performedBy);
     // The handover row first: the trigger lets the performer change only with it in place.
     await tx.insert(runHandovers).values({

@@ -7,7 +7,7 @@ export interface RunContent {
   unit: { id: string; model: string; serial: string; owner: string; jobNumber: string };
   params: unknown;
   steps: unknown;
-  entries: Pick<
+  entries: (Pick<
     EntryView,
     | 'stepId'
     | 'raw'
@@ -20,7 +20,9 @@ export interface RunContent {
     | 'done'
     | 'note'
     | 'version'
-  >[];
+  > & { instrument?: { id: string; calibrationDue: string } })[];
+  /** A trainee's run: who witnesses it (absent otherwise, so earlier run sheets hash as they did). */
+  witnessId?: string;
   /** Each photo's SHA-256 as re-hashed from its stored bytes; null when missing or altered. */
   photos: { id: string; stepId: string | null; sha256: string | null }[];
 }

@@ -11,16 +11,18 @@ import {
   runEntries,
   runs,
   runSignatures,
+  runWitnessSignatures,
   signatures,
   units,
 } from '../../db/schema';
-import { conflict, notFound } from '../../http/errors';
+import { conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import type { FileStore } from '../../storage/files';
 import { confirmSignerPassword } from '../review/reauth';
 import { revisionContentHash } from '../review/signed-content';
 import { assertWritable } from './run-custody';
+import { holdOf, onHold } from './run-hold';
 import { runContentHash } from './run-hash';
 import { isFinished } from './run-steps';
 import { runContent, unitRecordOf } from './run-view';
@@ -46,6 +48,11 @@ export async function signRun(
   if (exists.status === 'signed') throw conflict('This run sheet is already signed.');
   // Only the performer signs, never on hold: said before the password is asked for (and again under the lock).
   await assertWritable(db, exists, user);
+  // A trainee's run waits for its witness: said before the password is asked for, too.
+  if (exists.witnessId)
+    await db.transaction(async (tx) =>
+      requireWitness(tx, exists, (await signableContent(tx, deps.files, exists)).contentHash),
+    );
   await confirmSignerPassword(db, user, body.password, req, `run ${runId}`);
 
   const result = await db.transaction(async (tx) => {
@@ -79,36 +86,8 @@ export async function writeRunSignature(
   const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
   if (!run || run.status === 'signed') throw conflict('This run sheet is already signed.');
   await assertWritable(tx, run, user);
-  const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
-  const byStep = new Map(entries.map((e) => [e.stepId, e]));
-  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
-  if (unfinished.length) {
-    const list = unfinished
-      .slice(0, 5)
-      .map((s) => `${s.position}. ${s.text.slice(0, 60)}`)
-      .join('; ');
-    throw conflict(
-      `${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`,
-      {
-        unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
-      },
-    );
-  }
-  const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
-  if ((await revisionContentHash(tx, files, revision!)) !== run.revisionHash) {
-    throw conflict(
-      'The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.',
-    );
-  }
-  const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
-  const unitRecord = unitRecordOf(unit!);
-  const content = await runContent(tx, files, run, unitRecord);
-  if (content.photos.some((p) => p.sha256 === null)) {
-    throw conflict(
-      'A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.',
-    );
-  }
-  const contentHash = runContentHash(content);
+  const { entries, unitRecord, contentHash } = await signableContent(tx, files, run);
+  await requireWitness(tx, run, contentHash);
   const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
   const signerName = person?.name ?? user.displayName;
   const outOfTolerance = entries.some((e) => e.within === false);
@@ -141,6 +120,143 @@ export async function writeRunSignature(
     req: how.req,
   });
   return { run, unitRecord, entries, signerName, signature: signature!, outOfTolerance };
+}
+
+/** A witnessed run is signed only over content its witness co-signed (the database checks the same at commit). */
+async function requireWitness(tx: Tx, run: RunRow, contentHash: string) {
+  if (run.witnessId) {
+    const [witnessed] = await tx
+      .select({ id: runWitnessSignatures.id })
+      .from(runWitnessSignatures)
+      .where(
+        and(
+          eq(runWitnessSignatures.runId, run.id),
+          eq(runWitnessSignatures.signerId, run.witnessId),
+          eq(runWitnessSignatures.contentHash, contentHash),
+        ),
+      );
+    if (!witnessed) {
+      const [w] = await tx
+        .select({ name: people.displayName })
+        .from(people)
+        .where(eq(people.id, run.witnessId));
+      throw conflict(
+        `${w?.name ?? 'The witness'} has not co-signed this run as it stands now; they sign as witness first (again, if an entry changed after they signed).`,
+        { code: 'witness-required' },
+      );
+    }
+  }
+}
+
+/**
+ * The run's content as it would be signed, after the checks every signature needs: every step
+ * finished, the revision and the photos unchanged since the run started.
+ */
+async function signableContent(tx: Tx, files: FileStore, run: RunRow) {
+  const runId = run.id;
+  const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+  const byStep = new Map(entries.map((e) => [e.stepId, e]));
+  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
+  if (unfinished.length) {
+    const list = unfinished
+      .slice(0, 5)
+      .map((s) => `${s.position}. ${s.text.slice(0, 60)}`)
+      .join('; ');
+    throw conflict(
+      `${unfinished.length} step${unfinished.length === 1 ? ' is' : 's are'} not finished: ${list}${unfinished.length > 5 ? '; …' : ''}`,
+      {
+        unfinished: unfinished.map((s) => ({ id: s.id, position: s.position, kind: s.kind, text: s.text })),
+      },
+    );
+  }
+  const [revision] = await tx.select().from(revisions).where(eq(revisions.id, run.revisionId));
+  if ((await revisionContentHash(tx, files, revision!)) !== run.revisionHash) {
+    throw conflict(
+      'The revision this run followed no longer matches what it was when the run started; the run sheet cannot be signed. Tell an admin.',
+    );
+  }
+  const [unit] = await tx.select().from(units).where(eq(units.id, run.unitId));
+  const unitRecord = unitRecordOf(unit!);
+  const content = await runContent(tx, files, run, unitRecord);
+  if (content.photos.some((p) => p.sha256 === null)) {
+    throw conflict(
+      'A photo of this run is missing or altered in storage (its bytes no longer match the SHA-256 recorded at upload); the run sheet cannot be signed. Tell an admin.',
+    );
+  }
+  return { entries, unitRecord, contentHash: runContentHash(content) };
+}
+
+/**
+ * The named witness co-signs a trainee's finished run ("witnessed"): password again, over the same
+ * content hash the trainee's signature will cover. The trainee can sign only after it.
+ */
+export async function witnessRun(
+  deps: AppDeps,
+  user: SessionUser,
+  runId: string,
+  password: string,
+  req: Request,
+) {
+  const { db } = deps;
+  const [run] = await db.select().from(runs).where(eq(runs.id, runId));
+  if (!run) throw notFound('No such bench run.');
+  const check = async (tx: Tx | AppDeps['db'], row: RunRow) => {
+    if (!row.witnessId) throw conflict('This run names no witness; it needs no co-signature.');
+    if (row.witnessId !== user.id) {
+      const [w] = await tx
+        .select({ name: people.displayName })
+        .from(people)
+        .where(eq(people.id, row.witnessId));
+      throw new HttpError(403, `${w?.name ?? 'Someone else'} is this run’s witness; only they co-sign it.`, {
+        code: 'not-the-witness',
+      });
+    }
+    if (row.status !== 'in_progress')
+      throw conflict('This bench run is not open; it cannot be witnessed now.');
+    const hold = await holdOf(tx, row, true);
+    if (hold) throw onHold(hold);
+  };
+  await check(db, run);
+  await confirmSignerPassword(db, user, password, req, `run ${runId}`);
+  await db.transaction((tx) =>
+    writeWitnessSignature(tx, deps.files, user, runId, { requestId: String(req.id ?? ''), req }, check),
+  );
+}
+
+/**
+ * Writes the witness's co-signature in the caller's transaction over the run's content as it would
+ * be signed (demo content calls it directly, dated, without the password a seeder cannot give).
+ */
+export async function writeWitnessSignature(
+  tx: Tx,
+  files: FileStore,
+  user: SessionUser,
+  runId: string,
+  how: { requestId: string; signedAt?: Date; req?: Request },
+  check?: (tx: Tx, run: RunRow) => Promise<void>,
+) {
+  const [locked] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update');
+  if (!locked) throw notFound('No such bench run.');
+  await check?.(tx, locked);
+  const { contentHash } = await signableContent(tx, files, locked);
+  const [person] = await tx.select({ name: people.displayName }).from(people).where(eq(people.id, user.id));
+  await tx.insert(runWitnessSignatures).values({
+    runId,
+    signerId: user.id,
+    signerName: person?.name ?? user.displayName,
+    contentHash,
+    revisionId: locked.revisionId,
+    revisionHash: locked.revisionHash,
+    requestId: how.requestId,
+    ...(how.signedAt && { signedAt: how.signedAt }),
+  });
+  await recordAudit(tx, {
+    action: 'run.witnessed',
+    actorId: user.id,
+    subject: `run ${runId}`,
+    details: { contentHash, performedBy: locked.performedBy },
+    req: how.req,
+  });
 }
 
 /** Who hears about an out-of-tolerance run: the procedure's author and the revision's approvers. */

@@ -9,6 +9,7 @@ import type {
 import type { Db, Tx } from '../../db/client';
 import {
   attachments,
+  instruments,
   people,
   revisions,
   runEntries,
@@ -17,6 +18,7 @@ import {
   runPhotos,
   runs,
   runSignatures,
+  runWitnessSignatures,
   signatures,
   units,
 } from '../../db/schema';
@@ -88,6 +90,7 @@ function contentOf(
     unit,
     params: run.params,
     steps: run.steps,
+    ...(run.witnessId && { witnessId: run.witnessId }),
     entries: entries.map((e) => ({
       stepId: e.stepId,
       raw: e.raw,
@@ -100,6 +103,8 @@ function contentOf(
       done: e.done,
       note: e.note,
       version: e.version,
+      // Only where a reading names one, so run sheets signed before instruments hash as they did.
+      ...(e.instrumentId && { instrument: { id: e.instrumentId, calibrationDue: e.instrumentDue ?? '' } }),
     })),
     photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, sha256: p.sha256 })),
   };
@@ -189,7 +194,29 @@ export async function loadRunView(
       .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
     holdOf(db, run),
   ]);
+  const instrumentIds = [
+    ...new Set([run.defaultInstrumentId, ...entries.map((e) => e.instrumentId)].filter((i) => i !== null)),
+  ];
+  const [instrumentRows, witnessSignatures] = await Promise.all([
+    instrumentIds.length
+      ? db.select().from(instruments).where(inArray(instruments.id, instrumentIds))
+      : Promise.resolve([]),
+    run.witnessId
+      ? db
+          .select()
+          .from(runWitnessSignatures)
+          .where(eq(runWitnessSignatures.runId, runId))
+          .orderBy(desc(runWitnessSignatures.signedAt))
+      : Promise.resolve([]),
+  ]);
+  const instrumentOf = (id: string | null, due?: string | null) => {
+    const i = instrumentRows.find((r) => r.id === id);
+    return i
+      ? { id: i.id, identifier: i.identifier, kind: i.kind, calibrationDue: due ?? i.calibrationDue }
+      : null;
+  };
   const who = await names(db, [
+    ...(run.witnessId ? [run.witnessId] : []),
     run.startedBy,
     run.performedBy,
     ...(run.closedBy ? [run.closedBy] : []),
@@ -214,6 +241,7 @@ export async function loadRunView(
     note: e.note,
     version: e.version,
     lastKey: e.lastKey,
+    instrument: instrumentOf(e.instrumentId, e.instrumentDue),
     enteredBy: who(e.enteredBy),
     enteredAt: e.enteredAt.toISOString(),
     history:
@@ -249,6 +277,11 @@ export async function loadRunView(
         signature.contentHash &&
       signature.contentHash === run.contentHash;
   }
+  // What a witness signature must cover: the signed content, or (open run) the content as it stands.
+  const currentHash =
+    run.witnessId && witnessSignatures[0]
+      ? (run.contentHash ?? runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos))))
+      : null;
   return {
     id: run.id,
     title: run.title,
@@ -288,6 +321,8 @@ export async function loadRunView(
       reason: h.reason,
       at: h.at.toISOString(),
     })),
+    witness: run.witnessId ? witnessView(run, who(run.witnessId), witnessSignatures[0], currentHash) : null,
+    defaultInstrument: instrumentOf(run.defaultInstrumentId),
     hold,
     closed:
       run.status === 'abandoned' && run.closedBy
@@ -297,6 +332,24 @@ export async function loadRunView(
     signedAt: iso(run.signedAt),
     progress: progressOf(run.steps, state),
     locked: lockedSteps(run.steps, state).locked,
+  };
+}
+
+function witnessView(
+  run: RunRow,
+  person: { id: string; displayName: string },
+  sig: typeof runWitnessSignatures.$inferSelect | undefined,
+  currentHash: string | null,
+): RunView['witness'] {
+  return {
+    person: { id: person.id, displayName: sig?.signerName ?? person.displayName },
+    signature: sig
+      ? {
+          signedAt: sig.signedAt.toISOString(),
+          contentHash: sig.contentHash,
+          current: sig.contentHash === currentHash,
+        }
+      : null,
   };
 }
 

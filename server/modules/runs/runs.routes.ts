@@ -7,14 +7,15 @@ import {
   runListQuery,
   signRunBody,
   startRunBody,
+  witnessRunBody,
 } from '../../../shared/schemas/runs';
 import { defineRoute } from '../../http/route';
 import { renderRunSheetPdf } from './pdf';
 import { receivePhoto } from './photo-upload';
 import { abandonRun, handOverRun } from './run-custody';
-import { signRun } from './run-sign';
+import { signRun, witnessRun } from './run-sign';
 import { listRuns, loadRunView } from './run-view';
-import { activeTechnicians, addRunPhoto, recordEntry, startRun } from './runs.service';
+import { activeTechnicians, addRunPhoto, recordEntry, runEligibility, startRun } from './runs.service';
 
 const runParams = z.object({ id: z.uuid('not a valid run id') }).strict();
 const entryParams = z
@@ -45,6 +46,18 @@ export const runRoutes = [
     summary: 'Active technicians, to whom a bench run can be handed over',
     handler: async ({ deps }) => ({
       technicians: await activeTechnicians(deps.db),
+    }),
+  }),
+
+  defineRoute({
+    method: 'get',
+    path: '/runs/eligibility',
+    access: ['technician'],
+    summary:
+      'Before starting: may I run this revision alone (qualified for its family and, for live work, live work)? If not, why, and who could witness',
+    query: z.object({ revisionId: z.uuid('not a valid revision id') }).strict(),
+    handler: async ({ query, user, deps }) => ({
+      eligibility: await runEligibility(deps.db, user!.id, query.revisionId),
     }),
   }),
 
@@ -111,6 +124,20 @@ export const runRoutes = [
     body: signRunBody,
     handler: async ({ req, params, body, user, deps }) => {
       await signRun(deps, user!, params.id, body, req);
+      return { run: await loadRunView(deps.db, deps.files, params.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/witness',
+    access: ['technician'],
+    summary:
+      'The named witness co-signs a trainee’s finished run as witnessed (password again); the trainee signs after it',
+    params: runParams,
+    body: witnessRunBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await witnessRun(deps, user!, params.id, body.password, req);
       return { run: await loadRunView(deps.db, deps.files, params.id) };
     },
   }),

@@ -15,6 +15,8 @@ import {
   acknowledgementRequired,
 } from '../acknowledgements/acknowledgements.service';
 import { assertWritable } from './run-custody';
+import { usableInstrument } from '../registers/instruments.service';
+import { checkWitness, eligibility, isLiveWork } from '../registers/qualifications.service';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
 
@@ -36,7 +38,9 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
           existing.revisionId === body.revisionId &&
           existing.unitId === body.unitId &&
           existing.params.mainsVoltage === body.mainsVoltage &&
-          existing.params.mainsFrequency === body.mainsFrequency;
+          existing.params.mainsFrequency === body.mainsFrequency &&
+          existing.witnessId === (body.witnessId ?? null) &&
+          existing.defaultInstrumentId === (body.instrumentId ?? null);
         if (!same) {
           throw new HttpError(
             422,
@@ -72,6 +76,20 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
       mainsFrequency: body.mainsFrequency,
     };
     const snapshot = evaluateDocument(revision.document, params);
+    const steps = buildSteps(revision.document, snapshot);
+    // A trainee runs only with a qualified witness; the database holds the same rule.
+    if (body.witnessId) {
+      await checkWitness(tx, user.id, body.witnessId, revision.equipmentFamily, isLiveWork(steps));
+    } else {
+      const may = await eligibility(tx, user.id, { equipmentFamily: revision.equipmentFamily, steps });
+      if (may.refusal)
+        throw new HttpError(403, may.refusal, {
+          code: 'not-qualified',
+          fields: [{ field: 'body.witnessId', reason: 'name a qualified witness' }],
+          witnesses: may.witnesses,
+        });
+    }
+    if (body.instrumentId) await usableInstrument(tx, body.instrumentId, 'body.instrumentId');
     const [run] = await tx
       .insert(runs)
       .values({
@@ -83,13 +101,25 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
         title: revision.title,
         params,
         snapshot,
-        steps: buildSteps(revision.document, snapshot),
+        steps,
         startKey: body.key,
+        witnessId: body.witnessId ?? null,
+        defaultInstrumentId: body.instrumentId ?? null,
         startedBy: user.id,
         performedBy: user.id,
       })
       .returning();
     return { run: run!, created: true };
+  });
+}
+
+/** Whether this person may run a revision alone, and if not who could witness (for the start-run form). */
+export async function runEligibility(db: Db, personId: string, revisionId: string) {
+  const [revision] = await db.select().from(revisions).where(eq(revisions.id, revisionId));
+  if (!revision) throw notFound('No such revision.');
+  return eligibility(db, personId, {
+    equipmentFamily: revision.equipmentFamily,
+    steps: buildSteps(revision.document, revision.snapshot),
   });
 }
 
@@ -103,6 +133,7 @@ const entryRequestHash = (runId: string, stepId: string, body: EntryBody) =>
       done: body.done,
       note: body.note,
       reason: body.reason,
+      instrumentId: body.instrumentId,
     }),
   );
 
@@ -167,6 +198,19 @@ export async function recordEntry(
 
     let reading: DecidedReading | null = null;
     if (step.kind === 'reading' && body.value !== undefined) reading = decideReading(step, body.value);
+    if (step.kind !== 'reading' && body.instrumentId !== undefined)
+      throw badRequest('body.instrumentId: only a reading is taken with an instrument', [
+        { field: 'body.instrumentId', reason: 'only a reading is taken with an instrument' },
+      ]);
+    // Who took the reading: the one chosen for it, else the one it was taken with, else the run's usual one.
+    const instrumentId =
+      step.kind === 'reading'
+        ? (body.instrumentId ?? existing?.instrumentId ?? run.defaultInstrumentId)
+        : null;
+    const instrument =
+      instrumentId && (reading || body.instrumentId)
+        ? await usableInstrument(tx, instrumentId, 'body.instrumentId')
+        : null;
     const done = step.kind === 'reading' ? false : (body.done ?? existing?.done ?? false);
     const changesMeasurement =
       !!existing &&
@@ -179,6 +223,7 @@ export async function recordEntry(
     }
     const values = {
       ...(reading ?? {}),
+      ...(instrument && { instrumentId: instrument.id, instrumentDue: instrument.calibrationDue }),
       done,
       note: body.note ?? existing?.note ?? '',
       lastKey: body.key,

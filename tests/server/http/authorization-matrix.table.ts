@@ -5,6 +5,7 @@
 //   reviewer   — reviews submitted revisions, approves or returns them (signed), withdraws from use;
 //   admin      — invites and deactivates people, assigns roles, mails password resets, sets the shop's sign-in
 //                rules, reads the audit log, the mail outbox and the API description.
+// Reviewers and admins keep the instrument register and grant or withdraw qualifications.
 // Everyone manages their own password, sessions and authenticator.
 // Everyone signed in reads what has been approved, the unit register and bench runs.
 //
@@ -436,6 +437,19 @@ export const MATRIX: readonly MatrixRow[] = [
     probe: { params: { id: 'run' }, body: {} },
     expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
   },
+  // A technician asks whether they may run a revision alone; a named witness (a qualified technician) co-signs.
+  {
+    method: 'get',
+    path: '/runs/eligibility',
+    probe: {},
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
+  {
+    method: 'post',
+    path: '/runs/:id/witness',
+    probe: { params: { id: 'run' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
   // A run changes hands, or is closed as abandoned, by its performer (a technician) or by an admin when the performer is away.
   {
     method: 'get',
@@ -460,5 +474,49 @@ export const MATRIX: readonly MatrixRow[] = [
     path: '/runs/:id/sheet.pdf',
     probe: { params: { id: 'run' } },
     expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
+
+  // The registers of instruments and qualifications: everyone signed in reads them; reviewers and admins keep them.
+  {
+    method: 'get',
+    path: '/instruments',
+    probe: {},
+    expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: '/instruments',
+    probe: { body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
+    method: 'put',
+    path: '/instruments/:id',
+    probe: { params: { id: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
+    method: 'post',
+    path: '/instruments/:id/certificate',
+    probe: { params: { id: 'randomId' } },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 404, admin: 404 },
+  },
+  {
+    method: 'get',
+    path: '/qualifications',
+    probe: {},
+    expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: '/qualifications',
+    probe: { body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
+    method: 'post',
+    path: '/qualifications/:id/withdraw',
+    probe: { params: { id: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
   },
 ];

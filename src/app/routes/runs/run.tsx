@@ -7,6 +7,7 @@ import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRun } from '@/features/runs/api/get-run';
 import { BenchChecklist } from '@/features/runs/components/bench-checklist';
 import { HoldBanner, RunCustody, WaitingEntries } from '@/features/runs/components/run-custody';
+import { WitnessRunForm } from '@/features/runs/components/witness-run-form';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
 import { Loading } from '@/components/ui/loading';
@@ -66,6 +67,9 @@ export default function RunPage() {
               {r.performedBy.displayName} is performing this bench run; only they record its entries and sign
               it, unless they hand it over.
             </Notice>
+          )}
+          {open && !r.hold && r.witness?.person.id === user?.id && !r.witness?.signature?.current && (
+            <WitnessRunForm run={r} />
           )}
           <RunSheet run={r} />
         </>

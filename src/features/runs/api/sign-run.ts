@@ -15,3 +15,13 @@ export function useSignRun(runId: string) {
     },
   });
 }
+
+/** The named witness co-signs a trainee's finished run as witnessed. */
+export function useWitnessRun(runId: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: { password: string }) =>
+      api.post<{ run: RunView }>(`/api/runs/${runId}/witness`, body),
+    onSuccess: (data) => queryClient.setQueryData(runQueryOptions(runId).queryKey, data),
+  });
+}

@@ -61,6 +61,7 @@ export function BenchChecklist({
       pending={pending.filter((p) => p.stepId === s.id)}
       locked={locked.has(s.id)}
       photos={run.photos.filter((p) => p.stepId === s.id)}
+      defaultInstrument={run.defaultInstrument}
     />
   );
   return (
@@ -139,6 +140,13 @@ export function BenchChecklist({
         </p>
       )}
       {/* The signing panel comes only when there is something to sign: every step done and saved. */}
+      {run.witness && !run.witness.signature?.current && (
+        <p data-witness-waiting className="rounded-md border border-rule bg-card px-4 py-3 text-sm">
+          {run.witness.person.displayName} witnesses this run: they co-sign it as witnessed once every step is
+          done{run.witness.signature ? ' (again: an entry changed after they signed)' : ''}, and you sign
+          after them.
+        </p>
+      )}
       {done === total && waiting === 0 ? (
         <SignRunForm runId={run.id} ready onSigned={onSigned} />
       ) : (

@@ -176,6 +176,16 @@ export function RunSheet({ run }: { run: RunView }) {
         </ol>
       </section>
 
+      {sheet.instruments.length > 0 && (
+        <section
+          data-sheet-instruments
+          className="rounded-lg border border-rule bg-card p-4 print:break-inside-avoid"
+        >
+          <h2 className="font-semibold">{SHEET_HEADINGS.instruments}</h2>
+          <Fields fields={sheet.instruments} />
+        </section>
+      )}
+
       {sheet.corrections.length > 0 && (
         <section>
           <h2 className="mb-2 text-lg font-semibold">{SHEET_HEADINGS.corrections}</h2>

@@ -12,6 +12,12 @@ import { useDebounced } from '@/hooks/use-debounced';
 import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { useRevisionParams, useRunnableProcedures } from '../api/get-runnable-procedures';
 import { useStartRun } from '../api/start-run';
+import { useInstruments } from '@/features/registers/api/instruments';
+import { useEligibility } from '@/features/registers/api/qualifications';
+import { INSTRUMENT_KINDS } from '@shared/schemas/registers';
+
+/** The bench's usual instrument, remembered on this device from the last run started here. */
+const USUAL = 'bw.usual-instrument';
 
 interface UnitOption {
   id: string;
@@ -44,6 +50,8 @@ const startRunForm = z.object({
   unitId: z.string().min(1, 'choose a unit').pipe(startRunBody.shape.unitId),
   mainsVoltage: mains('V', startRunBody.shape.mainsVoltage).pipe(z.number('required')),
   mainsFrequency: mains('Hz', startRunBody.shape.mainsFrequency),
+  witnessId: z.string(),
+  instrumentId: z.string(),
 });
 
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
@@ -65,8 +73,16 @@ export function StartRunForm({
   const procedures = useRunnableProcedures(q);
   const start = useStartRun();
   const form = useZodForm(startRunForm, {
-    defaultValues: { procedureId: '', unitId: initialUnitId ?? '', mainsVoltage: '', mainsFrequency: '' },
+    defaultValues: {
+      procedureId: '',
+      unitId: initialUnitId ?? '',
+      mainsVoltage: '',
+      mainsFrequency: '',
+      witnessId: '',
+      instrumentId: localStorage.getItem(USUAL) ?? '',
+    },
   });
+  const instruments = useInstruments();
   const { errors } = form.formState;
   const procedureId = form.watch('procedureId');
   const { setValue } = form;
@@ -97,7 +113,10 @@ export function StartRunForm({
   const options = procedure && !listed.some((p) => p.id === procedure.id) ? [procedure, ...listed] : listed;
   const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
-  const submit = form.handleSubmit(({ unitId, mainsVoltage, mainsFrequency }) => {
+  const eligibility = useEligibility(procedure?.approved?.id ?? '').data?.eligibility;
+  const submit = form.handleSubmit(({ unitId, mainsVoltage, mainsFrequency, witnessId, instrumentId }) => {
+    if (eligibility?.refusal && !witnessId)
+      return form.setError('witnessId', { message: 'name a qualified witness who will co-sign the run' });
     // Left empty, the frequency is the procedure's own.
     const frequency = mainsFrequency ?? params.data?.mainsFrequency;
     if (!procedure?.approved) return form.setError('procedureId', { message: 'choose a procedure' });
@@ -109,9 +128,14 @@ export function StartRunForm({
         mainsVoltage,
         mainsFrequency: frequency,
         key,
+        ...(eligibility?.refusal && witnessId && { witnessId }),
+        ...(instrumentId && { instrumentId }),
       },
       {
-        onSuccess: (data) => navigate(runPath(data.run.id)),
+        onSuccess: (data) => {
+          if (instrumentId) localStorage.setItem(USUAL, instrumentId);
+          navigate(runPath(data.run.id));
+        },
         onError: (e) => showServerError(form, e, { revisionId: 'procedureId' }),
       },
     );
@@ -205,6 +229,55 @@ export function StartRunForm({
         {errors.unitId && (
           <span role="alert" className="text-out">
             {errors.unitId.message}
+          </span>
+        )}
+      </label>
+      {eligibility?.refusal && (
+        <div data-not-qualified className="flex flex-col gap-2 rounded-md border border-out bg-out-wash p-3">
+          <p className="text-sm font-semibold text-out">{eligibility.refusal}</p>
+          <label className="flex flex-col gap-1 text-sm font-semibold">
+            Witness
+            <select aria-label="Witness" className={select} {...form.register('witnessId')}>
+              <option value="">Choose a qualified witness…</option>
+              {eligibility.witnesses.map((w) => (
+                <option key={w.id} value={w.id}>
+                  {w.displayName}
+                </option>
+              ))}
+            </select>
+            <span className="font-normal text-graphite-soft">
+              They watch the run and co-sign it as witnessed before you sign.
+              {eligibility.witnesses.length === 0 && ' Nobody else is qualified for it yet: ask a reviewer.'}
+            </span>
+            {errors.witnessId && (
+              <span role="alert" className="text-out">
+                {errors.witnessId.message}
+              </span>
+            )}
+          </label>
+        </div>
+      )}
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Usual instrument for this run
+        <select
+          aria-label="Usual instrument for this run"
+          className={select}
+          {...form.register('instrumentId')}
+        >
+          <option value="">None recorded</option>
+          {instruments.data?.instruments.map((i) => (
+            <option key={i.id} value={i.id} disabled={!!i.refusal}>
+              {i.identifier} · {INSTRUMENT_KINDS[i.kind]} · due {i.calibrationDue}
+              {i.refusal ? ` — cannot be chosen: past its calibration due date` : ''}
+            </option>
+          ))}
+        </select>
+        <span className="font-normal text-graphite-soft">
+          It takes every reading unless you choose another for one.
+        </span>
+        {errors.instrumentId && (
+          <span role="alert" className="text-out">
+            {errors.instrumentId.message}
           </span>
         )}
       </label>

@@ -1,6 +1,14 @@
 import { useId, useMemo, useState } from 'react';
 import { z } from 'zod';
-import { entryBody, type EntryView, type RunPhotoView, type RunStep } from '@shared/schemas/runs';
+import {
+  entryBody,
+  type EntryView,
+  type RunInstrument,
+  type RunPhotoView,
+  type RunStep,
+} from '@shared/schemas/runs';
+import { INSTRUMENT_KINDS } from '@shared/schemas/registers';
+import { useInstruments } from '@/features/registers/api/instruments';
 import { formatNumber, formatQuantity } from '@shared/units';
 import { useZodForm } from '@/lib/form';
 import { dismissRefused, queueEntry, type PendingEntry } from '../lib/entry-queue';
@@ -17,6 +25,8 @@ interface Props {
   pending: PendingEntry[];
   locked: boolean;
   photos: RunPhotoView[];
+  /** The run's usual instrument, taking the reading unless another is chosen. */
+  defaultInstrument?: RunInstrument | null;
 }
 
 const big = 'min-h-12 rounded-md border px-4 text-base font-semibold';
@@ -82,6 +92,7 @@ const readingForm = (step: RunStep, recorded: number | null) =>
         .pipe(entryBody.shape.value.unwrap().options[0]),
       note: z.string().pipe(entryBody.shape.note.unwrap()),
       reason: z.string().pipe(entryBody.shape.reason.unwrap()),
+      instrumentId: z.string(),
     })
     .superRefine((v, ctx) => {
       if (changes(step, recorded, v.value) && !v.reason)
@@ -92,19 +103,61 @@ const readingForm = (step: RunStep, recorded: number | null) =>
         });
     });
 
-function ReadingStep({ runId, step, entry, pending }: Props) {
+/** Which instrument takes the reading: the run's usual one, or another; one past its due date shows why it cannot. */
+function InstrumentChoice({
+  step,
+  usual,
+  taken,
+  register,
+}: {
+  step: RunStep;
+  usual: RunInstrument | null | undefined;
+  taken: RunInstrument | null | undefined;
+  register: ReturnType<ReturnType<typeof useZodForm>['register']>;
+}) {
+  const instruments = useInstruments();
+  const list = instruments.data?.instruments ?? [];
+  if (!usual && !taken && list.length === 0) return null;
+  return (
+    <label className="flex flex-col gap-1 text-sm font-semibold">
+      Instrument
+      <select
+        aria-label={`Instrument: ${step.text}`}
+        className="min-h-12 rounded-md border border-rule bg-card px-3 text-base font-normal"
+        {...register}
+      >
+        <option value="">
+          {taken
+            ? `As recorded: ${taken.identifier}`
+            : usual
+              ? `The run’s usual: ${usual.identifier}`
+              : 'None recorded'}
+        </option>
+        {list.map((i) => (
+          <option key={i.id} value={i.id} disabled={!!i.refusal}>
+            {i.identifier} · {INSTRUMENT_KINDS[i.kind]} · due {i.calibrationDue}
+            {i.refusal ? ' — cannot be chosen: past its calibration due date' : ''}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
+function ReadingStep({ runId, step, entry, pending, defaultInstrument }: Props) {
   const r = step.reading!;
   const last = [...pending].reverse().find((p) => !p.refused && p.body.value !== undefined);
   const recorded = entry?.measured ?? null;
   const schema = useMemo(() => readingForm(step, recorded), [step, recorded]);
-  const form = useZodForm(schema, { defaultValues: { value: '', note: '', reason: '' } });
+  const form = useZodForm(schema, { defaultValues: { value: '', note: '', reason: '', instrumentId: '' } });
   const { errors } = form.formState;
   const text = form.watch('value');
   const live = liveCheck(step, text);
   const changing = changes(step, recorded, text);
-  const submit = form.handleSubmit(({ value, note, reason }) => {
+  const submit = form.handleSubmit(({ value, note, reason, instrumentId }) => {
     queueEntry(runId, step.id, {
       value,
+      ...(instrumentId ? { instrumentId } : {}),
       ...(note.trim() ? { note: note.trim() } : {}),
       ...(changing && reason ? { reason } : {}),
     });
@@ -202,6 +255,12 @@ function ReadingStep({ runId, step, entry, pending }: Props) {
           )}
         </div>
       </div>
+      <InstrumentChoice
+        step={step}
+        usual={defaultInstrument}
+        taken={entry?.instrument}
+        register={form.register('instrumentId')}
+      />
       {changing && (
         <label className="flex flex-col gap-1 text-sm font-semibold">
           Why is the recorded reading being changed? (kept with the original)
