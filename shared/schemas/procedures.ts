@@ -11,16 +11,18 @@ import { oneLine } from './text';
 
 export { REVISION_STATE_LABELS, type RevisionStateName } from './revision-states';
 
-const tag = oneLine(40, { min: 1, minMessage: 'empty tag', label: 'tags' }).transform((t) => t.toLowerCase());
+const tag = oneLine(40, { min: 1, label: 'Tag' }).transform((t) => t.toLowerCase());
 
+/** Labels are the form's (new procedure, draft details): refusals name fields by them. */
 export const procedureMetaSchema = z.object({
-  title: oneLine(160, { min: 3, minMessage: 'at least 3 characters' }),
-  equipmentFamily: oneLine(80, { min: 1 }),
-  equipmentModel: oneLine(80, { min: 1 }),
+  title: oneLine(160, { min: 3, label: 'Title' }),
+  equipmentFamily: oneLine(80, { min: 1, label: 'Equipment family' }),
+  equipmentModel: oneLine(80, { min: 1, label: 'Model' }),
   tags: z
     .array(tag)
-    .max(20, 'at most 20 tags')
-    .transform((t) => [...new Set(t)]),
+    .max(20)
+    .transform((t) => [...new Set(t)])
+    .meta({ title: 'Tags' }),
 });
 
 export const createProcedureBody = procedureMetaSchema.extend({ params: paramsSchema.optional() }).strict();
@@ -28,10 +30,10 @@ export const createProcedureBody = procedureMetaSchema.extend({ params: paramsSc
 /** A draft save: the lock version it was based on, metadata, parameters and the TipTap document. */
 export const saveRevisionBody = procedureMetaSchema
   .extend({
-    lockVersion: z.number().int().min(1),
+    lockVersion: z.number().int().min(1).meta({ title: 'Version of the draft' }),
     params: paramsSchema,
     /** Checked node by node by validateDocument on the server. */
-    document: z.unknown(),
+    document: z.unknown().meta({ title: 'Procedure text' }),
   })
   .strict();
 

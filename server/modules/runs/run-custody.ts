@@ -9,7 +9,7 @@ import type { HandoverBody } from '../../../shared/schemas/runs';
 import { recordAudit } from '../../audit/record';
 import type { Db, Tx } from '../../db/client';
 import { people, runHandovers, runs } from '../../db/schema';
-import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
+import { conflict, HttpError, notFound, refuse } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { holdOf, onHold } from './run-hold';
 import type { RunRow } from './runs.service';
@@ -72,13 +72,13 @@ export async function handOverRun(
     if (hold) throw onHold(hold);
     const [to] = await tx.select().from(people).where(eq(people.id, body.to));
     if (!to?.active || !to.roles.includes('technician'))
-      throw badRequest('body.to: not an active technician', [
-        { field: 'body.to', reason: 'not an active technician' },
-      ]);
+      throw refuse({ field: 'body.to', label: 'Technician', reason: 'Choose an active technician' });
     if (to.id === run.performedBy)
-      throw badRequest('body.to: already performs this run', [
-        { field: 'body.to', reason: 'already performs this run' },
-      ]);
+      throw refuse({
+        field: 'body.to',
+        label: 'Technician',
+        reason: 'This technician already performs this run',
+      });
     const fromName = await nameOf(tx, run.performedBy);
     // The handover row first: the trigger lets the performer change only with it in place.
     await tx.insert(runHandovers).values({

@@ -4,7 +4,7 @@ import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
 import type { Db, Tx } from '../../db/client';
 import { people, revisions, runEntries, runEntryHistory, runPhotos, runs, units } from '../../db/schema';
 import type { AppDeps } from '../../deps';
-import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
+import { conflict, notFound, HttpError, refuse } from '../../http/errors';
 import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
@@ -59,7 +59,7 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
     }
     const [unit] = await tx.select().from(units).where(eq(units.id, body.unitId));
     if (!unit)
-      throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);
+      throw refuse({ field: 'body.unitId', label: 'Unit on the bench', reason: 'Choose a registered unit' });
     const params = {
       ...revision.params,
       mainsVoltage: body.mainsVoltage,
@@ -167,9 +167,11 @@ export async function recordEntry(
       ((reading && existing.measured !== null && reading.measured !== existing.measured) ||
         (existing.done && !done));
     if (changesMeasurement && !body.reason) {
-      throw badRequest('body.reason: say why a recorded entry is being changed', [
-        { field: 'body.reason', reason: 'required when changing a recorded entry' },
-      ]);
+      throw refuse({
+        field: 'body.reason',
+        label: 'Reason for the change',
+        reason: 'Say why a recorded entry is being changed',
+      });
     }
     const values = {
       ...(reading ?? {}),
@@ -235,9 +237,7 @@ export async function addRunPhoto(
   if (!run) throw notFound('No such bench run.');
   await assertWritable(deps.db, run, user);
   if (stepId !== null && !run.steps.some((s) => s.id === stepId))
-    throw badRequest('body.stepId: no such step in this run', [
-      { field: 'body.stepId', reason: 'no such step in this run' },
-    ]);
+    throw refuse({ field: 'body.stepId', label: 'Step', reason: 'This run has no such step' });
   const attachment = await storePhoto(deps, file, user.id);
   const [photo] = await deps.db
     .insert(runPhotos)
