@@ -140,7 +140,11 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
 
   it('the procedure check links a warning to its block', async () => {
     // 319 V with no hazard note in the section: the check names the loaded-B+ block.
-    const warning = page.locator('[data-procedure-check] button').filter({ hasText: 'bplus' }).first();
+    // Named by its label, never by the internal name "bplus".
+    const warning = page
+      .locator('[data-procedure-check] button')
+      .filter({ hasText: 'the Loaded B+ (capacitor input) block' })
+      .first();
     await warning.click();
     const focused = await page.evaluate(
       () => document.activeElement?.closest('[data-block-id]')?.textContent ?? '',
@@ -274,8 +278,8 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     // The differing field by its label, with both values in words: yours, then the saved one.
     const title = conflict.locator('tr[data-field="Title"]');
     expect(await title.locator('td').allTextContents()).toEqual([
-      'TC-18 first power-up (bench copy)',
       'TC-18 first power-up after recap, checked',
+      'TC-18 first power-up (bench copy)',
     ]);
     expect(await conflict.textContent()).not.toMatch(/[{}"]|attrs|inputs/);
     expect(await page.locator('[data-save-state]').getAttribute('data-save-state')).toBe('conflict');
