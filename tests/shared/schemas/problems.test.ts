@@ -4,7 +4,8 @@ import { labelOf, problemsMessage, problemsOf, withLabel } from '../../../shared
 import { createProcedureBody } from '../../../shared/schemas/procedures';
 import { unitBody } from '../../../shared/schemas/units';
 import { inviteBody } from '../../../shared/schemas/people';
-import { startRunBody } from '../../../shared/schemas/runs';
+import { abandonBody, handoverBody, startRunBody } from '../../../shared/schemas/runs';
+import { changePasswordBody, signInBody } from '../../../shared/schemas/auth';
 
 const reasons = (schema: z.ZodType, value: unknown, where?: string) => {
   const parsed = schema.safeParse(value);
@@ -108,6 +109,10 @@ describe('validation problems name the field as its form labels it', () => {
     expect(labelOf(unitBody, 'jobNumber')).toBe('Job number');
     expect(labelOf(inviteBody, 'displayName')).toBe('Name');
     expect(labelOf(startRunBody, 'mainsVoltage')).toBe('Measured mains');
+    expect(labelOf(handoverBody, 'reason')).toBe('Reason for the handover');
+    expect(labelOf(abandonBody, 'reason')).toBe('Reason for closing the run');
+    expect(labelOf(signInBody, 'password')).toBe('Password');
+    expect(labelOf(changePasswordBody, 'currentPassword')).toBe('Current password');
   });
 
   it('joins problems into one message of sentences', () => {
