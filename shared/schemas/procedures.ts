@@ -48,8 +48,8 @@ export const PROCEDURE_PAGE_SIZES = [25, 50, 100, 200] as const;
 /** GET /api/procedures: filters, sort and one page; every field optional with a shop-sensible default. */
 export const procedureListQuery = z.object({
   /** Words the title contains, in any case. */
-  q: z.string().trim().max(160, 'at most 160 characters').optional(),
-  family: z.string().max(80, 'at most 80 characters').optional(),
+  q: z.string().trim().max(160).meta({ title: 'Title words' }).optional(),
+  family: z.string().max(80).meta({ title: 'Equipment family' }).optional(),
   tag: z.string().max(40, 'at most 40 characters').optional(),
   state: z
     .enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state')
@@ -59,8 +59,8 @@ export const procedureListQuery = z.object({
     .enum(['true', 'false'], 'true or false')
     .optional()
     .transform((v) => v === 'true'),
-  sort: z.enum(PROCEDURE_SORTS, `one of ${PROCEDURE_SORTS.join(', ')}`).default('updatedAt'),
-  dir: z.enum(['asc', 'desc'], 'asc or desc').optional(),
+  sort: z.enum(PROCEDURE_SORTS).meta({ title: 'Sort by' }).default('updatedAt'),
+  dir: z.enum(['asc', 'desc']).meta({ title: 'Order' }).optional(),
   offset: z.coerce
     .number('a whole number')
     .int('a whole number')
