@@ -1,8 +1,15 @@
 import type { ErrorRequestHandler } from 'express';
-import { ZodError } from 'zod';
+import { ZodError, type ZodType } from 'zod';
+import { labelAt, problemsMessage, problemsOf, withLabel } from '../../shared/schemas/problems';
 
+export { problemsMessage };
+
+/** One refused field: `field` is the path for machines, `label` and `reason` are for people. */
 export interface FieldProblem {
   field: string;
+  /** The field as its form labels it ("Model"). */
+  label?: string;
+  /** A sentence naming the field: "Model is required". */
   reason: string;
 }
 
@@ -17,23 +24,37 @@ export class HttpError extends Error {
   }
 }
 
+/**
+ * A 400 with its field problems. A problem written as a predicate ("is one of the most common
+ * passwords") is made a sentence naming the field, as zod's problems are.
+ */
 export const badRequest = (message: string, fields: FieldProblem[] = []) =>
-  new HttpError(400, message, { fields });
+  new HttpError(400, message, { fields: fields.map(named) });
+
+/** A 400 whose message is its problems, each a sentence naming its field. */
+export function refuse(...fields: FieldProblem[]) {
+  const problems = fields.map(named);
+  return new HttpError(400, problemsMessage(problems), { fields: problems });
+}
 export const notFound = (what = 'Not found') => new HttpError(404, what);
 export const conflict = (message: string, extra: Record<string, unknown> = {}) =>
   new HttpError(409, message, extra);
 
-/** Turns zod issues into field problems, prefixed with where they came from (body, query, params). */
-export function zodProblems(error: ZodError, where: string): FieldProblem[] {
-  return error.issues.map((issue) => ({
-    field: [where, ...issue.path.map(String)].join('.'),
-    reason: issue.message,
-  }));
+/**
+ * Turns zod issues into field problems, prefixed with where they came from (body, query, params),
+ * each field named by the schema's labels (shared/schemas/problems.ts).
+ */
+export function zodProblems(error: ZodError, where: string, schema?: ZodType): FieldProblem[] {
+  return problemsOf(schema, error.issues, where);
 }
 
-export function problemsMessage(fields: FieldProblem[]) {
-  return fields.map((f) => `${f.field}: ${f.reason}`).join('; ');
+/** A problem found outside zod, at a dotted path below `where` ("body.password"): worded the same way. */
+export function pathProblem(field: string, reason: string, label?: string): FieldProblem {
+  const name = label ?? labelAt(undefined, field.split('.').slice(1));
+  return { field, label: name, reason: /^[A-Z]/.test(reason) ? reason : withLabel(name, reason) };
 }
+
+const named = (f: FieldProblem) => pathProblem(f.field, f.reason, f.label);
 
 const DB_DOWN_CODES = new Set([
   'ECONNREFUSED',

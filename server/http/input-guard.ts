@@ -6,7 +6,7 @@
  * reaches PostgreSQL (which refuses NUL in text with a 500) or a recursive validator unchecked.
  */
 import type { NextFunction, Request, Response } from 'express';
-import { badRequest } from './errors';
+import { badRequest, pathProblem, problemsMessage, type FieldProblem } from './errors';
 
 // C0 controls except \t \n \r, DEL, C1 controls; LRE RLE PDF LRO RLO and LRI RLI FSI PDI.
 // eslint-disable-next-line no-control-regex -- control characters are what this matches
@@ -16,27 +16,27 @@ export const MAX_JSON_DEPTH = 64;
 const describe = (ch: string) => `U+${ch.codePointAt(0)!.toString(16).toUpperCase().padStart(4, '0')}`;
 
 /** The first problem in a parsed value, walked without recursion (a hostile body may be very deep). */
-export function findInputProblem(value: unknown, root: string): { field: string; reason: string } | null {
+export function findInputProblem(value: unknown, root: string): FieldProblem | null {
   const stack: { v: unknown; path: string; depth: number }[] = [{ v: value, path: root, depth: 0 }];
   while (stack.length) {
     const { v, path, depth } = stack.pop()!;
     if (typeof v === 'string') {
       const m = FORBIDDEN.exec(v);
       if (m)
-        return {
-          field: path,
-          reason: `contains a control or text-direction character (${describe(m[0])}); remove it`,
-        };
+        return pathProblem(
+          path,
+          `contains a control or text-direction character (${describe(m[0])}); remove it`,
+        );
     } else if (v && typeof v === 'object') {
       if (depth >= MAX_JSON_DEPTH)
-        return { field: path, reason: `is nested more than ${MAX_JSON_DEPTH} levels deep` };
+        return pathProblem(path, `is nested more than ${MAX_JSON_DEPTH} levels deep`);
       for (const [k, child] of Object.entries(v)) {
         const m = FORBIDDEN.exec(k);
         if (m)
-          return {
-            field: `${path}.${k.replace(FORBIDDEN, '?')}`,
-            reason: `has a name with a control character (${describe(m[0])})`,
-          };
+          return pathProblem(
+            `${path}.${k.replace(FORBIDDEN, '?')}`,
+            `has a name with a control character (${describe(m[0])})`,
+          );
         stack.push({ v: child, path: `${path}.${k}`, depth: depth + 1 });
       }
     }
@@ -51,7 +51,7 @@ export function inputGuard(req: Request, _res: Response, next: NextFunction) {
     ['params', req.params],
   ] as const) {
     const problem = findInputProblem(value, where);
-    if (problem) return next(badRequest(`${problem.field}: ${problem.reason}`, [problem]));
+    if (problem) return next(badRequest(problemsMessage([problem]), [problem]));
   }
   next();
 }

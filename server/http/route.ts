@@ -73,9 +73,10 @@ function parsePart<T>(
   problems: FieldProblem[],
 ): T {
   if (!schema) return value as T;
-  const result = schema.safeParse(value);
+  // With the input in each issue, a missing field reads as missing, not as the wrong type.
+  const result = schema.safeParse(value, { reportInput: true });
   if (result.success) return result.data;
-  problems.push(...zodProblems(result.error, where));
+  problems.push(...zodProblems(result.error, where, schema));
   return undefined as T;
 }
 
@@ -101,7 +102,7 @@ export function mountRoutes(router: Router, routes: readonly RouteDef[], deps: A
     const run: RequestHandler = async (req, res) => {
       const problems: FieldProblem[] = [];
       const badParam = findInputProblem(req.params, 'params');
-      if (badParam) throw new HttpError(400, `${badParam.field}: ${badParam.reason}`, { fields: [badParam] });
+      if (badParam) throw new HttpError(400, problemsMessage([badParam]), { fields: [badParam] });
       const params = parsePart(def.params, req.params, 'params', problems);
       const query = parsePart(def.query, req.query, 'query', problems);
       const body = parsePart(def.body, req.body ?? {}, 'body', problems);

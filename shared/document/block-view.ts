@@ -20,6 +20,7 @@ import {
   type Output,
 } from '../reckoners';
 import { formatNumber, formatQuantity, parseQuantity } from '../units';
+import { humanize, rowFieldLabel } from '../schemas/problems';
 import type { BlockSnapshot, Snapshot } from './evaluate';
 import { extractBlocks } from './extract';
 import { PARAM_SPECS } from './params';
@@ -38,7 +39,16 @@ export type InputOrigin =
   | { kind: 'empty' }
   /** `followed`: the field was left empty and follows the parameter by declaration. */
   | { kind: 'param'; param: string; paramLabel: string; followed: boolean }
-  | { kind: 'ref'; blockId: string | null; block: string; output: string; outputLabel: string };
+  | {
+      kind: 'ref';
+      blockId: string | null;
+      /** The block's internal name, for matching only: people see `blockLabel`. */
+      block: string;
+      /** The referred block's reckoner label ("Loaded B+"). */
+      blockLabel: string;
+      output: string;
+      outputLabel: string;
+    };
 
 export interface InputRow {
   /** Dotted field path ("windings.1.volts"): for matching only, never shown. */
@@ -110,6 +120,28 @@ const isNumeric = (s: FieldSpec) => s.kind === 'quantity' || s.kind === 'number'
 /** The text column that names a row ("HT", "Heaters"), if the rows have one. */
 const rowNameColumn = (rows: FieldSpec) => rows.columns?.find((c) => c.kind === 'text');
 
+/** Names for what a block's problems may be about besides its declared inputs. */
+const BLOCK_PARTS: Record<string, string> = {
+  name: 'Block name',
+  kind: 'Reckoner',
+  inputs: 'Inputs',
+  '': 'Block',
+};
+
+/**
+ * An input as a message names it: "Winding 1 voltage" for "windings.0.volts" (the row's noun is its
+ * name column's label, rows numbered from 1), "Secondary windings" for the rows themselves.
+ */
+export function inputLabel(fields: readonly FieldSpec[], path: string): string {
+  const [head, index, col] = path.split('.');
+  const spec = fields.find((f) => f.key === head);
+  if (!spec) return BLOCK_PARTS[path] ?? humanize(path.split('.').pop() ?? path);
+  if (spec.kind !== 'rows' || index === undefined || !/^\d+$/.test(index)) return spec.label;
+  const noun = rowNameColumn(spec)?.label ?? spec.label;
+  const column = col === undefined ? undefined : spec.columns?.find((c) => c.key === col);
+  return column ? rowFieldLabel(noun, Number(index) + 1, column.label) : `${noun} ${Number(index) + 1}`;
+}
+
 /** "Secondary windings, row 2 (HT): Winding voltage" for "windings.1.volts"; the path itself if unknown. */
 export function fieldLabel(
   fields: readonly FieldSpec[],
@@ -118,7 +150,7 @@ export function fieldLabel(
 ): string {
   const [head, index, col] = path.split('.');
   const spec = fields.find((f) => f.key === head);
-  if (!spec) return { name: 'Block name', kind: 'Reckoner', inputs: 'Inputs', '': 'Block' }[path] ?? path;
+  if (!spec) return BLOCK_PARTS[path] ?? humanize(path.split('.').pop() ?? path);
   if (spec.kind !== 'rows' || index === undefined || !/^\d+$/.test(index)) return spec.label;
   const nameCol = rowNameColumn(spec);
   const rowValue = (input?.[spec.key] as unknown[] | undefined)?.[Number(index)];
@@ -196,7 +228,8 @@ function originOf(
     const output = dot > 0 ? stored.ref.slice(dot + 1) : '';
     const target = ctx.byName.get(block);
     const outputLabel = (target?.ok ? target.outputs[output]?.label : undefined) ?? output;
-    return { kind: 'ref', blockId: target?.id ?? null, block, output, outputLabel };
+    const blockLabel = (target && getReckoner(target.kind)?.label) ?? target?.label ?? 'another';
+    return { kind: 'ref', blockId: target?.id ?? null, block, blockLabel, output, outputLabel };
   }
   return { kind: 'typed' };
 }
@@ -214,7 +247,7 @@ export function sourceText(o: InputOrigin): string {
         ? `procedure parameter “${o.paramLabel}”, followed because the field was left empty`
         : `procedure parameter “${o.paramLabel}”`;
     case 'ref':
-      return `output “${o.outputLabel}” of block “${o.block}”`;
+      return `“${o.outputLabel}” from the ${o.blockLabel} block`;
   }
 }
 
@@ -360,7 +393,7 @@ export function describeBlock(
     outputs: order.map((k) => outputRow(k, storedOutputs[k]!)),
     errors:
       stored && !stored.ok
-        ? stored.errors.map((e) => ({ field: fieldLabel(def.fields, e.field, input), reason: e.reason }))
+        ? stored.errors.map((e) => ({ field: inputLabel(def.fields, e.field), reason: e.reason }))
         : stored
           ? []
           : [{ field: 'Block', reason: 'missing from the stored results' }],

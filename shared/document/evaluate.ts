@@ -37,8 +37,10 @@ export interface ResolvedReading {
   followsMains?: boolean;
   /** Measured ÷ nominal mains applied to a typed expected value that follows the mains. */
   mainsRatio?: number;
-  /** Where the expected value came from: a literal or "block.output". */
+  /** Where the expected value came from: a literal or "block.output" (for matching; not shown). */
   expectedSource: string;
+  /** The same in words: the literal, or the result's label and its block ("B+ at node C, from the Loaded B+ block"). */
+  expectedText?: string;
   expected: number | null;
   low: number | null;
   high: number | null;
@@ -68,23 +70,35 @@ function expectedValue(
   }
   const ref = reading.expected.ref;
   const dot = ref.indexOf('.');
-  if (dot < 1) throw new Error(`"${ref}" is not a reference; write it as block.output`);
+  if (dot < 1) throw new Error('the expected value refers to no calculation; choose a result');
   const [name, key] = [ref.slice(0, dot), ref.slice(dot + 1)];
   const block = blocks.get(name);
-  if (!block) throw new Error(`no reckoner is named "${name}"`);
-  if (!block.ok) throw new Error(`reckoner "${name}" has errors, so "${ref}" has no value`);
+  if (!block) throw new Error('the calculation its expected value comes from is not in this procedure');
+  const of = `the ${blockLabel(block)} block`;
+  if (!block.ok) throw new Error(`${of} has input problems, so its result has no value`);
   const out = block.outputs[key];
-  if (!out)
-    throw new Error(
-      `reckoner "${name}" has no output "${key}" (it has: ${Object.keys(block.outputs).join(', ')})`,
-    );
-  if (typeof out.value !== 'number') throw new Error(`"${ref}" is not a number`);
+  if (!out) throw new Error(`${of} no longer gives the result its expected value comes from`);
+  if (typeof out.value !== 'number') throw new Error(`“${out.label}” of ${of} is not a number`);
   if (out.unit !== reading.unit || out.measure !== measure) {
     throw new Error(
-      `"${ref}" is in ${unitWithMeasure(out.unit || 'no unit', out.measure)}, but the reading is in ${unitWithMeasure(reading.unit, measure)}`,
+      `“${out.label}” of ${of} is in ${unitWithMeasure(out.unit || 'no unit', out.measure)}, but the reading is in ${unitWithMeasure(reading.unit, measure)}`,
     );
   }
   return out.value;
+}
+
+const blockLabel = (b: { kind: string }) => getReckoner(b.kind)?.label ?? 'calculation';
+
+/** A reading's expected value in words: what was typed, or which result of which block. */
+function expectedText(reading: ReadingAttrs, blocks: Map<string, BlockResult>): string {
+  if ('literal' in reading.expected) return reading.expected.literal;
+  const ref = reading.expected.ref;
+  const block = blocks.get(ref.slice(0, ref.indexOf('.')));
+  if (!block) return 'a calculation that is not in this procedure';
+  const out = block.ok ? block.outputs[ref.slice(ref.indexOf('.') + 1)] : undefined;
+  return out
+    ? `${out.label}, from the ${blockLabel(block)} block`
+    : `a result of the ${blockLabel(block)} block`;
 }
 
 export function resolveReading(
@@ -105,6 +119,7 @@ export function resolveReading(
     section: reading.section ?? '',
     toleranceText: reading.tolerance,
     expectedSource: 'literal' in reading.expected ? reading.expected.literal : reading.expected.ref,
+    expectedText: expectedText(reading, blocks),
     ...(literal && reading.followsMains != null && { followsMains: reading.followsMains }),
     ...(literal && reading.followsMains && { mainsRatio: Number(ratio.toPrecision(6)) }),
   };

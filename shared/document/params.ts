@@ -15,7 +15,8 @@ const bounded = (p: ParamSpec) =>
         .number()
         .min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`)
         .max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
-    );
+    )
+    .meta({ title: p.label });
 
 export const paramsSchema = z
   .object(
@@ -24,7 +25,8 @@ export const paramsSchema = z
       z.ZodType<number>
     >,
   )
-  .strict();
+  .strict()
+  .meta({ title: 'Procedure parameters' });
 
 export const defaultParams = (): ProcedureParams =>
   Object.fromEntries(PARAM_SPECS.map((p) => [p.key, p.default])) as ProcedureParams;

@@ -88,6 +88,8 @@ function quantityMismatch(spec: FieldSpec | undefined, unit: string, measure: Me
 interface ResolveContext {
   fields: FieldSpec[];
   outputsOf: (block: string) => Record<string, Output> | undefined;
+  /** The kind of the block of that name, to name it by its label. */
+  kindOf: (block: string) => string | undefined;
   params: Record<string, number>;
   followed: Set<string>;
   errors: FieldError[];
@@ -108,7 +110,11 @@ function resolve(value: unknown, path: string[], ctx: ResolveContext): unknown {
     if (!out) {
       ctx.errors.push({
         field,
-        reason: `refers to "${value.ref}", but block "${block}" has no output "${key}" (it has: ${Object.keys(outputs).join(', ')})`,
+        reason: `refers to a result the ${getReckoner(ctx.kindOf(block) ?? '')?.label ?? 'other'} block does not give ("${key}"); it gives ${Object.values(
+          outputs,
+        )
+          .map((o) => `“${o.label}”`)
+          .join(', ')}`,
       });
       return undefined;
     }
@@ -272,19 +278,26 @@ export function evaluateProcedure(
   };
   for (const i of order) {
     const b = blocks[i]!;
-    const failedDeps = [...deps.get(i)!].filter((d) => !results.get(d)?.ok).map((d) => blocks[d]!.name);
+    // Named by kind (the label people know), not by the internal name references use.
+    const failedDeps = [...deps.get(i)!]
+      .filter((d) => !results.get(d)?.ok)
+      .map((d) => `the ${getReckoner(String(blocks[d]!.kind))?.label ?? 'other'} block`);
     if (failedDeps.length) {
       fail(i, [
         {
           field: 'inputs',
-          reason: `depends on ${failedDeps.map((n) => `"${n}"`).join(', ')}, which could not be evaluated`,
+          reason: `depend on ${[...new Set(failedDeps)].join(' and ')}, which has problems of its own`,
         },
       ]);
       continue;
     }
     const fields = getReckoner(b.kind)!.fields;
     const { inputs, followed } = withFollowedParams(b.inputs ?? {}, fields);
-    const ctx: ResolveContext = { fields, outputsOf, params, followed, errors: [], sources: {} };
+    const kindOf = (name: string) => {
+      const idx = byName.get(name);
+      return idx === undefined ? undefined : String(blocks[idx]!.kind);
+    };
+    const ctx: ResolveContext = { fields, outputsOf, kindOf, params, followed, errors: [], sources: {} };
     const resolved = resolve(inputs, [], ctx);
     if (ctx.errors.length) {
       fail(i, ctx.errors);

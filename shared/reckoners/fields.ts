@@ -10,6 +10,7 @@ import { measureMismatch } from './measures';
 import { splitUnit, type OutputUnit } from './outputs';
 import { isEmptyInput } from './field-paths';
 import { closestName } from './names';
+import { orList } from '../schemas/problems';
 import type { FieldSpec, Measure, ParamKey } from './types';
 
 export interface FieldDef<T> {
@@ -69,7 +70,9 @@ function numericSchema(
           value = parsed.value;
         } catch (e) {
           if (e instanceof QuantityParseError)
-            return fail(e.reason === 'not a number' ? `"${raw}" is not a number` : e.message);
+            return fail(
+              `${e.reason === 'not a number' ? 'is not a number' : `cannot be read: ${e.reason}`} ("${raw}")`,
+            );
           throw e;
         }
       } else {
@@ -146,18 +149,19 @@ export function select<const T extends string>(opts: {
   help?: string;
 }): FieldDef<T> {
   const values = opts.options.map((o) => o.value);
-  const list = values.join(', ');
+  // In the words the form shows for each option.
+  const list = orList(opts.options.map((o) => o.label));
   const schema = z
     .unknown()
     .optional()
     .transform((raw, ctx): T => {
       if (isEmptyInput(raw)) {
         if (opts.default !== undefined) return opts.default;
-        ctx.addIssue({ code: 'custom', message: `is required (one of: ${list})`, input: raw });
+        ctx.addIssue({ code: 'custom', message: `is required: choose ${list}`, input: raw });
         return z.NEVER;
       }
       if (typeof raw !== 'string' || !(values as string[]).includes(raw)) {
-        ctx.addIssue({ code: 'custom', message: `must be one of: ${list}`, input: raw });
+        ctx.addIssue({ code: 'custom', message: `must be one of ${list}`, input: raw });
         return z.NEVER;
       }
       return raw as T;

@@ -134,7 +134,8 @@ function cautions(input: HeaterBudgetInput, result: ReckonerResult): Caution[] {
           level: 'warning',
           code: 'heater-voltage',
           message: `Heater row ${i + 1}${h.label ? ` (${h.label})` : ''} is rated ${formatQuantity(h.volts, 'V')}, more than 10 % from the ${formatQuantity(input.windingVoltage, 'V')} winding.`,
-          source: 'heater tolerance ± 10 % (from memory: amateur radio handbooks)',
+          // From memory (docs/references.md §6 says so); the note on screen names the source only.
+          source: 'heater supply within ± 10 % of rating (amateur radio handbooks)',
         });
       }
     });

@@ -1,10 +1,13 @@
 import { formatNumber, formatQuantity } from '../units/format';
 import type { Measure, Output } from './types';
 
+/**
+ * Source notes shown beside results. A figure recalled rather than re-read is marked so in
+ * docs/references.md and in its test, not on screen: a technician sees the citation.
+ */
 export const SRC = {
   derived: 'derived',
   commonPractice: 'common practice, no source',
-  fromMemory: 'from memory',
 } as const;
 
 /**

@@ -56,7 +56,7 @@ export interface Output {
   measure: Measure;
   label: string;
   explanation: string;
-  /** Provenance: a standard and clause, a handbook, "derived", "common practice, no source", "from memory". */
+  /** Provenance shown to people: a standard and clause, a handbook, "derived", "common practice, no source". */
   source?: string;
   /** Printed form with SI prefix and unit ("325 V"). */
   formatted: string;

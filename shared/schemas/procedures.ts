@@ -11,16 +11,18 @@ import { oneLine } from './text';
 
 export { REVISION_STATE_LABELS, type RevisionStateName } from './revision-states';
 
-const tag = oneLine(40, { min: 1, minMessage: 'empty tag', label: 'tags' }).transform((t) => t.toLowerCase());
+const tag = oneLine(40, { min: 1, label: 'Tag' }).transform((t) => t.toLowerCase());
 
+/** Labels are the form's (new procedure, draft details): refusals name fields by them. */
 export const procedureMetaSchema = z.object({
-  title: oneLine(160, { min: 3, minMessage: 'at least 3 characters' }),
-  equipmentFamily: oneLine(80, { min: 1 }),
-  equipmentModel: oneLine(80, { min: 1 }),
+  title: oneLine(160, { min: 3, label: 'Title' }),
+  equipmentFamily: oneLine(80, { min: 1, label: 'Equipment family' }),
+  equipmentModel: oneLine(80, { min: 1, label: 'Model' }),
   tags: z
     .array(tag)
-    .max(20, 'at most 20 tags')
-    .transform((t) => [...new Set(t)]),
+    .max(20)
+    .transform((t) => [...new Set(t)])
+    .meta({ title: 'Tags' }),
 });
 
 export const createProcedureBody = procedureMetaSchema.extend({ params: paramsSchema.optional() }).strict();
@@ -33,10 +35,10 @@ export const startDraftBody = z
 
 export const saveRevisionBody = procedureMetaSchema
   .extend({
-    lockVersion: z.number().int().min(1),
+    lockVersion: z.number().int().min(1).meta({ title: 'Version of the draft' }),
     params: paramsSchema,
     /** Checked node by node by validateDocument on the server. */
-    document: z.unknown(),
+    document: z.unknown().meta({ title: 'Procedure text' }),
   })
   .strict();
 
@@ -51,8 +53,8 @@ export const PROCEDURE_PAGE_SIZES = [25, 50, 100, 200] as const;
 /** GET /api/procedures: filters, sort and one page; every field optional with a shop-sensible default. */
 export const procedureListQuery = z.object({
   /** Words the title contains, in any case. */
-  q: z.string().trim().max(160, 'at most 160 characters').optional(),
-  family: z.string().max(80, 'at most 80 characters').optional(),
+  q: z.string().trim().max(160).meta({ title: 'Title words' }).optional(),
+  family: z.string().max(80).meta({ title: 'Equipment family' }).optional(),
   tag: z.string().max(40, 'at most 40 characters').optional(),
   state: z
     .enum(['draft', 'in_review', 'approved', 'returned', 'superseded', 'withdrawn'], 'not a revision state')
@@ -62,8 +64,8 @@ export const procedureListQuery = z.object({
     .enum(['true', 'false'], 'true or false')
     .optional()
     .transform((v) => v === 'true'),
-  sort: z.enum(PROCEDURE_SORTS, `one of ${PROCEDURE_SORTS.join(', ')}`).default('updatedAt'),
-  dir: z.enum(['asc', 'desc'], 'asc or desc').optional(),
+  sort: z.enum(PROCEDURE_SORTS).meta({ title: 'Sort by' }).default('updatedAt'),
+  dir: z.enum(['asc', 'desc']).meta({ title: 'Order' }).optional(),
   offset: z.coerce
     .number('a whole number')
     .int('a whole number')

@@ -12,26 +12,29 @@ export const INSTRUMENT_KINDS = {
 export type InstrumentKind = keyof typeof INSTRUMENT_KINDS;
 
 const isoDate = z
-  .string({ error: 'give the calibration due date (YYYY-MM-DD)' })
-  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date as YYYY-MM-DD')
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'must be a date written as YYYY-MM-DD')
   .refine(
     (s) =>
       !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s),
-    'not a calendar date',
-  );
+    'must be a calendar date',
+  )
+  .meta({ title: 'Calibration due' });
 
 export const instrumentBody = z
   .object({
-    identifier: oneLine(40, { min: 1, label: 'identifier', minMessage: 'give the identifier on its label' }),
-    kind: z.enum(Object.keys(INSTRUMENT_KINDS) as [InstrumentKind, ...InstrumentKind[]], {
-      error: `choose the kind (${Object.values(INSTRUMENT_KINDS).join(', ')})`,
-    }),
-    description: oneLine(120, { label: 'description' }).default(''),
+    identifier: oneLine(40, { min: 1, label: 'Identifier' }),
+    kind: z
+      .enum(Object.keys(INSTRUMENT_KINDS) as [InstrumentKind, ...InstrumentKind[]])
+      .meta({ title: 'Kind' }),
+    description: oneLine(120, { label: 'Description' }).default(''),
     calibrationDue: isoDate,
   })
   .strict();
 export type InstrumentBody = z.input<typeof instrumentBody>;
-export const updateInstrumentBody = instrumentBody.extend({ lockVersion: z.number().int().min(1) }).strict();
+export const updateInstrumentBody = instrumentBody
+  .extend({ lockVersion: z.number().int().min(1).meta({ title: 'Version' }) })
+  .strict();
 
 export interface InstrumentView {
   id: string;
@@ -61,32 +64,28 @@ export type QualificationScope = keyof typeof QUALIFICATION_SCOPES;
 
 export const grantBody = z
   .object({
-    personId: z.uuid('choose the technician'),
-    scope: z.enum(['family', 'live'], { error: 'choose what is granted (family or live)' }),
+    personId: z.uuid().meta({ title: 'Technician' }),
+    scope: z.enum(['family', 'live']).meta({ title: 'What is granted' }),
     /** The procedure family, as procedures state it; only for a family qualification. */
-    family: oneLine(80, { label: 'family' }).default(''),
-    note: oneLine(200, { label: 'note' }).default(''),
+    family: oneLine(80, { label: 'Procedure family' }).default(''),
+    note: oneLine(200, { label: 'Note' }).default(''),
   })
   .strict()
   .superRefine((b, ctx) => {
     if (b.scope === 'family' && !b.family)
-      ctx.addIssue({ code: 'custom', path: ['family'], message: 'choose the procedure family' });
+      ctx.addIssue({ code: 'custom', path: ['family'], message: 'Choose the procedure family.' });
     if (b.scope === 'live' && b.family)
       ctx.addIssue({
         code: 'custom',
         path: ['family'],
-        message: 'live work is not for one family; leave it empty',
+        message: 'Live work is not for one family; leave the procedure family empty.',
       });
   });
 export type GrantBody = z.input<typeof grantBody>;
 
 export const withdrawBody = z
   .object({
-    reason: z
-      .string({ error: 'give the reason for withdrawing' })
-      .trim()
-      .min(3, 'give the reason for withdrawing (at least 3 characters)')
-      .max(500, 'at most 500 characters'),
+    reason: z.string().trim().min(3).max(500).meta({ title: 'Reason for withdrawing' }),
   })
   .strict();
 

@@ -6,32 +6,37 @@ import type { RevisionStateName } from './procedures';
 
 /** The password is checked, never trimmed or length-limited below what sign-in accepts. */
 const password = z
-  .string({ error: 'required' })
-  .min(1, 'enter your password to sign')
-  .max(PASSWORD_MAX, `at most ${PASSWORD_MAX} characters`);
-const comment = z.string().trim().max(4000, 'at most 4000 characters');
+  .string({ error: 'Enter your password to sign' })
+  .min(1, 'Enter your password to sign')
+  .max(PASSWORD_MAX)
+  .meta({ title: 'Your password' });
+const comment = z.string().trim().max(4000).meta({ title: 'Comment' });
 
 /** Why the revision was made: shown in the review, the history, the diff and on every run sheet from it. */
 export const CHANGE_REASON_MAX = 500;
-export const changeReason = z
-  .string({ error: 'Change reason is required' })
-  .trim()
-  .min(1, 'Change reason is required')
-  .max(CHANGE_REASON_MAX, `Change reason: at most ${CHANGE_REASON_MAX} characters`);
+export const changeReason = z.string().trim().min(1).max(CHANGE_REASON_MAX).meta({ title: 'Change reason' });
 export const submitBody = z
-  .object({ changeReason, lockVersion: z.number().int().min(1).optional() })
+  .object({
+    changeReason,
+    lockVersion: z.number().int().min(1).meta({ title: 'Version of the draft' }).optional(),
+  })
   .strict();
 export const approveBody = z.object({ password, comment: comment.default('') }).strict();
 export const returnBody = z
-  .object({ password, comment: comment.min(1, 'say what needs to change') })
+  .object({ password, comment: comment.min(1, 'Say what needs to change') })
   .strict();
 export const withdrawBody = z
-  .object({ password, reason: comment.min(3, 'give the reason for withdrawing (at least 3 characters)') })
+  .object({
+    password,
+    reason: comment
+      .min(3, 'Give the reason for withdrawing (at least 3 characters)')
+      .meta({ title: 'Reason for withdrawing' }),
+  })
   .strict();
 export const commentBody = z
   .object({
-    body: z.string().trim().min(1, 'write a comment').max(4000, 'at most 4000 characters'),
-    blockId: z.string().min(1).max(64).nullable().optional(),
+    body: z.string().trim().min(1, 'Write a comment').max(4000).meta({ title: 'Comment' }),
+    blockId: z.string().min(1).max(64).nullable().meta({ title: 'Comment on' }).optional(),
   })
   .strict();
 

@@ -53,21 +53,22 @@ const bounded = (key: 'mainsVoltage' | 'mainsFrequency') => {
         .number()
         .min(p.min, `${p.label} must be at least ${p.min} ${p.unit}`)
         .max(p.max, `${p.label} must be at most ${p.max} ${p.unit}`),
-    );
+    )
+    .meta({ title: p.label });
 };
 
 export const startRunBody = z
   .object({
-    revisionId: z.uuid('not a valid revision id'),
-    unitId: z.uuid('not a valid unit id'),
+    revisionId: z.uuid('Choose an approved procedure').meta({ title: 'Approved procedure' }),
+    unitId: z.uuid('Choose the unit on the bench').meta({ title: 'Unit on the bench' }),
     mainsVoltage: bounded('mainsVoltage'),
     mainsFrequency: bounded('mainsFrequency'),
     /** Client-generated; the same key twice starts one run. */
-    key: z.uuid('must be a UUID').optional(),
+    key: z.uuid().meta({ title: 'Request key' }).optional(),
     /** The qualified person who witnesses and co-signs a trainee's run. */
-    witnessId: z.uuid('choose the witness').optional(),
+    witnessId: z.uuid().meta({ title: 'Witness' }).optional(),
     /** The bench's usual instrument: it takes every reading unless another is chosen for one. */
-    instrumentId: z.uuid('choose the instrument').optional(),
+    instrumentId: z.uuid().meta({ title: 'Instrument' }).optional(),
   })
   .strict();
 export type StartRunBody = z.infer<typeof startRunBody>;
@@ -78,36 +79,41 @@ export type StartRunBody = z.infer<typeof startRunBody>;
  */
 export const entryBody = z
   .object({
-    key: z.uuid('must be a UUID (the idempotency key)'),
+    key: z.uuid().meta({ title: 'Request key' }),
     /** A reading as typed ("352", "352 V", "0.35 kV"); a finite number is read in the reading's unit. */
     value: z
-      .union([z.string().trim().min(1, 'empty').max(40, 'at most 40 characters'), z.number()], {
-        error: 'must be a value such as "352 V"',
+      .union([z.string().trim().min(1).max(40), z.number()], {
+        error: 'Enter the measured value, such as "352 V"',
       })
+      .meta({ title: 'Measured value' })
       .optional(),
     /** Check step ticked or hazard note acknowledged. */
-    done: z.boolean().optional(),
-    note: z.string().max(2000, 'at most 2000 characters').optional(),
+    done: z.boolean().meta({ title: 'Done' }).optional(),
+    note: z.string().max(2000).meta({ title: 'Note' }).optional(),
     /** Why a recorded measurement is being changed; required for a change. */
-    reason: z.string().trim().max(500, 'at most 500 characters').optional(),
+    reason: z.string().trim().max(500).meta({ title: 'Reason for the change' }).optional(),
     /** Who made the entry (their person id): the server refuses it from anyone else's session. */
-    by: z.uuid('not a valid person id').optional(),
+    by: z.uuid().meta({ title: 'Entered by' }).optional(),
     /** The instrument that took a reading, when not the run's usual one. */
-    instrumentId: z.uuid('choose the instrument').optional(),
+    instrumentId: z.uuid().meta({ title: 'Instrument' }).optional(),
   })
   .strict();
 export type EntryBody = z.infer<typeof entryBody>;
 
 const why = (what: string) =>
   z
-    .string({ error: `give the reason for ${what}` })
+    .string({ error: `Give the reason for ${what}` })
     .trim()
-    .min(3, `give the reason for ${what} (at least 3 characters)`)
-    .max(500, 'at most 500 characters');
+    .min(3, `Give the reason for ${what} (at least 3 characters)`)
+    .max(500)
+    .meta({ title: `Reason for ${what}` });
 
 /** Hand an open run over to another technician, who performs (and signs) it from then on. */
 export const handoverBody = z
-  .object({ to: z.uuid('choose the technician who takes the run over'), reason: why('the handover') })
+  .object({
+    to: z.uuid('Choose the technician who takes the run over').meta({ title: 'Technician' }),
+    reason: why('the handover'),
+  })
   .strict();
 export type HandoverBody = z.infer<typeof handoverBody>;
 
@@ -116,9 +122,9 @@ export const abandonBody = z.object({ reason: why('closing the run') }).strict()
 
 export const signRunBody = z
   .object({
-    password: z.string().min(1, 'enter your password to sign').max(256),
+    password: z.string().min(1, 'Enter your password to sign').max(256).meta({ title: 'Your password' }),
     meaning: z.literal('performed').default('performed'),
-    reason: z.string().trim().max(500).optional(),
+    reason: z.string().trim().max(500).meta({ title: 'Reason' }).optional(),
   })
   .strict();
 

@@ -3,28 +3,29 @@ import type { Measure } from '../reckoners/types';
 import { oneLine } from './text';
 
 const text = (label: string, max: number) => oneLine(max, { label });
-const multiLine = (label: string, max: number) =>
-  z.string().trim().max(max, `${label}: at most ${max} characters`);
+const multiLine = (label: string, max: number) => z.string().trim().max(max).meta({ title: label });
 
 /** A unit on the bench, as entered by the shop. */
 export const unitBody = z
   .object({
-    model: oneLine(80, { min: 1, label: 'model' }),
-    serial: oneLine(80, { min: 1, label: 'serial' }),
-    owner: text('owner', 120).default(''),
-    jobNumber: text('job number', 40).default(''),
-    notes: multiLine('notes', 4000).default(''),
+    model: oneLine(80, { min: 1, label: 'Model' }),
+    serial: oneLine(80, { min: 1, label: 'Serial' }),
+    owner: text('Owner', 120).default(''),
+    jobNumber: text('Job number', 40).default(''),
+    notes: multiLine('Notes', 4000).default(''),
   })
   .strict();
 export type UnitBody = z.input<typeof unitBody>;
 
-export const updateUnitBody = unitBody.extend({ lockVersion: z.number().int().min(1) }).strict();
+export const updateUnitBody = unitBody
+  .extend({ lockVersion: z.number().int().min(1).meta({ title: 'Version of the unit' }) })
+  .strict();
 
 export const unitListQuery = z
   .object({
-    q: z.string().trim().max(80).optional(),
-    model: z.string().trim().max(80).optional(),
-    state: z.enum(['open-run', 'out', 'never-run']).optional(),
+    q: z.string().trim().max(80).meta({ title: 'Search' }).optional(),
+    model: z.string().trim().max(80).meta({ title: 'Model' }).optional(),
+    state: z.enum(['open-run', 'out', 'never-run']).meta({ title: 'Show' }).optional(),
   })
   .strict();
 

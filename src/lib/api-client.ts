@@ -1,7 +1,11 @@
 /** The one fetch wrapper: JSON (or a multipart upload) in, JSON out, the CSRF token on writes, one error type. */
 
 export interface FieldProblem {
+  /** Where, for machines: "body.model". */
   field: string;
+  /** The field as its form labels it ("Model"); absent on a few older refusals. */
+  label?: string;
+  /** What is wrong, as a sentence naming the field where the server knows its label ("Model is required"). */
   reason: string;
 }
 

@@ -81,7 +81,7 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     expect(fuseBefore).not.toBe('T 800 mA');
     // An unreadable input says why, at the input, instead of going blank.
     await fuse.getByLabel('Winding voltage, row 1', { exact: true }).fill('lots');
-    await fuse.getByRole('alert').filter({ hasText: '"lots" is not a number' }).waitFor();
+    await fuse.getByRole('alert').filter({ hasText: 'is not a number ("lots")' }).waitFor();
     expect(await rating.count()).toBe(0);
     await fuse.getByLabel('Winding voltage, row 1', { exact: true }).fill('250');
     await expect.poll(() => rating.textContent()).toBe('T 800 mA');
@@ -140,7 +140,11 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
 
   it('the procedure check links a warning to its block', async () => {
     // 319 V with no hazard note in the section: the check names the loaded-B+ block.
-    const warning = page.locator('[data-procedure-check] button').filter({ hasText: 'bplus' }).first();
+    // Named by its label, never by the internal name "bplus".
+    const warning = page
+      .locator('[data-procedure-check] button')
+      .filter({ hasText: 'the Loaded B+ (capacitor input) block' })
+      .first();
     await warning.click();
     const focused = await page.evaluate(
       () => document.activeElement?.closest('[data-block-id]')?.textContent ?? '',
@@ -271,8 +275,13 @@ describe('an author writes a procedure with live reckoners in Chromium', () => {
     await page.getByLabel('Title').fill('TC-18 first power-up after recap, checked');
     const conflict = page.getByRole('alertdialog', { name: 'Two versions of this draft' });
     await conflict.waitFor({ timeout: 10_000 });
-    expect(await conflict.textContent()).toContain('Title: TC-18 first power-up (bench copy)');
-    expect(await conflict.textContent()).toContain('Title: TC-18 first power-up after recap, checked');
+    // The differing field by its label, with both values in words: yours, then the saved one.
+    const title = conflict.locator('tr[data-field="Title"]');
+    expect(await title.locator('td').allTextContents()).toEqual([
+      'TC-18 first power-up after recap, checked',
+      'TC-18 first power-up (bench copy)',
+    ]);
+    expect(await conflict.textContent()).not.toMatch(/[{}"]|attrs|inputs/);
     expect(await page.locator('[data-save-state]').getAttribute('data-save-state')).toBe('conflict');
     await conflict.getByRole('button', { name: 'Keep mine and save it' }).click();
     await page.locator('[data-save-state="saved"]').waitFor();

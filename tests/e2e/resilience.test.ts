@@ -37,7 +37,8 @@ describe('a page that cannot load its data, and an upload after the token moved 
     await page.goto(`${app.url}/revisions/not-an-id/edit`);
     const problem = page.getByRole('alert');
     await problem.getByRole('heading', { name: 'That address does not name anything' }).waitFor();
-    expect(await problem.textContent()).toContain('not a valid revision id');
+    expect(await problem.textContent()).toContain('The revision address is not valid');
+    expect(await problem.textContent()).not.toContain('params.id');
     await page.context().close();
   });
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import type { AttachmentView } from '../../../shared/schemas/procedures';
 import { defineRoute } from '../../http/route';
 import { readableAttachment, storeUpload } from './attachments.service';
@@ -32,7 +33,7 @@ export const attachmentRoutes = [
     access: 'signed-in',
     summary:
       'Download an attachment one may read (a draft’s only by staff), its bytes checked against their SHA-256; served as an attachment, sandboxed, never sniffed',
-    params: z.object({ id: z.uuid('not a valid attachment id') }),
+    params: z.object({ id: idIn('attachment') }),
     handler: async ({ res, params, user, deps }) => {
       const { row, bytes } = await readableAttachment(deps, user!, params.id);
       res.set({

@@ -21,7 +21,7 @@ const when = z
 export const auditQuery = z
   .object({
     action: z.enum(AUDIT_ACTIONS, { error: 'not a recorded action' }).optional(),
-    personId: z.uuid('not a valid person id').optional(),
+    personId: z.uuid({ error: 'Choose a person from the list' }).meta({ title: 'Person' }).optional(),
     from: when.optional(),
     /** Inclusive: a bare date covers that whole day. */
     to: when.optional(),

@@ -163,7 +163,13 @@ export const authRoutes = [
     path: '/auth/invitations/:token',
     access: 'public',
     summary: 'Look up a set-password link',
-    params: z.object({ token: z.string().min(20).max(200) }),
+    params: z.object({
+      token: z
+        .string()
+        .min(20, 'This link is not valid')
+        .max(200, 'This link is not valid')
+        .meta({ title: 'Link' }),
+    }),
     handler: async ({ params, deps }) => {
       return setPasswordLink(deps.db, params.token);
     },

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import { signInSettingsBody } from '../../../shared/schemas/auth';
 import { inviteBody, updatePersonBody } from '../../../shared/schemas/people';
 import { conflict, badRequest } from '../../http/errors';
@@ -16,7 +17,7 @@ import {
   view,
 } from './people.service';
 
-const idParams = z.object({ id: z.uuid('not a valid person id') });
+const idParams = z.object({ id: idIn('person') });
 
 export const peopleRoutes = [
   defineRoute({
@@ -66,7 +67,7 @@ export const peopleRoutes = [
       if (params.id === user!.id) {
         throw badRequest(
           'You cannot clear your own authenticator here; use your account page, or ask another admin.',
-          [{ field: 'params.id', reason: 'is you' }],
+          [{ field: 'params.id', label: 'Person', reason: 'That is your own account' }],
         );
       }
       return { person: view(await resetSecondFactor(deps, user!, params.id, req)) };
@@ -117,7 +118,7 @@ export const peopleRoutes = [
         (body.active === false || (body.roles && !body.roles.includes('admin')))
       ) {
         throw badRequest('You cannot remove your own admin role or deactivate yourself; ask another admin.', [
-          { field: body.active === false ? 'body.active' : 'body.roles', reason: 'would lock you out' },
+          { field: body.active === false ? 'body.active' : 'body.roles', reason: 'That would lock you out' },
         ]);
       }
       return { person: view(await updatePerson(deps, user!, params.id, body, req)) };

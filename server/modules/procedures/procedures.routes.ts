@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import {
   createProcedureBody,
   procedureListQuery,
@@ -19,8 +20,8 @@ import {
   startNextDraft,
 } from './procedures.service';
 
-const procedureParams = z.object({ id: z.uuid('not a valid procedure id') });
-const revisionParams = z.object({ id: z.uuid('not a valid revision id') });
+const procedureParams = z.object({ id: idIn('procedure') });
+const revisionParams = z.object({ id: idIn('revision') });
 
 export const procedureRoutes = [
   defineRoute({

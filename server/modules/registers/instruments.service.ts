@@ -12,7 +12,7 @@ import { recordAudit } from '../../audit/record';
 import type { Db, Tx } from '../../db/client';
 import { attachments, instruments } from '../../db/schema';
 import type { AppDeps } from '../../deps';
-import { badRequest, conflict, notFound } from '../../http/errors';
+import { conflict, notFound, refuse } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { storeUpload } from '../attachments/attachments.service';
 
@@ -63,9 +63,11 @@ async function instrumentView(db: Db | Tx, id: string) {
 }
 
 const taken = (identifier: string) =>
-  badRequest(`body.identifier: ${identifier} is already in the register`, [
-    { field: 'body.identifier', reason: 'already in the register' },
-  ]);
+  refuse({
+    field: 'body.identifier',
+    label: 'Identifier',
+    reason: `${identifier} is already in the register`,
+  });
 const isUniqueViolation = (e: unknown) =>
   (e as { code?: string; cause?: { code?: string } }).code === '23505' ||
   (e as { cause?: { code?: string } }).cause?.code === '23505';
@@ -172,8 +174,9 @@ export async function addCertificate(
  */
 export async function usableInstrument(db: Db | Tx, id: string, field: string): Promise<RunInstrument> {
   const [row] = await db.select().from(instruments).where(eq(instruments.id, id));
-  if (!row) throw badRequest(`${field}: no such instrument`, [{ field, reason: 'no such instrument' }]);
+  if (!row) throw refuse({ field, label: 'Instrument', reason: 'No such instrument is in the register' });
   const refusal = instrumentRefusal(row, await today(db));
-  if (refusal) throw badRequest(`${field}: ${refusal}`, [{ field, reason: refusal }]);
+  if (refusal)
+    throw refuse({ field, label: 'Instrument', reason: refusal[0]!.toUpperCase() + refusal.slice(1) });
   return { id: row.id, identifier: row.identifier, kind: row.kind, calibrationDue: row.calibrationDue };
 }

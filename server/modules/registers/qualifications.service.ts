@@ -5,7 +5,7 @@ import type { RunStep } from '../../../shared/schemas/runs';
 import { recordAudit } from '../../audit/record';
 import type { Db, Tx } from '../../db/client';
 import { people, qualifications, revisions } from '../../db/schema';
-import { badRequest, conflict, notFound } from '../../http/errors';
+import { conflict, notFound, refuse } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 
 /** A run is live work when its revision carries a hazard note (the database's rule is the same). */
@@ -75,13 +75,13 @@ export async function checkWitness(
   family: string,
   live: boolean,
 ) {
-  const refuse = (reason: string) =>
-    badRequest(`body.witnessId: ${reason}`, [{ field: 'body.witnessId', reason }]);
-  if (witnessId === performerId) throw refuse('the witness must be someone other than you');
+  const refuseWitness = (reason: string) =>
+    refuse({ field: 'body.witnessId', label: 'Witness', reason: reason[0]!.toUpperCase() + reason.slice(1) });
+  if (witnessId === performerId) throw refuseWitness('the witness must be someone other than you');
   const [w] = await db.select().from(people).where(eq(people.id, witnessId));
-  if (!w?.active) throw refuse('no such active person');
+  if (!w?.active) throw refuseWitness('no such active person');
   const lacks = missing(await heldBy(db, witnessId), family, live);
-  if (lacks.length) throw refuse(`${w.displayName} is not qualified for ${lacks.join(' or ')}`);
+  if (lacks.length) throw refuseWitness(`${w.displayName} is not qualified for ${lacks.join(' or ')}`);
   return w;
 }
 
@@ -127,9 +127,11 @@ export async function grantQualification(db: Db | Tx, user: SessionUser, body: G
   return db.transaction(async (tx) => {
     const [person] = await tx.select().from(people).where(eq(people.id, body.personId));
     if (!person?.active || !person.roles.includes('technician'))
-      throw badRequest('body.personId: not an active technician', [
-        { field: 'body.personId', reason: 'not an active technician' },
-      ]);
+      throw refuse({
+        field: 'body.personId',
+        label: 'Technician',
+        reason: 'This person is not an active technician',
+      });
     const family = body.scope === 'family' ? (body.family ?? '') : null;
     const held = await heldBy(tx, person.id);
     if (

@@ -1,3 +1,4 @@
+import { capitalise, reckonerName } from '../../../shared/document/check/words';
 import { and, asc, desc, eq, inArray, lt } from 'drizzle-orm';
 import { describeRevision } from '../../../shared/document/block-view';
 import { extractBlocks } from '../../../shared/document/extract';
@@ -18,7 +19,8 @@ type RevisionRow = typeof revisions.$inferSelect;
 export function blockRefs(doc: ProcedureDoc): BlockRef[] {
   const b = extractBlocks(doc);
   return [
-    ...b.reckoners.map((r) => ({ id: r.id, label: `Reckoner “${r.name}”` })),
+    // By the reckoner's label and section, never by the internal name references use.
+    ...b.reckoners.map((r) => ({ id: r.id, label: capitalise(reckonerName(r)) })),
     ...b.readings.map((r) => ({ id: r.id, label: `Reading “${r.label || 'untitled'}”` })),
     ...b.checkSteps.map((c) => ({ id: c.id, label: `Check “${c.text.slice(0, 60)}”` })),
     ...b.hazardNotes.map((h) => ({ id: h.id, label: `Hazard note “${h.text.slice(0, 60)}”` })),

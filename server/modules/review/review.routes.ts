@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import {
   approveBody,
   commentBody,
@@ -15,9 +16,9 @@ import { blockRefs, buildReviewView, reviewQueue } from './review-view';
 import { signatureView, verifiedSignatures, verifySignature } from './signatures';
 import { decideRevision, submitRevision, withdrawProcedure } from './transitions';
 
-const revisionParams = z.object({ id: z.uuid('not a valid revision id') });
-const procedureParams = z.object({ id: z.uuid('not a valid procedure id') });
-const signatureParams = z.object({ id: z.uuid('not a valid signature id') });
+const revisionParams = z.object({ id: idIn('revision') });
+const procedureParams = z.object({ id: idIn('procedure') });
+const signatureParams = z.object({ id: idIn('signature') });
 
 /** Technicians see only what has been approved (now or before); everyone else sees every state. */
 const PUBLISHED = new Set<string>(PUBLISHED_STATES);
@@ -126,7 +127,7 @@ export const reviewRoutes = [
       const blockId = body.blockId ?? null;
       if (blockId && !blockRefs(row.document).some((b) => b.id === blockId)) {
         throw badRequest(`Revision ${row.number} has no block ${blockId}.`, [
-          { field: 'body.blockId', reason: `no block with this id in revision ${row.number}` },
+          { field: 'body.blockId', label: 'Comment on', reason: `Choose a block of revision ${row.number}` },
         ]);
       }
       const comment = await addComment(deps.db, user!, row, blockId, body.body, req);

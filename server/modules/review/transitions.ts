@@ -6,8 +6,7 @@
  */
 import type { Tx } from '../../db/client';
 import type { FileStore } from '../../storage/files';
-import { fieldLabel } from '../../../shared/document/block-view';
-import { getReckoner } from '../../../shared/reckoners';
+import { capitalise, inputProblem, reckonerName } from '../../../shared/document/check/words';
 import { and, eq, ne, sql } from 'drizzle-orm';
 import type { Request } from 'express';
 import type { Snapshot } from '../../../shared/document/evaluate';
@@ -42,14 +41,12 @@ export const illegal = (row: Pick<RevisionRow, 'number' | 'state'>, wanted: stri
 export function submitBlockers(snapshot: Snapshot) {
   const problems: { blockId: string | null; message: string }[] = [];
   for (const b of snapshot.blocks) {
-    if (!b.ok) {
-      const fields = getReckoner(b.kind)?.fields ?? [];
+    if (!b.ok)
       for (const e of b.errors)
         problems.push({
           blockId: b.id,
-          message: `${b.label ?? 'Reckoner'} “${b.name}”: ${fieldLabel(fields, e.field)}: ${e.reason}`,
+          message: `${capitalise(reckonerName(b))}: ${inputProblem(b.kind, e.field, e.reason)}`,
         });
-    }
   }
   for (const r of snapshot.readings) {
     if (r.error)

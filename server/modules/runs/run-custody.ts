@@ -9,7 +9,7 @@ import type { HandoverBody } from '../../../shared/schemas/runs';
 import { recordAudit } from '../../audit/record';
 import type { Db, Tx } from '../../db/client';
 import { people, revisions, runHandovers, runs } from '../../db/schema';
-import { badRequest, conflict, HttpError, notFound } from '../../http/errors';
+import { conflict, HttpError, notFound, refuse } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { heldBy, isLiveWork, missing } from '../registers/qualifications.service';
 import { holdOf, onHold } from './run-hold';
@@ -73,28 +73,28 @@ export async function handOverRun(
     if (hold) throw onHold(hold);
     const [to] = await tx.select().from(people).where(eq(people.id, body.to));
     if (!to?.active || !to.roles.includes('technician'))
-      throw badRequest('body.to: not an active technician', [
-        { field: 'body.to', reason: 'not an active technician' },
-      ]);
+      throw refuse({ field: 'body.to', label: 'Technician', reason: 'Choose an active technician' });
     if (to.id === run.performedBy)
-      throw badRequest('body.to: already performs this run', [
-        { field: 'body.to', reason: 'already performs this run' },
-      ]);
+      throw refuse({
+        field: 'body.to',
+        label: 'Technician',
+        reason: 'This technician already performs this run',
+      });
     // The new performer must be qualified for the run, unless it has a witness (who cannot be the performer).
     if (run.witnessId === to.id)
-      throw badRequest('body.to: is this run’s witness', [
-        { field: 'body.to', reason: 'is this run’s witness' },
-      ]);
+      throw refuse({ field: 'body.to', label: 'Technician', reason: 'This technician is the run’s witness' });
     if (!run.witnessId) {
       const [rev] = await tx
         .select({ family: revisions.equipmentFamily })
         .from(revisions)
         .where(eq(revisions.id, run.revisionId));
       const lacks = missing(await heldBy(tx, to.id), rev!.family, isLiveWork(run.steps));
-      if (lacks.length) {
-        const reason = `${to.displayName} is not qualified for ${lacks.join(' or ')}, and this run has no witness`;
-        throw badRequest(`body.to: ${reason}`, [{ field: 'body.to', reason }]);
-      }
+      if (lacks.length)
+        throw refuse({
+          field: 'body.to',
+          label: 'Technician',
+          reason: `${to.displayName} is not qualified for ${lacks.join(' or ')}, and this run has no witness`,
+        });
     }
     const fromName = await nameOf(tx, run.performedBy);
     // The handover row first: the trigger lets the performer change only with it in place.

@@ -1,6 +1,6 @@
 import { checkStepReading, readMeasured } from '../../../shared/reckoners/measurement';
 import type { EntryBody, RunStep } from '../../../shared/schemas/runs';
-import { badRequest } from '../../http/errors';
+import { refuse } from '../../http/errors';
 
 export interface DecidedReading {
   raw: string;
@@ -17,7 +17,7 @@ export interface DecidedReading {
 /** Reads a measurement as typed, in the reading's unit and measure, and refuses anything not finite or not plausible. */
 export function readMeasurement(step: RunStep, value: string | number): { raw: string; measured: number } {
   const r = readMeasured(value, step.reading!.unit, step.reading!.measure);
-  if (!r.ok) throw badRequest(`body.value: ${r.reason}`, [{ field: 'body.value', reason: r.reason }]);
+  if (!r.ok) throw refuse({ field: 'body.value', label: 'Measured value', reason: r.reason });
   return r;
 }
 
@@ -53,22 +53,22 @@ export function checkEntryShape(step: RunStep, body: EntryBody, hasEntry: boolea
   const problems: { field: string; reason: string }[] = [];
   if (step.kind === 'reading') {
     if (body.done !== undefined)
-      problems.push({ field: 'body.done', reason: 'a reading takes a value, not a tick' });
+      problems.push({ field: 'body.done', reason: 'A reading takes a value, not a tick' });
     if (body.value === undefined && !hasEntry)
-      problems.push({ field: 'body.value', reason: 'enter the reading' });
+      problems.push({ field: 'body.value', reason: 'Enter the measured value' });
   } else {
     if (body.value !== undefined)
       problems.push({
         field: 'body.value',
-        reason: `a ${step.kind === 'check' ? 'check step' : 'hazard note'} takes no value`,
+        reason: `A ${step.kind === 'check' ? 'check step' : 'hazard note'} takes no value`,
       });
     if (body.done === undefined && !hasEntry)
       problems.push({
         field: 'body.done',
-        reason: step.kind === 'check' ? 'tick the step' : 'acknowledge the hazard note',
+        reason: step.kind === 'check' ? 'Tick the step' : 'Acknowledge the hazard note',
       });
     if (step.kind === 'hazard' && body.done === false)
-      problems.push({ field: 'body.done', reason: 'a hazard note cannot be un-acknowledged' });
+      problems.push({ field: 'body.done', reason: 'A hazard note cannot be un-acknowledged' });
   }
-  if (problems.length) throw badRequest(problems.map((p) => `${p.field}: ${p.reason}`).join('; '), problems);
+  if (problems.length) throw refuse(...problems);
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import { BLOCK_ID } from '../../../shared/document/schema';
 import {
   abandonBody,
@@ -17,9 +18,12 @@ import { signRun, witnessRun } from './run-sign';
 import { listRuns, loadRunView } from './run-view';
 import { activeTechnicians, addRunPhoto, recordEntry, runEligibility, startRun } from './runs.service';
 
-const runParams = z.object({ id: z.uuid('not a valid run id') }).strict();
+const runParams = z.object({ id: idIn('run') }).strict();
 const entryParams = z
-  .object({ id: z.uuid('not a valid run id'), stepId: z.string().regex(BLOCK_ID, 'not a valid step id') })
+  .object({
+    id: idIn('run'),
+    stepId: z.string().regex(BLOCK_ID, 'The step address is not valid').meta({ title: 'Step address' }),
+  })
   .strict();
 
 export const runRoutes = [

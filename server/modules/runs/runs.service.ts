@@ -4,7 +4,7 @@ import type { EntryBody, StartRunBody } from '../../../shared/schemas/runs';
 import type { Db, Tx } from '../../db/client';
 import { people, revisions, runEntries, runEntryHistory, runPhotos, runs, units } from '../../db/schema';
 import type { AppDeps } from '../../deps';
-import { conflict, notFound, badRequest, HttpError } from '../../http/errors';
+import { conflict, notFound, HttpError, refuse } from '../../http/errors';
 import { canonicalJson, sha256Hex } from '../review/canonical';
 import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
@@ -69,7 +69,7 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
     if (await acknowledgementMissing(tx, revision, user.id)) throw acknowledgementRequired(revision);
     const [unit] = await tx.select().from(units).where(eq(units.id, body.unitId));
     if (!unit)
-      throw badRequest('body.unitId: no such unit', [{ field: 'body.unitId', reason: 'no such unit' }]);
+      throw refuse({ field: 'body.unitId', label: 'Unit on the bench', reason: 'Choose a registered unit' });
     const params = {
       ...revision.params,
       mainsVoltage: body.mainsVoltage,
@@ -199,9 +199,11 @@ export async function recordEntry(
     let reading: DecidedReading | null = null;
     if (step.kind === 'reading' && body.value !== undefined) reading = decideReading(step, body.value);
     if (step.kind !== 'reading' && body.instrumentId !== undefined)
-      throw badRequest('body.instrumentId: only a reading is taken with an instrument', [
-        { field: 'body.instrumentId', reason: 'only a reading is taken with an instrument' },
-      ]);
+      throw refuse({
+        field: 'body.instrumentId',
+        label: 'Instrument',
+        reason: 'Only a reading is taken with an instrument',
+      });
     // Who took the reading: the one chosen for it, else the one it was taken with, else the run's usual one.
     const instrumentId =
       step.kind === 'reading'
@@ -217,9 +219,11 @@ export async function recordEntry(
       ((reading && existing.measured !== null && reading.measured !== existing.measured) ||
         (existing.done && !done));
     if (changesMeasurement && !body.reason) {
-      throw badRequest('body.reason: say why a recorded entry is being changed', [
-        { field: 'body.reason', reason: 'required when changing a recorded entry' },
-      ]);
+      throw refuse({
+        field: 'body.reason',
+        label: 'Reason for the change',
+        reason: 'Say why a recorded entry is being changed',
+      });
     }
     const values = {
       ...(reading ?? {}),
@@ -286,9 +290,7 @@ export async function addRunPhoto(
   if (!run) throw notFound('No such bench run.');
   await assertWritable(deps.db, run, user);
   if (stepId !== null && !run.steps.some((s) => s.id === stepId))
-    throw badRequest('body.stepId: no such step in this run', [
-      { field: 'body.stepId', reason: 'no such step in this run' },
-    ]);
+    throw refuse({ field: 'body.stepId', label: 'Step', reason: 'This run has no such step' });
   const attachment = await storePhoto(deps, file, user.id);
   const [photo] = await deps.db
     .insert(runPhotos)

@@ -3,8 +3,8 @@ import { HttpError } from '../../http/errors';
 import { defineRoute } from '../../http/route';
 
 const searchQuery = z.object({
-  q: z.string().max(200, 'at most 200 characters').default(''),
-  family: z.string().max(80).optional(),
+  q: z.string().max(200).meta({ title: 'Search words' }).default(''),
+  family: z.string().max(80).meta({ title: 'Equipment family' }).optional(),
   tag: z.string().max(40).optional(),
   page: z.coerce.number().int('a whole page number').min(1).max(500).default(1),
   pageSize: z.coerce.number().int().min(1).max(50).default(10),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { idIn } from '../../http/params';
 import { unitBody, unitListQuery, updateUnitBody } from '../../../shared/schemas/units';
 import { oneLine } from '../../http/clean-text';
 import { defineRoute } from '../../http/route';
@@ -16,7 +17,7 @@ import {
 
 /** Everyone who works on units at the bench or writes about them may keep the register. */
 const KEEPERS = ['technician', 'author', 'reviewer', 'admin'] as const;
-const unitParams = z.object({ id: z.uuid('not a valid unit id') }).strict();
+const unitParams = z.object({ id: idIn('unit') }).strict();
 
 export const unitRoutes = [
   defineRoute({

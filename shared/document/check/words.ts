@@ -1,6 +1,7 @@
 /** How the check names things to people: blocks by name and kind, inputs by their registry label. */
 import { eachField } from '../../reckoners/field-paths';
-import { fieldLabel as labelFromFields } from '../block-view';
+import { inputLabel } from '../block-view';
+import { withLabel } from '../../schemas/problems';
 import { getReckoner, type FieldSpec } from '../../reckoners';
 import { formatQuantity } from '../../units/format';
 import type { CheckedReading, CheckedStep } from './types';
@@ -20,15 +21,22 @@ export function readingName(r: Pick<CheckedReading, 'label'>): string {
   return `reading “${clip(r.label) || 'untitled'}”`;
 }
 
-export function reckonerName(b: { name: string; kind: string; label?: string }): string {
-  return `${b.label ?? getReckoner(b.kind)?.label ?? b.kind} “${b.name}”`;
+/** A block as people know it: by its kind's label and its section, never by its internal name. */
+export function reckonerName(b: { kind: string; label?: string; section?: string }): string {
+  const label = getReckoner(b.kind)?.label ?? b.label ?? b.kind;
+  return `the ${label} block${b.section?.trim() ? ` in “${clip(b.section, 40)}”` : ''}`;
 }
 
 export const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
-/** An input's label from the registry, with its row's own name: "Secondary windings, row 1 (HT): Winding voltage". */
-export function fieldLabel(kind: string, path: string, input?: Record<string, unknown>): string {
-  return labelFromFields(getReckoner(kind)?.fields ?? [], path, input);
+/** An input named as a message names it: "Winding 1 voltage" (see inputLabel). */
+export function fieldLabel(kind: string, path: string): string {
+  return inputLabel(getReckoner(kind)?.fields ?? [], path);
+}
+
+/** One input problem as a sentence: "Winding 1 voltage is required". */
+export function inputProblem(kind: string, path: string, reason: string): string {
+  return withLabel(fieldLabel(kind, path), reason);
 }
 
 /** Every declared field of a block with its dotted path and value in the block's input (rows expanded). */

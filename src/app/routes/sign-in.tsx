@@ -7,7 +7,7 @@ import { FormProblem } from '@/components/ui/form-problem';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { useSession } from '@/features/auth/api/get-session';
 import { useSignIn, useSignInWithCode } from '@/features/auth/api/sign-in';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 
 export default function SignIn() {
   const session = useSession();
@@ -58,7 +58,7 @@ export default function SignIn() {
           </p>
           <FormProblem formState={codeForm.formState} />
           <Field
-            label="Code"
+            label={labelOf(codeBody, 'code')}
             autoComplete="one-time-code"
             inputMode="text"
             required
@@ -90,7 +90,7 @@ export default function SignIn() {
           <h2 className="text-xl font-semibold">Sign in</h2>
           <FormProblem formState={passwordForm.formState} />
           <Field
-            label="E-mail"
+            label={labelOf(signInBody, 'email')}
             type="email"
             autoComplete="username"
             required
@@ -99,7 +99,7 @@ export default function SignIn() {
             autoFocus
           />
           <Field
-            label="Password"
+            label={labelOf(signInBody, 'password')}
             type="password"
             autoComplete="current-password"
             required

@@ -1,6 +1,8 @@
 import type { ReactNode } from 'react';
 import { isRouteErrorResponse } from 'react-router-dom';
+import { problemsMessage } from '@shared/schemas/problems';
 import { ApiError } from '@/lib/api-client';
+import { problemSentence } from '@/lib/form';
 
 /** A failure in words a person at the bench can act on; `subject` names what failed (a page, a panel). */
 export function describeError(error: unknown, subject = 'This page'): { title: string; detail: string } {
@@ -10,9 +12,7 @@ export function describeError(error: unknown, subject = 'This page'): { title: s
       ? { title: 'Nothing here', detail: 'That page does not exist, or it has moved.' }
       : { title: failed, detail: `${error.status} ${error.statusText}` };
   if (error instanceof ApiError) {
-    const detail = error.fields.length
-      ? error.fields.map((f) => `${f.field}: ${f.reason}`).join('; ')
-      : error.message;
+    const detail = error.fields.length ? problemsMessage(error.fields.map(problemSentence)) : error.message;
     if (error.status === 0) return { title: 'Cannot reach the server', detail: error.message };
     if (error.status === 400) return { title: 'That address does not name anything', detail };
     if (error.status === 401) return { title: 'You are signed out', detail };

@@ -82,10 +82,12 @@ describe('what a block assumes', () => {
       kind: 'ref',
       blockId: 'blk-ht',
       block: 'ht',
+      blockLabel: 'Peak and no-load DC',
       output: 'noLoadDc',
       outputLabel: 'No-load DC at the reservoir',
     });
-    expect(v.sourceText).toBe('output “No-load DC at the reservoir” of block “ht”');
+    // People see the output and the block by their labels, not the internal name "ht".
+    expect(v.sourceText).toBe('“No-load DC at the reservoir” from the Peak and no-load DC block');
     // 250 V rated at 230 V, on 240 V mains: 250 × 240 ÷ 230 V rms; peak √2 × that, less one 0.9 V diode
     // (centre-tap) [derived; docs/references.md §2].
     expectClose(v.value as number, Math.SQRT2 * ((250 * 240) / 230) - 0.9, 1e-9, 'charged voltage');

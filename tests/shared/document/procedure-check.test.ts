@@ -458,7 +458,7 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     );
     const message = expectOnly(warnings, 'capacitor-rating-low', 'rk-ladder');
     // Named by the registry's labels, row counted from one.
-    expect(message).toContain('Stages, row 2 (B+3): Capacitor voltage rating');
+    expect(message).toContain('Node 2 capacitor voltage rating is 400 V');
     expect(message).toContain(`${Math.round(high)} V`);
     expect(message).toContain('132 V');
   });
@@ -468,8 +468,10 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     const message = expectOnly(warnings, 'part-values-differ', 'rk-bplus');
     expect(message).toContain('20 V');
     expect(message).toContain('15 V');
-    expect(message).toContain('“noLoad”');
-    expect(message).toContain('“bplus”');
+    // Blocks by their labels, never by the internal names references use.
+    expect(message).toContain('the Peak and no-load DC block');
+    expect(message).toContain('the Loaded B+ (capacitor input) block');
+    expect(message).not.toMatch(/noLoad|bplus/);
   });
 
   it('a typed voltage reading that does not say whether it follows the mains (reading-mains-unstated)', () => {
@@ -522,8 +524,10 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
       })),
     );
     const message = expectOnly(warnings, 'reckoner-input-error', 'rk-fuse');
-    expect(message).toContain('Secondary windings, row 1 (HT): Winding voltage');
+    expect(message).toContain('Winding 1 voltage is not a number ("lots")');
+    expect(message).toMatch(/^The Mains fuse block/);
     expect(message).not.toContain('windings.0.volts');
+    expect(message).not.toContain('“fuse”');
   });
 
   it('two reckoners referring to each other in a cycle (procedure-error)', () => {

@@ -13,6 +13,7 @@ import {
   type OutputRow,
   type RevisionFigures,
 } from '../../../../shared/document/block-view';
+import { withLabel } from '../../../../shared/schemas/problems';
 import type { ValueChange } from '../../../../shared/schemas/review';
 import { formatQuantity } from '../../../../shared/units/format';
 
@@ -96,7 +97,7 @@ function newBlock(b: BlockView, used: Set<string>): ValueChange[] {
         ...blockInfo(b),
         label: 'problems',
         before: null,
-        after: b.errors.map((e) => `${e.field}: ${e.reason}`).join('; '),
+        after: b.errors.map((e) => withLabel(e.field, e.reason)).join('; '),
       },
     ];
   return [
@@ -121,7 +122,7 @@ function blockChanges(before: BlockView, after: BlockView): ValueChange[] {
     out.push(inputChange(after, a, b));
   }
   const problems = (v: BlockView) =>
-    v.ok ? null : v.errors.map((e) => `${e.field}: ${e.reason}`).join('; ');
+    v.ok ? null : v.errors.map((e) => withLabel(e.field, e.reason)).join('; ');
   if (problems(before) !== problems(after))
     out.push({
       kind: 'block',

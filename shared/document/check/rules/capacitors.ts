@@ -1,7 +1,7 @@
 import { getReckoner } from '../../../reckoners/registry';
 import type { BlockSnapshot, Snapshot } from '../../evaluate';
 import type { Finding, Rule } from '../types';
-import { fieldLabel, fieldsOf, reckonerName, volts } from '../words';
+import { capitalise, fieldLabel, fieldsOf, reckonerName, volts } from '../words';
 
 /**
  * The highest no-load DC of the procedure (each reckoner's declared noLoadOutputs). With nothing
@@ -43,7 +43,7 @@ export const capacitorRatingLow: Rule = {
       if (r.rating >= high.volts) continue;
       out.push({
         blockId: r.block.id,
-        message: `${reckonerName(r.block)}: ${fieldLabel(r.block.kind, r.path, r.block.input)} is ${volts(r.rating)}, below the ${volts(high.volts)} no-load DC of ${reckonerName(high.block)} at high mains (${volts(mains)}, nominal +${ctx.options.highMainsPercent} %).`,
+        message: `${capitalise(reckonerName(r.block))}: ${fieldLabel(r.block.kind, r.path)} is ${volts(r.rating)}, below the ${volts(high.volts)} no-load DC of ${reckonerName(high.block)} at high mains (${volts(mains)}, nominal +${ctx.options.highMainsPercent} %).`,
       });
     }
     return out;

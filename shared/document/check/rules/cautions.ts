@@ -1,5 +1,5 @@
 import type { Finding, Rule } from '../types';
-import { reckonerName } from '../words';
+import { capitalise, reckonerName } from '../words';
 
 /**
  * Every caution a reckoner raises, at its own level, on its block. The same caution word for word
@@ -21,7 +21,7 @@ export const reckonerCautions: Rule = {
           blockId: block.id,
           level: c.level,
           caution: c.code,
-          message: `${reckonerName(block)}: ${c.message}`,
+          message: `${capitalise(reckonerName(block))}: ${c.message}`,
         });
       }
     }

@@ -1,23 +1,19 @@
 import type { Rule } from '../types';
-import { fieldLabel, reckonerName } from '../words';
+import { capitalise, inputProblem, reckonerName } from '../words';
 
 /** A reckoner whose inputs cannot be used: each problem named by the input's label. */
 export const reckonerInputErrors: Rule = {
   code: 'reckoner-input-error',
   level: 'warning',
-  run: ({ snapshot, blocks }) =>
+  run: ({ snapshot }) =>
     snapshot.blocks.flatMap((block) =>
       block.ok
         ? []
         : block.errors.map((e) => {
-            const label = fieldLabel(
-              block.kind,
-              e.field,
-              blocks.reckoners.find((r) => r.id === block.id)?.inputs,
-            );
+            const said = inputProblem(block.kind, e.field, e.reason);
             return {
               blockId: block.id,
-              message: `${reckonerName(block)}: ${label}: ${e.reason}${/[.?!]$/.test(e.reason) ? '' : '.'}`,
+              message: `${capitalise(reckonerName(block))}: ${said}${/[.?!]$/.test(said) ? '' : '.'}`,
             };
           }),
     ),

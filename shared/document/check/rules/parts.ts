@@ -42,7 +42,7 @@ export const partValuesDiffer: Rule = {
       if (!other) continue;
       out.push({
         blockId: other.block.id,
-        message: `The same part (${part.replace(/-/g, ' ')}) has two values: ${fieldLabel(first.block.kind, first.path, first.block.input)} is ${show(first)} in ${reckonerName(first.block)}, but ${fieldLabel(other.block.kind, other.path, other.block.input)} is ${show(other)} in ${reckonerName(other.block)}.`,
+        message: `The same part (${part.replace(/-/g, ' ')}) has two values: ${fieldLabel(first.block.kind, first.path)} is ${show(first)} in ${reckonerName(first.block)}, but ${fieldLabel(other.block.kind, other.path)} is ${show(other)} in ${reckonerName(other.block)}.`,
       });
     }
     return out;

@@ -1,5 +1,7 @@
 import type { BlockSnapshot } from '@shared/document/evaluate';
-import type { FieldError } from '@shared/reckoners';
+import { inputLabel } from '@shared/document/block-view';
+import { getReckoner, type FieldError } from '@shared/reckoners';
+import { withLabel } from '@shared/schemas/problems';
 import { CautionList } from '@/features/procedures/components/caution-list';
 
 interface Props {
@@ -25,7 +27,7 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
           <ul className="mt-1 list-disc pl-5">
             {unclaimed.map((e) => (
               <li key={e.field + e.reason}>
-                {e.field ? <span className="value">{e.field}</span> : null} {e.reason}
+                {withLabel(inputLabel(getReckoner(result.kind)?.fields ?? [], e.field), e.reason)}
               </li>
             ))}
           </ul>

@@ -2,7 +2,9 @@ import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
 import type { InputValue, ReckonerAttrs } from '@shared/document/schema';
 import { BLOCK_NAME } from '@shared/document/schema';
+import { inputLabel } from '@shared/document/block-view';
 import { getReckoner, listReckoners } from '@shared/reckoners';
+import { withLabel } from '@shared/schemas/problems';
 import { blockResult, useEvaluation } from '../../evaluation-context';
 import { BlockFrame } from '../block-frame';
 import { InputSource } from './input-source';
@@ -30,7 +32,9 @@ export function ReckonerView({ node, updateAttributes, deleteNode, selected }: N
       for (const c of f.columns ?? []) claimed.add(`${f.key}.${i}.${c.key}`);
     });
   }
-  const errorsAt = (path: string) => errors.filter((e) => e.field === path).map((e) => e.reason);
+  // Each problem as a sentence naming its input as the form labels it ("Winding 1 voltage is required").
+  const errorsAt = (path: string) =>
+    errors.filter((e) => e.field === path).map((e) => withLabel(inputLabel(fields, path), e.reason));
   const setInput = (key: string, value: InputValue | Record<string, InputValue>[]) =>
     updateAttributes({ inputs: { ...attrs.inputs, [key]: value } });
   const nameProblem = BLOCK_NAME.test(attrs.name)

@@ -83,7 +83,7 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
       </div>
       {tableErrors.map((reason) => (
         <p key={reason} className="text-xs text-out" role="alert">
-          {spec.label}: {reason}
+          {reason}
         </p>
       ))}
       <button

@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useChangePassword } from '../api/account';
 
 const changePasswordForm = changePasswordBody
@@ -40,14 +40,14 @@ export function ChangePasswordForm() {
       )}
       <FormProblem formState={form.formState} />
       <Field
-        label="Current password"
+        label={labelOf(changePasswordForm, 'currentPassword')}
         type="password"
         autoComplete="current-password"
         {...form.register('currentPassword')}
         error={errors.currentPassword?.message}
       />
       <Field
-        label="New password"
+        label={labelOf(changePasswordForm, 'newPassword')}
         type="password"
         autoComplete="new-password"
         {...form.register('newPassword')}

@@ -4,7 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useInvitePerson } from '../api/invite-person';
 
 export function InviteForm() {
@@ -36,8 +36,17 @@ export function InviteForm() {
         </Notice>
       )}
       <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
-        <Field label="Name" {...form.register('displayName')} error={errors.displayName?.message} />
-        <Field label="E-mail" type="email" {...form.register('email')} error={errors.email?.message} />
+        <Field
+          label={labelOf(inviteBody, 'displayName')}
+          {...form.register('displayName')}
+          error={errors.displayName?.message}
+        />
+        <Field
+          label={labelOf(inviteBody, 'email')}
+          type="email"
+          {...form.register('email')}
+          error={errors.email?.message}
+        />
       </div>
       <fieldset aria-describedby={errors.roles ? 'invite-roles-error' : undefined}>
         <legend className="text-sm font-semibold">Roles</legend>

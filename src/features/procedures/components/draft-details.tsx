@@ -4,7 +4,7 @@ import { PARAM_SPECS, paramsSchema, type ProcedureParams } from '@shared/documen
 import { procedureMetaSchema } from '@shared/schemas/procedures';
 import { Field } from '@/components/ui/field';
 import type { FieldProblem } from '@/lib/api-client';
-import { setFieldProblems, useZodForm } from '@/lib/form';
+import { labelOf, setFieldProblems, useZodForm } from '@/lib/form';
 import type { DraftFields } from '../draft/draft-fields';
 
 type Details = Omit<DraftFields, 'document'>;
@@ -58,20 +58,20 @@ export function DraftDetails({ value, onChange, problems }: Props) {
       <legend className="px-1 text-sm font-semibold">Procedure details</legend>
       <div className="sm:col-span-2">
         <Field
-          label="Title"
+          label={labelOf(detailsForm, 'title')}
           className={`${input} w-full`}
           {...form.register('title')}
           error={errors.title?.message}
         />
       </div>
       <Field
-        label="Equipment family"
+        label={labelOf(detailsForm, 'equipmentFamily')}
         className={input}
         {...form.register('equipmentFamily')}
         error={errors.equipmentFamily?.message}
       />
       <Field
-        label="Model"
+        label={labelOf(detailsForm, 'equipmentModel')}
         className={input}
         {...form.register('equipmentModel')}
         error={errors.equipmentModel?.message}

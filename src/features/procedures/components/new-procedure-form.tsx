@@ -6,7 +6,7 @@ import { Button } from '@/components/ui/button';
 import { Field } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { paths } from '@/config/paths';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useCreateProcedure } from '../api/create-procedure';
 
 /** The server's rules, with tags typed as one comma-separated line and only the nominal mains asked for. */
@@ -58,27 +58,27 @@ export function NewProcedureForm() {
     >
       <FormProblem formState={form.formState} />
       <Field
-        label="Title"
+        label={labelOf(newProcedureForm, 'title')}
         {...form.register('title')}
         error={errors.title?.message}
         placeholder="First power-up after a reservoir capacitor change"
       />
       <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
-          label="Equipment family"
+          label={labelOf(newProcedureForm, 'equipmentFamily')}
           {...form.register('equipmentFamily')}
           error={errors.equipmentFamily?.message}
           placeholder="Guitar combo"
         />
         <Field
-          label="Model"
+          label={labelOf(newProcedureForm, 'equipmentModel')}
           {...form.register('equipmentModel')}
           error={errors.equipmentModel?.message}
           placeholder="TC-18"
         />
       </div>
       <Field
-        label="Tags"
+        label={labelOf(newProcedureForm, 'tags')}
         {...form.register('tags')}
         error={errors.tags?.message}
         hint="Comma-separated, e.g. power supply, first power-up"

@@ -1,4 +1,4 @@
-import type { RevisionView } from '@shared/schemas/procedures';
+import { REVISION_STATE_LABELS, type RevisionView } from '@shared/schemas/procedures';
 import { Button } from '@/components/ui/button';
 import { compareDrafts } from './compare-drafts';
 import { draftFromRevision, type DraftFields } from './draft-fields';
@@ -15,20 +15,7 @@ interface Props {
 
 /** Both versions side by side after a 409; nothing is overwritten until the author chooses. */
 export function ConflictPanel({ message, mine, current, editable, onKeepMine, onLoadTheirs }: Props) {
-  const cmp = compareDrafts(mine, draftFromRevision(current));
-  const column = (title: string, lines: { line: string; only: boolean }[]) => (
-    <div className="min-w-0 flex-1">
-      <h3 className="text-sm font-semibold">{title}</h3>
-      <pre className="value mt-1 max-h-80 overflow-auto whitespace-pre-wrap rounded border border-rule bg-card p-2 text-xs">
-        {lines.map((l, i) => (
-          <span key={i} className={`block ${l.only ? 'bg-accent-wash font-semibold' : ''}`}>
-            {l.only ? '» ' : '  '}
-            {l.line || ' '}
-          </span>
-        ))}
-      </pre>
-    </div>
-  );
+  const differences = compareDrafts(mine, draftFromRevision(current));
   return (
     <section
       role="alertdialog"
@@ -42,19 +29,43 @@ export function ConflictPanel({ message, mine, current, editable, onKeepMine, on
         {message} The saved version is from {new Date(current.updatedAt).toLocaleString()}. Your version is
         kept on this device until you choose.
       </p>
-      <ul className="mt-2 list-disc pl-5 text-sm">
-        {cmp.summary.map((s) => (
-          <li key={s}>{s}</li>
-        ))}
-      </ul>
-      <div className="mt-3 flex flex-col gap-3 md:flex-row">
-        {column('Your version', cmp.mine)}
-        {column(
-          `Saved version (revision ${current.number}, ${current.state === 'draft' ? 'draft' : current.state.replace('_', ' ')})`,
-          cmp.theirs,
-        )}
-      </div>
-      <p className="mt-2 text-xs text-graphite-soft">Lines marked » appear only on that side.</p>
+      {differences.length ? (
+        <div className="mt-3 max-h-96 overflow-auto rounded border border-rule bg-card" tabIndex={0}>
+          <table className="w-full text-left text-sm">
+            <caption className="sr-only">What differs between your version and the saved one</caption>
+            <thead className="border-b border-rule text-xs text-graphite-soft">
+              <tr>
+                <th scope="col" className="px-3 py-1 font-normal">
+                  Field
+                </th>
+                <th scope="col" className="px-3 py-1 font-normal">
+                  Yours
+                </th>
+                <th scope="col" className="px-3 py-1 font-normal">
+                  Saved (revision {current.number}, {REVISION_STATE_LABELS[current.state].toLowerCase()})
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {differences.map((d) => (
+                <tr
+                  key={d.label}
+                  data-field={d.label}
+                  className="border-b border-rule align-top last:border-0"
+                >
+                  <th scope="row" className="px-3 py-1 font-semibold">
+                    {d.label}
+                  </th>
+                  <td className="whitespace-pre-wrap break-words px-3 py-1">{d.yours}</td>
+                  <td className="whitespace-pre-wrap break-words px-3 py-1">{d.saved}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : (
+        <p className="mt-2 text-sm">Both versions hold the same details, figures and text.</p>
+      )}
       <div className="mt-3 flex flex-wrap gap-2">
         {editable && <Button onClick={onKeepMine}>Keep mine and save it</Button>}
         <Button variant="quiet" onClick={onLoadTheirs}>

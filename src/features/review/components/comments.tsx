@@ -3,7 +3,7 @@ import { commentBody, type BlockRef, type ReviewCommentView } from '@shared/sche
 import { Button } from '@/components/ui/button';
 import { SelectField, TextareaField } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useAddComment } from '../api/review-mutations';
 import { formatUtc } from './format';
 
@@ -53,7 +53,11 @@ export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks
   );
   return (
     <form onSubmit={submit} className="flex flex-col gap-2" noValidate>
-      <SelectField label="Comment on" {...form.register('blockId')} error={errors.blockId?.message}>
+      <SelectField
+        label={labelOf(commentForm, 'blockId')}
+        {...form.register('blockId')}
+        error={errors.blockId?.message}
+      >
         <option value="">The whole revision</option>
         {blocks.map((b) => (
           <option key={b.id} value={b.id}>
@@ -62,7 +66,7 @@ export function CommentForm({ revisionId, blocks }: { revisionId: string; blocks
         ))}
       </SelectField>
       <TextareaField
-        label="Comment"
+        label={labelOf(commentForm, 'body')}
         maxLength={4000}
         {...form.register('body')}
         error={errors.body?.message}

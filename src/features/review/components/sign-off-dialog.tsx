@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Field, TextareaField } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import type { ApiError } from '@/lib/api-client';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 
 export interface SignOff {
   password: string;
@@ -85,7 +85,7 @@ export function SignOffDialog(props: {
           error={errors.comment?.message}
         />
         <Field
-          label="Your password"
+          label={labelOf(props.schema, 'password')}
           type="password"
           autoComplete="current-password"
           className="bg-paper"

@@ -19,19 +19,16 @@ const BLOCK_ROWS: Record<string, string> = {
 const continues = (rows: ValueChange[], i: number) =>
   i > 0 && rows[i - 1]!.subject === rows[i]!.subject && rows[i - 1]!.blockId === rows[i]!.blockId;
 
+/** A block by its label (its internal name is the editor's business); a reading or the parameters by theirs. */
 function Subject({ c, repeat }: { c: ValueChange; repeat: boolean }) {
-  if (repeat) return <span className="sr-only">{c.subject}</span>;
-  return (
-    <>
-      <span className="font-semibold">{c.subject}</span>
-      {c.blockLabel && <span className="block text-xs text-graphite-soft">{c.blockLabel}</span>}
-    </>
-  );
+  const name = c.blockLabel ?? c.subject;
+  if (repeat) return <span className="sr-only">{name}</span>;
+  return <span className="font-semibold">{name}</span>;
 }
 
 function What({ c }: { c: ValueChange }) {
   if (c.kind !== 'block') return <>{c.label}</>;
-  if (c.renamedFrom) return <em>renamed from “{c.renamedFrom}”</em>;
+  if (c.renamedFrom) return <em>reference name changed</em>;
   return <em>{BLOCK_ROWS[c.label] ?? c.label}</em>;
 }
 

@@ -2,7 +2,7 @@ import { formatUtc } from '@shared/runs/run-sheet-model';
 import { abandonBody, handoverBody, type RunHold, type RunStep, type RunView } from '@shared/schemas/runs';
 import { Field, SelectField } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useAbandon, useHandOver, useTechnicians } from '../api/run-custody';
 import type { PendingEntry } from '../lib/entry-queue';
 
@@ -73,7 +73,12 @@ function HandoverForm({ run }: { run: RunView }) {
       <p className="text-sm text-graphite-soft">
         They record the remaining steps and sign; the run sheet names you both and who recorded what.
       </p>
-      <SelectField label="Technician" className={input} {...form.register('to')} error={errors.to?.message}>
+      <SelectField
+        label={labelOf(handoverBody, 'to')}
+        className={input}
+        {...form.register('to')}
+        error={errors.to?.message}
+      >
         <option value="">Choose…</option>
         {others.map((t) => (
           <option key={t.id} value={t.id}>
@@ -82,7 +87,7 @@ function HandoverForm({ run }: { run: RunView }) {
         ))}
       </SelectField>
       <Field
-        label="Reason for the handover"
+        label={labelOf(handoverBody, 'reason')}
         maxLength={500}
         className={input}
         {...form.register('reason')}
@@ -118,7 +123,7 @@ function AbandonForm({ run }: { run: RunView }) {
         The run is kept as it is, not signed; nothing on it can change afterwards.
       </p>
       <Field
-        label="Reason for closing"
+        label={labelOf(abandonBody, 'reason')}
         maxLength={500}
         className={input}
         {...form.register('reason')}

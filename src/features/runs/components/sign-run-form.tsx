@@ -2,7 +2,7 @@ import { signRunBody } from '@shared/schemas/runs';
 import { Field } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useSignRun } from '../api/sign-run';
 
 /** Password again, meaning "performed": the technician's signature on the run sheet. */
@@ -52,7 +52,7 @@ export function SignRunForm({
       </FormProblem>
       <div className="max-w-sm">
         <Field
-          label="Your password"
+          label={labelOf(signRunBody, 'password')}
           type="password"
           autoComplete="current-password"
           className="min-h-12 bg-paper"

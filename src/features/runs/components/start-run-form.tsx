@@ -46,9 +46,11 @@ const mains = (unit: 'V' | 'Hz', range: z.ZodType<number, number>) =>
     .pipe(range.optional());
 
 const startRunForm = z.object({
-  procedureId: z.string().min(1, 'choose a procedure'),
-  unitId: z.string().min(1, 'choose a unit').pipe(startRunBody.shape.unitId),
-  mainsVoltage: mains('V', startRunBody.shape.mainsVoltage).pipe(z.number('required')),
+  procedureId: z.string().min(1, 'Choose a procedure').meta({ title: 'Approved procedure' }),
+  unitId: z.string().min(1, 'Choose the unit on the bench').pipe(startRunBody.shape.unitId),
+  mainsVoltage: mains('V', startRunBody.shape.mainsVoltage).pipe(
+    z.number('Enter the mains measured at the bench'),
+  ),
   mainsFrequency: mains('Hz', startRunBody.shape.mainsFrequency),
   witnessId: z.string(),
   instrumentId: z.string(),
@@ -119,8 +121,9 @@ export function StartRunForm({
       return form.setError('witnessId', { message: 'name a qualified witness who will co-sign the run' });
     // Left empty, the frequency is the procedure's own.
     const frequency = mainsFrequency ?? params.data?.mainsFrequency;
-    if (!procedure?.approved) return form.setError('procedureId', { message: 'choose a procedure' });
-    if (frequency === undefined) return form.setError('mainsFrequency', { message: 'required' });
+    if (!procedure?.approved) return form.setError('procedureId', { message: 'Choose a procedure' });
+    if (frequency === undefined)
+      return form.setError('mainsFrequency', { message: 'Enter the mains frequency' });
     start.mutate(
       {
         revisionId: procedure.approved.id,

@@ -86,10 +86,11 @@ const readingForm = (step: RunStep, recorded: number | null) =>
         .string()
         .superRefine((text, ctx) => {
           const live = liveCheck(step, text);
-          if (live.state === 'empty') ctx.addIssue({ code: 'custom', message: 'type the reading first' });
+          if (live.state === 'empty') ctx.addIssue({ code: 'custom', message: 'Type the reading first' });
           if (live.state === 'error') ctx.addIssue({ code: 'custom', message: live.message });
         })
-        .pipe(entryBody.shape.value.unwrap().options[0]),
+        .pipe(entryBody.shape.value.unwrap().options[0])
+        .meta({ title: 'Measured value' }),
       note: z.string().pipe(entryBody.shape.note.unwrap()),
       reason: z.string().pipe(entryBody.shape.reason.unwrap()),
       instrumentId: z.string(),
@@ -99,7 +100,7 @@ const readingForm = (step: RunStep, recorded: number | null) =>
         ctx.addIssue({
           code: 'custom',
           path: ['reason'],
-          message: 'say why the recorded reading is being changed',
+          message: 'Say why the recorded reading is being changed',
         });
     });
 

@@ -3,7 +3,7 @@ import { Button } from '@/components/ui/button';
 import { Field, TextareaField } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { Notice } from '@/components/ui/notice';
-import { showServerError, useZodForm } from '@/lib/form';
+import { labelOf, showServerError, useZodForm } from '@/lib/form';
 import { useSaveUnit } from '../api/save-unit';
 import { Link } from 'react-router-dom';
 import { paths } from '@/config/paths';
@@ -54,17 +54,30 @@ export function UnitForm({ unit, onSaved }: { unit?: UnitView; onSaved?: (u: Uni
       )}
       <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
         <Field
-          label="Model"
+          label={labelOf(unitBody, 'model')}
           {...form.register('model')}
           error={errors.model?.message}
           placeholder="TC-18"
           list="unit-models"
         />
-        <Field label="Serial" {...form.register('serial')} error={errors.serial?.message} />
-        <Field label="Owner" {...form.register('owner')} error={errors.owner?.message} />
-        <Field label="Job number" {...form.register('jobNumber')} error={errors.jobNumber?.message} />
+        <Field
+          label={labelOf(unitBody, 'serial')}
+          {...form.register('serial')}
+          error={errors.serial?.message}
+        />
+        <Field label={labelOf(unitBody, 'owner')} {...form.register('owner')} error={errors.owner?.message} />
+        <Field
+          label={labelOf(unitBody, 'jobNumber')}
+          {...form.register('jobNumber')}
+          error={errors.jobNumber?.message}
+        />
       </div>
-      <TextareaField label="Notes" rows={3} {...form.register('notes')} error={errors.notes?.message} />
+      <TextareaField
+        label={labelOf(unitBody, 'notes')}
+        rows={3}
+        {...form.register('notes')}
+        error={errors.notes?.message}
+      />
       <datalist id="unit-models">
         <option value="TC-18" />
         <option value="TC-30H" />

@@ -21,6 +21,7 @@ describe('a revision carries its change reason', () => {
       expect(res.status).toBe(400);
       expect(res.body.fields).toContainEqual({
         field: 'body.changeReason',
+        label: 'Change reason',
         reason: 'Change reason is required',
       });
     }

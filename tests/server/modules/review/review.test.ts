@@ -81,8 +81,10 @@ describe('submitting a draft', () => {
     expect(blockIds).toContain('reading-bplus2');
     // The field is named in the registry's words, not by its internal path.
     expect(res.body.error).toMatch(
-      /Mains fuse “fuse”: Secondary windings, row 1: Winding current \(AC rms\): "lots of amps" is not a number/,
+      /The Mains fuse block in “First power-up”: Winding 1 current \(AC rms\) is not a number \("lots of amps"\)/,
     );
+    // Blocks by their labels, never by the internal names references use.
+    expect(res.body.error).not.toMatch(/“fuse”/);
     expect(res.body.error).not.toMatch(/windings\.0\.amps/);
     const noTolerance = await newDraft(t, 'hal', doc(paragraph('x'), fuseBlock('0.1 A'), reading('')));
     const res2 = await noTolerance.c

@@ -51,7 +51,8 @@ export function ReadingsTable({
               <td className="px-3 py-2">{r.testPoint}</td>
               <td className="value px-3 py-2">{r.meterRange}</td>
               <td className="px-3 py-2">
-                <span className="value">{r.expectedSource}</span>
+                {/* The result it uses by its label, never the internal "block.output" reference. */}
+                <span className="value">{r.expectedText ?? r.expectedSource}</span>
                 <span className="block text-xs text-graphite-soft">
                   tolerance <span className="value">{r.toleranceText || 'none'}</span>
                 </span>

@@ -1,4 +1,5 @@
 import type { BlockView } from '@shared/document/block-view';
+import { withLabel } from '@shared/schemas/problems';
 import { CautionList } from '../caution-list';
 import { BlockInputs } from './block-inputs';
 import { Figure } from './figure';
@@ -10,7 +11,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
   return (
     <section className="not-prose my-4 rounded-lg border border-rule bg-card p-4" data-reckoner={name}>
       <h3 className="text-sm font-semibold uppercase tracking-wide text-accent-deep">
-        {view?.label ?? 'Calculation'} <span className="value normal-case text-graphite-soft">· {name}</span>
+        {view?.label ?? 'Calculation'}
       </h3>
       {!view ? (
         <p className="mt-2 text-sm text-out">This calculation is missing from the stored results.</p>
@@ -19,7 +20,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
           {view.inputs.length > 0 && (
             <div>
               <h4 className={heading}>Assumed</h4>
-              <BlockInputs inputs={view.inputs} name={name} />
+              <BlockInputs inputs={view.inputs} name={view.label} />
             </div>
           )}
           <div>
@@ -53,9 +54,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
                 <p className="font-semibold">No results: the inputs have problems.</p>
                 <ul className="list-disc pl-5">
                   {view.errors.map((e) => (
-                    <li key={e.field + e.reason}>
-                      {e.field}: {e.reason}
-                    </li>
+                    <li key={e.field + e.reason}>{withLabel(e.field, e.reason)}</li>
                   ))}
                 </ul>
               </div>
