@@ -66,7 +66,7 @@ const taken = (identifier: string) =>
   refuse({
     field: 'body.identifier',
     label: 'Identifier',
-    reason: `${identifier} is already in the register`,
+    reason: `An instrument named ${identifier} is already in the register`,
   });
 const isUniqueViolation = (e: unknown) =>
   (e as { code?: string; cause?: { code?: string } }).code === '23505' ||

@@ -84,7 +84,11 @@ describe('the instrument register', () => {
       .post('/api/instruments')
       .send({ identifier: 'tc-dmm-77', kind: 'meter', calibrationDue: '2099-06-15' });
     expect(again.status).toBe(400);
-    expect(again.body.fields[0]).toEqual({ field: 'body.identifier', reason: 'already in the register' });
+    expect(again.body.fields[0]).toEqual({
+      field: 'body.identifier',
+      label: 'Identifier',
+      reason: 'An instrument named tc-dmm-77 is already in the register',
+    });
     const admin = await t.as('admin');
     const edited = await admin.put(`/api/instruments/${added.id}`).send({
       identifier: 'TC-DMM-77',
@@ -309,7 +313,8 @@ describe('qualifications', () => {
     expect(self.status).toBe(400);
     expect(self.body.fields[0]).toEqual({
       field: 'body.witnessId',
-      reason: 'the witness must be someone other than you',
+      label: 'Witness',
+      reason: 'The witness must be someone other than you',
     });
     const author = await start(await personId(t, 'hal'));
     expect(author.status).toBe(400);
