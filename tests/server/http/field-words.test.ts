@@ -105,7 +105,9 @@ describe('refusals name fields by their labels', () => {
     expect(messages).toContain('The Mains fuse block in “Mains fuse”: Winding 1 voltage is required.');
     for (const m of messages) expect(m).not.toMatch(/mainsFuse|windings\.0|Reckoner "/);
     // Submitting is refused with the same words.
-    const submit = await hal.post(`/api/revisions/${created.body.revision.id}/submit`).send({});
+    const submit = await hal
+      .post(`/api/revisions/${created.body.revision.id}/submit`)
+      .send({ changeReason: 'First issue' });
     expect(submit.status).toBe(409);
     expect(submit.body.error).toContain('Winding 1 voltage is required');
     expect(submit.body.error).not.toMatch(/mainsFuse|windings\.0/);

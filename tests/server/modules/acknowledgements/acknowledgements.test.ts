@@ -140,6 +140,7 @@ describe('read before you run', () => {
     const none = await tom.post(`/api/revisions/${r2.id}/acknowledge`).send({});
     expect(none.body.fields).toContainEqual({
       field: 'body.contentHash',
+      label: 'Content hash',
       reason: 'Content hash is required',
     });
     expect(
