@@ -163,7 +163,7 @@ function compute(input: RectifierSubstitutionInput): ReckonerResult {
       exact,
       'Ω',
       'Series resistance to restore B+',
-      'The rise ÷ the load current, between the rectifier and the reservoir.',
+      'The rise ÷ the load current, for a resistor after the reservoir (with its own capacitor after it, as a first dropper stage), where it carries the steady load current. Placed between the rectifier and the reservoir it would carry the charging peaks and drop far more: work that position out with the loaded-B+ block and its source resistance.',
       SRC.derived,
     );
     outputs.seriesResistance = q(

@@ -34,7 +34,7 @@ const block = (title: string) =>
     }),
   });
 const output = (scope: ReturnType<typeof block>, key: string) =>
-  scope.locator(`[data-output="${key}"] dd[data-figure]`);
+  scope.locator(`[data-output="${key}"] dd[data-figure] [data-value]`);
 
 async function insertBlock(filter: string) {
   await page.keyboard.press('Control+k');

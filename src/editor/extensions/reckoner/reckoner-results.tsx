@@ -1,4 +1,5 @@
 import type { BlockSnapshot } from '@shared/document/evaluate';
+import { Figure } from '@/components/ui/figure';
 import { inputLabel } from '@shared/document/block-view';
 import { getReckoner, type FieldError } from '@shared/reckoners';
 import { withLabel } from '@shared/schemas/problems';
@@ -44,12 +45,8 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
         {Object.entries(result.outputs).map(([key, out]) => (
           <div key={key} data-output={key} className="flex flex-col">
             <dt className="text-xs text-graphite-soft">{out.label}</dt>
-            {/* A figure stays on one line; a long text result wraps. */}
-            <dd
-              data-figure
-              className={`text-base font-semibold ${typeof out.value === 'string' && out.formatted.length > 24 ? 'break-words font-mono' : 'value'}`}
-            >
-              {out.formatted}
+            <dd data-figure className="text-base">
+              <Figure formatted={out.formatted} measure={out.measure} strong />
             </dd>
             <dd className="text-xs text-graphite-soft">{out.explanation}</dd>
           </div>

@@ -31,56 +31,62 @@ export function RowsField({ spec, value, onChange, errorsAt, blockId }: Props) {
   return (
     <fieldset className="flex min-w-0 flex-col gap-2">
       <legend className="text-xs font-semibold">{spec.label}</legend>
-      <div className="relative overflow-x-auto">
-        <table className="w-full text-left text-sm">
-          <thead>
-            <tr>
-              <th className="w-8 px-1 text-xs font-normal text-graphite-soft">#</th>
-              {columns.map((c) => (
-                <th key={c.key} scope="col" className="px-1 text-xs font-semibold">
-                  {c.label}
-                  {c.unit ? <span className="value font-normal text-graphite-soft"> ({c.unit})</span> : null}
-                </th>
-              ))}
-              <th>
-                <span className="sr-only">Remove</span>
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((row, i) => (
-              <tr key={i} className="align-top">
-                <td className="value px-1 py-2 text-xs text-graphite-soft">{i + 1}</td>
+      {rows.length === 0 ? (
+        <p className="text-xs text-graphite-soft">No rows yet.</p>
+      ) : (
+        <div className="relative overflow-x-auto">
+          <table className="w-full text-left text-sm">
+            <thead>
+              <tr>
+                <th className="w-8 px-1 text-xs font-normal text-graphite-soft">#</th>
                 {columns.map((c) => (
-                  <td key={c.key} className="px-1 py-1">
-                    <InputSource
-                      compact
-                      spec={c}
-                      labelSuffix={`, row ${i + 1}`}
-                      value={row[c.key] ?? ''}
-                      onChange={(v) => setCell(i, c.key, v)}
-                      errors={errorsAt(`${spec.key}.${i}.${c.key}`).concat(errorsAt(`${spec.key}.${i}`))}
-                      blockId={blockId}
-                    />
-                  </td>
+                  <th key={c.key} scope="col" className="px-1 text-xs font-semibold">
+                    {c.label}
+                    {c.unit ? (
+                      <span className="value font-normal text-graphite-soft"> ({c.unit})</span>
+                    ) : null}
+                  </th>
                 ))}
-                <td className="px-1 py-1">
-                  <button
-                    type="button"
-                    className="min-h-9 rounded border border-rule px-2 text-xs hover:bg-out-wash"
-                    aria-label={`Remove ${spec.label.toLowerCase()} row ${i + 1}`}
-                    disabled={atMin}
-                    aria-describedby={atMin ? `${whyId}-min` : undefined}
-                    onClick={() => onChange(rows.filter((_, j) => j !== i))}
-                  >
-                    Remove
-                  </button>
-                </td>
+                <th>
+                  <span className="sr-only">Remove</span>
+                </th>
               </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+            </thead>
+            <tbody>
+              {rows.map((row, i) => (
+                <tr key={i} className="align-top">
+                  <td className="value px-1 py-2 text-xs text-graphite-soft">{i + 1}</td>
+                  {columns.map((c) => (
+                    <td key={c.key} className="px-1 py-1">
+                      <InputSource
+                        compact
+                        spec={c}
+                        labelSuffix={`, row ${i + 1}`}
+                        value={row[c.key] ?? ''}
+                        onChange={(v) => setCell(i, c.key, v)}
+                        errors={errorsAt(`${spec.key}.${i}.${c.key}`).concat(errorsAt(`${spec.key}.${i}`))}
+                        blockId={blockId}
+                      />
+                    </td>
+                  ))}
+                  <td className="px-1 py-1">
+                    <button
+                      type="button"
+                      className="min-h-9 rounded border border-rule px-2 text-xs hover:bg-out-wash"
+                      aria-label={`Remove ${spec.label.toLowerCase()} row ${i + 1}`}
+                      disabled={atMin}
+                      aria-describedby={atMin ? `${whyId}-min` : undefined}
+                      onClick={() => onChange(rows.filter((_, j) => j !== i))}
+                    >
+                      Remove
+                    </button>
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
       {tableErrors.map((reason) => (
         <p key={reason} className="text-xs text-out" role="alert">
           {reason}

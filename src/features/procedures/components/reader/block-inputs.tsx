@@ -1,5 +1,5 @@
 import type { InputRow } from '@shared/document/block-view';
-import { Figure } from './figure';
+import { Figure } from '@/components/ui/figure';
 
 /** What a block assumes: each input in the registry's words, its value and where the value came from. */
 export function BlockInputs({ inputs, name }: { inputs: InputRow[]; name: string }) {

@@ -2,7 +2,7 @@ import type { BlockView } from '@shared/document/block-view';
 import { withLabel } from '@shared/schemas/problems';
 import { CautionList } from '../caution-list';
 import { BlockInputs } from './block-inputs';
-import { Figure } from './figure';
+import { Figure } from '@/components/ui/figure';
 
 const heading = 'text-xs font-semibold uppercase tracking-wide text-graphite-soft';
 
