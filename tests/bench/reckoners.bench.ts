@@ -1,9 +1,12 @@
 /**
- * Prints median times for one loaded-B+ evaluation and for a 30-block procedure.
+ * Prints median times for one loaded-B+ evaluation (one filter simulation) and for a 30-block
+ * procedure holding every reckoner kind.
  * Goals: under 5 ms and under 20 ms, so the editor can recompute on every keystroke.
  * Figures only; not a timed test.
  */
 import { evaluateProcedure, runReckoner, type ProcedureBlock } from '../../shared/reckoners';
+import { RECKONER_KINDS } from '../../shared/reckoners/registry';
+import { TYPICAL_INPUTS } from '../shared/reckoners/examples';
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
@@ -36,88 +39,98 @@ const loaded = (i: number) => ({
   rectifier: 'silicon-bridge',
 });
 
-time('loaded B+ (one evaluation)', 200, 5, (i) => {
+time('loaded B+ (one filter simulation)', 200, 5, (i) => {
   const r = runReckoner('loaded-bplus', loaded(i));
   if (!r.ok) throw new Error(JSON.stringify(r.errors));
 });
 
-/** A 30-block procedure: five chains of six blocks each, linked by references and parameters. */
-function procedure(i: number): ProcedureBlock[] {
-  const blocks: ProcedureBlock[] = [];
-  for (let c = 0; c < 5; c++) {
-    const p = (s: string) => `c${c}_${s}`;
-    blocks.push(
-      {
-        name: p('peak'),
-        kind: 'peak-no-load',
-        inputs: {
-          windingVoltage: 290 + c,
-          mainsActual: { param: 'mainsVoltage' },
-          mainsNominal: { param: 'mainsNominal' },
-        },
-      },
-      {
-        name: p('bplus'),
-        kind: 'loaded-bplus',
-        inputs: {
-          ...loaded(i + c),
-          windingVoltage: { ref: `${p('peak')}.windingVoltage` },
-          mainsFrequency: { param: 'mainsFrequency' },
-        },
-      },
-      {
-        name: p('ladder'),
-        kind: 'dropper-ladder',
-        inputs: {
-          startVoltage: { ref: `${p('bplus')}.averageDc` },
-          startRipple: { ref: `${p('bplus')}.ripplePeakToPeak` },
-          stages: [
-            { targetVoltage: '330 V', current: '60 mA', capacitance: '47u' },
-            { targetVoltage: '300 V', current: '8 mA', capacitance: '22u' },
-            { targetVoltage: '260 V', current: '2 mA', capacitance: '22u' },
-          ],
-        },
-      },
-      {
-        name: p('fuse'),
-        kind: 'mains-fuse',
-        inputs: {
-          windings: [
-            {
-              volts: { ref: `${p('peak')}.windingVoltage` },
-              amps: { ref: `${p('bplus')}.windingRmsCurrent` },
-            },
-            { volts: '6.3 V', amps: '2.1 A' },
-          ],
-          mainsVoltage: { param: 'mainsVoltage' },
-        },
-      },
-      {
-        name: p('bleed'),
-        kind: 'bleeder',
-        inputs: {
+/**
+ * A chain with one block of every registered kind, from an author's typical inputs, linked the way a
+ * procedure links them: the winding follows the measured mains, the loaded B+ takes its source
+ * resistance from the transformer-loading block, the ladder (an RC and an LC stage) starts from the
+ * loaded B+, and the fuse, bleeder, ratings and reading read the others' outputs.
+ */
+function chain(c: number, i: number): ProcedureBlock[] {
+  const p = (s: string) => `c${c}_${s}`;
+  const at = (kind: string, inputs: Record<string, unknown>): ProcedureBlock => ({
+    name: p(kind.replace(/-/g, '_')),
+    kind,
+    inputs: { ...TYPICAL_INPUTS[kind], ...inputs },
+  });
+  const ref = (kind: string, output: string) => ({ ref: `${p(kind.replace(/-/g, '_'))}.${output}` });
+  return [
+    at('peak-no-load', {
+      windingVoltage: `${290 + c} V`,
+      mainsActual: { param: 'mainsVoltage' },
+      mainsNominal: { param: 'mainsNominal' },
+    }),
+    at('transformer-loading', { mainsVoltage: { param: 'mainsNominal' } }),
+    at('loaded-bplus', {
+      ...loaded(i + c),
+      windingVoltage: ref('peak-no-load', 'windingVoltage'),
+      sourceResistance: ref('transformer-loading', 'winding1.sourceResistance'),
+      mainsFrequency: { param: 'mainsFrequency' },
+    }),
+    at('dropper-ladder', {
+      startVoltage: ref('loaded-bplus', 'averageDc'),
+      startRipple: ref('loaded-bplus', 'ripplePeakToPeak'),
+      mainsFrequency: { param: 'mainsFrequency' },
+      stages: [
+        { targetVoltage: '330 V', current: '60 mA', capacitance: '47u' },
+        {
+          targetVoltage: '320 V',
+          current: '8 mA',
           capacitance: '47u',
-          chargedVoltage: { ref: `${p('peak')}.noLoadDcHigh` },
-          bleederResistance: '220k',
+          element: 'choke',
+          inductance: '5 H',
+          fittedResistance: '150',
         },
-      },
-      {
-        name: p('reading'),
-        kind: 'reading-tolerance',
-        inputs: {
-          unit: 'V',
-          expected: { ref: `${p('ladder')}.stage1.nodeVoltage` },
-          tolerance: '±10 %',
-          measured: 318 + (i % 3),
-        },
-      },
-    );
-  }
-  return blocks;
+        { targetVoltage: '260 V', current: '2 mA', capacitance: '22u' },
+      ],
+    }),
+    at('choke-input', {
+      windingVoltage: ref('peak-no-load', 'windingVoltage'),
+      loadCurrent: `${150 + (i % 5)} mA`,
+      mainsFrequency: { param: 'mainsFrequency' },
+    }),
+    at('heater-budget', {}),
+    at('mains-fuse', {
+      windings: [
+        { volts: ref('peak-no-load', 'windingVoltage'), amps: ref('loaded-bplus', 'windingRmsCurrent') },
+        { volts: '6.3 V', amps: ref('heater-budget', 'totalCurrent') },
+      ],
+      mainsVoltage: { param: 'mainsNominal' },
+    }),
+    at('switch-on-surge', {
+      windingVoltage: ref('peak-no-load', 'windingVoltage'),
+      mainsVoltage: { param: 'mainsNominal' },
+      mainsFrequency: { param: 'mainsFrequency' },
+    }),
+    at('rectifier-substitution', { loadCurrent: `${90 + (i % 5)} mA` }),
+    at('part-ratings', { loadCurrent: `${90 + (i % 5)} mA`, mainsFrequency: { param: 'mainsFrequency' } }),
+    at('mains-conversion', {}),
+    at('bleeder', { chargedVoltage: ref('peak-no-load', 'noLoadDcHigh') }),
+    at('reading-tolerance', {
+      expected: ref('dropper-ladder', 'stage1.nodeVoltage'),
+      measured: 318 + (i % 3),
+    }),
+  ];
 }
 
-time('30-block procedure (5 × 6 blocks)', 100, 20, (i) => {
-  const r = evaluateProcedure(procedure(i), { mainsVoltage: 236, mainsNominal: 230, mainsFrequency: 50 });
+/** 30 blocks: two chains of every kind (13 each), and the two solver blocks once more with their sources. */
+function procedure(i: number): ProcedureBlock[] {
+  const again = new Set(['peak-no-load', 'transformer-loading', 'loaded-bplus', 'part-ratings']);
+  return [...chain(0, i), ...chain(1, i), ...chain(2, i).filter((b) => again.has(b.kind))];
+}
+
+time('30-block procedure (every kind)', 100, 20, (i) => {
+  const blocks = procedure(i);
+  const kinds = new Set(blocks.map((b) => b.kind));
+  if (blocks.length !== 30 || RECKONER_KINDS.some((k) => !kinds.has(k)))
+    throw new Error(
+      `${blocks.length} blocks, missing ${RECKONER_KINDS.filter((k) => !kinds.has(k)).join(', ')}`,
+    );
+  const r = evaluateProcedure(blocks, { mainsVoltage: 236, mainsNominal: 230, mainsFrequency: 50 });
   const bad = r.blocks.filter((b) => !b.ok);
   if (bad.length || r.errors.length) throw new Error(JSON.stringify({ bad, errors: r.errors }));
 });

@@ -138,6 +138,18 @@ describe('content-seed procedures', () => {
     expect(files.length).toBeGreaterThanOrEqual(4);
   });
 
+  it('the demo library uses the choke-input, LC-section, rectifier-swap, mains-conversion and part-rating blocks', () => {
+    const blocks = files.flatMap((f) => extractBlocks(validDoc(load(f))).reckoners);
+    const kinds = new Set(blocks.map((r) => r.kind));
+    for (const kind of ['choke-input', 'rectifier-substitution', 'mains-conversion', 'part-ratings'])
+      expect(kinds, kind).toContain(kind);
+    const lcStages = blocks
+      .filter((r) => r.kind === 'dropper-ladder')
+      .flatMap((r) => (r.inputs as unknown as { stages: { element?: string }[] }).stages)
+      .filter((st) => st.element === 'choke');
+    expect(lcStages.length).toBeGreaterThan(0);
+  });
+
   it('seed keys are unique and match their file names', () => {
     const keys = files.map((f) => load(f).seedKey);
     expect(new Set(keys).size).toBe(keys.length);
@@ -151,7 +163,7 @@ describe('content-seed procedures', () => {
       expect(seed.seedKey).toMatch(/^[a-z0-9][a-z0-9-]{2,60}$/);
       expect(seed.title.trim().length).toBeGreaterThan(5);
       expect(['Guitar amplifier', 'Hi-fi amplifier', 'Table radio']).toContain(seed.equipmentFamily);
-      expect(['TC-18', 'TC-30H', 'TC-5R']).toContain(seed.equipmentModel);
+      expect(['TC-18', 'TC-30H', 'TC-35M', 'TC-5R']).toContain(seed.equipmentModel);
       expect(Array.isArray(seed.tags) && seed.tags.length > 0).toBe(true);
       for (const t of seed.tags) expect(typeof t === 'string' && t.trim().length > 0).toBe(true);
       expect(paramsSchema.safeParse(seed.params).success).toBe(true);

@@ -16,6 +16,8 @@ export interface Circuit {
   /** A constant-current load (A) or a resistive one (Ω). */
   load: { current: number } | { resistance: number };
   stepsPerHalfCycle?: number;
+  /** Settled when a half-cycle changes the start voltage by less than this × V_pk (default 1e-10). */
+  settleTolerance?: number;
 }
 
 export function solveByRk4(p: Circuit) {
@@ -39,7 +41,7 @@ export function solveByRk4(p: Circuit) {
   for (let half = 0; half < 3000 && !settled; half++) {
     const start = v;
     for (let j = 0; j < n; j++, step++) v = rk4(step * h, v);
-    settled = half > 4 && Math.abs(v - start) < 1e-10 * p.vPeak;
+    settled = half > 4 && Math.abs(v - start) < (p.settleTolerance ?? 1e-10) * p.vPeak;
   }
   // Sample one ripple period (half a mains cycle); uniform samples over a whole period give the means.
   const vs: number[] = [];

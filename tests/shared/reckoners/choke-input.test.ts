@@ -1,56 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectClose, fieldErrors, num, run } from '../helpers';
-
-/**
- * The choke-input circuit integrated in time (classical RK4, docs/references.md §3, §7), not through
- * the Fourier approximation the reckoner uses: an ideal full-wave rectifier (no drop) feeding
- * L (with series R) into C ∥ R_load. The rectifier cannot pass negative current, so the inductor
- * current is clamped at zero — the choke then stops conducting for part of each cycle.
- */
-function simulateChokeInput(o: {
-  vRms: number;
-  f: number;
-  L: number;
-  rSeries: number;
-  C: number;
-  rLoad: number;
-}) {
-  const vPk = Math.SQRT2 * o.vRms;
-  const w = 2 * Math.PI * o.f;
-  const period = 1 / o.f;
-  const h = period / 4000;
-  // Start near the steady state so a few hundred cycles settle it.
-  let v = 0.9 * o.vRms;
-  let i = v / o.rLoad;
-  const deriv = (t: number, iL: number, vC: number) => {
-    const e = Math.abs(vPk * Math.sin(w * t));
-    let di = (e - vC - o.rSeries * iL) / o.L;
-    if (iL <= 0 && di < 0) di = 0;
-    return [di, (iL - vC / o.rLoad) / o.C] as const;
-  };
-  const settle = 12 * o.rLoad * o.C + 40 * period;
-  const cycles = Math.ceil(settle / period) + 4;
-  let minI = Infinity;
-  let sumV = 0;
-  let sumV2 = 0;
-  let samples = 0;
-  for (let k = 0, t = 0; k < cycles * 4000; k++, t += h) {
-    const [a1, b1] = deriv(t, i, v);
-    const [a2, b2] = deriv(t + h / 2, i + (h / 2) * a1, v + (h / 2) * b1);
-    const [a3, b3] = deriv(t + h / 2, i + (h / 2) * a2, v + (h / 2) * b2);
-    const [a4, b4] = deriv(t + h, i + h * a3, v + h * b3);
-    i = Math.max(0, i + (h / 6) * (a1 + 2 * a2 + 2 * a3 + a4));
-    v += (h / 6) * (b1 + 2 * b2 + 2 * b3 + b4);
-    if (k >= (cycles - 4) * 4000) {
-      minI = Math.min(minI, i);
-      sumV += v;
-      sumV2 += v * v;
-      samples++;
-    }
-  }
-  const mean = sumV / samples;
-  return { minCurrent: minI, dc: mean, rippleRms: Math.sqrt(Math.max(0, sumV2 / samples - mean * mean)) };
-}
+import { simulateChokeInput } from './filter-sections-rk4';
 
 const base = {
   windingVoltage: '350 V',
