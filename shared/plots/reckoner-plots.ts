@@ -2,6 +2,7 @@ import type { ResolvedReading } from '../document/evaluate';
 import type { BlockResult } from '../reckoners';
 import type { ReckonerKind } from '../reckoners/registry';
 import type { PlotBlock, PlotModel } from './reckoner-plot';
+import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
 
 type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotModel | null;
@@ -9,6 +10,7 @@ type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotMo
 /** The one list of reckoner pictures: a kind here is drawn in its card (reader, review, editor). */
 export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   'loaded-bplus': ripplePlot,
+  'dropper-ladder': ladderPlot,
 };
 
 export const hasPlot = (kind: string): kind is keyof typeof RECKONER_PLOTS =>
