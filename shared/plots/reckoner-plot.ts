@@ -59,9 +59,10 @@ export function linearAxis(values: number[], range: [number, number], label: str
   return { scale, ticks, format: (v) => fmt(v), label };
 }
 
-/** A log axis over whole decades, ticked at 1, 2 and 5 of each decade (all of them when few decades). */
+/** A log axis over whole decades (values > 0), ticked at 1, 2 and 5 of each decade (all of them when few decades). */
 export function logAxis(values: number[], range: [number, number], label: string): PlotAxis {
-  const lo = 10 ** Math.floor(Math.log10(Math.min(...values)));
+  // A value near a decade's foot would sit on the axis itself: the decade below is added.
+  const lo = 10 ** Math.floor(Math.log10(0.8 * Math.min(...values)));
   const hi = 10 ** Math.ceil(Math.log10(Math.max(...values)));
   const scale = scaleLog<number>({ domain: [lo, hi === lo ? lo * 10 : hi], range });
   const ticks = scale.ticks().filter((t) => {

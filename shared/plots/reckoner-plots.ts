@@ -2,6 +2,7 @@ import type { ResolvedReading } from '../document/evaluate';
 import type { BlockResult } from '../reckoners';
 import type { ReckonerKind } from '../reckoners/registry';
 import type { PlotBlock, PlotModel } from './reckoner-plot';
+import { dischargePlot } from './discharge';
 import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
 
@@ -11,6 +12,7 @@ type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotMo
 export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   'loaded-bplus': ripplePlot,
   'dropper-ladder': ladderPlot,
+  bleeder: dischargePlot,
 };
 
 export const hasPlot = (kind: string): kind is keyof typeof RECKONER_PLOTS =>
