@@ -1,5 +1,5 @@
 import { AxisBottom, AxisLeft } from '@visx/axis';
-import { GridRows } from '@visx/grid';
+import { GridColumns, GridRows } from '@visx/grid';
 import { AxisTitle, TickLabel } from './parts';
 import type { LegendSign, LineStyle, MarkShape, PlotModel } from './reckoner-plot';
 import { PLOT_COLOURS, PLOT_FONTS } from './theme';
@@ -52,6 +52,7 @@ function LegendMark({ x, y, sign }: { x: number; y: number; sign: LegendSign }) 
       />
     );
   if ('shape' in sign) return <ShapeMark x={x} y={y} shape={sign.shape} r={5} />;
+  if ('bar' in sign) return <rect x={x - 9} y={y - 5} width={18} height={10} fill={PLOT_COLOURS.accent} />;
   return (
     <line
       x1={x - 9}
@@ -115,14 +116,25 @@ export function ReckonerPlotSvg({
           );
         })}
       </g>
-      <GridRows
-        scale={m.y.scale}
-        tickValues={m.y.ticks}
-        left={left}
-        width={right - left}
-        stroke={PLOT_COLOURS.rule}
-        strokeDasharray="3 3"
-      />
+      {m.grid === 'columns' ? (
+        <GridColumns
+          scale={m.x.scale}
+          tickValues={m.x.ticks}
+          top={top}
+          height={bottom - top}
+          stroke={PLOT_COLOURS.rule}
+          strokeDasharray="3 3"
+        />
+      ) : (
+        <GridRows
+          scale={m.y.scale}
+          tickValues={m.y.ticks}
+          left={left}
+          width={right - left}
+          stroke={PLOT_COLOURS.rule}
+          strokeDasharray="3 3"
+        />
+      )}
       {m.bands.map((b) => (
         <rect
           key={b.key}
@@ -134,6 +146,19 @@ export function ReckonerPlotSvg({
           fill={PLOT_COLOURS.accentWash}
           stroke={PLOT_COLOURS.accent}
           strokeWidth={0.5}
+        >
+          <title>{b.title}</title>
+        </rect>
+      ))}
+      {m.bars?.map((b) => (
+        <rect
+          key={b.key}
+          data-bar={b.key}
+          x={Math.min(b.x0, b.x1)}
+          y={Math.min(b.y0, b.y1)}
+          width={Math.max(1, Math.abs(b.x1 - b.x0))}
+          height={Math.abs(b.y1 - b.y0)}
+          fill={PLOT_COLOURS.accent}
         >
           <title>{b.title}</title>
         </rect>
@@ -190,9 +215,11 @@ export function ReckonerPlotSvg({
         stroke={PLOT_COLOURS.graphiteSoft}
         tickStroke={PLOT_COLOURS.graphiteSoft}
       />
-      <AxisTitle x={16} y={(top + bottom) / 2} rotate>
-        {m.y.label}
-      </AxisTitle>
+      {m.y.label && (
+        <AxisTitle x={16} y={(top + bottom) / 2} rotate>
+          {m.y.label}
+        </AxisTitle>
+      )}
       <AxisTitle x={(left + right) / 2} y={m.height - 10}>
         {m.x.label}
       </AxisTitle>

@@ -17,7 +17,8 @@ export type PlotBlock = Extract<BlockResult, { ok: true }>;
 /** Marks differ by shape, not colour alone (WCAG 2.1 SC 1.4.1, docs/references.md §11). */
 export type MarkShape = 'circle' | 'triangle' | 'square' | 'diamond';
 export type LineStyle = 'solid' | 'dashed' | 'dotted';
-export type LegendSign = { line: LineStyle; strong?: boolean } | { shape: MarkShape } | { band: true };
+export type LegendSign =
+  { line: LineStyle; strong?: boolean } | { shape: MarkShape } | { band: true } | { bar: true };
 
 type Scale = ReturnType<typeof scaleLinear<number>> | ReturnType<typeof scaleLog<number>>;
 
@@ -39,7 +40,11 @@ export interface PlotModel {
   height: number;
   x: PlotAxis;
   y: PlotAxis;
-  /** Shaded rectangles (tolerance bands, ratings), in pixels. */
+  /** Which ticks the dashed grid follows: the value axis is y (rows) unless the bars run along x (columns). */
+  grid?: 'rows' | 'columns';
+  /** Solid bars (a load), in pixels. */
+  bars?: { key: string; x0: number; x1: number; y0: number; y1: number; title: string }[];
+  /** Shaded rectangles (tolerance bands, margins), in pixels. */
   bands: { key: string; x0: number; x1: number; y0: number; y1: number; title: string }[];
   lines: { key: string; points: [number, number][]; style: LineStyle; strong?: boolean; title?: string }[];
   marks: { key: string; x: number; y: number; shape: MarkShape; title: string }[];

@@ -2,6 +2,7 @@ import type { ResolvedReading } from '../document/evaluate';
 import type { BlockResult } from '../reckoners';
 import type { ReckonerKind } from '../reckoners/registry';
 import type { PlotBlock, PlotModel } from './reckoner-plot';
+import { heaterPlot, transformerPlot } from './bars';
 import { dischargePlot } from './discharge';
 import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
@@ -13,6 +14,8 @@ export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   'loaded-bplus': ripplePlot,
   'dropper-ladder': ladderPlot,
   bleeder: dischargePlot,
+  'heater-budget': heaterPlot,
+  'transformer-loading': transformerPlot,
 };
 
 export const hasPlot = (kind: string): kind is keyof typeof RECKONER_PLOTS =>

@@ -19,6 +19,7 @@ const PICTURES = [
   { name: 'bplus: reservoir voltage over two ripple periods', units: ['(ms)', '(V DC)'] },
   { name: 'ladder: node voltages down the ladder', units: ['(V DC)'] },
   { name: 'bleed: discharge after switch-off', units: ['(s)', 'V DC'] },
+  { name: 'heaters: heater current against the winding rating', units: ['(A rms)'] },
 ];
 
 describe('reckoner pictures in the reader, in Chromium', () => {
@@ -32,13 +33,13 @@ describe('reckoner pictures in the reader, in Chromium', () => {
       const description = await svg.evaluate(
         (el) => document.getElementById(el.getAttribute('aria-describedby')!)!.textContent!,
       );
-      expect(description, p.name).toMatch(/\d+(\.\d+)? (V|s)\b/);
+      expect(description, p.name).toMatch(/\d+(\.\d+)? (V|s|A)\b/);
       const text = await svg.evaluate((el) =>
         [...el.querySelectorAll('text')].map((t) => t.textContent).join('|'),
       );
       for (const unit of p.units) expect(text, `${p.name}: axis titles`).toContain(unit);
-      // Marks and lines were drawn, not just the frame.
-      expect(await svg.locator('polyline').count(), p.name).toBeGreaterThan(0);
+      // Marks were drawn, not just the frame.
+      expect(await svg.locator('polyline, [data-bar]').count(), p.name).toBeGreaterThan(0);
       const figure = page.locator('figure').filter({ has: svg });
       await figure.getByText('The plotted figures as a table').click();
       expect(await figure.getByRole('row').count(), p.name).toBeGreaterThan(1);
