@@ -6,6 +6,7 @@ import { heaterPlot, transformerPlot } from './bars';
 import { dischargePlot } from './discharge';
 import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
+import { surgePlot } from './surge';
 
 type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotModel | null;
 
@@ -16,6 +17,7 @@ export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   bleeder: dischargePlot,
   'heater-budget': heaterPlot,
   'transformer-loading': transformerPlot,
+  'switch-on-surge': surgePlot,
 };
 
 export const hasPlot = (kind: string): kind is keyof typeof RECKONER_PLOTS =>
