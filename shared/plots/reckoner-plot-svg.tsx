@@ -80,7 +80,8 @@ export function ReckonerPlotSvg({
   className?: string;
 }) {
   const [left, right] = m.x.scale.range() as [number, number];
-  const [bottom, top] = m.y.scale.range() as [number, number];
+  // A value axis runs upwards; rows of bars run downwards: either way the frame is the range's ends.
+  const [top, bottom] = [Math.min(...m.y.scale.range()), Math.max(...m.y.scale.range())];
   let legendAt = left + 8;
   return (
     <svg
