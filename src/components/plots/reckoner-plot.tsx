@@ -1,4 +1,4 @@
-import { useId } from 'react';
+import { useId, useMemo } from 'react';
 import type { ResolvedReading } from '@shared/document/evaluate';
 import { plotFor } from '@shared/plots/reckoner-plots';
 import { ReckonerPlotSvg } from '@shared/plots/reckoner-plot-svg';
@@ -14,7 +14,8 @@ export default function ReckonerPlot({
   readings: readonly ResolvedReading[];
 }) {
   const id = useId();
-  const model = plotFor(block, readings);
+  // The editor renders on every keystroke; the ripple picture solves the circuit again.
+  const model = useMemo(() => plotFor(block, readings), [block, readings]);
   if (!model) return null;
   return (
     <div className="mt-3" data-reckoner-plot={model.plot}>
