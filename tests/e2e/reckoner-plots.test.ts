@@ -45,4 +45,27 @@ describe('reckoner pictures in the reader, in Chromium', () => {
       expect(await figure.getByRole('row').count(), p.name).toBeGreaterThan(1);
     }
   });
+
+  it('draws the same picture in the editor’s reckoner card, from the live evaluation', async () => {
+    const page = await openPage();
+    await app.signIn(page, 'hal');
+    const draftId = await page.evaluate(async () => {
+      const session = await (await fetch('/api/auth/session')).json();
+      const list = await (await fetch('/api/procedures')).json();
+      const proc = list.procedures.find(
+        (p: { equipmentModel: string; approved: unknown }) => p.equipmentModel === 'TC-18' && p.approved,
+      );
+      const made = await fetch(`/api/procedures/${proc.id}/drafts`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/json', 'X-CSRF-Token': session.csrfToken as string },
+        body: '{}',
+      });
+      return (await made.json()).revision.id as string;
+    });
+    await page.goto(`${app.url}/revisions/${draftId}/edit`);
+    const ladder = page.getByRole('img', { name: PICTURES[1]!.name, exact: true });
+    await ladder.waitFor();
+    // The readings' bands on the ladder's nodes come from the editor's own evaluation.
+    expect(await ladder.locator('[data-band]').count()).toBeGreaterThan(0);
+  });
 });
