@@ -22,7 +22,6 @@ const shorten = (s: string, n: number) => (s.length > n ? `${s.slice(0, n - 1)}â
 
 /** Horizontal bars of a load, each against its rating (a dashed line and a hollow diamond). */
 function barsPlot(o: {
-  block: PlotBlock;
   plot: string;
   title: string;
   unit: string;
@@ -163,7 +162,6 @@ export function heaterPlot(block: PlotBlock): PlotModel {
     },
   ];
   return barsPlot({
-    block,
     plot: 'heater-budget',
     title: `${block.name}: heater current against the winding rating`,
     unit: 'A',
@@ -178,7 +176,6 @@ export function transformerPlot(block: PlotBlock): PlotModel {
   const input = block.input as TransformerLoadingInput;
   const total = block.outputs.totalVA!.value as number;
   return barsPlot({
-    block,
     plot: 'transformer-loading',
     title: `${block.name}: load per winding against its rating`,
     unit: 'VA',

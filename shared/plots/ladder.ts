@@ -36,17 +36,14 @@ export function ladderPlot(block: PlotBlock, readings: readonly ResolvedReading[
       name: 'Start',
       volts: input.startVoltage,
       target: null,
-      bands:
-        startRef?.kind === 'ref'
-          ? readings.filter((r) => r.expectedSource === startRef.ref && r.low !== null && r.high !== null)
-          : [],
+      bands: startRef?.kind === 'ref' ? readingsOf(startRef.ref, readings) : [],
     },
     ...input.stages.map((st, i) => ({
       key: `stage${i + 1}`,
       name: st.label || `Stage ${i + 1}`,
       volts: block.outputs[`stage${i + 1}.nodeVoltage`]!.value as number,
       target: st.targetVoltage,
-      bands: readingsOf(block, `stage${i + 1}.nodeVoltage`, readings),
+      bands: readingsOf(`${block.name}.stage${i + 1}.nodeVoltage`, readings),
     })),
   ];
   const v = (volts: number) => formatQuantity(volts, 'V', 4);

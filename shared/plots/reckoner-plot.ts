@@ -80,6 +80,6 @@ export function logAxis(values: number[], range: [number, number], label: string
 export const FRAME_X: [number, number] = [RECKONER_FRAME.left, RECKONER_FRAME.width - RECKONER_FRAME.right];
 export const FRAME_Y: [number, number] = [RECKONER_FRAME.height - RECKONER_FRAME.bottom, RECKONER_FRAME.top];
 
-/** The readings whose expected value is this block's output: their bands belong on its picture. */
-export const readingsOf = (block: PlotBlock, output: string, readings: readonly ResolvedReading[]) =>
-  readings.filter((r) => r.expectedSource === `${block.name}.${output}` && r.low !== null && r.high !== null);
+/** The readings whose expected value is this output ("block.output"): their bands belong on its picture. */
+export const readingsOf = (source: string, readings: readonly ResolvedReading[]) =>
+  readings.filter((r) => r.expectedSource === source && r.low !== null && r.high !== null);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ResolvedReading } from '../../../shared/document/evaluate';
 import { plotFor } from '../../../shared/plots/reckoner-plots';
+import { evaluateProcedure } from '../../../shared/reckoners';
 import { evaluatedBlock, expectRoundTicks, lerp, markup } from './reckoner-plot-helpers';
 
 // Three RC stages with fitted resistors: each node is the one before less R × (its current and every later one's).
@@ -91,5 +92,36 @@ describe('the B+ ladder staircase', () => {
     expect(dom(model.y)[0]).toBeLessThanOrEqual(193.6);
     expect(dom(model.y)[1]).toBeGreaterThanOrEqual(330);
     expect(model.y.label).toBe('Node voltage (V DC)');
+  });
+
+  it('carries the band of the output the start node is taken from', () => {
+    const { blocks } = evaluateProcedure([
+      {
+        kind: 'loaded-bplus',
+        name: 'bplus',
+        inputs: {
+          windingVoltage: '250 V',
+          sourceResistance: '60',
+          reservoir: '47u',
+          loadCurrent: '0.12 A',
+          rectifier: 'silicon-bridge',
+        },
+      },
+      {
+        kind: 'dropper-ladder',
+        name: 'ladder',
+        inputs: {
+          startVoltage: { ref: 'bplus.averageDc' },
+          stages: [{ targetVoltage: '250 V', current: '10 mA', capacitance: '22u' }],
+        },
+      },
+    ]);
+    const linked = plotFor(blocks[1], [reading('B+1', 'bplus.averageDc', 280, 340)])!;
+    expect(linked.bands).toHaveLength(1);
+    expect((linked.bands[0]!.x0 + linked.bands[0]!.x1) / 2).toBeCloseTo(
+      lerp(0, dom(linked.x), rng(linked.x)),
+      6,
+    );
+    expect(linked.table.rows[0]!.cells[3]).toMatch(/^B\+1: /);
   });
 });
