@@ -117,6 +117,27 @@ function steadyStart(pr: Prepared): number {
 }
 
 export function simulateCapacitorInput(p: CapInputParams): CapInputResult {
+  return solve(p).result;
+}
+
+/** The steady-state reservoir voltage over one ripple period (a half-cycle of the mains), with the figures it gives. */
+export interface CapInputWaveform {
+  result: CapInputResult;
+  /** The ripple period, s. */
+  period: number;
+  /** Time from the source's zero crossing at each sample, s (evenly spaced, first 0, last the period). */
+  times: Float64Array;
+  /** Reservoir voltage at each sample, V. */
+  volts: Float64Array;
+}
+
+/** The same solution as simulateCapacitorInput, with the samples it averaged, for drawing. */
+export function reservoirWaveform(p: CapInputParams): CapInputWaveform {
+  const { result, vs, pr } = solve(p);
+  return { result, period: pr.n * pr.h, times: Float64Array.from(vs, (_, k) => k * pr.h), volts: vs };
+}
+
+function solve(p: CapInputParams) {
   const pr = prepare(p);
   const v0 = steadyStart(pr);
   const { n, e } = pr;
@@ -153,7 +174,7 @@ export function simulateCapacitorInput(p: CapInputParams): CapInputResult {
   const rippleVar = mean((k) => (vs[k]! - avg) ** 2);
   const idSq = mean((k) => id[k]! ** 2);
   const capSq = mean((k) => (id[k]! - I) ** 2);
-  return {
+  const result: CapInputResult = {
     averageDc: avg,
     minimum: min,
     maximum: max,
@@ -164,6 +185,7 @@ export function simulateCapacitorInput(p: CapInputParams): CapInputResult {
     capacitorRmsCurrent: Math.sqrt(capSq),
     conductionFraction: conducting / n,
   };
+  return { result, vs, pr };
 }
 
 /** Light-ripple approximation, full-wave: ΔV_pp ≈ I / (2 f C) [derived]. */

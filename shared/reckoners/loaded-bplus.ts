@@ -4,7 +4,7 @@
  */
 import { formatQuantity } from '../units/format';
 import { compact, hazardousVoltage, LOCAL_CODES, storedEnergy } from './cautions';
-import { simulateCapacitorInput, CapInputOverload } from './capacitor-input';
+import { simulateCapacitorInput, CapInputOverload, type CapInputParams } from './capacitor-input';
 import { ReckonerInputError } from './errors';
 import { defineInputs, optionalQuantity, quantity, type InputOf } from './fields';
 import { n, q, SRC } from './outputs';
@@ -71,10 +71,21 @@ const shape = {
 const { schema: inputs, fields } = defineInputs(shape);
 export type LoadedBplusInput = InputOf<typeof shape>;
 
+/** The circuit the solver is given for a block's inputs (the ripple plot draws the same one). */
+export function loadedBplusCircuit(input: LoadedBplusInput): CapInputParams {
+  return {
+    vPeak: Math.SQRT2 * input.windingVoltage,
+    drop: input.rectifier === 'valve' ? input.valveDrop : diodesInPath(input.rectifier) * input.diodeDrop,
+    rSource: input.sourceResistance,
+    capacitance: input.reservoir,
+    frequency: input.mainsFrequency,
+    loadCurrent: input.loadCurrent,
+  };
+}
+
 function compute(input: LoadedBplusInput): ReckonerResult {
-  const drop =
-    input.rectifier === 'valve' ? input.valveDrop : diodesInPath(input.rectifier) * input.diodeDrop;
-  const vPeak = Math.SQRT2 * input.windingVoltage;
+  const circuit = loadedBplusCircuit(input);
+  const { drop, vPeak } = circuit;
   if (vPeak <= drop)
     throw new ReckonerInputError(
       'windingVoltage',
@@ -82,14 +93,7 @@ function compute(input: LoadedBplusInput): ReckonerResult {
     );
   let r;
   try {
-    r = simulateCapacitorInput({
-      vPeak,
-      drop,
-      rSource: input.sourceResistance,
-      capacitance: input.reservoir,
-      frequency: input.mainsFrequency,
-      loadCurrent: input.loadCurrent,
-    });
+    r = simulateCapacitorInput(circuit);
   } catch (e) {
     if (e instanceof CapInputOverload)
       throw new ReckonerInputError(

@@ -1,18 +1,21 @@
-import type { BlockSnapshot } from '@shared/document/evaluate';
+import type { BlockSnapshot, ResolvedReading } from '@shared/document/evaluate';
 import { Figure } from '@/components/ui/figure';
 import { inputLabel } from '@shared/document/block-view';
 import { getReckoner, type FieldError } from '@shared/reckoners';
 import { withLabel } from '@shared/schemas/problems';
+import { LazyReckonerPlot } from '@/components/plots/lazy-reckoner-plot';
 import { CautionList } from '@/features/procedures/components/caution-list';
 
 interface Props {
   result: BlockSnapshot | undefined;
   unclaimed: FieldError[];
   failure: string | null;
+  /** The document's readings: bands on the block's outputs are drawn on its picture. */
+  readings?: readonly ResolvedReading[];
 }
 
 /** The live outputs of a reckoner (value + unit, explanation) and its cautions, or why there are none. */
-export function ReckonerResults({ result, unclaimed, failure }: Props) {
+export function ReckonerResults({ result, unclaimed, failure, readings = [] }: Props) {
   if (failure)
     return (
       <p className="mt-3 text-sm text-out" role="alert">
@@ -52,6 +55,7 @@ export function ReckonerResults({ result, unclaimed, failure }: Props) {
           </div>
         ))}
       </dl>
+      <LazyReckonerPlot block={result} readings={readings} />
       <CautionList cautions={result.cautions} />
     </div>
   );

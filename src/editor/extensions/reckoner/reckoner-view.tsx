@@ -111,7 +111,12 @@ export function ReckonerView({ node, updateAttributes, deleteNode, selected }: N
         </p>
       )}
       <div className="mt-3 grid grid-cols-1 gap-3 sm:grid-cols-2">{form}</div>
-      <ReckonerResults result={result} unclaimed={unclaimed} failure={evaluation.failure} />
+      <ReckonerResults
+        result={result}
+        unclaimed={unclaimed}
+        failure={evaluation.failure}
+        readings={evaluation.snapshot?.readings}
+      />
     </BlockFrame>
   );
 }

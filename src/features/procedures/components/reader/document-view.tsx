@@ -60,7 +60,13 @@ const VIEWS: { [T in NodeType]: (p: ViewProps<T>) => ReactNode } = {
   horizontalRule: ({ key }) => <hr key={key} />,
   hardBreak: ({ key }) => <br key={key} />,
   reckoner: ({ a, key, stored }) => (
-    <ReckonerCard key={key} name={a.name} view={stored.reckoners.get(a.id)} />
+    <ReckonerCard
+      key={key}
+      name={a.name}
+      view={stored.reckoners.get(a.id)}
+      block={stored.snapshot.blocks.find((b) => b.id === a.id)}
+      readings={stored.snapshot.readings}
+    />
   ),
   hazardNote: ({ a, key, kids }) => (
     <HazardBox key={key} level={a.level} flags={hazardFlagList(a)}>

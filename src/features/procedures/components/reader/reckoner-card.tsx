@@ -1,5 +1,7 @@
 import type { BlockView } from '@shared/document/block-view';
 import { withLabel } from '@shared/schemas/problems';
+import type { BlockSnapshot, ResolvedReading } from '@shared/document/evaluate';
+import { LazyReckonerPlot } from '@/components/plots/lazy-reckoner-plot';
 import { CautionList } from '../caution-list';
 import { BlockInputs } from './block-inputs';
 import { Figure } from '@/components/ui/figure';
@@ -7,7 +9,18 @@ import { Figure } from '@/components/ui/figure';
 const heading = 'text-xs font-semibold uppercase tracking-wide text-graphite-soft';
 
 /** A reckoner as the reader and reviewer see it: what it assumes beside what it gives, in the author's order. */
-export function ReckonerCard({ view, name }: { view: BlockView | undefined; name: string }) {
+export function ReckonerCard({
+  view,
+  name,
+  block,
+  readings,
+}: {
+  view: BlockView | undefined;
+  name: string;
+  /** The stored result, for the block's picture. */
+  block?: BlockSnapshot;
+  readings?: readonly ResolvedReading[];
+}) {
   return (
     <section className="not-prose my-4 rounded-lg border border-rule bg-card p-4" data-reckoner={name}>
       <h3 className="text-sm font-semibold uppercase tracking-wide text-accent-deep">
@@ -45,6 +58,7 @@ export function ReckonerCard({ view, name }: { view: BlockView | undefined; name
                     </div>
                   ))}
                 </dl>
+                <LazyReckonerPlot block={block} readings={readings ?? []} />
                 <div className="mt-3">
                   <CautionList cautions={view.cautions} />
                 </div>

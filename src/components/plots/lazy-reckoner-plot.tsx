@@ -1,0 +1,21 @@
+import { lazy, Suspense } from 'react';
+import type { ResolvedReading } from '@shared/document/evaluate';
+import type { BlockResult } from '@shared/reckoners';
+
+const ReckonerPlot = lazy(() => import('./reckoner-plot'));
+
+/**
+ * Where a reckoner card puts its picture: the plotting code (visx) loads only when a card with a
+ * working result is shown, and the lazy module draws nothing for a kind without a picture.
+ */
+export function LazyReckonerPlot(props: {
+  block: BlockResult | undefined;
+  readings: readonly ResolvedReading[];
+}) {
+  if (!props.block?.ok) return null;
+  return (
+    <Suspense fallback={null}>
+      <ReckonerPlot {...props} />
+    </Suspense>
+  );
+}
