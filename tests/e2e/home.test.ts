@@ -30,6 +30,11 @@ describe('home page in Chromium', () => {
     await runs.getByRole('link', { name: /TC30H-0088/ }).click();
     await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/);
     await page.getByRole('heading', { level: 1 }).waitFor();
+    // The demo approved revision 2 of the bleeder retrofit after this run started on revision 1.
+    const warning = page.locator('[data-superseded]');
+    await warning.waitFor();
+    expect(await warning.innerText()).toContain('Revision 2 replaced revision 1');
+    await warning.getByRole('link', { name: 'Open revision 2' }).waitFor();
 
     await page.goBack();
     const acks = section(page, 'acknowledgements');
