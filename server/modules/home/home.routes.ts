@@ -10,6 +10,9 @@ export const homeRoutes = [
     summary:
       'What waits for the caller, by their roles: their runs in progress, runs to co-sign as witness, revisions to acknowledge, reviews, their drafts and returned revisions, reviews due, instruments falling due; each with a count and the first few items',
     handler: async ({ user, deps }) =>
-      homeView(deps.db, user!, deps.config.reviewIntervalMonths ?? DEFAULT_REVIEW_INTERVAL_MONTHS),
+      homeView(deps.db, user!, {
+        months: deps.config.reviewIntervalMonths ?? DEFAULT_REVIEW_INTERVAL_MONTHS,
+        files: deps.files,
+      }),
   }),
 ];

@@ -17,10 +17,14 @@ import type { Role } from '../../../shared/schemas/roles';
 import type { Db } from '../../db/client';
 import { instruments, revisions, runs, units } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
+import type { FileStore } from '../../storage/files';
 import { dueReviews } from '../review-due/review-due.service';
+import { loadRunView } from '../runs/run-view';
 import { reviewQueue } from '../review/review-view';
 
 type Items = Omit<HomeItem, 'urgent'> & { urgent?: boolean };
+/** The shop's review interval, and the file store (a co-signature covers the run's photos' bytes). */
+type Context = { months: number; files: FileStore };
 
 /** One row per section: who sees it, its words and where its whole list lives, and how its items are found. */
 const SECTIONS: Record<
@@ -30,7 +34,7 @@ const SECTIONS: Record<
     title: string;
     href: string;
     linkLabel: string;
-    items: (db: Db, user: SessionUser, months: number) => Promise<Items[]>;
+    items: (db: Db, user: SessionUser, ctx: Context) => Promise<Items[]>;
   }
 > = {
   runs: {
@@ -67,25 +71,23 @@ const SECTIONS: Record<
     title: 'Runs I witness, to co-sign',
     href: paths.runs.href(),
     linkLabel: 'All bench runs',
-    items: async (db, user) => {
+    // Open runs naming me as witness, unless my co-signature covers the run as it stands now
+    // (decided as the run page decides it, so a later entry brings the run back here).
+    items: async (db, user, { files }) => {
       const rows = await db
-        .select({ id: runs.id, title: runs.title, model: units.model, serial: units.serial })
+        .select({ id: runs.id })
         .from(runs)
-        .innerJoin(units, eq(units.id, runs.unitId))
-        .where(
-          and(
-            eq(runs.witnessId, user.id),
-            eq(runs.status, 'in_progress'),
-            sql`not exists (select 1 from run_witness_signatures w where w.run_id = ${runs.id} and w.signer_id = ${user.id})`,
-          ),
-        )
+        .where(and(eq(runs.witnessId, user.id), eq(runs.status, 'in_progress')))
         .orderBy(asc(runs.startedAt));
-      return rows.map((r) => ({
-        id: r.id,
-        label: `${r.model} ${r.serial}`,
-        detail: r.title,
-        href: paths.run.href(r.id),
-      }));
+      const views = await Promise.all(rows.map((r) => loadRunView(db, files, r.id)));
+      return views
+        .filter((v) => !v.hold && !v.witness?.signature?.current)
+        .map((v) => ({
+          id: v.id,
+          label: `${v.unit.model} ${v.unit.serial}`,
+          detail: `${v.title}, performed by ${v.performedBy.displayName}${v.witness?.signature ? ' (changed since your co-signature)' : ''}`,
+          href: paths.run.href(v.id),
+        }));
     },
   },
   acknowledgements: {
@@ -164,7 +166,7 @@ const SECTIONS: Record<
     title: 'Procedures due for periodic review',
     href: paths.reviewDue.href(),
     linkLabel: 'Reviews due',
-    items: async (db, _user, months) =>
+    items: async (db, _user, { months }) =>
       (await dueReviews(db, months)).map((d) => ({
         id: d.revisionId,
         label: d.title,
@@ -207,14 +209,14 @@ const RUN_REVISION_NOTE: Partial<Record<string, string>> = {
   withdrawn: ' (withdrawn: on hold)',
 };
 
-export async function homeView(db: Db, user: SessionUser, months: number): Promise<HomeView> {
+export async function homeView(db: Db, user: SessionUser, ctx: Context): Promise<HomeView> {
   const keys = (Object.keys(SECTIONS) as HomeSectionKey[]).filter((k) =>
     SECTIONS[k].roles.some((r) => user.roles.includes(r)),
   );
   const sections = await Promise.all(
     keys.map(async (key): Promise<HomeSection> => {
       const { roles: _roles, items, ...words } = SECTIONS[key];
-      const all = await items(db, user, months);
+      const all = await items(db, user, ctx);
       return {
         key,
         ...words,

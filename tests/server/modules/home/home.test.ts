@@ -3,6 +3,7 @@ import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { HomeSection, HomeView } from '../../../../shared/schemas/home';
 import { procedureInState, textDoc } from '../../../support/review-path';
+import { benchDoc, entry, newUnit, personId } from '../runs/runs-fixtures';
 import { createTestApp, demo, type TestApp } from '../../../support/test-app';
 
 // The demo content, read from its own files: what each person should find waiting.
@@ -154,6 +155,51 @@ describe('home page: what waits for me', () => {
     expect(after.count).toBe(before + 1);
     expect(after.items.find((i) => i.id === revision.id)).toMatchObject({ urgent: true });
     expect((await homeOf('tom')).reviewDue).toBeUndefined();
+  });
+
+  it('a witness sees the trainee’s open run until their co-signature covers it as it stands; nobody else does', async () => {
+    // Sam is not qualified for table radios: his run names Tom as witness.
+    const { revision } = await procedureInState(t.db, 'approved', {
+      ...newDoc('TC-5R HT check, witnessed'),
+      params: { mainsNominal: 230, mainsVoltage: 230, mainsFrequency: 50 },
+      document: structuredClone(benchDoc),
+    });
+    const sam = await t.as('sam');
+    const unit = await newUnit(sam, 'TC5R-W1');
+    const started = await sam.post('/api/runs').send({
+      revisionId: revision.id,
+      unitId: unit.id,
+      mainsVoltage: 230,
+      mainsFrequency: 50,
+      witnessId: await personId(t, 'tom'),
+    });
+    expect(started.status).toBe(201);
+    const runId = started.body.run.id as string;
+    const tomHome = await homeOf('tom');
+    expect(tomHome.witness!.items.map((i) => i.id)).toEqual([runId]);
+    expect(tomHome.runs!.items.map((i) => i.id)).not.toContain(runId);
+    expect((await homeOf('priya')).witness!.count).toBe(0);
+    const samHome = await homeOf('sam');
+    expect(samHome.witness!.count).toBe(0);
+    expect(samHome.runs!.items.map((i) => i.id)).toContain(runId);
+
+    // Finished and co-signed: nothing left for Tom; a changed entry brings it back.
+    for (const [id, body] of [
+      ['hz-ht-live', { done: true }],
+      ['rd-ht-ac', { value: '251 V' }],
+      ['rd-heater', { value: '6.3 V' }],
+      ['ck-discharge', { done: true }],
+    ] as const)
+      expect((await entry(sam, runId, id, body)).status, id).toBe(200);
+    const tom = await t.as('tom');
+    expect((await tom.post(`/api/runs/${runId}/witness`).send({ password: demo.tom.password })).status).toBe(
+      200,
+    );
+    expect((await homeOf('tom')).witness!.count).toBe(0);
+    expect((await entry(sam, runId, 'rd-heater', { value: '6.4 V', reason: 'Meter settled' })).status).toBe(
+      200,
+    );
+    expect((await homeOf('tom')).witness!.items.map((i) => i.id)).toEqual([runId]);
   });
 
   it('is for signed-in people only', async () => {
