@@ -1,6 +1,7 @@
 import { openApiRoute } from './http/openapi';
 import { acknowledgementRoutes } from './modules/acknowledgements/acknowledgements.routes';
 import { reviewDueRoutes } from './modules/review-due/review-due.routes';
+import { homeRoutes } from './modules/home/home.routes';
 import type { RouteDef } from './http/route';
 import { attachmentRoutes } from './modules/attachments/attachments.routes';
 import { accountRoutes } from './modules/auth/account.routes';
@@ -28,6 +29,7 @@ export const routeTable: readonly RouteDef[] = [
   ...reviewRoutes,
   ...acknowledgementRoutes,
   ...reviewDueRoutes,
+  ...homeRoutes,
   ...auditRoutes,
   ...outboxRoutes,
   ...unitRoutes,

@@ -229,6 +229,15 @@ export interface RunHold {
   revisionNumber: number;
 }
 
+/** An open run whose revision a newer approved one replaced: it may continue, with the changes shown. */
+export interface RunSupersession {
+  /** The approved revision now current. */
+  revisionId: string;
+  number: number;
+  /** Each approved revision since the run's, oldest first, with why it was made. */
+  changes: { revisionId: string; number: number; changeReason: string }[];
+}
+
 export interface RunHandoverView {
   from: Person;
   to: Person;
@@ -263,6 +272,7 @@ export interface RunView {
   /** The bench's usual instrument for this run. */
   defaultInstrument?: RunInstrument | null;
   hold: RunHold | null;
+  superseded?: RunSupersession | null;
   /** Closed as abandoned. */
   closed: { by: Person; reason: string; at: string } | null;
   startedAt: string;

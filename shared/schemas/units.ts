@@ -61,6 +61,8 @@ export interface UnitRunSummary {
   id: string;
   title: string;
   revisionNumber: number;
+  /** The revision's state now: approved (still current), superseded or withdrawn. */
+  revisionState: string;
   status: 'in_progress' | 'signed' | 'abandoned';
   outOfTolerance: boolean;
   startedAt: string;

@@ -14,6 +14,7 @@ import { accountQueryOptions } from '@/features/account/api/account';
 import { auditLogQueryOptions } from '@/features/audit/api/get-audit';
 import { sessionQueryOptions } from '@/features/auth/api/get-session';
 import { invitationQueryOptions } from '@/features/auth/api/set-password';
+import { homeQueryOptions } from '@/features/home/api/get-home';
 import { outboxQueryOptions } from '@/features/outbox/api/get-outbox';
 import { signInSettingsQueryOptions } from '@/features/people/api/account-admin';
 import { peopleQueryOptions } from '@/features/people/api/get-people';
@@ -99,6 +100,7 @@ const router = createBrowserRouter([
       {
         index: true,
         lazy: async () => ({ Component: (await import('./routes/home')).default }),
+        loader: prefetch(() => [homeQueryOptions()]),
         errorElement: <RouteError />,
       },
       page(

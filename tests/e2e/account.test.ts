@@ -49,7 +49,7 @@ describe('authenticator codes in the browser', () => {
     await page.getByLabel('Code').fill(totpCode(key, Date.now() + 30_000));
     await page.getByRole('button', { name: 'Continue' }).click();
     await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
-    await page.getByRole('heading', { name: 'Review and sign-off' }).waitFor();
+    await page.getByRole('heading', { name: 'Revisions waiting for my review' }).waitFor();
     await page.context().close();
   });
 

@@ -12,7 +12,7 @@ async function signIn(page: Page, who: 'tom' | 'priya') {
   await page.getByLabel('E-mail').fill(demo[who].email);
   await page.getByLabel('Password').fill(demo[who].password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { name: 'Bench work' }).waitFor();
+  await page.getByRole('heading', { name: 'My bench runs in progress' }).waitFor();
 }
 
 async function signOut(page: Page) {
@@ -67,7 +67,7 @@ describe('who a bench run belongs to, in Chromium', () => {
 
     // Tab 2: Tom signs out, Priya signs in (same browser, same cookies).
     await tab2.goto(app.url + '/');
-    await tab2.getByRole('heading', { name: 'Bench work' }).waitFor();
+    await tab2.getByRole('heading', { name: 'My bench runs in progress' }).waitFor();
     await signOut(tab2);
     await signIn(tab2, 'priya');
 

@@ -12,7 +12,7 @@ async function signIn(page: Page, email: string, password: string) {
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('heading', { name: 'Bench work' }).waitFor();
+  await page.getByRole('heading', { name: 'My bench runs in progress' }).waitFor();
 }
 
 const progressText = (page: Page) => page.locator('[data-progress]').innerText();

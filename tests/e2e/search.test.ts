@@ -7,7 +7,7 @@ describe('search in Chromium', () => {
   it('"/" focuses the header search, results appear as you type, Enter opens the full results page', async () => {
     const page = await app.openPage();
     await app.signIn(page, 'tom');
-    await page.getByRole('heading', { name: 'Bench work' }).waitFor();
+    await page.getByRole('heading', { name: 'My bench runs in progress' }).waitFor();
 
     await page.keyboard.press('/');
     const box = page.getByRole('combobox', { name: 'Search approved procedures' });

@@ -16,10 +16,10 @@ async function signIn(page: Page, email: string, password: string) {
 }
 
 const homeByRole = [
-  { who: 'tom', panel: 'Bench work' },
-  { who: 'hal', panel: 'Writing procedures' },
-  { who: 'marek', panel: 'Review and sign-off' },
-  { who: 'admin', panel: 'Shop administration' },
+  { who: 'tom', panel: 'My bench runs in progress' },
+  { who: 'hal', panel: 'My drafts and returned revisions' },
+  { who: 'marek', panel: 'Revisions waiting for my review' },
+  { who: 'admin', panel: 'Instruments due for calibration' },
 ] as const;
 
 describe('signing in as each demo role in Chromium', () => {

@@ -4,8 +4,8 @@
  * closed as abandoned, and the technicians on it are told by mail in the withdrawal's transaction.
  */
 import { paths } from '../../../shared/paths';
-import { and, eq, inArray } from 'drizzle-orm';
-import type { RunHold } from '../../../shared/schemas/runs';
+import { and, asc, eq, gt, inArray } from 'drizzle-orm';
+import type { RunHold, RunSupersession } from '../../../shared/schemas/runs';
 import type { Db, Tx } from '../../db/client';
 import { people, revisions, runEntries, runHandovers, runs, signatures, units } from '../../db/schema';
 import { conflict } from '../../http/errors';
@@ -33,6 +33,40 @@ export async function holdOf(
     by: signed?.signerName ?? 'unknown',
     at: (signed?.signedAt ?? new Date(0)).toISOString(),
     revisionNumber: run.revisionNumber,
+  };
+}
+
+/**
+ * A newer approved revision does not stop an open run (it keeps the revision it started on, and its
+ * sheet says which); the technician is shown what changed since and where the new revision is.
+ */
+export async function supersessionOf(
+  db: Db | Tx,
+  run: Pick<RunRow, 'status' | 'procedureId' | 'revisionNumber'>,
+): Promise<RunSupersession | null> {
+  if (run.status !== 'in_progress') return null;
+  const newer = await db
+    .select({
+      revisionId: revisions.id,
+      number: revisions.number,
+      state: revisions.state,
+      changeReason: revisions.changeReason,
+    })
+    .from(revisions)
+    .where(
+      and(
+        eq(revisions.procedureId, run.procedureId),
+        gt(revisions.number, run.revisionNumber),
+        inArray(revisions.state, ['approved', 'superseded']),
+      ),
+    )
+    .orderBy(asc(revisions.number));
+  const current = newer.find((r) => r.state === 'approved');
+  if (!current) return null;
+  return {
+    revisionId: current.revisionId,
+    number: current.number,
+    changes: newer.map(({ revisionId, number, changeReason }) => ({ revisionId, number, changeReason })),
   };
 }
 

@@ -25,7 +25,7 @@ import {
 import { notFound } from '../../http/errors';
 import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
-import { holdOf } from './run-hold';
+import { holdOf, supersessionOf } from './run-hold';
 import { lockedSteps, progressOf } from './run-steps';
 import type { RunRow } from './runs.service';
 
@@ -164,36 +164,38 @@ export async function loadRunView(
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
-  const [[unit], entries, history, photos, [signature], revision, handovers, hold] = await Promise.all([
-    db.select().from(units).where(eq(units.id, run.unitId)),
-    db.select().from(runEntries).where(eq(runEntries.runId, runId)),
-    db
-      .select()
-      .from(runEntryHistory)
-      .where(eq(runEntryHistory.runId, runId))
-      .orderBy(asc(runEntryHistory.id)),
-    db
-      .select({
-        id: runPhotos.id,
-        stepId: runPhotos.stepId,
-        attachmentId: runPhotos.attachmentId,
-        addedBy: runPhotos.addedBy,
-        addedAt: runPhotos.addedAt,
-        sha256: attachments.sha256,
-      })
-      .from(runPhotos)
-      .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
-      .where(eq(runPhotos.runId, runId))
-      .orderBy(asc(runPhotos.addedAt)),
-    db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
-    revisionRecord(db, run),
-    db
-      .select()
-      .from(runHandovers)
-      .where(eq(runHandovers.runId, runId))
-      .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
-    holdOf(db, run),
-  ]);
+  const [[unit], entries, history, photos, [signature], revision, handovers, hold, superseded] =
+    await Promise.all([
+      db.select().from(units).where(eq(units.id, run.unitId)),
+      db.select().from(runEntries).where(eq(runEntries.runId, runId)),
+      db
+        .select()
+        .from(runEntryHistory)
+        .where(eq(runEntryHistory.runId, runId))
+        .orderBy(asc(runEntryHistory.id)),
+      db
+        .select({
+          id: runPhotos.id,
+          stepId: runPhotos.stepId,
+          attachmentId: runPhotos.attachmentId,
+          addedBy: runPhotos.addedBy,
+          addedAt: runPhotos.addedAt,
+          sha256: attachments.sha256,
+        })
+        .from(runPhotos)
+        .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
+        .where(eq(runPhotos.runId, runId))
+        .orderBy(asc(runPhotos.addedAt)),
+      db.select().from(runSignatures).where(eq(runSignatures.runId, runId)),
+      revisionRecord(db, run),
+      db
+        .select()
+        .from(runHandovers)
+        .where(eq(runHandovers.runId, runId))
+        .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
+      holdOf(db, run),
+      supersessionOf(db, run),
+    ]);
   const instrumentIds = [
     ...new Set([run.defaultInstrumentId, ...entries.map((e) => e.instrumentId)].filter((i) => i !== null)),
   ];
@@ -324,6 +326,8 @@ export async function loadRunView(
     witness: run.witnessId ? witnessView(run, who(run.witnessId), witnessSignatures[0], currentHash) : null,
     defaultInstrument: instrumentOf(run.defaultInstrumentId),
     hold,
+    // A withdrawn revision holds the run; the hold says so, not this.
+    superseded: hold ? null : superseded,
     closed:
       run.status === 'abandoned' && run.closedBy
         ? { by: who(run.closedBy), reason: run.closeReason ?? '', at: iso(run.closedAt)! }

@@ -9,7 +9,7 @@ import type {
   updateUnitBody,
 } from '../../../shared/schemas/units';
 import type { Db } from '../../db/client';
-import { people, runEntries, runs, unitPhotos, units } from '../../db/schema';
+import { people, revisions, runEntries, runs, unitPhotos, units } from '../../db/schema';
 import type { AppDeps } from '../../deps';
 import { conflict, notFound } from '../../http/errors';
 import { storePhoto } from '../runs/photo-upload';
@@ -98,15 +98,21 @@ export async function listUnits(
 
 export async function unitRuns(db: Db, unitId: string): Promise<UnitRunSummary[]> {
   const rows = await db
-    .select({ run: runs, by: { id: people.id, displayName: people.displayName } })
+    .select({
+      run: runs,
+      by: { id: people.id, displayName: people.displayName },
+      revisionState: revisions.state,
+    })
     .from(runs)
     .innerJoin(people, eq(people.id, runs.startedBy))
+    .innerJoin(revisions, eq(revisions.id, runs.revisionId))
     .where(eq(runs.unitId, unitId))
     .orderBy(desc(runs.startedAt));
-  return rows.map(({ run, by }) => ({
+  return rows.map(({ run, by, revisionState }) => ({
     id: run.id,
     title: run.title,
     revisionNumber: run.revisionNumber,
+    revisionState,
     status: run.status,
     outOfTolerance: run.outOfTolerance,
     startedAt: run.startedAt.toISOString(),

@@ -284,6 +284,13 @@ export const MATRIX: readonly MatrixRow[] = [
     probe: { params: { id: 'inReviewRevision' }, body: {} },
     expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 403 },
   },
+  // The home page: everyone signed in gets what waits for them (sections by their roles).
+  {
+    method: 'get',
+    path: '/home',
+    probe: {},
+    expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
   // Periodic review: the list of revisions due is for reviewers, and admins who keep the shop's records.
   {
     method: 'get',

@@ -6,7 +6,12 @@ import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
 import { useRun } from '@/features/runs/api/get-run';
 import { BenchChecklist } from '@/features/runs/components/bench-checklist';
-import { HoldBanner, RunCustody, WaitingEntries } from '@/features/runs/components/run-custody';
+import {
+  HoldBanner,
+  RunCustody,
+  SupersededBanner,
+  WaitingEntries,
+} from '@/features/runs/components/run-custody';
 import { WitnessRunForm } from '@/features/runs/components/witness-run-form';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
@@ -57,6 +62,13 @@ export default function RunPage() {
         </Notice>
       )}
       {open && r.hold && <HoldBanner hold={r.hold} />}
+      {open && r.superseded && (
+        <SupersededBanner
+          superseded={r.superseded}
+          ownRevision={r.revision.number}
+          technician={hasRole(user, 'technician')}
+        />
+      )}
       <WaitingEntries items={pending.others} steps={r.steps} />
       {performing ? (
         <BenchChecklist run={r} pending={pending.mine} onSigned={() => navigate(paths.runSheet.href(r.id))} />

@@ -11,6 +11,13 @@ import { UnitPhotos } from '@/features/units/components/unit-photos';
 import { Loading } from '@/components/ui/loading';
 
 // The plot's code (visx) loads only when a unit has a trend to draw.
+/** Whether the revision a visit followed is still the one in use. */
+const REVISION_NOW: Partial<Record<string, string>> = {
+  approved: 'still current',
+  superseded: 'since replaced',
+  withdrawn: 'since withdrawn',
+};
+
 const TrendPlot = lazy(() => import('@/features/units/components/trend-plot'));
 
 export default function UnitPage() {
@@ -99,7 +106,10 @@ export default function UnitPage() {
                   >
                     {r.title}
                   </Link>{' '}
-                  <span className="text-graphite-soft">rev. {r.revisionNumber}</span>
+                  <span className="text-graphite-soft" data-run-revision={r.revisionState}>
+                    rev. {r.revisionNumber}
+                    {REVISION_NOW[r.revisionState] && `, ${REVISION_NOW[r.revisionState]}`}
+                  </span>
                 </td>
                 <td className="value px-3 py-2">
                   {r.params.mainsVoltage} V / {r.params.mainsFrequency} Hz

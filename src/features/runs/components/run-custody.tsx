@@ -1,5 +1,14 @@
+import { Link } from 'react-router-dom';
 import { formatUtc } from '@shared/runs/run-sheet-model';
-import { abandonBody, handoverBody, type RunHold, type RunStep, type RunView } from '@shared/schemas/runs';
+import {
+  abandonBody,
+  handoverBody,
+  type RunHold,
+  type RunStep,
+  type RunSupersession,
+  type RunView,
+} from '@shared/schemas/runs';
+import { paths } from '@/config/paths';
 import { Field, SelectField } from '@/components/ui/field';
 import { FormProblem } from '@/components/ui/form-problem';
 import { labelOf, showServerError, useZodForm } from '@/lib/form';
@@ -18,6 +27,54 @@ export function HoldBanner({ hold }: { hold: RunHold }) {
       <p className="text-sm">
         Nothing more can be recorded or signed on this run. Close it as abandoned, and start again when a new
         revision is approved.
+      </p>
+    </div>
+  );
+}
+
+/** An open run on a revision a newer approved one replaced: it may go on; what changed, and where the new one is. */
+export function SupersededBanner({
+  superseded,
+  ownRevision,
+  technician,
+}: {
+  superseded: RunSupersession;
+  ownRevision: number;
+  /** The acknowledgement page (what changed, as a diff) is a technician's. */
+  technician: boolean;
+}) {
+  return (
+    <div
+      data-superseded
+      role="status"
+      className="rounded-md border-2 border-pending bg-pending-wash px-4 py-3 text-sm"
+    >
+      <p className="font-semibold text-pending">
+        Revision {superseded.number} replaced revision {ownRevision}, which this run follows.
+      </p>
+      <p>This run may go on as started; its run sheet records revision {ownRevision}. What changed since:</p>
+      <ul className="ml-5 list-disc">
+        {superseded.changes.map((c) => (
+          <li key={c.revisionId}>
+            Revision {c.number}: {c.changeReason || 'no reason recorded'}
+          </li>
+        ))}
+      </ul>
+      <p className="mt-1 flex flex-wrap gap-x-4">
+        <Link
+          to={paths.revision.href(superseded.revisionId)}
+          className="font-semibold text-accent-deep underline"
+        >
+          Open revision {superseded.number}
+        </Link>
+        {technician && (
+          <Link
+            to={paths.acknowledgeRevision.href(superseded.revisionId)}
+            className="font-semibold text-accent-deep underline"
+          >
+            Read what changed
+          </Link>
+        )}
       </p>
     </div>
   );

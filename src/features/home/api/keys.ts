@@ -1,0 +1,1 @@
+export const homeKeys = { all: ['home'] as const };
