@@ -77,7 +77,7 @@ describe('instruments and qualifications at the bench, in Chromium', () => {
     const page = await app.openPage();
     await page.setViewportSize({ width: 1024, height: 1000 });
     await app.signIn(page, 'sam');
-    await startFor(page, 'TC5R-0088', 'TC-5R table radio');
+    await startFor(page, 'TC5R-0088', 'TC-5R table radio: rectifier and filter capacitor replacement');
     await page
       .locator('[data-not-qualified]')
       .getByText(

@@ -69,7 +69,10 @@ describe('review and sign-off in Chromium', () => {
 
     const reviewer = await openPage();
     await signIn(reviewer, 'marek');
-    await reviewer.getByRole('link', { name: 'Review queue', exact: true }).click();
+    await reviewer
+      .getByRole('navigation', { name: 'Main' })
+      .getByRole('link', { name: 'Review queue', exact: true })
+      .click();
     const queue = reviewer.getByRole('table', { name: 'Review queue' });
     await queue.waitFor();
     const row = queue.getByRole('row').filter({ hasText: 'Hal Brennan' }).filter({ hasText: 'TC-18' });
