@@ -2,7 +2,7 @@ import { AxisBottom } from '@visx/axis';
 import { GridColumns } from '@visx/grid';
 import type { ReadingsPlot } from '../runs/readings-plot';
 import { deviationLayout } from './deviation-layout';
-import { AxisTitle, Legend, Marker, TickLabel } from './parts';
+import { AxisTitle, Legend, Marker, TickLabel, PlotFrame } from './parts';
 import { PLOT_COLOURS, PLOT_FONTS } from './theme';
 
 /**
@@ -21,19 +21,15 @@ export function DeviationPlotSvg({
   const l = deviationLayout(plot);
   const zero = l.x(0);
   return (
-    <svg
-      xmlns="http://www.w3.org/2000/svg"
-      role="img"
-      aria-labelledby={`${id}-title`}
-      aria-describedby={`${id}-desc`}
-      viewBox={`0 0 ${l.width} ${l.height}`}
+    <PlotFrame
+      id={id}
+      kind="readings"
       width={l.width}
       height={l.height}
+      title={plot.title}
+      description={plot.description}
       className={className}
-      data-plot="readings"
     >
-      <title id={`${id}-title`}>{plot.title}</title>
-      <desc id={`${id}-desc`}>{plot.description}</desc>
       <Legend
         x={l.x.range()[0]! + 8}
         y={14}
@@ -112,6 +108,6 @@ export function DeviationPlotSvg({
       <AxisTitle x={(l.x.range()[0]! + l.x.range()[1]!) / 2} y={l.height - 8}>
         {plot.axisLabel}
       </AxisTitle>
-    </svg>
+    </PlotFrame>
   );
 }

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import type { TickRendererProps } from '@visx/axis';
 import { PLOT_COLOURS, PLOT_FONTS } from './theme';
 
@@ -125,5 +126,47 @@ export function Legend({
         );
       })}
     </g>
+  );
+}
+
+/**
+ * The root of every plot: an `img` named by its title and described by its description, sized by
+ * its layout, so every plot is announced the same way on the page and in the PDF.
+ */
+export function PlotFrame({
+  id,
+  kind,
+  width,
+  height,
+  title,
+  description,
+  className,
+  children,
+}: {
+  id: string;
+  kind: string;
+  width: number;
+  height: number;
+  title: string;
+  description: string;
+  className?: string;
+  children: ReactNode;
+}) {
+  return (
+    <svg
+      xmlns="http://www.w3.org/2000/svg"
+      role="img"
+      aria-labelledby={`${id}-title`}
+      aria-describedby={`${id}-desc`}
+      viewBox={`0 0 ${width} ${height}`}
+      width={width}
+      height={height}
+      className={className}
+      data-plot={kind}
+    >
+      <title id={`${id}-title`}>{title}</title>
+      <desc id={`${id}-desc`}>{description}</desc>
+      {children}
+    </svg>
   );
 }

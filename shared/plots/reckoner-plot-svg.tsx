@@ -1,6 +1,6 @@
 import { AxisBottom, AxisLeft } from '@visx/axis';
 import { GridColumns, GridRows } from '@visx/grid';
-import { AxisTitle, TickLabel } from './parts';
+import { AxisTitle, TickLabel, PlotFrame } from './parts';
 import type { LegendSign, LineStyle, MarkShape, PlotModel } from './reckoner-plot';
 import { PLOT_COLOURS, PLOT_FONTS } from './theme';
 
@@ -84,19 +84,15 @@ export function ReckonerPlotSvg({
   const [top, bottom] = [Math.min(...m.y.scale.range()), Math.max(...m.y.scale.range())];
   let legendAt = left + 8;
   return (
-    <svg
-      xmlns="http://www.w3.org/2000/svg"
-      role="img"
-      aria-labelledby={`${id}-title`}
-      aria-describedby={`${id}-desc`}
-      viewBox={`0 0 ${m.width} ${m.height}`}
+    <PlotFrame
+      id={id}
+      kind={m.plot}
       width={m.width}
       height={m.height}
+      title={m.title}
+      description={m.description}
       className={className}
-      data-plot={m.plot}
     >
-      <title id={`${id}-title`}>{m.title}</title>
-      <desc id={`${id}-desc`}>{m.description}</desc>
       <g data-legend="">
         {m.legend.map((item) => {
           const start = legendAt;
@@ -224,6 +220,6 @@ export function ReckonerPlotSvg({
       <AxisTitle x={(left + right) / 2} y={m.height - 10}>
         {m.x.label}
       </AxisTitle>
-    </svg>
+    </PlotFrame>
   );
 }

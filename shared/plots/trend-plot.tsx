@@ -1,6 +1,6 @@
 import { AxisBottom, AxisLeft } from '@visx/axis';
 import { GridRows } from '@visx/grid';
-import { AxisTitle, Legend, Marker, TickLabel } from './parts';
+import { AxisTitle, Legend, Marker, TickLabel, PlotFrame } from './parts';
 import { PLOT_COLOURS } from './theme';
 import { trendPlot } from './trend';
 
@@ -19,19 +19,15 @@ export function TrendPlotSvg({
   const [top, bottom] = [m.y.range()[1]!, m.y.range()[0]!];
   const line = (pts: readonly (readonly [number, number])[]) => pts.map((p) => p.join(',')).join(' ');
   return (
-    <svg
-      xmlns="http://www.w3.org/2000/svg"
-      role="img"
-      aria-labelledby={`${id}-title`}
-      aria-describedby={`${id}-desc`}
-      viewBox={`0 0 ${m.width} ${m.height}`}
+    <PlotFrame
+      id={id}
+      kind="trend"
       width={m.width}
       height={m.height}
+      title={m.title}
+      description={m.description}
       className={className}
-      data-plot="trend"
     >
-      <title id={`${id}-title`}>{m.title}</title>
-      <desc id={`${id}-desc`}>{m.description}</desc>
       <Legend
         x={m.x.range()[0]! + 8}
         y={14}
@@ -103,6 +99,6 @@ export function TrendPlotSvg({
       <AxisTitle x={(m.x.range()[0]! + m.x.range()[1]!) / 2} y={m.height - 8}>
         {m.xLabel}
       </AxisTitle>
-    </svg>
+    </PlotFrame>
   );
 }

@@ -1,5 +1,6 @@
 import { formatQuantity } from '../units/format';
 import { HAZARD_DC_SOURCE, HAZARD_DC_VOLTS } from '../standards/thresholds';
+import { SRC } from './outputs';
 import type { Caution } from './types';
 
 export const LOCAL_CODES: Caution = {
@@ -33,4 +34,24 @@ export function storedEnergy(capacitance: number, volts: number, where: string):
 
 export function compact(list: (Caution | null | undefined | false)[]): Caution[] {
   return list.filter((c): c is Caution => !!c);
+}
+
+/**
+ * An LC section resonating near or above half the ripple frequency amplifies ripple instead of
+ * removing it (common practice, no source). `where` names the section when a block has several.
+ */
+export function resonanceNearRipple(
+  f0: number,
+  ripple: number,
+  field: string,
+  where?: string,
+): Caution | null {
+  if (f0 <= ripple / 2) return null;
+  return {
+    level: 'warning',
+    code: 'resonance-near-ripple',
+    field,
+    message: `${where ? `${where}: the` : 'The'} LC resonance of ${formatQuantity(f0, 'Hz')} is ${f0 >= ripple ? 'at or above' : 'near'} the ${formatQuantity(ripple, 'Hz')} ripple, so the section amplifies ripple instead of removing it. Keep the resonance well below half the ripple frequency.`,
+    source: SRC.commonPractice,
+  };
 }

@@ -6,13 +6,13 @@
 import { floorESeries } from '../standards/eSeries';
 import { RESISTOR_DERATING } from '../standards/thresholds';
 import { formatQuantity } from '../units/format';
-import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
-import { suggestedPowerRating } from './dropper-ladder';
+import { compact, hazardousVoltage, LOCAL_CODES, resonanceNearRipple } from './cautions';
+import { lcResonance, suggestedPowerRating } from './dropper-ladder';
 import { ReckonerInputError } from './errors';
 import { defineInputs, optionalQuantity, quantity, type InputOf } from './fields';
 import { n, q, SRC } from './outputs';
 import { rectifierDrop } from './peak-no-load';
-import { diodeDropField, rectifierField } from './rectifier';
+import { diodeDropField, rectifierField, requireValveDrop, valveDropField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
@@ -25,14 +25,9 @@ const shape = {
   }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
-  valveDrop: optionalQuantity('V dc', {
-    label: 'Valve rectifier drop',
-    min: 0,
-    max: 200,
-    plausible: { min: 2, max: 100 },
-    part: 'valve-rectifier-drop',
-    help: 'The drop at the load current, from the valve’s data sheet; required for a valve rectifier.',
-  }),
+  valveDrop: valveDropField(
+    'The drop at the load current, from the valve’s data sheet; required for a valve rectifier.',
+  ),
   windingResistance: quantity('Ω', {
     label: 'Winding resistance',
     default: 0,
@@ -89,9 +84,7 @@ const { schema: baseSchema, fields } = defineInputs(shape);
 export type ChokeInputInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
-  if (v.rectifier === 'valve' && v.valveDrop === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['valveDrop'], message: 'is required for a valve rectifier' });
-  }
+  requireValveDrop(v, ctx);
   if (v.lightestLoad !== undefined && v.lightestLoad > v.loadCurrent) {
     ctx.addIssue({
       code: 'custom',
@@ -231,7 +224,7 @@ function compute(input: ChokeInputInput): ReckonerResult {
     const attenuation = 1 / Math.abs(1 - wr * wr * input.chokeInductance * C);
     const ripplePeak = secondHarmonicPeak(vPeak) * attenuation;
     outputs.resonance = q(
-      1 / (2 * Math.PI * Math.sqrt(input.chokeInductance * C)),
+      lcResonance(input.chokeInductance, C),
       'Hz',
       'LC resonance',
       '1 ÷ (2π √(L C)).',
@@ -275,14 +268,7 @@ function cautions(input: ChokeInputInput, result: ReckonerResult): Caution[] {
         field: 'lightestLoad',
         message: `Below ${formatQuantity(minCurrent, 'A')} (valves cold, output idle) the output soars toward the peak of ${formatQuantity(peak, 'V')}. A bleeder drawing the difference keeps it in conduction; rate the capacitors for the peak.`,
       },
-    resonance !== undefined &&
-      resonance > rippleF / 2 && {
-        level: 'warning',
-        code: 'resonance-near-ripple',
-        field: 'filterCapacitance',
-        message: `The LC resonance of ${formatQuantity(resonance, 'Hz')} is ${resonance >= rippleF ? 'at or above' : 'near'} the ${formatQuantity(rippleF, 'Hz')} ripple: the section amplifies ripple instead of removing it. Keep the resonance well below half the ripple frequency.`,
-        source: SRC.commonPractice,
-      },
+    resonance !== undefined && resonanceNearRipple(resonance, rippleF, 'filterCapacitance'),
     LOCAL_CODES,
   ]);
 }

@@ -12,7 +12,7 @@ import { nearestESeries } from '../standards/eSeries';
 import { RESISTOR_DERATING, RESISTOR_POWER_RATINGS } from '../standards/thresholds';
 import { formatQuantity } from '../units/format';
 import { parseQuantity } from '../units/parse';
-import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
+import { compact, hazardousVoltage, LOCAL_CODES, resonanceNearRipple } from './cautions';
 import { z } from 'zod';
 import { defineInputs, optionalQuantity, quantity, rows, select, text, type InputOf } from './fields';
 import { ReckonerInputError } from './errors';
@@ -384,18 +384,16 @@ function cautions(input: DropperLadderInput): Caution[] {
   const fr = rippleFrequencyOf(input);
   return compact([
     hazardousVoltage(input.startVoltage, 'The dropper chain'),
-    ...input.stages.map((st, i): Caution | null => {
-      if (st.element !== 'choke' || st.inductance === undefined) return null;
-      const f0 = lcResonance(st.inductance, st.capacitance);
-      if (f0 <= fr / 2) return null;
-      return {
-        level: 'warning',
-        code: 'resonance-near-ripple',
-        field: `stages.${i}.inductance`,
-        message: `${st.label ?? `Stage ${i + 1}`}: the LC resonance of ${formatQuantity(f0, 'Hz')} is ${f0 >= fr ? 'at or above' : 'near'} the ${formatQuantity(fr, 'Hz')} ripple, so the section amplifies ripple instead of removing it. Keep the resonance well below half the ripple frequency.`,
-        source: SRC.commonPractice,
-      };
-    }),
+    ...input.stages.map((st, i) =>
+      st.element === 'choke' && st.inductance !== undefined
+        ? resonanceNearRipple(
+            lcResonance(st.inductance, st.capacitance),
+            fr,
+            `stages.${i}.inductance`,
+            st.label ?? `Stage ${i + 1}`,
+          )
+        : null,
+    ),
     {
       level: 'note',
       code: 'resistor-voltage',

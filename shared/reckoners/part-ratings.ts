@@ -12,7 +12,7 @@ import { ReckonerInputError } from './errors';
 import { defineInputs, optionalQuantity, quantity, rows, text, type InputOf } from './fields';
 import { b, n, q, SRC } from './outputs';
 import { rectifierDrop } from './peak-no-load';
-import { diodeDropField, rectifierField } from './rectifier';
+import { diodeDropField, rectifierField, requireValveDrop, valveDropField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
@@ -41,13 +41,7 @@ const shape = {
   }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
-  valveDrop: optionalQuantity('V dc', {
-    label: 'Valve rectifier drop',
-    min: 0,
-    max: 200,
-    plausible: { min: 2, max: 100 },
-    part: 'valve-rectifier-drop',
-  }),
+  valveDrop: valveDropField(),
   sourceResistance: quantity('Ω', {
     label: 'Source resistance',
     min: 1e-3,
@@ -145,8 +139,7 @@ const { schema: baseSchema, fields } = defineInputs(shape);
 export type PartRatingsInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
-  if (v.rectifier === 'valve' && v.valveDrop === undefined)
-    ctx.addIssue({ code: 'custom', path: ['valveDrop'], message: 'is required for a valve rectifier' });
+  requireValveDrop(v, ctx);
 });
 
 /** Reverse voltage per diode: √2 V for a bridge, 2√2 V of a half-winding for a centre tap [derived]. */

@@ -7,7 +7,7 @@ import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
 import { defineInputs, optionalInteger, optionalQuantity, quantity, select, type InputOf } from './fields';
 import { ReckonerInputError } from './errors';
 import { b, n, q, SRC } from './outputs';
-import { diodeDropField, diodesInPath, rectifierField } from './rectifier';
+import { diodeDropField, diodesInPath, rectifierField, requireValveDrop, valveDropField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const shape = {
@@ -45,14 +45,9 @@ const shape = {
   }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
-  valveDrop: optionalQuantity('V dc', {
-    label: 'Valve rectifier drop',
-    min: 0,
-    max: 200,
-    plausible: { min: 2, max: 100 },
-    part: 'valve-rectifier-drop',
-    help: 'The author’s figure for the valve rectifier’s drop; required for a valve rectifier.',
-  }),
+  valveDrop: valveDropField(
+    'The author’s figure for the valve rectifier’s drop; required for a valve rectifier.',
+  ),
   unloadedRise: quantity('%', {
     label: 'Unloaded rise of a rated winding',
     default: 10,
@@ -68,9 +63,7 @@ const { schema: baseSchema, fields } = defineInputs(shape);
 export type PeakNoLoadInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
-  if (v.rectifier === 'valve' && v.valveDrop === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['valveDrop'], message: 'is required for a valve rectifier' });
-  }
+  requireValveDrop(v, ctx);
 });
 
 export const SQRT2 = Math.SQRT2;

@@ -1,4 +1,5 @@
-import { quantity, select } from './fields';
+import type { z } from 'zod';
+import { optionalQuantity, quantity, select } from './fields';
 
 export const RECTIFIER_OPTIONS = [
   { value: 'silicon-bridge', label: 'Silicon bridge (two diodes conduct)' },
@@ -30,4 +31,25 @@ export const diodeDropField = () =>
 /** Silicon diodes in the conducting path: 2 for a bridge, 1 for a centre-tap pair. */
 export function diodesInPath(kind: RectifierKind): number {
   return kind === 'silicon-bridge' ? 2 : kind === 'silicon-centre-tap' ? 1 : 0;
+}
+
+/** The author's figure for a valve rectifier's drop; the same part wherever a block names it. */
+export const valveDropField = (help?: string) =>
+  optionalQuantity('V dc', {
+    label: 'Valve rectifier drop',
+    min: 0,
+    max: 200,
+    plausible: { min: 2, max: 100 },
+    part: 'valve-rectifier-drop',
+    ...(help ? { help } : {}),
+  });
+
+/** A valve rectifier has no standard drop: a block with one must give its figure. */
+export function requireValveDrop(
+  v: { rectifier: RectifierKind; valveDrop?: number },
+  ctx: z.RefinementCtx,
+  path = 'valveDrop',
+): void {
+  if (v.rectifier === 'valve' && v.valveDrop === undefined)
+    ctx.addIssue({ code: 'custom', path: [path], message: 'is required for a valve rectifier' });
 }

@@ -11,7 +11,7 @@ import { defineInputs, num, optionalQuantity, quantity, type InputOf } from './f
 import { pulseI2t } from './mains-fuse';
 import { n, q, s, SRC } from './outputs';
 import { rectifierDrop } from './peak-no-load';
-import { diodeDropField, rectifierField } from './rectifier';
+import { diodeDropField, rectifierField, requireValveDrop, valveDropField } from './rectifier';
 import type { Caution, ReckonerDefinition, ReckonerResult } from './types';
 
 const resistance = (label: string, help: string) =>
@@ -36,13 +36,7 @@ const shape = {
   }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
-  valveDrop: optionalQuantity('V dc', {
-    label: 'Valve rectifier drop',
-    min: 0,
-    max: 200,
-    plausible: { min: 2, max: 100 },
-    part: 'valve-rectifier-drop',
-  }),
+  valveDrop: valveDropField(),
   secondaryResistance: resistance(
     'Secondary winding resistance',
     'Measured with an ohmmeter, unpowered; one half for a centre tap.',
@@ -100,8 +94,7 @@ const { schema: baseSchema, fields } = defineInputs(shape);
 export type SwitchOnSurgeInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
-  if (v.rectifier === 'valve' && v.valveDrop === undefined)
-    ctx.addIssue({ code: 'custom', path: ['valveDrop'], message: 'is required for a valve rectifier' });
+  requireValveDrop(v, ctx);
   const circuitKnown = v.secondaryResistance !== undefined && v.primaryResistance !== undefined;
   if (!circuitKnown && v.runningCurrent === undefined)
     ctx.addIssue({
