@@ -1,6 +1,7 @@
 /**
- * Mains fuse: transformer VA → primary current → next standard rating, fuse type, and a
- * switch-on surge estimate checked against the IEC 60127-2 time-lag gates.
+ * Mains fuse: transformer VA → primary current → next standard rating, fuse type, and the switch-on
+ * surge: worked from the circuit (or taken from a switch-on surge block) as an I²t against the fuse's
+ * pre-arcing I²t where its inputs are known, else the rule of thumb against the IEC 60127-2 time-lag gates.
  */
 import { formatNumber, formatQuantity } from '../units/format';
 import {
@@ -95,12 +96,46 @@ const shape = {
     default: 'T',
     help: 'A transformer input draws a switch-on surge many times its running current: a time-delay fuse rides through it.',
   }),
+  surgeI2t: optionalQuantity('A²s', {
+    label: 'Switch-on surge I²t at the fuse',
+    min: 1e-9,
+    max: 1e6,
+    plausible: { min: 1e-4, max: 1e4 },
+    help: 'Refer to a switch-on surge block’s “Surge I²t in the fuse”; or give the rectified winding, source resistance and reservoir below.',
+  }),
+  surgeWindingVoltage: optionalQuantity('V rms', {
+    label: 'Rectified winding voltage (for the surge)',
+    min: 1e-3,
+    max: 3000,
+    plausible: { min: 2, max: 1500 },
+    help: 'The winding feeding the reservoir; one half of a centre-tapped winding.',
+  }),
+  surgeSourceResistance: optionalQuantity('Ω', {
+    label: 'Source resistance at that winding',
+    min: 1e-3,
+    max: 10_000,
+    plausible: { min: 0.1, max: 1000 },
+    help: 'R_secondary + R_primary × (turns ratio)² + any series resistance, measured unpowered; the transformer-loading block gives it.',
+  }),
+  surgeReservoir: optionalQuantity('F', {
+    label: 'Reservoir capacitance (for the surge)',
+    min: 1e-9,
+    max: 1,
+    plausible: { min: 1e-6, max: 0.01 },
+  }),
+  fuseI2t: optionalQuantity('A²s', {
+    label: 'Fuse pre-arcing I²t',
+    min: 1e-6,
+    max: 1e6,
+    plausible: { min: 1e-3, max: 1e4 },
+    help: 'From the fuse maker’s data sheet for this rating and type. Left empty, a time-lag fuse is held to the IEC 60127-2 minimum at 10 × its rating.',
+  }),
   inrushMultiple: num({
     label: 'Switch-on surge (× running current)',
     default: 10,
     min: 1,
     max: 50,
-    help: 'Rule of thumb: about ten times the running current (common practice).',
+    help: 'Rule of thumb, used only without the surge inputs above: about ten times the running current (common practice).',
   }),
   inrushDuration: quantity('s', {
     label: 'Switch-on surge duration',
@@ -108,8 +143,11 @@ const shape = {
     min: 1e-3,
     max: 5,
     plausible: { min: 5e-3, max: 2 },
+    help: 'For the rule of thumb only.',
   }),
 };
+
+export const RULE_OF_THUMB = 'rule of thumb, no inputs for the surge';
 
 const { schema: baseSchema, fields } = defineInputs(shape);
 export type MainsFuseInput = InputOf<typeof shape>;
@@ -151,6 +189,29 @@ export function totalVA(input: Pick<MainsFuseInput, 'load' | 'windings' | 'va'>)
   return input.windings.reduce((sum, w) => sum + w.volts * w.amps, 0);
 }
 
+/**
+ * The least pre-arcing I²t IEC 60127-2 sheet 3 guarantees a time-lag fuse: it holds 10 × In for the
+ * gate's minimum time, so (10 In)² × t_min [derived from the gate, docs/references.md §1].
+ */
+export function timeLagMinimumI2t(rating: number): number {
+  const gate = TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!;
+  return (gate.multiple * rating) ** 2 * gate.min;
+}
+
+type Surge = { method: string; i2t: number; peak?: number; tau?: number };
+
+/** The switch-on charging surge at the fuse, from a block's figure or the circuit; null without inputs. */
+function knownSurge(input: MainsFuseInput): Surge | null {
+  if (input.surgeI2t !== undefined) return { method: 'from the switch-on surge block', i2t: input.surgeI2t };
+  const { surgeWindingVoltage: v, surgeSourceResistance: rs, surgeReservoir: c } = input;
+  if (v === undefined || rs === undefined || c === undefined) return null;
+  // Switched on at the mains peak into an empty reservoir, no rectifier drop (an upper figure, §10).
+  const ratio = v / input.mainsVoltage;
+  const peak = ((Math.SQRT2 * v) / rs) * ratio;
+  const tau = rs * c;
+  return { method: 'from the circuit', i2t: pulseI2t('exponential', peak, tau), peak, tau };
+}
+
 function compute(input: MainsFuseInput): ReckonerResult {
   const va = totalVA(input);
   const eta = input.efficiency / 100;
@@ -165,18 +226,6 @@ function compute(input: MainsFuseInput): ReckonerResult {
       `needs ${formatQuantity(required, 'A')} of fuse, above the largest rating in the ${series.label} (${formatQuantity(largest, 'A')}); this reckoner covers miniature fuses only`,
     );
   }
-  const inrush = primary * input.inrushMultiple;
-  const multiple = inrush / rating;
-  // Only time-lag fuses have a guaranteed holding time under a surge in the gates held here.
-  const gate = input.fuseType === 'T' ? gateFor(multiple) : null;
-  const holds = gate !== null && gate.min >= input.inrushDuration;
-  const gateText =
-    input.fuseType === 'F'
-      ? `a quick-acting fuse is guaranteed no holding time under a surge; it opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In`
-      : gate
-        ? `at ≤ ${formatNumber(gate.multiple)} × In a time-lag fuse must not open before ${formatQuantity(gate.min, 's')} (and must by ${formatQuantity(gate.max, 's')})`
-        : `above the highest tabulated gate (${formatNumber(TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple)} × In): the standard gives no holding time`;
-
   const outputs: ReckonerResult['outputs'] = {
     totalVA: q(
       va,
@@ -220,11 +269,108 @@ function compute(input: MainsFuseInput): ReckonerResult {
       'Type and rating to fit.',
       series.source,
     ),
+  };
+  const surge = knownSurge(input);
+  outputs.inrushMethod = s(
+    surge?.method ?? RULE_OF_THUMB,
+    'Switch-on surge worked',
+    surge
+      ? 'The charging surge’s I²t is compared with the fuse’s pre-arcing I²t.'
+      : 'Without the rectified winding, source resistance and reservoir (or a switch-on surge block) the surge is a multiple of the running current.',
+    surge ? SRC.derived : SRC.commonPractice,
+  );
+  if (surge) Object.assign(outputs, surgeOutputs(input, surge, rating));
+  else Object.assign(outputs, ruleOfThumbOutputs(input, primary, rating));
+  return { outputs };
+}
+
+function surgeOutputs(input: MainsFuseInput, surge: Surge, rating: number): ReckonerResult['outputs'] {
+  const maker = input.fuseI2t;
+  const fuse = maker ?? (input.fuseType === 'T' ? timeLagMinimumI2t(rating) : undefined);
+  const out: ReckonerResult['outputs'] = {
+    surgeI2t: q(
+      surge.i2t,
+      'A²s',
+      'Switch-on surge I²t in the fuse',
+      surge.method === 'from the circuit'
+        ? `I_pk² τ ÷ 2 for the charging surge, switched on at the mains peak into an empty reservoir; reflected to the primary by the turns ratio. An upper figure; the transformer’s magnetising surge comes on top.`
+        : 'As worked by the switch-on surge block.',
+      SRC.derived,
+    ),
+  };
+  if (surge.peak !== undefined && surge.tau !== undefined) {
+    out.surgePeak = q(
+      surge.peak,
+      'A peak',
+      'Peak surge in the primary',
+      '√2 V ÷ source resistance × turns ratio.',
+      SRC.derived,
+    );
+    out.surgeTimeConstant = q(
+      surge.tau,
+      's',
+      'Surge time constant',
+      'Source resistance × reservoir.',
+      SRC.derived,
+    );
+  }
+  if (fuse === undefined) {
+    out.inrushWithinGate = b(
+      false,
+      'Fuse holds the switch-on surge',
+      'A quick-acting fuse has no guaranteed pre-arcing I²t: give the maker’s figure.',
+      QUICK_ACTING_SOURCE,
+    );
+    return out;
+  }
+  out.fusePreArcingI2t = q(
+    fuse,
+    'A²s',
+    'Fuse pre-arcing I²t',
+    maker !== undefined
+      ? 'As entered, from the maker’s data.'
+      : `The least IEC 60127-2 allows a ${formatQuantity(rating, 'A', 3)} time-lag fuse: it must hold 10 × In for 10 ms. Makers’ figures are usually higher; enter one to use it.`,
+    maker !== undefined ? 'fuse maker’s data sheet' : TIME_LAG_GATES_SOURCE,
+  );
+  out.surgeMargin = n(
+    fuse / surge.i2t,
+    'Fuse pre-arcing I²t ÷ surge I²t',
+    'Above 1 the fuse survives the charging surge; keep a margin for the magnetising surge and ageing.',
+    SRC.derived,
+  );
+  out.inrushWithinGate = b(
+    fuse >= surge.i2t,
+    'Fuse holds the switch-on surge',
+    fuse >= surge.i2t
+      ? 'The fuse’s pre-arcing I²t is above the surge’s.'
+      : 'The surge’s I²t reaches the fuse’s pre-arcing I²t: it can open at switch-on.',
+    SRC.derived,
+  );
+  return out;
+}
+
+function ruleOfThumbOutputs(
+  input: MainsFuseInput,
+  primary: number,
+  rating: number,
+): ReckonerResult['outputs'] {
+  const inrush = primary * input.inrushMultiple;
+  const multiple = inrush / rating;
+  // Only time-lag fuses have a guaranteed holding time under a surge in the gates held here.
+  const gate = input.fuseType === 'T' ? gateFor(multiple) : null;
+  const holds = gate !== null && gate.min >= input.inrushDuration;
+  const gateText =
+    input.fuseType === 'F'
+      ? `a quick-acting fuse is guaranteed no holding time under a surge; it opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × In`
+      : gate
+        ? `at ≤ ${formatNumber(gate.multiple)} × In a time-lag fuse must not open before ${formatQuantity(gate.min, 's')} (and must by ${formatQuantity(gate.max, 's')})`
+        : `above the highest tabulated gate (${formatNumber(TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple)} × In): the standard gives no holding time`;
+  return {
     inrushCurrent: q(
       inrush,
       'A rms',
-      'Switch-on surge (estimate)',
-      `Rule of thumb: about ${formatNumber(input.inrushMultiple)} × running current for roughly ${formatQuantity(input.inrushDuration, 's')}. An estimate, not a measurement.`,
+      `Switch-on surge (${RULE_OF_THUMB})`,
+      `Rule of thumb: about ${formatNumber(input.inrushMultiple)} × running current for roughly ${formatQuantity(input.inrushDuration, 's')}. An estimate, not a measurement: give the rectified winding, source resistance and reservoir to work it from the circuit.`,
       SRC.commonPractice,
     ),
     inrushMultipleOfRating: n(
@@ -248,12 +394,14 @@ function compute(input: MainsFuseInput): ReckonerResult {
       TIME_LAG_GATES_SOURCE,
     ),
   };
-  return { outputs };
 }
 
 function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
-  const holds = result.outputs.inrushWithinGate?.value === true;
-  const multiple = Number(result.outputs.inrushMultipleOfRating?.value ?? 0);
+  const o = result.outputs;
+  const holds = o.inrushWithinGate?.value === true;
+  const multiple = Number(o.inrushMultipleOfRating?.value ?? 0);
+  const worked = o.inrushMethod?.value !== RULE_OF_THUMB;
+  const margin = o.surgeMargin ? Number(o.surgeMargin.value) : undefined;
   return compact([
     {
       level: 'danger',
@@ -261,18 +409,38 @@ function cautions(input: MainsFuseInput, result: ReckonerResult): Caution[] {
       message:
         'The primary circuit is at mains voltage. Fit the fuse in the live conductor, ahead of the switch where practice requires, with the unit disconnected.',
     },
-    !holds && {
-      level: multiple > TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple ? 'warning' : 'note',
-      code: 'inrush',
-      message:
-        'The switch-on surge estimate is not covered by the time-lag gate alone. Check the chosen fuse’s melting I²t or time-current curve; a soft-start or thermistor may be needed if it opens at switch-on. Never replace it with a larger rating to stop nuisance blowing without re-checking the design.',
-      source: TIME_LAG_GATES_SOURCE,
-    },
+    worked &&
+      !holds && {
+        level: 'warning',
+        code: 'inrush',
+        field: 'fuseI2t',
+        message:
+          margin === undefined
+            ? 'A quick-acting fuse has no guaranteed pre-arcing I²t to set against the switch-on surge: enter the maker’s figure, or use a time-delay (T) fuse.'
+            : `The switch-on charging surge (${formatNumber(1 / margin, 2)} × the fuse’s pre-arcing I²t) can open the fuse at switch-on. Add series resistance or a soft start, or choose a fuse with a larger pre-arcing I²t; never fit a larger rating without re-checking the design.`,
+      },
+    worked &&
+      holds &&
+      margin !== undefined &&
+      margin < 2 && {
+        level: 'note',
+        code: 'inrush-margin',
+        field: 'fuseI2t',
+        message: `The fuse survives the charging surge with a margin of ${formatNumber(margin, 2)}: little room for the transformer’s magnetising surge and for ageing.`,
+      },
+    !worked &&
+      !holds && {
+        level: multiple > TIME_LAG_GATES[TIME_LAG_GATES.length - 1]!.multiple ? 'warning' : 'note',
+        code: 'inrush',
+        message:
+          'The switch-on surge estimate is not covered by the time-lag gate alone. Check the chosen fuse’s melting I²t or time-current curve; a soft-start or thermistor may be needed if it opens at switch-on. Never replace it with a larger rating to stop nuisance blowing without re-checking the design.',
+        source: TIME_LAG_GATES_SOURCE,
+      },
     input.fuseType === 'F' && {
       level: 'warning',
       code: 'quick-acting-fuse',
       field: 'fuseType',
-      message: `A quick-acting (F) fuse on a transformer input opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × its rating, and the switch-on surge reaches about ${formatNumber(multiple)} × the rating chosen here: expect it to blow at switch-on. Use a time-delay (T) fuse.`,
+      message: `A quick-acting (F) fuse on a transformer input opens within ${formatQuantity(QUICK_ACTING_10X_MAX, 's')} at 10 × its rating, ${worked ? '' : `and the switch-on surge reaches about ${formatNumber(multiple)} × the rating chosen here: `}expect it to blow at switch-on. Use a time-delay (T) fuse.`,
       source: QUICK_ACTING_SOURCE,
     },
     input.margin < 1.1 && {

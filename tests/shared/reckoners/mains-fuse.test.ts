@@ -3,7 +3,9 @@ import { add, divide, multiply, unit, type Unit } from 'mathjs';
 import { pulseI2t, gateFor } from '../../../shared/reckoners/mains-fuse';
 import { getReckoner } from '../../../shared/reckoners/registry';
 import { TIME_LAG_GATES } from '../../../shared/standards/fuses';
+import { evaluateProcedure } from '../../../shared/reckoners/evaluate';
 import { expectClose, fieldErrors, num, run } from '../helpers';
+import { simulateSwitchOn } from './switch-on-rk4';
 
 const windings = [
   { volts: 250, amps: 0.1 },
@@ -244,5 +246,122 @@ describe('mains-fuse', () => {
     expect(fieldErrors('mains-fuse', { load: 'windings', windings: [], mainsVoltage: 230 })[0]!.field).toBe(
       'windings',
     );
+  });
+});
+
+/**
+ * Pre-arcing I²t at 10 × In, typical, of a 5 × 20 mm time-lag (T) fuse-link to IEC 60127-2, from the
+ * maker's data sheet (Schurter SMD-SPT 5×20, docs/references.md §1), rated current → A²s.
+ */
+const MAKER_T_I2T: readonly [number, number][] = [
+  [1, 1.1],
+  [1.25, 1.86],
+  [1.6, 4.35],
+  [2, 9.2],
+  [2.5, 11.7],
+  [3.15, 33.7],
+  [4, 62.4],
+  [5, 97.5],
+  [6.3, 171],
+];
+
+describe('mains-fuse: the switch-on surge from the circuit', () => {
+  // A 300 V winding on 230 V mains, 61 Ω at the secondary (40 Ω + 12 Ω × (300/230)²).
+  const rs = 40 + 12 * (300 / 230) ** 2;
+  const ratio = 300 / 230;
+  const surge = { surgeWindingVoltage: '300 V', surgeSourceResistance: `${rs} Ω`, surgeReservoir: '4.7 µF' };
+
+  it('works the surge I²t in the fuse from the winding, source resistance and reservoir, within 3 % of a simulated switch-on [derived by simulation, docs/references.md §10]', () => {
+    const { outputs } = run('mains-fuse', { windings, mainsVoltage: 230, ...surge });
+    // No rectifier drop: the fuse block takes the whole peak (an upper figure).
+    const sim = simulateSwitchOn({ vPeak: Math.SQRT2 * 300, drop: 0, rs, c: 4.7e-6, hz: 50 });
+    expect(outputs.inrushMethod!.value).toBe('from the circuit');
+    expectClose(num(outputs, 'surgeI2t'), sim.i2t * ratio * ratio, 0.03);
+    expectClose(num(outputs, 'surgePeak'), sim.peak * ratio, 1e-3);
+    // The rule-of-thumb figure is not given beside a worked one.
+    expect(outputs.inrushCurrent).toBeUndefined();
+  });
+
+  it('without the maker’s figure a time-lag fuse is held to the IEC 60127-2 gate at 10 × In (≥ 10 ms), i.e. (10 In)² × 10 ms, which the maker’s data sheet meets at every rating [std: IEC 60127-2 sheet 3, from memory; maker’s data, docs/references.md §1]', () => {
+    for (const [rating, typical] of MAKER_T_I2T) {
+      const gateMinimum = (10 * rating) ** 2 * SHEET_3_GATES[2]!.min;
+      expect(typical, `${rating} A: maker’s typical figure at or above the gate`).toBeGreaterThanOrEqual(
+        gateMinimum,
+      );
+      // A load that puts exactly this rating in the fuse holder (margin 1).
+      const { outputs } = run('mains-fuse', {
+        load: 'va',
+        va: rating * 0.85 * 230,
+        mainsVoltage: 230,
+        margin: 1,
+        ...surge,
+      });
+      expectClose(num(outputs, 'fuseRating'), rating, 1e-9);
+      expectClose(num(outputs, 'fusePreArcingI2t'), gateMinimum);
+      expect(outputs.fusePreArcingI2t!.source).toMatch(/IEC 60127-2/);
+    }
+  });
+
+  it('compares the surge with the maker’s pre-arcing I²t when given, and flags a fuse that opens on it [maker’s data, docs/references.md §1]', () => {
+    // 470 µF: τ = 29 ms; I_pk = 424 V / 60.4 Ω = 7.0 A at the secondary, 9.2 A in the primary;
+    // I²t = 9.2² × 0.029 / 2 ≈ 1.2 A²s at the fuse — above a 1 A T fuse’s 1.1 A²s, below a 2 A fuse’s 9.2 A²s.
+    const big = { ...surge, surgeReservoir: '470 µF' };
+    const expected = ((Math.SQRT2 * 300) / rs) ** 2 * rs * 470e-6 * 0.5 * ratio * ratio;
+    const small = run('mains-fuse', {
+      load: 'va',
+      va: 0.85 * 230,
+      mainsVoltage: 230,
+      margin: 1,
+      ...big,
+      fuseI2t: `${MAKER_T_I2T[0]![1]} A²s`,
+    });
+    expectClose(num(small.outputs, 'surgeI2t'), expected, 1e-9);
+    expect(small.outputs.inrushWithinGate!.value).toBe(false);
+    expect(small.cautions.find((c) => c.code === 'inrush')?.level).toBe('warning');
+    const large = run('mains-fuse', {
+      load: 'va',
+      va: 2 * 0.85 * 230,
+      mainsVoltage: 230,
+      margin: 1,
+      ...big,
+      fuseI2t: `${MAKER_T_I2T[3]![1]} A²s`,
+    });
+    expect(large.outputs.inrushWithinGate!.value).toBe(true);
+    expectClose(num(large.outputs, 'surgeMargin'), 9.2 / expected, 1e-9);
+    expect(large.cautions.map((c) => c.code)).not.toContain('inrush');
+  });
+
+  it('takes the surge I²t of a switch-on surge block in the same procedure by reference [derived]', () => {
+    const r = evaluateProcedure([
+      {
+        name: 'surge',
+        kind: 'switch-on-surge',
+        inputs: {
+          windingVoltage: '300 V',
+          mainsVoltage: '230 V',
+          rectifier: 'silicon-bridge',
+          secondaryResistance: '40 Ω',
+          primaryResistance: '12 Ω',
+          reservoir: '220 µF',
+        },
+      },
+      {
+        name: 'fuse',
+        kind: 'mains-fuse',
+        inputs: { windings, mainsVoltage: 230, surgeI2t: { ref: 'surge.fuseI2tDemand' } },
+      },
+    ]);
+    const s = r.blocks[0]!;
+    const f = r.blocks[1]!;
+    if (!s.ok || !f.ok) throw new Error(`a block failed: ${JSON.stringify(r.blocks)}`);
+    expect(f.outputs.inrushMethod!.value).toBe('from the switch-on surge block');
+    expect(f.outputs.surgeI2t!.value).toBe(s.outputs.fuseI2tDemand!.value);
+  });
+
+  it('without the surge inputs the rule of thumb stands, labelled as such on screen [common practice, docs/references.md §1]', () => {
+    const { outputs } = run('mains-fuse', { windings, mainsVoltage: 230 });
+    expect(outputs.inrushMethod!.value).toBe('rule of thumb, no inputs for the surge');
+    expect(outputs.inrushCurrent!.label).toMatch(/rule of thumb, no inputs for the surge/);
+    expect(outputs.surgeI2t).toBeUndefined();
   });
 });
