@@ -2,14 +2,17 @@
  * Part-rating envelope at high mains: every part of the supply against what it sees at the shop's
  * high-mains figure — capacitors against the no-load peak (they sit there until the valves warm up),
  * the reservoir's ripple current, each resistor's dissipation and voltage with the shop's derating,
- * and the diodes' reverse voltage and switch-on surge.
+ * and the diodes' reverse voltage and switch-on surge. For a choke-input supply the capacitor after the
+ * choke still must stand the no-load peak (below the critical current the output rises toward it), but
+ * it carries only the choke's small 2f ripple current, and the choke holds down the switch-on surge.
  */
 import { RESISTOR_DERATING } from '../standards/thresholds';
 import { formatNumber, formatQuantity } from '../units/format';
 import { CapInputOverload, simulateCapacitorInput } from './capacitor-input';
 import { compact, hazardousVoltage, LOCAL_CODES } from './cautions';
 import { ReckonerInputError } from './errors';
-import { defineInputs, optionalQuantity, quantity, rows, text, type InputOf } from './fields';
+import { CHOKE_INPUT_RATIO, secondHarmonicPeak } from './choke-input';
+import { defineInputs, optionalQuantity, quantity, rows, select, text, type InputOf } from './fields';
 import { b, n, q, SRC } from './outputs';
 import { rectifierDrop } from './peak-no-load';
 import { diodeDropField, rectifierField, requireValveDrop, valveDropField } from './rectifier';
@@ -38,6 +41,22 @@ const shape = {
     max: 50,
     plausible: { min: 0, max: 25 },
     help: 'Small transformers read 5–10 % above rating unloaded (common practice).',
+  }),
+  filter: select({
+    label: 'Filter input',
+    options: [
+      { value: 'capacitor', label: 'Capacitor input (reservoir first)' },
+      { value: 'choke', label: 'Choke input (choke first)' },
+    ],
+    default: 'capacitor',
+  }),
+  inputChoke: optionalQuantity('H', {
+    label: 'Input choke inductance',
+    min: 1e-3,
+    max: 500,
+    plausible: { min: 0.5, max: 50 },
+    part: 'input-choke',
+    help: 'Choke input only: at the lightest load (a swinging choke’s higher figure).',
   }),
   rectifier: rectifierField(),
   diodeDrop: diodeDropField(),
@@ -68,6 +87,7 @@ const shape = {
     min: 1e-9,
     max: 1,
     plausible: { min: 1e-6, max: 0.01 },
+    help: 'Capacitor input: the reservoir. Choke input: the first capacitor, after the choke.',
   }),
   reservoirRippleRating: optionalQuantity('A rms', {
     label: 'Reservoir ripple-current rating',
@@ -140,6 +160,8 @@ export type PartRatingsInput = InputOf<typeof shape>;
 
 const inputs = baseSchema.superRefine((v, ctx) => {
   requireValveDrop(v, ctx);
+  if (v.filter === 'choke' && v.inputChoke === undefined)
+    ctx.addIssue({ code: 'custom', path: ['inputChoke'], message: 'is required for a choke-input filter' });
 });
 
 /** Reverse voltage per diode: √2 V for a bridge, 2√2 V of a half-winding for a centre tap [derived]. */
@@ -162,28 +184,16 @@ function compute(input: PartRatingsInput): ReckonerResult {
       SRC.derived,
     ),
   };
-  let ripple;
-  try {
-    ripple = simulateCapacitorInput({
-      vPeak: Math.SQRT2 * windingHigh,
-      drop,
-      rSource: input.sourceResistance,
-      capacitance: input.reservoir,
-      frequency: input.mainsFrequency,
-      loadCurrent: input.loadCurrent,
-    });
-  } catch (e) {
-    if (e instanceof CapInputOverload)
-      throw new ReckonerInputError('loadCurrent', `too high for this winding and reservoir: ${e.message}`);
-    throw e;
-  }
-  outputs.reservoirRippleCurrent = q(
-    ripple.capacitorRmsCurrent,
-    'A rms',
-    'Reservoir ripple current at high mains',
-    'From the capacitor-input solver at the high-mains winding voltage and the load current.',
-    SRC.derived,
-  );
+  const choke = input.filter === 'choke' ? chokeInputStress(input, windingHigh, drop) : null;
+  if (choke) Object.assign(outputs, choke.outputs);
+  else
+    outputs.reservoirRippleCurrent = q(
+      capacitorInputRipple(input, windingHigh, drop),
+      'A rms',
+      'Reservoir ripple current at high mains',
+      'From the capacitor-input solver at the high-mains winding voltage and the load current.',
+      SRC.derived,
+    );
   input.capacitors.forEach((c, i) => {
     outputs[`capacitor${i + 1}.margin`] = q(
       c.rating - peakHigh,
@@ -221,11 +231,14 @@ function compute(input: PartRatingsInput): ReckonerResult {
         : '2√2 × the half-winding, unloaded.',
       SRC.derived,
     );
+    const byResistance = (Math.SQRT2 * windingHigh - drop) / input.sourceResistance;
     outputs.diodeSurgePeak = q(
-      (Math.SQRT2 * windingHigh - drop) / input.sourceResistance,
+      choke ? Math.min(byResistance, choke.surgeByChoke) : byResistance,
       'A peak',
       'Switch-on surge at high mains',
-      'Peak ÷ source resistance into an empty reservoir.',
+      choke
+        ? 'At most the peak ÷ √(L ÷ C) (the choke and the empty capacitor, no loss) and the peak ÷ source resistance, whichever is less.'
+        : 'Peak ÷ source resistance into an empty reservoir.',
       SRC.derived,
     );
   }
@@ -237,13 +250,84 @@ function compute(input: PartRatingsInput): ReckonerResult {
   return { outputs };
 }
 
+function capacitorInputRipple(input: PartRatingsInput, windingHigh: number, drop: number): number {
+  try {
+    return simulateCapacitorInput({
+      vPeak: Math.SQRT2 * windingHigh,
+      drop,
+      rSource: input.sourceResistance,
+      capacitance: input.reservoir,
+      frequency: input.mainsFrequency,
+      loadCurrent: input.loadCurrent,
+    }).capacitorRmsCurrent;
+  } catch (e) {
+    if (e instanceof CapInputOverload)
+      throw new ReckonerInputError('loadCurrent', `too high for this winding and reservoir: ${e.message}`);
+    throw e;
+  }
+}
+
+/**
+ * Choke input at high mains (docs/references.md §3): the DC is 2√2/π × rms less the drops; the first
+ * capacitor carries the choke's 2f ripple current, (4 V_pk ÷ 3π) ÷ |2ωL − 1 ÷ 2ωC|, as long as the load
+ * keeps the choke conducting (above V_dc ÷ 3ωL). At switch-on the choke and the empty capacitor
+ * ring: the current stays under V_pk √(C ÷ L) [derived: ½ L i² ≤ ½ C V_pk²].
+ */
+function chokeInputStress(input: PartRatingsInput, windingHigh: number, drop: number) {
+  const L = input.inputChoke!;
+  const C = input.reservoir;
+  const w = 2 * Math.PI * input.mainsFrequency;
+  const w2 = 2 * w;
+  const vPeak = Math.SQRT2 * windingHigh;
+  const dc = CHOKE_INPUT_RATIO * windingHigh - drop - input.loadCurrent * input.sourceResistance;
+  if (dc <= 0)
+    throw new ReckonerInputError('loadCurrent', 'leaves no DC after the rectifier and resistance drops');
+  const ripple = secondHarmonicPeak(vPeak) / Math.abs(w2 * L - 1 / (w2 * C)) / Math.SQRT2;
+  const critical = dc / (3 * w * L);
+  return {
+    critical,
+    surgeByChoke: (vPeak - drop) * Math.sqrt(C / L),
+    outputs: {
+      loadedOutputHigh: q(
+        dc,
+        'V dc',
+        'Loaded output at high mains (choke input)',
+        `2√2 ÷ π × the winding at +${formatNumber(input.highMains)} % mains, less the rectifier drop and load current × source resistance.`,
+        SRC.derived,
+      ),
+      reservoirRippleCurrent: q(
+        ripple,
+        'A rms',
+        'Ripple current in the capacitor after the choke, at high mains',
+        'The 2f term of the rectified wave (4 V_pk ÷ 3π) driven through the choke and capacitor: ÷ |2ωL − 1 ÷ 2ωC|, rms. Holds while the choke conducts all the time.',
+        SRC.derived,
+      ),
+      criticalCurrent: q(
+        critical,
+        'A dc',
+        'Least load that keeps the choke conducting',
+        'V_dc ÷ 3ωL (critical inductance, ω the mains angular frequency).',
+        SRC.derived,
+      ),
+    } satisfies ReckonerResult['outputs'],
+  };
+}
+
 function cautions(input: PartRatingsInput, result: ReckonerResult): Caution[] {
   const o = result.outputs;
   const peak = Number(o.noLoadPeakHigh!.value);
   const rippleI = Number(o.reservoirRippleCurrent!.value);
   const piv = o.diodePiv ? Number(o.diodePiv.value) : undefined;
   const surge = o.diodeSurgePeak ? Number(o.diodeSurgePeak.value) : undefined;
+  const critical = o.criticalCurrent ? Number(o.criticalCurrent.value) : undefined;
   return compact([
+    critical !== undefined &&
+      input.loadCurrent < critical && {
+        level: 'warning',
+        code: 'below-critical',
+        field: 'inputChoke',
+        message: `At ${formatQuantity(input.loadCurrent, 'A')} the choke does not conduct all the time (it needs ${formatQuantity(critical, 'A')}): the capacitor charges toward the no-load peak of ${formatQuantity(peak, 'V')} and carries peaky charging current; the ripple-current figure does not hold.`,
+      },
     hazardousVoltage(peak, 'At high mains with no load the filter'),
     ...input.capacitors.map((c, i): Caution | null =>
       c.rating < peak

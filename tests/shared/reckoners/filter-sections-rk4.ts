@@ -36,6 +36,10 @@ export interface ChokeInputCircuit {
   /** Resistive load across the capacitor, Ω. */
   rLoad: number;
   stepsPerCycle?: number;
+  /** Start from rest (empty capacitor, no current) switched on at the mains peak, for the surge. */
+  fromRest?: boolean;
+  /** Cycles to run instead of the settling rule (the last four are sampled). */
+  cycles?: number;
 }
 
 /**
@@ -50,31 +54,44 @@ export function simulateChokeInput(o: ChokeInputCircuit) {
   const w = 2 * Math.PI * o.f;
   const n = o.stepsPerCycle ?? 4000;
   const h = 1 / o.f / n;
-  let v = 0.9 * o.vRms;
+  let v = o.fromRest ? 0 : 0.9 * o.vRms;
   let i = v / o.rLoad;
+  const phase = o.fromRest ? Math.PI / 2 : 0;
   const deriv = (t: number, iL: number, vC: number) => {
-    const e = Math.abs(vPk * Math.sin(w * t)) - drop;
+    const e = Math.abs(vPk * Math.sin(w * t + phase)) - drop;
     let di = (e - vC - o.rSeries * iL) / o.L;
     if (iL <= 0 && di < 0) di = 0;
     return [di, (iL - vC / o.rLoad) / o.C] as const;
   };
-  const cycles = Math.ceil(12 * o.rLoad * o.C * o.f + 40) + 4;
+  const cycles = o.cycles ?? Math.ceil(12 * o.rLoad * o.C * o.f + 40) + 4;
   let minI = Infinity;
+  let peakI = 0;
+  let sumIc2 = 0;
   let sumV = 0;
   let sumV2 = 0;
   let samples = 0;
   for (let k = 0, t = 0; k < cycles * n; k++, t += h) {
     [i, v] = rk4Step(deriv, t, i, v, h);
     i = Math.max(0, i);
+    peakI = Math.max(peakI, i);
     if (k >= (cycles - 4) * n) {
       minI = Math.min(minI, i);
+      sumIc2 += (i - v / o.rLoad) ** 2;
       sumV += v;
       sumV2 += v * v;
       samples++;
     }
   }
   const mean = sumV / samples;
-  return { minCurrent: minI, dc: mean, rippleRms: Math.sqrt(Math.max(0, sumV2 / samples - mean * mean)) };
+  return {
+    minCurrent: minI,
+    /** The largest choke current since the start (from rest: the switch-on surge). */
+    peakCurrent: peakI,
+    dc: mean,
+    rippleRms: Math.sqrt(Math.max(0, sumV2 / samples - mean * mean)),
+    /** rms current in the capacitor: choke current less load current. */
+    capacitorRms: Math.sqrt(sumIc2 / samples),
+  };
 }
 
 export interface SectionCircuit {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { expectClose, num, run } from '../helpers';
+import { expectClose, fieldErrors, num, run } from '../helpers';
+import { simulateChokeInput } from './filter-sections-rk4';
 import { solveByRk4 } from './capacitor-input-rk4';
 
 const supply = {
@@ -72,5 +73,82 @@ describe('part ratings at high mains', () => {
     const codes = cautions.map((c) => c.code);
     expect(codes).toContain('diode-piv');
     expect(codes).toContain('diode-surge');
+  });
+});
+
+describe('part ratings at high mains: choke input', () => {
+  // 300 V bridge winding, 10 H input choke and 100 µF after it, 150 mA: well above the critical
+  // current (V_dc ÷ 3ωL ≈ 290 V ÷ 9.4 kΩ ≈ 31 mA).
+  const choke = { ...supply, filter: 'choke', inputChoke: '10 H' };
+  const high = 300 * 1.1;
+
+  it('the capacitor after the choke still must stand the no-load peak: below the critical current the output rises toward it [docs/references.md §3]', () => {
+    const { outputs } = run('part-ratings', { ...choke, capacitors: [{ rating: '450 V' }] });
+    expectClose(num(outputs, 'noLoadPeakHigh'), Math.SQRT2 * 300 * 1.21 - 2, 1e-12);
+    // Loaded, a choke-input supply sits near 0.9 × rms: 2√2/π × 330 V less the drops.
+    expectClose(num(outputs, 'loadedOutputHigh'), ((2 * Math.SQRT2) / Math.PI) * high - 2 - 0.15 * 60, 1e-9);
+    // Simulated with no load to speak of (10 MΩ) the capacitor creeps up to the peak (98.5 % after 30 s).
+    const idle = simulateChokeInput({
+      vRms: high,
+      drop: 2,
+      f: 50,
+      L: 10,
+      rSeries: 60,
+      C: 100e-6,
+      rLoad: 1e7,
+      cycles: 1500,
+      stepsPerCycle: 1000,
+    });
+    expect(idle.dc).toBeGreaterThan(0.97 * (Math.SQRT2 * high - 2));
+  });
+
+  it('the ripple current in the capacitor after the choke agrees with an RK4 integration within 5 %, and is far below the capacitor-input figure [docs/references.md §3, §7]', () => {
+    const { outputs, cautions } = run('part-ratings', choke);
+    const sim = simulateChokeInput({
+      vRms: high,
+      drop: 2,
+      f: 50,
+      L: 10,
+      rSeries: 60,
+      C: 100e-6,
+      rLoad: num(outputs, 'loadedOutputHigh') / 0.15,
+    });
+    expect(sim.minCurrent, 'the choke conducts all the time').toBeGreaterThan(0);
+    expectClose(num(outputs, 'reservoirRippleCurrent'), sim.capacitorRms, 0.05);
+    const capInput = run('part-ratings', supply);
+    expect(num(outputs, 'reservoirRippleCurrent')).toBeLessThan(
+      num(capInput.outputs, 'reservoirRippleCurrent') / 5,
+    );
+    expect(cautions.map((c) => c.code)).not.toContain('below-critical');
+  });
+
+  it('below the critical current the block says the capacitor charges toward the peak [docs/references.md §3]', () => {
+    const { cautions } = run('part-ratings', { ...choke, loadCurrent: '10 mA' });
+    expect(cautions.find((c) => c.code === 'below-critical')?.level).toBe('warning');
+  });
+
+  it('the diodes’ switch-on surge is held by the choke: at most V_pk √(C/L) and V_pk ÷ R, and the simulated switch-on stays under it [derived; docs/references.md §3]', () => {
+    const { outputs } = run('part-ratings', choke);
+    const sim = simulateChokeInput({
+      vRms: high,
+      drop: 2,
+      f: 50,
+      L: 10,
+      rSeries: 60,
+      C: 100e-6,
+      rLoad: 1e7,
+      fromRest: true,
+      cycles: 20,
+    });
+    const bound = num(outputs, 'diodeSurgePeak');
+    expectClose(bound, (Math.SQRT2 * high - 2) * Math.sqrt(100e-6 / 10), 1e-9);
+    expect(sim.peakCurrent).toBeLessThanOrEqual(bound);
+    expect(sim.peakCurrent, 'the bound is not loose').toBeGreaterThan(0.4 * bound);
+  });
+
+  it('a choke-input filter needs the choke', () => {
+    expect(fieldErrors('part-ratings', { ...supply, filter: 'choke' }).map((e) => e.field)).toContain(
+      'inputChoke',
+    );
   });
 });
