@@ -1,7 +1,8 @@
 import { scaleLinear } from '@visx/scale';
 import type { HeaterBudgetInput } from '../reckoners/heater-budget';
+import type { PartRatingsInput } from '../reckoners/part-ratings';
 import type { TransformerLoadingInput } from '../reckoners/transformer-loading';
-import { formatQuantity } from '../units/format';
+import { formatNumber, formatQuantity } from '../units/format';
 import { linearAxis, RECKONER_FRAME, type PlotBlock, type PlotModel } from './reckoner-plot';
 
 /** Bars run right from a wider left margin, where each row is named. */
@@ -16,6 +17,8 @@ interface BarRow {
   rating?: number;
   /** From here to the rating is "close": shaded. */
   near?: number;
+  /** The words beside the bar, when not the value in the axis's unit. */
+  text?: string;
 }
 
 const shorten = (s: string, n: number) => (s.length > n ? `${s.slice(0, n - 1)}…` : s);
@@ -28,6 +31,9 @@ function barsPlot(o: {
   axisLabel: string;
   rows: BarRow[];
   description: string;
+  caption?: string;
+  /** The figures as a table, when not the load and rating in the axis's unit. */
+  table?: PlotModel['table'];
 }): PlotModel {
   const f = BAR_FRAME;
   const height = f.top + o.rows.length * f.rowHeight + f.bottom;
@@ -61,8 +67,9 @@ function barsPlot(o: {
           : ' Everything is within its rating.'
         : ''),
     caption:
+      o.caption ??
       'Bars: the load. Dashed line and hollow diamond: the rating it is held against. Shaded: the margin ' +
-      'close to the rating.',
+        'close to the rating.',
     width: f.width,
     height,
     x,
@@ -114,7 +121,7 @@ function barsPlot(o: {
       key: r.key,
       x: px(r.value) + 6,
       y: yScale(i) + 4,
-      text: q(r.value),
+      text: r.text ?? q(r.value),
       anchor: 'start' as const,
     })),
     legend: [
@@ -124,7 +131,7 @@ function barsPlot(o: {
         ? [{ sign: { band: true as const }, text: 'close to the rating' }]
         : []),
     ],
-    table: {
+    table: o.table ?? {
       label: 'The plotted figures as a table',
       columns: ['', `Load (${o.unit})`, 'Rating', 'Share of rating'],
       rows: o.rows.map((r) => ({
@@ -195,5 +202,82 @@ export function transformerPlot(block: PlotBlock): PlotModel {
       },
     ],
     description: `${formatQuantity(total, 'VA', 3)} in all over ${input.windings.length} ${input.windings.length === 1 ? 'winding' : 'windings'}${input.ratedVA === undefined ? '' : ` of a ${formatQuantity(input.ratedVA, 'VA', 3)} transformer`}.`,
+  });
+}
+
+/**
+ * Each part's stress at high mains as a share of its rating, on one axis (volts, watts and amps
+ * side by side): 100 % is the rating, and a resistor's derating is shaded up to it. Null when no part
+ * has a rating to hold it against.
+ */
+export function partsPlot(block: PlotBlock): PlotModel | null {
+  const input = block.input as PartRatingsInput;
+  const o = block.outputs;
+  const peak = o.noLoadPeakHigh!.value as number;
+  const parts: (BarRow & { stress: string; rated: string })[] = [];
+  const add = (key: string, name: string, stress: number, rating: number, unit: string, near?: number) =>
+    parts.push({
+      key,
+      name,
+      value: (100 * stress) / rating,
+      rating: 100,
+      ...(near !== undefined && { near }),
+      text: `${formatQuantity(stress, unit, 3)} (${formatNumber((100 * stress) / rating, 3)} %)`,
+      stress: formatQuantity(stress, unit, 3),
+      rated: formatQuantity(rating, unit, 3),
+    });
+  input.capacitors.forEach((c, i) =>
+    add(`capacitor${i + 1}`, c.label || `Capacitor ${i + 1}`, peak, c.rating, 'V'),
+  );
+  if (input.reservoirRippleRating !== undefined)
+    add(
+      'ripple',
+      'Reservoir ripple current',
+      o.reservoirRippleCurrent!.value as number,
+      input.reservoirRippleRating,
+      'A',
+    );
+  input.resistors.forEach((r, i) => {
+    const name = r.label || `Resistor ${i + 1}`;
+    add(
+      `resistor${i + 1}`,
+      `${name}: power`,
+      o[`resistor${i + 1}.dissipation`]!.value as number,
+      r.powerRating,
+      'W',
+      input.resistorDerating,
+    );
+    if (r.voltageLimit !== undefined)
+      add(
+        `resistor${i + 1}-volts`,
+        `${name}: voltage`,
+        Math.max(r.current * r.resistance, peak),
+        r.voltageLimit,
+        'V',
+      );
+  });
+  if (input.diodePiv !== undefined && o.diodePiv)
+    add('piv', 'Diode reverse voltage', o.diodePiv.value as number, input.diodePiv, 'V');
+  if (input.diodeSurge !== undefined && o.diodeSurgePeak)
+    add('surge', 'Diode surge', o.diodeSurgePeak.value as number, input.diodeSurge, 'A');
+  if (parts.length === 0) return null;
+  return barsPlot({
+    plot: 'part-ratings',
+    title: `${block.name}: each part’s stress against its rating at high mains`,
+    unit: '%',
+    axisLabel: 'Stress at high mains (% of the rating)',
+    rows: parts,
+    description: `${parts.length} ${parts.length === 1 ? 'part' : 'parts'} at +${formatNumber(input.highMains)} % mains, the capacitors at the no-load peak of ${formatQuantity(peak, 'V', 4)}.`,
+    caption:
+      'Bars: each part’s stress as a share of its rating. Dashed line and hollow diamond: the rating (100 %). ' +
+      `Shaded: a resistor’s power above the shop’s derating (${formatNumber(input.resistorDerating)} % of its rating).`,
+    table: {
+      label: 'The plotted figures as a table',
+      columns: ['Part', 'Stress at high mains', 'Rating', 'Share of rating'],
+      rows: parts.map((r) => ({
+        key: r.key,
+        cells: [r.name, r.stress, r.rated, `${formatNumber(r.value, 3)} %`],
+      })),
+    },
   });
 }

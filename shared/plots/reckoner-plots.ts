@@ -2,10 +2,12 @@ import type { ResolvedReading } from '../document/evaluate';
 import type { BlockResult } from '../reckoners';
 import type { ReckonerKind } from '../reckoners/registry';
 import type { PlotBlock, PlotModel } from './reckoner-plot';
-import { heaterPlot, transformerPlot } from './bars';
+import { heaterPlot, partsPlot, transformerPlot } from './bars';
+import { chokePlot } from './choke';
 import { dischargePlot } from './discharge';
 import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
+import { substitutionPlot } from './substitution';
 import { surgePlot } from './surge';
 
 type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotModel | null;
@@ -18,6 +20,9 @@ export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   'heater-budget': heaterPlot,
   'transformer-loading': transformerPlot,
   'switch-on-surge': surgePlot,
+  'choke-input': chokePlot,
+  'rectifier-substitution': substitutionPlot,
+  'part-ratings': partsPlot,
 };
 
 export const hasPlot = (kind: string): kind is keyof typeof RECKONER_PLOTS =>
