@@ -13,6 +13,7 @@ import { RevisionReviewPanel } from '@/features/review/components/revision-revie
 import { SignOffDialog, signOffSchemas } from '@/features/review/components/sign-off-dialog';
 import { TextDiffView } from '@/features/review/components/text-diff-view';
 import { ChangeReason } from '@/features/review/components/change-reason';
+import { ChangedPictures } from '@/features/review/components/changed-pictures';
 import { FirstRevisionTable, ValueChangesTable } from '@/features/review/components/value-changes-table';
 import { useRevision } from '@/features/procedures/api/get-revision';
 import { DocumentView } from '@/features/procedures/components/reader/document-view';
@@ -124,6 +125,12 @@ export default function ReviewRevisionPage() {
             <p className="text-sm text-graphite-soft">{v.cannotDecideReason}</p>
           )}
         </section>
+      )}
+
+      {v.base && (
+        <RegionBoundary label="Pictures of the changed calculations">
+          <ChangedPictures base={v.base} revision={r} changes={v.valueChanges} />
+        </RegionBoundary>
       )}
 
       <div className="grid grid-cols-1 gap-6 lg:grid-cols-2 lg:items-start">
