@@ -168,4 +168,27 @@ describe('reckoner pictures in the reader, in Chromium', () => {
     expect(tables[1]).toMatch(/Lightest load\s+40 mA/);
     await reviewer.context().close();
   });
+
+  it('the run sheet draws the ladder and the discharge at the run’s measured mains', async () => {
+    const page = await openPage();
+    await app.signIn(page, 'tom');
+    // The seeded TC18-0142 run was measured at 231 V.
+    const runId = await page.evaluate(async () => {
+      const list = await (await fetch('/api/runs')).json();
+      return list.runs.find(
+        (r: { status: string; unit: { serial: string } }) =>
+          r.unit.serial === 'TC18-0142' && r.status === 'signed',
+      ).id as string;
+    });
+    await page.goto(`${app.url}/runs/${runId}/sheet`);
+    await expectPicture(page, {
+      name: 'ladder: node voltages down the ladder (at 231 V mains)',
+      units: ['(V DC)'],
+    });
+    await expectPicture(page, {
+      name: 'bleed: discharge after switch-off (at 231 V mains)',
+      units: ['(s)', 'V DC'],
+    });
+    await page.context().close();
+  });
 });

@@ -13,6 +13,7 @@ import {
   type SheetNotice,
 } from '../../../shared/runs/run-sheet-model';
 import type { RunView } from '../../../shared/schemas/runs';
+import { drawRunPictures } from './pdf-reckoner-pictures';
 import { SAFETY_SIGNS, WARNING_TRIANGLE, type SignalLevel } from '../../../shared/safety-signs';
 
 type Doc = InstanceType<typeof PDFDocument>;
@@ -250,6 +251,7 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   }
 
   plotSection(doc, sheet.plot, { left, width, heading, ensure });
+  drawRunPictures(doc, run, { left, width, heading, ensure, text: pdfText });
 
   heading(SHEET_HEADINGS.checks);
   for (const c of sheet.checks) {

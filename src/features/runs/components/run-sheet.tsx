@@ -14,6 +14,7 @@ import { SafetySign, SignalWord } from '@/components/ui/safety-sign';
 
 // The plot's code (visx) loads only when a sheet is shown, not with the bench screen around it.
 const DeviationPlot = lazy(() => import('./deviation-plot'));
+const RunReckonerPictures = lazy(() => import('./run-reckoner-pictures'));
 
 const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
   signed: 'border-ok text-ok',
@@ -158,6 +159,10 @@ export function RunSheet({ run }: { run: RunView }) {
           <DeviationPlot plot={sheet.plot} />
         </Suspense>
       </section>
+
+      <Suspense fallback={null}>
+        <RunReckonerPictures run={run} />
+      </Suspense>
 
       <section>
         <h2 className="mb-2 text-lg font-semibold">{SHEET_HEADINGS.checks}</h2>

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { renderRunSheetPdf } from '../../../../server/modules/runs/pdf';
 import type { EntryView, RunStep, RunView } from '../../../../shared/schemas/runs';
 import { pdfText } from '../../../support/pdf-text';
+import { snapshotAt } from '../../../shared/plots/run-snapshot';
 
 const tom = { id: 't', displayName: 'Tom Achterberg' };
 const at = '2026-03-04T05:06:07.890Z';
@@ -66,7 +67,7 @@ function run(n: number): RunView {
       signOffs: [],
     },
     params: { mainsVoltage: 230, mainsFrequency: 50, mainsNominal: 230 } as RunView['params'],
-    snapshot: {} as RunView['snapshot'],
+    snapshot: { params: {}, blocks: [], readings: [], errors: [] } as unknown as RunView['snapshot'],
     steps,
     entries,
     photos: [],
@@ -100,10 +101,13 @@ function plotBoxes(pdf: Buffer) {
       continue;
     }
     const n = String.raw`(-?[\d.]+)`;
+    // Every drawing on the page, not only the first.
     const box = new RegExp(
       String.raw`1 0 0 1 ${n} ${n} cm\s+0\.75 0 0 0\.75 0 0 cm\s+q\s+0 0 m\s+${n} 0 l\s+\3 ${n} l\s+0 \4 l\s+h\s+W n`,
-    ).exec(content);
-    if (box) boxes.push({ x: +box[1]!, y: +box[2]!, width: +box[3]! * 0.75, height: +box[4]! * 0.75 });
+      'g',
+    );
+    for (const b of content.matchAll(box))
+      boxes.push({ x: +b[1]!, y: +b[2]!, width: +b[3]! * 0.75, height: +b[4]! * 0.75 });
   }
   return boxes;
 }
@@ -138,5 +142,22 @@ describe('the run-sheet PDF’s plot', () => {
     r.steps.push({ id: 'hz', kind: 'hazard', position: 3, section: 'Start', text });
     const lines = pdfText(await renderRunSheetPdf(r));
     expect(lines.join(' ').replace(/\s+/g, ' ')).toContain(`${text} [not done]`);
+  });
+
+  it('draws the run’s ladder and discharge pictures at its mains, each inside the page’s margins', async () => {
+    const r = { ...run(3), snapshot: snapshotAt(207), params: { ...run(3).params, mainsVoltage: 207 } };
+    const pdf = await renderRunSheetPdf(r);
+    const boxes = plotBoxes(pdf);
+    expect(boxes).toHaveLength(3); // the readings, then the two pictures
+    for (const b of boxes) {
+      expect(b.x).toBeCloseTo(A4.margin, 3);
+      expect(b.x + b.width).toBeLessThanOrEqual(A4.width - A4.margin + 0.01);
+      expect(b.y).toBeGreaterThanOrEqual(A4.margin);
+      expect(b.y + b.height).toBeLessThanOrEqual(A4.height - A4.margin + 0.01);
+    }
+    const lines = pdfText(pdf).join('\n');
+    expect(lines).toContain('ladder: node voltages down the ladder (at 207 V mains)');
+    expect(lines).toContain('Node voltage (V DC)');
+    expect(lines).toMatch(/bleed: discharge after switch-off \(at 207 V mains\)/);
   });
 });
