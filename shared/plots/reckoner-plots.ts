@@ -8,7 +8,7 @@ import { dischargePlot } from './discharge';
 import { ladderPlot } from './ladder';
 import { ripplePlot } from './ripple';
 import { substitutionPlot } from './substitution';
-import { surgePlot } from './surge';
+import { fuseSurgePlot, surgePlot } from './surge';
 
 type Layout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotModel | null;
 
@@ -20,6 +20,7 @@ export const RECKONER_PLOTS: Partial<Record<ReckonerKind, Layout>> = {
   'heater-budget': heaterPlot,
   'transformer-loading': transformerPlot,
   'switch-on-surge': surgePlot,
+  'mains-fuse': fuseSurgePlot,
   'choke-input': chokePlot,
   'rectifier-substitution': substitutionPlot,
   'part-ratings': partsPlot,

@@ -32,9 +32,24 @@ export function surgePlot(block: PlotBlock): PlotModel | null {
     typeof tau !== 'number'
   )
     return null;
+  return surgeLayout(block.name, peak, tau, input.fuseI2t);
+}
+
+/**
+ * The mains-fuse block's surge, where it was worked from the circuit: the same picture against the
+ * fuse's pre-arcing I²t it used (the maker's figure, or the IEC 60127-2 minimum; docs/references.md §1).
+ */
+export function fuseSurgePlot(block: PlotBlock): PlotModel | null {
+  const peak = block.outputs.surgePeak?.value;
+  const tau = block.outputs.surgeTimeConstant?.value;
+  const fuse = block.outputs.fusePreArcingI2t?.value;
+  if (typeof peak !== 'number' || typeof tau !== 'number') return null;
+  return surgeLayout(block.name, peak, tau, typeof fuse === 'number' ? fuse : undefined);
+}
+
+function surgeLayout(name: string, peak: number, tau: number, fuse: number | undefined): PlotModel {
   const total = (peak * peak * tau) / 2;
   const upTo = (t: number) => total * (1 - Math.exp((-2 * t) / tau));
-  const fuse = input.fuseI2t;
   const ms = (s: number) => s * 1000;
   const i2t = (v: number) => formatQuantity(v, 'A²s', 3);
   const x = linearAxis([0, ms(TAUS * tau)], FRAME_X, 'Time after switch-on (ms)');
@@ -58,7 +73,7 @@ export function surgePlot(block: PlotBlock): PlotModel | null {
   const amps = formatQuantity(peak, 'A', 3);
   return {
     plot: 'surge',
-    title: `${block.name}: switch-on surge against the fuse`,
+    title: `${name}: switch-on surge against the fuse`,
     description:
       `A ${amps} peak surge in the primary decaying with a ${formatQuantity(tau, 's', 3)} time constant delivers ` +
       `${i2t(total)} in all` +

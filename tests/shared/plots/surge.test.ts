@@ -68,3 +68,36 @@ describe('the switch-on surge against the fuse', () => {
     expect(plotFor(rough)).toBeNull();
   });
 });
+
+describe('the mains fuse’s surge, worked from the circuit', () => {
+  // 300 V winding, 61 Ω at the secondary, 470 µF on 230 V mains, 1 A time-lag fuse (margin 1):
+  // I_pk = √2 × 300 ÷ 61 × 300/230, τ = 61 × 470 µF; the fuse held to (10 × 1 A)² × 10 ms = 1 A²s (docs/references.md §1).
+  const fuseBlock = evaluatedBlock('mains-fuse', 'fuse', {
+    load: 'va',
+    va: `${0.85 * 230} VA`,
+    mainsVoltage: '230 V',
+    margin: 1,
+    surgeWindingVoltage: '300 V',
+    surgeSourceResistance: '61 Ω',
+    surgeReservoir: '470 µF',
+  });
+  const fuseModel = plotFor(fuseBlock)!;
+
+  it('draws the surge in the primary against the fuse’s pre-arcing I²t', () => {
+    const pk = ((Math.SQRT2 * 300) / 61) * (300 / 230);
+    const t = 61 * 470e-6;
+    const fd = fuseModel.y.scale.domain() as [number, number];
+    const fr = fuseModel.y.scale.range() as [number, number];
+    const line = (key: string) => fuseModel.lines.find((l) => l.key === key)!.points[0]![1];
+    // On a linear axis: the whole surge at I_pk² τ / 2 and the fuse at 1 A²s.
+    expect(lerp(line('total'), fr, fd)).toBeCloseTo((pk * pk * t) / 2, 6);
+    expect(lerp(line('fuse'), fr, fd)).toBeCloseTo(1, 6);
+    expect(fuseModel.marks.map((m) => m.shape)).toEqual(['triangle']);
+  });
+
+  it('draws nothing on the rule of thumb', () => {
+    expect(
+      plotFor(evaluatedBlock('mains-fuse', 'fuse', { load: 'va', va: '100 VA', mainsVoltage: '230 V' })),
+    ).toBeNull();
+  });
+});
