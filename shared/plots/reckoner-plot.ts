@@ -83,3 +83,24 @@ export const FRAME_Y: [number, number] = [RECKONER_FRAME.height - RECKONER_FRAME
 /** The readings whose expected value is this output ("block.output"): their bands belong on its picture. */
 export const readingsOf = (source: string, readings: readonly ResolvedReading[]) =>
   readings.filter((r) => r.expectedSource === source && r.low !== null && r.high !== null);
+
+/** A layout: the block's picture from its result and the readings that check it, or null. */
+export type PlotLayout = (block: PlotBlock, readings: readonly ResolvedReading[]) => PlotModel | null;
+
+/**
+ * A block's picture by `layout`, or null: not evaluated, or a snapshot stored before blocks kept their
+ * validated input. A layout that cannot draw these inputs gives null too.
+ */
+export function drawBlock(
+  layout: PlotLayout,
+  block: BlockResult | undefined,
+  readings: readonly ResolvedReading[],
+): PlotModel | null {
+  if (!block?.ok || !block.input) return null;
+  try {
+    return layout(block, readings);
+  } catch {
+    // The block's own outputs stand; a picture that cannot be drawn is left out.
+    return null;
+  }
+}

@@ -1,11 +1,19 @@
 import type { Snapshot } from '../document/evaluate';
 import type { ReckonerKind } from '../reckoners/registry';
 import { formatQuantity } from '../units/format';
-import type { PlotModel } from './reckoner-plot';
-import { plotFor } from './reckoner-plots';
+import { dischargePlot } from './discharge';
+import { ladderPlot } from './ladder';
+import { drawBlock, type PlotLayout, type PlotModel } from './reckoner-plot';
 
-/** The reckoner pictures a run sheet carries: the B+ staircase with the readings' bands, and the discharge. */
-const RUN_SHEET_KINDS: readonly ReckonerKind[] = ['dropper-ladder', 'bleeder'];
+/**
+ * The reckoner pictures a run sheet carries, the B+ staircase with the readings' bands and the discharge:
+ * their layouts taken one by one (not through reckoner-plots.ts), so the run sheet's lazy chunk does not
+ * pull in every layout and the reckoners they read.
+ */
+const RUN_SHEET_PLOTS: Partial<Record<ReckonerKind, PlotLayout>> = {
+  'dropper-ladder': ladderPlot,
+  bleeder: dischargePlot,
+};
 
 /**
  * The run's own pictures, drawn from its snapshot (evaluated at the bench's measured mains), so the
@@ -14,8 +22,8 @@ const RUN_SHEET_KINDS: readonly ReckonerKind[] = ['dropper-ladder', 'bleeder'];
 export function runPictures(snapshot: Snapshot, mainsVoltage: number): PlotModel[] {
   const at = ` (at ${formatQuantity(mainsVoltage, 'V', 4)} mains)`;
   return snapshot.blocks.flatMap((block) => {
-    if (!RUN_SHEET_KINDS.includes(block.kind as ReckonerKind)) return [];
-    const model = plotFor(block, snapshot.readings);
+    const layout = RUN_SHEET_PLOTS[block.kind as ReckonerKind];
+    const model = layout ? drawBlock(layout, block, snapshot.readings) : null;
     return model ? [{ ...model, title: `${model.title}${at}` }] : [];
   });
 }
