@@ -108,7 +108,7 @@ const shape = {
     min: 1e-3,
     max: 3000,
     plausible: { min: 2, max: 1500 },
-    help: 'The winding feeding the reservoir; one half of a centre-tapped winding.',
+    help: 'The winding feeding the reservoir (capacitor input; with a choke first the choke holds the surge down); one half of a centre-tapped winding.',
   }),
   surgeSourceResistance: optionalQuantity('Ω', {
     label: 'Source resistance at that winding',
