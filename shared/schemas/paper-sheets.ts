@@ -21,7 +21,7 @@ export type PaperSheetInput = z.infer<typeof paperSheetInput>;
 export const paperSheetBody = z.object({ paperSheet: paperSheetInput.nullable() }).strict();
 
 const mains = (key: 'mainsVoltage' | 'mainsFrequency') =>
-  z.coerce.number().pipe(paramsSchema.shape[key] as z.ZodType<number, number>);
+  z.coerce.number<string>().pipe(paramsSchema.shape[key] as z.ZodType<number, number>);
 
 /** The mains a blank bench sheet is worked out for, from the address (volts rms, hertz). */
 export const benchSheetQuery = z
