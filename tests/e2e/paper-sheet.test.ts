@@ -102,7 +102,7 @@ describe('blank bench sheet and a run copied from it, in Chromium', () => {
     const [low, high] = (band || '0:2').split(':').map(Number) as [number, number];
     await card.getByRole('textbox', { name: /^Measured:/ }).fill(`${((low + high) / 2).toPrecision(5)}`);
     await card.getByRole('button', { name: 'Record reading' }).click();
-    await card.locator('[data-saved]').waitFor();
+    await card.locator('[data-saved]').getByText(`from a paper sheet dated ${today}`).waitFor();
     await page.locator('[data-pending-count]').waitFor({ state: 'detached' });
     await fitsEverywhere(page);
 
