@@ -15,6 +15,7 @@ import { outboxRoutes } from './modules/mail/outbox.routes';
 import { registerRoutes } from './modules/registers/registers.routes';
 import { reviewRoutes } from './modules/review/review.routes';
 import { runRoutes } from './modules/runs/runs.routes';
+import { paperSheetRoutes } from './modules/paper-sheets/paper-sheets.routes';
 import { unitRoutes } from './modules/units/units.routes';
 
 /** The one table of API routes; each declares who may call it. Mounted under /api. */
@@ -34,6 +35,7 @@ export const routeTable: readonly RouteDef[] = [
   ...outboxRoutes,
   ...unitRoutes,
   ...runRoutes,
+  ...paperSheetRoutes,
   ...registerRoutes,
   openApiRoute(() => routeTable),
 ];

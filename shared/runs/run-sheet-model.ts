@@ -61,7 +61,7 @@ export interface SheetField {
   value: string;
   mono?: boolean;
   tone?: 'ok' | 'out';
-  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness';
+  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness' | 'paper';
 }
 
 export interface SheetNotice {
@@ -132,6 +132,23 @@ export interface RunSheetModel {
   signature: SheetField[];
 }
 
+/** When an entry was recorded, and the paper sheet's date when it was copied from one. */
+const recorded = (e: { enteredAt: string; takenOn?: string | null }) =>
+  `${formatUtc(e.enteredAt)}${e.takenOn ? `, entered from a paper sheet dated ${e.takenOn}` : ''}`;
+
+/** "Entered from a paper sheet dated …" for each paper sheet the entries came from, and the one in use. */
+function paperFields(run: RunView): SheetField[] {
+  const dates = new Set(run.entries.map((e) => e.takenOn).filter((d): d is string => !!d));
+  if (run.paperSheet) dates.add(run.paperSheet.date);
+  return [...dates].sort().map((d) => ({
+    label: 'Paper sheet',
+    value:
+      `Entered from a paper sheet dated ${d}` +
+      (run.paperSheet?.date === d && run.paperSheet.reference ? ` (sheet ${run.paperSheet.reference})` : ''),
+    tag: 'paper',
+  }));
+}
+
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 const note = (e: EntryView | undefined) => e?.note.trim() || null;
 
@@ -155,7 +172,7 @@ function readingRow(step: RunStep, e: EntryView | undefined): SheetReading {
     markText: MARK_WORDS[mark],
     note: note(e),
     recordedBy: e?.enteredBy.displayName ?? null,
-    recordedAt: e ? formatUtc(e.enteredAt) : null,
+    recordedAt: e ? recorded(e) : null,
   };
 }
 
@@ -171,7 +188,7 @@ function checkRow(step: RunStep, e: EntryView | undefined): SheetCheck {
     text: step.text,
     done: !!e?.done,
     status: e?.done
-      ? `${hazard ? 'acknowledged' : 'done'} by ${e.enteredBy.displayName}, ${formatUtc(e.enteredAt)}`
+      ? `${hazard ? 'acknowledged' : 'done'} by ${e.enteredBy.displayName}, ${recorded(e)}`
       : 'not done',
     note: note(e),
   };
@@ -266,6 +283,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
         mono: true,
       },
       { label: 'Started', value: `${formatUtc(run.startedAt)} by ${run.startedBy.displayName}` },
+      ...paperFields(run),
       ...run.handovers.map((h): SheetField => ({
         label: 'Handed over',
         value:
@@ -310,7 +328,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
           versions: e.history.map(
             (h) =>
               `v${h.version}: ${h.raw ?? (h.done ? 'ticked' : 'unticked')} by ${h.enteredBy.displayName}, ` +
-              `${formatUtc(h.enteredAt)}${h.reason ? `; reason: ${h.reason}` : ''}`,
+              `${recorded(h)}${h.reason ? `; reason: ${h.reason}` : ''}`,
           ),
         };
       }),

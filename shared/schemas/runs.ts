@@ -5,6 +5,7 @@ import type { ProcedureParams } from '../document/params';
 import { PARAM_SPECS } from '../document/params';
 import type { CheckKind } from '../document/schema';
 import type { Measure } from '../reckoners/types';
+import { paperSheetInput } from './paper-sheets';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
 
@@ -69,6 +70,8 @@ export const startRunBody = z
     witnessId: z.uuid().meta({ title: 'Witness' }).optional(),
     /** The bench's usual instrument: it takes every reading unless another is chosen for one. */
     instrumentId: z.uuid().meta({ title: 'Instrument' }).optional(),
+    /** The readings are copied from a paper bench sheet: its date (and identifier). */
+    paperSheet: paperSheetInput.optional(),
   })
   .strict();
 export type StartRunBody = z.infer<typeof startRunBody>;
@@ -151,6 +154,8 @@ export interface EntryVersionView {
   reason: string | null;
   enteredBy: { id: string; displayName: string };
   enteredAt: string;
+  /** Copied from a paper bench sheet dated this day (YYYY-MM-DD). */
+  takenOn?: string | null;
 }
 
 export interface EntryView {
@@ -175,6 +180,8 @@ export interface EntryView {
   history: EntryVersionView[];
   /** The instrument that took the reading, with its calibration due date when it did. */
   instrument?: RunInstrument | null;
+  /** Copied from a paper bench sheet dated this day (YYYY-MM-DD); enteredAt stays the server's time. */
+  takenOn?: string | null;
 }
 
 export interface RunInstrument {
@@ -271,6 +278,8 @@ export interface RunView {
   } | null;
   /** The bench's usual instrument for this run. */
   defaultInstrument?: RunInstrument | null;
+  /** Entries made now are copied from this paper bench sheet (its date, and identifier when given). */
+  paperSheet?: { date: string; reference: string | null } | null;
   hold: RunHold | null;
   superseded?: RunSupersession | null;
   /** Closed as abandoned. */

@@ -112,6 +112,12 @@ export const runs = pgTable(
     witnessId: uuid().references(() => people.id),
     /** The bench's usual instrument, taking each reading unless another is chosen for it. */
     defaultInstrumentId: uuid().references(() => instruments.id),
+    /**
+     * Readings copied in from a blank bench sheet: the date written on the paper (entries made while it
+     * is set keep it as the day they were taken) and the sheet's identifier as printed, when given.
+     */
+    paperSheetDate: date({ mode: 'string' }),
+    paperSheetRef: text(),
     /** The unit as it was when the run sheet was signed (the register itself stays editable). */
     unitRecord: jsonb().$type<{
       id: string;
@@ -184,6 +190,8 @@ export const runEntries = pgTable(
     /** The instrument that took the reading, and its calibration due date at the time. */
     instrumentId: uuid().references(() => instruments.id),
     instrumentDue: date({ mode: 'string' }),
+    /** Copied from a paper bench sheet: the day it was taken there (the run's paper sheet date then). */
+    takenOn: date({ mode: 'string' }),
     /** Check step ticked, or hazard note acknowledged. */
     done: boolean().notNull().default(false),
     note: text().notNull().default(''),
@@ -221,6 +229,8 @@ export const runEntryHistory = pgTable(
     done: boolean().notNull(),
     note: text().notNull(),
     reason: text(),
+    /** Copied from a paper bench sheet dated this day. */
+    takenOn: date({ mode: 'string' }),
     enteredBy: uuid()
       .notNull()
       .references(() => people.id),

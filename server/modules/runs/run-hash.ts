@@ -20,7 +20,9 @@ export interface RunContent {
     | 'done'
     | 'note'
     | 'version'
-  > & { instrument?: { id: string; calibrationDue: string } })[];
+  > & { instrument?: { id: string; calibrationDue: string }; takenOn?: string })[];
+  /** Entries copied from a paper bench sheet: its date and identifier (absent otherwise, so earlier sheets hash as they did). */
+  paperSheet?: { date: string; reference: string | null };
   /** A trainee's run: who witnesses it (absent otherwise, so earlier run sheets hash as they did). */
   witnessId?: string;
   /** Each photo's SHA-256 as re-hashed from its stored bytes; null when missing or altered. */

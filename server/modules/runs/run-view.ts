@@ -91,6 +91,7 @@ function contentOf(
     params: run.params,
     steps: run.steps,
     ...(run.witnessId && { witnessId: run.witnessId }),
+    ...(run.paperSheetDate && { paperSheet: { date: run.paperSheetDate, reference: run.paperSheetRef } }),
     entries: entries.map((e) => ({
       stepId: e.stepId,
       raw: e.raw,
@@ -105,6 +106,7 @@ function contentOf(
       version: e.version,
       // Only where a reading names one, so run sheets signed before instruments hash as they did.
       ...(e.instrumentId && { instrument: { id: e.instrumentId, calibrationDue: e.instrumentDue ?? '' } }),
+      ...(e.takenOn && { takenOn: e.takenOn }),
     })),
     photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, sha256: p.sha256 })),
   };
@@ -244,6 +246,7 @@ export async function loadRunView(
     version: e.version,
     lastKey: e.lastKey,
     instrument: instrumentOf(e.instrumentId, e.instrumentDue),
+    takenOn: e.takenOn,
     enteredBy: who(e.enteredBy),
     enteredAt: e.enteredAt.toISOString(),
     history:
@@ -260,6 +263,7 @@ export async function loadRunView(
               reason: h.reason,
               enteredBy: { id: h.enteredBy, displayName: h.enteredByName },
               enteredAt: h.enteredAt.toISOString(),
+              takenOn: h.takenOn,
             }))
         : [],
   }));
@@ -325,6 +329,7 @@ export async function loadRunView(
     })),
     witness: run.witnessId ? witnessView(run, who(run.witnessId), witnessSignatures[0], currentHash) : null,
     defaultInstrument: instrumentOf(run.defaultInstrumentId),
+    paperSheet: run.paperSheetDate ? { date: run.paperSheetDate, reference: run.paperSheetRef } : null,
     hold,
     // A withdrawn revision holds the run; the hold says so, not this.
     superseded: hold ? null : superseded,

@@ -19,6 +19,7 @@ import { usableInstrument } from '../registers/instruments.service';
 import { checkWitness, eligibility, isLiveWork } from '../registers/qualifications.service';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
 import { buildSteps, lockedSteps, type EntryState } from './run-steps';
+import { checkPaperSheet, paperSheetColumns } from '../paper-sheets/paper-sheets.service';
 
 export type RunRow = typeof runs.$inferSelect;
 export type EntryRow = typeof runEntries.$inferSelect;
@@ -40,7 +41,8 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
           existing.params.mainsVoltage === body.mainsVoltage &&
           existing.params.mainsFrequency === body.mainsFrequency &&
           existing.witnessId === (body.witnessId ?? null) &&
-          existing.defaultInstrumentId === (body.instrumentId ?? null);
+          existing.defaultInstrumentId === (body.instrumentId ?? null) &&
+          existing.paperSheetDate === paperSheetColumns(body.paperSheet).paperSheetDate;
         if (!same) {
           throw new HttpError(
             422,
@@ -90,6 +92,14 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
         });
     }
     if (body.instrumentId) await usableInstrument(tx, body.instrumentId, 'body.instrumentId');
+    const revisionHash = await revisionContentHash(tx, files, revision);
+    if (body.paperSheet)
+      await checkPaperSheet(
+        tx,
+        body.paperSheet,
+        { revisionId: revision.id, revisionHash, params },
+        'body.paperSheet',
+      );
     const [run] = await tx
       .insert(runs)
       .values({
@@ -97,7 +107,7 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
         procedureId: revision.procedureId,
         revisionId: revision.id,
         revisionNumber: revision.number,
-        revisionHash: await revisionContentHash(tx, files, revision),
+        revisionHash,
         title: revision.title,
         params,
         snapshot,
@@ -105,6 +115,7 @@ export async function startRun(db: Db | Tx, files: FileStore, user: SessionUser,
         startKey: body.key,
         witnessId: body.witnessId ?? null,
         defaultInstrumentId: body.instrumentId ?? null,
+        ...paperSheetColumns(body.paperSheet),
         startedBy: user.id,
         performedBy: user.id,
       })
@@ -232,6 +243,8 @@ export async function recordEntry(
       note: body.note ?? existing?.note ?? '',
       lastKey: body.key,
       enteredBy: user.id,
+      // Copied from a paper sheet: the day written on it is the day it was taken.
+      takenOn: run.paperSheetDate,
     };
     let entry: EntryRow;
     if (existing) {
@@ -259,6 +272,7 @@ export async function recordEntry(
       done: entry.done,
       note: entry.note,
       reason: body.reason ?? null,
+      takenOn: entry.takenOn,
       enteredBy: user.id,
       enteredByName: user.displayName,
     });

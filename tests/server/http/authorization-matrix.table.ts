@@ -482,6 +482,20 @@ export const MATRIX: readonly MatrixRow[] = [
     probe: { params: { id: 'run' } },
     expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
   },
+  // Blank bench sheets: everyone signed in reads approved revisions, so prints them; only the run's
+  // performer (a technician) says its readings are copied from one.
+  {
+    method: 'get',
+    path: '/revisions/:id/bench-sheet.pdf',
+    probe: { params: { id: 'approvedRevision' }, query: { mainsVoltage: '236' } },
+    expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
+  {
+    method: 'put',
+    path: '/runs/:id/paper-sheet',
+    probe: { params: { id: 'run' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
 
   // The registers of instruments and qualifications: everyone signed in reads them; reviewers and admins keep them.
   {

@@ -16,6 +16,7 @@ import { Loading } from '@/components/ui/loading';
 import { ChangeReason } from '@/features/review/components/change-reason';
 import { useAcknowledgement } from '@/features/review/api/acknowledgements';
 import { AcknowledgementStatusPanel } from '@/features/review/components/acknowledgement-status';
+import { BenchSheetForm } from '@/features/paper-sheets/components/bench-sheet-form';
 
 /** Reading one revision: header, the standing caution, the document with its stored results. */
 export default function RevisionPage() {
@@ -79,6 +80,7 @@ export default function RevisionPage() {
             </Link>
           </p>
         )}
+        {r.state === 'approved' && <BenchSheetForm revisionId={r.id} params={r.params} />}
         <RegionBoundary label="Review and sign-offs">
           <RevisionReviewPanel revision={r} />
         </RegionBoundary>

@@ -16,6 +16,7 @@ import { WitnessRunForm } from '@/features/runs/components/witness-run-form';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
 import { Loading } from '@/components/ui/loading';
+import { PaperSheetPanel } from '@/features/paper-sheets/components/paper-sheet-panel';
 
 /** The bench: checklist mode for the run's performer while it is open; the run sheet otherwise. */
 export default function RunPage() {
@@ -70,6 +71,7 @@ export default function RunPage() {
         />
       )}
       <WaitingEntries items={pending.others} steps={r.steps} />
+      {performing && <PaperSheetPanel run={r} />}
       {performing ? (
         <BenchChecklist run={r} pending={pending.mine} onSigned={() => navigate(paths.runSheet.href(r.id))} />
       ) : (

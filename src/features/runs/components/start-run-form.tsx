@@ -15,6 +15,12 @@ import { useStartRun } from '../api/start-run';
 import { useInstruments } from '@/features/registers/api/instruments';
 import { useEligibility } from '@/features/registers/api/qualifications';
 import { INSTRUMENT_KINDS } from '@shared/schemas/registers';
+import {
+  localToday,
+  PAPER_SHEET_RENAME,
+  PaperSheetFields,
+  paperSheetOf,
+} from '@/features/paper-sheets/components/paper-sheet-fields';
 
 /** The bench's usual instrument, remembered on this device from the last run started here. */
 const USUAL = 'bw.usual-instrument';
@@ -54,6 +60,10 @@ const startRunForm = z.object({
   mainsFrequency: mains('Hz', startRunBody.shape.mainsFrequency),
   witnessId: z.string(),
   instrumentId: z.string(),
+  /** The readings are copied from a paper bench sheet: its date and identifier. */
+  fromPaper: z.boolean(),
+  paperDate: z.string(),
+  paperRef: z.string(),
 });
 
 /** Pick an approved procedure and a unit, enter the mains measured at the bench, and start. */
@@ -82,6 +92,9 @@ export function StartRunForm({
       mainsFrequency: '',
       witnessId: '',
       instrumentId: localStorage.getItem(USUAL) ?? '',
+      fromPaper: false,
+      paperDate: localToday(),
+      paperRef: '',
     },
   });
   const instruments = useInstruments();
@@ -116,33 +129,37 @@ export function StartRunForm({
   const many = !!procedures.data && (procedures.data.total > procedures.data.procedures.length || !!q);
   const params = useRevisionParams(procedure?.approved?.id);
   const eligibility = useEligibility(procedure?.approved?.id ?? '').data?.eligibility;
-  const submit = form.handleSubmit(({ unitId, mainsVoltage, mainsFrequency, witnessId, instrumentId }) => {
-    if (eligibility?.refusal && !witnessId)
-      return form.setError('witnessId', { message: 'name a qualified witness who will co-sign the run' });
-    // Left empty, the frequency is the procedure's own.
-    const frequency = mainsFrequency ?? params.data?.mainsFrequency;
-    if (!procedure?.approved) return form.setError('procedureId', { message: 'Choose a procedure' });
-    if (frequency === undefined)
-      return form.setError('mainsFrequency', { message: 'Enter the mains frequency' });
-    start.mutate(
-      {
-        revisionId: procedure.approved.id,
-        unitId,
-        mainsVoltage,
-        mainsFrequency: frequency,
-        key,
-        ...(eligibility?.refusal && witnessId && { witnessId }),
-        ...(instrumentId && { instrumentId }),
-      },
-      {
-        onSuccess: (data) => {
-          if (instrumentId) localStorage.setItem(USUAL, instrumentId);
-          navigate(runPath(data.run.id));
+  const fromPaper = form.watch('fromPaper');
+  const submit = form.handleSubmit(
+    ({ unitId, mainsVoltage, mainsFrequency, witnessId, instrumentId, ...paper }) => {
+      if (eligibility?.refusal && !witnessId)
+        return form.setError('witnessId', { message: 'name a qualified witness who will co-sign the run' });
+      // Left empty, the frequency is the procedure's own.
+      const frequency = mainsFrequency ?? params.data?.mainsFrequency;
+      if (!procedure?.approved) return form.setError('procedureId', { message: 'Choose a procedure' });
+      if (frequency === undefined)
+        return form.setError('mainsFrequency', { message: 'Enter the mains frequency' });
+      start.mutate(
+        {
+          revisionId: procedure.approved.id,
+          unitId,
+          mainsVoltage,
+          mainsFrequency: frequency,
+          key,
+          ...(eligibility?.refusal && witnessId && { witnessId }),
+          ...(instrumentId && { instrumentId }),
+          ...(paper.fromPaper && { paperSheet: paperSheetOf(paper) }),
         },
-        onError: (e) => showServerError(form, e, { revisionId: 'procedureId' }),
-      },
-    );
-  });
+        {
+          onSuccess: (data) => {
+            if (instrumentId) localStorage.setItem(USUAL, instrumentId);
+            navigate(runPath(data.run.id));
+          },
+          onError: (e) => showServerError(form, e, { revisionId: 'procedureId', ...PAPER_SHEET_RENAME }),
+        },
+      );
+    },
+  );
 
   return (
     <form
@@ -318,6 +335,21 @@ export function StartRunForm({
             </span>
           )}
         </label>
+      </div>
+      <div className="flex flex-col gap-3 rounded-md border border-rule p-3">
+        <label className="flex min-h-11 items-center gap-3 text-sm font-semibold">
+          <input type="checkbox" className="size-5" {...form.register('fromPaper')} />
+          The readings are copied from a paper bench sheet
+        </label>
+        {fromPaper && (
+          <>
+            <p className="text-sm text-graphite-soft">
+              Enter the mains the sheet was printed for above; each entry keeps the sheet’s date as the day it
+              was taken, and the run sheet says so.
+            </p>
+            <PaperSheetFields form={form} />
+          </>
+        )}
       </div>
       <button
         type="submit"

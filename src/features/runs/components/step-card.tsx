@@ -64,6 +64,7 @@ function Status({ entry, pending }: { entry: EntryView | undefined; pending: Pen
         <p data-saved="true" className="text-graphite-soft">
           Saved by {entry.enteredBy.displayName} at {new Date(entry.enteredAt).toLocaleTimeString()}
           {entry.version > 1 && ` (changed ${entry.version - 1}×; the original is kept)`}
+          {entry.takenOn && `, from a paper sheet dated ${entry.takenOn}`}
         </p>
       )}
     </div>
