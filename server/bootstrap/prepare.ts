@@ -7,6 +7,7 @@ import { env } from '../config/env';
 import { createDb, createPool } from '../db/client';
 import { applyMigrations } from '../db/migrate';
 import { seedDemoContent } from '../db/seed';
+import { installJobQueue } from '../jobs/queue';
 import { ensureAppRole, ensureDatabase, startCluster, type Cluster } from './postgres';
 
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
@@ -56,6 +57,7 @@ export async function prepareDatabase(
     const db = createDb(pool);
     say(`applying migrations to ${database}`);
     await applyMigrations(db);
+    await installJobQueue(url);
     if (seed) await seedDemoContent(db, say);
   } finally {
     await pool.end();
