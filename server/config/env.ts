@@ -37,6 +37,23 @@ export const envSchema = z.object({
           .filter(Boolean),
       ),
   ),
+  /** How many app processes `npm start` runs (node:cluster; each shares the port and the database). */
+  WORKERS: z.preprocess(
+    blankIsUnset,
+    wholeNumber('must be a whole number of processes (1–64)', 1, 64).default(1),
+  ),
+  /**
+   * Express "trust proxy" for a reverse proxy in front (nginx): `loopback`, an address or subnet
+   * list, or a hop count; unset: requests are taken as they come (the client address is the peer).
+   */
+  BW_TRUST_PROXY: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .trim()
+      .optional()
+      .transform((v) => (v === undefined ? false : /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v)),
+  ),
   /** The shop's mail relay; unset: a local mail catcher keeps every message. */
   SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
   SMTP_PORT: port(25),
