@@ -1,5 +1,5 @@
-// `npm start`: private PostgreSQL, migrations, demo content, client build, then one Express process,
-// or WORKERS=N of them (node:cluster, sharing the port; see server/bootstrap/worker.ts).
+// `npm start`: private PostgreSQL (or DATABASE_URL), migrations, demo content, client build, then one
+// Express process, or WORKERS=N of them (node:cluster, sharing the port; see server/bootstrap/worker.ts).
 import nodeCluster from 'node:cluster';
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
@@ -10,6 +10,7 @@ import { startServer } from '../index';
 import { acquireStartLock } from './lock';
 import {
   dataDir,
+  migrateDatabase,
   PORTS,
   prepareDatabase,
   projectRoot,
@@ -21,14 +22,16 @@ import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
 
 const port = PORTS.app;
-const host = '127.0.0.1';
-const url = `http://${host}:${port}`;
+const host = env.BW_HOST;
+const url = env.BW_PUBLIC_URL?.replace(/\/$/, '') ?? `http://${host}:${port}`;
 
 mkdirSync(dataDir, { recursive: true });
 const releaseLock = acquireStartLock(url);
 
-const cluster = startMainCluster();
-const databaseUrl = await prepareDatabase(cluster, 'benchwright');
+// A shared PostgreSQL (several machines): migrations only with the owner's URL, never demo content.
+const cluster = env.DATABASE_URL ? null : startMainCluster();
+if (env.DATABASE_URL && env.DATABASE_OWNER_URL) await migrateDatabase(env.DATABASE_OWNER_URL);
+const databaseUrl = cluster ? await prepareDatabase(cluster, 'benchwright') : env.DATABASE_URL!;
 
 say('building the client…');
 await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.ts') });
@@ -43,7 +46,7 @@ const settings: Parameters<typeof startServer>[0] = {
   host,
   port,
   config: {
-    sessionSecret: readOrCreateSecret('session'),
+    sessionSecret: env.BW_SESSION_SECRET ?? readOrCreateSecret('session'),
     auditCheckIntervalMs: env.AUDIT_CHECK_MINUTES * 60_000,
     reviewIntervalMonths: env.REVIEW_INTERVAL_MONTHS,
     clientDir: path.join(projectRoot, 'dist/client'),
@@ -111,7 +114,7 @@ async function startWorkers(count: number) {
 
 console.log(`
   Benchwright is running at ${running.url}${env.WORKERS > 1 ? ` (${env.WORKERS} processes)` : ''}
-  Database: PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})
+  Database: ${cluster ? `PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})` : `DATABASE_URL (${new URL(databaseUrl).host})`}
   Mail:     ${mailCatcher ? `local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}` : `relay ${smtp.host}:${smtp.port}`}; admins see the outbox under Mail outbox
 
   Demo sign-ins (Tallow Creek Valve Works):
@@ -129,7 +132,7 @@ async function stop(signal: string) {
   say(`${signal}: finishing requests and stopping…`);
   await running.close();
   await mailCatcher?.close();
-  stopCluster(cluster.dataDir);
+  if (cluster) stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);
 }

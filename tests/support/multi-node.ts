@@ -55,6 +55,8 @@ export interface MultiNode {
   /** Each app process, reached directly. */
   nodes: ServerProcess[];
   uploadDir: string;
+  /** What nginx logged (warnings and errors: e.g. an app process that went away). */
+  errorLog(): string;
   stop(): Promise<void>;
 }
 
@@ -84,6 +86,13 @@ export async function startMultiNode(
   const nginx: ChildProcess = spawn(NGINX, ['-p', dir, '-c', conf, '-e', path.join(dir, 'error.log')], {
     stdio: ['ignore', 'ignore', 'inherit'],
   });
+  const errorLog = () => {
+    try {
+      return readFileSync(path.join(dir, 'error.log'), 'utf8');
+    } catch {
+      return '';
+    }
+  };
   const nginxExited = new Promise<void>((resolve) => nginx.once('exit', () => resolve()));
   // Ready when it answers through to an app process.
   const started = Date.now();
@@ -93,22 +102,15 @@ export async function startMultiNode(
       () => false,
     );
     if (ok) break;
-    if (nginx.exitCode !== null || Date.now() - started > 15_000) {
-      const log = (() => {
-        try {
-          return readFileSync(path.join(dir, 'error.log'), 'utf8');
-        } catch {
-          return '';
-        }
-      })();
-      throw new Error(`nginx did not come up on ${url}: ${log.slice(-500)}`);
-    }
+    if (nginx.exitCode !== null || Date.now() - started > 15_000)
+      throw new Error(`nginx did not come up on ${url}: ${errorLog().slice(-500)}`);
     await new Promise((r) => setTimeout(r, 100));
   }
   return {
     url,
     nodes,
     uploadDir,
+    errorLog,
     async stop() {
       nginx.kill('SIGQUIT');
       for (const n of nodes) if (n.child.exitCode === null && n.child.signalCode === null) n.stop();
