@@ -21,6 +21,9 @@ export const QUEUES = {
   reviewDue: 'review-due',
 } as const;
 
+/** pg-boss's internal queue that schedules go through (src/timekeeper.js in pg-boss 10). */
+const SCHEDULE_QUEUE = '__pgboss__send-it';
+
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 
 /**
@@ -68,6 +71,8 @@ export async function installJobQueue(ownerUrl: string) {
     const existing = new Set((await boss.getQueues()).map((q) => q.name));
     for (const name of Object.values(QUEUES))
       if (!existing.has(name)) await boss.createQueue(name, { name, ...QUEUE_POLICY[name] });
+    // pg-boss's own queue for the jobs its schedules send (it would make it at start, as the owner).
+    if (!existing.has(SCHEDULE_QUEUE)) await boss.createQueue(SCHEDULE_QUEUE);
     const db = boss.getDb();
     await db.executeSql(`GRANT USAGE ON SCHEMA ${JOB_SCHEMA} TO ${APP_ROLE}`, []);
     await db.executeSql(

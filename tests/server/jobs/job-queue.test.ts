@@ -70,7 +70,7 @@ describe('the job queue', () => {
     const [sent] = await db.select().from(mailOutbox).where(eq(mailOutbox.id, row!.id));
     expect(sent!.sentAt).not.toBeNull();
     expect(sent!.attempts).toBe(1);
-  });
+  }, 90_000);
 
   it('the schedules and the start-up checks are one for all processes', async () => {
     const schedules = await db.execute<{ name: string; cron: string }>(
@@ -90,4 +90,19 @@ describe('the job queue', () => {
       { name: 'review-due', n: 1 },
     ]);
   });
+
+  it('a schedule fires, once for all processes: the outbox sweep runs each minute, not once per process', async () => {
+    const sweeps = async () =>
+      (
+        await db.execute<{ at: Date }>(
+          sql`select created_on as at from pgboss.job where name = 'mail-sweep' order by created_on`,
+        )
+      ).rows.map((r) => new Date(r.at).getTime());
+    // The first at start, the next in the next minute: two processes, yet never two at once.
+    await expect
+      .poll(async () => (await sweeps()).length, { timeout: 80_000, interval: 500 })
+      .toBeGreaterThanOrEqual(2);
+    const at = await sweeps();
+    for (let i = 1; i < at.length; i++) expect(at[i]! - at[i - 1]!).toBeGreaterThan(20_000);
+  }, 90_000);
 });
