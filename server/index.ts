@@ -1,10 +1,14 @@
 import type { Server } from 'node:http';
 import type { Logger } from 'pino';
 import { createApp } from './app';
-import { DEFAULT_CHECK_INTERVAL_MS, watchAuditChain } from './audit/watch';
-import { DEFAULT_REVIEW_INTERVAL_MONTHS, watchReviewDue } from './modules/review-due/review-due.service';
+import { DEFAULT_CHECK_INTERVAL_MS } from './audit/watch';
+import {
+  DEFAULT_REVIEW_DUE_CHECK_MS,
+  DEFAULT_REVIEW_INTERVAL_MONTHS,
+} from './modules/review-due/review-due.service';
 import { createDb, createPool } from './db/client';
 import { defaultConfig, type AppConfig } from './deps';
+import { startJobs } from './jobs/worker';
 import { createLogger } from './logger';
 import { MailSender } from './mail/sender';
 import { SearchService } from './search/search-service';
@@ -33,7 +37,6 @@ export async function startServer(opts: {
   const moved = await upgradeLegacyFiles(config.uploadDir);
   if (moved) logger.info({ moved }, 'uploaded files moved to their SHA-256 names');
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
-  mailer?.start();
   const search = new SearchService(db, opts.databaseUrl, logger);
   await search
     .start()
@@ -41,19 +44,15 @@ export async function startServer(opts: {
       logger.warn({ msg: err.message }, 'search index not built yet; retrying in the background'),
     );
   const app = createApp({ db, pool, logger, config, mailer, search });
-  // At start and then on the schedule; the head goes to the log (server/audit/watch.ts).
-  const chainWatch = watchAuditChain(db, logger, config.auditCheckIntervalMs ?? DEFAULT_CHECK_INTERVAL_MS);
-  // Periodic reviews that fell due: reviewers mailed once each, at start and then on the schedule.
-  const reviewDueWatch = watchReviewDue(
-    db,
-    logger,
-    {
-      months: config.reviewIntervalMonths ?? DEFAULT_REVIEW_INTERVAL_MONTHS,
-      publicUrl: config.publicUrl,
-      mailer,
-    },
-    config.reviewDueCheckIntervalMs,
-  );
+  // Mail delivery and the periodic checks (audit chain, reviews due) are jobs in PostgreSQL: each
+  // runs at start and then on its schedule, once for all processes (server/jobs/worker.ts).
+  const minutes = (ms: number) => (ms > 0 ? Math.max(1, ms / 60_000) : 0);
+  const jobs = await startJobs(pool, db, logger, mailer, {
+    publicUrl: config.publicUrl,
+    reviewIntervalMonths: config.reviewIntervalMonths ?? DEFAULT_REVIEW_INTERVAL_MONTHS,
+    auditCheckMinutes: minutes(config.auditCheckIntervalMs ?? DEFAULT_CHECK_INTERVAL_MS),
+    reviewDueCheckMinutes: minutes(config.reviewDueCheckIntervalMs ?? DEFAULT_REVIEW_DUE_CHECK_MS),
+  });
 
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(opts.port, host, (err?: Error) => (err ? reject(err) : resolve(s)));
@@ -81,10 +80,9 @@ export async function startServer(opts: {
       });
       app.deps.auth.sessions.store.close();
       // Each step is bounded: a connection left broken by a database restart must not hold up exit.
+      await settleWithin(6_000, jobs.stop(), 'job queue', logger);
       await settleWithin(3_000, mailer?.stop(), 'mail sender', logger);
       await settleWithin(3_000, search.stop(), 'search listener', logger);
-      await settleWithin(3_000, chainWatch.stop(), 'audit chain check', logger);
-      await settleWithin(3_000, reviewDueWatch.stop(), 'review-due check', logger);
       await settleWithin(3_000, pool.end(), 'database pool', logger);
     },
   };

@@ -1,4 +1,4 @@
-// The server checks the audit hash chain when it starts and then on a schedule, and writes the
+// The server checks the audit hash chain when it starts and then on a schedule (a job: server/jobs/worker.ts), and writes the
 // head (position and hash of the last entry) to its log each time. The log lives apart from the
 // database, so a later truncation of the audit log, or a chain recomputed by someone with owner
 // rights, shows against a head written down before it.
@@ -26,23 +26,3 @@ export async function checkAuditChain(db: Db, logger: Logger) {
 }
 
 export const DEFAULT_CHECK_INTERVAL_MS = 3600_000;
-
-/**
- * Checks now and then every `intervalMs` (0: at start only). The timer never keeps the process
- * alive, and a check still running when the next is due is not doubled. stop() waits for it.
- */
-export function watchAuditChain(db: Db, logger: Logger, intervalMs: number) {
-  let running: Promise<unknown> | null = null;
-  const run = () => {
-    running ??= checkAuditChain(db, logger).finally(() => (running = null));
-    return running;
-  };
-  void run();
-  const timer = intervalMs > 0 ? setInterval(() => void run(), intervalMs).unref() : undefined;
-  return {
-    async stop() {
-      clearInterval(timer);
-      await running;
-    },
-  };
-}

@@ -7,6 +7,7 @@ import { env } from '../config/env';
 import { createDb, createPool } from '../db/client';
 import { applyMigrations } from '../db/migrate';
 import { seedDemoContent } from '../db/seed';
+import { installJobQueue } from '../jobs/queue';
 import { ensureAppRole, ensureDatabase, startCluster, type Cluster } from './postgres';
 
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
@@ -50,17 +51,22 @@ export async function prepareDatabase(
 ) {
   await ensureAppRole(cluster.adminUrl, cluster.appPassword);
   await ensureDatabase(cluster.adminUrl, database);
-  const url = cluster.urlFor(database);
-  const pool = createPool(url);
+  await migrateDatabase(cluster.urlFor(database), { seed });
+  return cluster.appUrlFor(database);
+}
+
+/** Applies the migrations and installs the job queue as the owner (then the demo content, when asked). */
+export async function migrateDatabase(ownerUrl: string, { seed = false } = {}) {
+  const pool = createPool(ownerUrl);
   try {
     const db = createDb(pool);
-    say(`applying migrations to ${database}`);
+    say(`applying migrations to ${new URL(ownerUrl).pathname.slice(1)}`);
     await applyMigrations(db);
+    await installJobQueue(ownerUrl);
     if (seed) await seedDemoContent(db, say);
   } finally {
     await pool.end();
   }
-  return cluster.appUrlFor(database);
 }
 
 export function startMainCluster() {

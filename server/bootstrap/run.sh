@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Entry point for `npm start`, `npm run dev` and `npm test` on a fresh Debian machine:
-# installs what is missing (npm packages, Debian's postgresql, chromium for tests), then hands
+# installs what is missing (npm packages, Debian's postgresql, chromium and nginx for tests), then hands
 # over to the TypeScript bootstrap for the chosen mode.
 set -euo pipefail
 mode="${1:-start}"
@@ -15,6 +15,8 @@ fi
 missing=()
 if ! ls /usr/lib/postgresql/*/bin/initdb >/dev/null 2>&1; then missing+=(postgresql); fi
 if [ "$mode" = test ] && [ ! -x /usr/bin/chromium ]; then missing+=(chromium); fi
+# The multi-node test puts three app processes behind Debian's nginx (started by the test, on loopback).
+if [ "$mode" = test ] && [ ! -x /usr/sbin/nginx ]; then missing+=(nginx); fi
 if [ ${#missing[@]} -gt 0 ]; then
   echo "[benchwright] installing Debian packages: ${missing[*]}"
   sudo_cmd=""

@@ -37,6 +37,38 @@ export const envSchema = z.object({
           .filter(Boolean),
       ),
   ),
+  /**
+   * A PostgreSQL shared by several machines, as the app role (benchwright_app); unset: npm start's
+   * private cluster. With it, npm start applies migrations only when DATABASE_OWNER_URL is set too.
+   */
+  DATABASE_URL: z.preprocess(blankIsUnset, z.url('is not a postgres:// URL').optional()),
+  DATABASE_OWNER_URL: z.preprocess(blankIsUnset, z.url('is not a postgres:// URL').optional()),
+  /** Address the app listens on (127.0.0.1: this machine only; 0.0.0.0 for a proxy on another machine). */
+  BW_HOST: z.preprocess(blankIsUnset, z.string().trim().default('127.0.0.1')),
+  /** The address people reach the app at (links in mail; the allowed origin); default http://BW_HOST:PORT. */
+  BW_PUBLIC_URL: z.preprocess(blankIsUnset, z.url('is not an http(s) URL').optional()),
+  /** Signs session cookies; the same on every machine (unset: one made in .data/session.secret). */
+  BW_SESSION_SECRET: z.preprocess(
+    blankIsUnset,
+    z.string().min(32, 'must be at least 32 characters').optional(),
+  ),
+  /** How many app processes `npm start` runs (node:cluster; each shares the port and the database). */
+  WORKERS: z.preprocess(
+    blankIsUnset,
+    wholeNumber('must be a whole number of processes (1–64)', 1, 64).default(1),
+  ),
+  /**
+   * Express "trust proxy" for a reverse proxy in front (nginx): `loopback`, an address or subnet
+   * list, or a hop count; unset: requests are taken as they come (the client address is the peer).
+   */
+  BW_TRUST_PROXY: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .trim()
+      .optional()
+      .transform((v) => (v === undefined ? false : /^\d+$/.test(v) ? Number(v) : v === 'true' ? true : v)),
+  ),
   /** The shop's mail relay; unset: a local mail catcher keeps every message. */
   SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
   SMTP_PORT: port(25),

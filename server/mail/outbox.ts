@@ -1,5 +1,6 @@
 import type { Db, Tx } from '../db/client';
 import { mailOutbox } from '../db/schema';
+import { QUEUES, sendJob } from '../jobs/queue';
 
 export interface OutgoingMail {
   to: string[];
@@ -10,13 +11,21 @@ export interface OutgoingMail {
 }
 
 /**
- * Queues a message. Call it inside the transaction of the change it reports: the mail exists
- * exactly when the change does. The sender delivers it (and retries) in the background.
+ * Queues a message: its outbox row and the job that delivers it. Call it inside the transaction of
+ * the change it reports: the mail exists exactly when the change does, and survives a crash of
+ * this process (any app process works the job). The row is the job's key: delivering it twice
+ * finds it sent (server/mail/sender.ts).
  */
 export async function enqueueMail(db: Db | Tx, mail: OutgoingMail) {
   const to = [...new Set(mail.to.map((a) => a.toLowerCase()))];
   if (!to.length) return;
-  await db.insert(mailOutbox).values({ ...mail, to });
+  await db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(mailOutbox)
+      .values({ ...mail, to })
+      .returning({ id: mailOutbox.id });
+    await sendJob(tx, QUEUES.mail, { mailId: row!.id }, { singletonKey: row!.id });
+  });
 }
 
 const esc = (s: string) =>

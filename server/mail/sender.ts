@@ -13,11 +13,14 @@ export interface SmtpSettings {
 const MAX_BACKOFF_MS = 5 * 60_000;
 
 /**
- * Delivers queued mail over SMTP. Runs every few seconds and right after new mail is queued;
- * a failed attempt is retried with exponential back-off, never dropped.
+ * Delivers outbox rows over SMTP. Each row is delivered under its row lock and marked sent in
+ * the same transaction, so two processes (or a job and a flush) never both send it: the second
+ * skips it while locked and then finds it sent. A failed attempt is kept with its error and a
+ * back-off; the job queue's sweep (server/jobs/worker.ts) tries it again, never dropping it.
+ * Only a crash between the mail server's acceptance and the commit sends a message twice, and
+ * then with the same Message-ID.
  */
 export class MailSender {
-  private timer?: NodeJS.Timeout;
   private running?: Promise<void>;
   private readonly transport;
 
@@ -25,7 +28,6 @@ export class MailSender {
     private readonly db: Db,
     private readonly smtp: SmtpSettings,
     private readonly logger: Logger,
-    private readonly intervalMs = 3_000,
   ) {
     this.transport = nodemailer.createTransport({
       host: smtp.host,
@@ -38,18 +40,12 @@ export class MailSender {
     });
   }
 
-  start() {
-    this.timer = setInterval(() => void this.flush(), this.intervalMs);
-    this.timer.unref();
-  }
-
   async stop() {
-    if (this.timer) clearInterval(this.timer);
     await this.running;
     this.transport.close();
   }
 
-  /** Sends everything due now. Concurrent calls share one pass. */
+  /** Delivers everything due now, here (right after a commit that queued mail). Concurrent calls share one pass. */
   flush(): Promise<void> {
     this.running ??= this.sendDue().finally(() => {
       this.running = undefined;
@@ -58,10 +54,10 @@ export class MailSender {
   }
 
   private async sendDue() {
-    let due: (typeof mailOutbox.$inferSelect)[];
+    let due: { id: string }[];
     try {
       due = await this.db
-        .select()
+        .select({ id: mailOutbox.id })
         .from(mailOutbox)
         .where(and(isNull(mailOutbox.sentAt), lte(mailOutbox.nextAttemptAt, new Date())))
         .orderBy(asc(mailOutbox.createdAt))
@@ -70,7 +66,24 @@ export class MailSender {
       this.logger.warn({ msg: (err as Error).message }, 'mail outbox not readable');
       return;
     }
-    for (const mail of due) {
+    for (const { id } of due) await this.deliver(id).catch(() => undefined);
+  }
+
+  /** Sends one row when it is unsent and due; true when this call sent it. */
+  async deliver(mailId: string): Promise<boolean> {
+    return this.db.transaction(async (tx) => {
+      const [mail] = await tx
+        .select()
+        .from(mailOutbox)
+        .where(
+          and(
+            eq(mailOutbox.id, mailId),
+            isNull(mailOutbox.sentAt),
+            lte(mailOutbox.nextAttemptAt, new Date()),
+          ),
+        )
+        .for('update', { skipLocked: true });
+      if (!mail) return false; // sent, not due, or being sent by another process
       try {
         await this.transport.sendMail({
           from: this.smtp.from,
@@ -80,23 +93,24 @@ export class MailSender {
           html: mail.html,
           messageId: `<${mail.id}@benchwright.local>`,
         });
-        await this.db
-          .update(mailOutbox)
-          .set({ sentAt: new Date(), lastError: null, attempts: sql`${mailOutbox.attempts} + 1` })
-          .where(eq(mailOutbox.id, mail.id));
       } catch (err) {
         const backoff = Math.min(MAX_BACKOFF_MS, 2_000 * 2 ** mail.attempts);
         this.logger.warn({ mailId: mail.id, msg: (err as Error).message }, 'mail not delivered; will retry');
-        await this.db
+        await tx
           .update(mailOutbox)
           .set({
             attempts: sql`${mailOutbox.attempts} + 1`,
             lastError: (err as Error).message.slice(0, 300),
             nextAttemptAt: new Date(Date.now() + backoff),
           })
-          .where(eq(mailOutbox.id, mail.id))
-          .catch(() => undefined);
+          .where(eq(mailOutbox.id, mail.id));
+        return false;
       }
-    }
+      await tx
+        .update(mailOutbox)
+        .set({ sentAt: new Date(), lastError: null, attempts: sql`${mailOutbox.attempts} + 1` })
+        .where(eq(mailOutbox.id, mail.id));
+      return true;
+    });
   }
 }

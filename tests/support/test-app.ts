@@ -46,7 +46,7 @@ export async function createTestApp(
   const catcher = options.mail ? await startFakeSmtp(0) : undefined;
   if (catcher)
     config.smtp = { host: '127.0.0.1', port: catcher.port, from: 'Benchwright <bench@tallowcreek.example>' };
-  const mailer = config.smtp ? new MailSender(db, config.smtp, logger, 60_000) : undefined;
+  const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   const search = options.search ? new SearchService(db, database.url, logger) : undefined;
   await search?.start();
   const files = fileStore(uploadDir);

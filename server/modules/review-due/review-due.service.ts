@@ -4,7 +4,6 @@
  * (a review_due_notices row per revision makes the check idempotent, across processes too).
  */
 import { and, arrayContains, asc, eq, isNull, sql } from 'drizzle-orm';
-import type { Logger } from 'pino';
 import { paths } from '../../../shared/paths';
 import { REVIEW_DUE_SOON_DAYS, type ReviewDueItem } from '../../../shared/schemas/review-due';
 import type { Db } from '../../db/client';
@@ -106,33 +105,3 @@ export async function notifyDueReviews(
 export const DEFAULT_REVIEW_DUE_CHECK_MS = 3600_000;
 /** The shop default when REVIEW_INTERVAL_MONTHS is not set: two years. */
 export const DEFAULT_REVIEW_INTERVAL_MONTHS = 24;
-
-/**
- * Looks for reviews that fell due now and then every `intervalMs`; the timer never keeps the
- * process alive and a check still running is not doubled. stop() waits for it.
- */
-export function watchReviewDue(
-  db: Db,
-  logger: Logger,
-  opts: { months: number; publicUrl: string; mailer?: MailSender },
-  intervalMs = DEFAULT_REVIEW_DUE_CHECK_MS,
-) {
-  let running: Promise<unknown> | null = null;
-  const run = () => {
-    running ??= notifyDueReviews(db, opts)
-      .then((n) => n && logger.info({ fellDue: n }, 'periodic reviews fell due; reviewers mailed'))
-      .catch((err: Error) =>
-        logger.warn({ msg: err.message }, 'review-due check could not run; trying again later'),
-      )
-      .finally(() => (running = null));
-    return running;
-  };
-  void run();
-  const timer = intervalMs > 0 ? setInterval(() => void run(), intervalMs).unref() : undefined;
-  return {
-    async stop() {
-      clearInterval(timer);
-      await running;
-    },
-  };
-}

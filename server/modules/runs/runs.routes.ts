@@ -10,6 +10,7 @@ import {
   startRunBody,
   witnessRunBody,
 } from '../../../shared/schemas/runs';
+import { idempotencyKeyHeader } from '../../http/idempotency-key';
 import { defineRoute } from '../../http/route';
 import { renderRunSheetPdf } from './pdf';
 import { receivePhoto } from './photo-upload';
@@ -71,6 +72,7 @@ export const runRoutes = [
     access: ['technician'],
     summary:
       'Start a bench run on an approved revision and a unit, with the measured mains (409 unless approved)',
+    before: idempotencyKeyHeader,
     body: startRunBody,
     handler: async ({ res, body, user, deps }) => {
       const { run, created } = await startRun(deps.db, deps.files, user!, body);
@@ -94,6 +96,7 @@ export const runRoutes = [
     access: ['technician'],
     summary:
       'Record a reading, tick a check step or acknowledge a hazard note (idempotent by key; the server decides within/out)',
+    before: idempotencyKeyHeader,
     params: entryParams,
     body: entryBody,
     handler: async ({ params, body, user, deps }) => {

@@ -278,11 +278,16 @@ describe('the audit log keeps its own time and is checked (must-exist 11)', () =
       config: {
         sessionSecret: 'chain-watch'.padEnd(40, 'x'),
         uploadDir: t.uploadDir,
-        auditCheckIntervalMs: 300,
+        auditCheckIntervalMs: 60_000,
       },
     });
     try {
-      await expect.poll(() => checks().length, { timeout: 5_000, interval: 50 }).toBeGreaterThanOrEqual(2);
+      await expect.poll(() => checks().length, { timeout: 10_000, interval: 50 }).toBeGreaterThanOrEqual(1);
+      // …and on its schedule: a job queue schedule (one for every process), here every minute.
+      const { rows } = await t.db.execute<{ cron: string }>(
+        sql`select cron from pgboss.schedule where name = 'audit-chain'`,
+      );
+      expect(rows.map((r) => r.cron)).toEqual(['*/1 * * * *']);
     } finally {
       await running.close();
     }

@@ -56,7 +56,6 @@ describe('mail through the outbox', () => {
       t.db,
       { host: '127.0.0.1', port, from: 'bench@tallowcreek.example' },
       createLogger('silent'),
-      60_000,
     );
     await enqueueMail(t.db, message('Returned: TC-30H rails'));
     await sender.flush();

@@ -58,4 +58,41 @@ describe('idempotency keys are bound to the request', () => {
     const other = await tom.post('/api/runs').send({ ...body, mainsVoltage: 240 });
     expect(other.status).toBe(422);
   });
+
+  it('the key may come as the Idempotency-Key header: a resend is answered from what was stored, never stored twice', async () => {
+    const tom = await t.as('tom');
+    const revision = await benchProcedure(t);
+    const unit = await newUnit(tom);
+    const key = randomUUID();
+    const start = { revisionId: revision.id, unitId: unit.id, mainsVoltage: 230, mainsFrequency: 50 };
+    const first = await tom.post('/api/runs').set('idempotency-key', key).send(start);
+    expect(first.status).toBe(201);
+    const again = await tom.post('/api/runs').set('idempotency-key', key).send(start);
+    expect([again.status, again.body.run.id]).toEqual([200, first.body.run.id]);
+    const run = first.body.run;
+    await tom
+      .put(`/api/runs/${run.id}/entries/hz-ht-live`)
+      .set('idempotency-key', randomUUID())
+      .send({ done: true });
+
+    const entryKey = randomUUID();
+    const put = () =>
+      tom
+        .put(`/api/runs/${run.id}/entries/rd-ht-ac`)
+        .set('idempotency-key', entryKey)
+        .send({ value: '251 V' });
+    expect((await put()).body.replayed).toBe(false);
+    expect((await put()).body.replayed).toBe(true);
+    const rows = (await t.db.select().from(runEntries).where(eq(runEntries.runId, run.id))).filter(
+      (r) => r.stepId === 'rd-ht-ac',
+    );
+    expect(rows.map((r) => [r.measured, r.version])).toEqual([[251, 1]]);
+    // A header and a body key that differ are refused, naming the header.
+    const both = await tom
+      .put(`/api/runs/${run.id}/entries/rd-ht-ac`)
+      .set('idempotency-key', randomUUID())
+      .send({ key: randomUUID(), value: '252 V', reason: 'misread' });
+    expect(both.status).toBe(400);
+    expect(both.body.fields[0]).toMatchObject({ field: 'headers.idempotency-key' });
+  });
 });
