@@ -17,6 +17,7 @@ import {
 } from './prepare';
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
+import { openObjectStore } from './object-store';
 
 const port = PORTS.app;
 const host = '127.0.0.1';
@@ -35,6 +36,8 @@ await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.
 const relay = env.SMTP_HOST ? { host: env.SMTP_HOST, port: env.SMTP_PORT } : null;
 const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
 const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
+// Files: S3_ENDPOINT's bucket, a local object-store fake, or the disk (FILE_STORE=disk).
+const files = await openObjectStore();
 
 const running = await startServer({
   databaseUrl,
@@ -49,6 +52,7 @@ const running = await startServer({
     // Names a reverse proxy in front may pass on (comma-separated); others are answered 421.
     allowedHosts: env.BW_ALLOWED_HOSTS,
     smtp: { ...smtp, from: env.SMTP_FROM },
+    s3: files.s3,
   },
 }).catch((err: NodeJS.ErrnoException) => {
   if (err.code === 'EADDRINUSE')
@@ -60,6 +64,7 @@ const running = await startServer({
 console.log(`
   Benchwright is running at ${running.url}
   Database: PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})
+  Files:    ${files.where}
   Mail:     ${mailCatcher ? `local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}` : `relay ${smtp.host}:${smtp.port}`}; admins see the outbox under Mail outbox
 
   Demo sign-ins (Tallow Creek Valve Works):
@@ -77,6 +82,7 @@ async function stop(signal: string) {
   say(`${signal}: finishing requests and stopping…`);
   await running.close();
   await mailCatcher?.close();
+  await files.close();
   stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);

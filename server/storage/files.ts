@@ -16,7 +16,7 @@ export interface FileStore {
 
 export const SHA256 = /^[0-9a-f]{64}$/;
 /** Names the store gave files before it was content-addressed (random, 128 bits). */
-const LEGACY_NAME = /^[0-9a-f]{32}$/;
+export const LEGACY_NAME = /^[0-9a-f]{32}$/;
 
 export const sha256Of = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
 

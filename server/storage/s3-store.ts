@@ -2,6 +2,8 @@
 // object's key is the SHA-256 of its bytes, the same bytes are stored once, and every read hashes
 // the bytes again, so an object altered or replaced in the bucket is never handed out as the original.
 import { createHash } from 'node:crypto';
+import { readdir, readFile } from 'node:fs/promises';
+import path from 'node:path';
 import {
   CreateBucketCommand,
   GetObjectCommand,
@@ -13,7 +15,7 @@ import {
   type S3ClientConfig,
 } from '@aws-sdk/client-s3';
 import type { Env } from '../config/env';
-import { SHA256, sha256Of, type FileStore } from './files';
+import { fileStore, LEGACY_NAME, SHA256, sha256Of, type FileStore } from './files';
 
 // The SDK warns that its releases after January 2027 need Node 22; this project runs on Node 20 with
 // the SDK pinned, so the notice says nothing an operator can act on.
@@ -127,4 +129,31 @@ export async function ensureBucket(settings: S3Settings, client = s3Client(setti
       { cause: err },
     );
   }
+}
+
+/**
+ * Copies the files a disk store left in `dir` (a shop moving to object storage) into the bucket, each
+ * once: intact files under their SHA-256, older random names by their bytes' hash (as
+ * upgradeLegacyFiles would). The folder is left as it was. Returns how many were copied.
+ */
+export async function adoptDiskFiles(dir: string, store: S3FileStore) {
+  let names: string[];
+  try {
+    names = (await readdir(dir)).filter((n) => SHA256.test(n) || LEGACY_NAME.test(n));
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return 0;
+    throw err;
+  }
+  if (!names.length) return 0;
+  const held = new Set<string>();
+  for await (const key of store.keys()) held.add(key);
+  const disk = fileStore(dir);
+  let copied = 0;
+  for (const name of names.filter((n) => !held.has(n))) {
+    const bytes = SHA256.test(name) ? await disk.get(name) : await readFile(path.join(dir, name));
+    if (!bytes || held.has(sha256Of(bytes))) continue;
+    held.add(await store.put(bytes));
+    copied++;
+  }
+  return copied;
 }

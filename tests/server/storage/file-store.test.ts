@@ -7,7 +7,7 @@ import path from 'node:path';
 import { DeleteObjectCommand, PutObjectCommand } from '@aws-sdk/client-s3';
 import { afterAll, describe, expect, it } from 'vitest';
 import { fileStore, type FileStore } from '../../../server/storage/files';
-import { s3FileStore } from '../../../server/storage/s3-store';
+import { adoptDiskFiles, s3FileStore } from '../../../server/storage/s3-store';
 import { createTestBucket } from '../../support/test-bucket';
 
 /** A store under test and the ways to reach its bytes without it. */
@@ -124,5 +124,27 @@ describe('the S3 file store', () => {
     const store = s3FileStore(settings);
     await expect(store.get(ABC_SHA256)).rejects.toThrow(/bucket/i);
     await expect(store.put(ABC)).rejects.toThrow(/bucket/i);
+  });
+});
+
+describe('a shop moving its files from disk to a bucket', () => {
+  it('copies each intact file once, older random names by their hash, and leaves altered files out', async () => {
+    const dir = mkdtempSync(path.join(tmpdir(), 'bw-adopt-'));
+    const bucket = await createTestBucket();
+    try {
+      const legacy = Buffer.from('kept under a random name');
+      await fileStore(dir).put(ABC);
+      writeFileSync(path.join(dir, 'b'.repeat(32)), legacy);
+      writeFileSync(path.join(dir, sha256(Buffer.from('original'))), 'altered');
+      expect(await adoptDiskFiles(dir, bucket.store)).toBe(2);
+      const keys: string[] = [];
+      for await (const key of bucket.store.keys()) keys.push(key);
+      expect(keys.sort()).toEqual([ABC_SHA256, sha256(legacy)].sort());
+      expect((await bucket.store.get(sha256(legacy)))?.toString()).toBe('kept under a random name');
+      expect(await adoptDiskFiles(dir, bucket.store)).toBe(0);
+    } finally {
+      await bucket.drop();
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
