@@ -32,6 +32,7 @@ beforeAll(async () => {
   fresh = startCluster({ name: testClusterName('restore'), port: PORTS.restoreDb, projectRoot });
   await dropDatabase(fresh.adminUrl, 'benchwright_restored'); // left from an earlier run
   await dropDatabase(fresh.adminUrl, 'benchwright_restored_s3');
+  await dropDatabase(fresh.adminUrl, 'benchwright_restored_to_s3');
 });
 afterAll(async () => {
   await t.close();
@@ -169,6 +170,25 @@ describe('backup and restore', () => {
         uploadDir: path.join(work, 'other'),
       }),
     ).rejects.toThrow(/already exists/);
+
+    // The same archive from a disk store restores into a bucket: every file under its SHA-256, the
+    // one kept under an older random name too.
+    const bucket = await createTestBucket();
+    try {
+      await restoreBackup({
+        file,
+        adminUrl: fresh.adminUrl,
+        databaseUrl: fresh.urlFor('benchwright_restored_to_s3'),
+        uploadDir: path.join(work, 'unused'),
+        s3: bucket.settings,
+      });
+      const keys: string[] = [];
+      for await (const key of bucket.store.keys()) keys.push(key);
+      expect(keys.sort()).toEqual(rows.map((r) => r.sha256).sort());
+      for (const r of rows) expect(await bucket.store.exists(r.sha256)).toBe(true);
+    } finally {
+      await bucket.drop();
+    }
   });
 });
 
