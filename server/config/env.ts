@@ -26,114 +26,109 @@ const yesNo = (fallback: boolean) =>
   );
 
 /** Every environment variable the server and its start-up scripts read, with its default. */
-export const envSchema = z
-  .object({
-    /** The app's HTTP port (`npm start`; the dev server proxies to it). */
-    PORT: port(5480),
-    /** npm start's private PostgreSQL. */
-    BW_DB_PORT: port(54329),
-    /** A parallel test run's own clusters (54339 + 20n …) and client build. */
-    BW_TEST_SLOT: z.preprocess(
-      blankIsUnset,
-      wholeNumber('is not a test slot number (0–99)', 0, 99).default(0),
-    ),
-    /** Host names a reverse proxy in front may pass on, comma-separated; others are answered 421. */
-    BW_ALLOWED_HOSTS: z.preprocess(
-      blankIsUnset,
-      z
-        .string()
-        .default('')
-        .transform((s) =>
-          s
-            .split(',')
-            .map((h) => h.trim())
-            .filter(Boolean),
-        ),
-    ),
-    /** The shop's mail relay; unset: a local mail catcher keeps every message. */
-    SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
-    SMTP_PORT: port(25),
-    SMTP_FROM: z.preprocess(
-      blankIsUnset,
-      z.string().default('Benchwright <benchwright@tallowcreek.example>'),
-    ),
-    /**
-     * Where uploaded files and issued run sheets are kept: `s3` (default) an S3-compatible bucket —
-     * S3_ENDPOINT's, or a local object-store fake that the start and test commands run on loopback
-     * when S3_ENDPOINT is unset; `disk` plain files in .data/uploads, for a shop on one machine.
-     */
-    FILE_STORE: z.preprocess(
-      blankIsUnset,
-      z.enum(['s3', 'disk'], { error: 'must be s3 or disk' }).default('s3'),
-    ),
-    /** The object store's URL (http or https); unset: the local fake. */
-    S3_ENDPOINT: z.preprocess(
-      blankIsUnset,
-      z
-        .url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' })
-        .trim()
-        .optional(),
-    ),
-    /** Bucket names: 3–63 lower-case letters, digits, dots and hyphens (the S3 naming rules). */
-    S3_BUCKET: z.preprocess(
-      blankIsUnset,
-      z
-        .string()
-        .trim()
-        .regex(
-          /^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/,
-          'is not a bucket name (3–63 lower-case letters, digits, dots and hyphens)',
-        )
-        .default('benchwright'),
-    ),
-    S3_REGION: z.preprocess(blankIsUnset, z.string().trim().default('us-east-1')),
-    /** Both or neither; neither: the SDK's own chain (instance role, ~/.aws). */
-    S3_ACCESS_KEY_ID: z.preprocess(blankIsUnset, z.string().trim().optional()),
-    S3_SECRET_ACCESS_KEY: z.preprocess(blankIsUnset, z.string().optional()),
-    /** bucket in the path (http://host/bucket/key), as most stores a company runs itself expect. */
-    S3_FORCE_PATH_STYLE: yesNo(true),
-    /** npm start's local object-store fake (when FILE_STORE=s3 and S3_ENDPOINT is unset). */
-    BW_S3_PORT: port(54330),
-    /** How often the audit chain is re-checked (0: at start only). */
-    AUDIT_CHECK_MINUTES: z.preprocess(
-      blankIsUnset,
-      z.coerce
-        .number({ error: 'must be a number of minutes (0 or more)' })
-        .refine((n) => Number.isFinite(n) && n >= 0, 'must be a number of minutes (0 or more)')
-        .default(60),
-    ),
-    /** How long an approved revision stands before it is due for its periodic review (months; shop default two years). */
-    REVIEW_INTERVAL_MONTHS: z.preprocess(
-      blankIsUnset,
-      wholeNumber('must be a whole number of months (1–120)', 1, 120).default(24),
-    ),
-    LOG_LEVEL: z.preprocess(
-      blankIsUnset,
-      z
-        .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], {
-          error: 'must be one of fatal, error, warn, info, debug, trace, silent',
-        })
-        .default('info'),
-    ),
-  })
-  .superRefine((env, ctx) => {
-    if (!env.S3_ACCESS_KEY_ID !== !env.S3_SECRET_ACCESS_KEY) {
-      const [missing, given] = env.S3_ACCESS_KEY_ID
-        ? ['S3_SECRET_ACCESS_KEY', 'S3_ACCESS_KEY_ID']
-        : ['S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY'];
-      ctx.addIssue({
-        code: 'custom',
-        path: [missing],
-        message: `is needed with ${given} (set both, or neither)`,
-      });
-    }
-  });
+export const envSchema = z.object({
+  /** The app's HTTP port (`npm start`; the dev server proxies to it). */
+  PORT: port(5480),
+  /** npm start's private PostgreSQL. */
+  BW_DB_PORT: port(54329),
+  /** A parallel test run's own clusters (54339 + 20n …) and client build. */
+  BW_TEST_SLOT: z.preprocess(blankIsUnset, wholeNumber('is not a test slot number (0–99)', 0, 99).default(0)),
+  /** Host names a reverse proxy in front may pass on, comma-separated; others are answered 421. */
+  BW_ALLOWED_HOSTS: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .default('')
+      .transform((s) =>
+        s
+          .split(',')
+          .map((h) => h.trim())
+          .filter(Boolean),
+      ),
+  ),
+  /** The shop's mail relay; unset: a local mail catcher keeps every message. */
+  SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
+  SMTP_PORT: port(25),
+  SMTP_FROM: z.preprocess(blankIsUnset, z.string().default('Benchwright <benchwright@tallowcreek.example>')),
+  /**
+   * Where uploaded files and issued run sheets are kept: `s3` (default) an S3-compatible bucket —
+   * S3_ENDPOINT's, or a local object-store fake that the start and test commands run on loopback
+   * when S3_ENDPOINT is unset; `disk` plain files in .data/uploads, for a shop on one machine.
+   */
+  FILE_STORE: z.preprocess(
+    blankIsUnset,
+    z.enum(['s3', 'disk'], { error: 'must be s3 or disk' }).default('s3'),
+  ),
+  /** The object store's URL (http or https); unset: the local fake. */
+  S3_ENDPOINT: z.preprocess(
+    blankIsUnset,
+    z
+      .url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' })
+      .trim()
+      .optional(),
+  ),
+  /** Bucket names: 3–63 lower-case letters, digits, dots and hyphens (the S3 naming rules). */
+  S3_BUCKET: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .trim()
+      .regex(
+        /^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/,
+        'is not a bucket name (3–63 lower-case letters, digits, dots and hyphens)',
+      )
+      .default('benchwright'),
+  ),
+  S3_REGION: z.preprocess(blankIsUnset, z.string().trim().default('us-east-1')),
+  /** Both or neither; neither: the SDK's own chain (instance role, ~/.aws). */
+  S3_ACCESS_KEY_ID: z.preprocess(blankIsUnset, z.string().trim().optional()),
+  S3_SECRET_ACCESS_KEY: z.preprocess(blankIsUnset, z.string().optional()),
+  /** Bucket in the path (http://host/bucket/key), as most stores a company runs itself expect. */
+  S3_FORCE_PATH_STYLE: yesNo(true),
+  /** npm start's local object-store fake (when FILE_STORE=s3 and S3_ENDPOINT is unset). */
+  BW_S3_PORT: port(54330),
+  /** How often the audit chain is re-checked (0: at start only). */
+  AUDIT_CHECK_MINUTES: z.preprocess(
+    blankIsUnset,
+    z.coerce
+      .number({ error: 'must be a number of minutes (0 or more)' })
+      .refine((n) => Number.isFinite(n) && n >= 0, 'must be a number of minutes (0 or more)')
+      .default(60),
+  ),
+  /** How long an approved revision stands before it is due for its periodic review (months; shop default two years). */
+  REVIEW_INTERVAL_MONTHS: z.preprocess(
+    blankIsUnset,
+    wholeNumber('must be a whole number of months (1–120)', 1, 120).default(24),
+  ),
+  LOG_LEVEL: z.preprocess(
+    blankIsUnset,
+    z
+      .enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'], {
+        error: 'must be one of fatal, error, warn, info, debug, trace, silent',
+      })
+      .default('info'),
+  ),
+});
 
 export type Env = z.infer<typeof envSchema>;
 
+/** Rules that tie variables together. */
+const checkedEnv = envSchema.superRefine((env, ctx) => {
+  if (!env.S3_ACCESS_KEY_ID !== !env.S3_SECRET_ACCESS_KEY) {
+    const [missing, given] = env.S3_ACCESS_KEY_ID
+      ? ['S3_SECRET_ACCESS_KEY', 'S3_ACCESS_KEY_ID']
+      : ['S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY'];
+    ctx.addIssue({
+      code: 'custom',
+      path: [missing],
+      message: `is needed with ${given} (set both, or neither)`,
+    });
+  }
+});
+
 /** Reads the variables from `source`; a bad one throws naming each variable, its value and the rule. */
 export function readEnv(source: Record<string, string | undefined>): Env {
-  const result = envSchema.safeParse(source);
+  const result = checkedEnv.safeParse(source);
   if (result.success) return result.data;
   const problems = result.error.issues.map((issue) => {
     const name = String(issue.path[0]);
