@@ -15,8 +15,8 @@ import {
 } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { ensureAppRole, pgBinDir, revokeTemporary, withAdminClient } from '../bootstrap/postgres';
 import pg from 'pg';
+import { ensureAppRole, pgBinDir, revokeTemporary, withAdminClient } from '../bootstrap/postgres';
 import { upgradeLegacyFiles } from '../storage/files';
 import { s3FileStore, type S3Settings } from '../storage/s3-store';
 
@@ -73,9 +73,8 @@ export async function createBackup(opts: {
         const bytes = await store.get(sha256);
         if (bytes) writeFileSync(path.join(work, 'uploads', sha256), bytes);
       }
-    }
-    // Files still being written (server/storage) are left out; they have no row yet.
-    else if (existsSync(opts.uploadDir))
+    } else if (existsSync(opts.uploadDir))
+      // Files still being written (server/storage) are left out; they have no row yet.
       cpSync(opts.uploadDir, path.join(work, 'uploads'), {
         recursive: true,
         filter: (src) => !path.basename(src).startsWith('.incoming-'),
