@@ -1,5 +1,6 @@
 // A local stand-in for the shop's object store: s3rver speaks the S3 API on loopback and keeps the
 // objects in a folder, so npm start and the tests run the same code a shop with a real store runs.
+import { mkdirSync } from 'node:fs';
 import { createServer } from 'node:http';
 import S3rver from 's3rver';
 import type { S3Settings } from './s3-store';
@@ -12,6 +13,8 @@ export const FAKE_S3_CREDENTIALS = { accessKeyId: 'S3RVER', secretAccessKey: 'S3
  * rejects with EADDRINUSE (s3rver's own run() would throw it outside any promise).
  */
 export async function startFakeS3(opts: { port: number; dir: string; buckets?: string[] }) {
+  // s3rver answers ListBuckets with a 500 until its folder exists.
+  mkdirSync(opts.dir, { recursive: true });
   const fake = new S3rver({
     directory: opts.dir,
     silent: true,
