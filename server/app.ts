@@ -7,6 +7,7 @@ import { createPassport } from './auth/passport';
 import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from './auth/session';
 import type { AppDeps } from './deps';
 import { fileStore } from './storage/files';
+import { s3FileStore } from './storage/s3-store';
 import { errorHandler, HttpError } from './http/errors';
 import { hostAllowlist } from './http/host-allowlist';
 import { inputGuard } from './http/input-guard';
@@ -26,7 +27,7 @@ export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<
   const csrf = createCsrf(config);
   const deps: AppDeps = {
     ...given,
-    files: given.files ?? fileStore(config.uploadDir),
+    files: given.files ?? (config.s3 ? s3FileStore(config.s3) : fileStore(config.uploadDir)),
     auth: { passport, sessions, csrf },
   };
   const app = express();

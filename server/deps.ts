@@ -9,6 +9,7 @@ import type { Db } from './db/client';
 import type { MailSender, SmtpSettings } from './mail/sender';
 import type { SearchService } from './search/search-service';
 import type { FileStore } from './storage/files';
+import type { S3Settings } from './storage/s3-store';
 
 export interface AppConfig {
   sessionSecret: string;
@@ -28,8 +29,10 @@ export interface AppConfig {
   /** Idle and absolute session lifetimes. */
   sessionIdleMs: number;
   sessionAbsoluteMs: number;
-  /** Where uploaded files are kept (git-ignored .data/uploads by default). */
+  /** Where uploaded files are kept (git-ignored .data/uploads by default) when `s3` is not set. */
   uploadDir: string;
+  /** The bucket that keeps uploaded files and issued run sheets instead of uploadDir (FILE_STORE=s3). */
+  s3?: S3Settings;
   /** Outgoing mail server; none in API-only tests (mail then waits in the outbox). */
   smtp?: SmtpSettings;
   /** How often a running server re-checks the audit hash chain (it also checks at start); 0: at start only; default hourly. */
@@ -57,7 +60,7 @@ export interface AppDeps {
   mailer?: MailSender;
   /** The in-process search index, kept current by NOTIFY from PostgreSQL. */
   search?: SearchService;
-  /** Uploaded bytes, kept under their SHA-256 (by default in config.uploadDir). */
+  /** Uploaded bytes and issued run sheets, kept under their SHA-256 (config.s3's bucket, else config.uploadDir). */
   files: FileStore;
   auth: AuthRuntime;
 }

@@ -13,6 +13,7 @@ import { createLogger } from './logger';
 import { MailSender } from './mail/sender';
 import { SearchService } from './search/search-service';
 import { upgradeLegacyFiles } from './storage/files';
+import { adoptDiskFiles, s3FileStore } from './storage/s3-store';
 
 export interface RunningServer {
   server: Server;
@@ -34,8 +35,14 @@ export async function startServer(opts: {
   const db = createDb(pool);
   const host = opts.host ?? '127.0.0.1';
   const config = defaultConfig({ publicUrl: `http://${host}:${opts.port}`, ...opts.config });
-  const moved = await upgradeLegacyFiles(config.uploadDir);
-  if (moved) logger.info({ moved }, 'uploaded files moved to their SHA-256 names');
+  if (config.s3) {
+    const copied = await adoptDiskFiles(config.uploadDir, s3FileStore(config.s3));
+    if (copied)
+      logger.info({ copied, bucket: config.s3.bucket }, 'files kept on disk copied into the bucket');
+  } else {
+    const moved = await upgradeLegacyFiles(config.uploadDir);
+    if (moved) logger.info({ moved }, 'uploaded files moved to their SHA-256 names');
+  }
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   const search = new SearchService(db, opts.databaseUrl, logger);
   await search

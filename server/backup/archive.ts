@@ -1,11 +1,24 @@
 // Backup and restore: one timestamped archive holding a pg_dump (custom format, a consistent
-// snapshot) and every uploaded file, so a restore brings back records and attachments together.
+// snapshot) and every stored file, so a restore brings back records and files together. Files come
+// from an upload folder (FILE_STORE=disk) or a bucket (S3); the archive holds them the same way
+// (uploads/<sha256>), so an archive from either store restores into either.
 import { execFileSync } from 'node:child_process';
-import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import {
+  cpSync,
+  existsSync,
+  mkdirSync,
+  mkdtempSync,
+  readdirSync,
+  readFileSync,
+  rmSync,
+  writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import pg from 'pg';
 import { ensureAppRole, pgBinDir, revokeTemporary, withAdminClient } from '../bootstrap/postgres';
 import { upgradeLegacyFiles } from '../storage/files';
+import { s3FileStore, type S3Settings } from '../storage/s3-store';
 
 function connectionEnv(url: string) {
   const u = new URL(url);
@@ -19,8 +32,32 @@ function connectionEnv(url: string) {
   };
 }
 
-/** Writes <outDir>/benchwright-<UTC timestamp>.tar and returns its path. */
-export function createBackup(opts: { databaseUrl: string; uploadDir: string; outDir: string; now?: Date }) {
+/** Every file the records refer to: attachments (uploads, photos, certificates) and issued run sheets. */
+async function referencedFiles(databaseUrl: string) {
+  const c = new pg.Client({ connectionString: databaseUrl });
+  await c.connect();
+  try {
+    const { rows } = await c.query<{ sha256: string }>(
+      'SELECT sha256 FROM attachments UNION SELECT sha256 FROM run_sheet_files ORDER BY 1',
+    );
+    return rows.map((r) => r.sha256);
+  } finally {
+    await c.end();
+  }
+}
+
+/**
+ * Writes <outDir>/benchwright-<UTC timestamp>.tar and returns its path. Files come from `s3`'s bucket
+ * when given (each one the database refers to, read after the dump, so every row in it finds its
+ * file; one missing or altered is left out, and the records check names it), else from `uploadDir`.
+ */
+export async function createBackup(opts: {
+  databaseUrl: string;
+  uploadDir: string;
+  s3?: S3Settings;
+  outDir: string;
+  now?: Date;
+}) {
   const stamp = (opts.now ?? new Date()).toISOString().replace(/[:.]/g, '-');
   const work = mkdtempSync(path.join(tmpdir(), 'bw-backup-'));
   try {
@@ -30,8 +67,14 @@ export function createBackup(opts: { databaseUrl: string; uploadDir: string; out
       { env: connectionEnv(opts.databaseUrl) },
     );
     mkdirSync(path.join(work, 'uploads'));
-    // Files still being written (server/storage) are left out; they have no row yet.
-    if (existsSync(opts.uploadDir))
+    if (opts.s3) {
+      const store = s3FileStore(opts.s3);
+      for (const sha256 of await referencedFiles(opts.databaseUrl)) {
+        const bytes = await store.get(sha256);
+        if (bytes) writeFileSync(path.join(work, 'uploads', sha256), bytes);
+      }
+    } else if (existsSync(opts.uploadDir))
+      // Files still being written (server/storage) are left out; they have no row yet.
       cpSync(opts.uploadDir, path.join(work, 'uploads'), {
         recursive: true,
         filter: (src) => !path.basename(src).startsWith('.incoming-'),
@@ -46,18 +89,20 @@ export function createBackup(opts: { databaseUrl: string; uploadDir: string; out
 }
 
 /**
- * Restores an archive into a database that must not exist yet (it is created), and its uploads
- * into an upload folder that must be empty. Refuses to overwrite anything.
+ * Restores an archive into a database that must not exist yet (it is created), and its files into
+ * `s3`'s bucket when given, else into an upload folder that must be empty. Refuses to overwrite
+ * anything: a bucket keeps each content under its own SHA-256, so a file already there is left as it is.
  */
 export async function restoreBackup(opts: {
   file: string;
   adminUrl: string;
   databaseUrl: string;
   uploadDir: string;
+  s3?: S3Settings;
 }) {
   const database = new URL(opts.databaseUrl).pathname.slice(1);
   if (!/^[a-z_][a-z0-9_]*$/.test(database)) throw new Error(`bad database name ${database}`);
-  if (existsSync(opts.uploadDir) && readdirSync(opts.uploadDir).length > 0)
+  if (!opts.s3 && existsSync(opts.uploadDir) && readdirSync(opts.uploadDir).length > 0)
     throw new Error(`${opts.uploadDir} is not empty; restore into an empty upload folder`);
   await withAdminClient(opts.adminUrl, async (c) => {
     const { rowCount } = await c.query('SELECT 1 FROM pg_database WHERE datname = $1', [database]);
@@ -76,10 +121,18 @@ export async function restoreBackup(opts: {
       ['--no-owner', '--exit-on-error', '-d', database, path.join(work, 'database.dump')],
       { env: connectionEnv(opts.databaseUrl) },
     );
-    mkdirSync(opts.uploadDir, { recursive: true });
-    cpSync(path.join(work, 'uploads'), opts.uploadDir, { recursive: true });
-    // An archive from before content addressing: its files move to their SHA-256 names.
-    await upgradeLegacyFiles(opts.uploadDir);
+    if (opts.s3) {
+      // Stored by their bytes' hash, so files of an archive from before content addressing land
+      // under their SHA-256 too.
+      const store = s3FileStore(opts.s3);
+      const dir = path.join(work, 'uploads');
+      for (const name of readdirSync(dir)) await store.put(readFileSync(path.join(dir, name)));
+    } else {
+      mkdirSync(opts.uploadDir, { recursive: true });
+      cpSync(path.join(work, 'uploads'), opts.uploadDir, { recursive: true });
+      // An archive from before content addressing: its files move to their SHA-256 names.
+      await upgradeLegacyFiles(opts.uploadDir);
+    }
   } finally {
     rmSync(work, { recursive: true, force: true });
   }

@@ -1,12 +1,12 @@
 import { createDb, createPool } from '../db/client';
-import { fileStore } from '../storage/files';
+import type { FileStore } from '../storage/files';
 import { checkRecords, describeCheck } from './check';
 
-/** Runs the records check on a database and upload folder and says what it found, line by line. */
-export async function reportRecords(databaseUrl: string, uploadDir: string, say: (line: string) => void) {
+/** Runs the records check on a database and its file store and says what it found, line by line. */
+export async function reportRecords(databaseUrl: string, files: FileStore, say: (line: string) => void) {
   const pool = createPool(databaseUrl);
   try {
-    const lines = describeCheck(await checkRecords(createDb(pool), fileStore(uploadDir)));
+    const lines = describeCheck(await checkRecords(createDb(pool), files));
     for (const line of lines) say(line);
   } catch (err) {
     // An archive from an older version is checked once the app has migrated it.

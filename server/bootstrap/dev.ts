@@ -6,11 +6,13 @@ import { acquireStartLock } from './lock';
 import { PORTS, prepareDatabase, projectRoot, readOrCreateSecret, say, startMainCluster } from './prepare';
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
+import { openObjectStore } from './object-store';
 
 const releaseLock = acquireStartLock('http://127.0.0.1:5173 (dev)');
 const cluster = startMainCluster();
 const databaseUrl = await prepareDatabase(cluster, 'benchwright');
 const mailCatcher = await startFakeSmtp(0);
+const files = await openObjectStore();
 const api = await startServer({
   databaseUrl,
   port: PORTS.app,
@@ -22,6 +24,7 @@ const api = await startServer({
       port: mailCatcher.port,
       from: 'Benchwright <benchwright@tallowcreek.example>',
     },
+    s3: files.s3,
   },
 });
 const vite = await createServer({ configFile: path.join(projectRoot, 'vite.config.ts') });
@@ -32,6 +35,7 @@ process.on('SIGINT', async () => {
   await vite.close();
   await api.close();
   await mailCatcher.close();
+  await files.close();
   stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);

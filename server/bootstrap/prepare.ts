@@ -17,6 +17,7 @@ export const dataDir = path.join(projectRoot, '.data');
  * Ports: 5480 for the app (PORT), 54329 for npm start's cluster (BW_DB_PORT), 54339 for the test cluster.
  * BW_TEST_SLOT=n gives a parallel test run clusters of its own (54339+20n, and 54349+20n for
  * the restart test) and a client build of its own, so two people can run the tests in one checkout at once.
+ * The object-store fake: 54330 for npm start (BW_S3_PORT), the slot's last port (54358+20n) for tests.
  */
 export const TEST_SLOT = env.BW_TEST_SLOT;
 export const PORTS = {
@@ -25,6 +26,8 @@ export const PORTS = {
   testDb: 54339 + TEST_SLOT * 20,
   healthDb: 54349 + TEST_SLOT * 20,
   restoreDb: 54350 + TEST_SLOT * 20,
+  mainS3: env.BW_S3_PORT,
+  testS3: 54358 + TEST_SLOT * 20,
 } as const;
 export const testClientDir = path.join(projectRoot, 'dist', `client-test-${TEST_SLOT}`);
 export const testClusterName = (base: string) => (TEST_SLOT ? `${base}-${TEST_SLOT}` : base);

@@ -20,6 +20,7 @@ import {
 } from './prepare';
 import { stopCluster } from './postgres';
 import { startFakeSmtp } from '../mail/fake-smtp';
+import { openObjectStore } from './object-store';
 
 const port = PORTS.app;
 const host = env.BW_HOST;
@@ -40,6 +41,8 @@ await build({ logLevel: 'warn', configFile: path.join(projectRoot, 'vite.config.
 const relay = env.SMTP_HOST ? { host: env.SMTP_HOST, port: env.SMTP_PORT } : null;
 const mailCatcher = relay ? null : await startFakeSmtp(2525).catch(() => startFakeSmtp(0));
 const smtp = relay ?? { host: '127.0.0.1', port: mailCatcher!.port };
+// Files: S3_ENDPOINT's bucket, a local object-store fake, or the disk (FILE_STORE=disk).
+const files = await openObjectStore();
 
 const settings: Parameters<typeof startServer>[0] = {
   databaseUrl,
@@ -55,6 +58,7 @@ const settings: Parameters<typeof startServer>[0] = {
     allowedHosts: env.BW_ALLOWED_HOSTS,
     trustProxy: env.BW_TRUST_PROXY,
     smtp: { ...smtp, from: env.SMTP_FROM },
+    s3: files.s3,
   },
 };
 const portTaken = (err: NodeJS.ErrnoException) => {
@@ -115,6 +119,7 @@ async function startWorkers(count: number) {
 console.log(`
   Benchwright is running at ${running.url}${env.WORKERS > 1 ? ` (${env.WORKERS} processes)` : ''}
   Database: ${cluster ? `PostgreSQL on 127.0.0.1:${PORTS.mainDb} (data in ${cluster.dataDir})` : `DATABASE_URL (${new URL(databaseUrl).host})`}
+  Files:    ${files.where}
   Mail:     ${mailCatcher ? `local mail catcher (SMTP) on 127.0.0.1:${mailCatcher.port}` : `relay ${smtp.host}:${smtp.port}`}; admins see the outbox under Mail outbox
 
   Demo sign-ins (Tallow Creek Valve Works):
@@ -132,6 +137,7 @@ async function stop(signal: string) {
   say(`${signal}: finishing requests and stopping…`);
   await running.close();
   await mailCatcher?.close();
+  await files.close();
   if (cluster) stopCluster(cluster.dataDir);
   releaseLock();
   process.exit(0);

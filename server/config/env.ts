@@ -16,6 +16,15 @@ const wholeNumber = (rule: string, min: number, max: number) =>
 const port = (fallback: number) =>
   z.preprocess(blankIsUnset, wholeNumber(PORT_RULE, 1, 65535).default(fallback));
 
+const yesNo = (fallback: boolean) =>
+  z.preprocess(
+    blankIsUnset,
+    z
+      .enum(['true', 'false', '1', '0', 'yes', 'no'], { error: 'must be true or false' })
+      .default(fallback ? 'true' : 'false')
+      .transform((v) => ['true', '1', 'yes'].includes(v)),
+  );
+
 /** Every environment variable the server and its start-up scripts read, with its default. */
 export const envSchema = z.object({
   /** The app's HTTP port (`npm start`; the dev server proxies to it). */
@@ -73,6 +82,43 @@ export const envSchema = z.object({
   SMTP_HOST: z.preprocess(blankIsUnset, z.string().trim().optional()),
   SMTP_PORT: port(25),
   SMTP_FROM: z.preprocess(blankIsUnset, z.string().default('Benchwright <benchwright@tallowcreek.example>')),
+  /**
+   * Where uploaded files and issued run sheets are kept: `s3` (default) an S3-compatible bucket —
+   * S3_ENDPOINT's, or a local object-store fake that the start and test commands run on loopback
+   * when S3_ENDPOINT is unset; `disk` plain files in .data/uploads, for a shop on one machine.
+   */
+  FILE_STORE: z.preprocess(
+    blankIsUnset,
+    z.enum(['s3', 'disk'], { error: 'must be s3 or disk' }).default('s3'),
+  ),
+  /** The object store's URL (http or https); unset: the local fake. */
+  S3_ENDPOINT: z.preprocess(
+    blankIsUnset,
+    z
+      .url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' })
+      .trim()
+      .optional(),
+  ),
+  /** Bucket names: 3–63 lower-case letters, digits, dots and hyphens (the S3 naming rules). */
+  S3_BUCKET: z.preprocess(
+    blankIsUnset,
+    z
+      .string()
+      .trim()
+      .regex(
+        /^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/,
+        'is not a bucket name (3–63 lower-case letters, digits, dots and hyphens)',
+      )
+      .default('benchwright'),
+  ),
+  S3_REGION: z.preprocess(blankIsUnset, z.string().trim().default('us-east-1')),
+  /** Both or neither; neither: the SDK's own chain (instance role, ~/.aws). */
+  S3_ACCESS_KEY_ID: z.preprocess(blankIsUnset, z.string().trim().optional()),
+  S3_SECRET_ACCESS_KEY: z.preprocess(blankIsUnset, z.string().optional()),
+  /** Bucket in the path (http://host/bucket/key), as most stores a company runs itself expect. */
+  S3_FORCE_PATH_STYLE: yesNo(true),
+  /** npm start's local object-store fake (when FILE_STORE=s3 and S3_ENDPOINT is unset). */
+  BW_S3_PORT: port(54330),
   /** How often the audit chain is re-checked (0: at start only). */
   AUDIT_CHECK_MINUTES: z.preprocess(
     blankIsUnset,
@@ -98,13 +144,28 @@ export const envSchema = z.object({
 
 export type Env = z.infer<typeof envSchema>;
 
+/** Rules that tie variables together. */
+const checkedEnv = envSchema.superRefine((env, ctx) => {
+  if (!env.S3_ACCESS_KEY_ID !== !env.S3_SECRET_ACCESS_KEY) {
+    const [missing, given] = env.S3_ACCESS_KEY_ID
+      ? ['S3_SECRET_ACCESS_KEY', 'S3_ACCESS_KEY_ID']
+      : ['S3_ACCESS_KEY_ID', 'S3_SECRET_ACCESS_KEY'];
+    ctx.addIssue({
+      code: 'custom',
+      path: [missing],
+      message: `is needed with ${given} (set both, or neither)`,
+    });
+  }
+});
+
 /** Reads the variables from `source`; a bad one throws naming each variable, its value and the rule. */
 export function readEnv(source: Record<string, string | undefined>): Env {
-  const result = envSchema.safeParse(source);
+  const result = checkedEnv.safeParse(source);
   if (result.success) return result.data;
   const problems = result.error.issues.map((issue) => {
     const name = String(issue.path[0]);
-    return `${name}=${JSON.stringify(source[name])} ${issue.message}`;
+    const value = source[name] === undefined ? ' (unset)' : `=${JSON.stringify(source[name])}`;
+    return `${name}${value} ${issue.message}`;
   });
   throw new Error(`Bad environment: ${problems.join('; ')}.`);
 }

@@ -1,6 +1,6 @@
 // The file store: bytes are kept under their own SHA-256, so a stored name can only ever mean one
 // content, and reading re-hashes them, so bytes altered on disk are never handed out as the original.
-// The interface stays this small (put, get, exists) so the bytes can move to object storage later.
+// Two stores keep this contract: a folder on the local disk (here) and an S3 bucket (s3-store.ts).
 import { createHash, randomBytes } from 'node:crypto';
 import { mkdir, readdir, readFile, rename, unlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
@@ -14,9 +14,9 @@ export interface FileStore {
   exists(sha256: string): Promise<boolean>;
 }
 
-const SHA256 = /^[0-9a-f]{64}$/;
+export const SHA256 = /^[0-9a-f]{64}$/;
 /** Names the store gave files before it was content-addressed (random, 128 bits). */
-const LEGACY_NAME = /^[0-9a-f]{32}$/;
+export const LEGACY_NAME = /^[0-9a-f]{32}$/;
 
 export const sha256Of = (bytes: Buffer) => createHash('sha256').update(bytes).digest('hex');
 

@@ -10,6 +10,7 @@ import { startFakeSmtp } from '../../server/mail/fake-smtp';
 import { MailSender } from '../../server/mail/sender';
 import { SearchService } from '../../server/search/search-service';
 import { fileStore } from '../../server/storage/files';
+import { createTestBucket } from './test-bucket';
 import { readDemoPeople } from '../../server/db/seed';
 import { createTestDatabase } from './test-db';
 
@@ -26,7 +27,7 @@ export const demo = Object.fromEntries(
 /** The real Express app on a private, migrated and seeded database. */
 export async function createTestApp(
   overrides: Partial<AppConfig> = {},
-  options: { mail?: boolean; search?: boolean } = {},
+  options: { mail?: boolean; search?: boolean; files?: 'disk' | 's3' } = {},
 ) {
   const database = await createTestDatabase();
   const pool = createPool(database.url);
@@ -49,7 +50,10 @@ export async function createTestApp(
   const mailer = config.smtp ? new MailSender(db, config.smtp, logger) : undefined;
   const search = options.search ? new SearchService(db, database.url, logger) : undefined;
   await search?.start();
-  const files = fileStore(uploadDir);
+  // Files on disk in uploadDir, or in a bucket of this test file's own on the test object store.
+  const bucket = options.files === 's3' ? await createTestBucket() : undefined;
+  if (bucket) config.s3 = bucket.settings;
+  const files = bucket?.store ?? fileStore(uploadDir);
   const app = createApp({ db, pool, logger, config, mailer, search, files });
 
   /** A cookie-keeping client; `signIn` leaves it signed in and remembers its CSRF token. */
@@ -101,6 +105,7 @@ export async function createTestApp(
     ownerUrl: database.ownerUrl,
     uploadDir,
     files,
+    bucket,
     client,
     as,
     async close() {
@@ -111,6 +116,7 @@ export async function createTestApp(
       await pool.end();
       await ownerPool.end();
       await database.drop();
+      await bucket?.drop();
       rmSync(uploadDir, { recursive: true, force: true });
     },
   };

@@ -12,7 +12,7 @@ import {
 } from '../../../shared/schemas/runs';
 import { idempotencyKeyHeader } from '../../http/idempotency-key';
 import { defineRoute } from '../../http/route';
-import { renderRunSheetPdf } from './pdf';
+import { runSheetPdf } from './run-sheet-file';
 import { receivePhoto } from './photo-upload';
 import { abandonRun, handOverRun } from './run-custody';
 import { signRun, witnessRun } from './run-sign';
@@ -186,7 +186,7 @@ export const runRoutes = [
     params: runParams,
     handler: async ({ res, params, deps }) => {
       const run = await loadRunView(deps.db, deps.files, params.id);
-      const pdf = await renderRunSheetPdf(run);
+      const pdf = await runSheetPdf(deps.db, deps.files, run);
       const name = `run-sheet-${run.unit.model}-${run.unit.serial}-${run.id.slice(0, 8)}.pdf`.replace(
         /[^A-Za-z0-9._-]/g,
         '_',

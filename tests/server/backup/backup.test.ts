@@ -1,8 +1,10 @@
+import { execFileSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { sql } from 'drizzle-orm';
+import { PutObjectCommand } from '@aws-sdk/client-s3';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createBackup, restoreBackup } from '../../../server/backup/archive';
@@ -16,6 +18,7 @@ import { verifyAuditChain } from '../../../server/audit/chain';
 import { fileStore } from '../../../server/storage/files';
 import { pngOf } from '../../support/png';
 import { createTestApp, type TestApp } from '../../support/test-app';
+import { createTestBucket } from '../../support/test-bucket';
 import { approve, doc, fuseBlock, inReview, paragraph, reading } from '../modules/review/review-support';
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
@@ -28,6 +31,8 @@ beforeAll(async () => {
   t = await createTestApp();
   fresh = startCluster({ name: testClusterName('restore'), port: PORTS.restoreDb, projectRoot });
   await dropDatabase(fresh.adminUrl, 'benchwright_restored'); // left from an earlier run
+  await dropDatabase(fresh.adminUrl, 'benchwright_restored_s3');
+  await dropDatabase(fresh.adminUrl, 'benchwright_restored_to_s3');
 });
 afterAll(async () => {
   await t.close();
@@ -85,7 +90,7 @@ describe('backup and restore', () => {
       uploadedBy: person!.id,
     });
 
-    const file = createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
+    const file = await createBackup({ databaseUrl: t.ownerUrl, uploadDir: t.uploadDir, outDir: work });
     expect(path.basename(file)).toMatch(/^benchwright-\d{4}-\d{2}-\d{2}T.*\.tar$/);
 
     const restoredUploads = path.join(work, 'restored-uploads');
@@ -165,5 +170,98 @@ describe('backup and restore', () => {
         uploadDir: path.join(work, 'other'),
       }),
     ).rejects.toThrow(/already exists/);
+
+    // The same archive from a disk store restores into a bucket: every file under its SHA-256, the
+    // one kept under an older random name too.
+    const bucket = await createTestBucket();
+    try {
+      await restoreBackup({
+        file,
+        adminUrl: fresh.adminUrl,
+        databaseUrl: fresh.urlFor('benchwright_restored_to_s3'),
+        uploadDir: path.join(work, 'unused'),
+        s3: bucket.settings,
+      });
+      const keys: string[] = [];
+      for await (const key of bucket.store.keys()) keys.push(key);
+      expect(keys.sort()).toEqual(rows.map((r) => r.sha256).sort());
+      for (const r of rows) expect(await bucket.store.exists(r.sha256)).toBe(true);
+    } finally {
+      await bucket.drop();
+    }
+  });
+});
+
+describe('backup and restore with files in a bucket', () => {
+  it('archives every file the records refer to from the bucket and puts them back into another, verifying', async () => {
+    const s3 = await createTestApp({}, { files: 's3' });
+    const target = await createTestBucket();
+    try {
+      const hal = await s3.as('hal');
+      const image = pngOf(3, 7, 99);
+      const up = await hal.post('/api/attachments').attach('file', image, { filename: 'rectifier.png' });
+      expect(up.status).toBe(201);
+      const { revision } = await inReview(s3, 'hal', imageDoc(up.body.attachment.id));
+      expect((await approve(await s3.as('marek'), revision.id, 'marek')).status).toBe(200);
+      // A demo run's signed sheet, issued into the bucket.
+      const { rows: signed } = await s3.db.execute<{ id: string }>(
+        sql`select id from runs where status = 'signed' limit 1`,
+      );
+      const tom = await s3.as('tom');
+      expect((await tom.get(`/api/runs/${signed[0]!.id}/sheet.pdf`)).status).toBe(200);
+      const { rows: referenced } = await s3.db.execute<{ sha256: string }>(
+        sql`select sha256 from attachments union select sha256 from run_sheet_files order by 1`,
+      );
+      expect(referenced.length).toBe(2);
+
+      const file = await createBackup({
+        databaseUrl: s3.ownerUrl,
+        uploadDir: s3.uploadDir,
+        s3: s3.bucket!.settings,
+        outDir: work,
+      });
+      const archived = execFileSync('tar', ['-tf', file], { encoding: 'utf8' })
+        .split('\n')
+        .filter((n) => /^uploads\/./.test(n))
+        .sort();
+      expect(archived).toEqual(referenced.map((r) => `uploads/${r.sha256}`));
+
+      const restoredUrl = fresh.urlFor('benchwright_restored_s3');
+      await restoreBackup({
+        file,
+        adminUrl: fresh.adminUrl,
+        databaseUrl: restoredUrl,
+        uploadDir: path.join(work, 'unused'),
+        s3: target.settings,
+      });
+      const keys: string[] = [];
+      for await (const key of target.store.keys()) keys.push(key);
+      expect(keys.sort()).toEqual(referenced.map((r) => r.sha256));
+      expect(Buffer.compare((await target.store.get(sha256(image)))!, image)).toBe(0);
+
+      const restoredPool = createPool(restoredUrl);
+      try {
+        const restoredDb = createDb(restoredPool);
+        const clean = await checkRecords(restoredDb, target.store);
+        expect(clean.files).toEqual({ checked: 1, damaged: [] });
+        expect(clean.revisionSignatures.checked).toBeGreaterThan(0);
+        expect(clean.revisionSignatures.unverified).toEqual([]);
+        expect(clean.runSignatures.unverified).toEqual([]);
+        // An object replaced in the restored bucket: the check names the file and the sign-off over it.
+        await target.client.send(
+          new PutObjectCommand({ Bucket: target.settings.bucket, Key: sha256(image), Body: pngOf(3, 7, 98) }),
+        );
+        const damaged = await checkRecords(restoredDb, target.store);
+        expect(damaged.files.damaged).toEqual([
+          { attachmentId: up.body.attachment.id, fileName: 'rectifier.png' },
+        ]);
+        expect(damaged.revisionSignatures.unverified).toHaveLength(1);
+      } finally {
+        await restoredPool.end();
+      }
+    } finally {
+      await target.drop();
+      await s3.close();
+    }
   });
 });

@@ -80,3 +80,46 @@ describe('environment', () => {
     expect(() => readEnv({ AUDIT_CHECK_MINUTES: 'Infinity' })).toThrow('AUDIT_CHECK_MINUTES="Infinity"');
   });
 });
+
+describe('object-store settings', () => {
+  it('keeps files in S3 by default, in a bucket named benchwright, path-style', () => {
+    const env = readEnv({});
+    expect([env.FILE_STORE, env.S3_ENDPOINT, env.S3_BUCKET, env.S3_REGION, env.S3_FORCE_PATH_STYLE]).toEqual([
+      's3',
+      undefined,
+      'benchwright',
+      'us-east-1',
+      true,
+    ]);
+    expect(readEnv({ FILE_STORE: 'disk', S3_FORCE_PATH_STYLE: 'false' })).toMatchObject({
+      FILE_STORE: 'disk',
+      S3_FORCE_PATH_STYLE: false,
+    });
+  });
+
+  it('refuses a store, endpoint, bucket or switch it cannot use, naming each', () => {
+    expect(() =>
+      readEnv({
+        FILE_STORE: 'nfs',
+        S3_ENDPOINT: 'ftp://store.example',
+        S3_BUCKET: 'Shop_Files',
+        S3_FORCE_PATH_STYLE: 'maybe',
+      }),
+    ).toThrow(
+      /FILE_STORE="nfs" must be s3 or disk.*S3_ENDPOINT="ftp:\/\/store.example" must be an http:\/\/ or https:\/\/ URL.*S3_BUCKET="Shop_Files" is not a bucket name.*S3_FORCE_PATH_STYLE="maybe" must be true or false/,
+    );
+  });
+
+  // S3 bucket naming rules: 3–63 characters (AWS S3 user guide, "Bucket naming rules").
+  it.each(['ab', 'a'.repeat(64), '-shop', 'shop-'])('refuses the bucket name %s', (name) => {
+    expect(() => readEnv({ S3_BUCKET: name })).toThrow('is not a bucket name');
+  });
+
+  it('wants both keys or neither', () => {
+    expect(() => readEnv({ S3_ACCESS_KEY_ID: 'shop' })).toThrow(
+      'S3_SECRET_ACCESS_KEY (unset) is needed with S3_ACCESS_KEY_ID (set both, or neither)',
+    );
+    expect(() => readEnv({ S3_SECRET_ACCESS_KEY: 'x' })).toThrow('S3_ACCESS_KEY_ID (unset) is needed with');
+    expect(readEnv({ S3_ACCESS_KEY_ID: 'shop', S3_SECRET_ACCESS_KEY: 'x' }).S3_ACCESS_KEY_ID).toBe('shop');
+  });
+});
