@@ -231,3 +231,24 @@ CREATE CONSTRAINT TRIGGER runs_follow_up_present AFTER UPDATE ON public.runs
   DEFERRABLE INITIALLY DEFERRED
   FOR EACH ROW WHEN (NEW.status = 'signed' AND OLD.status IS DISTINCT FROM 'signed')
   EXECUTE FUNCTION public.benchwright_follow_up_on_sign();
+--> statement-breakpoint
+-- Run sheets signed before follow-ups existed: each one with out-of-band readings gets its follow-up,
+-- owned by its performer, closed by the first later in-band run of the same procedure on the same unit.
+INSERT INTO public.follow_ups (run_id, unit_id, procedure_id, entry_ids, owner_id, opened_at)
+SELECT r.id, r.unit_id, r.procedure_id,
+       array(SELECT e.id FROM public.run_entries e WHERE e.run_id = r.id AND e.within = false ORDER BY e.step_id),
+       r.performed_by, r.signed_at
+  FROM public.runs r
+ WHERE r.status = 'signed' AND r.out_of_tolerance
+   AND EXISTS (SELECT 1 FROM public.run_entries e WHERE e.run_id = r.id AND e.within = false)
+   AND NOT EXISTS (SELECT 1 FROM public.follow_ups f WHERE f.run_id = r.id);
+--> statement-breakpoint
+UPDATE public.follow_ups f
+   SET disposition = 'repair', disposition_by = c.performed_by, disposition_at = c.signed_at,
+       closing_run_id = c.id, closed_by = c.performed_by, closed_at = c.signed_at
+  FROM public.runs o,
+       LATERAL (SELECT x.id, x.performed_by, x.signed_at FROM public.runs x
+                 WHERE x.status = 'signed' AND NOT x.out_of_tolerance AND x.unit_id = o.unit_id
+                   AND x.procedure_id = o.procedure_id AND x.signed_at >= o.signed_at AND x.id <> o.id
+                 ORDER BY x.signed_at LIMIT 1) c
+ WHERE o.id = f.run_id AND f.closed_at IS NULL;
