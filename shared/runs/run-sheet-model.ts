@@ -254,9 +254,10 @@ function releaseFields(run: RunView): SheetField[] {
 /** A follow-up in words: its readings, owner, disposition and closure. */
 export function followUpFields(f: FollowUpView): SheetField[] {
   const band = (r: FollowUpView['readings'][number]) =>
-    r.low !== null && r.high !== null
+    r.band ??
+    (r.low !== null && r.high !== null
       ? `${formatQuantity(r.low, r.unit ?? '', 4)} … ${formatQuantity(r.high, r.unit ?? '', 4)}`
-      : 'no band';
+      : 'no band');
   return [
     ...f.readings.map((r) => ({
       label: 'Out of band',

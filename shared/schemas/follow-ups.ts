@@ -99,6 +99,8 @@ export interface FollowUpReading {
   unit: string | null;
   low: number | null;
   high: number | null;
+  /** The band as the run sheet words it. */
+  band: string | null;
 }
 
 export interface FollowUpView {

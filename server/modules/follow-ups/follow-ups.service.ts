@@ -193,10 +193,12 @@ async function views(db: Db | Tx, rows: FollowUpRow[]): Promise<FollowUpView[]> 
       unit: unitRows.find((u) => u.id === f.unitId)!,
       readings: f.entryIds.map((id) => {
         const e = entryRows.find((x) => x.id === id)!;
+        const step = steps.find((s) => s.id === e.stepId);
         return {
           entryId: id,
           stepId: e.stepId,
-          label: steps.find((s) => s.id === e.stepId)?.text ?? e.stepId,
+          label: step?.text ?? e.stepId,
+          band: step?.reading?.bandText ?? null,
           raw: e.raw,
           measured: e.measured,
           unit: e.unit,

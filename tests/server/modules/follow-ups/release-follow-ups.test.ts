@@ -210,6 +210,15 @@ describe('follow-ups', () => {
     expect(mail!.text).toMatch(/HT winding, each half: measured 290 V/);
     expect(mail!.links.some((l) => l.endsWith('/follow-ups'))).toBe(true);
 
+    // The PDF run sheet names the follow-up and its out-of-band reading.
+    const pdf = await tom.get(`/api/runs/${run.id}/sheet.pdf`).buffer(true).parse(pdfBody);
+    const sheet = pdfText(pdf.body as Buffer)
+      .join(' ')
+      .replace(/\s+/g, ' ');
+    expect(sheet).toMatch(
+      /Follow-up of out-of-band readings Out of band: HT winding, each half: 290 V \(band 238 V \.\.\. 263 V\).*Owner: Tom Achterberg.*Status: open/,
+    );
+
     const home = (await tom.get('/api/home')).body.sections.find(
       (s: { key: string }) => s.key === 'followUps',
     );
