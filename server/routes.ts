@@ -2,6 +2,7 @@ import { openApiRoute } from './http/openapi';
 import { acknowledgementRoutes } from './modules/acknowledgements/acknowledgements.routes';
 import { reviewDueRoutes } from './modules/review-due/review-due.routes';
 import { homeRoutes } from './modules/home/home.routes';
+import { followUpRoutes } from './modules/follow-ups/follow-ups.routes';
 import type { RouteDef } from './http/route';
 import { attachmentRoutes } from './modules/attachments/attachments.routes';
 import { accountRoutes } from './modules/auth/account.routes';
@@ -37,5 +38,6 @@ export const routeTable: readonly RouteDef[] = [
   ...runRoutes,
   ...paperSheetRoutes,
   ...registerRoutes,
+  ...followUpRoutes,
   openApiRoute(() => routeTable),
 ];

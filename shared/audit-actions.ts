@@ -122,6 +122,30 @@ const ACTIONS = {
     label: 'Qualification withdrawn',
     phrase: (e) => `withdrew ${qualificationWords(e.details)} from ${who(e)}`,
   },
+  'run.released': {
+    label: 'Bench run released',
+    phrase: () => 'signed a bench run as checked and released',
+  },
+  'unit.state-changed': {
+    label: 'Unit state changed',
+    phrase: (e) => `set unit ${e.subject ?? ''} to ${String(e.details.stateWords ?? e.details.state ?? '')}`,
+  },
+  'follow-up.opened': {
+    label: 'Follow-up opened',
+    phrase: (e) => `opened a follow-up on ${e.subject ?? 'a unit'} for out-of-band readings`,
+  },
+  'follow-up.decided': {
+    label: 'Follow-up disposition',
+    phrase: (e) => `recorded a disposition on the follow-up of ${e.subject ?? 'a unit'}`,
+  },
+  'follow-up.reassigned': {
+    label: 'Follow-up reassigned',
+    phrase: (e) => `gave the follow-up of ${e.subject ?? 'a unit'} to another owner`,
+  },
+  'follow-up.closed': {
+    label: 'Follow-up closed',
+    phrase: (e) => `closed the follow-up of ${e.subject ?? 'a unit'}`,
+  },
 } as const satisfies Record<string, { label: string; phrase: Phrase }>;
 
 export type AuditAction = keyof typeof ACTIONS;

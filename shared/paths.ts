@@ -46,4 +46,5 @@ export const paths = {
   runSheet: { pattern: '/runs/:runId/sheet', href: (id: string) => `/runs/${id}/sheet` },
   instruments: { pattern: '/instruments', href: () => '/instruments' },
   qualifications: { pattern: '/qualifications', href: () => '/qualifications' },
+  followUps: { pattern: '/follow-ups', href: () => '/follow-ups' },
 } as const;

@@ -36,7 +36,10 @@ export async function checkRecords(db: Db, files: FileStore): Promise<RecordsChe
   }
   for (const { runId } of await db.select({ runId: runSignatures.runId }).from(runSignatures)) {
     out.runSignatures.checked++;
-    if (!(await loadRunView(db, files, runId)).signature?.verified) out.runSignatures.unverified.push(runId);
+    // A release signature must cover the same content hash as the performed signature.
+    const view = await loadRunView(db, files, runId);
+    if (!view.signature?.verified || view.release?.matchesRun === false)
+      out.runSignatures.unverified.push(runId);
   }
   return out;
 }

@@ -8,6 +8,8 @@ import { unitBody } from '../../shared/schemas/units';
 import { HttpError } from '../http/errors';
 import type { SessionUser } from '../http/route';
 import { toSessionUser } from '../auth/passport';
+import { decideFollowUp } from '../modules/follow-ups/follow-ups.service';
+import { writeRunRelease } from '../modules/runs/run-release';
 import { writeRunSignature, writeWitnessSignature } from '../modules/runs/run-sign';
 import { recordEntry, startRun } from '../modules/runs/runs.service';
 import { registerUnit } from '../modules/units/units.service';
@@ -55,6 +57,18 @@ const runsFile = z.object({
         through: z.string().optional(),
         readings: z.record(z.string(), z.string()),
         notes: z.record(z.string(), z.string()).default({}),
+        /** A signed run's follow-up (opened by its out-of-band readings): the disposition recorded on it. */
+        disposition: z
+          .object({
+            value: z.enum(['repair', 'accept', 'return']),
+            reason: z.string().optional(),
+            by: email,
+            at: instant,
+          })
+          .strict()
+          .optional(),
+        /** A signed run checked and released by a second person. */
+        release: z.object({ by: email, at: instant }).strict().optional(),
       })
       .strict()
       .refine(
@@ -163,6 +177,10 @@ async function seedOneRun(db: Db, r: SeedRun) {
 
   const witness = r.witness ? await personByEmail(db, r.witness) : undefined;
   if (r.witness && !witness) throw new SkipRun(`no witness ${r.witness}`);
+  const decider = r.disposition ? await personByEmail(db, r.disposition.by) : undefined;
+  if (r.disposition && !decider) throw new SkipRun(`no person ${r.disposition.by}`);
+  const releaser = r.release ? await personByEmail(db, r.release.by) : undefined;
+  if (r.release && !releaser) throw new SkipRun(`no person ${r.release.by}`);
   const [instrument] = r.instrument
     ? await db.select().from(instruments).where(eq(instruments.identifier, r.instrument))
     : [];
@@ -221,12 +239,29 @@ async function seedOneRun(db: Db, r: SeedRun) {
         requestId: 'demo-content',
         signedAt: new Date(r.witnessedAt ?? r.signedAt),
       });
-    if (r.signedAt)
-      await writeRunSignature(tx, NO_FILES, tech, run.id, {
+    if (r.signedAt) {
+      // Out-of-band readings open the run's follow-up here; a passing re-run closes an earlier one.
+      const { followUp } = await writeRunSignature(tx, NO_FILES, tech, run.id, {
         meaning: 'performed',
         requestId: 'demo-content',
         signedAt: new Date(r.signedAt),
       });
+      if (r.disposition && !followUp)
+        throw new SkipRun('a disposition is given but no reading was out of band');
+      if (r.disposition && followUp)
+        await decideFollowUp(
+          tx,
+          decider!,
+          followUp.id,
+          { disposition: r.disposition.value, reason: r.disposition.reason },
+          { at: new Date(r.disposition.at) },
+        );
+      if (r.release)
+        await writeRunRelease(tx, releaser!, run.id, {
+          requestId: 'demo-content',
+          signedAt: new Date(r.release.at),
+        });
+    }
   });
   return true;
 }

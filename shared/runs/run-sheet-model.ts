@@ -2,6 +2,7 @@ import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
 import type { SignalLevel } from '../safety-signs';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../schemas/registers';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
+import { DISPOSITION_WORDS, type FollowUpView } from '../schemas/follow-ups';
 import { formatNumber, formatQuantity } from '../units/format';
 import { MARK_WORDS, markOf, type MarkKind } from './marks';
 import { readingsPlot, type ReadingsPlot } from './readings-plot';
@@ -35,6 +36,10 @@ export const RUN_SIGNATURE_MEANING = {
 /** What a witness's co-signature on a trainee's run means; the witness form says the same. */
 export const WITNESS_MEANING = 'I watched this bench run being performed and these readings being recorded.';
 
+/** What the release signature means; the release form says the same. */
+export const RELEASE_MEANING =
+  'I checked this run sheet against the procedure and release the unit: the work is complete and its readings are accepted.';
+
 export const SHEET_HEADINGS = {
   unit: 'Unit',
   procedure: 'Procedure followed and its approval record',
@@ -44,6 +49,8 @@ export const SHEET_HEADINGS = {
   corrections: 'Corrections (originals kept)',
   instruments: 'Instruments used',
   signature: 'Signature',
+  release: 'Checked and released',
+  followUp: 'Follow-up of out-of-band readings',
 } as const;
 
 export const READING_COLUMNS = [
@@ -61,7 +68,7 @@ export interface SheetField {
   value: string;
   mono?: boolean;
   tone?: 'ok' | 'out';
-  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness' | 'paper';
+  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness' | 'paper' | 'release' | 'follow-up';
 }
 
 export interface SheetNotice {
@@ -130,6 +137,10 @@ export interface RunSheetModel {
   instruments: SheetField[];
   photos: string | null;
   signature: SheetField[];
+  /** The second signature ("checked and released"), or why there is none yet. */
+  release: SheetField[];
+  /** The follow-up this run opened, and any it closed as a passing re-run ([] when neither). */
+  followUp: SheetField[];
 }
 
 /** When an entry was recorded, and the paper sheet's date when it was copied from one. */
@@ -244,6 +255,53 @@ function witnessFields(run: RunView): SheetField[] {
   ];
 }
 
+function releaseFields(run: RunView): SheetField[] {
+  const r = run.release;
+  if (!r) return [{ label: 'Released by', value: run.status === 'signed' ? 'not released yet' : NONE }];
+  return [
+    { label: 'Released by', value: `${r.signer.displayName} (${r.signerRole})`, tag: 'release' },
+    { label: 'Meaning', value: `checked and released: ${RELEASE_MEANING}` },
+    { label: 'Released at', value: formatUtc(r.signedAt) },
+    r.matchesRun
+      ? { label: 'Check', value: 'Yes: the release covers the signed run content hash.', tone: 'ok' }
+      : { label: 'Check', value: 'NO: the release covers another content hash.', tone: 'out' },
+  ];
+}
+
+/** A follow-up in words: its readings, owner, disposition and closure. */
+export function followUpFields(f: FollowUpView): SheetField[] {
+  const band = (r: FollowUpView['readings'][number]) =>
+    r.band ??
+    (r.low !== null && r.high !== null
+      ? `${formatQuantity(r.low, r.unit ?? '', 4)} … ${formatQuantity(r.high, r.unit ?? '', 4)}`
+      : 'no band');
+  return [
+    ...f.readings.map((r) => ({
+      label: 'Out of band',
+      value: `${r.label}: ${r.measured !== null ? formatQuantity(r.measured, r.unit ?? '', 4) : (r.raw ?? NONE)} (band ${band(r)})`,
+      tone: 'out' as const,
+    })),
+    { label: 'Opened', value: formatUtc(f.openedAt) },
+    { label: 'Owner', value: f.owner.displayName },
+    {
+      label: 'Disposition',
+      value: f.disposition
+        ? `${DISPOSITION_WORDS[f.disposition.value]}${f.disposition.reason ? `: ${f.disposition.reason}` : ''} (${f.disposition.by.displayName}, ${formatUtc(f.disposition.at)})`
+        : 'none yet',
+    },
+    f.closed
+      ? {
+          label: 'Closed',
+          value: f.closed.run
+            ? `${formatUtc(f.closed.at)} by a passing re-run signed ${formatUtc(f.closed.run.signedAt)}`
+            : `${formatUtc(f.closed.at)} by ${f.closed.by.displayName}`,
+          tone: 'ok' as const,
+          tag: 'follow-up' as const,
+        }
+      : { label: 'Status', value: 'open', tone: 'out' as const, tag: 'follow-up' as const },
+  ];
+}
+
 export function runSheetModel(run: RunView): RunSheetModel {
   const entries = new Map(run.entries.map((e) => [e.stepId, e]));
   const stepOf = new Map(run.steps.map((s) => [s.id, s]));
@@ -353,5 +411,14 @@ export function runSheetModel(run: RunView): RunSheetModel {
         ] as SheetField[])
       : [{ label: 'Signed by', value: 'not signed yet' }]
     ).concat(witnessFields(run)),
+    release: releaseFields(run),
+    followUp: [
+      ...(run.followUp ? followUpFields(run.followUp) : []),
+      ...(run.closesFollowUps ?? []).map((f) => ({
+        label: 'Closes follow-up',
+        value: `This passing run closed the follow-up opened ${formatUtc(f.openedAt)} on ${f.readings.map((r) => r.label).join(', ')}.`,
+        tone: 'ok' as const,
+      })),
+    ],
   };
 }

@@ -13,6 +13,8 @@ export const HOME_SECTIONS = [
   'drafts',
   'reviewDue',
   'instruments',
+  'followUps',
+  'releases',
 ] as const;
 export type HomeSectionKey = (typeof HOME_SECTIONS)[number];
 

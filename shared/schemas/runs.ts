@@ -6,6 +6,7 @@ import { PARAM_SPECS } from '../document/params';
 import type { CheckKind } from '../document/schema';
 import type { Measure } from '../reckoners/types';
 import { paperSheetInput } from './paper-sheets';
+import type { FollowUpView, RunReleaseView } from './follow-ups';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
 
@@ -289,6 +290,11 @@ export interface RunView {
   progress: { done: number; total: number; outOfTolerance: number };
   /** Step ids that cannot be entered yet: they follow a hazard note not yet acknowledged. */
   locked: string[];
+  /** The second signature, "checked and released" (signed runs). */
+  release?: RunReleaseView | null;
+  /** The follow-up this run's out-of-band readings opened, and those it closed as a passing re-run. */
+  followUp?: FollowUpView | null;
+  closesFollowUps?: FollowUpView[];
 }
 
 export interface RunListItem {

@@ -15,6 +15,7 @@ import { auditLogQueryOptions } from '@/features/audit/api/get-audit';
 import { sessionQueryOptions } from '@/features/auth/api/get-session';
 import { invitationQueryOptions } from '@/features/auth/api/set-password';
 import { homeQueryOptions } from '@/features/home/api/get-home';
+import { followUpsQueryOptions } from '@/features/follow-ups/api/follow-ups';
 import { outboxQueryOptions } from '@/features/outbox/api/get-outbox';
 import { signInSettingsQueryOptions } from '@/features/people/api/account-admin';
 import { peopleQueryOptions } from '@/features/people/api/get-people';
@@ -196,6 +197,11 @@ const router = createBrowserRouter([
         paths.qualifications.pattern,
         () => import('./routes/registers/qualifications'),
         () => [qualificationsQueryOptions()],
+      ),
+      page(
+        paths.followUps.pattern,
+        () => import('./routes/follow-ups'),
+        () => [followUpsQueryOptions()],
       ),
       page(
         paths.units.pattern,

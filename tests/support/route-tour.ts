@@ -199,6 +199,7 @@ export async function routeTour(databaseUrl: string, uploadDir: string): Promise
       // Everyone reads the registers; reviewers and admins keep them (every form shown).
       instruments: as(ALL, 'instruments', paths.instruments.href()),
       qualifications: as(ALL, 'qualifications', paths.qualifications.href()),
+      followUps: as(ALL, 'followUps', paths.followUps.href()),
     };
     return Object.values(visits).flat();
   } finally {

@@ -10,3 +10,4 @@ export * from './acknowledgements';
 export * from './instruments';
 export * from './registers';
 export * from './run-sheets';
+export * from './follow-ups';

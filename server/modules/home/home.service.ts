@@ -15,12 +15,13 @@ import {
 import { paths } from '../../../shared/paths';
 import type { Role } from '../../../shared/schemas/roles';
 import type { Db } from '../../db/client';
-import { instruments, revisions, runs, units } from '../../db/schema';
+import { instruments, revisions, runReleases, runs, units } from '../../db/schema';
 import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
 import { dueReviews } from '../review-due/review-due.service';
 import { loadRunView } from '../runs/run-view';
 import { reviewQueue } from '../review/review-view';
+import { listFollowUps } from '../follow-ups/follow-ups.service';
 
 type Items = Omit<HomeItem, 'urgent'> & { urgent?: boolean };
 /** The shop's review interval, and the file store (a co-signature covers the run's photos' bytes). */
@@ -198,6 +199,54 @@ const SECTIONS: Record<
         detail: `${r.overdue ? 'Overdue since' : 'Due on'} ${r.due}: ${r.description}`,
         href: paths.instruments.href(),
         urgent: r.overdue,
+      }));
+    },
+  },
+  followUps: {
+    roles: ['technician', 'reviewer', 'admin'],
+    title: 'Open follow-ups',
+    href: paths.followUps.href(),
+    linkLabel: 'All follow-ups',
+    // Reviewers and admins keep the shop's list; a technician sees the ones they own.
+    items: async (db, user) =>
+      (
+        await listFollowUps(db, {
+          status: 'open',
+          ownerId: user.roles.some((r) => r === 'reviewer' || r === 'admin') ? undefined : user.id,
+        })
+      ).map((f) => ({
+        id: f.id,
+        label: `${f.unit.model} ${f.unit.serial}`,
+        detail: `${f.readings.length} reading${f.readings.length === 1 ? '' : 's'} out of band, ${f.disposition ? 'repair and re-run' : 'no disposition yet'}; owner ${f.owner.displayName}`,
+        href: paths.followUps.href(),
+        urgent: !f.disposition,
+      })),
+  },
+  releases: {
+    roles: ['reviewer'],
+    title: 'Signed runs to check and release',
+    href: paths.runs.href(),
+    linkLabel: 'All bench runs',
+    // Signed, not released, and no follow-up in the way (none, or closed by a reviewer's acceptance).
+    items: async (db) => {
+      const rows = await db
+        .select({ id: runs.id, title: runs.title, model: units.model, serial: units.serial })
+        .from(runs)
+        .innerJoin(units, eq(units.id, runs.unitId))
+        .where(
+          and(
+            eq(runs.status, 'signed'),
+            sql`not exists (select 1 from ${runReleases} x where x.run_id = ${runs.id})`,
+            sql`not exists (select 1 from follow_ups f where f.run_id = ${runs.id}
+                  and not (f.closed_at is not null and f.closing_run_id is null and f.disposition = 'accept'))`,
+          ),
+        )
+        .orderBy(asc(runs.signedAt));
+      return rows.map((r) => ({
+        id: r.id,
+        label: `${r.model} ${r.serial}`,
+        detail: r.title,
+        href: paths.run.href(r.id),
       }));
     },
   },

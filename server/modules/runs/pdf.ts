@@ -208,7 +208,9 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   }
   if (sheet.photos) line('Photos', sheet.photos);
 
+  if (sheet.followUp.length) fields(SHEET_HEADINGS.followUp, sheet.followUp);
   fields(SHEET_HEADINGS.signature, sheet.signature);
+  fields(SHEET_HEADINGS.release, sheet.release);
 
   doc.end();
   return done;

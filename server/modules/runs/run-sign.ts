@@ -19,6 +19,7 @@ import { conflict, HttpError, notFound } from '../../http/errors';
 import type { SessionUser } from '../../http/route';
 import { composeMail, enqueueMail } from '../../mail/outbox';
 import type { FileStore } from '../../storage/files';
+import { followUpOnSign, queueFollowUpMail } from '../follow-ups/follow-ups.service';
 import { confirmSignerPassword } from '../review/reauth';
 import { revisionContentHash } from '../review/signed-content';
 import { assertWritable } from './run-custody';
@@ -62,8 +63,9 @@ export async function signRun(
       requestId: String(req.id ?? ''),
       req,
     });
-    const { run, unitRecord, entries, signerName, signature, outOfTolerance } = signed;
+    const { run, unitRecord, entries, signerName, signature, outOfTolerance, followUp } = signed;
     if (outOfTolerance) await queueOutOfToleranceMail(tx, deps, run, unitRecord, entries, signerName);
+    if (followUp) await queueFollowUpMail(tx, deps, followUp, run, entries);
     return { signature, outOfTolerance };
   });
   await deps.mailer?.flush();
@@ -112,6 +114,8 @@ export async function writeRunSignature(
     .update(runs)
     .set({ status: 'signed', signedAt: how.signedAt ?? sql`now()`, contentHash, unitRecord, outOfTolerance })
     .where(and(eq(runs.id, runId), eq(runs.status, 'in_progress')));
+  // The unit goes on the bench; out-of-band readings open a follow-up, a passing re-run closes one.
+  const followUp = await followUpOnSign(tx, run, entries, user, how.signedAt);
   await recordAudit(tx, {
     action: 'run.signed',
     actorId: user.id,
@@ -119,7 +123,7 @@ export async function writeRunSignature(
     details: { contentHash, revisionId: run.revisionId, meaning: how.meaning, outOfTolerance },
     req: how.req,
   });
-  return { run, unitRecord, entries, signerName, signature: signature!, outOfTolerance };
+  return { run, unitRecord, entries, signerName, signature: signature!, outOfTolerance, followUp };
 }
 
 /** A witnessed run is signed only over content its witness co-signed (the database checks the same at commit). */

@@ -26,6 +26,7 @@ import { notFound } from '../../http/errors';
 import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
 import { holdOf, supersessionOf } from './run-hold';
+import { releaseAndFollowUps } from './run-release';
 import { lockedSteps, progressOf } from './run-steps';
 import type { RunRow } from './runs.service';
 
@@ -288,7 +289,9 @@ export async function loadRunView(
     run.witnessId && witnessSignatures[0]
       ? (run.contentHash ?? runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos))))
       : null;
+  const quality = await releaseAndFollowUps(db, run);
   return {
+    ...quality,
     id: run.id,
     title: run.title,
     status: run.status,

@@ -13,8 +13,10 @@ import {
 import { idempotencyKeyHeader } from '../../http/idempotency-key';
 import { defineRoute } from '../../http/route';
 import { runSheetPdf } from './run-sheet-file';
+import { releaseRunBody } from '../../../shared/schemas/follow-ups';
 import { receivePhoto } from './photo-upload';
 import { abandonRun, handOverRun } from './run-custody';
+import { releaseRun } from './run-release';
 import { signRun, witnessRun } from './run-sign';
 import { listRuns, loadRunView } from './run-view';
 import { activeTechnicians, addRunPhoto, recordEntry, runEligibility, startRun } from './runs.service';
@@ -145,6 +147,20 @@ export const runRoutes = [
     body: witnessRunBody,
     handler: async ({ req, params, body, user, deps }) => {
       await witnessRun(deps, user!, params.id, body.password, req);
+      return { run: await loadRunView(deps.db, deps.files, params.id) };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/runs/:id/release',
+    access: ['technician', 'reviewer'],
+    summary:
+      'Sign a performed run as checked and released (password again): a reviewer or a qualified technician, never its performer; 409 while a follow-up bars it; the unit becomes released',
+    params: runParams,
+    body: releaseRunBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await releaseRun(deps, user!, params.id, body.password, req);
       return { run: await loadRunView(deps.db, deps.files, params.id) };
     },
   }),

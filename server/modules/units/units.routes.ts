@@ -3,7 +3,9 @@ import { idIn } from '../../http/params';
 import { unitBody, unitListQuery, updateUnitBody } from '../../../shared/schemas/units';
 import { oneLine } from '../../http/clean-text';
 import { defineRoute } from '../../http/route';
+import { unitStateBody } from '../../../shared/schemas/follow-ups';
 import { receivePhoto } from '../runs/photo-upload';
+import { setUnitState, unitStateHistory } from './unit-state';
 import {
   addUnitPhoto,
   listUnits,
@@ -54,6 +56,7 @@ export const unitRoutes = [
         unit,
         photos: await unitPhotosOf(deps.db, params.id),
         runs: await unitRuns(deps.db, params.id),
+        states: await unitStateHistory(deps.db, params.id),
       };
     },
   }),
@@ -82,6 +85,20 @@ export const unitRoutes = [
       const photo = await addUnitPhoto(deps, params.id, req.file, caption, user!.id);
       res.status(201);
       return { photo };
+    },
+  }),
+
+  defineRoute({
+    method: 'post',
+    path: '/units/:id/state',
+    access: ['technician', 'reviewer', 'admin'],
+    summary:
+      'Put a unit on the bench, waiting for parts or returned, with a reason (audited); released follows only a release signature',
+    params: unitParams,
+    body: unitStateBody,
+    handler: async ({ req, params, body, user, deps }) => {
+      await setUnitState(deps.db, user!, params.id, body, req);
+      return { states: await unitStateHistory(deps.db, params.id) };
     },
   }),
 

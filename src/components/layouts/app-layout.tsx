@@ -17,6 +17,7 @@ const NAV: { to: string; label: string; roles: Role[] | 'all' }[] = [
   { to: paths.reviewQueue.href(), label: 'Review queue', roles: ['reviewer'] },
   { to: paths.runs.href(), label: 'Bench runs', roles: 'all' },
   { to: paths.units.href(), label: 'Units', roles: ['technician', 'author', 'reviewer', 'admin'] },
+  { to: paths.followUps.href(), label: 'Follow-ups', roles: ['technician', 'reviewer', 'admin'] },
   { to: paths.instruments.href(), label: 'Instruments', roles: 'all' },
   { to: paths.qualifications.href(), label: 'Qualifications', roles: ['technician', 'reviewer', 'admin'] },
   { to: paths.people.href(), label: 'People', roles: ['admin'] },

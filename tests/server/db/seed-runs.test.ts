@@ -33,7 +33,7 @@ describe('demo units and bench runs', () => {
     }
   });
 
-  it('gives the demo TC-18 five signed runs that verify, the server flags the low B+, and the trend is in date order', async () => {
+  it('gives the demo TC-18 six signed runs that verify, the server flags the low B+, and the trend is in date order', async () => {
     const unit = await unitBySerial('TC18-0142');
     const tom = await t.as('tom');
     const page = await tom.get(`/api/units/${unit.id}`);
@@ -45,7 +45,7 @@ describe('demo units and bench runs', () => {
       startedAt: string;
       startedBy: { displayName: string };
     }[];
-    expect(history).toHaveLength(5);
+    expect(history).toHaveLength(6);
     expect(history.every((r) => r.status === 'signed')).toBe(true);
     expect(new Set(history.map((r) => r.startedBy.displayName)).size).toBe(3);
 
@@ -69,7 +69,8 @@ describe('demo units and bench runs', () => {
       expect(sheet.body.run.signature.verified).toBe(true);
     }
     expect(outRuns).toBeGreaterThanOrEqual(1);
-    // The story of this unit: the reservoir ages and, on the last visit, B+ falls below its band.
+    // The story of this unit: the reservoir ages, B+ falls below its band in October, and after a new
+    // reservoir the November visit is back in band.
     expect(outReadings).toEqual(['2026-10 tc18-rd-bplus 306']);
 
     const trend = await tom.get(`/api/units/${unit.id}/trend?reading=tc18-rd-bplus`);
@@ -80,13 +81,36 @@ describe('demo units and bench runs', () => {
       within: boolean;
       mainsVoltage: number;
     }[];
-    expect(points).toHaveLength(5);
+    expect(points).toHaveLength(6);
     const times = points.map((p) => Date.parse(p.at));
     expect(times).toEqual([...times].sort((a, b) => a - b));
     // Visits spread over the year, not all at seeding time.
-    expect(times[4]! - times[0]!).toBeGreaterThan(100 * 24 * 3600 * 1000);
+    expect(times[5]! - times[0]!).toBeGreaterThan(100 * 24 * 3600 * 1000);
     expect(points.some((p) => p.within === false)).toBe(true);
     expect(new Set(points.map((p) => p.mainsVoltage)).size).toBeGreaterThan(1);
+  });
+
+  it('gives the demo one follow-up closed by a passing re-run (then released) and one still open', async () => {
+    const tom = await t.as('tom');
+    const list = (await tom.get('/api/follow-ups')).body.followUps as {
+      unit: { serial: string };
+      closed: { run: { id: string } | null } | null;
+      disposition: { value: string } | null;
+      readings: { stepId: string; raw: string }[];
+    }[];
+    const [closed] = list.filter((f) => f.unit.serial === 'TC18-0142');
+    expect(closed?.closed?.run).toBeTruthy();
+    expect(closed!.readings.map((r) => `${r.stepId} ${r.raw}`)).toEqual(['tc18-rd-bplus 306']);
+    const rerun = await loadRunView(t.db, t.files, closed!.closed!.run!.id);
+    expect(rerun.outOfTolerance).toBe(false);
+    expect(rerun.release?.matchesRun).toBe(true);
+    expect(rerun.release?.signer.displayName).toBe('Marek Vos');
+    const states = (await tom.get(`/api/units/${rerun.unit.id}`)).body.states as { state: string }[];
+    expect(states[0]!.state).toBe('released');
+    const open = list.filter((f) => f.unit.serial === 'TC18-0167');
+    expect(open).toHaveLength(1);
+    expect(open[0]!.closed).toBeNull();
+    expect(open[0]!.disposition?.value).toBe('repair');
   });
 
   it('leaves one TC-30H run open with a few entries done', async () => {

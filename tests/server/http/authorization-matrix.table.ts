@@ -6,6 +6,9 @@
 //   admin      — invites and deactivates people, assigns roles, mails password resets, sets the shop's sign-in
 //                rules, reads the audit log, the mail outbox and the API description.
 // Reviewers and admins keep the instrument register and grant or withdraw qualifications.
+// A signed run is released by a second qualified person: a reviewer or a technician (qualification checked
+// by the service). Follow-ups: their owner (a technician), reviewers and admins record dispositions; only
+// reviewers and admins reassign them. Technicians, reviewers and admins set a unit's state with a reason.
 // Everyone manages their own password, sessions and authenticator.
 // Everyone signed in reads what has been approved, the unit register and bench runs.
 //
@@ -401,6 +404,12 @@ export const MATRIX: readonly MatrixRow[] = [
     expect: { anonymous: 401, technician: 400, author: 400, reviewer: 400, admin: 400 },
   },
   {
+    method: 'post',
+    path: '/units/:id/state',
+    probe: { params: { id: 'unit' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
     method: 'get',
     path: '/units/:id/trend',
     probe: { params: { id: 'unit' } },
@@ -443,6 +452,12 @@ export const MATRIX: readonly MatrixRow[] = [
     path: '/runs/:id/sign',
     probe: { params: { id: 'run' }, body: {} },
     expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
+  {
+    method: 'post',
+    path: '/runs/:id/release',
+    probe: { params: { id: 'run' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 400, admin: 403 },
   },
   // A technician asks whether they may run a revision alone; a named witness (a qualified technician) co-signs.
   {
@@ -537,6 +552,26 @@ export const MATRIX: readonly MatrixRow[] = [
   {
     method: 'post',
     path: '/qualifications/:id/withdraw',
+    probe: { params: { id: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
+
+  // Follow-ups of out-of-band runs: everyone signed in reads them.
+  {
+    method: 'get',
+    path: '/follow-ups',
+    probe: {},
+    expect: { anonymous: 401, technician: 200, author: 200, reviewer: 200, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: '/follow-ups/:id/disposition',
+    probe: { params: { id: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
+    method: 'post',
+    path: '/follow-ups/:id/owner',
     probe: { params: { id: 'randomId' }, body: {} },
     expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
   },

@@ -13,6 +13,8 @@ import {
   WaitingEntries,
 } from '@/features/runs/components/run-custody';
 import { WitnessRunForm } from '@/features/runs/components/witness-run-form';
+import { FollowUpCard } from '@/features/follow-ups/components/follow-up-card';
+import { ReleasePanel } from '@/features/follow-ups/components/release-panel';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
 import { Loading } from '@/components/ui/loading';
@@ -85,6 +87,8 @@ export default function RunPage() {
           {open && !r.hold && r.witness?.person.id === user?.id && !r.witness?.signature?.current && (
             <WitnessRunForm run={r} />
           )}
+          {r.followUp && !r.followUp.closed && <FollowUpCard followUp={r.followUp} showRun={false} />}
+          <ReleasePanel run={r} />
           <RunSheet run={r} />
         </>
       )}

@@ -8,6 +8,7 @@ import { useUnit } from '@/features/units/api/get-unit';
 import { useUnitTrend } from '@/features/units/api/get-unit-trend';
 import { UnitForm } from '@/features/units/components/unit-form';
 import { UnitPhotos } from '@/features/units/components/unit-photos';
+import { UnitStatePanel } from '@/features/follow-ups/components/unit-state-panel';
 import { Loading } from '@/components/ui/loading';
 
 // The plot's code (visx) loads only when a unit has a trend to draw.
@@ -84,6 +85,10 @@ export default function UnitPage() {
         <p className="whitespace-pre-line rounded-md border border-rule bg-card p-3 text-sm">{unit.notes}</p>
       )}
       {editing && <UnitForm key={unit.lockVersion} unit={unit} onSaved={() => setEditing(false)} />}
+
+      <RegionBoundary label="Unit state">
+        <UnitStatePanel unitId={unit.id} states={page.data.states ?? []} />
+      </RegionBoundary>
 
       <section>
         <h2 className="mb-2 text-lg font-semibold">Photos</h2>

@@ -25,7 +25,7 @@ const NOTICE_STYLE: Record<SheetNotice['kind'], string> = {
 };
 
 /** Labelled lines of the sheet (unit, procedure, bench conditions, signature). */
-function Fields({ fields }: { fields: SheetField[] }) {
+export function Fields({ fields }: { fields: SheetField[] }) {
   return (
     <dl className="mt-2 grid grid-cols-[auto_minmax(0,1fr)] gap-x-3 gap-y-1 text-sm">
       {fields.map((f, i) => (
@@ -232,9 +232,21 @@ export function RunSheet({ run }: { run: RunView }) {
         </section>
       )}
 
+      {sheet.followUp.length > 0 && (
+        <section className="rounded-lg border border-rule bg-card p-4 print:break-inside-avoid">
+          <h2 className="font-semibold">{SHEET_HEADINGS.followUp}</h2>
+          <Fields fields={sheet.followUp} />
+        </section>
+      )}
+
       <section className="rounded-lg border border-rule bg-card p-4 print:break-inside-avoid">
         <h2 className="font-semibold">{SHEET_HEADINGS.signature}</h2>
         <Fields fields={sheet.signature} />
+      </section>
+
+      <section className="rounded-lg border border-rule bg-card p-4 print:break-inside-avoid">
+        <h2 className="font-semibold">{SHEET_HEADINGS.release}</h2>
+        <Fields fields={sheet.release} />
       </section>
     </div>
   );

@@ -1,4 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { UnitStateView } from '@shared/schemas/follow-ups';
 import type { UnitPhotoView, UnitRunSummary, UnitView } from '@shared/schemas/units';
 import { api } from '@/lib/api-client';
 import { unitKeys } from './keys';
@@ -7,6 +8,8 @@ export interface UnitPage {
   unit: UnitView;
   photos: UnitPhotoView[];
   runs: UnitRunSummary[];
+  /** The unit's states, newest first. */
+  states?: UnitStateView[];
 }
 
 export const unitQueryOptions = (id: string) =>

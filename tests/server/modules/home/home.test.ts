@@ -59,7 +59,13 @@ describe('home page: what waits for me', () => {
     for (const who of ['tom', 'priya', 'sam'] as const) {
       const home = await homeOf(who);
       // Technicians see no review queue, drafts or reviews due.
-      expect(Object.keys(home).sort()).toEqual(['acknowledgements', 'instruments', 'runs', 'witness']);
+      expect(Object.keys(home).sort()).toEqual([
+        'acknowledgements',
+        'followUps',
+        'instruments',
+        'runs',
+        'witness',
+      ]);
       const open = openRunsOf(who);
       expect(home.runs!.count, who).toBe(open.length);
       expect(home.runs!.items.map((i) => i.label.split(' ').at(-1)).sort()).toEqual(
