@@ -158,7 +158,7 @@ try {
   const [name, value] = tech.cookieHeader().split('=') as [string, string];
 
   /** Opens the reader in a new tab of `context`; ms from the navigation's start to the title heading. */
-  async function visit(context: BrowserContext, slow: boolean) {
+  const visit = async (context: BrowserContext, slow: boolean) => {
     const page = await context.newPage();
     if (slow) await throttle(page);
     await page.goto(`${server.url}/revisions/${revisionId}`, { waitUntil: 'commit', timeout: 30_000 });
@@ -172,10 +172,11 @@ try {
       { polling: 'raf', timeout: 30_000 },
     );
     const ms = (await at.jsonValue()) as number;
+    await page.waitForLoadState('networkidle');
     const timeline = await timelineOf(page);
     await page.close();
     return { ms, timeline };
-  }
+  };
 
   const results: Record<string, { cold: number[]; warm: number[]; last?: Timeline }> = {};
   for (const [label, slow] of [
