@@ -27,8 +27,9 @@ export const queryClient: QueryClient = new QueryClient({
       retry: (count, err) => !(err instanceof ApiError && err.status >= 400 && err.status < 500) && count < 2,
       refetchOnWindowFocus: false,
       // The route's loader asked for the page's data as the navigation began: the page mounting a
-      // moment later takes that answer instead of asking again. Older data is checked as usual.
-      refetchOnMount: (query) => query.state.dataUpdatedAt < navigationStartedAt,
+      // moment later takes that answer instead of asking again. Older or invalidated data is
+      // checked as usual.
+      refetchOnMount: (query) => query.state.isInvalidated || query.state.dataUpdatedAt < navigationStartedAt,
     },
   },
 });
