@@ -102,8 +102,8 @@ describe('the reader on a cold tablet', () => {
     // Once: the page mounting after the session answer takes the loader's answer, not a second one.
     expect(revision).toHaveLength(1);
     expect(revision[0]!.at).toBeLessThan(sessionReleased - 400);
-    // The reader's chunk alongside (its file is named after the route module, revision.tsx).
-    const chunk = asked.find((r) => r.type === 'script' && /^\/assets\/revision-[\w]+\.js$/.test(r.path));
+    // The reader's chunk alongside (named after the route module, revision.tsx, with an 8-character hash).
+    const chunk = asked.find((r) => r.type === 'script' && /^\/assets\/revision-[\w-]{8}\.js$/.test(r.path));
     expect(chunk, asked.map((r) => r.path).join(' ')).toBeDefined();
     expect(chunk!.at).toBeLessThan(sessionReleased - 400);
   });
