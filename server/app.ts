@@ -1,6 +1,6 @@
 import { existsSync } from 'node:fs';
-import path from 'node:path';
 import express from 'express';
+import compression from 'compression';
 import helmet from 'helmet';
 import { createCsrf } from './auth/csrf';
 import { createPassport } from './auth/passport';
@@ -8,6 +8,7 @@ import { absoluteSessionLimit, createSessionMiddleware, sameOriginGuard } from '
 import type { AppDeps } from './deps';
 import { fileStore } from './storage/files';
 import { s3FileStore } from './storage/s3-store';
+import { clientFiles } from './http/client-files';
 import { errorHandler, HttpError } from './http/errors';
 import { hostAllowlist } from './http/host-allowlist';
 import { inputGuard } from './http/input-guard';
@@ -71,6 +72,8 @@ export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<
     res.set('Cache-Control', 'no-store');
     next();
   });
+  // Answers above 1 kB go compressed when the browser accepts it (not PDFs or images: not compressible).
+  api.use(compression({ threshold: 1024 }));
   api.use(express.json({ limit: '2mb' }));
   api.use(inputGuard);
   api.use(sessions.middleware);
@@ -82,14 +85,7 @@ export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<
   api.use((req, _res, next) => next(new HttpError(404, `No API route ${req.method} ${req.path}`)));
   app.use('/api', api);
 
-  if (config.clientDir && existsSync(config.clientDir)) {
-    const index = path.join(config.clientDir, 'index.html');
-    app.use(express.static(config.clientDir, { index: false, maxAge: '1h' }));
-    // Client-side routes: every other GET gets the app shell.
-    // Relative to root: send's dotfile rule then looks at "index.html" only, so a checkout under a
-    // folder whose name starts with a dot still serves its pages.
-    app.get(/^(?!\/api\/).*/, (_req, res) => res.sendFile(path.basename(index), { root: config.clientDir }));
-  }
+  if (config.clientDir && existsSync(config.clientDir)) app.use(clientFiles(config.clientDir));
 
   app.use(errorHandler);
   // The app's dependencies (its owner closes deps.auth.sessions.store) and its API router, typed.

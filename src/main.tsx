@@ -1,9 +1,5 @@
 import './lib/zod-config';
-import '@fontsource/literata/400.css';
-import '@fontsource/literata/400-italic.css';
-import '@fontsource/literata/600.css';
-import '@fontsource/jetbrains-mono/400.css';
-import '@fontsource/jetbrains-mono/600.css';
+import './fonts.css';
 import './styles.css';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';

@@ -9,7 +9,7 @@ import type { FetchQueryOptions } from '@tanstack/react-query';
 import { paths } from '@/config/paths';
 import { AppLayout } from '@/components/layouts/app-layout';
 import { RouteError, type WayBack } from './routes/route-error';
-import { queryClient } from '@/lib/query-client';
+import { markNavigation, queryClient } from '@/lib/query-client';
 import { accountQueryOptions } from '@/features/account/api/account';
 import { auditLogQueryOptions } from '@/features/audit/api/get-audit';
 import { sessionQueryOptions } from '@/features/auth/api/get-session';
@@ -248,6 +248,13 @@ const router = createBrowserRouter([
     ],
   },
 ]);
+
+// Data fetched since a navigation began was asked for by its loaders (query-client.ts, refetchOnMount).
+let navigatingTo: string | undefined;
+router.subscribe(({ navigation }) => {
+  if (navigation.location && navigation.location.key !== navigatingTo) markNavigation();
+  navigatingTo = navigation.location?.key;
+});
 
 export function AppRouter() {
   return <RouterProvider router={router} />;

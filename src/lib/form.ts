@@ -9,10 +9,11 @@ import {
   type UseFormReturn,
 } from 'react-hook-form';
 import type { z } from 'zod';
-import { humanize, labelOf, problemsMessage, problemsOf, withLabel } from '@shared/schemas/problems';
+import { labelOf, problemsMessage, problemsOf } from '@shared/schemas/problems';
 import type { ApiError, FieldProblem } from './api-client';
+import { problemSentence } from './problem-sentence';
 
-export { labelOf };
+export { labelOf, problemSentence };
 
 /**
  * react-hook-form's resolver over a zod schema, with each problem worded as the server words it
@@ -37,18 +38,6 @@ export function useZodForm<S extends z.ZodType<FieldValues, FieldValues>>(
   options: Omit<UseFormProps<z.input<S>, unknown, z.output<S>>, 'resolver'> = {},
 ) {
   return useForm<z.input<S>, unknown, z.output<S>>({ ...options, resolver: wordedResolver(schema) });
-}
-
-/** A field problem as one sentence: the server names the field in its reason where it knows the label. */
-export function problemSentence(problem: FieldProblem): FieldProblem {
-  if (problem.label || /^[A-Z]/.test(problem.reason)) return problem;
-  const label = humanize(
-    problem.field
-      .replace(/^(body|query|params)\./, '')
-      .split('.')
-      .pop() ?? '',
-  );
-  return { ...problem, label, reason: withLabel(label, problem.reason) };
 }
 
 // Each form's own type parameters are not needed to set errors on it.

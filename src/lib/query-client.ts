@@ -11,6 +11,12 @@ const followEnrolment = (err: unknown) => {
     void queryClient.invalidateQueries({ queryKey: authKeys.session });
 };
 
+/** When the navigation under way began (the router marks each one; the first is the page's load). */
+let navigationStartedAt = Date.now();
+export const markNavigation = () => {
+  navigationStartedAt = Date.now();
+};
+
 /** The one query cache; route loaders warm it so data and code load side by side. */
 export const queryClient: QueryClient = new QueryClient({
   queryCache: new QueryCache({ onError: followEnrolment }),
@@ -20,6 +26,10 @@ export const queryClient: QueryClient = new QueryClient({
       // Don't hammer the server with retries for answers that won't change.
       retry: (count, err) => !(err instanceof ApiError && err.status >= 400 && err.status < 500) && count < 2,
       refetchOnWindowFocus: false,
+      // The route's loader asked for the page's data as the navigation began: the page mounting a
+      // moment later takes that answer instead of asking again. Older or invalidated data is
+      // checked as usual.
+      refetchOnMount: (query) => query.state.isInvalidated || query.state.dataUpdatedAt < navigationStartedAt,
     },
   },
 });

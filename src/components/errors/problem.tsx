@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { isRouteErrorResponse } from 'react-router-dom';
 import { problemsMessage } from '@shared/schemas/problems';
 import { ApiError } from '@/lib/api-client';
-import { problemSentence } from '@/lib/form';
+import { problemSentence } from '@/lib/problem-sentence';
 
 /** A failure in words a person at the bench can act on; `subject` names what failed (a page, a panel). */
 export function describeError(error: unknown, subject = 'This page'): { title: string; detail: string } {

@@ -1,9 +1,10 @@
 import { useEffect } from 'react';
+import { useQuery } from '@tanstack/react-query';
 import { Link, useParams } from 'react-router-dom';
 import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
-import { useRevision } from '@/features/procedures/api/get-revision';
+import { revisionQueryOptions } from '@/features/procedures/api/get-revision';
 import { DraftWorkspace } from '@/features/procedures/draft/draft-workspace';
 import { Loading } from '@/components/ui/loading';
 
@@ -11,8 +12,9 @@ import { Loading } from '@/components/ui/loading';
 export default function EditRevisionPage() {
   const { revisionId = '' } = useParams();
   const session = useSession();
-  const revision = useRevision(revisionId);
-  // Always start from the server's latest copy: a cached one could carry an old lock version.
+  // Always start from the server's latest copy, asked for as the editor mounts: a cached one, even
+  // the route loader's, could carry an old lock version.
+  const revision = useQuery({ ...revisionQueryOptions(revisionId), refetchOnMount: 'always' });
   const data = revision.isFetchedAfterMount ? revision.data : undefined;
   useEffect(() => {
     document.title = `Editing ${data?.revision.title ?? 'draft'} · Benchwright`;

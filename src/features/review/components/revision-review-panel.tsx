@@ -1,19 +1,22 @@
-import { useEffect, useState } from 'react';
+import { lazy, Suspense } from 'react';
 import { Link } from 'react-router-dom';
 import type { RevisionView } from '@shared/schemas/procedures';
-import { submitBody } from '@shared/schemas/review';
-import { TextareaField } from '@/components/ui/field';
-import { showServerError, useZodForm } from '@/lib/form';
 import { RegionBoundary } from '@/components/errors/region-boundary';
-import { Button } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
 import { paths } from '@/config/paths';
+import { Notice } from '@/components/ui/notice';
 import { hasRole, useSession } from '@/features/auth/api/get-session';
-import { useSubmitRevision, useWithdrawProcedure } from '../api/review-mutations';
+import { useSubmitRevision } from '../api/review-mutations';
 import { SignatureList } from './signature-list';
-import { SignOffDialog, signOffSchemas } from './sign-off-dialog';
 
 type PanelRevision = Pick<RevisionView, 'id' | 'procedureId' | 'number' | 'state' | 'lockVersion'>;
+
+// Only authors (a draft) and reviewers (an approved revision) see these forms: loaded for them alone.
+const SubmitForReview = lazy(() =>
+  import('./revision-review-actions').then((m) => ({ default: m.SubmitForReview })),
+);
+const WithdrawProcedure = lazy(() =>
+  import('./revision-review-actions').then((m) => ({ default: m.WithdrawProcedure })),
+);
 
 /**
  * Review status and actions beside a revision: its sign-offs (verified on each read), submitting a
@@ -22,14 +25,6 @@ type PanelRevision = Pick<RevisionView, 'id' | 'procedureId' | 'number' | 'state
 export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
   const user = useSession().data?.user;
   const submit = useSubmitRevision(revision.id);
-  const submitForm = useZodForm(submitBody, {
-    defaultValues: { changeReason: '', lockVersion: revision.lockVersion },
-  });
-  useEffect(() => {
-    if (submit.error?.fields.length) showServerError(submitForm, submit.error);
-  }, [submit.error, submitForm]);
-  const withdraw = useWithdrawProcedure(revision.procedureId);
-  const [withdrawing, setWithdrawing] = useState(false);
   const problems =
     (submit.error?.body.problems as { blockId: string | null; message: string }[] | undefined) ?? [];
   const reviewLink = paths.reviewRevision.href(revision.id);
@@ -42,23 +37,9 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
       </RegionBoundary>
       <div className="flex flex-wrap items-center gap-3">
         {revision.state === 'draft' && hasRole(user, 'author') && (
-          <form
-            noValidate
-            className="flex w-full max-w-xl flex-col gap-2"
-            onSubmit={submitForm.handleSubmit((v) =>
-              submit.mutate({ changeReason: v.changeReason, lockVersion: revision.lockVersion }),
-            )}
-          >
-            <TextareaField
-              label="Change reason"
-              hint="Why this revision was made, in a sentence: reviewers, technicians and every run sheet from it show it."
-              error={submitForm.formState.errors.changeReason?.message}
-              {...submitForm.register('changeReason')}
-            />
-            <Button type="submit" disabled={submit.isPending} className="self-start">
-              {submit.isPending ? 'Submitting…' : 'Submit for review'}
-            </Button>
-          </form>
+          <Suspense fallback={null}>
+            <SubmitForReview revision={revision} submit={submit} />
+          </Suspense>
         )}
         {revision.state === 'in_review' && seesReview && (
           <Link to={reviewLink} className="font-semibold text-accent underline">
@@ -70,10 +51,10 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
             What changed, comments and sign-offs
           </Link>
         )}
-        {revision.state === 'approved' && hasRole(user, 'reviewer', 'admin') && (
-          <Button variant="danger" onClick={() => setWithdrawing(true)}>
-            Withdraw procedure…
-          </Button>
+        {revision.state === 'approved' && user && hasRole(user, 'reviewer', 'admin') && (
+          <Suspense fallback={null}>
+            <WithdrawProcedure revision={revision} signerName={user.displayName} />
+          </Suspense>
         )}
       </div>
       {submit.isSuccess && <Notice tone="success">Submitted. The reviewers have been told by e-mail.</Notice>}
@@ -88,30 +69,6 @@ export function RevisionReviewPanel({ revision }: { revision: PanelRevision }) {
             </ul>
           )}
         </Notice>
-      )}
-      {user && (
-        <SignOffDialog
-          open={withdrawing}
-          title={`Withdraw revision ${revision.number} from use`}
-          meaning="withdrawn — technicians can no longer run it"
-          signerName={user.displayName}
-          commentLabel="Reason"
-          schema={signOffSchemas.withdraw}
-          commentField="reason"
-          confirmLabel="Sign and withdraw"
-          pending={withdraw.isPending}
-          error={withdraw.error}
-          onConfirm={(v) =>
-            withdraw.mutate(
-              { password: v.password, reason: v.comment },
-              { onSuccess: () => setWithdrawing(false) },
-            )
-          }
-          onClose={() => {
-            setWithdrawing(false);
-            withdraw.reset();
-          }}
-        />
       )}
     </section>
   );

@@ -360,6 +360,9 @@ describe('signing the run sheet', () => {
     const res = await tom.get(`/api/runs/${run.id}/sheet.pdf`).buffer(true).parse(pdfBody);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
+    // Sent as is with its length, though the client accepts gzip: API compression leaves PDFs alone.
+    expect(res.headers['content-encoding']).toBeUndefined();
+    expect(Number(res.headers['content-length'])).toBe((res.body as Buffer).length);
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="run-sheet-TC-18-/);
 
