@@ -11,6 +11,7 @@ import {
   witnessRunBody,
 } from '../../../shared/schemas/runs';
 import { defineRoute } from '../../http/route';
+import { entryAnswerOf } from './entry-answer';
 import { renderRunSheetPdf } from './pdf';
 import { receivePhoto } from './photo-upload';
 import { abandonRun, handOverRun } from './run-custody';
@@ -96,11 +97,9 @@ export const runRoutes = [
       'Record a reading, tick a check step or acknowledge a hazard note (idempotent by key; the server decides within/out)',
     params: entryParams,
     body: entryBody,
-    handler: async ({ params, body, user, deps }) => {
-      const { replayed, run: row } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
-      const run = await loadRunView(deps.db, deps.files, params.id, row);
-      return { replayed, entry: run.entries.find((e) => e.stepId === params.stepId) ?? null, run };
-    },
+    // Answers what changed (shared/runs/entry-answer.ts), not the whole run.
+    handler: async ({ params, body, user, deps }) =>
+      entryAnswerOf(deps.db, user!, await recordEntry(deps.db, user!, params.id, params.stepId, body)),
   }),
 
   defineRoute({
