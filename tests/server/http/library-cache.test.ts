@@ -7,6 +7,8 @@ import { recordWithdrawal } from '../../../server/modules/review/transitions';
 import { NO_FILES } from '../../../server/storage/files';
 import { people } from '../../../server/db/schema';
 import { eq } from 'drizzle-orm';
+import { httpSession } from '../../support/http-session';
+import { startSecondServer } from '../../support/second-server';
 import { createTestApp, demo, type TestApp } from '../../support/test-app';
 
 let t: TestApp;
@@ -187,6 +189,48 @@ describe('list, filter and search answers', () => {
     // And a technician's kept answer is not a staff member's: hal sees the draft, tom does not.
     const tom = await t.as('tom');
     expect((await tom.get(listUrl)).body.total).toBe(0);
+  });
+
+  it('another process: its kept list, reader answer and search follow an approval and a withdrawal made here within a second', async () => {
+    const other = await startSecondServer(t.databaseUrl);
+    try {
+      const tom = httpSession(other.url);
+      expect((await tom.signIn(demo.tom.email, demo.tom.password)).status).toBe(200);
+      const family = `Tuner ${Date.now()}`;
+      const listUrl = `/api/procedures?family=${encodeURIComponent(family)}`;
+      expect((await tom.get(listUrl)).body.total).toBe(0);
+      expect((await tom.get('/api/search?q=glimmerstat')).body.total).toBe(0);
+      const draft = await procedureInState(t.db, 'draft', {
+        ...meta(),
+        equipmentFamily: family,
+        document: textDoc('Trim the glimmerstat with the HT off.'),
+      });
+      await approveRevision(t.db, draft.revision.id);
+      const within = async (check: () => Promise<boolean>) => {
+        const since = Date.now();
+        while (!(await check()) && Date.now() - since < 1_000) await new Promise((r) => setTimeout(r, 50));
+        return check();
+      };
+      expect(await within(async () => (await tom.get(listUrl)).body.total === 1)).toBe(true);
+      expect(await within(async () => (await tom.get('/api/search?q=glimmerstat')).body.total === 1)).toBe(
+        true,
+      );
+
+      // Kept there now; a withdrawal here takes it away there too.
+      const reader = `/api/revisions/${draft.revision.id}`;
+      expect((await tom.get(reader)).status).toBe(200);
+      const [marek] = await t.db.select().from(people).where(eq(people.email, demo.marek.email));
+      await t.db.transaction((tx) =>
+        recordWithdrawal(tx, NO_FILES, marek!, draft.procedure.id, {
+          reason: 'Withdrawn in another process.',
+          reauthenticated: false,
+        }),
+      );
+      expect(await within(async () => (await tom.get(reader)).status === 404)).toBe(true);
+      expect(await within(async () => (await tom.get(listUrl)).body.total === 0)).toBe(true);
+    } finally {
+      other.stop();
+    }
   });
 
   it('without a live listener nothing is served from memory', async () => {
