@@ -12,6 +12,7 @@ import { clientFiles } from './http/client-files';
 import { errorHandler, HttpError } from './http/errors';
 import { hostAllowlist } from './http/host-allowlist';
 import { inputGuard } from './http/input-guard';
+import { LibraryCache } from './http/library-cache';
 import { requestLog } from './http/request-log';
 import { mountRoutes } from './http/route';
 import { routeTable } from './routes';
@@ -21,7 +22,9 @@ const PERMISSIONS_POLICY =
   'camera=(), microphone=(), geolocation=(), payment=(), usb=(), serial=(), bluetooth=(), display-capture=(), interest-cohort=()';
 
 /** Builds the Express app (API + built client) without listening, so tests can drive it directly. */
-export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<AppDeps, 'files'>>) {
+export function createApp(
+  given: Omit<AppDeps, 'files' | 'auth' | 'library'> & Partial<Pick<AppDeps, 'files'>>,
+) {
   const { config, pool, db, logger } = given;
   const passport = createPassport(db);
   const sessions = createSessionMiddleware(pool, config);
@@ -29,10 +32,14 @@ export function createApp(given: Omit<AppDeps, 'files' | 'auth'> & Partial<Pick<
   const deps: AppDeps = {
     ...given,
     files: given.files ?? (config.s3 ? s3FileStore(config.s3) : fileStore(config.uploadDir)),
+    library: new LibraryCache(given.search),
     auth: { passport, sessions, csrf },
   };
   const app = express();
   app.disable('x-powered-by');
+  // No hash of every API answer for a validator nobody may use (they are no-store); the answers
+  // that may be revalidated set their own strong ETag (http/library-cache.ts), static files theirs.
+  app.set('etag', false);
   app.set('trust proxy', config.trustProxy);
   app.use(hostAllowlist(config));
   const overTls = config.publicUrl.startsWith('https:');

@@ -7,6 +7,7 @@ import type { createPassport } from './auth/passport';
 import type { createSessionMiddleware } from './auth/session';
 import type { Db } from './db/client';
 import type { MailSender, SmtpSettings } from './mail/sender';
+import type { LibraryCache } from './http/library-cache';
 import type { SearchService } from './search/search-service';
 import type { FileStore } from './storage/files';
 import type { S3Settings } from './storage/s3-store';
@@ -62,6 +63,8 @@ export interface AppDeps {
   search?: SearchService;
   /** Uploaded bytes and issued run sheets, kept under their SHA-256 (config.s3's bucket, else config.uploadDir). */
   files: FileStore;
+  /** Reader, list, filter and search answers kept until the library changes (follows `search`). */
+  library: LibraryCache;
   auth: AuthRuntime;
 }
 

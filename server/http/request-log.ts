@@ -16,9 +16,14 @@ declare module 'express-serve-static-core' {
 const SECRET_PATHS = [/^(\/api\/auth\/invitations\/)[^/?]+/i, /^(\/set-password\/)[^/?]+/i];
 const loggedUrl = (url: string) => SECRET_PATHS.reduce((u, re) => u.replace(re, '$1[redacted]'), url);
 
+/** A read that took longer than this is logged at info even when it succeeded. */
+const SLOW_MS = 1_000;
+
 /**
  * One line per finished request: id, method, path, status and time taken; 4xx at warn, 5xx at
- * error, and a warning for one whose answer was cut off. Headers and bodies are never logged, so
+ * error, a write (or anything not a plain read) at info, a successful read at debug (an operator
+ * reads the audit log for who saw what; a line per page view costs a tenth of the signed-in
+ * floor's CPU) unless it was slow, and a warning for one whose answer was cut off. Headers and bodies are never logged, so
  * no cookie, token or password can reach the log; the per-request child logger is made only when
  * a handler logs something.
  */
@@ -31,7 +36,7 @@ export function requestLog(logger: Logger, opts: { skip?: (url: string) => boole
       configurable: true,
       get: () => (child ??= logger.child({ reqId: req.id })),
     });
-    const line = (level: 'info' | 'warn' | 'error', msg: string) => {
+    const line = (level: 'debug' | 'info' | 'warn' | 'error', msg: string) => {
       if (!logger.isLevelEnabled(level) || opts.skip?.(req.originalUrl)) return;
       logger[level](
         {
@@ -42,8 +47,18 @@ export function requestLog(logger: Logger, opts: { skip?: (url: string) => boole
         msg,
       );
     };
+    const read = req.method === 'GET' || req.method === 'HEAD';
     res.on('finish', () =>
-      line(res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info', 'request completed'),
+      line(
+        res.statusCode >= 500
+          ? 'error'
+          : res.statusCode >= 400
+            ? 'warn'
+            : read && performance.now() - started < SLOW_MS
+              ? 'debug'
+              : 'info',
+        'request completed',
+      ),
     );
     // The client went away (or the socket broke) before the whole answer was sent.
     res.on('close', () => {

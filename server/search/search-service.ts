@@ -20,12 +20,31 @@ export class SearchService {
   private ready: Promise<void> | undefined;
   /** Resolves when a notification for the procedure has been applied (tests and diagnostics). */
   private waiters = new Map<string, (() => void)[]>();
+  private changeListeners: ((procedureId: string | null) => void)[] = [];
 
   constructor(
     private readonly db: Db,
     private readonly connectionString: string,
     private readonly logger: Logger,
   ) {}
+
+  /** True while the LISTEN connection is up: only then is a change made anywhere heard here. */
+  get listening() {
+    return this.listener !== undefined;
+  }
+
+  /**
+   * Calls cb when the library changed (a revision's state, in any process): with the procedure's id
+   * when the notification is heard and again once the search index has applied it, and with null
+   * when anything may have changed (the listener was lost, the index rebuilt).
+   */
+  onLibraryChange(cb: (procedureId: string | null) => void) {
+    this.changeListeners.push(cb);
+  }
+
+  private announce(procedureId: string | null) {
+    for (const cb of this.changeListeners) cb(procedureId);
+  }
 
   start(): Promise<void> {
     this.ready ??= this.connect();
@@ -34,7 +53,9 @@ export class SearchService {
 
   async stop() {
     this.stopped = true;
-    await this.listener?.end().catch(() => undefined);
+    const listener = this.listener;
+    this.listener = undefined;
+    await listener?.end().catch(() => undefined);
   }
 
   private async connect(): Promise<void> {
@@ -42,7 +63,9 @@ export class SearchService {
     client.on('error', (err) => this.lost(client, err));
     client.on('end', () => this.lost(client));
     client.on('notification', (n) => {
-      if (n.channel === SEARCH_CHANNEL && n.payload) void this.refresh(n.payload);
+      if (n.channel !== SEARCH_CHANNEL || !n.payload) return;
+      this.announce(n.payload);
+      void this.refresh(n.payload);
     });
     try {
       await client.connect();
@@ -64,6 +87,7 @@ export class SearchService {
     if (this.stopped || this.handled.has(client) || (this.listener && this.listener !== client)) return;
     this.handled.add(client);
     this.listener = undefined;
+    this.announce(null);
     if (err) this.logger.warn({ msg: err.message }, 'search listener lost; will reconnect and rebuild');
     const wait = this.retryMs;
     this.retryMs = Math.min(this.retryMs * 2, 10_000);
@@ -80,6 +104,7 @@ export class SearchService {
         this.logger.info({ indexed: n }, 'search index: loading approved revisions…');
     });
     this.index.replaceAll(docs);
+    this.announce(null);
     this.logger.info({ procedures: docs.length, ms: Date.now() - started }, 'search index built');
   }
 
@@ -89,6 +114,7 @@ export class SearchService {
       const doc = await loadApprovedOf(this.db, procedureId);
       if (doc) this.index.upsert(doc);
       else this.index.remove(procedureId);
+      this.announce(procedureId);
     } catch (err) {
       this.logger.warn({ procedureId, msg: (err as Error).message }, 'search refresh failed; rebuilding');
       await this.rebuild().catch(() => undefined);

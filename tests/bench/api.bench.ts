@@ -1,32 +1,36 @@
 /**
  * API load benchmark on loopback. The app runs in its own process (as `npm start` runs it) on the
- * demo data plus 2,000 generated approved procedures; autocannon drives it from this process with
- * 50 connections: a read mix (procedure reader page, a page of the procedure list, search) and a
- * write mix of bench-run entries. In the same run a bare Express endpoint returning fixed JSON, also
- * in its own process, gives the ceiling. First, each request alone (median of serial calls) shows
- * what each costs without queueing. Prints figures and the CPU each process used; not a timed test.
- * Goals: zero errors; read throughput at least half the bare endpoint's; read p99 under 50 ms;
- * write p99 under 500 ms, and every 2xx entry stored once.
+ * demo data plus generated approved procedures (BENCH_LIBRARY, default 2,000); autocannon drives it
+ * from this process. First, each request alone (median of serial calls) shows what each costs
+ * without queueing. Then a closed loop with 50 connections: a read mix (procedure reader page, a
+ * page of the procedure list, search) and a write mix of bench-run entries, beside a bare Express
+ * endpoint returning fixed JSON in its own process, the ceiling, in the same run. Then an open loop
+ * at fixed rates (20, 100 and 400 requests/s: a shop, a group of shops, ten times that) per route,
+ * with p50/p99 and the server's CPU per request against the bare endpoint's at the same rate.
+ * Prints figures and the CPU each process used; not a timed test.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import os from 'node:os';
 import autocannon from 'autocannon';
 import { eq } from 'drizzle-orm';
-import { projectRoot, prepareDatabase } from '../../server/bootstrap/prepare';
+import { projectRoot, prepareDatabase, TEST_SLOT } from '../../server/bootstrap/prepare';
 import { recreateDatabase, startCluster, stopCluster } from '../../server/bootstrap/postgres';
 import { createDb, createPool } from '../../server/db/client';
 import { revisions } from '../../server/db/schema';
 import { procedureInState } from '../support/review-path';
 import { generateCorpus } from '../support/search-corpus';
 import { httpSession } from '../support/http-session';
-import { clusterPids, cpuMeter } from './process-cpu';
+import { clusterPids, cpuMeter, cpuSeconds, residentMb } from './process-cpu';
 
 const CONNECTIONS = 50;
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const SERIAL_CALLS = 60;
+const LIBRARY = Number(process.env.BENCH_LIBRARY ?? 2_000);
+const RATES = (process.env.BENCH_RATES ?? '20,100,400').split(',').map(Number);
 
-const cluster = startCluster({ name: 'bench-api', port: 54498, projectRoot });
+// Inside this test slot's range of ports (BW_TEST_SLOT), so two checkouts can measure at once.
+const cluster = startCluster({ name: 'bench-api', port: 54356 + 20 * TEST_SLOT, projectRoot });
 await recreateDatabase(cluster.adminUrl, 'benchwright_bench_api');
 const url = await prepareDatabase(cluster, 'benchwright_bench_api');
 
@@ -41,8 +45,13 @@ let demoRevisionIds: string[];
     await db.select({ id: revisions.id }).from(revisions).where(eq(revisions.state, 'approved'))
   ).map((r) => r.id);
   const started = Date.now();
-  for (const p of generateCorpus(2_000, 7)) {
-    await procedureInState(db, 'approved', {
+  // A few at a time: each is its own transaction (draft, submission, signed approval).
+  const corpus = generateCorpus(LIBRARY, 7);
+  const add = async () => {
+    for (let p = corpus.pop(); p; p = corpus.pop()) await addOne(p);
+  };
+  const addOne = (p: ReturnType<typeof generateCorpus>[number]) =>
+    procedureInState(db, 'approved', {
       title: p.title,
       equipmentFamily: p.family,
       equipmentModel: p.model,
@@ -54,9 +63,11 @@ let demoRevisionIds: string[];
           .map((line) => ({ type: 'paragraph', content: [{ type: 'text', text: line }] })),
       },
     });
-  }
+  await Promise.all([add(), add(), add(), add()]);
   await pool.query('ANALYZE');
-  console.log(`library: 2,000 generated procedures added in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  console.log(
+    `library: ${LIBRARY.toLocaleString('en')} generated procedures added in ${((Date.now() - started) / 1000).toFixed(1)} s`,
+  );
   await pool.end();
 }
 
@@ -67,16 +78,17 @@ function startProcess(script: string, env: Record<string, string> = {}, nodeArgs
     env: { ...process.env, ...env },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
-  return new Promise<{ child: ChildProcess; url: string }>((resolve, reject) => {
+  return new Promise<{ child: ChildProcess; url: string; startup: () => string }>((resolve, reject) => {
     let out = '';
+    let ready = false;
     const onData = (chunk: Buffer) => {
       out += chunk.toString();
-      const m = /READY (\S+)/.exec(out);
+      // Past its first 256 kB the output (the app's request log) is read and dropped.
+      if (out.length > 256 * 1024) child.stdout!.off('data', onData).resume();
+      const m = !ready && /READY (\S+)/.exec(out);
       if (!m) return;
-      // From here on the output (the app's request log) is read and dropped.
-      child.stdout!.off('data', onData);
-      child.stdout!.resume();
-      resolve({ child, url: m[1]! });
+      ready = true;
+      resolve({ child, url: m[1]!, startup: () => out });
     };
     child.stdout!.on('data', onData);
     child.once('exit', (code) => reject(new Error(`${script} exited with ${code} before it was ready`)));
@@ -99,6 +111,11 @@ const app = await startProcess(
   profile,
 );
 const bare = await startProcess('tests/bench/bare-server.ts');
+// The app logs its index build (JSON lines) before it listens.
+const built = /"procedures":(\d+),"ms":(\d+)[^\n]*search index built/.exec(app.startup());
+console.log(
+  `app process: search index of ${built?.[1] ?? '?'} procedures built in ${built?.[2] ?? '?'} ms; resident ${residentMb(app.child.pid!).toFixed(0)} MB after start`,
+);
 const tech = httpSession(app.url);
 await tech.signIn('tom@tallowcreek.example', 'tallow-bench-demo');
 const cookie = tech.cookieHeader();
@@ -286,6 +303,59 @@ if (writes) {
     `  entries stored ${stored.rows[0]!.n} for ${w['2xx']} counted 2xx + ${SERIAL_CALLS + 5} serial (${surplus >= 0 && surplus <= CONNECTIONS ? 'consistent' : 'INCONSISTENT'}: surplus ${surplus} ≤ ${CONNECTIONS} cut off at the end)`,
   );
 }
+
+// Open loop: requests at a fixed rate, whatever the answers' pace (autocannon's overallRate), per
+// route; the server's CPU per request from /proc, against the bare endpoint's at the same rate.
+async function openLoop(target: ChildProcess, url: string, rate: number, req: Partial<autocannon.Options>) {
+  const pid = target.pid!;
+  const cpu0 = cpuSeconds(pid);
+  const result = await new Promise<Result>((resolve, reject) =>
+    autocannon(
+      {
+        url,
+        connections: Math.min(CONNECTIONS, rate),
+        overallRate: rate,
+        duration: DURATION_S,
+        ...req,
+      } as autocannon.Options,
+      (err, res) => (err ? reject(err) : resolve(res)),
+    ),
+  );
+  const cpuMsPerRequest = ((cpuSeconds(pid) - cpu0) * 1000) / Math.max(1, result.requests.total);
+  return { result, cpuMsPerRequest };
+}
+const openRoutes: [string, Partial<autocannon.Options>][] = [
+  ...Object.entries(readPaths).map(
+    ([label, path]) =>
+      [
+        label,
+        { headers: { cookie }, requests: [{ method: 'GET', setupRequest: (r) => ({ ...r, path: path() }) }] },
+      ] as [string, Partial<autocannon.Options>],
+  ),
+  ['signed-in floor (session)', { url: `${app.url}/api/auth/session`, headers: { cookie } }],
+];
+console.log(
+  `\nOpen loop — fixed rates, ${DURATION_S} s each; server CPU per request (ms, /proc utime+stime, 10 ms ticks)`,
+);
+for (const rate of RATES) {
+  const floor = await openLoop(bare.child, `${bare.url}/fixed`, rate, {});
+  const show = (label: string, r: Awaited<ReturnType<typeof openLoop>>) =>
+    console.log(
+      `  ${String(rate).padStart(4)}/s ${label.padEnd(28)} p50 ${String(r.result.latency.p50).padStart(3)} ms   p99 ${String(r.result.latency.p99).padStart(4)} ms   ${(r.result.requests.total / DURATION_S).toFixed(0).padStart(4)} req/s done   CPU ${r.cpuMsPerRequest.toFixed(2)} ms/req (${(r.cpuMsPerRequest / floor.cpuMsPerRequest).toFixed(1)} × bare)   non-2xx ${r.result.non2xx + r.result.errors}`,
+    );
+  for (const [label, req] of openRoutes) show(label, await openLoop(app.child, app.url, rate, req));
+  show('bare Express fixed JSON', floor);
+}
+if (writeTargets.length) {
+  const w = await openLoop(app.child, app.url, 50, {
+    headers,
+    requests: [{ method: 'PUT', setupRequest: (req) => ({ ...req, ...nextWrite() }) }],
+  });
+  console.log(
+    `    50/s bench-run entry write          p50 ${w.result.latency.p50} ms   p99 ${w.result.latency.p99} ms (goal < 30 ms)   CPU ${w.cpuMsPerRequest.toFixed(2)} ms/req (goal ≤ 2 ms)   non-2xx ${w.result.non2xx + w.result.errors}`,
+  );
+}
+console.log(`  app process resident at the end: ${residentMb(app.child.pid!).toFixed(0)} MB`);
 
 await Promise.all([stopProcess(app.child), stopProcess(bare.child)]);
 stopCluster(cluster.dataDir);

@@ -45,3 +45,13 @@ export function cpuMeter(groups: Record<string, () => number[]>) {
     },
   };
 }
+
+/** Resident memory of one process in MB (VmRSS); 0 when it is gone. */
+export function residentMb(pid: number): number {
+  try {
+    const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+    return m ? Number(m[1]) / 1024 : 0;
+  } catch {
+    return 0;
+  }
+}

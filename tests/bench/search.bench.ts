@@ -1,5 +1,5 @@
 /**
- * Search benchmark: a deterministic corpus of 10,000 generated procedures, indexed in process
+ * Search benchmark: a deterministic corpus of 10,000 generated procedures (BENCH_LIBRARY=n for another size), indexed in process
  * (minisearch vocabulary tree + BM25 postings, trade vocabulary) and in PostgreSQL full-text search (tsvector + GIN), the
  * same fixed query set against both in one run. Prints figures; it is not a timed test.
  * Then relevance on the same corpus in a shuffled order: top-1 / top-3 of the labelled queries that
@@ -14,7 +14,8 @@ import { canonicalText } from '../../server/search/vocabulary';
 import { generateCorpus, PLANTED, shuffled } from '../support/search-corpus';
 import { LABELLED_QUERIES, NEGATIVE_QUERIES } from '../server/search/search-queries';
 
-const CORPUS_SIZE = 10_000;
+// BENCH_LIBRARY=50000 for a large library (index build, memory, query latency).
+const CORPUS_SIZE = Number(process.env.BENCH_LIBRARY ?? 10_000);
 const ROUNDS = 20;
 const QUERIES = [
   'B+ reservoir',
@@ -87,6 +88,7 @@ index.replaceAll(corpus);
 const buildMs = performance.now() - t0;
 gc();
 const heapAfter = process.memoryUsage().heapUsed;
+const rssAfter = process.memoryUsage().rss;
 
 for (const q of QUERIES) index.search(q); // warm up
 const memLat: number[] = [];
@@ -154,6 +156,7 @@ console.log('');
 row('', 'in-process', 'PostgreSQL FTS');
 row('index build', `${buildMs.toFixed(0)} ms`, `${pgBuildMs.toFixed(0)} ms`);
 row('index memory (JS heap)', `${mb(heapAfter - heapBefore)} MB`, 'in server');
+row('process resident (RSS)', `${mb(rssAfter)} MB`, '');
 row('query p50', `${pct(memLat, 50).toFixed(3)} ms`, `${pct(pgLat, 50).toFixed(3)} ms`);
 row('query p95', `${pct(memLat, 95).toFixed(3)} ms`, `${pct(pgLat, 95).toFixed(3)} ms`);
 row('queries with any result', `${memHits}/${QUERIES.length}`, `${pgHits}/${QUERIES.length}`);

@@ -12,7 +12,7 @@ import { demo } from '../support/test-app';
 import { createTestDatabase } from '../support/test-db';
 import { setPasswordTokenMailedTo } from '../support/mailed-link';
 
-// The app as it runs, logging at 'info' into memory instead of stdout.
+// The app as it runs, logging at 'debug' (a line for every request, reads too) into memory instead of stdout.
 let output = '';
 const sink = new Writable({
   write(chunk, _encoding, done) {
@@ -34,7 +34,7 @@ beforeAll(async () => {
     publicUrl: 'http://127.0.0.1',
     uploadDir,
   });
-  app = createApp({ db: createDb(pool), pool, logger: createLogger('info', sink), config });
+  app = createApp({ db: createDb(pool), pool, logger: createLogger('debug', sink), config });
 });
 afterAll(async () => {
   app.deps.auth.sessions.store.close();

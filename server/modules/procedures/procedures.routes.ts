@@ -8,8 +8,11 @@ import {
 } from '../../../shared/schemas/procedures';
 import { badRequest, HttpError } from '../../http/errors';
 import { defineRoute } from '../../http/route';
+import { sendJson } from '../../http/library-cache';
+import type { SessionUser } from '../../http/route';
 import { checkDocument } from './document-check';
 import {
+  audienceOf,
   createProcedureDraft,
   listingFacets,
   listProcedures,
@@ -21,6 +24,8 @@ import {
 } from './procedures.service';
 
 const procedureParams = z.object({ id: idIn('procedure') });
+/** A cache key for answers the same for every technician; null (not kept) for staff. */
+const publishedOnly = (user: SessionUser, key: string) => (audienceOf(user) === 'published' ? key : null);
 const revisionParams = z.object({ id: idIn('revision') });
 
 export const procedureRoutes = [
@@ -31,7 +36,15 @@ export const procedureRoutes = [
     summary:
       'One page of the procedures the caller may see, filtered and sorted (technicians: approved only)',
     query: procedureListQuery,
-    handler: ({ query, user, deps }) => listProcedures(deps.db, user!, query),
+    // Technicians' list (approved only) changes only when the library does; staff see drafts too.
+    handler: async ({ req, res, query, user, deps }) =>
+      sendJson(
+        req,
+        res,
+        await deps.library.answer(publishedOnly(user!, `list:${JSON.stringify(query)}`), () =>
+          listProcedures(deps.db, user!, query),
+        ),
+      ),
   }),
 
   defineRoute({
@@ -39,7 +52,14 @@ export const procedureRoutes = [
     path: '/procedures/facets',
     access: 'signed-in',
     summary: 'The families, tags and states the procedure list can be filtered by',
-    handler: async ({ user, deps }) => ({ facets: await listingFacets(deps.db, user!) }),
+    handler: async ({ req, res, user, deps }) =>
+      sendJson(
+        req,
+        res,
+        await deps.library.answer(publishedOnly(user!, 'facets'), async () => ({
+          facets: await listingFacets(deps.db, user!),
+        })),
+      ),
   }),
 
   defineRoute({
@@ -90,8 +110,19 @@ export const procedureRoutes = [
     access: 'signed-in',
     summary: 'One revision: document, evaluated snapshot, procedure check',
     params: revisionParams,
-    handler: async ({ params, user, deps }) => {
-      return { revision: await readableRevision(deps.db, user!, params.id) };
+    handler: async ({ req, res, params, user, deps }) => {
+      const audience = audienceOf(user!);
+      const kept = deps.library.reading(params.id);
+      if (kept) return sendJson(req, res, kept.body, { digest: kept.digest, audience });
+      const began = deps.library.begin();
+      const { revision, contentHash, frozen } = await readableRevision(deps.db, user!, params.id);
+      const { procedureId } = revision;
+      const reading = deps.library.keepReading(
+        began,
+        { revisionId: params.id, procedureId, contentHash, frozen },
+        { revision },
+      );
+      sendJson(req, res, reading.body, frozen ? { digest: reading.digest, audience } : undefined);
     },
   }),
 

@@ -88,10 +88,20 @@ const prepareRevisionWithAuthor = (db: Db) =>
 
 /** One revision with its author's name, in one round trip; undefined when there is none. */
 export async function loadRevisionView(db: Db, id: string): Promise<RevisionView | undefined> {
+  return (await loadRevisionWithHash(db, id))?.view;
+}
+
+/** loadRevisionView with the content hash an approval recorded (null before approval). */
+async function loadRevisionWithHash(db: Db, id: string) {
   let prepared = revisionWithAuthor.get(db);
   if (!prepared) revisionWithAuthor.set(db, (prepared = prepareRevisionWithAuthor(db)));
   const [found] = await prepared.execute({ id });
-  return found && toRevisionView(found.row, found.author ?? undefined);
+  return (
+    found && {
+      view: toRevisionView(found.row, found.author ?? undefined),
+      contentHash: found.row.contentHash,
+    }
+  );
 }
 
 export interface NewProcedure {
@@ -143,7 +153,7 @@ export async function createProcedure(db: Db | Tx, authorId: string, input: NewP
 }
 
 /** Which listing rows a person reads: technicians only what has been approved. */
-const audienceOf = (user: SessionUser): ListingAudience => (seesDrafts(user) ? 'staff' : 'published');
+export const audienceOf = (user: SessionUser): ListingAudience => (seesDrafts(user) ? 'staff' : 'published');
 
 const SORT_COLUMNS: Record<ProcedureSort, (dir: 'asc' | 'desc') => SQL[]> = {
   title: (d) => [
@@ -345,11 +355,15 @@ export async function procedureWithRevisions(db: Db, user: SessionUser, id: stri
   };
 }
 
-/** One revision as the caller may read it: technicians see published revisions only. */
+/**
+ * One revision as the caller may read it: technicians see published revisions only. `frozen`: its
+ * content can no longer change (approved or superseded), so its answer may be kept by content hash.
+ */
 export async function readableRevision(db: Db, user: SessionUser, id: string) {
-  const revision = await loadRevisionView(db, id);
+  const found = await loadRevisionWithHash(db, id);
+  const revision = found?.view;
   if (!revision || (!seesDrafts(user) && !isPublished(revision.state))) throw notFound('No such revision.');
-  return revision;
+  return { revision, contentHash: found.contentHash, frozen: isPublished(revision.state) };
 }
 
 /**

@@ -270,6 +270,8 @@ export async function decideRevision(
     );
     return decided;
   });
+  // Kept answers go now, not only when this process hears its own NOTIFY.
+  deps.library.changed(before.procedureId);
   void deps.mailer?.flush();
   return result;
 }
@@ -399,6 +401,7 @@ export async function withdrawProcedure(
     );
     return withdrawn;
   });
+  deps.library.changed(procedureId);
   await deps.mailer?.flush();
   return result;
 }

@@ -14,6 +14,7 @@ import { idempotencyKeyHeader } from '../../http/idempotency-key';
 import { defineRoute } from '../../http/route';
 import { runSheetPdf } from './run-sheet-file';
 import { releaseRunBody } from '../../../shared/schemas/follow-ups';
+import { entryAnswerOf } from './entry-answer';
 import { receivePhoto } from './photo-upload';
 import { abandonRun, handOverRun } from './run-custody';
 import { releaseRun } from './run-release';
@@ -101,11 +102,9 @@ export const runRoutes = [
     before: idempotencyKeyHeader,
     params: entryParams,
     body: entryBody,
-    handler: async ({ params, body, user, deps }) => {
-      const { replayed, run: row } = await recordEntry(deps.db, user!, params.id, params.stepId, body);
-      const run = await loadRunView(deps.db, deps.files, params.id, row);
-      return { replayed, entry: run.entries.find((e) => e.stepId === params.stepId) ?? null, run };
-    },
+    // Answers what changed (shared/runs/entry-answer.ts), not the whole run.
+    handler: async ({ params, body, user, deps }) =>
+      entryAnswerOf(deps.db, user!, await recordEntry(deps.db, user!, params.id, params.stepId, body)),
   }),
 
   defineRoute({

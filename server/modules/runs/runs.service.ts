@@ -191,7 +191,11 @@ export async function recordEntry(
           },
         );
       }
-      return { replayed: true, run };
+      // What the entry is now (the answer to a resend is the entry as it stands).
+      const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
+      const entry = rows.find((r) => r.stepId === stepId);
+      if (!entry) throw notFound('This entry is no longer recorded.');
+      return { replayed: true, run, entry, rows, instrument: null };
     }
     await assertWritable(tx, run, user);
     const step = run.steps.find((s) => s.id === stepId);
@@ -280,7 +284,8 @@ export async function recordEntry(
     const outOfTolerance = [...rows.filter((r) => r.id !== entry.id), entry].some((r) => r.within === false);
     if (outOfTolerance !== run.outOfTolerance)
       await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
-    return { replayed: false, run: { ...run, outOfTolerance } };
+    const after = [...rows.filter((r) => r.id !== entry.id), entry];
+    return { replayed: false, run: { ...run, outOfTolerance }, entry, rows: after, instrument };
   });
 }
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { HttpError } from '../../http/errors';
+import { sendJson } from '../../http/library-cache';
 import { defineRoute } from '../../http/route';
 
 const searchQuery = z.object({
@@ -17,14 +18,19 @@ export const searchRoutes = [
     access: 'signed-in',
     summary: 'Search approved procedures (trade vocabulary, typo-tolerant), with filters and paging',
     query: searchQuery,
-    handler: ({ query, deps }) => {
-      if (!deps.search) throw new HttpError(503, 'Search is starting up; try again in a moment.');
-      return deps.search.index.search(query.q, {
-        family: query.family,
-        tag: query.tag?.toLowerCase(),
-        page: query.page,
-        pageSize: query.pageSize,
-      });
+    // Searches approved revisions only, the same for everyone: kept until the library changes.
+    handler: async ({ req, res, query, deps }) => {
+      const search = deps.search;
+      if (!search) throw new HttpError(503, 'Search is starting up; try again in a moment.');
+      const body = await deps.library.answer(`search:${JSON.stringify(query)}`, () =>
+        search.index.search(query.q, {
+          family: query.family,
+          tag: query.tag?.toLowerCase(),
+          page: query.page,
+          pageSize: query.pageSize,
+        }),
+      );
+      sendJson(req, res, body);
     },
   }),
 ];

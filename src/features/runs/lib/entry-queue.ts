@@ -4,7 +4,8 @@
  * the person who made it: only their own session ever sends it, never someone else's (another tab
  * may have signed someone else in since — see the CSRF retry in api-client).
  */
-import type { EntryBody, RunView } from '@shared/schemas/runs';
+import type { EntryAnswer } from '@shared/runs/entry-answer';
+import type { EntryBody } from '@shared/schemas/runs';
 import { api, ApiError, type Person } from '@/lib/api-client';
 
 export interface PendingEntry {
@@ -58,7 +59,7 @@ export const setQueueUser = (user: Person | null) => {
 };
 const mine = (p: PendingEntry) => !p.refused && p.userId === currentUser?.id;
 
-let onStored: ((runId: string, run: RunView) => void) | null = null;
+let onStored: ((runId: string, answer: EntryAnswer) => void) | null = null;
 /** Where acknowledged entries go (the query cache); set once by the bench page. */
 export const setStoredHandler = (fn: typeof onStored) => {
   onStored = fn;
@@ -94,13 +95,13 @@ export async function flushPending(): Promise<void> {
       for (const item of cache.filter(mine)) {
         const maker = { id: item.userId, displayName: item.userName ?? 'another person' };
         try {
-          const res = await api.put<{ run: RunView }>(
+          const res = await api.put<EntryAnswer>(
             `/api/runs/${item.runId}/entries/${item.stepId}`,
             item.body,
             { madeBy: maker },
           );
           save(cache.filter((p) => p.body.key !== item.body.key));
-          onStored?.(item.runId, res.run);
+          onStored?.(item.runId, res);
         } catch (err) {
           if (err instanceof ApiError && err.body.code === 'session-changed') {
             const now = (err.body.signedInAs as Person).displayName;

@@ -1,5 +1,6 @@
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useMemo, useSyncExternalStore } from 'react';
+import { applyEntryAnswer } from '@shared/runs/entry-answer';
 import { useSession } from '@/features/auth/api/get-session';
 import { authKeys } from '@/features/auth/api/keys';
 import { runQueryOptions } from '../api/get-run';
@@ -25,7 +26,14 @@ export function usePendingEntries(runId: string) {
   const user = useSession().data?.user ?? null;
   setQueueUser(user && { id: user.id, displayName: user.displayName });
   useEffect(() => {
-    setStoredHandler((id, run) => queryClient.setQueryData(runQueryOptions(id).queryKey, { run }));
+    // The answer holds what the entry changed: applied to the run held, else the run is read again.
+    setStoredHandler((id, answer) => {
+      const { queryKey } = runQueryOptions(id);
+      const held = queryClient.getQueryData(queryKey)?.run;
+      const run = held && applyEntryAnswer(held, answer);
+      if (run) queryClient.setQueryData(queryKey, { run });
+      else void queryClient.invalidateQueries({ queryKey });
+    });
     setSessionCheck(() => void queryClient.invalidateQueries({ queryKey: authKeys.session }));
     void flushPending();
     return () => setSessionCheck(null);
