@@ -1,7 +1,8 @@
-// Three app processes behind nginx (round-robin) on one PostgreSQL and one upload store: what one
+// Three app processes behind nginx (round-robin) on one PostgreSQL and one object store (S3 API): what one
 // process does, every other sees, and one process killed under a write load loses nothing and
 // doubles nothing.
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
+import { readdirSync } from 'node:fs';
 import { sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, createPool } from '../../server/db/client';
@@ -10,21 +11,25 @@ import { startMultiNode, type MultiNode } from '../support/multi-node';
 import { tinyPng } from '../support/png';
 import { approveRevision } from '../support/review-path';
 import { demo } from '../support/test-app';
+import { createTestBucket, type TestBucket } from '../support/test-bucket';
 import { createTestDatabase } from '../support/test-db';
 
 let database: Awaited<ReturnType<typeof createTestDatabase>>;
 let pool: ReturnType<typeof createPool>;
 let db: ReturnType<typeof createDb>;
 let cluster: MultiNode;
+let bucket: TestBucket;
 
 beforeAll(async () => {
   database = await createTestDatabase();
   pool = createPool(database.url);
   db = createDb(pool);
-  cluster = await startMultiNode(database.url, 3);
+  bucket = await createTestBucket();
+  cluster = await startMultiNode(database.url, 3, { s3: bucket.settings });
 }, 90_000);
 afterAll(async () => {
   await cluster?.stop();
+  await bucket?.drop();
   await pool?.end();
   await database?.drop();
 });
@@ -153,7 +158,7 @@ describe('three app processes behind nginx', () => {
     expect(next.filter((s) => s === 429).length).toBeGreaterThanOrEqual(5);
   });
 
-  it('an upload through one process is read back through the others', async () => {
+  it('an upload through one process lands in the object store and is read back through the others', async () => {
     const hal = await signedIn('hal', cluster.nodes[0]!.url);
     const bytes = tinyPng();
     const form = new FormData();
@@ -165,6 +170,9 @@ describe('three app processes behind nginx', () => {
     });
     expect(up.status).toBe(201);
     const { attachment } = (await up.json()) as { attachment: { url: string } };
+    // The bytes went to the shared bucket under their SHA-256, not to a process's disk.
+    expect(await bucket.store.exists(createHash('sha256').update(bytes).digest('hex'))).toBe(true);
+    expect(readdirSync(cluster.uploadDir)).toEqual([]);
     for (const node of cluster.nodes.slice(1)) {
       const res = await fetch(node.url + attachment.url, { headers: { cookie: hal.cookieHeader() } });
       expect(res.status).toBe(200);
