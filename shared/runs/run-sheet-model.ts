@@ -1,4 +1,5 @@
 import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
+import { decisionFields } from './decision-fields';
 import type { SignalLevel } from '../safety-signs';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../schemas/registers';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
@@ -42,6 +43,7 @@ export const SHEET_HEADINGS = {
   readings: 'Readings',
   checks: 'Check steps and hazard notes',
   corrections: 'Corrections (originals kept)',
+  decisions: 'Hold points, steps not applicable and deviations',
   instruments: 'Instruments used',
   signature: 'Signature',
 } as const;
@@ -61,7 +63,7 @@ export interface SheetField {
   value: string;
   mono?: boolean;
   tone?: 'ok' | 'out';
-  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness';
+  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness' | 'hold-point' | 'step-record';
 }
 
 export interface SheetNotice {
@@ -124,6 +126,8 @@ export interface RunSheetModel {
   readings: SheetReading[];
   checks: SheetCheck[];
   corrections: SheetCorrection[];
+  /** Hold points reached (and their decisions), steps not applicable, deviations (and theirs). */
+  decisions: SheetField[];
   /** The readings against their bands, drawn on the page and in the PDF (readings-plot.ts). */
   plot: ReadingsPlot;
   /** Each instrument that took a reading, with its calibration due date when it did and the readings it took. */
@@ -314,6 +318,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
           ),
         };
       }),
+    decisions: decisionFields(run),
     plot: readingsPlot(run.steps, run.entries),
     instruments: instrumentFields(run),
     photos: run.photos.length

@@ -5,6 +5,7 @@ import type { ProcedureParams } from '../document/params';
 import { PARAM_SPECS } from '../document/params';
 import type { CheckKind } from '../document/schema';
 import type { Measure } from '../reckoners/types';
+import type { RunHoldPointView, RunStepExceptionView } from './run-decisions';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
 
@@ -40,6 +41,8 @@ export interface RunStep {
   check?: { kind: CheckKind; heading: string; threshold?: string; seconds?: number };
   /** Done or measured on a powered unit. */
   live?: boolean;
+  /** A reading marked as a hold point: out of band, the run stops until a senior decides. */
+  holdPoint?: boolean;
 }
 
 const spec = (key: 'mainsVoltage' | 'mainsFrequency') => PARAM_SPECS.find((p) => p.key === key)!;
@@ -272,6 +275,10 @@ export interface RunView {
   /** The bench's usual instrument for this run. */
   defaultInstrument?: RunInstrument | null;
   hold: RunHold | null;
+  /** Hold points reached out of band on this run, decided or waiting for a senior. */
+  holdPoints?: RunHoldPointView[];
+  /** Steps recorded as not applicable or as a deviation, oldest first. */
+  exceptions?: RunStepExceptionView[];
   superseded?: RunSupersession | null;
   /** Closed as abandoned. */
   closed: { by: Person; reason: string; at: string } | null;

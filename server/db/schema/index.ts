@@ -9,3 +9,4 @@ export * from './auth';
 export * from './acknowledgements';
 export * from './instruments';
 export * from './registers';
+export * from './run-decisions';

@@ -27,6 +27,7 @@ import type { FileStore } from '../../storage/files';
 import { runContentHash, type RunContent } from './run-hash';
 import { holdOf, supersessionOf } from './run-hold';
 import { lockedSteps, progressOf } from './run-steps';
+import { decisionContent, decisionRows, decisionViews, excusedSteps } from './run-decisions';
 import type { RunRow } from './runs.service';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
@@ -45,6 +46,7 @@ async function names(db: Db | Tx, ids: string[]) {
 
 type EntryRow = typeof runEntries.$inferSelect;
 type PhotoHash = RunContent['photos'][number];
+type Decisions = Awaited<ReturnType<typeof decisionRows>>;
 
 /** Photos with the SHA-256 their rows recorded, kept only where the stored bytes still hash to it. */
 const rehashed = (
@@ -66,15 +68,16 @@ export async function runContent(
   run: RunRow,
   unit: RunContent['unit'],
 ): Promise<RunContent> {
-  const [entries, photos] = await Promise.all([
+  const [entries, photos, decisions] = await Promise.all([
     db.select().from(runEntries).where(eq(runEntries.runId, run.id)),
     db
       .select({ id: runPhotos.id, stepId: runPhotos.stepId, sha256: attachments.sha256 })
       .from(runPhotos)
       .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
       .where(eq(runPhotos.runId, run.id)),
+    decisionRows(db, run.id),
   ]);
-  return contentOf(run, unit, entries, await rehashed(files, photos));
+  return contentOf(run, unit, entries, await rehashed(files, photos), decisions);
 }
 
 /** The same, from entries and photos already read. */
@@ -83,6 +86,7 @@ function contentOf(
   unit: RunContent['unit'],
   entries: EntryRow[],
   photos: PhotoHash[],
+  decisions: Decisions,
 ): RunContent {
   return {
     runId: run.id,
@@ -107,6 +111,7 @@ function contentOf(
       ...(e.instrumentId && { instrument: { id: e.instrumentId, calibrationDue: e.instrumentDue ?? '' } }),
     })),
     photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, sha256: p.sha256 })),
+    ...decisionContent(decisions),
   };
 }
 
@@ -164,7 +169,7 @@ export async function loadRunView(
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
-  const [[unit], entries, history, photos, [signature], revision, handovers, hold, superseded] =
+  const [[unit], entries, history, photos, [signature], revision, handovers, hold, superseded, decisions] =
     await Promise.all([
       db.select().from(units).where(eq(units.id, run.unitId)),
       db.select().from(runEntries).where(eq(runEntries.runId, runId)),
@@ -195,6 +200,7 @@ export async function loadRunView(
         .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
       holdOf(db, run),
       supersessionOf(db, run),
+      decisionRows(db, runId),
     ]);
   const instrumentIds = [
     ...new Set([run.defaultInstrumentId, ...entries.map((e) => e.instrumentId)].filter((i) => i !== null)),
@@ -224,6 +230,7 @@ export async function loadRunView(
     ...(run.closedBy ? [run.closedBy] : []),
     ...entries.map((e) => e.enteredBy),
     ...photos.map((p) => p.addedBy),
+    ...decisions.holds.map((h) => h.openedBy),
     ...(signature ? [signature.signerId] : []),
   ]);
 
@@ -275,14 +282,15 @@ export async function loadRunView(
     const photoHashes = await rehashed(files, photos);
     verified =
       photoHashes.every((p) => p.sha256 !== null) &&
-      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes)) ===
+      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes, decisions)) ===
         signature.contentHash &&
       signature.contentHash === run.contentHash;
   }
   // What a witness signature must cover: the signed content, or (open run) the content as it stands.
   const currentHash =
     run.witnessId && witnessSignatures[0]
-      ? (run.contentHash ?? runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos))))
+      ? (run.contentHash ??
+        runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos), decisions)))
       : null;
   return {
     id: run.id,
@@ -326,6 +334,7 @@ export async function loadRunView(
     witness: run.witnessId ? witnessView(run, who(run.witnessId), witnessSignatures[0], currentHash) : null,
     defaultInstrument: instrumentOf(run.defaultInstrumentId),
     hold,
+    ...decisionViews(run, decisions, who),
     // A withdrawn revision holds the run; the hold says so, not this.
     superseded: hold ? null : superseded,
     closed:
@@ -334,7 +343,7 @@ export async function loadRunView(
         : null,
     startedAt: run.startedAt.toISOString(),
     signedAt: iso(run.signedAt),
-    progress: progressOf(run.steps, state),
+    progress: progressOf(run.steps, state, excusedSteps(decisions.exceptions)),
     locked: lockedSteps(run.steps, state).locked,
   };
 }

@@ -15,6 +15,7 @@ import {
   acknowledgementRequired,
 } from '../acknowledgements/acknowledgements.service';
 import { assertWritable } from './run-custody';
+import { openHoldIfOutOfBand, refuseWhileHeld } from './run-decisions';
 import { usableInstrument } from '../registers/instruments.service';
 import { checkWitness, eligibility, isLiveWork } from '../registers/qualifications.service';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
@@ -183,6 +184,7 @@ export async function recordEntry(
       return { replayed: true, run };
     }
     await assertWritable(tx, run, user);
+    await refuseWhileHeld(tx, run);
     const step = run.steps.find((s) => s.id === stepId);
     if (!step) throw notFound(`This run has no step “${short(stepId, 40)}”.`);
     const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
@@ -262,6 +264,7 @@ export async function recordEntry(
       enteredBy: user.id,
       enteredByName: user.displayName,
     });
+    await openHoldIfOutOfBand(tx, run, entry, reading !== null);
     // The run row is locked, so its entries are exactly `rows` with this one put in.
     const outOfTolerance = [...rows.filter((r) => r.id !== entry.id), entry].some((r) => r.within === false);
     if (outOfTolerance !== run.outOfTolerance)
