@@ -97,7 +97,7 @@ const nameOf = async (tx: Tx, id: string, fallback: string) =>
 
 /** Continue (with a reason) or abandon a run stopped at a hold point; audited. */
 export async function decideHold(
-  db: Db,
+  db: Db | Tx,
   user: SessionUser,
   runId: string,
   holdId: string,
@@ -170,7 +170,7 @@ export function excusedSteps(rows: ExceptionRow[]): Set<string> {
 
 /** The technician records a step as not applicable or as a deviation; audited. */
 export async function recordStepException(
-  db: Db,
+  db: Db | Tx,
   user: SessionUser,
   runId: string,
   body: StepExceptionBody,
@@ -235,7 +235,7 @@ export async function recordStepException(
 
 /** A senior approves or refuses a deviation, with a note; audited. */
 export async function decideDeviation(
-  db: Db,
+  db: Db | Tx,
   user: SessionUser,
   runId: string,
   exceptionId: string,

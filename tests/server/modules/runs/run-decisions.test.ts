@@ -4,9 +4,10 @@
 // database refuses the same shortcuts underneath.
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { auditLog, runs } from '../../../../server/db/schema';
+import { auditLog, runHolds, runs, runStepExceptions } from '../../../../server/db/schema';
 import { runContentHash } from '../../../../server/modules/runs/run-hash';
 import { runContent } from '../../../../server/modules/runs/run-view';
+import type { HomeView } from '../../../../shared/schemas/home';
 import type { RunView } from '../../../../shared/schemas/runs';
 import { pdfBody, pdfText } from '../../../support/pdf-text';
 import { procedureInState } from '../../../support/review-path';
@@ -109,6 +110,15 @@ describe('a hold point', () => {
       kind: string;
     }[];
     expect(waiting).toContainEqual(expect.objectContaining({ id: hold!.id, kind: 'hold' }));
+    // And the reviewer's home page, under what waits for them.
+    const home = (await marek.get('/api/home')).body as HomeView;
+    const decisions = home.sections.find((x) => x.key === 'decisions');
+    expect(decisions?.items).toContainEqual(
+      expect.objectContaining({ id: hold!.id, href: `/runs/${runId}`, urgent: true }),
+    );
+    expect((await priya.get('/api/home')).body.sections.map((x: { key: string }) => x.key)).not.toContain(
+      'decisions',
+    );
     expect(
       (await decideHold(priya, runId, hold!.id, { decision: 'continue', reason: 'x'.repeat(5) })).status,
     ).toBe(403);
@@ -321,5 +331,22 @@ describe('steps not applicable and deviations', () => {
       reason: 'Skipped it',
     });
     expect(done.status).toBe(409);
+  });
+});
+
+describe('demo content', () => {
+  it('has a hold point decided to continue, with its reason, and a deviation a reviewer approved', async () => {
+    const holds = await t.db.select().from(runHolds);
+    const demoHold = holds.find((h) => h.stepId === 'tc30h-rd-ht-ohms');
+    expect(demoHold).toMatchObject({ decision: 'continue', decidedByName: 'Marek Vos', raw: '29.6 Ω' });
+    const [deviation] = await t.db
+      .select()
+      .from(runStepExceptions)
+      .where(eq(runStepExceptions.stepId, 'bleed-ck-fuse'));
+    expect(deviation).toMatchObject({
+      kind: 'deviation',
+      decision: 'approved',
+      decidedByName: 'Dee Sandoval',
+    });
   });
 });
