@@ -34,7 +34,7 @@ export function HoldPointBanner({ run, canDecide }: { run: RunView; canDecide: b
       {open.map((h) => (
         <div
           key={h.id}
-          data-hold-point
+          data-hold-point-banner
           role="alert"
           className="flex flex-col gap-2 rounded-md border-2 border-out bg-out-wash px-4 py-3 text-out"
         >
