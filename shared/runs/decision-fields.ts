@@ -10,7 +10,7 @@ export function decisionFields(run: Pick<RunView, 'holdPoints' | 'exceptions'>):
   const holds = (run.holdPoints ?? []).map((h): SheetField => {
     const band =
       h.low !== null && h.high !== null
-        ? `${formatQuantity(h.low, h.unit)} … ${formatQuantity(h.high, h.unit)}`
+        ? `${formatQuantity(h.low, h.unit, 4)} … ${formatQuantity(h.high, h.unit, 4)}`
         : 'no band';
     const reached = `${h.position}. ${h.text}: measured ${h.raw}, expected ${band}, ${utc(h.openedAt)}.`;
     return {
@@ -38,4 +38,12 @@ export function decisionFields(run: Pick<RunView, 'holdPoints' | 'exceptions'>):
     };
   });
   return [...holds, ...exceptions];
+}
+
+/** How a step's current record reads in its own row ("not applicable", "deviation, approved"), or null. */
+export function recordStatus(run: Pick<RunView, 'exceptions'>, stepId: string): string | null {
+  const x = run.exceptions?.find((r) => r.stepId === stepId && r.current);
+  if (!x) return null;
+  if (x.kind === 'not_applicable') return 'not applicable (see below)';
+  return `deviation, ${x.decision === 'approved' ? 'approved' : x.decision === 'refused' ? 'refused' : 'waiting for approval'} (see below)`;
 }

@@ -1,5 +1,5 @@
 import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
-import { decisionFields } from './decision-fields';
+import { decisionFields, recordStatus } from './decision-fields';
 import type { SignalLevel } from '../safety-signs';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../schemas/registers';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
@@ -301,8 +301,20 @@ export function runSheetModel(run: RunView): RunSheetModel {
           ]
         : []),
     ],
-    readings: run.steps.filter((s) => s.kind === 'reading').map((s) => readingRow(s, entries.get(s.id))),
-    checks: run.steps.filter((s) => s.kind !== 'reading').map((s) => checkRow(s, entries.get(s.id))),
+    readings: run.steps
+      .filter((s) => s.kind === 'reading')
+      .map((s) => {
+        const row = readingRow(s, entries.get(s.id));
+        const record = recordStatus(run, s.id);
+        return record && row.measured === NONE ? { ...row, markText: record } : row;
+      }),
+    checks: run.steps
+      .filter((s) => s.kind !== 'reading')
+      .map((s) => {
+        const row = checkRow(s, entries.get(s.id));
+        const record = recordStatus(run, s.id);
+        return record && !row.done ? { ...row, status: record } : row;
+      }),
     corrections: run.entries
       .filter((e) => e.history.length > 1)
       .map((e) => {

@@ -37,7 +37,7 @@ const stepWords = (step: RunStep | undefined, stepId: string) =>
   step ? `“${short(step.text, 60)}” (step ${step.position})` : `step ${stepId}`;
 const band = (h: Pick<HoldRow, 'low' | 'high' | 'unit'>) =>
   h.low !== null && h.high !== null
-    ? `${formatQuantity(h.low, h.unit)} … ${formatQuantity(h.high, h.unit)}`
+    ? `${formatQuantity(h.low, h.unit, 4)} … ${formatQuantity(h.high, h.unit, 4)}`
     : 'no band';
 
 /** The 409 for a run stopped at a hold point, naming the reading and who may decide. */

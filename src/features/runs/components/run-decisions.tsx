@@ -18,7 +18,7 @@ import { useDecideDeviation, useDecideHold, useRecordStepException } from '../ap
 
 const band = (h: RunHoldPointView) =>
   h.low !== null && h.high !== null
-    ? `${formatQuantity(h.low, h.unit)} … ${formatQuantity(h.high, h.unit)}`
+    ? `${formatQuantity(h.low, h.unit, 4)} … ${formatQuantity(h.high, h.unit, 4)}`
     : 'no band';
 
 const radio = 'flex min-h-12 items-center gap-2 rounded-md border border-rule bg-paper px-3';
