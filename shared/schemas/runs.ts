@@ -294,6 +294,8 @@ export interface RunListItem {
   title: string;
   status: RunStatus;
   onHold: boolean;
+  /** Stopped at a hold point, waiting for a senior's decision. */
+  atHoldPoint?: boolean;
   outOfTolerance: boolean;
   revisionNumber: number;
   unit: { id: string; model: string; serial: string };

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type {
   EntryView,
   RevisionRecord,
@@ -379,6 +379,7 @@ export async function listRuns(
       run: runs,
       unit: { id: units.id, model: units.model, serial: units.serial },
       revisionState: revisions.state,
+      atHoldPoint: sql<boolean>`exists (select 1 from run_holds h where h.run_id = ${runs.id} and h.decision is null)`,
     })
     .from(runs)
     .innerJoin(units, eq(units.id, runs.unitId))
@@ -403,7 +404,7 @@ export async function listRuns(
     db,
     rows.flatMap((r) => [r.run.startedBy, r.run.performedBy]),
   );
-  return rows.map(({ run, unit, revisionState }) => {
+  return rows.map(({ run, unit, revisionState, atHoldPoint }) => {
     const state = new Map(entries.filter((e) => e.runId === run.id).map((e) => [e.stepId, e]));
     const p = progressOf(run.steps, state);
     return {
@@ -411,6 +412,7 @@ export async function listRuns(
       title: run.title,
       status: run.status,
       onHold: run.status === 'in_progress' && revisionState === 'withdrawn',
+      atHoldPoint: run.status === 'in_progress' && atHoldPoint,
       outOfTolerance: run.outOfTolerance,
       revisionNumber: run.revisionNumber,
       unit,

@@ -110,6 +110,12 @@ describe('a hold point', () => {
       kind: string;
     }[];
     expect(waiting).toContainEqual(expect.objectContaining({ id: hold!.id, kind: 'hold' }));
+    // The run list says so too.
+    const listed = (await marek.get('/api/runs?status=in_progress')).body.runs as {
+      id: string;
+      atHoldPoint: boolean;
+    }[];
+    expect(listed.find((r) => r.id === runId)?.atHoldPoint).toBe(true);
     // And the reviewer's home page, under what waits for them.
     const home = (await marek.get('/api/home')).body as HomeView;
     const decisions = home.sections.find((x) => x.key === 'decisions');
@@ -138,6 +144,11 @@ describe('a hold point', () => {
       decidedBy: { displayName: 'Marek Vos' },
     });
     expect((await entry(priya, runId, 'ck-discharge', { done: true })).status).toBe(200);
+    const after = (await marek.get('/api/runs?status=in_progress')).body.runs as {
+      id: string;
+      atHoldPoint: boolean;
+    }[];
+    expect(after.find((r) => r.id === runId)?.atHoldPoint).toBe(false);
 
     // Decided once: again through the API, and underneath.
     const again = await decideHold(marek, runId, hold!.id, {
