@@ -15,6 +15,7 @@ import { auditRoutes } from './modules/audit/audit.routes';
 import { outboxRoutes } from './modules/mail/outbox.routes';
 import { registerRoutes } from './modules/registers/registers.routes';
 import { reviewRoutes } from './modules/review/review.routes';
+import { runDecisionRoutes } from './modules/runs/run-decisions.routes';
 import { runRoutes } from './modules/runs/runs.routes';
 import { paperSheetRoutes } from './modules/paper-sheets/paper-sheets.routes';
 import { unitRoutes } from './modules/units/units.routes';
@@ -35,6 +36,7 @@ export const routeTable: readonly RouteDef[] = [
   ...auditRoutes,
   ...outboxRoutes,
   ...unitRoutes,
+  ...runDecisionRoutes,
   ...runRoutes,
   ...paperSheetRoutes,
   ...registerRoutes,

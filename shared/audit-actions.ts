@@ -102,6 +102,24 @@ const ACTIONS = {
     label: 'Bench run witnessed',
     phrase: () => 'co-signed a trainee’s bench run as its witness',
   },
+  'run.hold-decided': {
+    label: 'Hold point decided',
+    phrase: (e) =>
+      e.details.decision === 'abandon'
+        ? 'abandoned a bench run stopped at a hold point'
+        : 'let a bench run stopped at a hold point continue',
+  },
+  'run.step-excepted': {
+    label: 'Step recorded as not applicable or a deviation',
+    phrase: (e) =>
+      e.details.kind === 'deviation'
+        ? 'recorded a deviation on a bench-run step'
+        : 'recorded a bench-run step as not applicable',
+  },
+  'run.deviation-decided': {
+    label: 'Deviation decided',
+    phrase: (e) => `${e.details.decision === 'approved' ? 'approved' : 'refused'} a deviation on a bench run`,
+  },
   'instrument.added': {
     label: 'Instrument added',
     phrase: (e) => `added ${e.subject ?? 'an instrument'} to the instrument register`,

@@ -42,6 +42,7 @@ export const paths = {
       return q.size ? `/runs/new?${q}` : '/runs/new';
     },
   },
+  runDecisions: { pattern: '/runs/decisions', href: () => '/runs/decisions' },
   run: { pattern: '/runs/:runId', href: (id: string) => `/runs/${id}` },
   runSheet: { pattern: '/runs/:runId/sheet', href: (id: string) => `/runs/${id}/sheet` },
   instruments: { pattern: '/instruments', href: () => '/instruments' },

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import path from 'node:path';
-import { and, eq, sql } from 'drizzle-orm';
+import { and, eq, isNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { entryBody, startRunBody } from '../../shared/schemas/runs';
 import { unitBody } from '../../shared/schemas/units';
@@ -11,11 +11,22 @@ import { toSessionUser } from '../auth/passport';
 import { decideFollowUp } from '../modules/follow-ups/follow-ups.service';
 import { writeRunRelease } from '../modules/runs/run-release';
 import { writeRunSignature, writeWitnessSignature } from '../modules/runs/run-sign';
+import { decideDeviation, decideHold, recordStepException } from '../modules/runs/run-decisions';
 import { recordEntry, startRun } from '../modules/runs/runs.service';
 import { registerUnit } from '../modules/units/units.service';
 import { NO_FILES } from '../storage/files';
 import type { Db, Tx } from './client';
-import { instruments, people, procedures, revisions, runEntries, runs, units } from './schema';
+import {
+  instruments,
+  people,
+  procedures,
+  revisions,
+  runEntries,
+  runHolds,
+  runs,
+  runStepExceptions,
+  units,
+} from './schema';
 
 const email = z.email();
 const instant = z.iso.datetime({ offset: true });
@@ -69,6 +80,29 @@ const runsFile = z.object({
           .optional(),
         /** A signed run checked and released by a second person. */
         release: z.object({ by: email, at: instant }).strict().optional(),
+        /** A hold point the run stops at (out of band), decided by a senior: step → decision. */
+        holds: z
+          .record(
+            z.string(),
+            z
+              .object({ decidedBy: email, decision: z.enum(['continue', 'abandon']), reason: z.string() })
+              .strict(),
+          )
+          .default({}),
+        /** A step done another way, in place of its entry, and the senior's decision: step → deviation. */
+        deviations: z
+          .record(
+            z.string(),
+            z
+              .object({
+                reason: z.string(),
+                decidedBy: email,
+                decision: z.enum(['approved', 'refused']),
+                note: z.string(),
+              })
+              .strict(),
+          )
+          .default({}),
       })
       .strict()
       .refine(
@@ -218,6 +252,25 @@ async function seedOneRun(db: Db, r: SeedRun) {
       : startedAt.getTime() + (todo.length + 1) * 120_000;
     const gap = (end - startedAt.getTime()) / (todo.length + 1);
     for (const [i, step] of todo.entries()) {
+      const deviation = r.deviations[step.id];
+      if (deviation) {
+        const senior = await personByEmail(tx, deviation.decidedBy);
+        if (!senior) throw new SkipRun(`no senior ${deviation.decidedBy}`);
+        await recordStepException(tx, tech, run.id, {
+          stepId: step.id,
+          kind: 'deviation',
+          reason: deviation.reason,
+        });
+        const [row] = await tx
+          .select({ id: runStepExceptions.id })
+          .from(runStepExceptions)
+          .where(and(eq(runStepExceptions.runId, run.id), eq(runStepExceptions.stepId, step.id)));
+        await decideDeviation(tx, senior, run.id, row!.id, {
+          decision: deviation.decision,
+          note: deviation.note,
+        });
+        continue;
+      }
       const note = r.notes[step.id];
       const entry = entryBody.parse({
         key: demoUuid(`run ${r.key} step ${step.id}`),
@@ -225,6 +278,17 @@ async function seedOneRun(db: Db, r: SeedRun) {
         ...(note ? { note } : {}),
       });
       await recordEntry(tx, tech, run.id, step.id, entry);
+      // A hold point reached out of band: the senior's decision from the file, or the run is left out.
+      const [held] = await tx
+        .select({ id: runHolds.id })
+        .from(runHolds)
+        .where(and(eq(runHolds.runId, run.id), isNull(runHolds.decision)));
+      if (held) {
+        const decided = r.holds[step.id];
+        const senior = decided && (await personByEmail(tx, decided.decidedBy));
+        if (!decided || !senior) throw new SkipRun(`the hold point at ${step.id} has no senior's decision`);
+        await decideHold(tx, senior, run.id, held.id, { decision: decided.decision, reason: decided.reason });
+      }
       const at = new Date(startedAt.getTime() + Math.round((i + 1) * gap));
       await tx
         .update(runEntries)

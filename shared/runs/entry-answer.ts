@@ -61,6 +61,8 @@ export const entryAnswer = z.object({
     outOfTolerance: z.boolean(),
     progress: z.object({ done: z.number(), total: z.number(), outOfTolerance: z.number() }),
     locked: z.array(z.string()),
+    /** This entry stopped the run at a hold point: the run page (its hold) is read again. */
+    stoppedAtHoldPoint: z.boolean(),
   }),
 });
 export type EntryAnswer = z.infer<typeof entryAnswer>;
@@ -78,7 +80,7 @@ export const versionMatchesView: Same<z.infer<typeof entryVersion>, EntryVersion
  * (an entry version in between was made elsewhere): then the run is read again.
  */
 export function applyEntryAnswer(run: RunView, answer: EntryAnswer): RunView | null {
-  if (run.id !== answer.run.id) return null;
+  if (run.id !== answer.run.id || answer.run.stoppedAtHoldPoint) return null;
   const { recentHistory, ...fields } = answer.entry;
   const held = run.entries.find((e) => e.stepId === fields.stepId);
   const heldVersion = held?.version ?? 0;

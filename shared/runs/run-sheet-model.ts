@@ -1,4 +1,5 @@
 import { RUN_SHEET_CAUTION, type Caution } from '../safety-caution';
+import { decisionFields, recordStatus } from './decision-fields';
 import type { SignalLevel } from '../safety-signs';
 import { INSTRUMENT_KINDS, type InstrumentKind } from '../schemas/registers';
 import type { EntryView, RunStep, RunView } from '../schemas/runs';
@@ -47,6 +48,7 @@ export const SHEET_HEADINGS = {
   readings: 'Readings',
   checks: 'Check steps and hazard notes',
   corrections: 'Corrections (originals kept)',
+  decisions: 'Hold points, steps not applicable and deviations',
   instruments: 'Instruments used',
   signature: 'Signature',
   release: 'Checked and released',
@@ -68,7 +70,17 @@ export interface SheetField {
   value: string;
   mono?: boolean;
   tone?: 'ok' | 'out';
-  tag?: 'handover' | 'performer' | 'closed' | 'hold' | 'witness' | 'paper' | 'release' | 'follow-up';
+  tag?:
+    | 'handover'
+    | 'performer'
+    | 'closed'
+    | 'hold'
+    | 'witness'
+    | 'paper'
+    | 'release'
+    | 'follow-up'
+    | 'hold-point'
+    | 'step-record';
 }
 
 export interface SheetNotice {
@@ -131,6 +143,8 @@ export interface RunSheetModel {
   readings: SheetReading[];
   checks: SheetCheck[];
   corrections: SheetCorrection[];
+  /** Hold points reached (and their decisions), steps not applicable, deviations (and theirs). */
+  decisions: SheetField[];
   /** The readings against their bands, drawn on the page and in the PDF (readings-plot.ts). */
   plot: ReadingsPlot;
   /** Each instrument that took a reading, with its calibration due date when it did and the readings it took. */
@@ -373,8 +387,20 @@ export function runSheetModel(run: RunView): RunSheetModel {
           ]
         : []),
     ],
-    readings: run.steps.filter((s) => s.kind === 'reading').map((s) => readingRow(s, entries.get(s.id))),
-    checks: run.steps.filter((s) => s.kind !== 'reading').map((s) => checkRow(s, entries.get(s.id))),
+    readings: run.steps
+      .filter((s) => s.kind === 'reading')
+      .map((s) => {
+        const row = readingRow(s, entries.get(s.id));
+        const record = recordStatus(run, s.id);
+        return record && row.measured === NONE ? { ...row, markText: record } : row;
+      }),
+    checks: run.steps
+      .filter((s) => s.kind !== 'reading')
+      .map((s) => {
+        const row = checkRow(s, entries.get(s.id));
+        const record = recordStatus(run, s.id);
+        return record && !row.done ? { ...row, status: record } : row;
+      }),
     corrections: run.entries
       .filter((e) => e.history.length > 1)
       .map((e) => {
@@ -390,6 +416,7 @@ export function runSheetModel(run: RunView): RunSheetModel {
           ),
         };
       }),
+    decisions: decisionFields(run),
     plot: readingsPlot(run.steps, run.entries),
     instruments: instrumentFields(run),
     photos: run.photos.length

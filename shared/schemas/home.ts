@@ -8,6 +8,7 @@ export const HOME_ITEMS_SHOWN = 5;
 export const HOME_SECTIONS = [
   'runs',
   'witness',
+  'decisions',
   'acknowledgements',
   'reviews',
   'drafts',

@@ -7,6 +7,7 @@ import type { CheckKind } from '../document/schema';
 import type { Measure } from '../reckoners/types';
 import { paperSheetInput } from './paper-sheets';
 import type { FollowUpView, RunReleaseView } from './follow-ups';
+import type { RunHoldPointView, RunStepExceptionView } from './run-decisions';
 
 export type RunStepKind = 'reading' | 'check' | 'hazard';
 
@@ -42,6 +43,8 @@ export interface RunStep {
   check?: { kind: CheckKind; heading: string; threshold?: string; seconds?: number };
   /** Done or measured on a powered unit. */
   live?: boolean;
+  /** A reading marked as a hold point: out of band, the run stops until a senior decides. */
+  holdPoint?: boolean;
 }
 
 const spec = (key: 'mainsVoltage' | 'mainsFrequency') => PARAM_SPECS.find((p) => p.key === key)!;
@@ -282,6 +285,10 @@ export interface RunView {
   /** Entries made now are copied from this paper bench sheet (its date, and identifier when given). */
   paperSheet?: { date: string; reference: string | null } | null;
   hold: RunHold | null;
+  /** Hold points reached out of band on this run, decided or waiting for a senior. */
+  holdPoints?: RunHoldPointView[];
+  /** Steps recorded as not applicable or as a deviation, oldest first. */
+  exceptions?: RunStepExceptionView[];
   superseded?: RunSupersession | null;
   /** Closed as abandoned. */
   closed: { by: Person; reason: string; at: string } | null;
@@ -302,6 +309,8 @@ export interface RunListItem {
   title: string;
   status: RunStatus;
   onHold: boolean;
+  /** Stopped at a hold point, waiting for a senior's decision. */
+  atHoldPoint?: boolean;
   outOfTolerance: boolean;
   revisionNumber: number;
   unit: { id: string; model: string; serial: string };

@@ -232,6 +232,7 @@ const router = createBrowserRouter([
         },
         toRuns,
       ),
+      page(paths.runDecisions.pattern, () => import('./routes/runs/decisions'), undefined, toRuns),
       page(
         paths.run.pattern,
         () => import('./routes/runs/run'),

@@ -92,6 +92,21 @@ const SAMPLES: { [K in NodeType]: (c: SampleContext) => DocNode[] } = {
         tolerance: '±5 %',
       },
     },
+    {
+      type: 'reading',
+      attrs: {
+        id: id('rd'),
+        label: 'B+ at the reservoir, a hold point',
+        testPoint: 'C1 positive to chassis',
+        meterRange: '1000 V DC',
+        unit: 'V',
+        measure: 'dc',
+        expected: { literal: '340 V' },
+        followsMains: true,
+        tolerance: '±10 %',
+        holdPoint: true,
+      },
+    },
   ],
   checkStep: () =>
     CHECK_KINDS.map((kind) => ({

@@ -177,6 +177,7 @@ export async function routeTour(databaseUrl: string, uploadDir: string): Promise
       editRevision: as(['author'], 'editRevision', paths.editRevision.href(draft.revision.id)),
       reviewQueue: as(['reviewer'], 'reviewQueue', paths.reviewQueue.href()),
       reviewDue: as(['reviewer', 'admin'], 'reviewDue', paths.reviewDue.href()),
+      runDecisions: as(['reviewer', 'admin'], 'runDecisions', paths.runDecisions.href()),
       // The demo's pending acknowledgement: a revision approved after its technician ran the one before.
       acknowledgeRevision: [
         { route: 'acknowledgeRevision', url: paths.acknowledgeRevision.href(later.id), who: 'priya' },

@@ -11,3 +11,4 @@ export * from './instruments';
 export * from './registers';
 export * from './run-sheets';
 export * from './follow-ups';
+export * from './run-decisions';

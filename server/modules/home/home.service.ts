@@ -20,6 +20,7 @@ import type { SessionUser } from '../../http/route';
 import type { FileStore } from '../../storage/files';
 import { dueReviews } from '../review-due/review-due.service';
 import { loadRunView } from '../runs/run-view';
+import { awaitingDecisions } from '../runs/run-decisions';
 import { reviewQueue } from '../review/review-view';
 import { listFollowUps } from '../follow-ups/follow-ups.service';
 
@@ -90,6 +91,20 @@ const SECTIONS: Record<
           href: paths.run.href(v.id),
         }));
     },
+  },
+  decisions: {
+    roles: ['reviewer', 'admin'],
+    title: 'Holds and deviations to decide',
+    href: paths.runDecisions.href(),
+    linkLabel: 'All holds and deviations waiting',
+    items: async (db, user) =>
+      (await awaitingDecisions(db, user)).map((a) => ({
+        id: a.id,
+        label: `${a.unit.model} ${a.unit.serial}: ${a.kind === 'hold' ? 'hold point' : 'deviation'} at step ${a.step.position}`,
+        detail: `${a.runTitle}, ${a.performedBy.displayName}. ${a.detail}`,
+        href: paths.run.href(a.runId),
+        urgent: a.kind === 'hold',
+      })),
   },
   acknowledgements: {
     roles: ['technician'],

@@ -15,7 +15,14 @@ import type { EntryRow, RunRow } from './runs.service';
 export async function entryAnswerOf(
   db: Db,
   user: SessionUser,
-  r: { replayed: boolean; run: RunRow; entry: EntryRow; rows: EntryRow[]; instrument: RunInstrument | null },
+  r: {
+    replayed: boolean;
+    run: RunRow;
+    entry: EntryRow;
+    rows: EntryRow[];
+    instrument: RunInstrument | null;
+    stoppedAtHoldPoint: boolean;
+  },
 ): Promise<EntryAnswer> {
   const { run, entry } = r;
   const [recent, instrument, maker] = await Promise.all([
@@ -78,6 +85,7 @@ export async function entryAnswerOf(
       outOfTolerance: run.outOfTolerance,
       progress: progressOf(run.steps, state),
       locked: lockedSteps(run.steps, state).locked,
+      stoppedAtHoldPoint: r.stoppedAtHoldPoint,
     },
   };
 }

@@ -196,6 +196,7 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
     doc.moveDown(0.2);
   }
 
+  if (sheet.decisions.length) fields(SHEET_HEADINGS.decisions, sheet.decisions);
   if (sheet.instruments.length) fields(SHEET_HEADINGS.instruments, sheet.instruments);
   if (sheet.corrections.length) heading(SHEET_HEADINGS.corrections);
   for (const c of sheet.corrections) {

@@ -25,6 +25,9 @@ export interface RunContent {
   paperSheet?: { date: string; reference: string | null };
   /** A trainee's run: who witnesses it (absent otherwise, so earlier run sheets hash as they did). */
   witnessId?: string;
+  /** Hold points reached and steps recorded as not applicable or a deviation (absent when none). */
+  holds?: unknown[];
+  exceptions?: unknown[];
   /** Each photo's SHA-256 as re-hashed from its stored bytes; null when missing or altered. */
   photos: { id: string; stepId: string | null; sha256: string | null }[];
 }

@@ -26,6 +26,7 @@ import { assertWritable } from './run-custody';
 import { holdOf, onHold } from './run-hold';
 import { runContentHash } from './run-hash';
 import { isFinished } from './run-steps';
+import { decisionRows, excusedSteps, refuseWhileAwaiting } from './run-decisions';
 import { runContent, unitRecordOf } from './run-view';
 import type { Tx } from '../../db/client';
 import type { RunRow } from './runs.service';
@@ -49,6 +50,7 @@ export async function signRun(
   if (exists.status === 'signed') throw conflict('This run sheet is already signed.');
   // Only the performer signs, never on hold: said before the password is asked for (and again under the lock).
   await assertWritable(db, exists, user);
+  await refuseWhileAwaiting(db, exists);
   // A trainee's run waits for its witness: said before the password is asked for, too.
   if (exists.witnessId)
     await db.transaction(async (tx) =>
@@ -160,7 +162,10 @@ async function signableContent(tx: Tx, files: FileStore, run: RunRow) {
   const runId = run.id;
   const entries = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
   const byStep = new Map(entries.map((e) => [e.stepId, e]));
-  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)));
+  // Nothing is signed while a hold or a deviation waits; a step not applicable or an approved deviation is finished.
+  await refuseWhileAwaiting(tx, run);
+  const excused = excusedSteps((await decisionRows(tx, runId)).exceptions);
+  const unfinished = run.steps.filter((s) => !isFinished(s, byStep.get(s.id)) && !excused.has(s.id));
   if (unfinished.length) {
     const list = unfinished
       .slice(0, 5)

@@ -49,9 +49,10 @@ export function lockedSteps(steps: RunStep[], entries: Map<string, EntryState>) 
   };
 }
 
-export function progressOf(steps: RunStep[], entries: Map<string, EntryState>) {
+/** `excused`: steps recorded as not applicable, or as a deviation a senior approved. */
+export function progressOf(steps: RunStep[], entries: Map<string, EntryState>, excused = new Set<string>()) {
   return {
-    done: steps.filter((s) => isFinished(s, entries.get(s.id))).length,
+    done: steps.filter((s) => isFinished(s, entries.get(s.id)) || excused.has(s.id)).length,
     total: steps.length,
     outOfTolerance: [...entries.values()].filter((e) => e.within === false).length,
   };

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql, type SQL } from 'drizzle-orm';
 import type {
   EntryView,
   RevisionRecord,
@@ -28,6 +28,7 @@ import { runContentHash, type RunContent } from './run-hash';
 import { holdOf, supersessionOf } from './run-hold';
 import { releaseAndFollowUps } from './run-release';
 import { lockedSteps, progressOf } from './run-steps';
+import { decisionContent, decisionRows, decisionViews, excusedSteps } from './run-decisions';
 import type { RunRow } from './runs.service';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
@@ -46,6 +47,7 @@ async function names(db: Db | Tx, ids: string[]) {
 
 type EntryRow = typeof runEntries.$inferSelect;
 type PhotoHash = RunContent['photos'][number];
+type Decisions = Awaited<ReturnType<typeof decisionRows>>;
 
 /** Photos with the SHA-256 their rows recorded, kept only where the stored bytes still hash to it. */
 const rehashed = (
@@ -67,15 +69,16 @@ export async function runContent(
   run: RunRow,
   unit: RunContent['unit'],
 ): Promise<RunContent> {
-  const [entries, photos] = await Promise.all([
+  const [entries, photos, decisions] = await Promise.all([
     db.select().from(runEntries).where(eq(runEntries.runId, run.id)),
     db
       .select({ id: runPhotos.id, stepId: runPhotos.stepId, sha256: attachments.sha256 })
       .from(runPhotos)
       .innerJoin(attachments, eq(attachments.id, runPhotos.attachmentId))
       .where(eq(runPhotos.runId, run.id)),
+    decisionRows(db, run.id),
   ]);
-  return contentOf(run, unit, entries, await rehashed(files, photos));
+  return contentOf(run, unit, entries, await rehashed(files, photos), decisions);
 }
 
 /** The same, from entries and photos already read. */
@@ -84,6 +87,7 @@ function contentOf(
   unit: RunContent['unit'],
   entries: EntryRow[],
   photos: PhotoHash[],
+  decisions: Decisions,
 ): RunContent {
   return {
     runId: run.id,
@@ -110,6 +114,7 @@ function contentOf(
       ...(e.takenOn && { takenOn: e.takenOn }),
     })),
     photos: photos.map((p) => ({ id: p.id, stepId: p.stepId, sha256: p.sha256 })),
+    ...decisionContent(decisions),
   };
 }
 
@@ -167,7 +172,7 @@ export async function loadRunView(
   let [run] = known ? [known] : await db.select().from(runs).where(eq(runs.id, runId));
   if (!run) throw notFound('No such bench run.');
   // Independent reads, side by side (inside a transaction they queue on its one connection).
-  const [[unit], entries, history, photos, [signature], revision, handovers, hold, superseded] =
+  const [[unit], entries, history, photos, [signature], revision, handovers, hold, superseded, decisions] =
     await Promise.all([
       db.select().from(units).where(eq(units.id, run.unitId)),
       db.select().from(runEntries).where(eq(runEntries.runId, runId)),
@@ -198,6 +203,7 @@ export async function loadRunView(
         .orderBy(asc(runHandovers.at), asc(runHandovers.id)),
       holdOf(db, run),
       supersessionOf(db, run),
+      decisionRows(db, runId),
     ]);
   const instrumentIds = [
     ...new Set([run.defaultInstrumentId, ...entries.map((e) => e.instrumentId)].filter((i) => i !== null)),
@@ -227,6 +233,7 @@ export async function loadRunView(
     ...(run.closedBy ? [run.closedBy] : []),
     ...entries.map((e) => e.enteredBy),
     ...photos.map((p) => p.addedBy),
+    ...decisions.holds.map((h) => h.openedBy),
     ...(signature ? [signature.signerId] : []),
   ]);
 
@@ -280,14 +287,15 @@ export async function loadRunView(
     const photoHashes = await rehashed(files, photos);
     verified =
       photoHashes.every((p) => p.sha256 !== null) &&
-      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes)) ===
+      runContentHash(contentOf(run, run.unitRecord ?? unitNow, entries, photoHashes, decisions)) ===
         signature.contentHash &&
       signature.contentHash === run.contentHash;
   }
   // What a witness signature must cover: the signed content, or (open run) the content as it stands.
   const currentHash =
     run.witnessId && witnessSignatures[0]
-      ? (run.contentHash ?? runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos))))
+      ? (run.contentHash ??
+        runContentHash(contentOf(run, unitNow, entries, await rehashed(files, photos), decisions)))
       : null;
   const quality = await releaseAndFollowUps(db, run);
   return {
@@ -334,6 +342,7 @@ export async function loadRunView(
     defaultInstrument: instrumentOf(run.defaultInstrumentId),
     paperSheet: run.paperSheetDate ? { date: run.paperSheetDate, reference: run.paperSheetRef } : null,
     hold,
+    ...decisionViews(run, decisions, who),
     // A withdrawn revision holds the run; the hold says so, not this.
     superseded: hold ? null : superseded,
     closed:
@@ -342,7 +351,7 @@ export async function loadRunView(
         : null,
     startedAt: run.startedAt.toISOString(),
     signedAt: iso(run.signedAt),
-    progress: progressOf(run.steps, state),
+    progress: progressOf(run.steps, state, excusedSteps(decisions.exceptions)),
     locked: lockedSteps(run.steps, state).locked,
   };
 }
@@ -378,6 +387,7 @@ export async function listRuns(
       run: runs,
       unit: { id: units.id, model: units.model, serial: units.serial },
       revisionState: revisions.state,
+      atHoldPoint: sql<boolean>`exists (select 1 from run_holds h where h.run_id = ${runs.id} and h.decision is null)`,
     })
     .from(runs)
     .innerJoin(units, eq(units.id, runs.unitId))
@@ -402,7 +412,7 @@ export async function listRuns(
     db,
     rows.flatMap((r) => [r.run.startedBy, r.run.performedBy]),
   );
-  return rows.map(({ run, unit, revisionState }) => {
+  return rows.map(({ run, unit, revisionState, atHoldPoint }) => {
     const state = new Map(entries.filter((e) => e.runId === run.id).map((e) => [e.stepId, e]));
     const p = progressOf(run.steps, state);
     return {
@@ -410,6 +420,7 @@ export async function listRuns(
       title: run.title,
       status: run.status,
       onHold: run.status === 'in_progress' && revisionState === 'withdrawn',
+      atHoldPoint: run.status === 'in_progress' && atHoldPoint,
       outOfTolerance: run.outOfTolerance,
       revisionNumber: run.revisionNumber,
       unit,

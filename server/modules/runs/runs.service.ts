@@ -15,6 +15,7 @@ import {
   acknowledgementRequired,
 } from '../acknowledgements/acknowledgements.service';
 import { assertWritable } from './run-custody';
+import { openHoldIfOutOfBand, refuseWhileHeld } from './run-decisions';
 import { usableInstrument } from '../registers/instruments.service';
 import { checkWitness, eligibility, isLiveWork } from '../registers/qualifications.service';
 import { checkEntryShape, decideReading, type DecidedReading } from './run-entry';
@@ -195,9 +196,10 @@ export async function recordEntry(
       const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
       const entry = rows.find((r) => r.stepId === stepId);
       if (!entry) throw notFound('This entry is no longer recorded.');
-      return { replayed: true, run, entry, rows, instrument: null };
+      return { replayed: true, run, entry, rows, instrument: null, stoppedAtHoldPoint: false };
     }
     await assertWritable(tx, run, user);
+    await refuseWhileHeld(tx, run);
     const step = run.steps.find((s) => s.id === stepId);
     if (!step) throw notFound(`This run has no step “${short(stepId, 40)}”.`);
     const rows = await tx.select().from(runEntries).where(eq(runEntries.runId, runId));
@@ -280,12 +282,20 @@ export async function recordEntry(
       enteredBy: user.id,
       enteredByName: user.displayName,
     });
+    const hold = await openHoldIfOutOfBand(tx, run, entry, reading !== null);
     // The run row is locked, so its entries are exactly `rows` with this one put in.
     const outOfTolerance = [...rows.filter((r) => r.id !== entry.id), entry].some((r) => r.within === false);
     if (outOfTolerance !== run.outOfTolerance)
       await tx.update(runs).set({ outOfTolerance }).where(eq(runs.id, runId));
     const after = [...rows.filter((r) => r.id !== entry.id), entry];
-    return { replayed: false, run: { ...run, outOfTolerance }, entry, rows: after, instrument };
+    return {
+      replayed: false,
+      run: { ...run, outOfTolerance },
+      entry,
+      rows: after,
+      instrument,
+      stoppedAtHoldPoint: hold !== null,
+    };
   });
 }
 

@@ -16,7 +16,12 @@ import { dischargeCheckMissing, dischargeThresholdHigh, waitShorterThanBleeder }
 import { hazardNoteMissing, liveStepUnguarded } from './rules/hazard';
 import { fuseReckonerMissing, procedureErrors, reckonerInputErrors } from './rules/inputs';
 import { partValuesDiffer } from './rules/parts';
-import { readingMainsUnstated, readingUnresolved, readingWithoutTolerance } from './rules/readings';
+import {
+  holdPointWithoutBand,
+  readingMainsUnstated,
+  readingUnresolved,
+  readingWithoutTolerance,
+} from './rules/readings';
 import type { CheckOptions, LintWarning, Rule } from './types';
 
 export type { CheckLevel, CheckOptions, LintCode, LintWarning } from './types';
@@ -43,6 +48,7 @@ export const RULES: readonly Rule[] = [
   readingWithoutTolerance,
   readingUnresolved,
   readingMainsUnstated,
+  holdPointWithoutBand,
   fuseReckonerMissing,
   reckonerCautions,
 ];

@@ -19,6 +19,7 @@ export type LintCode =
   | 'reading-without-tolerance'
   | 'reading-unresolved'
   | 'reading-mains-unstated'
+  | 'hold-point-without-band'
   | 'fuse-reckoner-missing'
   | 'block-empty';
 

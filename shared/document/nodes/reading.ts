@@ -31,6 +31,8 @@ export const readingAttrs = z
     tolerance: shortText(40),
     /** Taken on a powered unit. Absent: live when the unit is V, A, W or Hz (see isLiveReading). */
     live: yesNo(),
+    /** A hold point: out of band here, the bench run stops until a senior decides (continue or abandon). */
+    holdPoint: yesNo(),
   })
   .strict()
   .superRefine((r, ctx) => {
@@ -65,6 +67,10 @@ export function readingMeasure(
   return 'dc';
 }
 
+/** What a hold point means, in one sentence for the reader, the editor and the bench. */
+export const HOLD_POINT_WORDS =
+  'out of band here, the bench run stops until a reviewer or admin decides to continue or abandon';
+
 export const reading = defineNode({
   attrs: readingAttrs,
   content: 'none',
@@ -82,17 +88,19 @@ export const reading = defineNode({
     tolerance: '',
     // Null: live by its unit (V, A, W, Hz); true or false as the author marks it.
     live: null,
+    holdPoint: null,
   },
   inserted: { measure: 'dc', tolerance: '±10 %' },
   text: (a) => [
-    `Reading${a.live === true ? ' (live)' : ''}: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`,
+    `${a.holdPoint ? 'Hold point reading' : 'Reading'}${a.live === true ? ' (live)' : ''}: ${a.label} at ${a.testPoint} (${a.meterRange}), tolerance ${a.tolerance}`,
   ],
   html: (a, { reading }) => {
     const r = reading(a.id);
     const band = r?.bandText ?? `not resolved: ${r?.error ?? 'unknown'}`;
     const live = isLiveReading(a) ? '<tr><th>Live work</th><td>yes</td></tr>' : '';
+    const hold = a.holdPoint ? `<tr><th>Hold point</th><td>${esc(HOLD_POINT_WORDS)}</td></tr>` : '';
     const row = (th: string, td: string) => `<tr><th>${th}</th><td>${td}</td></tr>`;
-    return `<table class="reading"><tbody>${row('Measure', esc(a.label))}${row('At', esc(a.testPoint))}${row('Meter range', esc(a.meterRange))}${row('Expected', `${esc(band)} (${esc(a.tolerance)})`)}${live}</tbody></table>`;
+    return `<table class="reading"><tbody>${row('Measure', esc(a.label))}${row('At', esc(a.testPoint))}${row('Meter range', esc(a.meterRange))}${row('Expected', `${esc(band)} (${esc(a.tolerance)})`)}${live}${hold}</tbody></table>`;
   },
   // A reading in volts or amps saved before measures existed gets one from its meter range, else DC.
   upgrade: (a) => {
@@ -122,6 +130,7 @@ export const reading = defineNode({
         ...(r.error ? { error: r.error } : {}),
       },
       ...(isLiveReading(a) ? { live: true } : {}),
+      ...(a.holdPoint ? { holdPoint: true } : {}),
     };
   },
 });

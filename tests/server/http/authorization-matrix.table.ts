@@ -491,6 +491,32 @@ export const MATRIX: readonly MatrixRow[] = [
     probe: { params: { id: 'run' }, body: {} },
     expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 400 },
   },
+  // Hold points and deviations: the performer (a technician) records a step as not applicable or a
+  // deviation; a senior (reviewer or admin) decides holds and deviations and lists what waits.
+  {
+    method: 'get',
+    path: '/runs/awaiting-decision',
+    probe: {},
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 200, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: '/runs/:id/holds/:holdId/decision',
+    probe: { params: { id: 'run', holdId: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
+  {
+    method: 'post',
+    path: '/runs/:id/exceptions',
+    probe: { params: { id: 'run' }, body: {} },
+    expect: { anonymous: 401, technician: 400, author: 403, reviewer: 403, admin: 403 },
+  },
+  {
+    method: 'post',
+    path: '/runs/:id/exceptions/:exceptionId/decision',
+    probe: { params: { id: 'run', exceptionId: 'randomId' }, body: {} },
+    expect: { anonymous: 401, technician: 403, author: 403, reviewer: 400, admin: 400 },
+  },
   {
     method: 'get',
     path: '/runs/:id/sheet.pdf',

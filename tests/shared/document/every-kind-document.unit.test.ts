@@ -28,12 +28,13 @@ describe('the draft with every kind of block', () => {
     expect([...nodeTypesIn(doc)].sort()).toEqual([...NODE_TYPES].sort());
   });
 
-  it('holds every reckoner kind, check-step kind and hazard level, with unique reckoner names', () => {
+  it('holds every reckoner kind, check-step kind, hazard level and a hold point, with unique reckoner names', () => {
     const attr = (type: string, key: string) =>
       nodes.filter((n) => n.type === type).map((n) => n.attrs?.[key] ?? 'confirm');
     expect(new Set(attr('reckoner', 'kind'))).toEqual(new Set(RECKONER_KINDS));
     expect(new Set(attr('checkStep', 'kind'))).toEqual(new Set(CHECK_KINDS));
     expect(new Set(attr('hazardNote', 'level'))).toEqual(new Set(SIGNAL_LEVELS));
+    expect(nodes.some((n) => n.type === 'reading' && n.attrs?.holdPoint === true)).toBe(true);
     const names = attr('reckoner', 'name');
     expect(new Set(names).size).toBe(names.length);
   });

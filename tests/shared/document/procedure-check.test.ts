@@ -480,6 +480,16 @@ describe('faulty procedures: one planted fault each, flagged with its code', () 
     expect(message).toContain('will not follow the bench mains');
   });
 
+  it('a hold point reading with no tolerance, so no band that could stop the run (hold-point-without-band)', () => {
+    const { warnings } = plant(editAttrs('rd-primary', { tolerance: '', holdPoint: true }));
+    const held = warnings.filter((w) => w.code === 'hold-point-without-band');
+    expect(held.map((w) => w.blockId)).toEqual(['rd-primary']);
+    expect(held[0]!.message).toContain('no reading there can stop the run');
+    // With its band the same hold point is not reported.
+    const banded = plant(editAttrs('rd-primary', { holdPoint: true }));
+    expect(banded.warnings.filter((w) => w.code === 'hold-point-without-band')).toEqual([]);
+  });
+
   it('a quick-acting fuse on the transformer primary (reckoner-caution quick-acting-fuse)', () => {
     const { warnings } = plant(editInputs('rk-fuse', (i) => ({ ...i, fuseType: 'F' })));
     expect(findingsOf(warnings)).toEqual([]);

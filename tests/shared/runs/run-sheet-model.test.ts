@@ -242,4 +242,77 @@ describe('run sheet model', () => {
       '2026-03-04 05:06:07 UTC by Priya Lindqvist, as abandoned: unit left',
     );
   });
+
+  it('lists a hold point with its decision and step records with theirs, and marks the step rows', () => {
+    const record = (over: Partial<NonNullable<RunView['exceptions']>[number]>) => ({
+      id: 'x1',
+      stepId: 'discharge',
+      position: 5,
+      text: 'Reservoir discharged',
+      kind: 'deviation' as const,
+      reason: 'Discharged through the probe, 2 V read',
+      recordedBy: tom,
+      recordedAt: at,
+      decision: 'approved' as const,
+      decisionNote: 'Fine with a reading',
+      decidedBy: priya,
+      decidedAt: at,
+      current: true,
+      ...over,
+    });
+    const sheet = runSheetModel(
+      runView({
+        holdPoints: [
+          {
+            id: 'h1',
+            stepId: 'ht',
+            position: 1,
+            text: 'Reading ht',
+            raw: '290 V',
+            measured: 290,
+            unit: 'V',
+            low: 237.5,
+            high: 262.5,
+            openedBy: tom,
+            openedAt: at,
+            decision: 'continue',
+            reason: 'Cap replaced after the run',
+            decidedBy: priya,
+            decidedAt: at,
+          },
+        ],
+        exceptions: [
+          record({ id: 'x0', decision: 'refused', decisionNote: 'Use the bleeder wait', current: false }),
+          record({}),
+          record({
+            id: 'x2',
+            stepId: 'screen',
+            position: 4,
+            text: 'Reading screen',
+            kind: 'not_applicable',
+            reason: 'No screen supply on this chassis',
+            decision: null,
+            decisionNote: null,
+            decidedBy: null,
+            decidedAt: null,
+          }),
+        ],
+      }),
+    );
+    expect(sheet.decisions.map((f) => f.label)).toEqual([
+      'Hold point',
+      'Deviation (replaced)',
+      'Deviation',
+      'Not applicable',
+    ]);
+    expect(sheet.decisions[0]!.value).toBe(
+      '1. Reading ht: measured 290 V, expected 237.5 V … 262.5 V, 2026-03-04 05:06:07 UTC. Priya Lindqvist decided to continue, 2026-03-04 05:06:07 UTC: Cap replaced after the run',
+    );
+    expect(sheet.decisions[1]!.tone).toBe('out');
+    expect(sheet.decisions[2]!.value).toMatch(/Approved by Priya Lindqvist, .*: Fine with a reading$/);
+    expect(sheet.checks.find((c) => c.stepId === 'discharge')!.status).toBe(
+      'deviation, approved (see below)',
+    );
+    expect(sheet.readings.find((r) => r.stepId === 'screen')!.markText).toBe('not applicable (see below)');
+  });
 });

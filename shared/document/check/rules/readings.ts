@@ -35,3 +35,20 @@ export const readingMainsUnstated: Rule = {
         message: `${capitalise(readingName(r))} expects a typed ${'literal' in r.expected ? r.expected.literal : ''} but does not say whether it follows the mains, so it will not follow the bench mains. Mark it as following the mains (a winding, or a rail fed from one) or as fixed (a regulated rail, the mains itself).`,
       })),
 };
+
+/** A hold point stops the run only on a reading outside its band: without a band it could never stop it. */
+export const holdPointWithoutBand: Rule = {
+  code: 'hold-point-without-band',
+  level: 'warning',
+  run: ({ blocks, snapshot }) =>
+    blocks.readings
+      .filter((r) => r.holdPoint === true)
+      .filter((r) => {
+        const s = snapshot.readings.find((x) => x.id === r.id);
+        return !s || s.low === null || s.high === null;
+      })
+      .map((r) => ({
+        blockId: r.id,
+        message: `${capitalise(readingName(r))} is a hold point but has no expected band, so no reading there can stop the run. Give it an expected value and a tolerance.`,
+      })),
+};

@@ -38,7 +38,7 @@ export default function ApiReferencePage() {
             key={op.operationId}
             className="flex flex-col gap-2 rounded-lg border border-rule bg-card p-4"
           >
-            <h2 className="font-mono text-base font-semibold">
+            <h2 className="font-mono text-base font-semibold wrap-anywhere">
               <span className="uppercase">{method}</span> {base}
               {path}
             </h2>

@@ -15,6 +15,7 @@ import {
 import { WitnessRunForm } from '@/features/runs/components/witness-run-form';
 import { FollowUpCard } from '@/features/follow-ups/components/follow-up-card';
 import { ReleasePanel } from '@/features/follow-ups/components/release-panel';
+import { DeviationDecisions, HoldPointBanner } from '@/features/runs/components/run-decisions';
 import { RunSheet } from '@/features/runs/components/run-sheet';
 import { usePendingEntries } from '@/features/runs/lib/use-pending-entries';
 import { Loading } from '@/components/ui/loading';
@@ -40,6 +41,9 @@ export default function RunPage() {
   const open = r.status === 'in_progress';
   const performing = open && !r.hold && hasRole(user, 'technician') && r.performedBy.id === user?.id;
   const inCharge = open && (r.performedBy.id === user?.id || hasRole(user, 'admin'));
+  // A reviewer or admin not performing the run decides its holds and deviations.
+  const senior =
+    open && (hasRole(user, 'reviewer') || hasRole(user, 'admin')) && r.performedBy.id !== user?.id;
   return (
     <section className="flex flex-col gap-4">
       <header className="flex flex-wrap items-end gap-3">
@@ -65,6 +69,8 @@ export default function RunPage() {
         </Notice>
       )}
       {open && r.hold && <HoldBanner hold={r.hold} />}
+      <HoldPointBanner run={r} canDecide={senior} />
+      {senior && <DeviationDecisions run={r} />}
       {open && r.superseded && (
         <SupersededBanner
           superseded={r.superseded}

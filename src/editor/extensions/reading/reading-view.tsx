@@ -2,6 +2,7 @@ import { useId } from 'react';
 import type { NodeViewProps } from '@tiptap/react';
 import type { ReadingAttrs } from '@shared/document/schema';
 import { readingMeasure } from '@shared/document/upgrade';
+import { HOLD_POINT_WORDS } from '@shared/document/nodes';
 import { MEASURE_WORDS } from '@shared/reckoners/measures';
 import {
   LIVE_READING_UNITS,
@@ -66,6 +67,7 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
     expected: useId(),
     mains: useId(),
     live: useId(),
+    hold: useId(),
   };
   const resolved = readingResult(evaluation, attrs.id);
   const fromBlock = 'ref' in attrs.expected;
@@ -227,6 +229,18 @@ export function ReadingView({ node, updateAttributes, deleteNode, selected }: No
             ))}
           </select>
         </div>
+        <label htmlFor={ids.hold} className="flex min-h-11 items-center gap-2 text-sm sm:col-span-3">
+          <input
+            id={ids.hold}
+            type="checkbox"
+            className="size-5"
+            checked={attrs.holdPoint === true}
+            onChange={(e) => updateAttributes({ holdPoint: e.target.checked ? true : null })}
+          />
+          <span>
+            <strong>Hold point</strong>: {HOLD_POINT_WORDS}
+          </span>
+        </label>
       </div>
       <p className="mt-3 text-sm" data-reading-band aria-live="polite">
         {resolved?.bandText ? (

@@ -6,6 +6,7 @@ import { formatQuantity } from '@shared/units';
 import type { PendingEntry } from '../lib/entry-queue';
 import { SignRunForm } from './sign-run-form';
 import { StepCard } from './step-card';
+import { StepRecord } from './run-decisions';
 
 type Mode = 'one' | 'all';
 const MODE_KEY = 'benchwright.checklist-mode';
@@ -21,8 +22,14 @@ function effectiveState(run: RunView, pending: PendingEntry[]) {
       measured: cur.measured || p.body.value !== undefined,
     });
   }
+  // Not applicable, or a deviation a senior approved, finishes a step too.
+  const excused = new Set(
+    (run.exceptions ?? [])
+      .filter((x) => x.current && (x.kind === 'not_applicable' || x.decision === 'approved'))
+      .map((x) => x.stepId),
+  );
   const finished = (s: RunStep) =>
-    s.kind === 'reading' ? !!state.get(s.id)?.measured : !!state.get(s.id)?.done;
+    excused.has(s.id) || (s.kind === 'reading' ? !!state.get(s.id)?.measured : !!state.get(s.id)?.done);
   const gate = run.steps.find((s) => s.kind === 'hazard' && !state.get(s.id)?.done);
   const locked = new Set(gate ? run.steps.filter((s) => s.position > gate.position).map((s) => s.id) : []);
   return { finished, locked, done: run.steps.filter(finished).length };
@@ -62,7 +69,15 @@ export function BenchChecklist({
       locked={locked.has(s.id)}
       photos={run.photos.filter((p) => p.stepId === s.id)}
       defaultInstrument={run.defaultInstrument}
-    />
+    >
+      {s.kind !== 'hazard' && !locked.has(s.id) && (
+        <StepRecord
+          runId={run.id}
+          step={s}
+          records={(run.exceptions ?? []).filter((x) => x.stepId === s.id)}
+        />
+      )}
+    </StepCard>
   );
   return (
     <div className="flex flex-col gap-4">

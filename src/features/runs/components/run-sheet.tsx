@@ -181,6 +181,13 @@ export function RunSheet({ run }: { run: RunView }) {
         </ol>
       </section>
 
+      {sheet.decisions.length > 0 && (
+        <section data-sheet-decisions className="rounded-lg border border-rule bg-card p-4">
+          <h2 className="font-semibold">{SHEET_HEADINGS.decisions}</h2>
+          <Fields fields={sheet.decisions} />
+        </section>
+      )}
+
       {sheet.instruments.length > 0 && (
         <section
           data-sheet-instruments

@@ -34,6 +34,7 @@ export function RunsTable({
           <td className="px-3 py-2">
             {{ signed: 'Signed', abandoned: 'Closed as abandoned', in_progress: 'In progress' }[r.status]}
             {r.onHold && <span className="ml-2 font-semibold text-out">on hold: revision withdrawn</span>}
+            {r.atHoldPoint && <span className="ml-2 font-semibold text-out">stopped at a hold point</span>}
             {r.outOfTolerance && <span className="ml-2 font-semibold text-out">▲ {MARK_WORDS.out}</span>}
           </td>
           <td className="px-3 py-2">

@@ -1,4 +1,4 @@
-import { useId, useMemo, useState } from 'react';
+import { useId, useMemo, useState, type ReactNode } from 'react';
 import { z } from 'zod';
 import {
   entryBody,
@@ -383,7 +383,7 @@ function TickStep({ runId, step, entry, pending }: Props) {
 }
 
 /** One step of the bench checklist: a reading, a check step or a hazard note. */
-export function StepCard(props: Props) {
+export function StepCard(props: Props & { children?: ReactNode }) {
   const { step, locked, entry, pending, runId, photos } = props;
   const hazard = step.kind === 'hazard';
   const sign = hazard ? signFor(step.hazard?.level ?? 'danger') : null;
@@ -407,6 +407,15 @@ export function StepCard(props: Props) {
         <span className="value text-sm text-graphite-soft">Step {step.position}</span>
         <span className="text-xs font-semibold uppercase tracking-wide text-graphite-soft">{kindLabel}</span>
         {step.section && <span className="text-xs text-graphite-soft">· {step.section}</span>}
+        {step.holdPoint && (
+          <span
+            data-hold-point-marker
+            title="Out of band here, the run stops until a reviewer or admin decides"
+            className="rounded border-2 border-out px-2 text-xs font-bold uppercase tracking-wide text-out"
+          >
+            Hold point
+          </span>
+        )}
       </header>
       {hazard && !!step.hazard?.flags?.length && (
         <ul className="flex flex-wrap gap-1 text-sm font-semibold" aria-label="Live-work cautions">
@@ -439,6 +448,7 @@ export function StepCard(props: Props) {
       )}
       <Status entry={entry} pending={pending} />
       {!hazard && !locked && <StepPhoto runId={runId} stepId={step.id} photos={photos} />}
+      {props.children}
     </article>
   );
 }

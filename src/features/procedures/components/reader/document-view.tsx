@@ -106,6 +106,7 @@ const RUNS = {
         key={key}
         readings={attrs.map((a) => snapshot.readings.find((r) => r.id === a.id)).filter((r) => !!r)}
         live={new Set(attrs.filter(isLiveReading).map((a) => a.id))}
+        holdPoints={new Set(attrs.filter((a) => a.holdPoint).map((a) => a.id))}
       />
     );
   },

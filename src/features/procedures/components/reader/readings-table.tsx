@@ -1,12 +1,16 @@
 import type { ResolvedReading } from '@shared/document/evaluate';
+import { HOLD_POINT_WORDS } from '@shared/document/nodes';
 
 /** Consecutive readings as one table: what, where, meter range, expected band; live ones say so. */
 export function ReadingsTable({
   readings,
   live = new Set(),
+  holdPoints = new Set(),
 }: {
   readings: ResolvedReading[];
   live?: ReadonlySet<string>;
+  /** Readings where an out-of-band value stops a bench run until a senior decides. */
+  holdPoints?: ReadonlySet<string>;
 }) {
   return (
     // A box that may scroll sideways is focusable and named, so a keyboard can scroll it too.
@@ -45,6 +49,11 @@ export function ReadingsTable({
                 {live.has(r.id) && (
                   <span className="block text-xs font-normal text-graphite-soft">
                     Live work: unit powered
+                  </span>
+                )}
+                {holdPoints.has(r.id) && (
+                  <span data-hold-point-marker className="block text-xs text-out">
+                    <strong className="uppercase">Hold point</strong>: {HOLD_POINT_WORDS}
                   </span>
                 )}
               </td>
