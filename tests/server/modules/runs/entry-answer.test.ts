@@ -108,6 +108,7 @@ describe('the answer to a bench-run entry', () => {
         lastKey: 'k',
         enteredBy: { id: 'p', displayName: 'P' },
         enteredAt: '2026-01-01T00:00:00.000Z',
+        takenOn: null,
         instrument: null,
         recentHistory: [],
       },
@@ -117,9 +118,14 @@ describe('the answer to a bench-run entry', () => {
         outOfTolerance: false,
         progress: { done: 1, total: 1, outOfTolerance: 0 },
         locked: [],
+        stoppedAtHoldPoint: false,
       },
     });
     expect(applyEntryAnswer(held, answer)!.witness!.signature!.current).toBe(false);
     expect(applyEntryAnswer(held, { ...answer, replayed: true })!.witness!.signature!.current).toBe(true);
+    // An entry that stopped the run at a hold point: the run (with its hold) is read again.
+    expect(
+      applyEntryAnswer(held, { ...answer, run: { ...answer.run, stoppedAtHoldPoint: true } }),
+    ).toBeNull();
   });
 });

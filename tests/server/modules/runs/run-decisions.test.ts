@@ -74,7 +74,8 @@ describe('a hold point', () => {
     const { priya, runId } = await openRun();
     const res = await entry(priya, runId, 'rd-heater', { value: '6.4 V' });
     expect(res.status).toBe(200);
-    expect(res.body.run.holdPoints).toEqual([]);
+    expect(res.body.run.stoppedAtHoldPoint).toBe(false);
+    expect((await priya.get(`/api/runs/${runId}`)).body.run.holdPoints).toEqual([]);
     expect((await entry(priya, runId, 'ck-discharge', { done: true })).status).toBe(200);
   });
 
@@ -83,7 +84,10 @@ describe('a hold point', () => {
     // 7.2 V is outside 6.3 V ± 0.3 V (6.0 … 6.6 V).
     const out = await entry(priya, runId, 'rd-heater', { value: '7.2 V' });
     expect(out.status).toBe(200);
-    const [hold] = out.body.run.holdPoints as RunView['holdPoints'] & object[];
+    // The entry's answer says the run stopped; the run page shows the hold.
+    expect(out.body.run.stoppedAtHoldPoint).toBe(true);
+    const held = (await priya.get(`/api/runs/${runId}`)).body.run as RunView;
+    const [hold] = held.holdPoints as RunView['holdPoints'] & object[];
     expect(hold).toMatchObject({ stepId: 'rd-heater', raw: '7.2 V', decision: null });
 
     // Everything else waits, with a sentence that says why and who decides.
@@ -173,8 +177,8 @@ describe('a hold point', () => {
 
   it('a reviewer may abandon the run there: it closes as abandoned, with the reason', async () => {
     const { priya, runId } = await openRun();
-    const out = await entry(priya, runId, 'rd-heater', { value: '5.1 V' });
-    const holdId = out.body.run.holdPoints[0].id as string;
+    await entry(priya, runId, 'rd-heater', { value: '5.1 V' });
+    const holdId = (await priya.get(`/api/runs/${runId}`)).body.run.holdPoints[0].id as string;
     const dee = await t.as('dee');
     const res = await decideHold(dee, runId, holdId, {
       decision: 'abandon',
@@ -189,8 +193,8 @@ describe('a hold point', () => {
 
   it('the database refuses entries while held, a decided insert, a hold on another step, and a decision by the performer or a technician', async () => {
     const { priya, runId } = await openRun();
-    const out = await entry(priya, runId, 'rd-heater', { value: '7.0 V' });
-    const holdId = out.body.run.holdPoints[0].id as string;
+    await entry(priya, runId, 'rd-heater', { value: '7.0 V' });
+    const holdId = (await priya.get(`/api/runs/${runId}`)).body.run.holdPoints[0].id as string;
     const priyaId = await personId(t, 'priya');
     const samId = await personId(t, 'sam');
     expect(
