@@ -170,8 +170,10 @@ describe('a bench run in Chromium', () => {
     expect(described).toMatch(/Out of band: \d+\. /);
     expect(await plot.locator(`[data-plot-point="${outReading}"] [data-marker="out"]`).count()).toBe(1);
     expect(await plot.locator('text', { hasText: 'Deviation from expected (%)' }).count()).toBe(1);
-    await page.getByText('The plotted figures as a table').click();
-    const figures = page.locator('[data-plot-table] table');
+    // The readings figure's own table (the run sheet draws reckoner pictures as well).
+    const readingsFigure = page.getByRole('figure').filter({ has: plot });
+    await readingsFigure.getByText('The plotted figures as a table').click();
+    const figures = readingsFigure.locator('[data-plot-table] table');
     await figures.waitFor();
     expect(await figures.locator('th[scope="col"]').allTextContents()).toEqual([
       'Reading',

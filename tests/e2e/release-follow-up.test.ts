@@ -68,7 +68,7 @@ describe('release signature and follow-up, in Chromium', () => {
     const first = await startFor(tom, serial);
     await enterAll('tom', first, 0.8);
     await signPerformed(tom, 'tom', first);
-    await tom.locator('[data-follow-up]').getByText('open').waitFor();
+    await tom.locator('[data-follow-up]').getByText('open', { exact: true }).first().waitFor();
     await tom.getByText('Released by').waitFor();
     await tom.goto(`${app.url}/follow-ups`);
     const card = tom.getByRole('article', { name: `Follow-up on TC-18 ${serial}` });
