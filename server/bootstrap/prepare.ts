@@ -27,6 +27,9 @@ export const PORTS = {
   healthDb: 54349 + TEST_SLOT * 20,
   restoreDb: 54350 + TEST_SLOT * 20,
   mainS3: env.BW_S3_PORT,
+  /** The multi-node test's three app processes (54351…54353) and nginx in front (54357). */
+  multiNodeApps: 54351 + TEST_SLOT * 20,
+  multiNodeProxy: 54357 + TEST_SLOT * 20,
   testS3: 54358 + TEST_SLOT * 20,
 } as const;
 export const testClientDir = path.join(projectRoot, 'dist', `client-test-${TEST_SLOT}`);

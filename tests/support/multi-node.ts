@@ -11,9 +11,9 @@ import { startSecondServer, type ServerProcess } from './second-server';
 
 export const NGINX = '/usr/sbin/nginx';
 
-/** The slot's ports above its database clusters: the app processes, then nginx. */
-const appPort = (i: number) => PORTS.testDb + 12 + i;
-const proxyPort = PORTS.testDb + 19;
+/** The slot's ports for the app processes and nginx (server/bootstrap/prepare.ts keeps the slot's port plan). */
+const appPort = (i: number) => PORTS.multiNodeApps + i;
+const proxyPort = PORTS.multiNodeProxy;
 
 /** The sample configuration of the README, on loopback, for `ports` behind one `listen` port. */
 export function nginxConfig(opts: { listen: number; upstreams: number[]; dir: string }) {

@@ -262,19 +262,18 @@ describe('readings copied from a paper sheet', () => {
     expect(said.status).toBe(200);
     expect(said.body.run.paperSheet).toEqual({ date: today, reference: null });
     const taken = await entry(tom, runId, 'rd-ht-ac', { value: '250 V' });
-    expect(taken.body.run.entries.find((e: { stepId: string }) => e.stepId === 'rd-ht-ac').takenOn).toBe(
-      today,
-    );
-    expect(
-      taken.body.run.entries.find((e: { stepId: string }) => e.stepId === 'hz-ht-live').takenOn,
-    ).toBeNull();
+    // The entry's answer carries its paper date; the run page shows it beside the earlier entry.
+    expect(taken.body.entry.takenOn).toBe(today);
+    const entriesNow = async () =>
+      (await tom.get(`/api/runs/${runId}`)).body.run.entries as { stepId: string; takenOn: string | null }[];
+    expect((await entriesNow()).find((e) => e.stepId === 'rd-ht-ac')!.takenOn).toBe(today);
+    expect((await entriesNow()).find((e) => e.stepId === 'hz-ht-live')!.takenOn).toBeNull();
     // Back at the bench: the next entries are the tablet's own again.
     const back = await tom.put(`/api/runs/${runId}/paper-sheet`).send({ paperSheet: null });
     expect(back.body.run.paperSheet).toBeNull();
     const heater = await entry(tom, runId, 'rd-heater', { value: '6.3' });
-    expect(
-      heater.body.run.entries.find((e: { stepId: string }) => e.stepId === 'rd-heater').takenOn,
-    ).toBeNull();
+    expect(heater.body.entry.takenOn).toBeNull();
+    expect((await entriesNow()).find((e) => e.stepId === 'rd-heater')!.takenOn).toBeNull();
   });
 
   it('the database refuses a paper date in the future, before approval, or an entry dated otherwise', async () => {
