@@ -1,6 +1,6 @@
 import PDFDocument from 'pdfkit';
 import type { BenchSheetModel, BenchSheetStep } from '../../../shared/runs/bench-sheet-model';
-import { cautionBox, INK, pdfText, signBand, type Doc } from '../runs/pdf-parts';
+import { cautionBox, INK, pageFrame, pdfText, signBand, type Doc } from '../runs/pdf-parts';
 
 const SOFT = '#5a5650';
 const RULE = '#8a8275';
@@ -27,8 +27,7 @@ export function renderBenchSheetPdf(sheet: BenchSheetModel): Promise<Buffer> {
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
-  const left = doc.page.margins.left;
-  const width = doc.page.width - left - doc.page.margins.right;
+  const { left, width, ensure, heading } = pageFrame(doc);
   const stamp = () => {
     const y = doc.y;
     doc
@@ -41,20 +40,6 @@ export function renderBenchSheetPdf(sheet: BenchSheetModel): Promise<Buffer> {
   };
   stamp();
   doc.on('pageAdded', stamp);
-  const ensure = (h: number) => {
-    if (doc.y + h > doc.page.height - doc.page.margins.bottom) doc.addPage();
-  };
-  const heading = (t: string) => {
-    ensure(40);
-    doc
-      .moveDown(0.6)
-      .font('Helvetica-Bold')
-      .fontSize(12)
-      .fillColor('#134a44')
-      .text(pdfText(t), left, doc.y, { width })
-      .fillColor(INK)
-      .moveDown(0.2);
-  };
 
   doc.font('Helvetica-Bold').fontSize(16).text(pdfText(sheet.title), left, doc.y, { width });
   doc

@@ -86,3 +86,24 @@ export function cautionBox(doc: Doc, caution: Caution, left: number, width: numb
   doc.y = cautionTop + cautionHeight + 4;
   doc.fillColor(INK);
 }
+
+/** The page frame both sheets write in: the text column, a page break before a block that won't fit, and a section heading. */
+export function pageFrame(doc: Doc) {
+  const left = doc.page.margins.left;
+  const width = doc.page.width - left - doc.page.margins.right;
+  const ensure = (h: number) => {
+    if (doc.y + h > doc.page.height - doc.page.margins.bottom) doc.addPage();
+  };
+  const heading = (t: string) => {
+    ensure(40);
+    doc
+      .moveDown(0.6)
+      .font('Helvetica-Bold')
+      .fontSize(12)
+      .fillColor('#134a44')
+      .text(pdfText(t), left, doc.y, { width })
+      .fillColor(INK)
+      .moveDown(0.2);
+  };
+  return { left, width, ensure, heading };
+}

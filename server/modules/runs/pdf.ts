@@ -14,7 +14,7 @@ import {
 } from '../../../shared/runs/run-sheet-model';
 import type { RunView } from '../../../shared/schemas/runs';
 import { drawRunPictures } from './pdf-reckoner-pictures';
-import { cautionBox, INK, pdfText, signBand } from './pdf-parts';
+import { cautionBox, INK, pageFrame, pdfText, signBand } from './pdf-parts';
 
 export { pdfText } from './pdf-parts';
 
@@ -82,23 +82,7 @@ export function renderRunSheetPdf(run: RunView): Promise<Buffer> {
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
-  const left = doc.page.margins.left;
-  const width = doc.page.width - left - doc.page.margins.right;
-  const bottom = () => doc.page.height - doc.page.margins.bottom;
-  const ensure = (h: number) => {
-    if (doc.y + h > bottom()) doc.addPage();
-  };
-  const heading = (t: string) => {
-    ensure(40);
-    doc
-      .moveDown(0.6)
-      .font('Helvetica-Bold')
-      .fontSize(12)
-      .fillColor('#134a44')
-      .text(pdfText(t), left, doc.y, { width })
-      .fillColor(INK)
-      .moveDown(0.2);
-  };
+  const { left, width, ensure, heading } = pageFrame(doc);
   const line = (label: string, value: string, tone?: SheetField['tone']) => {
     ensure(14);
     doc
